@@ -1,0 +1,2 @@
+export * from "./spec.js";
+export * from "./catalogue.js";

@@ -1,0 +1,61 @@
+/**
+ * Errors are answers: every error names what went wrong in terms the user can act on.
+ *
+ * - `InputError`: a parameter had a bad value. Names the parameter, the value given and what was
+ *   expected (range, unit, shape). The value is kept as given (never coerced or truncated).
+ * - `ConvergenceError`: a solver did not converge. Carries its diagnostics (iterations, residual,
+ *   last estimate) so the user can judge what happened.
+ */
+
+export class InputError extends Error {
+  override readonly name = "InputError";
+  constructor(
+    /** The parameter (input name, file, column ...) the problem is about. */
+    readonly parameter: string,
+    /** The value as given by the user, unchanged. */
+    readonly value: unknown,
+    /** What was expected, in words: "a positive length", "shape (ny, nx, 3)". */
+    readonly expected: string,
+    detail?: string,
+  ) {
+    super(
+      `${parameter} = ${describeValue(value)} is not valid: expected ${expected}` +
+        (detail ? `. ${detail}` : ""),
+    );
+  }
+}
+
+export class ConvergenceError extends Error {
+  override readonly name = "ConvergenceError";
+  constructor(
+    /** Which solver (and for what) failed. */
+    readonly solver: string,
+    message: string,
+    /** Counts, residuals and last estimates of the failed attempt. */
+    readonly diagnostics: Record<string, unknown> = {},
+  ) {
+    super(`${solver} did not converge: ${message}` + formatDiagnostics(diagnostics));
+  }
+}
+
+/** Short, faithful rendering of a user's value for an error message. */
+export function describeValue(value: unknown): string {
+  if (typeof value === "string") return JSON.stringify(value);
+  if (typeof value === "number") return Number.isNaN(value) ? "NaN" : String(value);
+  if (value === undefined) return "(missing)";
+  if (value === null) return "null";
+  if (Array.isArray(value)) return `array of length ${value.length}`;
+  if (ArrayBuffer.isView(value)) return `${value.constructor.name} of length ${(value as unknown as ArrayLike<number>).length}`;
+  try {
+    const s = JSON.stringify(value);
+    return s.length > 80 ? s.slice(0, 77) + "..." : s;
+  } catch {
+    return String(value);
+  }
+}
+
+function formatDiagnostics(d: Record<string, unknown>): string {
+  const keys = Object.keys(d);
+  if (keys.length === 0) return "";
+  return " (" + keys.map((k) => `${k}: ${describeValue(d[k])}`).join(", ") + ")";
+}

@@ -1,0 +1,130 @@
+/**
+ * Units at the edges: parse user input (SI number or string with units) into an SI number,
+ * checked for dimension with mathjs; format SI numbers in the trade's customary units.
+ */
+import { unit as mathUnit, type Unit } from "mathjs";
+import { InputError } from "../errors.js";
+
+/** A value as a user may give it: an SI number, or a string such as "15 pJ/m" or "1.1e6". */
+export type QuantityInput = number | string;
+
+const plainNumber = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$/;
+
+const dimensionCache = new Map<string, Unit>();
+function referenceUnit(siUnit: string): Unit {
+  let u = dimensionCache.get(siUnit);
+  if (!u) {
+    u = mathUnit(`1 ${siUnit}`);
+    dimensionCache.set(siUnit, u);
+  }
+  return u;
+}
+
+/**
+ * Parse `raw` as a quantity with the dimension of `siUnit` and return its value in `siUnit`.
+ * Numbers (and numeric strings) are taken as already in `siUnit`. `name` is the parameter name used
+ * in error messages. An empty `siUnit` ("" or "1") means dimensionless.
+ */
+export function parseQuantity(name: string, raw: QuantityInput, siUnit: string): number {
+  if (typeof raw === "number") {
+    if (!Number.isFinite(raw)) throw new InputError(name, raw, `a finite number in ${siUnit || "no unit"}`);
+    return raw;
+  }
+  if (typeof raw !== "string") {
+    throw new InputError(name, raw, `a number in ${siUnit || "no unit"} or a string with a unit`);
+  }
+  if (plainNumber.test(raw)) return Number(raw);
+  const dimensionless = siUnit === "" || siUnit === "1";
+  let parsed: Unit;
+  try {
+    parsed = mathUnit(raw.trim());
+  } catch (err) {
+    throw new InputError(
+      name,
+      raw,
+      dimensionless ? "a plain number" : `a number with a unit of the dimension of ${siUnit}, such as "${exampleFor(siUnit)}"`,
+      (err as Error).message,
+    );
+  }
+  if (dimensionless) {
+    throw new InputError(name, raw, "a plain number (this parameter has no unit)");
+  }
+  const ref = referenceUnit(siUnit);
+  if (!parsed.equalBase(ref)) {
+    throw new InputError(
+      name,
+      raw,
+      `a quantity of the dimension of ${siUnit}, such as "${exampleFor(siUnit)}"`,
+      `"${raw}" has the dimension of ${dimensionName(parsed)}`,
+    );
+  }
+  if (parsed.value === null) {
+    throw new InputError(name, raw, `a number with its unit, such as "${exampleFor(siUnit)}"`);
+  }
+  const v = parsed.toNumber(siUnit);
+  if (!Number.isFinite(v)) throw new InputError(name, raw, `a finite quantity in ${siUnit}`);
+  return v;
+}
+
+/** Customary display units of the trade for each SI unit, largest first. */
+const customary: Record<string, Array<[string, number]>> = {
+  m: [["mm", 1e-3], ["um", 1e-6], ["nm", 1e-9], ["pm", 1e-12]],
+  "A/m": [["MA/m", 1e6], ["kA/m", 1e3], ["A/m", 1]],
+  "J/m": [["pJ/m", 1e-12]],
+  "J/m^2": [["mJ/m^2", 1e-3]],
+  "J/m^3": [["MJ/m^3", 1e6], ["kJ/m^3", 1e3], ["J/m^3", 1]],
+  T: [["T", 1], ["mT", 1e-3], ["uT", 1e-6], ["nT", 1e-9]],
+  J: [["aJ", 1e-18], ["zJ", 1e-21]],
+  s: [["s", 1], ["ms", 1e-3], ["us", 1e-6], ["ns", 1e-9], ["ps", 1e-12]],
+  "m/s": [["m/s", 1]],
+  K: [["K", 1], ["mK", 1e-3]],
+  Hz: [["THz", 1e12], ["GHz", 1e9], ["MHz", 1e6], ["kHz", 1e3], ["Hz", 1]],
+  "W/(K m)": [["W/(K m)", 1]],
+};
+
+/** The customary unit and its factor for a value in `siUnit` (e.g. 3e-9 m -> ["nm", 1e-9]). */
+export function customaryUnit(value: number, siUnit: string): [string, number] {
+  const options = customary[siUnit];
+  if (!options) return [siUnit, 1];
+  if (options.length === 1) return options[0]!;
+  const a = Math.abs(value);
+  if (a === 0 || !Number.isFinite(a)) return options.find(([, f]) => f === 1) ?? options[0]!;
+  for (const opt of options) if (a >= opt[1] * 0.9995) return opt;
+  return options[options.length - 1]!;
+}
+
+/** Format an SI value in a customary unit with `digits` significant digits: "12.3 nm". */
+export function formatQuantity(value: number, siUnit: string, digits = 4): string {
+  if (!Number.isFinite(value)) return `${value} ${siUnit}`.trim();
+  const [u, f] = customaryUnit(value, siUnit);
+  const v = value / f;
+  return `${formatNumber(v, digits)}${u && u !== "1" ? " " + displayUnit(u) : ""}`;
+}
+
+/** A unit string as shown to people: "um" as "µm", "m^2" as "m²". */
+export function displayUnit(u: string): string {
+  return u.replace(/\bu(?=[mTsJ])/g, "µ").replace(/\^2/g, "²").replace(/\^3/g, "³").replace(/\^-1/g, "⁻¹");
+}
+
+/** A number with `digits` significant digits, switching to exponent form for very large or small. */
+export function formatNumber(v: number, digits = 4): string {
+  if (!Number.isFinite(v)) return String(v);
+  if (v === 0) return "0";
+  const a = Math.abs(v);
+  if (a >= 1e-3 && a < 1e6) return String(Number(v.toPrecision(digits)));
+  const [mant, exp] = v.toExponential(digits - 1).split("e");
+  return `${Number(mant)}e${exp!.replace("+", "")}`;
+}
+
+/** Named dimensions, so an error says "T" rather than "kg / (s^2 A)". */
+const namedDimensions = ["T", "A/m", "J/m", "J/m^2", "J/m^3", "J", "m", "s", "K", "Hz", "m/s", "A"];
+function dimensionName(u: Unit): string {
+  for (const name of namedDimensions) if (u.equalBase(referenceUnit(name))) return name;
+  return u.toSI().formatUnits() || "a pure number";
+}
+
+function exampleFor(siUnit: string): string {
+  const c = customary[siUnit];
+  if (!c) return `1 ${siUnit}`;
+  return `1 ${c[Math.min(1, c.length - 1)]![0]}`;
+}

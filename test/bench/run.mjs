@@ -1,0 +1,34 @@
+#!/usr/bin/env node
+// `npm run bench`: runs every test/bench/*.bench.mjs (each exports `default async () => rows`),
+// prints one table of side-by-side figures and writes test-output/bench.json.
+// A row: { group, name, ours_ms, reference?, reference_ms?, ratio?, goal }.
+// Benchmarks report; they never fail on a time (timing belongs here, not in tests).
+import { readdirSync, mkdirSync, writeFileSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+
+const here = dirname(fileURLToPath(import.meta.url));
+const only = process.argv.slice(2);
+const files = readdirSync(here)
+  .filter((f) => f.endsWith(".bench.mjs"))
+  .filter((f) => only.length === 0 || only.some((o) => f.includes(o)))
+  .sort();
+const rows = [];
+for (const f of files) {
+  process.stderr.write(`bench: ${f}\n`);
+  try {
+    const mod = await import(pathToFileURL(join(here, f)).href);
+    for (const r of await mod.default()) rows.push({ file: f, ...r });
+  } catch (err) {
+    rows.push({ file: f, group: f, name: "(failed)", error: String(err && err.stack || err) });
+  }
+}
+const fmt = (v) => (v === undefined ? "" : typeof v === "number" ? (Math.abs(v) >= 100 ? v.toFixed(0) : v.toPrecision(3)) : String(v));
+console.log(["group", "name", "ours (ms)", "reference", "reference (ms)", "ratio", "goal"].join(" | "));
+for (const r of rows) {
+  if (r.error) { console.log(`${r.group} | FAILED | ${r.error.split("\n")[0]}`); continue; }
+  console.log([r.group, r.name, fmt(r.ours_ms), r.reference ?? "", fmt(r.reference_ms), fmt(r.ratio), r.goal ?? ""].join(" | "));
+}
+const out = join(here, "..", "..", "test-output");
+mkdirSync(out, { recursive: true });
+writeFileSync(join(out, "bench.json"), JSON.stringify(rows, null, 2));

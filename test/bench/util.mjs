@@ -1,0 +1,26 @@
+// Shared timing helpers for benchmarks. Timings are medians over repeated runs after warm-up.
+import { spawnSync } from "node:child_process";
+export const systemPython = process.env.HELICOID_PYTHON ?? "/usr/bin/python3";
+
+/** Median wall time in ms of fn() over `runs` runs after `warmup` runs. */
+export async function medianMs(fn, { runs = 21, warmup = 3 } = {}) {
+  for (let i = 0; i < warmup; i++) await fn();
+  const t = [];
+  for (let i = 0; i < runs; i++) {
+    const t0 = performance.now();
+    await fn();
+    t.push(performance.now() - t0);
+  }
+  t.sort((a, b) => a - b);
+  return t[Math.floor(t.length / 2)];
+}
+
+/**
+ * Run a Python timing script with the system interpreter. The script reads JSON from stdin and
+ * prints JSON with at least {"ms": median milliseconds}.
+ */
+export function pythonTiming(script, input = null) {
+  const r = spawnSync(systemPython, ["-c", script], { input: JSON.stringify(input), encoding: "utf8", maxBuffer: 1 << 30 });
+  if (r.status !== 0) throw new Error(`python timing failed: ${r.stderr}`);
+  return JSON.parse(r.stdout);
+}
