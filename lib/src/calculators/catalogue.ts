@@ -7,8 +7,16 @@ import { InputError } from "../errors.js";
 import { wallCalculators } from "./walls.js";
 import { topologyCalculators } from "./topology.js";
 import { berryCalculators } from "./berry.js";
+import { skyrmionCalculators } from "./skyrmions.js";
+import { fitCalculators } from "./fit.js";
 
-export const catalogue: readonly CalculatorSpec[] = [...wallCalculators, ...topologyCalculators, ...berryCalculators];
+export const catalogue: readonly CalculatorSpec[] = [
+  ...wallCalculators,
+  ...skyrmionCalculators,
+  ...topologyCalculators,
+  ...berryCalculators,
+  ...fitCalculators,
+];
 
 export function getCalculator(id: string): CalculatorSpec {
   const spec = catalogue.find((s) => s.id === id);
