@@ -1,2 +1,4 @@
 export {};
 export * from "./ellipticIntegrals.js";
+export * from "./tanhSinhQuadrature.js";
+export * from "./minimize2d.js";
