@@ -1,0 +1,132 @@
+#!/usr/bin/env node
+/**
+ * Build of @helicoid/widgets (run by the root `npm run build`):
+ *   1. dist/worker.js          the compute worker (bundled @helicoid/lib), embedded as text below
+ *   2. dist/export.js          the standalone bootstrap of exported pages (html-manager, standard
+ *                              controls, our module, plotly, CSS injected), one IIFE script
+ *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
+ *   4. lib/plugin.js           our module + JupyterLab plugin as one ESM file, shared packages external
+ *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
+ * `node build.mjs --no-lab` skips step 5.
+ */
+import * as esbuild from "esbuild";
+import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync } from "node:fs";
+import { dirname, join, relative } from "node:path";
+import { fileURLToPath } from "node:url";
+import { spawnSync } from "node:child_process";
+
+const here = dirname(fileURLToPath(import.meta.url));
+const dist = join(here, "dist");
+const args = new Set(process.argv.slice(2));
+mkdirSync(dist, { recursive: true });
+const t0 = Date.now();
+const log = (m) => process.stderr.write(`widgets build: ${m} (${((Date.now() - t0) / 1000).toFixed(1)} s)\n`);
+
+/** CSS imported from JS becomes a module that injects one <style> tag (with @import resolved). */
+const cssInject = {
+  name: "css-inject",
+  setup(build) {
+    build.onLoad({ filter: /\.css$/ }, async (a) => {
+      const out = await esbuild.build({
+        entryPoints: [a.path], bundle: true, write: false, minify: true,
+        loader: { ".svg": "dataurl", ".png": "dataurl", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".gif": "dataurl" },
+        logLevel: "silent",
+      });
+      const css = out.outputFiles[0].text;
+      return {
+        contents: `const css = ${JSON.stringify(css)};\nif (typeof document !== "undefined") { const s = document.createElement("style"); s.dataset.source = ${JSON.stringify(relative(here, a.path))}; s.textContent = css; document.head.appendChild(s); }\nexport default css;\n`,
+        loader: "js",
+      };
+    });
+  },
+};
+
+const common = {
+  bundle: true,
+  minify: !args.has("--dev"),
+  target: "es2020",
+  logLevel: "warning",
+  define: { __webpack_public_path__: '""', "process.env.NODE_ENV": '"production"', global: "globalThis" },
+  // @helicoid/lib from its TypeScript source: the front end and the kernel share one build of the physics.
+  alias: { "@helicoid/lib": join(here, "..", "lib", "src", "index.ts") },
+  legalComments: "none",
+  loader: { ".svg": "text" },
+};
+
+// 1. worker
+const worker = await esbuild.build({ ...common, entryPoints: [join(here, "src/compute/worker.ts")], format: "iife", write: false, outfile: join(dist, "worker.js") });
+const workerText = worker.outputFiles[0].text;
+writeFileSync(join(dist, "worker.js"), workerText);
+log(`worker ${(workerText.length / 1e6).toFixed(2)} MB`);
+
+const workerSource = {
+  name: "worker-source",
+  setup(build) {
+    build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: "worker-source", namespace: "helicoid" }));
+    build.onLoad({ filter: /.*/, namespace: "helicoid" }, () => ({ contents: `export default ${JSON.stringify(workerText)};`, loader: "js" }));
+  },
+};
+
+// 2. export bootstrap
+await esbuild.build({
+  ...common,
+  entryPoints: [join(here, "src/exportPage.ts")],
+  format: "iife",
+  outfile: join(dist, "export.js"),
+  plugins: [cssInject, workerSource],
+});
+log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
+
+// 3. markdown renderer for the exporter (Node)
+await esbuild.build({ ...common, alias: {}, entryPoints: [join(here, "src/node/markdown.ts")], platform: "node", format: "cjs", outfile: join(dist, "markdown.cjs") });
+
+// 4. the plugin as one ESM module for the JupyterLab builder
+const shared = ["@jupyter-widgets/base", "@jupyterlab/*", "@lumino/*"];
+mkdirSync(join(here, "lib"), { recursive: true });
+await esbuild.build({
+  ...common,
+  entryPoints: [join(here, "src/plugin.ts")],
+  format: "esm",
+  outfile: join(here, "lib", "plugin.js"),
+  external: shared,
+  plugins: [cssInject, workerSource],
+});
+log(`lib/plugin.js ${(statSync(join(here, "lib", "plugin.js")).size / 1e6).toFixed(2)} MB`);
+
+// 5. prebuilt JupyterLab extension
+if (!args.has("--no-lab")) {
+  const stage = join(here, "build", "lab");
+  rmSync(stage, { recursive: true, force: true });
+  mkdirSync(stage, { recursive: true });
+  const own = JSON.parse(readFileSync(join(here, "package.json"), "utf8"));
+  writeFileSync(join(stage, "plugin.js"), readFileSync(join(here, "lib", "plugin.js")));
+  writeFileSync(
+    join(stage, "package.json"),
+    JSON.stringify({
+      name: own.name,
+      version: own.version,
+      description: own.description,
+      license: "MIT",
+      main: "plugin.js",
+      keywords: ["jupyter", "jupyterlab", "jupyterlab-extension", "widgets"],
+      dependencies: { "@jupyter-widgets/base": own.dependencies["@jupyter-widgets/base"] },
+      jupyterlab: {
+        extension: true,
+        outputDir: relative(stage, join(here, "labextension")),
+        webpackConfig: "./webpack.config.js",
+        sharedPackages: { "@jupyter-widgets/base": { bundled: false, singleton: true } },
+      },
+    }, null, 2),
+  );
+  // The input is already minified by esbuild; skipping terser keeps the build fast.
+  writeFileSync(join(stage, "webpack.config.js"), "module.exports = { optimization: { minimize: false } };\n");
+  const builder = join(here, "..", "node_modules", "@jupyterlab", "builder", "lib", "build-labextension.js");
+  const r = spawnSync(process.execPath, [builder, "--core-path", join(here, "lab-core"), stage], { cwd: stage, encoding: "utf8" });
+  if (r.status !== 0) {
+    process.stderr.write(r.stdout + r.stderr);
+    throw new Error(`build-labextension failed with status ${r.status}`);
+  }
+  const meta = JSON.parse(readFileSync(join(here, "labextension", "package.json"), "utf8"));
+  log(`labextension ${meta.jupyterlab._build.load}`);
+}
+log("done");

@@ -1,0 +1,26 @@
+/**
+ * A recompute job for a catalogue calculator and its outcome: the messages between the explorer
+ * view and the compute worker. Plain JSON both ways.
+ */
+import type { CalculatorResult } from "@helicoid/lib";
+
+export interface SweepRequest {
+  over: string;
+  from: number;
+  to: number;
+  points: number;
+}
+
+export interface ComputeJob {
+  /** Sequence number: the view keeps only the newest answer. */
+  seq: number;
+  /** Catalogue id of the calculator. */
+  calculator: string;
+  /** SI inputs. */
+  inputs: Record<string, number>;
+  sweep: SweepRequest | null;
+}
+
+export type ComputeOutcome =
+  | { seq: number; ok: true; result: CalculatorResult; ms: number }
+  | { seq: number; ok: false; error: string; parameter?: string; ms: number };

@@ -1,0 +1,17 @@
+/** Run one compute job with the bundled @helicoid/lib (in the worker, or on the page as fallback). */
+import { getCalculator, runCalculator, InputError } from "@helicoid/lib";
+import type { ComputeJob, ComputeOutcome } from "./job.js";
+
+export function runJob(job: ComputeJob): ComputeOutcome {
+  const t0 = performance.now();
+  try {
+    const spec = getCalculator(job.calculator);
+    const result = runCalculator(spec, job.inputs, job.sweep ? { sweep: job.sweep } : {});
+    return { seq: job.seq, ok: true, result, ms: performance.now() - t0 };
+  } catch (err) {
+    const e = err as Error;
+    const out: ComputeOutcome = { seq: job.seq, ok: false, error: e?.message ?? String(err), ms: performance.now() - t0 };
+    if (err instanceof InputError) out.parameter = err.parameter;
+    return out;
+  }
+}

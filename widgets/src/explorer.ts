@@ -1,0 +1,442 @@
+/**
+ * The explorer: controls drawn from a calculator spec, a live outputs table and the spec's plots.
+ *
+ * - Catalogue calculators (`calculator` = catalogue id) recompute in the page with the bundled
+ *   @helicoid/lib, in a Web Worker, coalescing updates while a slider moves; the view writes
+ *   `inputs` and `result` back so kernel code sees them. This also works in exported pages.
+ * - A user's kernel function (`calculator` = ""): the view sets `inputs`; the kernel computes
+ *   and sets `result`. Without a kernel the view shows the last state and says so.
+ * State and messages: see widgets/PROTOCOL.md.
+ */
+import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
+import { catalogue, formatQuantity, displayUnit, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
+import { MODULE_NAME, MODULE_VERSION, versionMismatch } from "./version.js";
+import { Coalescer } from "./compute/coalescer.js";
+import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
+import { STEPS, toPosition, fromPosition, isLogScale } from "./views/sliderScale.js";
+import { validateEntry, entryText } from "./views/quantityEntry.js";
+import { codeSnippet } from "./views/codeSnippet.js";
+import { plotFigure } from "./views/explorerPlots.js";
+import { Plotly } from "./plotly.js";
+import { isStaticPage, copyText, el } from "./views/dom.js";
+
+/** A spec as JSON: everything but the compute function. */
+export type SpecData = Omit<CalculatorSpec, "compute">;
+
+export class ExplorerModel extends DOMWidgetModel {
+  override defaults() {
+    return {
+      ...super.defaults(),
+      _model_name: "ExplorerModel",
+      _model_module: MODULE_NAME,
+      _model_module_version: MODULE_VERSION,
+      _view_name: "ExplorerView",
+      _view_module: MODULE_NAME,
+      _view_module_version: MODULE_VERSION,
+      calculator: "",
+      spec: null,
+      inputs: {},
+      sweep: null,
+      result: null,
+      error: "",
+      compute_in: "browser",
+      kernel_version: "",
+      function_name: "",
+    };
+  }
+}
+
+interface ControlRow {
+  input: InputSpec;
+  row: HTMLElement;
+  slider: HTMLInputElement | null;
+  select: HTMLSelectElement | null;
+  entry: HTMLInputElement | null;
+  message: HTMLElement;
+}
+
+/** Find the spec for the model: the bundled catalogue for ids, else the state's `spec`. */
+export function resolveSpec(calculator: string, stateSpec: SpecData | null): { spec: SpecData | null; local: boolean; note: string } {
+  if (calculator) {
+    const local = catalogue.find((s) => s.id === calculator);
+    if (local) return { spec: local, local: true, note: "" };
+    if (stateSpec) {
+      return { spec: stateSpec, local: false, note: `'${calculator}' is not in this front end's catalogue (version ${MODULE_VERSION}); it is computed by the kernel.` };
+    }
+    return { spec: null, local: false, note: `Unknown calculator '${calculator}' and no spec given.` };
+  }
+  return { spec: stateSpec, local: false, note: "" };
+}
+
+export class ExplorerView extends DOMWidgetView {
+  private spec: SpecData | null = null;
+  private local = false;
+  private rows = new Map<string, ControlRow>();
+  private coalescer: Coalescer | null = null;
+  private appliedSeq = 0;
+  private plotEls: HTMLElement[] = [];
+  private outputsEl!: HTMLElement;
+  private errorEl!: HTMLElement;
+  private statusEl!: HTMLElement;
+  private noticeEl!: HTMLElement;
+  private sweepSelect: HTMLSelectElement | null = null;
+  private snippetEl!: HTMLElement;
+  private resizeObserver: ResizeObserver | null = null;
+  /** Performance marks: set when a slider input starts a recompute. */
+  private pendingMark: string | null = null;
+
+  override render(): void {
+    this.el.classList.add("hx-explorer");
+    const calculator = this.model.get("calculator") as string;
+    const resolved = resolveSpec(calculator, this.model.get("spec") as SpecData | null);
+    this.spec = resolved.spec;
+    this.local = resolved.local && this.model.get("compute_in") !== "kernel";
+    this.el.replaceChildren();
+    if (!this.spec) {
+      this.el.append(el("div", { class: "hx-error", text: resolved.note || "No calculator spec in the widget state." }));
+      return;
+    }
+    const spec = this.spec;
+    const header = el("div", { class: "hx-header" });
+    header.append(el("span", { class: "hx-title", text: spec.title, title: spec.summary }));
+    this.statusEl = el("span", { class: "hx-badge" });
+    header.append(this.statusEl);
+    this.el.append(header);
+    this.noticeEl = el("div", { class: "hx-notice" });
+    this.el.append(this.noticeEl);
+
+    const body = el("div", { class: "hx-body" });
+    const controls = el("div", { class: "hx-controls" });
+    for (const input of spec.inputs) controls.append(this.buildControl(input));
+    controls.append(this.buildToolbar());
+    body.append(controls);
+
+    const results = el("div", { class: "hx-results" });
+    this.errorEl = el("div", { class: "hx-error", role: "alert" });
+    this.errorEl.hidden = true;
+    results.append(this.errorEl);
+    this.outputsEl = el("div", { class: "hx-outputs" });
+    results.append(this.outputsEl);
+    const plots = el("div", { class: "hx-plots" });
+    this.plotEls = spec.plots.map((p) => {
+      const d = el("div", { class: "hx-plot", "data-plot": p.id });
+      plots.append(d);
+      return d;
+    });
+    results.append(plots);
+    body.append(results);
+    this.el.append(body);
+
+    const about = el("details", { class: "hx-about" });
+    about.append(el("summary", { text: "Method, assumptions and sources" }));
+    about.append(el("p", { text: spec.summary }));
+    about.append(el("p", { text: `Method: ${spec.method}` }));
+    const ul = el("ul");
+    for (const a of spec.assumptions) ul.append(el("li", { text: `Assumption: ${a}` }));
+    for (const s of spec.sources) ul.append(el("li", { text: `Source: ${s}` }));
+    about.append(ul);
+    this.el.append(about);
+
+    this.updateNotice(resolved.note);
+    this.syncControls();
+    if (this.local) this.coalescer = new Coalescer((o) => this.applyOutcome(o));
+    this.updateStatus();
+
+    this.listenTo(this.model, "change:inputs", () => { this.syncControls(); if (this.local) this.recompute(); });
+    this.listenTo(this.model, "change:sweep", () => { this.syncControls(); if (this.local) this.recompute(); });
+    this.listenTo(this.model, "change:result", () => this.renderResult());
+    this.listenTo(this.model, "change:error", () => this.renderResult());
+    this.listenTo(this.model, "change:kernel_version", () => this.updateNotice(resolved.note));
+
+    // A catalogue explorer computes its own first result if the state carries none (or a stale one).
+    if (this.local && !this.resultMatchesInputs()) this.recompute();
+    else this.renderResult();
+
+    if (typeof ResizeObserver !== "undefined") {
+      this.resizeObserver = new ResizeObserver(() => {
+        for (const p of this.plotEls) if (p.dataset.drawn) Plotly.Plots.resize(p);
+      });
+      this.resizeObserver.observe(this.el);
+    }
+  }
+
+  override remove(): this {
+    this.coalescer?.dispose();
+    this.resizeObserver?.disconnect();
+    for (const p of this.plotEls) Plotly.purge(p);
+    return super.remove();
+  }
+
+  // ----- state helpers -----
+
+  private values(): Record<string, number> {
+    const stored = (this.model.get("inputs") ?? {}) as Record<string, number>;
+    const out: Record<string, number> = {};
+    for (const i of this.spec!.inputs) out[i.name] = typeof stored[i.name] === "number" ? stored[i.name]! : i.default;
+    return out;
+  }
+
+  private sweepState(): SweepRequest | null {
+    return (this.model.get("sweep") as SweepRequest | null) ?? null;
+  }
+
+  private resultMatchesInputs(): boolean {
+    const result = this.model.get("result") as CalculatorResult | null;
+    if (!result || !result.inputs) return false;
+    const v = this.values();
+    for (const [k, x] of Object.entries(v)) if (result.inputs[k]?.value !== x) return false;
+    const s = this.sweepState();
+    if (s && JSON.stringify(result.sweep ?? null) !== JSON.stringify(s)) return false;
+    return true;
+  }
+
+  private setInput(name: string, value: number): void {
+    const next = { ...this.values(), [name]: value };
+    this.model.set("inputs", next);
+    this.touch();
+  }
+
+  // ----- controls -----
+
+  private buildControl(input: InputSpec): HTMLElement {
+    const row = el("div", { class: "hx-control", "data-input": input.name, title: input.meaning });
+    const unit = input.unit && input.unit !== "1" ? input.unit : "";
+    row.append(el("label", { class: "hx-label", text: input.name, title: `${input.meaning}${unit ? ` [SI unit: ${displayUnit(unit)}]` : ""}` }));
+    let slider: HTMLInputElement | null = null;
+    let select: HTMLSelectElement | null = null;
+    let entry: HTMLInputElement | null = null;
+    const message = el("div", { class: "hx-entry-error", role: "status" });
+    message.hidden = true;
+    if (input.kind === "choice" && input.choices) {
+      select = el("select", { class: "hx-choice", "aria-label": input.name }) as HTMLSelectElement;
+      for (const c of input.choices) select.append(el("option", { value: String(c.value), text: c.label }));
+      select.addEventListener("change", () => this.setInput(input.name, Number(select!.value)));
+      row.append(select);
+    } else {
+      slider = el("input", { type: "range", class: "hx-slider", min: "0", max: String(STEPS), step: "any", "aria-label": input.name }) as HTMLInputElement;
+      if (isLogScale(input)) slider.classList.add("hx-log");
+      slider.addEventListener("input", () => {
+        const v = fromPosition(Number(slider!.value), input);
+        this.pendingMark = `hx-input-${Date.now()}-${Math.random()}`;
+        performance.mark(this.pendingMark);
+        message.hidden = true;
+        this.setInput(input.name, v);
+      });
+      entry = el("input", { type: "text", class: "hx-entry", spellcheck: "false", "aria-label": `${input.name} value` }) as HTMLInputElement;
+      const commit = () => {
+        const outcome = validateEntry(input as InputSpec, entry!.value);
+        if (!outcome.ok) {
+          message.textContent = outcome.reason;
+          message.hidden = false;
+          row.classList.add("hx-refused");
+          return;
+        }
+        message.hidden = true;
+        row.classList.remove("hx-refused");
+        this.setInput(input.name, outcome.value);
+        this.syncControls();
+      };
+      entry.addEventListener("change", commit);
+      entry.addEventListener("keydown", (e) => { if (e.key === "Enter") commit(); if (e.key === "Escape") { message.hidden = true; row.classList.remove("hx-refused"); this.syncControls(); } });
+      row.append(slider, entry);
+      row.append(el("span", { class: "hx-unit", text: unit ? `SI: ${displayUnit(unit)}` : "" }));
+    }
+    row.append(message);
+    this.rows.set(input.name, { input, row, slider, select, entry, message });
+    return row;
+  }
+
+  private buildToolbar(): HTMLElement {
+    const bar = el("div", { class: "hx-toolbar" });
+    const spec = this.spec!;
+    if (spec.sweep && spec.sweep.over.length > 0) {
+      const label = el("label", { class: "hx-sweep-label", text: "Sweep " });
+      this.sweepSelect = el("select", { class: "hx-sweep", "aria-label": "swept input" }) as HTMLSelectElement;
+      for (const name of spec.sweep.over) this.sweepSelect.append(el("option", { value: name, text: name }));
+      this.sweepSelect.addEventListener("change", () => {
+        const over = this.sweepSelect!.value;
+        const input = spec.inputs.find((i) => i.name === over)!;
+        const points = this.sweepState()?.points ?? spec.sweep!.points;
+        this.model.set("sweep", { over, from: input.min, to: input.max, points });
+        this.touch();
+      });
+      label.append(this.sweepSelect);
+      bar.append(label);
+    }
+    const reset = el("button", { class: "hx-button hx-reset", text: "Reset", title: "Reset every input to its default" });
+    reset.addEventListener("click", () => {
+      const defaults = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
+      for (const r of this.rows.values()) { r.message.hidden = true; r.row.classList.remove("hx-refused"); }
+      this.model.set("inputs", defaults);
+      if (spec.sweep && spec.sweep.over.length) {
+        const name = spec.sweep.over[0]!;
+        const input = spec.inputs.find((i) => i.name === name)!;
+        this.model.set("sweep", { over: name, from: input.min, to: input.max, points: spec.sweep.points });
+      }
+      this.touch();
+    });
+    const copy = el("button", { class: "hx-button hx-copy", text: "Copy as code", title: "Copy a TypeScript cell with the current inputs" });
+    this.snippetEl = el("pre", { class: "hx-snippet" });
+    this.snippetEl.hidden = true;
+    copy.addEventListener("click", async () => {
+      const text = codeSnippet({
+        calculator: this.model.get("calculator") as string,
+        functionName: this.model.get("function_name") as string,
+        inputs: spec.inputs,
+        values: this.values(),
+        sweep: this.effectiveSweep(),
+      });
+      this.snippetEl.textContent = text;
+      this.snippetEl.hidden = false;
+      const copied = await copyText(text);
+      copy.textContent = copied ? "Copied" : "Select and copy below";
+      setTimeout(() => (copy.textContent = "Copy as code"), 1500);
+    });
+    bar.append(reset, copy);
+    const wrap = el("div");
+    wrap.append(bar, this.snippetEl);
+    return wrap;
+  }
+
+  private effectiveSweep(): SweepRequest | null {
+    const s = this.sweepState();
+    if (s) return s;
+    const spec = this.spec!;
+    if (!spec.sweep || spec.sweep.over.length === 0) return null;
+    const name = spec.sweep.over[0]!;
+    const input = spec.inputs.find((i) => i.name === name)!;
+    return { over: name, from: input.min, to: input.max, points: spec.sweep.points };
+  }
+
+  private syncControls(): void {
+    const values = this.values();
+    const sweep = this.effectiveSweep();
+    for (const r of this.rows.values()) {
+      const v = values[r.input.name]!;
+      r.row.dataset.value = String(v);
+      const swept = sweep?.over === r.input.name;
+      r.row.classList.toggle("hx-swept", swept);
+      if (r.slider) {
+        r.slider.value = String(toPosition(v, r.input));
+        r.slider.disabled = swept;
+      }
+      if (r.select) r.select.value = String(v);
+      if (r.entry && !r.row.classList.contains("hx-refused") && document.activeElement !== r.entry) {
+        r.entry.value = swept ? `swept ${entryText(r.input, sweep!.from)} .. ${entryText(r.input, sweep!.to)}` : entryText(r.input, v);
+        r.entry.disabled = swept;
+      }
+      if (r.entry && document.activeElement === r.entry && !r.row.classList.contains("hx-refused")) {
+        // keep what the person is typing
+      }
+    }
+    if (this.sweepSelect && sweep) this.sweepSelect.value = sweep.over;
+  }
+
+  // ----- compute -----
+
+  private recompute(): void {
+    if (!this.coalescer) return;
+    this.coalescer.submit({ calculator: this.model.get("calculator") as string, inputs: this.values(), sweep: this.effectiveSweep() });
+    this.updateStatus(true);
+  }
+
+  private applyOutcome(o: ComputeOutcome): void {
+    if (o.seq <= this.appliedSeq) return;
+    this.appliedSeq = o.seq;
+    if (o.ok) {
+      this.model.set({ result: o.result, error: "" });
+    } else {
+      this.model.set({ result: null, error: o.error });
+    }
+    this.touch();
+    this.updateStatus(this.coalescer?.busy ?? false);
+  }
+
+  private updateStatus(busy = false): void {
+    const where = this.local
+      ? `computed in this page (${this.coalescer?.where === "worker" ? "Web Worker" : "main thread"})`
+      : isStaticPage(this) ? "kernel function: needs the running kernel; showing its last state" : "computed by the kernel";
+    this.statusEl.textContent = busy ? `${where} · computing…` : where;
+    this.statusEl.classList.toggle("hx-needs-kernel", !this.local);
+    this.el.dataset.busy = busy ? "1" : "";
+    if (!this.local && isStaticPage(this)) {
+      for (const r of this.rows.values()) {
+        if (r.slider) r.slider.disabled = true;
+        if (r.entry) r.entry.disabled = true;
+        if (r.select) r.select.disabled = true;
+      }
+    }
+  }
+
+  private updateNotice(extra: string): void {
+    const parts = [versionMismatch(this.model.get("kernel_version")), extra || null].filter(Boolean) as string[];
+    this.noticeEl.textContent = parts.join(" ");
+    this.noticeEl.hidden = parts.length === 0;
+  }
+
+  // ----- results -----
+
+  private renderResult(): void {
+    const spec = this.spec!;
+    const error = this.model.get("error") as string;
+    const result = this.model.get("result") as CalculatorResult | null;
+    this.errorEl.hidden = !error;
+    this.errorEl.textContent = error ? `Calculator error: ${error}` : "";
+    this.el.classList.toggle("hx-has-error", !!error);
+    this.outputsEl.replaceChildren();
+    if (!result) {
+      if (!error) this.outputsEl.append(el("div", { class: "hx-muted", text: this.local ? "computing…" : "no result yet" }));
+      for (const p of this.plotEls) { p.hidden = !!error; }
+      this.markDone();
+      return;
+    }
+    const table = el("table", { class: "hx-table" });
+    const head = el("tr");
+    head.append(el("th", { text: "output" }), el("th", { text: "value" }));
+    table.append(head);
+    for (const o of spec.outputs) {
+      const kind = o.kind ?? "scalar";
+      if (kind === "array") continue;
+      const entry = result.outputs[o.name];
+      if (!entry) continue;
+      const tr = el("tr", { title: o.meaning, "data-output": o.name });
+      tr.append(el("td", { text: o.name }));
+      const value = entry.value;
+      tr.append(el("td", { class: "hx-value", text: typeof value === "number" ? formatQuantity(value, o.unit) : String(value) }));
+      if (typeof value === "number") tr.dataset.value = String(value);
+      table.append(tr);
+    }
+    this.outputsEl.append(table);
+    if (result.status === "warning" || (result.notes && result.notes.length)) {
+      const notes = el("ul", { class: result.status === "warning" ? "hx-warning" : "hx-notes" });
+      for (const n of result.notes ?? []) notes.append(el("li", { text: n }));
+      this.outputsEl.append(notes);
+    }
+    spec.plots.forEach((plot, k) => {
+      const target = this.plotEls[k]!;
+      target.hidden = false;
+      const fig = plotFigure(plot, spec.outputs, result);
+      if (fig.data.length === 0) {
+        Plotly.purge(target);
+        delete target.dataset.drawn;
+        target.replaceChildren(el("div", { class: "hx-error", text: `Plot '${plot.title}': ${fig.problem}` }));
+        return;
+      }
+      if (!target.dataset.drawn) target.replaceChildren();
+      void Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
+        target.dataset.drawn = "1";
+        this.markDone();
+      });
+    });
+    if (spec.plots.length === 0) this.markDone();
+  }
+
+  private markDone(): void {
+    if (!this.pendingMark) return;
+    const start = this.pendingMark;
+    this.pendingMark = null;
+    if (this.coalescer?.busy) { this.pendingMark = start; return; }
+    performance.mark(`${start}-done`);
+    try { performance.measure("hx-slider-to-plot", start, `${start}-done`); } catch { /* marks cleared */ }
+  }
+}

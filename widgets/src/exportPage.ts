@@ -1,0 +1,96 @@
+/**
+ * Bootstrap of exported pages (no kernel, no network): renders the saved widget state of the
+ * page with @jupyter-widgets/html-manager, our module and the standard controls, and draws the
+ * notebook's plotly outputs. Catalogue explorers stay live (they compute in the page).
+ *
+ * The page holds one <script type="application/vnd.jupyter.widget-state+json"> and, where each
+ * widget was displayed, <script type="application/vnd.jupyter.widget-view+json">; plotly outputs
+ * are <script type="application/vnd.plotly.v1+json"> tags.
+ */
+import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager";
+import "@lumino/widgets/style/index.css";
+import "@jupyter-widgets/controls/css/widgets-base.css";
+import "@jupyter-widgets/controls/css/labvariables.css";
+import * as ours from "./index.js";
+import { MODULE_NAME, MODULE_VERSION } from "./version.js";
+import { Plotly } from "./plotly.js";
+
+class StaticManager extends HTMLManager {
+  /** Read by our views: there is no kernel behind this page. */
+  readonly helicoidStatic = true;
+}
+
+function makeManager(): StaticManager {
+  return new StaticManager({
+    loader: async (name: string, version: string) => {
+      if (name === MODULE_NAME) return ours;
+      throw new Error(`Widget module ${name}@${version} is not in this page (only ${MODULE_NAME} ${MODULE_VERSION} and the standard controls are)`);
+    },
+  });
+}
+
+async function renderWidgets(root: ParentNode): Promise<number> {
+  const stateTag = root.querySelector('script[type="application/vnd.jupyter.widget-state+json"]');
+  if (!stateTag) return 0;
+  const manager = makeManager();
+  const state = JSON.parse(stateTag.textContent || "{}");
+  const models = await manager.set_state(state);
+  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]'));
+  let shown = 0;
+  for (const tag of tags) {
+    const { model_id } = JSON.parse(tag.textContent || "{}");
+    const model = models.find((m) => m.model_id === model_id);
+    const host = document.createElement("div");
+    host.className = "widget-subarea hx-widget-host";
+    tag.parentElement!.insertBefore(host, tag);
+    if (!model) {
+      host.textContent = `(widget ${model_id} has no saved state)`;
+      host.classList.add("hx-error");
+      continue;
+    }
+    try {
+      const view = await manager.create_view(model);
+      await manager.display_view(view, host);
+      shown++;
+      tag.parentElement!.querySelector(".hx-widget-fallback")?.remove();
+    } catch (err) {
+      host.textContent = `Could not show widget ${model_id}: ${(err as Error)?.message ?? String(err)}`;
+      host.classList.add("hx-error");
+    }
+  }
+  return shown;
+}
+
+async function renderPlotly(root: ParentNode): Promise<number> {
+  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.plotly.v1+json"]'));
+  for (const tag of tags) {
+    const fig = JSON.parse(tag.textContent || "{}");
+    const host = document.createElement("div");
+    host.className = "hx-plotly-output";
+    tag.parentElement!.insertBefore(host, tag);
+    tag.parentElement!.querySelector(".hx-plotly-fallback")?.remove();
+    await Plotly.newPlot(host, fig.data ?? [], { autosize: true, ...(fig.layout ?? {}) }, { displaylogo: false, responsive: true, ...(fig.config ?? {}) });
+  }
+  return tags.length;
+}
+
+async function start(): Promise<void> {
+  const body = document.body;
+  try {
+    const [w, p] = await Promise.all([renderWidgets(document), renderPlotly(document)]);
+    body.dataset.helicoidWidgets = String(w);
+    body.dataset.helicoidPlots = String(p);
+  } catch (err) {
+    console.error(err);
+    const box = document.createElement("div");
+    box.className = "hx-error";
+    box.textContent = `The page's widgets could not be rendered: ${(err as Error)?.message ?? String(err)}`;
+    body.prepend(box);
+  } finally {
+    body.dataset.helicoidReady = "1";
+  }
+}
+
+(globalThis as Record<string, unknown>).helicoidWidgets = { ...ours, renderWidgets, renderPlotly, Plotly };
+if (document.readyState === "loading") document.addEventListener("DOMContentLoaded", () => void start());
+else void start();

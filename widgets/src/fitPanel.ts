@@ -1,0 +1,141 @@
+/**
+ * Fit panel: measured data with the model curve, residuals, the parameter table with
+ * uncertainties, start/stop buttons (custom messages to the kernel) and progress. The view draws
+ * whatever state the kernel gives (the fitting engine lives in @helicoid/lib's fit domain).
+ *
+ * State: title, x, y, y_err (optional), model_x (optional, defaults to x), model_y, residuals,
+ * x_label, y_label, x_unit, y_unit, parameters [{name, unit, value, uncertainty, fixed?}],
+ * status ("idle" | "running" | "done" | "failed" | "stopped"), progress (0..1), message,
+ * iterations, chi2, reduced_chi2. Messages to the kernel: {event: "start"}, {event: "stop"}.
+ */
+import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
+import { formatQuantity } from "@helicoid/lib";
+import { MODULE_NAME, MODULE_VERSION } from "./version.js";
+import { Plotly } from "./plotly.js";
+import { el, isStaticPage } from "./views/dom.js";
+
+export interface FitParameter {
+  name: string;
+  unit?: string;
+  value: number;
+  uncertainty?: number | null;
+  fixed?: boolean;
+}
+
+export class FitPanelModel extends DOMWidgetModel {
+  override defaults() {
+    return {
+      ...super.defaults(),
+      _model_name: "FitPanelModel",
+      _model_module: MODULE_NAME,
+      _model_module_version: MODULE_VERSION,
+      _view_name: "FitPanelView",
+      _view_module: MODULE_NAME,
+      _view_module_version: MODULE_VERSION,
+      title: "Fit",
+      x: [], y: [], y_err: null, model_x: null, model_y: null, residuals: null,
+      x_label: "x", y_label: "y", x_unit: "", y_unit: "",
+      parameters: [], status: "idle", progress: 0, message: "", iterations: 0, chi2: null, reduced_chi2: null,
+    };
+  }
+}
+
+const nums = (v: unknown): number[] => (Array.isArray(v) ? (v as number[]) : ArrayBuffer.isView(v) ? Array.from(v as unknown as ArrayLike<number>) : []);
+
+export class FitPanelView extends DOMWidgetView {
+  private plotEl!: HTMLElement;
+  private tableEl!: HTMLElement;
+  private statusEl!: HTMLElement;
+  private bar!: HTMLProgressElement;
+  private startBtn!: HTMLButtonElement;
+  private stopBtn!: HTMLButtonElement;
+
+  override render(): void {
+    this.el.classList.add("hx-fit");
+    const header = el("div", { class: "hx-header" });
+    const title = el("span", { class: "hx-title" });
+    header.append(title);
+    this.startBtn = el("button", { class: "hx-button hx-fit-start", text: "Start fit" }) as HTMLButtonElement;
+    this.stopBtn = el("button", { class: "hx-button hx-fit-stop", text: "Stop" }) as HTMLButtonElement;
+    this.startBtn.addEventListener("click", () => this.send({ event: "start" }));
+    this.stopBtn.addEventListener("click", () => this.send({ event: "stop" }));
+    header.append(this.startBtn, this.stopBtn);
+    this.el.append(header);
+    this.bar = el("progress", { class: "hx-progress", max: "1" }) as HTMLProgressElement;
+    this.statusEl = el("div", { class: "hx-fit-status" });
+    this.plotEl = el("div", { class: "hx-fit-plot" });
+    this.tableEl = el("div", { class: "hx-fit-table" });
+    this.el.append(this.bar, this.statusEl, this.plotEl, this.tableEl);
+    const sync = () => { title.textContent = this.model.get("title") as string; };
+    this.listenTo(this.model, "change:title", sync);
+    this.listenTo(this.model, "change:status change:progress change:message change:iterations change:chi2 change:reduced_chi2", () => this.renderStatus());
+    this.listenTo(this.model, "change:x change:y change:y_err change:model_x change:model_y change:residuals change:x_label change:y_label", () => this.renderPlot());
+    this.listenTo(this.model, "change:parameters", () => this.renderTable());
+    sync();
+    this.renderStatus();
+    this.renderPlot();
+    this.renderTable();
+  }
+
+  private renderStatus(): void {
+    const status = this.model.get("status") as string;
+    const progress = Number(this.model.get("progress") ?? 0);
+    this.bar.value = Math.max(0, Math.min(1, progress));
+    const running = status === "running";
+    const live = !isStaticPage(this);
+    this.startBtn.disabled = running || !live;
+    this.stopBtn.disabled = !running || !live;
+    const chi2 = this.model.get("reduced_chi2");
+    const parts = [
+      `status: ${status}`,
+      `iterations: ${this.model.get("iterations")}`,
+      typeof chi2 === "number" ? `reduced χ² = ${chi2.toPrecision(4)}` : "",
+      this.model.get("message") as string,
+      live ? "" : "(needs the running kernel; showing its last state)",
+    ].filter(Boolean);
+    this.statusEl.textContent = parts.join(" · ");
+    this.statusEl.classList.toggle("hx-error", status === "failed");
+    this.el.dataset.status = status;
+  }
+
+  private renderPlot(): void {
+    const x = nums(this.model.get("x")), y = nums(this.model.get("y"));
+    const err = nums(this.model.get("y_err"));
+    const mx = nums(this.model.get("model_x") ?? this.model.get("x"));
+    const my = nums(this.model.get("model_y"));
+    const res = nums(this.model.get("residuals"));
+    const data: Array<Record<string, unknown>> = [
+      { type: "scatter", mode: "markers", name: "data", x, y, marker: { size: 5 }, ...(err.length === y.length && err.length ? { error_y: { type: "data", array: err, visible: true } } : {}) },
+    ];
+    if (my.length) data.push({ type: "scatter", mode: "lines", name: "model", x: mx.length === my.length ? mx : x, y: my });
+    if (res.length) data.push({ type: "scatter", mode: "markers", name: "residuals", x, y: res, xaxis: "x", yaxis: "y2", marker: { size: 4 } });
+    const xl = `${this.model.get("x_label")}${this.model.get("x_unit") ? ` (${this.model.get("x_unit")})` : ""}`;
+    const yl = `${this.model.get("y_label")}${this.model.get("y_unit") ? ` (${this.model.get("y_unit")})` : ""}`;
+    const layout = {
+      height: 380, autosize: true, margin: { l: 60, r: 20, t: 20, b: 50 },
+      xaxis: { title: { text: xl } },
+      yaxis: { title: { text: yl }, domain: [0.32, 1] },
+      yaxis2: { title: { text: "residual" }, domain: [0, 0.24], zeroline: true, anchor: "x" },
+      legend: { orientation: "h" },
+    };
+    void Plotly.react(this.plotEl, data, layout, { displaylogo: false, responsive: true });
+  }
+
+  private renderTable(): void {
+    const params = (this.model.get("parameters") ?? []) as FitParameter[];
+    const table = el("table", { class: "hx-table" });
+    const head = el("tr");
+    for (const h of ["parameter", "value", "± uncertainty", ""]) head.append(el("th", { text: h }));
+    table.append(head);
+    for (const p of params) {
+      const tr = el("tr", { "data-parameter": p.name });
+      const unit = p.unit ?? "";
+      tr.append(el("td", { text: p.name }));
+      tr.append(el("td", { text: formatQuantity(p.value, unit) }));
+      tr.append(el("td", { text: p.uncertainty == null ? "—" : formatQuantity(p.uncertainty, unit) }));
+      tr.append(el("td", { text: p.fixed ? "fixed" : "" }));
+      table.append(tr);
+    }
+    this.tableEl.replaceChildren(table);
+  }
+}

@@ -1,0 +1,39 @@
+/**
+ * "Copy as code": a TypeScript cell that reproduces the explorer's current state, so an
+ * exploration becomes a documented, rerunnable step of the notebook.
+ */
+import { customaryUnit, type InputSpec } from "@helicoid/lib";
+import type { SweepRequest } from "../compute/job.js";
+
+/** A value as a quantity string in the trade's unit, exact to 12 significant digits. */
+export function quantityLiteral(value: number, unit: string): string {
+  if (unit === "" || unit === "1") return String(Number(value.toPrecision(12)));
+  const [u, f] = customaryUnit(value, unit);
+  return JSON.stringify(`${Number((value / f).toPrecision(12))} ${u}`);
+}
+
+export function codeSnippet(options: {
+  calculator: string;
+  functionName?: string;
+  inputs: InputSpec[];
+  values: Record<string, number>;
+  sweep: SweepRequest | null;
+}): string {
+  const { calculator, inputs, values, sweep } = options;
+  const body = inputs
+    .map((i) => `  ${/^[A-Za-z_$][\w$]*$/.test(i.name) ? i.name : JSON.stringify(i.name)}: ${quantityLiteral(values[i.name] ?? i.default, i.unit)},`)
+    .join("\n");
+  const unitOf = (name: string) => inputs.find((i) => i.name === name)?.unit ?? "";
+  const sweepText = sweep
+    ? `, {\n  sweep: { over: ${JSON.stringify(sweep.over)}, from: ${quantityLiteral(sweep.from, unitOf(sweep.over))}, to: ${quantityLiteral(sweep.to, unitOf(sweep.over))}, points: ${sweep.points} },\n}`
+    : "";
+  if (calculator) {
+    return (
+      `import { getCalculator, runCalculator } from "@helicoid/lib";\n\n` +
+      `const result = runCalculator(getCalculator(${JSON.stringify(calculator)}), {\n${body}\n}${sweepText});\n` +
+      `result;\n`
+    );
+  }
+  const fn = options.functionName || "myCalculator";
+  return `// Inputs of the explored kernel function, as set in the explorer\nconst inputs = {\n${body}\n};\n${fn}(inputs);\n`;
+}
