@@ -2,3 +2,4 @@ export {};
 export * from "./ellipticIntegrals.js";
 export * from "./tanhSinhQuadrature.js";
 export * from "./minimize2d.js";
+export * from "./denseLinalg.js";

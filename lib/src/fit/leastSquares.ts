@@ -1,0 +1,591 @@
+/**
+ * Weighted nonlinear least squares with honest uncertainties: the problem-level driver behind
+ * `fitProfile` (one data set) and `fitGlobal` (several data sets with shared parameters).
+ *
+ * chi^2 = sum_i ((y_i - f(x_i; p)) / sigma_i)^2, minimized by Levenberg-Marquardt with box bounds
+ * (levenbergMarquardt.ts). Uncertainties:
+ * - covariance C = (J^T W J)^-1 of the free parameters at the optimum (J the model Jacobian,
+ *   W = diag(1/sigma^2)); with unknown sigmas (all 1) it is scaled by the reduced chi-square
+ *   s^2 = chi^2 / (n - k); with known sigmas the unscaled C is used and the scaled one is reported
+ *   too (a reduced chi-square far from 1 says the sigmas or the model are wrong);
+ * - Wald intervals value +- q * stderr with q the Student t quantile (n - k degrees of freedom) for
+ *   scaled errors, the normal quantile for known sigmas;
+ * - profile-likelihood intervals on request: the parameter is stepped and every other one refitted
+ *   until chi^2 rises by the threshold (known sigmas: the chi^2_1 quantile z^2; unknown: the
+ *   F-based rule S <= S_min (1 + t^2 / (n - k))) (D. Bates, D. Watts, *Nonlinear Regression
+ *   Analysis and Its Applications*, Wiley 1988, ch. 6; W. Venzon, S. Moolgavkar, Appl. Stat. 37,
+ *   87 (1988));
+ * - seeded case-resampling bootstrap on request (B. Efron, R. Tibshirani, *An Introduction to the
+ *   Bootstrap*, 1993): percentile intervals and bootstrap standard deviations.
+ * - AIC = -2 ln L + 2K and BIC = -2 ln L + K ln n with the full Gaussian log-likelihood (known
+ *   sigmas: K = k; unknown: the ML variance RSS/n is one more parameter, K = k + 1)
+ *   (H. Akaike, IEEE Trans. Autom. Control 19, 716 (1974); G. Schwarz, Ann. Stat. 6, 461 (1978)).
+ */
+import { InputError } from "../errors.js";
+import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
+import { pivotedQr, inverseNormalFromQr, symmetricEigen } from "../numeric/denseLinalg.js";
+import { studentTQuantile, normalQuantile } from "./distributions.js";
+import { seededRandom } from "./prng.js";
+
+/** One parameter of a fit: start value, bounds, unit and whether it is held fixed. */
+export interface FitParameter {
+  name: string;
+  /** Start value (SI). */
+  value: number;
+  /** SI unit ("m", "T", "" ...). */
+  unit?: string;
+  min?: number;
+  max?: number;
+  fixed?: boolean;
+  /** Typical magnitude (finite-difference step scale); defaults to |value| or the bound span. */
+  typical?: number;
+  /** One line: what the parameter means. */
+  meaning?: string;
+}
+
+/** A least-squares problem over a full parameter vector (fixed parameters included). */
+export interface LeastSquaresProblem {
+  parameters: FitParameter[];
+  /** Number of data points. */
+  m: number;
+  /** Model values at the data points for the full parameter vector p. */
+  model(p: Float64Array, out: Float64Array): void;
+  /** Optional analytic model Jacobian df/dp (column-major m x nAll). */
+  modelJacobian?(p: Float64Array, out: Float64Array): void;
+  y: Float64Array;
+  /** Standard deviations (null: unknown, all 1 and uncertainties scaled). */
+  sigma: Float64Array | null;
+}
+
+export interface FitOptions extends LmOptions {
+  /** Confidence level of the reported intervals (default 0.95). */
+  confidence?: number;
+  /** Profile-likelihood intervals: true for every free parameter, or a list of names. */
+  profile?: boolean | string[];
+  /** Bootstrap: number of resamples and the seed. */
+  bootstrap?: { samples: number; seed: number };
+  /** Relative column-rank threshold for calling the Jacobian singular (default 1e-10). */
+  singularThreshold?: number;
+}
+
+export interface ParameterResult {
+  value: number;
+  /** Standard error used for the intervals (scaled unless sigmas are known); null if undefined. */
+  stderr: number | null;
+  /** Standard error scaled by sqrt(reduced chi-square). */
+  stderrScaled: number | null;
+  /** Standard error from the given sigmas without scaling (null when sigmas are unknown). */
+  stderrUnscaled: number | null;
+  unit: string;
+  fixed: boolean;
+  atBound: boolean;
+  /** Wald interval at the confidence level. */
+  interval: [number, number] | null;
+  /** Profile-likelihood interval (when requested); an open side is +-Infinity with a note. */
+  profileInterval?: [number, number] | null;
+  /** Bootstrap percentile interval and standard deviation (when requested). */
+  bootstrapInterval?: [number, number];
+  bootstrapStderr?: number;
+}
+
+export type FitStatus = LmStatus | "singular";
+
+export interface FitResult {
+  status: FitStatus;
+  reason: string;
+  message: string;
+  parameters: Record<string, ParameterResult>;
+  /** Names of the free parameters, the order of covariance and correlation. */
+  freeNames: string[];
+  covariance: number[][] | null;
+  correlation: number[][] | null;
+  chiSquare: number;
+  dof: number;
+  chiSquareReduced: number;
+  logLikelihood: number;
+  aic: number;
+  bic: number;
+  points: number;
+  sigmaKnown: boolean;
+  confidence: number;
+  evaluations: number;
+  jacobianEvaluations: number;
+  iterations: number;
+  /** Model values at the data points and residuals y - f. */
+  fitted: number[];
+  residuals: number[];
+  notes: string[];
+  /** For a singular Jacobian: groups of parameters that cannot be told apart. */
+  degenerate?: string[][];
+  method: string;
+  sources: string[];
+}
+
+const METHOD = "weighted nonlinear least squares, Levenberg-Marquardt (More 1978) with scaling, trust region and projected box bounds";
+const SOURCES = [
+  "K. Levenberg, Q. Appl. Math. 2, 164 (1944); D. Marquardt, J. SIAM 11, 431 (1963)",
+  "J. More, Lecture Notes in Mathematics 630, 105 (1978) (MINPACK design)",
+  "D. Bates, D. Watts, Nonlinear Regression Analysis and Its Applications (Wiley 1988)",
+];
+
+/** Validate parameters and return start vector, bounds and the free index list. */
+function prepare(params: FitParameter[]) {
+  const names = new Set<string>();
+  const n = params.length;
+  const start = new Float64Array(n);
+  const lo = new Float64Array(n);
+  const hi = new Float64Array(n);
+  const free: number[] = [];
+  params.forEach((p, j) => {
+    if (names.has(p.name)) throw new InputError("parameters", p.name, "unique parameter names");
+    names.add(p.name);
+    if (!Number.isFinite(p.value)) throw new InputError(p.name, p.value, "a finite start value");
+    const l = p.min ?? -Infinity;
+    const u = p.max ?? Infinity;
+    if (!(l <= u)) throw new InputError(`${p.name}.min/max`, [p.min, p.max], "min <= max");
+    if (!p.fixed && (p.value < l || p.value > u)) {
+      throw new InputError(p.name, p.value, `a start value inside its bounds [${l}, ${u}]`);
+    }
+    start[j] = p.value;
+    lo[j] = l;
+    hi[j] = u;
+    if (!p.fixed) free.push(j);
+  });
+  return { start, lo, hi, free };
+}
+
+function typicalOf(p: FitParameter): number {
+  if (p.typical && p.typical > 0) return p.typical;
+  if (p.value !== 0) return Math.abs(p.value);
+  const span = (p.max ?? Infinity) - (p.min ?? -Infinity);
+  return Number.isFinite(span) && span > 0 ? span * 1e-3 : 1;
+}
+
+interface Core {
+  x: Float64Array; // full vector
+  status: LmStatus;
+  reason: string;
+  message: string;
+  evaluations: number;
+  jacobianEvaluations: number;
+  iterations: number;
+  chiSquare: number;
+}
+
+/** Minimize with the parameters in `freeIdx` free, others held at `base`. */
+function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: number[], lo: Float64Array, hi: Float64Array, options: LmOptions): Core {
+  const { m, y, sigma } = problem;
+  const nAll = base.length;
+  const full = Float64Array.from(base);
+  const model = new Float64Array(m);
+  const fullJac = problem.modelJacobian ? new Float64Array(m * nAll) : null;
+  const setFull = (p: Float64Array) => {
+    for (let k = 0; k < freeIdx.length; k++) full[freeIdx[k]] = p[k];
+  };
+  const lm: LmProblem = {
+    n: freeIdx.length,
+    m,
+    residuals(p, out) {
+      setFull(p);
+      problem.model(full, model);
+      if (sigma) for (let i = 0; i < m; i++) out[i] = (model[i] - y[i]) / sigma[i];
+      else for (let i = 0; i < m; i++) out[i] = model[i] - y[i];
+    },
+    lower: freeIdx.map((j) => lo[j]),
+    upper: freeIdx.map((j) => hi[j]),
+    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
+  };
+  if (problem.modelJacobian && fullJac) {
+    lm.jacobian = (p, out) => {
+      setFull(p);
+      problem.modelJacobian!(full, fullJac);
+      for (let k = 0; k < freeIdx.length; k++) {
+        const src = freeIdx[k] * m;
+        const dst = k * m;
+        if (sigma) for (let i = 0; i < m; i++) out[dst + i] = fullJac[src + i] / sigma[i];
+        else out.set(fullJac.subarray(src, src + m), dst);
+      }
+    };
+  }
+  const r = levenbergMarquardt(lm, freeIdx.map((j) => base[j]), options);
+  setFull(r.x);
+  return {
+    x: Float64Array.from(full),
+    status: r.status,
+    reason: r.reason,
+    message: r.message,
+    evaluations: r.evaluations + r.differenceEvaluations,
+    jacobianEvaluations: r.jacobianEvaluations,
+    iterations: r.iterations,
+    chiSquare: r.sumOfSquares,
+  };
+}
+
+/** Weighted Jacobian of the residuals (column-major m x freeIdx.length) at the full vector x. */
+function weightedJacobian(problem: LeastSquaresProblem, x: Float64Array, freeIdx: number[], lo: Float64Array, hi: Float64Array): Float64Array {
+  const { m, sigma } = problem;
+  const nAll = x.length;
+  const out = new Float64Array(m * freeIdx.length);
+  if (problem.modelJacobian) {
+    const full = new Float64Array(m * nAll);
+    problem.modelJacobian(x, full);
+    for (let k = 0; k < freeIdx.length; k++) {
+      const src = freeIdx[k] * m;
+      for (let i = 0; i < m; i++) out[k * m + i] = full[src + i] / (sigma ? sigma[i] : 1);
+    }
+    return out;
+  }
+  const base = Float64Array.from(x);
+  const model = new Float64Array(m);
+  const lmp: LmProblem = {
+    n: freeIdx.length,
+    m,
+    residuals(p, o) {
+      for (let k = 0; k < freeIdx.length; k++) base[freeIdx[k]] = p[k];
+      problem.model(base, model);
+      for (let i = 0; i < m; i++) o[i] = (model[i] - problem.y[i]) / (sigma ? sigma[i] : 1);
+    },
+    lower: freeIdx.map((j) => lo[j]),
+    upper: freeIdx.map((j) => hi[j]),
+    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
+  };
+  centralDifferenceJacobian(lmp, Float64Array.from(freeIdx.map((j) => x[j])), out);
+  return out;
+}
+
+/** Solve a least-squares problem and analyse the uncertainties. */
+export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOptions = {}): FitResult {
+  const { m } = problem;
+  const params = problem.parameters;
+  const { start, lo, hi, free } = prepare(params);
+  const k = free.length;
+  if (k === 0) throw new InputError("parameters", params.map((p) => p.name).join(", "), "at least one free (not fixed) parameter");
+  if (m <= k) {
+    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map((j) => params[j].name).join(", ")})`);
+  }
+  if (problem.sigma) {
+    for (let i = 0; i < m; i++) {
+      if (!(problem.sigma[i] > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
+    }
+  }
+  for (let i = 0; i < m; i++) if (!Number.isFinite(problem.y[i])) throw new InputError(`y[${i}]`, problem.y[i], "a finite data value (drop NaN rows first, see readProfileCsv dropNaN)");
+  // the model must be finite at the start
+  const f0 = new Float64Array(m);
+  problem.model(start, f0);
+  const bad: number[] = [];
+  for (let i = 0; i < m; i++) if (!Number.isFinite(f0[i])) bad.push(i);
+  if (bad.length > 0) {
+    throw new InputError(
+      "model",
+      `${bad.length} non-finite values`,
+      "a model that returns finite values at the start parameters",
+      `the model returned NaN or infinity at ${bad.length} of ${m} points (first at row ${bad[0]}) for ${params.map((p, j) => `${p.name} = ${start[j]}`).join(", ")}`,
+    );
+  }
+  const confidence = options.confidence ?? 0.95;
+  const notes: string[] = [];
+  const core = minimize(problem, start, free, lo, hi, options);
+  const x = core.x;
+  const sigmaKnown = problem.sigma !== null;
+  const chi2 = core.chiSquare;
+  const dof = m - k;
+  const red = chi2 / dof;
+  const fitted = new Float64Array(m);
+  problem.model(x, fitted);
+  // log-likelihood
+  let logL: number;
+  let K: number;
+  if (sigmaKnown) {
+    let s = 0;
+    for (let i = 0; i < m; i++) s += Math.log(2 * Math.PI * problem.sigma![i] ** 2);
+    logL = -0.5 * (chi2 + s);
+    K = k;
+  } else {
+    logL = -0.5 * m * (Math.log((2 * Math.PI * chi2) / m) + 1);
+    K = k + 1;
+  }
+  const aic = -2 * logL + 2 * K;
+  const bic = -2 * logL + K * Math.log(m);
+  // covariance of the parameters not on a bound
+  const onBound = free.filter((j) => x[j] <= lo[j] || x[j] >= hi[j]);
+  const inner = free.filter((j) => !onBound.includes(j));
+  for (const j of onBound) notes.push(`${params[j].name} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
+  let status: FitStatus = core.status;
+  let reason = core.reason;
+  let message = core.message;
+  let cov: Float64Array | null = null;
+  let degenerate: string[][] | undefined;
+  if (inner.length > 0) {
+    const J = weightedJacobian(problem, x, inner, lo, hi);
+    // column-normalized J for the rank decision
+    const nn = inner.length;
+    const norms = new Float64Array(nn);
+    const Jn = new Float64Array(J.length);
+    for (let c = 0; c < nn; c++) {
+      let s = 0;
+      for (let i = 0; i < m; i++) s += J[c * m + i] ** 2;
+      norms[c] = Math.sqrt(s);
+      for (let i = 0; i < m; i++) Jn[c * m + i] = norms[c] > 0 ? J[c * m + i] / norms[c] : 0;
+    }
+    const qr = pivotedQr(Jn, m, nn, options.singularThreshold ?? 1e-10);
+    const zeroCols = inner.filter((_, c) => norms[c] === 0);
+    if (qr.rank < nn || zeroCols.length > 0) {
+      // name the parameters in the near-null space of the normalized J^T J
+      const jtj = new Float64Array(nn * nn);
+      for (let a = 0; a < nn; a++)
+        for (let b = a; b < nn; b++) {
+          let s = 0;
+          for (let i = 0; i < m; i++) s += Jn[a * m + i] * Jn[b * m + i];
+          jtj[a + b * nn] = s;
+          jtj[b + a * nn] = s;
+        }
+      const eig = symmetricEigen(jtj, nn);
+      const lmax = eig.values[nn - 1];
+      degenerate = [];
+      for (let e = 0; e < nn; e++) {
+        if (eig.values[e] > (options.singularThreshold ?? 1e-10) * lmax && !(e === 0 && zeroCols.length > 0 && eig.values[e] === 0)) break;
+        const group: string[] = [];
+        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c + e * nn]) > 0.05) group.push(params[inner[c]].name);
+        if (group.length > 0) degenerate.push(group);
+      }
+      if (degenerate.length === 0) degenerate.push(zeroCols.map((j) => params[j].name));
+      status = "singular";
+      reason = "singular-jacobian";
+      message =
+        `the Jacobian is singular at the solution: ` +
+        degenerate
+          .map((g) => (g.length === 1 ? `the data do not depend on ${g[0]}` : `parameters ${g.join(", ")} cannot be told apart (their effects on the model are linearly dependent)`))
+          .join("; ") +
+        ". Fix one of them or reparametrize; no standard errors are reported.";
+    } else {
+      const inv = inverseNormalFromQr(qr);
+      if (inv) {
+        cov = new Float64Array(nn * nn);
+        for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = inv[a + b * nn] / (norms[a] * norms[b]);
+      }
+    }
+  }
+  // assemble
+  const nn = inner.length;
+  const scale = sigmaKnown ? 1 : red;
+  const q = sigmaKnown ? normalQuantile(0.5 + confidence / 2) : studentTQuantile(0.5 + confidence / 2, dof);
+  const parameters: Record<string, ParameterResult> = {};
+  params.forEach((p, j) => {
+    const c = inner.indexOf(j);
+    const varU = cov && c >= 0 ? cov[c + c * nn] : null;
+    const seU = varU !== null ? Math.sqrt(varU) : null;
+    const seS = seU !== null ? seU * Math.sqrt(red) : null;
+    const se = seU !== null ? seU * Math.sqrt(scale) : null;
+    parameters[p.name] = {
+      value: x[j],
+      stderr: se,
+      stderrScaled: seS,
+      stderrUnscaled: sigmaKnown ? seU : null,
+      unit: p.unit ?? "",
+      fixed: !!p.fixed,
+      atBound: onBound.includes(j),
+      interval: se !== null ? [x[j] - q * se, x[j] + q * se] : null,
+    };
+  });
+  let covariance: number[][] | null = null;
+  let correlation: number[][] | null = null;
+  if (cov) {
+    covariance = [];
+    correlation = [];
+    for (let a = 0; a < nn; a++) {
+      const row: number[] = [];
+      const crow: number[] = [];
+      for (let b = 0; b < nn; b++) {
+        row.push(cov[a + b * nn] * scale);
+        crow.push(cov[a + b * nn] / Math.sqrt(cov[a + a * nn] * cov[b + b * nn]));
+      }
+      covariance.push(row);
+      correlation.push(crow);
+    }
+  }
+  if (sigmaKnown && (red > 2 || red < 0.5)) {
+    notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
+  }
+  const residuals = Array.from(problem.y, (v, i) => v - fitted[i]);
+  const result: FitResult = {
+    status,
+    reason,
+    message,
+    parameters,
+    freeNames: inner.map((j) => params[j].name),
+    covariance,
+    correlation,
+    chiSquare: chi2,
+    dof,
+    chiSquareReduced: red,
+    logLikelihood: logL,
+    aic,
+    bic,
+    points: m,
+    sigmaKnown,
+    confidence,
+    evaluations: core.evaluations,
+    jacobianEvaluations: core.jacobianEvaluations + 1,
+    iterations: core.iterations,
+    fitted: Array.from(fitted),
+    residuals,
+    notes,
+    degenerate,
+    method: METHOD,
+    sources: SOURCES,
+  };
+  if (options.profile && (status === "converged" || status === "singular")) {
+    const names = options.profile === true ? inner.map((j) => params[j].name) : options.profile;
+    for (const name of names) {
+      const j = params.findIndex((p) => p.name === name);
+      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map((i) => params[i].name).join(", ")}`);
+      parameters[name].profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, parameters[name].stderr, options, notes);
+    }
+  }
+  if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
+  return result;
+}
+
+/** Profile-likelihood interval of parameter j. */
+function profileInterval(
+  problem: LeastSquaresProblem,
+  xhat: Float64Array,
+  j: number,
+  free: number[],
+  lo: Float64Array,
+  hi: Float64Array,
+  chi2min: number,
+  sigmaKnown: boolean,
+  dof: number,
+  q: number,
+  se: number | null,
+  options: FitOptions,
+  notes: string[],
+): [number, number] {
+  const threshold = sigmaKnown ? chi2min + q * q : chi2min * (1 + (q * q) / dof);
+  const others = free.filter((i) => i !== j);
+  const lmOpts: LmOptions = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, signal: options.signal };
+  let warm = Float64Array.from(xhat);
+  const chiAt = (v: number) => {
+    const base = Float64Array.from(warm);
+    base[j] = v;
+    if (others.length === 0) {
+      const f = new Float64Array(problem.m);
+      problem.model(base, f);
+      let s = 0;
+      for (let i = 0; i < problem.m; i++) s += ((f[i] - problem.y[i]) / (problem.sigma ? problem.sigma[i] : 1)) ** 2;
+      return s;
+    }
+    const r = minimize(problem, base, others, lo, hi, lmOpts);
+    warm = r.x;
+    return r.chiSquare;
+  };
+  const step0 = se && se > 0 ? se * q : Math.max(Math.abs(xhat[j]) * 1e-2, 1e-12);
+  const side = (dir: number): number => {
+    warm = Float64Array.from(xhat);
+    let a = xhat[j];
+    let step = step0;
+    let b = a + dir * step;
+    let fb = Number.NaN;
+    for (let it = 0; it < 40; it++) {
+      if (dir > 0 && b >= hi[j]) b = hi[j];
+      if (dir < 0 && b <= lo[j]) b = lo[j];
+      fb = chiAt(b);
+      if (!(fb < threshold)) break;
+      if (b === hi[j] || b === lo[j]) {
+        notes.push(`profile of ${problem.parameters[j].name} stays below the threshold up to its bound ${b}: interval open on that side`);
+        return b;
+      }
+      a = b;
+      step *= 2;
+      b = a + dir * step;
+    }
+    if (fb < threshold) {
+      notes.push(`profile of ${problem.parameters[j].name} did not reach the threshold: interval open on that side`);
+      return dir * Infinity;
+    }
+    // bisection between a (below) and b (above threshold)
+    for (let it = 0; it < 50; it++) {
+      const mid = 0.5 * (a + b);
+      const fm = chiAt(mid);
+      if (fm < threshold) a = mid;
+      else b = mid;
+      if (Math.abs(b - a) <= 1e-7 * Math.max(Math.abs(a), Math.abs(step0))) break;
+    }
+    return 0.5 * (a + b);
+  };
+  return [side(-1), side(+1)];
+}
+
+function bootstrap(
+  problem: LeastSquaresProblem,
+  xhat: Float64Array,
+  free: number[],
+  lo: Float64Array,
+  hi: Float64Array,
+  options: FitOptions,
+  parameters: Record<string, ParameterResult>,
+  confidence: number,
+  notes: string[],
+) {
+  const { samples, seed } = options.bootstrap!;
+  if (!Number.isInteger(samples) || samples < 10) throw new InputError("bootstrap.samples", samples, "a whole number >= 10");
+  const rng = seededRandom(seed);
+  const m = problem.m;
+  const fullModel = new Float64Array(m);
+  const draws: number[][] = free.map(() => []);
+  let failed = 0;
+  for (let b = 0; b < samples; b++) {
+    if (options.signal?.aborted) {
+      notes.push(`bootstrap stopped on request after ${b} resamples`);
+      break;
+    }
+    const idx = new Int32Array(m);
+    for (let i = 0; i < m; i++) idx[i] = rng.integer(m);
+    const y = new Float64Array(m);
+    const sg = problem.sigma ? new Float64Array(m) : null;
+    for (let i = 0; i < m; i++) {
+      y[i] = problem.y[idx[i]];
+      if (sg) sg[i] = problem.sigma![idx[i]];
+    }
+    const sub: LeastSquaresProblem = {
+      parameters: problem.parameters,
+      m,
+      y,
+      sigma: sg,
+      model(p, out) {
+        problem.model(p, fullModel);
+        for (let i = 0; i < m; i++) out[i] = fullModel[idx[i]];
+      },
+    };
+    if (problem.modelJacobian) {
+      const nAll = xhat.length;
+      const fj = new Float64Array(m * nAll);
+      sub.modelJacobian = (p, out) => {
+        problem.modelJacobian!(p, fj);
+        for (let c = 0; c < nAll; c++) for (let i = 0; i < m; i++) out[c * m + i] = fj[c * m + idx[i]];
+      };
+    }
+    const r = minimize(sub, xhat, free, lo, hi, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10 });
+    if (r.status !== "converged") {
+      failed++;
+      continue;
+    }
+    free.forEach((j, c) => draws[c].push(r.x[j]));
+  }
+  if (failed > 0) notes.push(`${failed} bootstrap refits did not converge and were left out`);
+  free.forEach((j, c) => {
+    const d = draws[c].slice().sort((a, b) => a - b);
+    if (d.length < 2) return;
+    const mean = d.reduce((s, v) => s + v, 0) / d.length;
+    const sd = Math.sqrt(d.reduce((s, v) => s + (v - mean) ** 2, 0) / (d.length - 1));
+    const pick = (p: number) => {
+      const h = (d.length - 1) * p;
+      const l = Math.floor(h);
+      return d[l] + (h - l) * ((d[Math.min(l + 1, d.length - 1)] ?? d[l]) - d[l]);
+    };
+    const name = problem.parameters[j].name;
+    parameters[name].bootstrapStderr = sd;
+    parameters[name].bootstrapInterval = [pick((1 - confidence) / 2), pick((1 + confidence) / 2)];
+  });
+}
