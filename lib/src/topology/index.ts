@@ -1,1 +1,12 @@
-export {};
+export * from "./field.js";
+export * from "./boundary.js";
+export * from "./winding.js";
+export * from "./solidAngle.js";
+export * from "./latticeKernel.js";
+export * from "./skyrmionNumber.js";
+export * from "./continuumCharge.js";
+export * from "./vortices.js";
+export * from "./blochPoints.js";
+export * from "./textures.js";
+export * from "./textures3d.js";
+export * from "./objects.js";

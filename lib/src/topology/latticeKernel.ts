@@ -1,0 +1,119 @@
+/**
+ * Hot loops of the lattice skyrmion number (Berg-Luescher solid angles), on typed arrays with no
+ * allocation. They work on a row range [j0, j1) of plaquette rows of one layer so that worker threads
+ * can split a field by rows. Hand-written (no library does this for TypeScript).
+ *
+ * Plaquette (i, j) has corners a = (i, j), b = (i+1, j), c = (i+1, j+1), d = (i, j+1) (indices wrap
+ * on periodic axes). It is split into two counterclockwise triangles:
+ *   square lattice:     (a, b, c) and (a, c, d)
+ *   triangular lattice: (a, b, d) and (b, c, d)  (the two equilateral triangles of the rhombus)
+ * Each triangle adds Omega = 2 atan2(m1.(m2 x m3), 1 + m1.m2 + m2.m3 + m3.m1) (see solidAngle.ts).
+ * On a square grid the first-order expansion of the two triangles gives m.(d_x m x d_y m) dx dy, so
+ * Sum Omega / 4 pi -> Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy. Source: B. Berg, M. Luescher,
+ * Nucl. Phys. B 190, 412 (1981).
+ */
+
+/**
+ * Sum of triangle solid angles (radians) over plaquette rows [j0, j1) of the square-lattice layer that
+ * starts at cell `cellBase`, with no vacuum cells. wrapX / wrapY: periodic along x / y.
+ * The caller clips j1 to ny (wrapY) or ny - 1 (open).
+ */
+export function solidAngleSumSquare(
+  m: Float64Array, nx: number, ny: number, cellBase: number,
+  j0: number, j1: number, wrapX: boolean,
+): number {
+  const ni = wrapX ? nx : nx - 1;
+  let sum = 0;
+  for (let j = j0; j < j1; j++) {
+    const jn = j + 1 === ny ? 0 : j + 1;
+    const ra = (cellBase + j * nx) * 3;
+    const rd = (cellBase + jn * nx) * 3;
+    let ax = m[ra]!, ay = m[ra + 1]!, az = m[ra + 2]!;
+    let dx = m[rd]!, dy = m[rd + 1]!, dz = m[rd + 2]!;
+    let rowSum = 0;
+    for (let i = 0; i < ni; i++) {
+      const off = i + 1 === nx ? 0 : 3 * (i + 1);
+      const pb = ra + off, pc = rd + off;
+      const bx = m[pb]!, by = m[pb + 1]!, bz = m[pb + 2]!;
+      const cx = m[pc]!, cy = m[pc + 1]!, cz = m[pc + 2]!;
+      const ab = ax * bx + ay * by + az * bz;
+      const bc = bx * cx + by * cy + bz * cz;
+      const ca = cx * ax + cy * ay + cz * az;
+      const cd = cx * dx + cy * dy + cz * dz;
+      const da = dx * ax + dy * ay + dz * az;
+      // a . (b x c) and a . (c x d)
+      const t1 = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
+      const t2 = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
+      rowSum += Math.atan2(t1, 1 + ab + bc + ca) + Math.atan2(t2, 1 + ca + cd + da);
+      ax = bx; ay = by; az = bz;
+      dx = cx; dy = cy; dz = cz;
+    }
+    sum += rowSum;
+  }
+  return 2 * sum;
+}
+
+/**
+ * General version: vacuum mask (a triangle with any vacuum corner is skipped), square or triangular
+ * lattice, and an optional per-plaquette output `density` (solid angle / 4 pi of each plaquette, index
+ * j * px + i with px = wrapX ? nx : nx - 1). Returns the sum of solid angles (radians) and counts the
+ * triangles used in `counts[0]` and skipped in `counts[1]` when `counts` is given.
+ */
+export function solidAngleSumGeneral(
+  m: Float64Array, vacuum: Uint8Array | null, nx: number, ny: number, cellBase: number,
+  j0: number, j1: number, wrapX: boolean, triangular: boolean,
+  density: Float64Array | null, counts: Float64Array | null,
+): number {
+  const ni = wrapX ? nx : nx - 1;
+  const inv4pi = 1 / (4 * Math.PI);
+  let sum = 0;
+  let used = 0, skipped = 0;
+  for (let j = j0; j < j1; j++) {
+    const jn = j + 1 === ny ? 0 : j + 1;
+    const rowA = cellBase + j * nx;
+    const rowD = cellBase + jn * nx;
+    for (let i = 0; i < ni; i++) {
+      const inext = i + 1 === nx ? 0 : i + 1;
+      const ca = rowA + i, cb = rowA + inext, cc = rowD + inext, cd = rowD + i;
+      const va = vacuum === null ? 0 : vacuum[ca]!, vb = vacuum === null ? 0 : vacuum[cb]!;
+      const vc = vacuum === null ? 0 : vacuum[cc]!, vd = vacuum === null ? 0 : vacuum[cd]!;
+      const pa = 3 * ca, pb = 3 * cb, pc = 3 * cc, pd = 3 * cd;
+      const ax = m[pa]!, ay = m[pa + 1]!, az = m[pa + 2]!;
+      const bx = m[pb]!, by = m[pb + 1]!, bz = m[pb + 2]!;
+      const cx = m[pc]!, cy = m[pc + 1]!, cz = m[pc + 2]!;
+      const dx = m[pd]!, dy = m[pd + 1]!, dz = m[pd + 2]!;
+      let omega = 0;
+      if (!triangular) {
+        if ((va | vb | vc) === 0) {
+          const t = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
+          omega += Math.atan2(t, 1 + ax * bx + ay * by + az * bz + bx * cx + by * cy + bz * cz + cx * ax + cy * ay + cz * az);
+          used++;
+        } else skipped++;
+        if ((va | vc | vd) === 0) {
+          const t = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
+          omega += Math.atan2(t, 1 + ax * cx + ay * cy + az * cz + cx * dx + cy * dy + cz * dz + dx * ax + dy * ay + dz * az);
+          used++;
+        } else skipped++;
+      } else {
+        if ((va | vb | vd) === 0) {
+          const t = ax * (by * dz - bz * dy) + ay * (bz * dx - bx * dz) + az * (bx * dy - by * dx);
+          omega += Math.atan2(t, 1 + ax * bx + ay * by + az * bz + bx * dx + by * dy + bz * dz + dx * ax + dy * ay + dz * az);
+          used++;
+        } else skipped++;
+        if ((vb | vc | vd) === 0) {
+          const t = bx * (cy * dz - cz * dy) + by * (cz * dx - cx * dz) + bz * (cx * dy - cy * dx);
+          omega += Math.atan2(t, 1 + bx * cx + by * cy + bz * cz + cx * dx + cy * dy + cz * dz + dx * bx + dy * by + dz * bz);
+          used++;
+        } else skipped++;
+      }
+      omega *= 2;
+      sum += omega;
+      if (density !== null) density[j * ni + i] = omega * inv4pi;
+    }
+  }
+  if (counts !== null) {
+    counts[0] += used;
+    counts[1] += skipped;
+  }
+  return sum;
+}
