@@ -1,1 +1,2 @@
 export * from "./film.js";
+export * from "./demo.js";

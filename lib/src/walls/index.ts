@@ -1,1 +1,2 @@
 export {};
+export * from "./wall180.js";
