@@ -1,0 +1,36 @@
+/**
+ * `helicoid kernel --connection-file FILE`: the process Jupyter starts (see the kernelspec written
+ * by `helicoid install`). Assembles tslab's executor and our server directly.
+ */
+import { dirname, join } from "node:path";
+import Module from "node:module";
+import { HelicoidServer } from "../comm/server.js";
+import { realStderr } from "../display/output.js";
+import { ExecutionSession } from "../notebook/session.js";
+import { parseArgs, type CommandIO } from "./args.js";
+
+/** Let notebooks anywhere `require` our packages (Node's NODE_PATH, read again). */
+function addOwnModulesToPath(): void {
+  const ownNodeModules = join(dirname(require.resolve("@helicoid/lib/package.json")), "..", "..");
+  const paths = (process.env.NODE_PATH ?? "").split(":").filter(Boolean);
+  if (!paths.includes(ownNodeModules)) process.env.NODE_PATH = [...paths, ownNodeModules].join(":");
+  (Module as unknown as { _initPaths(): void })._initPaths();
+}
+
+export async function kernelCommand(args: string[], io: CommandIO): Promise<number> {
+  const a = parseArgs(args, ["--connection-file", "-f"]);
+  const file = a.options.get("--connection-file") ?? a.options.get("-f") ?? a.positional[0];
+  if (!file) {
+    io.stderr("usage: helicoid kernel --connection-file FILE\n");
+    return 2;
+  }
+  addOwnModulesToPath();
+  const session = new ExecutionSession(process.cwd());
+  session.warm();
+  const server = new HelicoidServer(session, file);
+  process.on("SIGINT", () => session.interrupt());
+  process.on("uncaughtException", (err) => realStderr(`[helicoid] uncaught exception: ${err?.stack ?? String(err)}\n`));
+  process.on("unhandledRejection", (reason) => realStderr(`[helicoid] unhandled rejection: ${(reason as Error)?.stack ?? String(reason)}\n`));
+  await server.init();
+  return new Promise<number>(() => {}); // runs until shutdown_request or a signal ends the process
+}

@@ -1,0 +1,3 @@
+export async function startCommand(): Promise<number> {
+  throw new Error("not yet");
+}

@@ -1,0 +1,116 @@
+/**
+ * `table(result)`: a calculator result (or any name -> {value, unit} record) as a table with units,
+ * in Markdown, LaTeX, HTML and plain text, with the result's assumptions, method and sources below
+ * it, so a notebook documents an analysis with no extra typing.
+ */
+import { catalogue, formatQuantity, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
+import { mimeBundle, type Displayable } from "./bundle.js";
+import type { MimeBundle } from "./output.js";
+
+type Entry = { value: number | number[] | string; unit: string };
+export type TableInput = CalculatorResult | Record<string, Entry>;
+
+interface Row {
+  section: string;
+  name: string;
+  symbol: string;
+  meaning: string;
+  value: string;
+}
+
+function isResult(x: TableInput): x is CalculatorResult {
+  return typeof (x as CalculatorResult).id === "string" && typeof (x as CalculatorResult).outputs === "object";
+}
+
+export function formatEntry(e: Entry): string {
+  if (typeof e.value === "string") return e.value;
+  if (Array.isArray(e.value)) {
+    const finite = e.value.filter(Number.isFinite);
+    if (finite.length === 0) return `${e.value.length} values`;
+    const lo = Math.min(...finite);
+    const hi = Math.max(...finite);
+    return `${e.value.length} values, ${formatQuantity(lo, e.unit, 3)} to ${formatQuantity(hi, e.unit, 3)}`;
+  }
+  return formatQuantity(e.value, e.unit);
+}
+
+export class ResultTable implements Displayable {
+  readonly rows: Row[];
+  readonly notes: string[];
+  readonly title: string;
+  constructor(readonly input: TableInput) {
+    if (!input || typeof input !== "object") throw new TypeError(`table: got ${typeof input}; expected a calculator result or a record of {value, unit}`);
+    this.rows = [];
+    if (isResult(input)) {
+      const spec: CalculatorSpec | undefined = catalogue.find((s) => s.id === input.id);
+      this.title = input.title;
+      for (const [section, entries, defs] of [
+        ["Inputs", input.inputs, spec?.inputs],
+        ["Results", input.outputs, spec?.outputs],
+      ] as const) {
+        for (const [name, e] of Object.entries(entries as Record<string, Entry>)) {
+          const def = (defs as ReadonlyArray<{ name: string; symbol: string; meaning: string }> | undefined)?.find((d) => d.name === name);
+          this.rows.push({ section, name, symbol: def?.symbol ?? "", meaning: def?.meaning ?? "", value: formatEntry(e) });
+        }
+      }
+      this.notes = [
+        ...(input.status !== "ok" ? [`Status: ${input.status}`] : []),
+        ...input.notes.map((n) => `Note: ${n}`),
+        ...input.assumptions.map((a) => `Assumption: ${a}`),
+        `Method: ${input.method}`,
+        ...input.sources.map((s) => `Source: ${s}`),
+      ];
+    } else {
+      this.title = "";
+      for (const [name, e] of Object.entries(input)) this.rows.push({ section: "", name, symbol: "", meaning: "", value: formatEntry(e) });
+      this.notes = [];
+    }
+  }
+
+  markdown(): string {
+    const lines: string[] = [];
+    if (this.title) lines.push(`**${this.title}**`, "");
+    lines.push("| | Quantity | Symbol | Value |", "|---|---|---|---|");
+    for (const r of this.rows) lines.push(`| ${r.section} | ${esc(r.meaning || r.name)} (\`${r.name}\`) | ${r.symbol ? `$${r.symbol}$` : ""} | ${esc(r.value)} |`);
+    if (this.notes.length) lines.push("", ...this.notes.map((n) => `- ${esc(n)}`));
+    return lines.join("\n");
+  }
+
+  latex(): string {
+    const body = this.rows.map((r) => `${texText(r.section)} & ${texText(r.name)} & ${r.symbol ? `$${r.symbol}$` : ""} & ${texText(r.value)} \\\\`).join("\n");
+    return `\\begin{tabular}{llll}\n\\hline\n & Quantity & Symbol & Value \\\\\n\\hline\n${body}\n\\hline\n\\end{tabular}`;
+  }
+
+  html(): string {
+    const rows = this.rows
+      .map((r) => `<tr><td>${html(r.section)}</td><td title="${html(r.meaning)}">${html(r.meaning || r.name)} <code>${html(r.name)}</code></td><td>${r.symbol ? `\\(${html(r.symbol)}\\)` : ""}</td><td>${html(r.value)}</td></tr>`)
+      .join("");
+    const notes = this.notes.length ? `<ul>${this.notes.map((n) => `<li>${html(n)}</li>`).join("")}</ul>` : "";
+    return `<div class="helicoid-table">${this.title ? `<b>${html(this.title)}</b>` : ""}<table><thead><tr><th></th><th>Quantity</th><th>Symbol</th><th>Value</th></tr></thead><tbody>${rows}</tbody></table>${notes}</div>`;
+  }
+
+  text(): string {
+    const w1 = Math.max(...this.rows.map((r) => r.section.length), 0);
+    const w2 = Math.max(...this.rows.map((r) => r.name.length), 0);
+    const lines = this.rows.map((r) => `${r.section.padEnd(w1)}  ${r.name.padEnd(w2)}  ${r.value}`);
+    return [...(this.title ? [this.title] : []), ...lines, ...this.notes].join("\n");
+  }
+
+  [mimeBundle](): { data: MimeBundle } {
+    return { data: { "text/markdown": this.markdown(), "text/latex": this.latex(), "text/html": this.html(), "text/plain": this.text() } };
+  }
+}
+
+export function table(result: TableInput): ResultTable {
+  return new ResultTable(result);
+}
+
+function esc(s: string): string {
+  return s.replace(/\|/g, "\\|");
+}
+function html(s: string): string {
+  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+}
+function texText(s: string): string {
+  return s.replace(/([&%$#_{}])/g, "\\$1").replace(/µ/g, "$\\mu$").replace(/²/g, "$^2$").replace(/³/g, "$^3$");
+}

@@ -1,0 +1,257 @@
+/**
+ * Static HTML export of an executed notebook: `helicoid export NOTEBOOK -o PAGE.html`.
+ *
+ * One self-contained page, no network: the widget front end (@helicoid/widgets' export bundle:
+ * html-manager, standard controls, our views, plotly, CSS) is embedded once; the notebook's
+ * widget state (metadata.widgets) is embedded as saved by the runner; markdown is rendered;
+ * code cells and their outputs are shown. Plotly outputs (application/vnd.plotly.v1+json) are
+ * drawn with the embedded plotly. Catalogue explorers stay live in the page (they compute with
+ * the bundled @helicoid/lib); widgets that need the kernel show their last state and say so.
+ */
+import { readFileSync, writeFileSync, existsSync } from "node:fs";
+import { dirname, join, resolve, basename } from "node:path";
+
+export interface ExportOptions {
+  /** Page title (default: the notebook's first heading, else "Helicoid notebook"). */
+  title?: string;
+  /** Source text of the widget bundle (default: read from @helicoid/widgets' dist/export.js). */
+  bundle?: string;
+  /** Where the notebook came from, shown in the page footer. */
+  sourceName?: string;
+  /** Show code cells (default true). */
+  showCode?: boolean;
+}
+
+export class ExportError extends Error {
+  override readonly name = "ExportError";
+}
+
+type Json = Record<string, unknown>;
+type MimeBundle = Record<string, unknown>;
+
+const WIDGET_STATE = "application/vnd.jupyter.widget-state+json";
+const WIDGET_VIEW = "application/vnd.jupyter.widget-view+json";
+const PLOTLY = "application/vnd.plotly.v1+json";
+
+/** The directory of the @helicoid/widgets package (built with `npm run build`). */
+export function widgetsDir(): string {
+  try {
+    return dirname(require.resolve("@helicoid/widgets/package.json"));
+  } catch {
+    return resolve(__dirname, "..", "..", "..", "widgets");
+  }
+}
+
+function readBuilt(file: string): string {
+  const path = join(widgetsDir(), "dist", file);
+  if (!existsSync(path)) {
+    throw new ExportError(`The widget front end is not built (${path} is missing): run \`npm run build\` in the Helicoid checkout first.`);
+  }
+  return readFileSync(path, "utf8");
+}
+
+let markdownRenderer: ((s: string) => string) | null = null;
+function renderMarkdown(source: string): string {
+  if (!markdownRenderer) {
+    readBuilt("markdown.cjs"); // clear error when missing
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    markdownRenderer = (require(join(widgetsDir(), "dist", "markdown.cjs")) as { renderMarkdown: (s: string) => string }).renderMarkdown;
+  }
+  return markdownRenderer(source);
+}
+
+export function escapeHtml(s: string): string {
+  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+}
+
+/** JSON inside a <script> element: "</" and "<!--" must not appear. */
+function scriptJson(value: unknown): string {
+  return JSON.stringify(value).replace(/</g, "\\u003c").replace(/\u2028/g, "\\u2028").replace(/\u2029/g, "\\u2029");
+}
+
+function scriptSource(js: string): string {
+  return js.replace(/<\/script/gi, "<\\/script").replace(/<!--/g, "<\\!--");
+}
+
+const text = (v: unknown): string => (Array.isArray(v) ? v.join("") : typeof v === "string" ? v : v == null ? "" : String(v));
+const stripAnsi = (s: string) => s.replace(/\u001b\[[0-9;]*[A-Za-z]/g, "");
+
+/** Check the shape we rely on and name the problem (nbformat 4). */
+export function checkNotebook(nb: unknown, name = "notebook"): asserts nb is { cells: Json[]; metadata?: Json; nbformat: number } {
+  if (!nb || typeof nb !== "object" || Array.isArray(nb)) throw new ExportError(`${name}: not a notebook (expected a JSON object with "cells")`);
+  const o = nb as Json;
+  if (!Array.isArray(o.cells)) throw new ExportError(`${name}: not an nbformat 4 notebook: "cells" is missing or not a list`);
+  if (typeof o.nbformat === "number" && o.nbformat < 4) throw new ExportError(`${name}: nbformat ${o.nbformat} is not supported (expected 4)`);
+}
+
+function widgetState(nb: { metadata?: Json }): { state: Json; ids: Set<string> } | null {
+  const w = (nb.metadata?.widgets as Json | undefined)?.[WIDGET_STATE] as Json | undefined;
+  if (!w || typeof w !== "object" || typeof w.state !== "object" || w.state === null) return null;
+  return { state: w, ids: new Set(Object.keys(w.state as Json)) };
+}
+
+function renderOutput(out: Json, widgetIds: Set<string>, counters: { widgets: number; plots: number; missing: number }): string {
+  const type = out.output_type;
+  if (type === "stream") {
+    const name = out.name === "stderr" ? "stderr" : "stdout";
+    return `<pre class="hx-out hx-stream hx-${name}">${escapeHtml(stripAnsi(text(out.text)))}</pre>`;
+  }
+  if (type === "error") {
+    const tb = Array.isArray(out.traceback) && out.traceback.length ? (out.traceback as string[]).map(stripAnsi).join("\n") : `${out.ename}: ${out.evalue}`;
+    return `<pre class="hx-out hx-error-output">${escapeHtml(tb)}</pre>`;
+  }
+  if (type !== "display_data" && type !== "execute_result" && type !== "update_display_data") return "";
+  const data = (out.data ?? {}) as MimeBundle;
+  const plain = data["text/plain"] !== undefined ? escapeHtml(text(data["text/plain"])) : "";
+  if (data[WIDGET_VIEW]) {
+    const view = data[WIDGET_VIEW] as Json;
+    const id = String(view.model_id ?? "");
+    if (widgetIds.has(id)) {
+      counters.widgets++;
+      return (
+        `<div class="hx-out hx-widget-output">` +
+        `<script type="${WIDGET_VIEW}">${scriptJson({ version_major: 2, version_minor: 0, model_id: id })}</script>` +
+        `<div class="hx-widget-fallback">${plain || "(widget)"} <em>(loading widget…)</em></div></div>`
+      );
+    }
+    counters.missing++;
+    return `<div class="hx-out hx-widget-missing">${plain || "(widget)"} <em>(this widget's state was not saved with the notebook; run it with <code>helicoid run</code> to keep it)</em></div>`;
+  }
+  if (data[PLOTLY]) {
+    counters.plots++;
+    return `<div class="hx-out hx-plotly"><script type="${PLOTLY}">${scriptJson(data[PLOTLY])}</script><div class="hx-plotly-fallback">${plain}</div></div>`;
+  }
+  if (data["text/html"] !== undefined) return `<div class="hx-out hx-html">${text(data["text/html"])}</div>`;
+  if (data["image/svg+xml"] !== undefined) return `<div class="hx-out hx-image">${text(data["image/svg+xml"])}</div>`;
+  for (const mime of ["image/png", "image/jpeg", "image/gif"]) {
+    if (data[mime] !== undefined) return `<div class="hx-out hx-image"><img alt="output image" src="data:${mime};base64,${text(data[mime]).replace(/\s/g, "")}"></div>`;
+  }
+  if (data["text/markdown"] !== undefined) return `<div class="hx-out hx-markdown">${renderMarkdown(text(data["text/markdown"]))}</div>`;
+  if (data["text/latex"] !== undefined) return `<pre class="hx-out hx-latex">${escapeHtml(text(data["text/latex"]))}</pre>`;
+  if (data["application/json"] !== undefined) return `<pre class="hx-out hx-json">${escapeHtml(JSON.stringify(data["application/json"], null, 2))}</pre>`;
+  if (plain) return `<pre class="hx-out hx-plain">${plain}</pre>`;
+  return "";
+}
+
+function firstHeading(cells: Json[]): string | null {
+  for (const c of cells) {
+    if (c.cell_type !== "markdown") continue;
+    const m = /^\s{0,3}#{1,3}\s+(.+?)\s*#*\s*$/m.exec(text(c.source));
+    if (m) return m[1]!.replace(/[*_`]/g, "");
+  }
+  return null;
+}
+
+const PAGE_CSS = `
+body { margin: 0; background: #fafafa; color: #222; font: 15px/1.5 system-ui, -apple-system, "Segoe UI", sans-serif; }
+main { max-width: 1100px; margin: 0 auto; padding: 16px 24px 48px; background: #fff; min-height: 100vh; box-shadow: 0 0 8px rgba(0,0,0,.06); }
+.hx-cell { margin: 10px 0; }
+.hx-code-cell .hx-input { display: flex; gap: 8px; }
+.hx-prompt { color: #307fc1; font: 12px/1.9 monospace; min-width: 56px; text-align: right; flex: none; }
+.hx-source { flex: 1; margin: 0; background: #f5f7f9; border: 1px solid #e0e4e8; border-radius: 3px; padding: 6px 10px; overflow-x: auto; font: 13px/1.45 ui-monospace, "DejaVu Sans Mono", monospace; }
+.hx-outputs-area { margin-left: 64px; }
+.hx-out { margin: 6px 0; overflow-x: auto; }
+pre.hx-out { font: 13px/1.45 ui-monospace, "DejaVu Sans Mono", monospace; white-space: pre-wrap; }
+.hx-stderr { background: #fff3f3; }
+.hx-error-output { background: #fdecea; color: #8a1c1c; padding: 6px; }
+.hx-markdown-cell { padding: 0 8px 0 72px; }
+.hx-markdown-cell table, .hx-html table { border-collapse: collapse; }
+.hx-markdown-cell td, .hx-markdown-cell th, .hx-html td, .hx-html th { border: 1px solid #ddd; padding: 2px 8px; }
+.hx-widget-fallback { color: #666; font-style: italic; }
+.hx-widget-missing { color: #7a4d00; }
+.hx-page-note { color: #666; font-size: 13px; border-bottom: 1px solid #eee; padding-bottom: 6px; }
+footer { color: #888; font-size: 12px; margin-top: 40px; }
+`;
+
+/** The HTML page of a notebook (object or JSON text). */
+export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): string {
+  let nb: unknown = ipynb;
+  if (typeof ipynb === "string") {
+    try {
+      nb = JSON.parse(ipynb);
+    } catch (err) {
+      throw new ExportError(`${options.sourceName ?? "notebook"}: not valid JSON (${(err as Error).message})`);
+    }
+  }
+  checkNotebook(nb, options.sourceName);
+  const cells = nb.cells;
+  const ws = widgetState(nb);
+  const ids = ws?.ids ?? new Set<string>();
+  const counters = { widgets: 0, plots: 0, missing: 0 };
+  const showCode = options.showCode ?? true;
+  const parts: string[] = [];
+  for (const cell of cells) {
+    const source = text(cell.source);
+    if (cell.cell_type === "markdown") {
+      parts.push(`<section class="hx-cell hx-markdown-cell">${renderMarkdown(source)}</section>`);
+    } else if (cell.cell_type === "code") {
+      const count = cell.execution_count == null ? " " : String(cell.execution_count);
+      const outputs = Array.isArray(cell.outputs) ? (cell.outputs as Json[]).map((o) => renderOutput(o, ids, counters)).join("\n") : "";
+      parts.push(
+        `<section class="hx-cell hx-code-cell">` +
+          (showCode && source.trim() ? `<div class="hx-input"><div class="hx-prompt">[${escapeHtml(count)}]:</div><pre class="hx-source"><code>${escapeHtml(source)}</code></pre></div>` : "") +
+          (outputs ? `<div class="hx-outputs-area">${outputs}</div>` : "") +
+          `</section>`,
+      );
+    } else if (cell.cell_type === "raw") {
+      parts.push(`<section class="hx-cell hx-raw"><pre>${escapeHtml(source)}</pre></section>`);
+    }
+  }
+  const title = options.title ?? firstHeading(cells) ?? "Helicoid notebook";
+  const needsScript = counters.widgets > 0 || counters.plots > 0;
+  const bundle = needsScript ? options.bundle ?? readBuilt("export.js") : "";
+  const note = counters.widgets > 0
+    ? `<p class="hx-page-note">Exported notebook. Explorers of catalogue calculators compute in this page: move their sliders. Widgets that need the kernel show their last state.</p>`
+    : "";
+  return (
+    `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n` +
+    `<meta name="generator" content="helicoid export">\n<title>${escapeHtml(title)}</title>\n<style>${PAGE_CSS}</style>\n</head>\n<body>\n<main>\n` +
+    note +
+    parts.join("\n") +
+    `\n<footer>Exported by Helicoid${options.sourceName ? ` from ${escapeHtml(options.sourceName)}` : ""}. Results are estimates under the assumptions stated with each calculator.</footer>\n</main>\n` +
+    (ws && counters.widgets > 0 ? `<script type="${WIDGET_STATE}">${scriptJson(ws.state)}</script>\n` : "") +
+    (needsScript ? `<script>${scriptSource(bundle)}</script>\n` : "") +
+    `</body>\n</html>\n`
+  );
+}
+
+const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code]";
+
+/** `helicoid export NOTEBOOK -o PAGE.html`: returns the exit status. */
+export async function exportCommand(args: string[], io: { stdout: { write(s: string): unknown }; stderr: { write(s: string): unknown } }): Promise<number> {
+  let input: string | undefined;
+  let output: string | undefined;
+  let title: string | undefined;
+  let showCode = true;
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i]!;
+    if (a === "-o" || a === "--output") output = args[++i];
+    else if (a.startsWith("--output=")) output = a.slice(9);
+    else if (a === "--title") title = args[++i];
+    else if (a === "--no-code") showCode = false;
+    else if (a === "-h" || a === "--help") { io.stdout.write(USAGE + "\n"); return 0; }
+    else if (a.startsWith("-")) { io.stderr.write(`helicoid export: unknown option ${a}\n${USAGE}\n`); return 2; }
+    else if (!input) input = a;
+    else { io.stderr.write(`helicoid export: more than one notebook given (${input}, ${a})\n${USAGE}\n`); return 2; }
+  }
+  if (!input) { io.stderr.write(`helicoid export: no notebook given\n${USAGE}\n`); return 2; }
+  if (output === undefined && args.includes("-o")) { io.stderr.write(`helicoid export: -o needs a file name\n${USAGE}\n`); return 2; }
+  const out = output ?? input.replace(/\.ipynb$/i, "") + ".html";
+  if (resolve(out) === resolve(input)) { io.stderr.write(`helicoid export: the output ${out} would overwrite the notebook\n`); return 2; }
+  let raw: string;
+  try {
+    raw = readFileSync(input, "utf8");
+  } catch (err) {
+    io.stderr.write(`helicoid export: cannot read ${input}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}\n`);
+    return 1;
+  }
+  try {
+    const html = exportNotebook(raw, { title, showCode, sourceName: basename(input) });
+    writeFileSync(out, html);
+    io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
+    return 0;
+  } catch (err) {
+    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : (err as Error).stack ?? String(err)}\n`);
+    return 1;
+  }
+}

@@ -1,0 +1,93 @@
+/**
+ * One TypeScript execution session on tslab's converter and executor, shared by the ZeroMQ kernel
+ * and the in-process notebook runner. What tslab prints through its console interface becomes
+ * Jupyter output here:
+ * - a cell's last expression -> an `execute_result` (a widget, figure or table as its rich bundle);
+ * - compile diagnostics and uncaught exceptions -> one `error` output (ename, evalue, traceback).
+ */
+import { format } from "node:util";
+import { createConverter, type Converter } from "tslab/dist/converter";
+import { createExecutor, type ConverterSet, type Executor } from "tslab/dist/executor";
+import { bundleOf } from "../display/display.js";
+import { currentContext, describeError, runInContext, type OutputContext } from "../display/output.js";
+
+export interface CellError {
+  ename: string;
+  evalue: string;
+  traceback: string[];
+}
+
+export interface CellOutcome {
+  ok: boolean;
+  error?: CellError;
+}
+
+class Converters implements ConverterSet {
+  private _node?: Converter;
+  private _browser?: Converter;
+  get node(): Converter {
+    return (this._node ??= createConverter({ isJS: false, isBrowser: false }));
+  }
+  get browser(): Converter {
+    return (this._browser ??= createConverter({ isJS: false, isBrowser: true }));
+  }
+  close(): void {
+    this._node?.close();
+    this._browser?.close();
+  }
+}
+
+export class ExecutionSession {
+  readonly executor: Executor;
+  private readonly converters = new Converters();
+  private diagnostics: string[] = [];
+  private exception: { value: unknown } | null = null;
+
+  /** `rootDir` is where user code resolves modules from (the notebook's folder). */
+  constructor(rootDir: string = process.cwd()) {
+    this.executor = createExecutor(rootDir, this.converters, {
+      log: (value: unknown) => {
+        const ctx = currentContext();
+        if (!ctx) return;
+        const b = bundleOf(value);
+        ctx.sink.result(b.data, b.metadata);
+      },
+      error: (first?: unknown, ...rest: unknown[]) => {
+        if (rest.length === 0 && (first instanceof Error || typeof first !== "string")) this.exception = { value: first };
+        else this.diagnostics.push(format(first, ...rest));
+      },
+    });
+  }
+
+  /** Build the TypeScript program now (it takes a second or two), instead of at the first cell. */
+  warm(): void {
+    void this.converters.node;
+  }
+
+  /** Run one cell in output context `ctx`. Errors are reported to `ctx.sink` and returned. */
+  async run(code: string, ctx: OutputContext): Promise<CellOutcome> {
+    this.diagnostics = [];
+    this.exception = null;
+    let ok: boolean;
+    try {
+      ok = await runInContext(ctx, () => this.executor.execute(code));
+    } catch (err) {
+      ok = false;
+      this.exception = { value: err };
+    }
+    if (ok) return { ok: true };
+    const error = this.exception
+      ? describeError(this.exception.value)
+      : { ename: "CompileError", evalue: this.diagnostics.join("; ") || "the cell did not compile", traceback: this.diagnostics };
+    ctx.sink.error(error.ename, error.evalue, error.traceback);
+    return { ok: false, error };
+  }
+
+  interrupt(): void {
+    this.executor.interrupt();
+  }
+
+  close(): void {
+    this.executor.close();
+  }
+}
