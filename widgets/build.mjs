@@ -16,8 +16,13 @@ import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";
 
 const here = dirname(fileURLToPath(import.meta.url));
-const dist = join(here, "dist");
-const args = new Set(process.argv.slice(2));
+const argv = process.argv.slice(2);
+const args = new Set(argv);
+const option = (name) => { const i = argv.indexOf(name); return i >= 0 ? argv[i + 1] : undefined; };
+// Tests: `--extra-specs FILE --out DIR` builds only the worker and the export bundle into DIR,
+// with FILE (which adds test calculators to the catalogue) injected into both.
+const extraSpecs = option("--extra-specs");
+const dist = option("--out") ?? join(here, "dist");
 mkdirSync(dist, { recursive: true });
 const t0 = Date.now();
 const log = (m) => process.stderr.write(`widgets build: ${m} (${((Date.now() - t0) / 1000).toFixed(1)} s)\n`);
@@ -50,6 +55,7 @@ const common = {
   // @helicoid/lib from its TypeScript source: the front end and the kernel share one build of the physics.
   alias: { "@helicoid/lib": join(here, "..", "lib", "src", "index.ts") },
   legalComments: "none",
+  inject: extraSpecs ? [extraSpecs] : [],
   loader: { ".svg": "text" },
 };
 
@@ -76,6 +82,8 @@ await esbuild.build({
   plugins: [cssInject, workerSource],
 });
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
+
+if (extraSpecs) { log("done (test bundle)"); process.exit(0); }
 
 // 3. markdown renderer for the exporter (Node)
 await esbuild.build({ ...common, alias: {}, entryPoints: [join(here, "src/node/markdown.ts")], platform: "node", format: "cjs", outfile: join(dist, "markdown.cjs") });

@@ -154,7 +154,7 @@ export class ExplorerView extends DOMWidgetView {
 
     if (typeof ResizeObserver !== "undefined") {
       this.resizeObserver = new ResizeObserver(() => {
-        for (const p of this.plotEls) if (p.dataset.drawn) Plotly.Plots.resize(p);
+        for (const p of this.plotEls) if (p.dataset.drawn && p.offsetParent !== null) Plotly.Plots.resize(p);
       });
       this.resizeObserver.observe(this.el);
     }
