@@ -2,20 +2,10 @@
  * `helicoid kernel --connection-file FILE`: the process Jupyter starts (see the kernelspec written
  * by `helicoid install`). Assembles tslab's executor and our server directly.
  */
-import { dirname, join } from "node:path";
-import Module from "node:module";
 import { HelicoidServer } from "../comm/server.js";
 import { realStderr } from "../display/output.js";
 import { ExecutionSession } from "../notebook/session.js";
 import { parseArgs, type CommandIO } from "./args.js";
-
-/** Let notebooks anywhere `require` our packages (Node's NODE_PATH, read again). */
-function addOwnModulesToPath(): void {
-  const ownNodeModules = join(dirname(require.resolve("@helicoid/lib/package.json")), "..", "..");
-  const paths = (process.env.NODE_PATH ?? "").split(":").filter(Boolean);
-  if (!paths.includes(ownNodeModules)) process.env.NODE_PATH = [...paths, ownNodeModules].join(":");
-  (Module as unknown as { _initPaths(): void })._initPaths();
-}
 
 export async function kernelCommand(args: string[], io: CommandIO): Promise<number> {
   const a = parseArgs(args, ["--connection-file", "-f"]);
@@ -24,7 +14,6 @@ export async function kernelCommand(args: string[], io: CommandIO): Promise<numb
     io.stderr("usage: helicoid kernel --connection-file FILE\n");
     return 2;
   }
-  addOwnModulesToPath();
   const session = new ExecutionSession(process.cwd());
   session.warm();
   const server = new HelicoidServer(session, file);

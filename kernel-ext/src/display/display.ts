@@ -7,12 +7,13 @@ import { inspect } from "node:util";
 import { isDisplayable, mimeBundle } from "./bundle.js";
 import { consoleSink, currentContext, type MimeBundle } from "./output.js";
 
-export function bundleOf(value: unknown): { data: MimeBundle; metadata: Record<string, unknown> } {
+/** The bundle of a value; `asResult` shows strings quoted, as a cell's last expression (Node's REPL style). */
+export function bundleOf(value: unknown, opts: { asResult?: boolean } = {}): { data: MimeBundle; metadata: Record<string, unknown> } {
   if (isDisplayable(value)) {
     const b = value[mimeBundle]();
     return { data: b.data, metadata: b.metadata ?? {} };
   }
-  if (typeof value === "string") return { data: { "text/plain": value }, metadata: {} };
+  if (typeof value === "string" && !opts.asResult) return { data: { "text/plain": value }, metadata: {} };
   return { data: { "text/plain": inspect(value, { depth: 4, colors: false, maxArrayLength: 50 }) }, metadata: {} };
 }
 
@@ -31,4 +32,9 @@ export function displayData(data: MimeBundle, metadata: Record<string, unknown> 
 
 export function markdown(text: string): { [mimeBundle](): { data: MimeBundle } } {
   return { [mimeBundle]: () => ({ data: { "text/markdown": text, "text/plain": text } }) };
+}
+
+/** Clear the output of the current cell (or output area); with `wait`, when new output arrives. */
+export function clearOutput(wait = false): void {
+  currentContext()?.sink.clear(wait);
 }

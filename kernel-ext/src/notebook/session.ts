@@ -10,6 +10,7 @@ import { createConverter, type Converter } from "tslab/dist/converter";
 import { createExecutor, type ConverterSet, type Executor } from "tslab/dist/executor";
 import { bundleOf } from "../display/display.js";
 import { currentContext, describeError, runInContext, type OutputContext } from "../display/output.js";
+import { exposeOwnPackages } from "./ownPackages.js";
 
 export interface CellError {
   ename: string;
@@ -45,11 +46,12 @@ export class ExecutionSession {
 
   /** `rootDir` is where user code resolves modules from (the notebook's folder). */
   constructor(rootDir: string = process.cwd()) {
+    exposeOwnPackages(rootDir);
     this.executor = createExecutor(rootDir, this.converters, {
       log: (value: unknown) => {
         const ctx = currentContext();
         if (!ctx) return;
-        const b = bundleOf(value);
+        const b = bundleOf(value, { asResult: true });
         ctx.sink.result(b.data, b.metadata);
       },
       error: (first?: unknown, ...rest: unknown[]) => {
