@@ -1,2 +1,3 @@
 export {};
 export * from "./wall180.js";
+export * from "./wall360.js";
