@@ -3,3 +3,7 @@ export * from "./controls.js";
 export * from "./link.js";
 export * from "./panel.js";
 export * from "./factories.js";
+export * from "./explorer.js";
+export * from "./figureWidget.js";
+export * from "./texture.js";
+export * from "./fitPanel.js";

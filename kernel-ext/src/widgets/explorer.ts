@@ -1,0 +1,212 @@
+/**
+ * `explore(calculator, overrides?)`: the explorer widget of a calculator (widgets/PROTOCOL.md).
+ *
+ * - A catalogue id ("skyrmion") or a catalogue spec: the page recomputes with its bundled
+ *   @helicoid/lib (also in exported HTML) and writes `inputs` and `result` back, so kernel code
+ *   reads them (`ex.inputs`, `ex.result`) and observes them (`ex.onResult(...)`).
+ * - A spec of your own (a `CalculatorSpec` with `compute`), or a plain function with a description
+ *   of its inputs: the kernel computes on every change; live only while the kernel runs.
+ * Inputs given here or with `setInputs` may carry units ("3 mJ/m^2"); they are coerced by the
+ * spec (errors name the input). Kernel-side changes move the page's controls.
+ */
+import {
+  catalogue, coerceInputs, defaultSweep, getCalculator, runCalculator, InputError,
+  type CalculatorResult, type CalculatorSpec, type ComputeOutput, type InputSpec, type InputValues, type OutputSpec,
+} from "@helicoid/lib";
+import type { QuantityInput } from "@helicoid/lib";
+import { KERNEL_VERSION } from "../version.js";
+import { Widget, type WidgetState } from "./widget.js";
+import { ourModel } from "./ourModel.js";
+
+export type Sweep = { over: string; from: number; to: number; points: number };
+export type SpecData = Omit<CalculatorSpec, "compute">;
+
+export interface ExplorerState extends WidgetState {
+  calculator: string;
+  spec: SpecData | null;
+  inputs: Record<string, number>;
+  sweep: Sweep | null;
+  result: CalculatorResult | null;
+  error: string;
+  compute_in: "browser" | "kernel";
+  kernel_version: string;
+  function_name: string;
+}
+
+/** A plain function explored with a description of its inputs (units, ranges, meanings). */
+export interface FunctionDescription {
+  title?: string;
+  summary?: string;
+  inputs: Array<Partial<InputSpec> & Pick<InputSpec, "name" | "default">>;
+  outputs?: Array<Partial<OutputSpec> & Pick<OutputSpec, "name">>;
+  plots?: CalculatorSpec["plots"];
+  sweep?: CalculatorSpec["sweep"];
+  assumptions?: string[];
+  sources?: string[];
+  method?: string;
+}
+
+export interface ExploreOptions {
+  sweep?: Sweep | null;
+  /** Force kernel-side computing even for a catalogue calculator. */
+  computeIn?: "browser" | "kernel";
+  /** For plain functions: how the inputs look. */
+  describe?: FunctionDescription;
+}
+
+type PlainFunction = (inputs: InputValues) => Record<string, number | number[] | string> | ComputeOutput;
+
+function specOfFunction(fn: PlainFunction, d: FunctionDescription | undefined): CalculatorSpec {
+  if (!d || !Array.isArray(d.inputs) || d.inputs.length === 0) {
+    throw new InputError("describe.inputs", d?.inputs, "a list of inputs ({name, default, unit?, min?, max?, meaning?}) for the explored function");
+  }
+  const inputs: InputSpec[] = d.inputs.map((i) => {
+    const dflt = i.default;
+    const span = Math.abs(dflt) || 1;
+    return {
+      name: i.name, symbol: i.symbol ?? i.name, unit: i.unit ?? "", default: dflt,
+      min: i.min ?? (dflt > 0 ? 0 : dflt - span), max: i.max ?? (dflt > 0 ? 2 * dflt : dflt + span),
+      scale: i.scale ?? "linear", meaning: i.meaning ?? i.name, ...(i.kind ? { kind: i.kind } : {}), ...(i.choices ? { choices: i.choices } : {}),
+    };
+  });
+  let outputs: OutputSpec[] | null = d.outputs?.map((o) => ({ name: o.name, symbol: o.symbol ?? o.name, unit: o.unit ?? "", meaning: o.meaning ?? o.name, ...(o.kind ? { kind: o.kind } : {}) })) ?? null;
+  const spec: CalculatorSpec = {
+    id: fn.name || "function",
+    title: d.title ?? (fn.name ? `${fn.name}(…)` : "Explored function"),
+    summary: d.summary ?? "A function defined in the notebook, computed by the kernel.",
+    inputs,
+    get outputs() { return outputs ?? []; },
+    plots: d.plots ?? [],
+    ...(d.sweep ? { sweep: d.sweep } : {}),
+    assumptions: d.assumptions ?? [],
+    sources: d.sources ?? [],
+    method: d.method ?? "user function",
+    compute(values) {
+      const r = fn(values);
+      const out = (r && typeof r === "object" && "values" in r && typeof (r as ComputeOutput).values === "object" ? r : { values: r }) as ComputeOutput;
+      if (!outputs) {
+        outputs = Object.entries(out.values).map(([name, v]) => ({ name, symbol: name, unit: "", meaning: name, kind: Array.isArray(v) ? "array" : typeof v === "string" ? "text" : "scalar" }));
+      }
+      return out;
+    },
+  } as CalculatorSpec;
+  return spec;
+}
+
+function specData(spec: CalculatorSpec): SpecData {
+  const { compute: _compute, ...rest } = spec;
+  return JSON.parse(JSON.stringify({ ...rest, outputs: spec.outputs }));
+}
+
+export class Explorer extends Widget<ExplorerState> {
+  readonly spec: CalculatorSpec;
+  private readonly catalogueId: string;
+
+  constructor(calculator: string | CalculatorSpec | PlainFunction, overrides: Record<string, QuantityInput> = {}, options: ExploreOptions = {}) {
+    let spec: CalculatorSpec;
+    let catalogueId = "";
+    let functionName = "";
+    if (typeof calculator === "string") {
+      spec = getCalculator(calculator);
+      catalogueId = spec.id;
+    } else if (typeof calculator === "function") {
+      spec = specOfFunction(calculator, options.describe);
+      functionName = calculator.name;
+    } else if (calculator && typeof calculator === "object" && typeof calculator.compute === "function") {
+      spec = calculator;
+      if (catalogue.includes(calculator)) catalogueId = calculator.id;
+    } else {
+      throw new InputError("calculator", calculator, "a catalogue id, a CalculatorSpec, or a function with options.describe");
+    }
+    const inputs = coerceInputs(spec, overrides);
+    const sweep = options.sweep === undefined ? defaultSweep(spec, inputs) ?? null : options.sweep;
+    const computeIn = catalogueId ? options.computeIn ?? "browser" : "kernel";
+    let result: CalculatorResult | null = null;
+    let error = "";
+    try {
+      result = runCalculator(spec, inputs, sweep ? { sweep } : {});
+    } catch (err) {
+      error = (err as Error).message;
+    }
+    super({
+      ...ourModel("Explorer"),
+      state: {
+        calculator: catalogueId,
+        spec: specData(spec),
+        inputs,
+        sweep,
+        result,
+        error,
+        compute_in: computeIn,
+        kernel_version: KERNEL_VERSION,
+        function_name: functionName,
+      },
+    });
+    this.spec = spec;
+    this.catalogueId = catalogueId;
+    // The page changed inputs or the sweep: a kernel-computed explorer answers with a result.
+    this.onChange(["inputs", "sweep"], () => {
+      if (this.get("compute_in") === "kernel") this.recompute();
+    });
+  }
+
+  /** Current inputs (SI). */
+  get inputs(): Record<string, number> {
+    return { ...this.get("inputs") };
+  }
+
+  /** Latest result (computed in the page for catalogue calculators, else by the kernel). */
+  get result(): CalculatorResult | null {
+    return this.get("result");
+  }
+
+  get error(): string {
+    return this.get("error");
+  }
+
+  /** Change inputs from code (units allowed); the page's controls move and the result follows. */
+  setInputs(changes: Record<string, QuantityInput>): this {
+    const next = coerceInputs(this.spec, { ...this.get("inputs"), ...changes });
+    this.set({ inputs: next });
+    if (this.get("compute_in") !== "kernel") this.recompute();
+    return this;
+  }
+
+  setSweep(sweep: Sweep | null): this {
+    this.set({ sweep });
+    if (this.get("compute_in") !== "kernel") this.recompute();
+    return this;
+  }
+
+  /** Observe results (from the page or the kernel). Returns a function that stops observing. */
+  onResult(cb: (result: CalculatorResult | null, explorer: Explorer) => void): () => void {
+    return this.onChange("result", (v) => cb(v, this));
+  }
+
+  /** Observe input changes (from the page or from code). */
+  onInputs(cb: (inputs: Record<string, number>, explorer: Explorer) => void): () => void {
+    return this.onChange("inputs", (v) => cb(v, this));
+  }
+
+  /** Compute in the kernel now with the current state. */
+  recompute(): CalculatorResult | null {
+    const sweep = this.get("sweep");
+    try {
+      const result = runCalculator(this.spec, this.get("inputs"), sweep ? { sweep } : {});
+      this.set({ result, error: "" });
+      return result;
+    } catch (err) {
+      this.set({ result: null, error: (err as Error).message });
+      return null;
+    }
+  }
+
+  override describe(): string {
+    return `Explorer(${this.catalogueId || this.spec.id})`;
+  }
+}
+
+/** Open an explorer: `explore("skyrmion", { D: "3.5 mJ/m^2" })`, or a spec / function of your own. */
+export function explore(calculator: string | CalculatorSpec | PlainFunction, overrides: Record<string, QuantityInput> = {}, options: ExploreOptions = {}): Explorer {
+  return new Explorer(calculator, overrides, options);
+}
