@@ -1,3 +1,5 @@
+import { realStderr, realStdout } from "../display/output.js";
+
 /** A small argument reader for the `helicoid` command: flags, options with values, positionals. */
 export interface ParsedArgs {
   positional: string[];
@@ -36,7 +38,8 @@ export interface CommandIO {
   stderr: (s: string) => void;
 }
 
+/** The process's own streams (not the notebook's: cell output capture replaces process.stdout.write). */
 export const processIO: CommandIO = {
-  stdout: (s) => void process.stdout.write(s),
-  stderr: (s) => void process.stderr.write(s),
+  stdout: (s) => realStdout(s),
+  stderr: (s) => realStderr(s),
 };
