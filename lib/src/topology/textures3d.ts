@@ -39,7 +39,10 @@ export function hedgehogTexture(grid: Grid3D, options: { sign?: 1 | -1; x0?: num
   const z0 = options.z0 ?? ((g.nz - 1) / 2 + 0.25) * g.dz;
   const s = options.sign ?? 1;
   if (s !== 1 && s !== -1) throw new InputError("sign", options.sign, "+1 (hedgehog) or -1 (anti-hedgehog)");
-  return vectorFieldFromFunction(g, (x, y, z) => [x - x0, y - y0, s * (z - z0)]);
+  return vectorFieldFromFunction(g, (x, y, z) => {
+    const len = Math.hypot(x - x0, y - y0, z - z0);
+    return len > 0 ? [(x - x0) / len, (y - y0) / len, (s * (z - z0)) / len] : [0, 0, 0];
+  });
 }
 
 /**
@@ -56,6 +59,9 @@ export function blochPointTexture(grid: Grid3D, options: { lambda?: number; x0?:
   return vectorFieldFromFunction(g, (x, y, z) => {
     const X = (x - x0) / lambda, Y = (y - y0) / lambda, Z = (z - z0) / lambda;
     const r2 = Math.min(X * X + Y * Y, 600);
-    return [X, Y, Math.expm1(r2 / 2) - Z];
+    const nz = Math.expm1(r2 / 2) - Z;
+    // unit vectors here: |n| spans many decades, and a relative vacuum threshold must not see that
+    const len = Math.hypot(X, Y, nz);
+    return len > 0 ? [X / len, Y / len, nz / len] : [0, 0, 0];
   });
 }
