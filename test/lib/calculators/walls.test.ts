@@ -1,0 +1,128 @@
+import { describe, expect, it } from "vitest";
+import { getCalculator, runCalculator, InputError, mu0, type CalculatorSpec } from "@helicoid/lib";
+import { wallCalculators } from "../../../lib/src/calculators/walls.js";
+
+function corners(spec: CalculatorSpec): Array<Record<string, number>> {
+  const out: Array<Record<string, number>> = [];
+  const n = spec.inputs.length;
+  for (let mask = 0; mask < 1 << n; mask++) {
+    const v: Record<string, number> = {};
+    spec.inputs.forEach((inp, i) => (v[inp.name] = mask & (1 << i) ? inp.max : inp.min));
+    out.push(v);
+  }
+  return out;
+}
+
+function inputError(fn: () => unknown): InputError {
+  try {
+    fn();
+  } catch (e) {
+    if (e instanceof InputError) return e;
+    throw e;
+  }
+  throw new Error("expected an InputError");
+}
+
+function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
+  for (const o of spec.outputs) {
+    const v = r.outputs[o.name]?.value;
+    if (v === undefined) continue;
+    if (o.kind === "text") expect(typeof v).toBe("string");
+    else if (o.kind === "array") {
+      expect(Array.isArray(v)).toBe(true);
+      for (const x of v as number[]) expect(Number.isFinite(x)).toBe(true);
+    } else expect(Number.isFinite(v as number)).toBe(true);
+  }
+  // JSON-able without loss (no Infinity or NaN turning into null).
+  expect(JSON.stringify(r)).not.toMatch(/null/);
+}
+
+describe("walls catalogue", () => {
+  it("lists wall, wall360 and wall-type with the film inputs", () => {
+    expect(wallCalculators.map((s) => s.id)).toEqual(["wall", "wall360", "wall-type"]);
+    for (const s of wallCalculators) {
+      expect(s.inputs.slice(0, 5).map((i) => i.name)).toEqual(["Ms", "A", "Ku", "D", "t"]);
+      expect(getCalculator(s.id)).toBe(s);
+    }
+    expect(getCalculator("wall360").inputs.map((i) => i.name)).toContain("B");
+  });
+
+  it("every spec computes on its defaults and every range corner", () => {
+    for (const spec of wallCalculators) {
+      checkResult(spec, runCalculator(spec));
+      for (const c of corners(spec)) checkResult(spec, runCalculator(spec, c));
+    }
+  });
+
+  it("wall: outputs match the closed forms on the defaults", () => {
+    const spec = getCalculator("wall");
+    const r = runCalculator(spec, { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" });
+    const Keff = 1.2e6 - (mu0 * 1.1e6 ** 2) / 2;
+    const val = (n: string) => r.outputs[n]!.value as number;
+    // Source: PHYSICS.md "Walls and skyrmions" (Hubert and Schaefer 1998; Thiaville et al. 2012).
+    expect(val("width")).toBeCloseTo(Math.sqrt(15e-12 / Keff), 18);
+    expect(val("energy")).toBeCloseTo(4 * Math.sqrt(15e-12 * Keff) - Math.PI * 1.5e-3, 12);
+    expect(val("criticalDmi")).toBeCloseTo((4 * Math.sqrt(15e-12 * Keff)) / Math.PI, 12);
+    expect(val("lilleyWidth")).toBeCloseTo(Math.PI * val("width"), 18);
+    expect(val("qualityFactor")).toBeCloseTo((2 * 1.2e6) / (mu0 * 1.1e6 ** 2), 12);
+    expect(r.outputs.wallType!.value).toMatch(/Neel/);
+    expect((r.outputs.x!.value as number[]).length).toBe((r.outputs.mz!.value as number[]).length);
+    expect(r.outputs.width!.unit).toBe("m");
+    expect(r.status).toBe("ok");
+    // above D_c: a warning, and the equilibrium spiral period appears
+    const s = runCalculator(spec, { D: "3 mJ/m^2", A: "5 pJ/m" });
+    expect(s.status).toBe("warning");
+    expect(s.outputs.equilibriumSpiralPeriod!.value as number).toBeGreaterThan(s.outputs.spiralPeriod!.value as number);
+  });
+
+  it("wall360: exact pair beside the minimization; a B sweep gives R(B), w(B)", () => {
+    const spec = getCalculator("wall360");
+    const r = runCalculator(spec, { B: "50 mT" });
+    const val = (n: string) => r.outputs[n]!.value as number;
+    expect(Math.abs(val("radius") / val("exactRadius") - 1)).toBeLessThan(1e-6);
+    expect(Math.abs(val("width") / val("exactWidth") - 1)).toBeLessThan(1e-6);
+    const R = r.outputs.radiusSweep!.value as number[];
+    expect(R.length).toBe(60);
+    for (let i = 1; i < R.length; i++) expect(R[i]!).toBeLessThan(R[i - 1]!);
+    const z = spec.compute({ ...Object.fromEntries(spec.inputs.map((i) => [i.name, i.default])), B: 0 });
+    expect(z.values.pairState).toMatch(/no bound pair/);
+    expect(z.status).toBe("warning");
+  });
+
+  it("wall-type: threshold curve and type", () => {
+    const spec = getCalculator("wall-type");
+    const r = runCalculator(spec, { D: "0.05 mJ/m^2" });
+    expect(r.outputs.character!.value).toBe("intermediate");
+    const th = r.outputs.neelThreshold!.value as number;
+    expect(r.outputs.cosHelicity!.value as number).toBeCloseTo(0.05e-3 / th, 12);
+    expect((r.outputs.curveT!.value as number[]).length).toBe(60);
+  });
+
+  it("bad input: each error names the parameter, the value and the expectation", () => {
+    for (const spec of wallCalculators) {
+      const cases: Array<[string, unknown, RegExp]> = [
+        ["A", 0, /positive exchange/],
+        ["A", -15e-12, /positive exchange/],
+        ["Ms", 0, /positive saturation/],
+        ["t", 0, /positive film thickness/],
+        ["A", "50 mT", /dimension of J\/m/],
+        ["Ku", 0.3e6, /K_eff/],
+      ];
+      for (const [name, value, expected] of cases) {
+        const e = inputError(() => runCalculator(spec, { [name]: value as never }));
+        expect(e.parameter).toBe(name);
+        // runCalculator hands SI numbers to compute, so a range error shows the SI value; a unit error the raw string.
+        expect(e.value).toBe(value);
+        expect(e.message).toMatch(expected);
+      }
+      // A missing parameter when calling compute directly.
+      const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
+      delete inputs.A;
+      const e = inputError(() => spec.compute(inputs));
+      expect(e.parameter).toBe("A");
+      expect(e.message).toMatch(/\(missing\)/);
+      // An unknown name is refused too.
+      expect(inputError(() => runCalculator(spec, { Aex: 1e-11 } as never)).parameter).toBe("Aex");
+    }
+  });
+});
