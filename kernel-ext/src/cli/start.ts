@@ -1,3 +1,164 @@
-export async function startCommand(): Promise<number> {
-  throw new Error("not yet");
+/**
+ * `helicoid start` (= `npm start`): run every example notebook with our in-process runner (no
+ * Jupyter needed), export each as a self-contained page whose catalogue explorers stay live, and
+ * serve the gallery on 127.0.0.1 (port printed; Ctrl-C stops). If a Jupyter installation is found,
+ * the kernelspec is installed for this user and the `helicoid lab` command is printed.
+ */
+import { spawn } from "node:child_process";
+import { createReadStream, existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { createServer, type Server } from "node:http";
+import { basename, extname, join, normalize, resolve, sep } from "node:path";
+import { exportNotebook } from "../notebook/export.js";
+import { parseArgs, type CommandIO } from "./args.js";
+import { binPath, install } from "./install.js";
+import { findJupyter } from "./lab.js";
+
+const repoRoot = resolve(__dirname, "..", "..", "..");
+
+export interface GalleryEntry {
+  name: string;
+  title: string;
+  page: string | null;
+  executed: string | null;
+  error: string | null;
+  seconds: number;
+}
+
+function runNotebookInChild(input: string, out: string): Promise<{ code: number; stderr: string }> {
+  return new Promise((res) => {
+    const child = spawn(process.execPath, [binPath, "run", input, "-o", out, "--quiet"], { stdio: ["ignore", "ignore", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (d) => (stderr += d));
+    child.on("exit", (code) => res({ code: code ?? 1, stderr }));
+  });
+}
+
+function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | string[] }> }, fallback: string): string {
+  for (const c of nb.cells ?? []) {
+    if (c.cell_type !== "markdown") continue;
+    const m = /^#\s+(.+)$/m.exec(Array.isArray(c.source) ? c.source.join("") : c.source);
+    if (m) return m[1]!.trim();
+  }
+  return fallback;
+}
+
+/** Execute and export every notebook of `notebooksDir` into `outDir`; returns what happened to each. */
+export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void): Promise<GalleryEntry[]> {
+  mkdirSync(outDir, { recursive: true });
+  const names = readdirSync(notebooksDir).filter((f) => f.endsWith(".ipynb")).sort();
+  const entries: GalleryEntry[] = [];
+  for (const name of names) {
+    const t0 = performance.now();
+    const stem = name.replace(/\.ipynb$/, "");
+    const executed = join(outDir, `${stem}.ipynb`);
+    log(`running ${name} ...\n`);
+    const r = await runNotebookInChild(join(notebooksDir, name), executed);
+    const entry: GalleryEntry = { name, title: stem, page: null, executed: existsSync(executed) ? executed : null, error: null, seconds: 0 };
+    if (r.code !== 0) entry.error = r.stderr.trim().split("\n").slice(-3).join(" ") || `exit status ${r.code}`;
+    if (entry.executed) {
+      const nb = JSON.parse(readFileSync(executed, "utf8"));
+      entry.title = titleOf(nb, stem);
+      const page = join(outDir, `${stem}.html`);
+      writeFileSync(page, exportNotebook(nb, { sourceName: name }));
+      entry.page = page;
+    }
+    entry.seconds = (performance.now() - t0) / 1000;
+    log(`  ${entry.error ? `FAILED: ${entry.error}` : "ok"} (${entry.seconds.toFixed(1)} s)\n`);
+    entries.push(entry);
+  }
+  writeFileSync(join(outDir, "index.html"), galleryIndex(entries));
+  return entries;
+}
+
+function esc(s: string): string {
+  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+}
+
+export function galleryIndex(entries: GalleryEntry[]): string {
+  const items = entries
+    .map(
+      (e) =>
+        `<li class="${e.error ? "failed" : "ok"}">` +
+        (e.page ? `<a href="${esc(basename(e.page))}">${esc(e.title)}</a>` : esc(e.title)) +
+        ` <span class="file">${esc(e.name)}</span>` +
+        (e.executed ? ` <a class="file" href="${esc(basename(e.executed))}" download>executed .ipynb</a>` : "") +
+        (e.error ? `<div class="error">did not run to the end: ${esc(e.error)}</div>` : "") +
+        `</li>`,
+    )
+    .join("\n");
+  return `<!DOCTYPE html><html lang="en"><head><meta charset="utf-8"><title>Helicoid gallery</title>
+<style>body{font:16px/1.5 system-ui,sans-serif;max-width:860px;margin:40px auto;padding:0 16px;color:#222}
+h1{font-weight:600}li{margin:10px 0}.file{color:#777;font-size:13px;margin-left:8px}.error{color:#a00;font-size:13px}
+.note{color:#555;font-size:14px;border-left:3px solid #ddd;padding-left:10px}</style></head><body>
+<h1>Helicoid gallery</h1>
+<p>Example notebooks, executed just now by Helicoid's own runner and exported as pages. The explorers of catalogue
+calculators compute in your browser: move their sliders. All materials in these notebooks are invented demo materials.</p>
+<ul>
+${items}
+</ul>
+<p class="note">Results are estimates under the assumptions stated beside them (continuum micromagnetics, thin film,
+zero temperature unless stated).</p>
+</body></html>
+`;
+}
+
+const mime: Record<string, string> = { ".html": "text/html; charset=utf-8", ".ipynb": "application/x-ipynb+json", ".json": "application/json", ".js": "text/javascript", ".css": "text/css", ".png": "image/png" };
+
+/** Serve `dir` read-only on 127.0.0.1 (never outside it). Port 0 picks a free port. */
+export function serveDirectory(dir: string, port: number): Promise<Server> {
+  const root = resolve(dir);
+  const server = createServer((req, res) => {
+    const url = new URL(req.url ?? "/", "http://127.0.0.1");
+    const rel = decodeURIComponent(url.pathname) === "/" ? "index.html" : decodeURIComponent(url.pathname).slice(1);
+    const file = normalize(join(root, rel));
+    if (!(file === root || file.startsWith(root + sep)) || !existsSync(file) || !statSync(file).isFile() || (req.method !== "GET" && req.method !== "HEAD")) {
+      res.writeHead(404, { "content-type": "text/plain" }).end("not found\n");
+      return;
+    }
+    res.writeHead(200, { "content-type": mime[extname(file)] ?? "application/octet-stream", "cache-control": "no-store" });
+    if (req.method === "HEAD") res.end();
+    else createReadStream(file).pipe(res);
+  });
+  return new Promise((res, rej) => {
+    server.once("error", rej);
+    server.listen(port, "127.0.0.1", () => res(server));
+  });
+}
+
+export async function startCommand(args: string[], io: CommandIO): Promise<number> {
+  const a = parseArgs(args, ["--port", "--out", "--notebooks"]);
+  const notebooks = resolve(a.options.get("--notebooks") ?? join(repoRoot, "notebooks"));
+  const out = resolve(a.options.get("--out") ?? join(repoRoot, ".gallery"));
+  const entries = await buildGallery(notebooks, out, io.stderr);
+  const failed = entries.filter((e) => e.error);
+  const jupyter = findJupyter();
+  if (jupyter) {
+    const r = install({ user: true });
+    io.stdout(`Jupyter found (${jupyter.cmd}${jupyter.args.length ? " " + jupyter.args.join(" ") : ""}): kernelspec installed in ${r.kernelDir}.\n`);
+    io.stdout(`To work in notebooks with live kernel widgets: npx helicoid lab\n`);
+  } else {
+    io.stdout("No Jupyter found: the gallery below needs none. For notebooks with a live kernel, install Jupyter, then run: npx helicoid lab\n");
+  }
+  if (a.flags.has("--no-serve")) {
+    io.stdout(`gallery written to ${join(out, "index.html")}\n`);
+    return failed.length ? 1 : 0;
+  }
+  let port = Number(a.options.get("--port") ?? process.env.PORT ?? 8765);
+  let server: Server | null = null;
+  for (let attempt = 0; attempt < 20 && !server; attempt++) {
+    try {
+      server = await serveDirectory(out, port);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code !== "EADDRINUSE" || port === 0) throw err;
+      port++;
+    }
+  }
+  if (!server) throw new Error("no free port found for the gallery");
+  const actual = (server.address() as { port: number }).port;
+  io.stdout(`\nHelicoid gallery: http://127.0.0.1:${actual}/  (${entries.length} notebooks${failed.length ? `, ${failed.length} failed` : ""}; Ctrl-C stops)\n`);
+  return new Promise<number>((res) => {
+    const stop = () => server!.close(() => res(0));
+    process.once("SIGINT", stop);
+    process.once("SIGTERM", stop);
+  });
 }
