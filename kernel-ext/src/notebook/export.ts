@@ -208,7 +208,7 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
     `<meta name="generator" content="helicoid export">\n<title>${escapeHtml(title)}</title>\n<style>${PAGE_CSS}</style>\n</head>\n<body>\n<main>\n` +
     note +
     parts.join("\n") +
-    `\n<footer>Exported by Helicoid${options.sourceName ? ` from ${escapeHtml(options.sourceName)}` : ""}. Results are estimates under the assumptions stated with each calculator.</footer>\n</main>\n` +
+    `\n<footer>Exported by Helicoid${options.sourceName ? ` from ${escapeHtml(basename(options.sourceName))}` : ""}. Results are estimates under the assumptions stated with each calculator.</footer>\n</main>\n` +
     (ws && counters.widgets > 0 ? `<script type="${WIDGET_STATE}">${scriptJson(ws.state)}</script>\n` : "") +
     (needsScript ? `<script>${scriptSource(bundle)}</script>\n` : "") +
     `</body>\n</html>\n`
@@ -217,8 +217,12 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
 
 const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code]";
 
-/** `helicoid export NOTEBOOK -o PAGE.html`: returns the exit status. */
-export async function exportCommand(args: string[], io: { stdout: { write(s: string): unknown }; stderr: { write(s: string): unknown } }): Promise<number> {
+type Out = ((s: string) => unknown) | { write(s: string): unknown };
+
+/** `helicoid export NOTEBOOK -o PAGE.html`: returns the exit status. `io` writers may be functions or streams. */
+export async function exportCommand(args: string[], cio: { stdout: Out; stderr: Out }): Promise<number> {
+  const w = (o: Out) => ({ write: (s: string) => (typeof o === "function" ? o(s) : o.write(s)) });
+  const io = { stdout: w(cio.stdout), stderr: w(cio.stderr) };
   let input: string | undefined;
   let output: string | undefined;
   let title: string | undefined;
@@ -242,11 +246,12 @@ export async function exportCommand(args: string[], io: { stdout: { write(s: str
   try {
     raw = readFileSync(input, "utf8");
   } catch (err) {
-    io.stderr.write(`helicoid export: cannot read ${input}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}\n`);
+    const code = (err as NodeJS.ErrnoException).code;
+    io.stderr.write(`helicoid export: cannot read ${input}: ${code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a directory" : (err as Error).message}\n`);
     return 1;
   }
   try {
-    const html = exportNotebook(raw, { title, showCode, sourceName: basename(input) });
+    const html = exportNotebook(raw, { title, showCode, sourceName: input });
     writeFileSync(out, html);
     io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
     return 0;
