@@ -1,0 +1,143 @@
+/**
+ * `helicoid fit FILE --model ID [--json]` and `helicoid fit --list`.
+ * Reads a CSV line profile (position, signal, optional sigma; units in the header such as "x (nm)"
+ * or by --x-unit / --y-unit), fits a catalogue model and prints a table or JSON:
+ * {"model", "status", "message", "parameters": {name: {"value", "stderr", "unit"}},
+ *  "chiSquareReduced", "aic", "bic", "correlation": {"names", "matrix"}, "notes"}.
+ * Options: --start name=value (SI number or a quantity such as "12 nm"), --fix name[=value],
+ * --free name, --drop-nan, --x-unit U, --y-unit U, --profile (profile-likelihood intervals).
+ */
+import { readFileSync } from "node:fs";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, InputError, ConvergenceError } from "@helicoid/lib";
+
+export interface FitIo {
+  stdout: (s: string) => void;
+  stderr: (s: string) => void;
+}
+
+const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value ...] [--fix name[=value] ...] [--free name ...]
+                    [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
+       helicoid fit --list [--json]`;
+
+export async function fitCommand(args: string[], io: FitIo): Promise<number> {
+  let file: string | undefined;
+  let modelId: string | undefined;
+  let json = false;
+  let list = false;
+  let dropNaN = false;
+  let profile = false;
+  let xUnit: string | undefined;
+  let yUnit: string | undefined;
+  const startRaw: Array<[string, string]> = [];
+  const fixRaw: Array<[string, string | null]> = [];
+  const free: string[] = [];
+  try {
+    for (let i = 0; i < args.length; i++) {
+      const a = args[i];
+      const next = () => {
+        const v = args[++i];
+        if (v === undefined) throw new InputError(a, "(missing)", "a value after the option");
+        return v;
+      };
+      if (a === "--json") json = true;
+      else if (a === "--list") list = true;
+      else if (a === "--drop-nan") dropNaN = true;
+      else if (a === "--profile") profile = true;
+      else if (a === "--model" || a === "-m") modelId = next();
+      else if (a === "--x-unit") xUnit = next();
+      else if (a === "--y-unit") yUnit = next();
+      else if (a === "--start") {
+        const v = next();
+        const k = v.indexOf("=");
+        if (k < 1) throw new InputError("--start", v, "name=value");
+        startRaw.push([v.slice(0, k), v.slice(k + 1)]);
+      } else if (a === "--fix") {
+        const v = next();
+        const k = v.indexOf("=");
+        fixRaw.push(k < 0 ? [v, null] : [v.slice(0, k), v.slice(k + 1)]);
+      } else if (a === "--free") free.push(next());
+      else if (a === "--help" || a === "-h") {
+        io.stdout(usage + "\n");
+        return 0;
+      } else if (a.startsWith("-")) throw new InputError("option", a, `one of the options of helicoid fit (${usage.split("\n")[0]})`);
+      else if (file === undefined) file = a;
+      else throw new InputError("FILE", a, "a single input file");
+    }
+    if (list) {
+      if (json) io.stdout(JSON.stringify(profileModels.map((m) => ({ id: m.id, title: m.title, signalUnit: m.signalUnit, parameters: m.parameters.map((p) => ({ name: p.name, unit: p.unit ?? "", default: p.value, fixed: !!p.fixed })) })), null, 2) + "\n");
+      else {
+        io.stdout("Fit models (helicoid fit FILE --model ID):\n");
+        for (const m of profileModels) io.stdout(`  ${m.id.padEnd(16)} ${m.title}\n${" ".repeat(19)}parameters: ${m.parameters.map((p) => p.name + (p.fixed ? " (fixed)" : "")).join(", ")}\n`);
+      }
+      return 0;
+    }
+    if (!file) throw new InputError("FILE", "(missing)", "a CSV file with position, signal and optional sigma columns");
+    if (!modelId) throw new InputError("--model", "(missing)", `one of: ${profileModels.map((m) => m.id).join(", ")}`);
+    const model = getProfileModel(modelId);
+    let text: string;
+    try {
+      text = readFileSync(file, "utf8");
+    } catch (err) {
+      throw new InputError("FILE", file, "a readable file", (err as Error).message);
+    }
+    const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
+    const unitOf = (name: string) => model.parameters.find((p) => p.name === name)?.unit ?? "";
+    const known = (name: string) => {
+      if (!model.parameters.some((p) => p.name === name)) throw new InputError(name, name, `a parameter of ${model.id}: ${model.parameters.map((p) => p.name).join(", ")}`);
+    };
+    const start: Record<string, number> = guessStart(model, csv.x, csv.y);
+    for (const [k, v] of startRaw) {
+      known(k);
+      start[k] = parseQuantity(k, v, unitOf(k));
+    }
+    const fixed: Record<string, boolean | number> = {};
+    for (const [k, v] of fixRaw) {
+      known(k);
+      fixed[k] = v === null ? true : parseQuantity(k, v, unitOf(k));
+    }
+    for (const k of free) {
+      known(k);
+      fixed[k] = false;
+    }
+    const r = fitProfile({ x: csv.x, y: csv.y, sigma: csv.sigma }, model, { start, fixed, profile });
+    const notes = [...csv.notes, ...r.notes];
+    const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; profileInterval?: [number, number] | null }> = {};
+    for (const [name, p] of Object.entries(r.parameters)) {
+      const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;
+      parameters[name] = { value: p.value, stderr: p.stderr, unit, ...(p.fixed ? { fixed: true } : {}), ...(p.profileInterval !== undefined ? { profileInterval: p.profileInterval } : {}) };
+    }
+    const out = {
+      model: r.model,
+      status: r.status,
+      message: r.message,
+      parameters,
+      chiSquareReduced: r.chiSquareReduced,
+      aic: r.aic,
+      bic: r.bic,
+      correlation: { names: r.freeNames, matrix: r.correlation },
+      points: r.points,
+      sigmaKnown: r.sigmaKnown,
+      evaluations: r.evaluations,
+      notes,
+      assumptions: r.assumptions,
+    };
+    if (json) io.stdout(JSON.stringify(out, null, 2) + "\n");
+    else {
+      io.stdout(`${r.title}\nstatus: ${r.status} (${r.message})\n`);
+      for (const [name, p] of Object.entries(parameters)) {
+        const v = p.unit ? formatQuantity(p.value, p.unit) : p.value.toPrecision(6);
+        const e = p.stderr === null ? (p.fixed ? "fixed" : "n/a") : `+- ${p.unit ? formatQuantity(p.stderr, p.unit) : p.stderr.toPrecision(3)}`;
+        io.stdout(`  ${name.padEnd(10)} ${v.padStart(16)}  ${e}\n`);
+      }
+      io.stdout(`reduced chi-square ${r.chiSquareReduced.toPrecision(4)}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
+      for (const n of notes) io.stdout(`note: ${n}\n`);
+    }
+    return r.status === "converged" ? 0 : 2;
+  } catch (err) {
+    if (err instanceof InputError || err instanceof ConvergenceError) {
+      io.stderr(`helicoid fit: ${err.message}\n`);
+      return 1;
+    }
+    throw err;
+  }
+}

@@ -1,0 +1,166 @@
+/**
+ * Line profiles from CSV/TSV text: position, signal and optional sigma columns. Units come from the
+ * header ("x (nm)", "signal [mT]") or from options; positions are converted to m and field signals
+ * to T, other signals are kept as given with their unit label. The text is never modified; rows with
+ * NaN are reported and dropped only when asked; unsorted positions are sorted with a note.
+ */
+import { InputError } from "../errors.js";
+import { parseQuantity } from "../quantity/units.js";
+
+export interface ProfileCsvOptions {
+  /** Column names or 0-based indices (defaults: 0, 1 and 2 if present). */
+  xColumn?: string | number;
+  yColumn?: string | number;
+  sigmaColumn?: string | number | null;
+  /** Units when the header has none (position default "m"). */
+  xUnit?: string;
+  yUnit?: string;
+  /** Drop rows with NaN / empty values (otherwise they are an error naming the rows). */
+  dropNaN?: boolean;
+  /** Name for messages (a file name). */
+  source?: string;
+}
+
+export interface ProfileCsv {
+  x: number[];
+  y: number[];
+  sigma: number[] | null;
+  columns: string[];
+  xUnit: string;
+  /** Unit of y and sigma after conversion ("T" for field units, else as given or ""). */
+  yUnit: string;
+  droppedRows: number[];
+  notes: string[];
+}
+
+const unitInName = /^(.*?)\s*[([]\s*([^)\]]*)\s*[)\]]\s*$/;
+
+function splitLine(line: string, delim: string | RegExp): string[] {
+  const cells = line.trim().split(delim).map((s) => s.trim().replace(/^"(.*)"$/, "$1"));
+  if (typeof delim === "string") return cells;
+  // whitespace-separated: a unit token "(nm)" or "[mT]" belongs to the name before it
+  const out: string[] = [];
+  for (const c of cells) {
+    if (/^[([]/.test(c) && out.length > 0 && !/^[([][-+.\d]/.test(c)) out[out.length - 1] += " " + c;
+    else out.push(c);
+  }
+  return out;
+}
+
+function numeric(tok: string): number {
+  if (tok === "" || /^nan$/i.test(tok)) return Number.NaN;
+  const v = Number(tok);
+  return v;
+}
+
+export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): ProfileCsv {
+  const src = options.source ?? "profile";
+  if (typeof text !== "string") throw new InputError(src, text, "CSV text");
+  const lines = text.split(/\r?\n/);
+  const body = lines.filter((l) => !l.trim().startsWith("#")).join("\n");
+  const delim: string | RegExp = body.includes("\t") ? "\t" : body.includes(",") ? "," : body.includes(";") ? ";" : /\s+/;
+  const rows: Array<{ line: number; cells: string[] }> = [];
+  let header: string[] | null = null;
+  lines.forEach((raw, i) => {
+    const line = raw.trim();
+    if (line === "" || line.startsWith("#")) return;
+    const cells = splitLine(line, delim);
+    if (header === null && rows.length === 0 && cells.some((c) => c !== "" && !/^nan$/i.test(c) && !Number.isFinite(Number(c)))) {
+      header = cells;
+      return;
+    }
+    rows.push({ line: i + 1, cells });
+  });
+  if (rows.length === 0) throw new InputError(src, "(no data rows)", "at least one data row of numbers");
+  const names: string[] = header ?? rows[0].cells.map((_, j) => `column ${j + 1}`);
+  const units: string[] = names.map((n) => {
+    const m = unitInName.exec(n);
+    return m ? m[2] : "";
+  });
+  const bare = names.map((n) => {
+    const m = unitInName.exec(n);
+    return (m ? m[1] : n).trim();
+  });
+  const pick = (c: string | number | null | undefined, fallback: number | null, role: string): number | null => {
+    if (c === null) return null;
+    if (c === undefined) return fallback !== null && fallback < names.length ? fallback : null;
+    if (typeof c === "number") {
+      if (!Number.isInteger(c) || c < 0 || c >= names.length) throw new InputError(`${role}Column`, c, `a column index from 0 to ${names.length - 1}`);
+      return c;
+    }
+    const j = bare.findIndex((b, k) => b === c || names[k] === c);
+    if (j < 0) throw new InputError(`${role}Column`, c, `one of the columns: ${names.join(", ")}`);
+    return j;
+  };
+  const jx = pick(options.xColumn, 0, "x");
+  const jy = pick(options.yColumn, 1, "y");
+  const js = pick(options.sigmaColumn, 2, "sigma");
+  if (jx === null || jy === null || names.length < 2) {
+    throw new InputError(src, `${names.length} column(s): ${names.join(", ")}`, "at least two columns: position and signal (and optionally sigma)");
+  }
+  const needed = Math.max(jx, jy, js ?? 0) + 1;
+  const xUnit = units[jx] || options.xUnit || "m";
+  let xScale: number;
+  try {
+    xScale = parseQuantity(`${names[jx]} unit`, `1 ${xUnit}`, "m");
+  } catch {
+    throw new InputError(`${names[jx]} unit`, xUnit, 'a length unit such as "nm", "um" or "m"');
+  }
+  const yUnitRaw = units[jy] || options.yUnit || "";
+  let yScale = 1;
+  let yUnit = yUnitRaw;
+  if (yUnitRaw) {
+    try {
+      yScale = parseQuantity("signal unit", `1 ${yUnitRaw}`, "T");
+      yUnit = "T";
+    } catch {
+      yScale = 1; // not a field: keep the user's unit label
+    }
+  }
+  const x: number[] = [];
+  const y: number[] = [];
+  const sigma: number[] | null = js !== null ? [] : null;
+  const dropped: number[] = [];
+  const nanRows: string[] = [];
+  for (const r of rows) {
+    if (r.cells.length < needed) {
+      throw new InputError(`${src} line ${r.line}`, r.cells.join(", "), `${needed} columns (${[names[jx], names[jy], js !== null ? names[js] : null].filter(Boolean).join(", ")}); the row has ${r.cells.length}`);
+    }
+    const vx = numeric(r.cells[jx]);
+    const vy = numeric(r.cells[jy]);
+    const vs = js !== null ? numeric(r.cells[js]) : 1;
+    for (const [v, j] of [[vx, jx], [vy, jy], [vs, js ?? jx]] as Array<[number, number]>) {
+      if (Number.isNaN(v) && !(r.cells[j] === "" || /^nan$/i.test(r.cells[j]))) {
+        throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a number");
+      }
+    }
+    if (Number.isNaN(vx) || Number.isNaN(vy) || Number.isNaN(vs)) {
+      nanRows.push(`line ${r.line}`);
+      dropped.push(r.line);
+      continue;
+    }
+    x.push(vx * xScale);
+    y.push(vy * yScale);
+    if (sigma) sigma.push(vs * yScale);
+  }
+  const notes: string[] = [];
+  if (nanRows.length > 0) {
+    if (!options.dropNaN) {
+      throw new InputError(src, `NaN or empty values at ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? ` and ${nanRows.length - 10} more` : ""}`, "finite numbers in every row, or dropNaN to drop those rows");
+    }
+    notes.push(`dropped ${nanRows.length} row(s) with NaN or empty values: ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? " ..." : ""}`);
+  }
+  let sorted = true;
+  for (let i = 1; i < x.length; i++) if (x[i] < x[i - 1]) sorted = false;
+  if (!sorted) {
+    const order = x.map((_, i) => i).sort((a, b) => x[a] - x[b]);
+    const xs = order.map((i) => x[i]);
+    const ys = order.map((i) => y[i]);
+    const ss = sigma ? order.map((i) => sigma[i]) : null;
+    x.splice(0, x.length, ...xs);
+    y.splice(0, y.length, ...ys);
+    if (sigma && ss) sigma.splice(0, sigma.length, ...ss);
+    notes.push("positions were not sorted: rows sorted by position (the file is unchanged)");
+  }
+  return { x, y, sigma, columns: names, xUnit, yUnit, droppedRows: dropped, notes };
+}

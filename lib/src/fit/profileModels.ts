@@ -1,0 +1,331 @@
+/**
+ * The catalogue of line-profile models: magnetization profile (180-degree wall, 360-degree wall or
+ * skyrmion cut, wallProfiles.ts) times a signal model (contrast of m_z; contrast along a tilted
+ * sensor; stray field B_z or B_x at height h, strayField.ts), optionally blurred by a Gaussian
+ * point-spread. Ids are ours; `helicoid fit --list` prints them.
+ *
+ * Every model is SI inside: positions and lengths in m, fields in T, helicity and tilt in rad,
+ * contrast and offset in the unit of the measured signal.
+ */
+import type { FitParameter } from "./leastSquares.js";
+import { InputError } from "../errors.js";
+import { wall360Point } from "./wallProfiles.js";
+import { erfc as erfcLocal } from "./distributions.js";
+import { gridFor, interpolateGrid, strayFieldOnGrid, stepField, blurOnGrid, type UniformGrid } from "./strayField.js";
+
+export interface BoundModel {
+  model(p: Float64Array, out: Float64Array): void;
+  jacobian?(p: Float64Array, out: Float64Array): void;
+}
+
+export interface ProfileModel {
+  id: string;
+  title: string;
+  summary: string;
+  /** Default start values and bounds (SI). */
+  parameters: FitParameter[];
+  /** Unit of the signal ("" for a contrast in arbitrary units, "T" for a field). */
+  signalUnit: string;
+  assumptions: string[];
+  sources: string[];
+  /** Prepare the model for these positions (grids for FFT models are fixed here from the start values). */
+  bind(x: Float64Array, start: Float64Array): BoundModel;
+}
+
+const WALL_SOURCES = ["L. Landau, E. Lifshitz (1935); A. Hubert, R. Schaefer, Magnetic Domains (Springer 1998): 180-degree wall profile"];
+const W360_SOURCES = [
+  "H.-B. Braun, PRB 50, 16501 (1994): 360-degree wall",
+  "F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018): skyrmion profile ansatz tan(theta/2) = sinh(R/w)/sinh(rho/w)",
+];
+const STRAY_SOURCES = [
+  "R. Beardsley, IEEE Trans. Magn. 25, 671 (1989): stray field of thin-film magnetization in Fourier space",
+  "J.-P. Tetienne et al., Nat. Commun. 6, 6733 (2015): Bloch versus Neel walls from the stray field",
+];
+const BASE_ASSUMPTIONS = ["continuum micromagnetics, T = 0", "straight wall (1D profile), magnetization uniform through the film thickness"];
+
+const nm = 1e-9;
+const P = {
+  x0: (): FitParameter => ({ name: "x0", value: 0, unit: "m", typical: 10 * nm, meaning: "wall or core center" }),
+  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
+  R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "radius (m_z = 0 at |x - x0| = R)" }),
+  w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width of the ansatz" }),
+  offset: (unit: string): FitParameter => ({ name: "offset", value: 0, unit, typical: 1, meaning: "signal offset" }),
+  contrast: (): FitParameter => ({ name: "contrast", value: 1, unit: "", typical: 1, meaning: "signal per unit m_z (sensor along +z)" }),
+  tilt: (): FitParameter => ({ name: "tilt", value: 0.1, unit: "rad", min: -Math.PI / 2, max: Math.PI / 2, typical: 0.1, meaning: "sensor axis tilt from +z toward +x (the cut direction)" }),
+  helicity: (fixed: boolean): FitParameter => ({ name: "helicity", value: 0, unit: "rad", min: -2 * Math.PI, max: 2 * Math.PI, typical: 0.1, fixed, meaning: "in-plane angle of the wall moment (0, pi: Neel; +-pi/2: Bloch)" }),
+  h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "sensor height above the film top surface" }),
+  t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, meaning: "film thickness" }),
+  Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, meaning: "saturation magnetization" }),
+  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, meaning: "standard deviation of the Gaussian instrument blur" }),
+};
+
+function idx(params: FitParameter[]) {
+  const m = new Map<string, number>();
+  params.forEach((p, i) => m.set(p.name, i));
+  return (name: string) => m.get(name)!;
+}
+
+/** offset + contrast * m_z of a 180-degree wall (analytic Jacobian). */
+const wall180Mz: ProfileModel = {
+  id: "wall180-mz",
+  title: "180-degree wall, signal = offset + contrast * m_z",
+  summary: "Polar (m_z) contrast across a 180-degree wall: spin-polarized tunnelling with a perpendicular tip, polar Kerr, XMCD at normal incidence.",
+  parameters: [P.x0(), P.Delta(), P.offset(""), P.contrast()],
+  signalUnit: "",
+  assumptions: [...BASE_ASSUMPTIONS, "signal linear in m_z"],
+  sources: WALL_SOURCES,
+  bind(x) {
+    const m = x.length;
+    return {
+      model(p, out) {
+        for (let i = 0; i < m; i++) out[i] = p[2] + p[3] * -Math.tanh((x[i] - p[0]) / p[1]);
+      },
+      jacobian(p, out) {
+        for (let i = 0; i < m; i++) {
+          const u = (x[i] - p[0]) / p[1];
+          const th = Math.tanh(u);
+          const s2 = 1 - th * th;
+          out[i] = (p[3] * s2) / p[1];
+          out[m + i] = (p[3] * s2 * u) / p[1];
+          out[2 * m + i] = 1;
+          out[3 * m + i] = -th;
+        }
+      },
+    };
+  },
+};
+
+/** offset + contrast * (cos(tilt) m_z + sin(tilt) m_x) of a 180-degree wall. */
+const wall180Tilted: ProfileModel = {
+  id: "wall180-tilted",
+  title: "180-degree wall seen by a tilted sensor",
+  summary: "Signal = offset + contrast * (m . n), sensor axis n tilted from +z toward +x by `tilt`: the in-plane moment of the wall adds an odd part. The helicity is held fixed by default (with one tilted sensor only contrast*sin(tilt)*cos(helicity) is measurable).",
+  parameters: [P.x0(), P.Delta(), P.helicity(true), P.tilt(), P.offset(""), P.contrast()],
+  signalUnit: "",
+  assumptions: [...BASE_ASSUMPTIONS, "signal linear in m . n, sensor axis in the x-z plane"],
+  sources: WALL_SOURCES,
+  bind(x) {
+    const m = x.length;
+    return {
+      model(p, out) {
+        const ct = Math.cos(p[3]);
+        const st = Math.sin(p[3]);
+        const cg = Math.cos(p[2]);
+        for (let i = 0; i < m; i++) {
+          const u = (x[i] - p[0]) / p[1];
+          out[i] = p[4] + p[5] * (ct * -Math.tanh(u) + st * (-cg / Math.cosh(u)));
+        }
+      },
+    };
+  },
+};
+
+function w360Signal(x: Float64Array, p: Float64Array, out: Float64Array) {
+  for (let i = 0; i < x.length; i++) out[i] = p[3] + p[4] * wall360Point(x[i], p[0], p[1], p[2]).mz;
+}
+
+/** offset + contrast * m_z of a 360-degree wall / skyrmion cut (analytic Jacobian). */
+const wall360Mz: ProfileModel = {
+  id: "wall360-mz",
+  title: "360-degree wall or skyrmion line cut, signal = offset + contrast * m_z",
+  summary: "Polar contrast along a cut through a skyrmion or a 360-degree wall, ansatz tan(theta/2) = sinh(R/w) / sinh(|x - x0|/w).",
+  parameters: [P.x0(), P.R(), P.w(), P.offset(""), P.contrast()],
+  signalUnit: "",
+  assumptions: [...BASE_ASSUMPTIONS, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal linear in m_z"],
+  sources: W360_SOURCES,
+  bind(x) {
+    const m = x.length;
+    return {
+      model(p, out) {
+        w360Signal(x, p, out);
+      },
+      jacobian(p, out) {
+        for (let i = 0; i < m; i++) {
+          const q = wall360Point(x[i], p[0], p[1], p[2]);
+          out[i] = p[4] * q.dx0;
+          out[m + i] = p[4] * q.dR;
+          out[2 * m + i] = p[4] * q.dw;
+          out[3 * m + i] = 1;
+          out[4 * m + i] = q.mz;
+        }
+      },
+    };
+  },
+};
+
+const wall360Tilted: ProfileModel = {
+  id: "wall360-tilted",
+  title: "360-degree wall or skyrmion line cut seen by a tilted sensor",
+  summary: "Signal = offset + contrast * (cos(tilt) m_z + sin(tilt) m_x) along the cut; helicity fixed by default.",
+  parameters: [P.x0(), P.R(), P.w(), P.helicity(true), P.tilt(), P.offset(""), P.contrast()],
+  signalUnit: "",
+  assumptions: [...BASE_ASSUMPTIONS, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal linear in m . n, sensor axis in the x-z plane"],
+  sources: W360_SOURCES,
+  bind(x) {
+    return {
+      model(p, out) {
+        const ct = Math.cos(p[4]);
+        const st = Math.sin(p[4]);
+        const cg = Math.cos(p[3]);
+        for (let i = 0; i < x.length; i++) {
+          const q = wall360Point(x[i], p[0], p[1], p[2]);
+          out[i] = p[5] + p[6] * (ct * q.mz + st * cg * q.signedSin);
+        }
+      },
+    };
+  },
+};
+
+/** Grid for FFT models, fixed at bind time from the data range and the start length scales. */
+function bindGrid(x: Float64Array, lengths: number[], padLengths: number[]): UniformGrid {
+  let xmin = Infinity;
+  let xmax = -Infinity;
+  for (const v of x) {
+    if (v < xmin) xmin = v;
+    if (v > xmax) xmax = v;
+  }
+  const sorted = Float64Array.from(x).sort();
+  const gaps: number[] = [];
+  for (let i = 1; i < sorted.length; i++) if (sorted[i] > sorted[i - 1]) gaps.push(sorted[i] - sorted[i - 1]);
+  gaps.sort((a, b) => a - b);
+  const median = gaps.length ? gaps[Math.floor(gaps.length / 2)] : (xmax - xmin) / 256;
+  const scale = Math.min(...lengths.filter((v) => v > 0));
+  const dxMax = Math.min(median, scale / 3);
+  const pad = Math.max(...padLengths, 0.25 * (xmax - xmin));
+  return gridFor(xmin, xmax, dxMax, pad);
+}
+
+type Kind = "180" | "360";
+
+function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
+  const shape = kind === "180" ? [P.x0(), P.Delta()] : [P.x0(), P.R(), P.w()];
+  const params = [...shape, P.helicity(false), P.h(), P.t(), P.Ms(), P.blur(true), P.offset("T")];
+  const ix = idx(params);
+  const label = component === "bz" ? "B_z" : "B_x";
+  return {
+    id: `wall${kind}-${component}`,
+    title: `${kind === "180" ? "180-degree wall" : "360-degree wall / skyrmion cut"}: stray field ${label} at height h`,
+    summary: `${label} above the film from its surface and volume charges (Fourier space), with the helicity free so the fit decides Bloch against Neel and the chirality; Gaussian blur optional (fixed at 0 by default).`,
+    parameters: params,
+    signalUnit: "T",
+    assumptions: [...BASE_ASSUMPTIONS, "point sensor at height h above the top surface (finite size only through the blur)", "the FFT grid is set from the start values: lengths far below the start width are resolved less well"],
+    sources: [...(kind === "180" ? WALL_SOURCES : W360_SOURCES), ...STRAY_SOURCES],
+    bind(x, start) {
+      const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];
+      const blur0 = start[ix("blur")];
+      const h0 = start[ix("h")];
+      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [100 * (h0 + start[ix("t")]), 20 * Math.max(...widths), 6 * blur0, kind === "360" ? 4 * start[ix("R")] : 0]);
+      const n = grid.n;
+      const mzLocal = new Float64Array(n);
+      const mx = new Float64Array(n);
+      const gridOut = new Float64Array(x.length);
+      return {
+        model(p, out) {
+          const x0 = p[0];
+          const helicity = p[ix("helicity")];
+          const cg = Math.cos(helicity);
+          for (let g = 0; g < n; g++) {
+            const X = grid.x0 + g * grid.dx;
+            if (kind === "180") {
+              // remove the smooth reference -(2/pi) atan(u) (the ideal step smoothed by a Poisson
+              // kernel of width a = Delta), whose field is the step field at height h + a
+              const u = (X - x0) / p[1];
+              mzLocal[g] = -Math.tanh(u) + (2 / Math.PI) * Math.atan(u);
+              mx[g] = -cg / Math.cosh(u);
+            } else {
+              const q = wall360Point(X, x0, p[1], p[2]);
+              mzLocal[g] = q.mz - 1;
+              mx[g] = q.signedSin * cg;
+            }
+          }
+          const Ms = p[ix("Ms")];
+          const h = p[ix("h")];
+          const t = p[ix("t")];
+          const blur = p[ix("blur")];
+          const f = strayFieldOnGrid({ grid, mzLocal, mx, Ms, h: h, t, blur, stepCenter: kind === "180" ? x0 : null, stepHeight: h + p[1] });
+          interpolateGrid(grid, component === "bz" ? f.bz : f.bx, x, gridOut);
+          const off = p[ix("offset")];
+          for (let i = 0; i < x.length; i++) {
+            let v = gridOut[i] + off;
+            if (kind === "180" && !(blur > 0)) {
+              const s = stepField(x[i], x0, Ms, h + p[1], t);
+              v += component === "bz" ? s.bz : s.bx;
+            }
+            out[i] = v;
+          }
+        },
+      };
+    },
+  };
+}
+
+function blurredContrast(kind: Kind): ProfileModel {
+  const base = kind === "180" ? wall180Mz : wall360Mz;
+  const params = [...base.parameters.map((p) => ({ ...p })), P.blur(false)];
+  return {
+    id: `${base.id}-blur`,
+    title: `${base.title}, Gaussian instrument blur`,
+    summary: `${base.summary} Convolved with a Gaussian point-spread of standard deviation blur (by FFT on a padded grid).`,
+    parameters: params,
+    signalUnit: "",
+    assumptions: [...base.assumptions, "Gaussian point-spread function"],
+    sources: base.sources,
+    bind(x, start) {
+      const nb = params.length - 1;
+      const widths = kind === "180" ? [start[1]] : [start[2], start[1]];
+      const grid = bindGrid(x, [...widths, start[nb] > 0 ? start[nb] : Infinity], [20 * Math.max(...widths), 6 * start[nb]]);
+      const gx = new Float64Array(grid.n);
+      for (let g = 0; g < grid.n; g++) gx[g] = grid.x0 + g * grid.dx;
+      const inner = base.bind(gx, start);
+      const values = new Float64Array(grid.n);
+      return {
+        model(p, out) {
+          // blur the m_z profile; offset and contrast enter linearly (set offset 0, contrast 1)
+          const q = Float64Array.from(p.subarray(0, nb));
+          const io = kind === "180" ? 2 : 3;
+          q[io] = 0;
+          q[io + 1] = 1;
+          inner.model(q, values);
+          // remove the far-field value so the periodic blur sees a localized signal (180: subtract the ideal step)
+          if (kind === "180") for (let g = 0; g < grid.n; g++) values[g] += Math.sign(gx[g] - p[0]);
+          else for (let g = 0; g < grid.n; g++) values[g] -= 1;
+          const b = blurOnGrid(grid, values, p[nb]);
+          interpolateGrid(grid, b, x, out);
+          for (let i = 0; i < x.length; i++) {
+            const far = kind === "180" ? blurredStep(x[i] - p[0], p[nb]) : 1;
+            out[i] = p[io] + p[io + 1] * (out[i] + far);
+          }
+        },
+      };
+    },
+  };
+}
+
+/** The ideal step -sign(u) convolved with a Gaussian of standard deviation s: -erf(u / (s sqrt 2)). */
+function blurredStep(u: number, s: number): number {
+  if (!(s > 0)) return -Math.sign(u);
+  return -erf(u / (s * Math.SQRT2));
+}
+
+function erf(z: number): number {
+  return 1 - erfcLocal(z);
+}
+
+export const profileModels: readonly ProfileModel[] = [
+  wall180Mz,
+  wall180Tilted,
+  blurredContrast("180"),
+  wall360Mz,
+  wall360Tilted,
+  blurredContrast("360"),
+  strayModel("180", "bz"),
+  strayModel("180", "bx"),
+  strayModel("360", "bz"),
+  strayModel("360", "bx"),
+];
+
+export function getProfileModel(id: string): ProfileModel {
+  const m = profileModels.find((p) => p.id === id);
+  if (!m) throw new InputError("model", id, `one of the profile model ids: ${profileModels.map((p) => p.id).join(", ")}`);
+  return m;
+}

@@ -1,0 +1,64 @@
+// `helicoid fit` command: list, JSON output on an invented synthetic scan, and errors.
+// Common practice, no source; the fitted numbers are checked against the known synthetic truth.
+import { describe, it, expect } from "vitest";
+import { mkdtempSync, writeFileSync, readFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fitCommand } from "../../../kernel-ext/src/cli/fit.js";
+import { seededRandom } from "../../../lib/src/fit/prng.js";
+
+function capture() {
+  const out: string[] = [];
+  const err: string[] = [];
+  return { io: { stdout: (s: string) => out.push(s), stderr: (s: string) => err.push(s) }, out, err };
+}
+
+describe("helicoid fit", () => {
+  it("--list names every model", async () => {
+    const c = capture();
+    expect(await fitCommand(["--list", "--json"], c.io)).toBe(0);
+    const list = JSON.parse(c.out.join(""));
+    expect(list.map((m: { id: string }) => m.id)).toEqual(expect.arrayContaining(["wall180-mz", "wall360-mz", "wall180-bz", "wall360-bx", "wall360-mz-blur"]));
+  });
+  it("fits an invented 360-degree wall scan and prints the JSON contract", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "helicoid-fit-"));
+    const rng = seededRandom(12);
+    const lines = ["# invented film, synthetic scan", "x (nm),signal,sigma"];
+    for (let i = 0; i <= 300; i++) {
+      const x = -150 + i;
+      const t = Math.sinh(40 / 10) / Math.sinh(Math.abs(x - 7) / 10);
+      const mz = Number.isFinite(t) ? (1 - t * t) / (1 + t * t) : -1;
+      lines.push(`${x},${(0.1 + 0.6 * mz + 0.02 * rng.normal()).toFixed(5)},0.02`);
+    }
+    const file = join(dir, "scan.csv");
+    const text = lines.join("\n") + "\n";
+    writeFileSync(file, text);
+    const c = capture();
+    const code = await fitCommand([file, "--model", "wall360-mz", "--json"], c.io);
+    expect(c.err.join("")).toBe("");
+    expect(code).toBe(0);
+    const j = JSON.parse(c.out.join(""));
+    expect(Object.keys(j)).toEqual(expect.arrayContaining(["model", "status", "parameters", "chiSquareReduced", "aic", "bic", "correlation"]));
+    expect(j.model).toBe("wall360-mz");
+    expect(j.status).toBe("converged");
+    expect(j.parameters.R.unit).toBe("m");
+    expect(Math.abs(j.parameters.R.value - 40e-9)).toBeLessThan(4 * j.parameters.R.stderr);
+    expect(Math.abs(j.parameters.x0.value - 7e-9)).toBeLessThan(4 * j.parameters.x0.stderr);
+    expect(j.correlation.names).toEqual(["x0", "R", "w", "offset", "contrast"]);
+    expect(j.chiSquareReduced).toBeGreaterThan(0.7);
+    expect(j.chiSquareReduced).toBeLessThan(1.4);
+    expect(readFileSync(file, "utf8")).toBe(text); // the user's file is untouched
+    // table output with a fixed parameter given with a unit
+    const c2 = capture();
+    expect(await fitCommand([file, "--model", "wall360-mz", "--fix", "w=10 nm"], c2.io)).toBe(0);
+    expect(c2.out.join("")).toMatch(/\n  w\s+10 nm\s+fixed/);
+  });
+  it("errors are clear and exit 1", async () => {
+    const c = capture();
+    expect(await fitCommand(["nofile.csv", "--model", "wall180-mz"], c.io)).toBe(1);
+    expect(c.err.join("")).toMatch(/FILE = "nofile.csv" is not valid: expected a readable file/);
+    const c2 = capture();
+    expect(await fitCommand(["x.csv", "--model", "nope"], c2.io)).toBe(1);
+    expect(c2.err.join("")).toMatch(/one of the profile model ids/);
+  });
+});
