@@ -2,7 +2,8 @@
  * Vortices and antivortices of the in-plane part of a field by plaquette winding: the S1 winding
  * (winding.ts) of the in-plane angle phi = atan2(m_y, m_x) around each plaquette, counterclockwise
  * a -> b -> c -> d (square) or around each triangle (triangular lattice). +1 = vortex, -1 = antivortex,
- * larger |w| = higher-order defect. Source: N. D. Mermin, Rev. Mod. Phys. 51, 591 (1979) (winding of
+ * A square plaquette holds |w| <= 1 (four wrapped steps, each below pi), so a defect of winding 2 shows
+ * as two unit windings in neighbouring plaquettes; sum `winding` over nearby sites for its order. Source: N. D. Mermin, Rev. Mod. Phys. 51, 591 (1979) (winding of
  * an order parameter around a loop); the plaquette form is common practice, no source.
  */
 import { type Boundary, wrapFlags } from "./boundary.js";
