@@ -7,3 +7,8 @@ export * from "./fft.js";
 export * from "./gaussLegendre.js";
 export * from "./bessel.js";
 export * from "./brentMinimize.js";
+export * from "./complexMatrix.js";
+export * from "./eigenHermitian.js";
+export * from "./eigenSymmetricQL.js";
+export * from "./doubleDouble.js";
+export * from "./brentRoot.js";
