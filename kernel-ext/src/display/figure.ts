@@ -42,7 +42,7 @@ export class Figure implements Displayable {
   }
 
   [mimeBundle](): { data: MimeBundle } {
-    const fig = { data: this.spec.data, layout: { ...(this.spec.layout ?? {}) }, config: this.spec.config ?? {} };
+    const fig = { data: this.spec.data, layout: normalizeTitles(this.spec.layout ?? {}), config: this.spec.config ?? {} };
     return {
       data: {
         "application/vnd.plotly.v1+json": fig,
@@ -65,6 +65,25 @@ export class Figure implements Displayable {
       `else if(t++<200){setTimeout(draw,50);}else if(el){el.textContent="This figure needs plotly.js, which the first figure of the page embeds: run the notebook from the top.";}}draw();})();</script>`
     );
   }
+}
+
+/**
+ * plotly.js 2+ takes titles as {text: ...}; a plain string title (the older form, still common in
+ * examples) is silently dropped. Accept both: the layout's own title and every axis title.
+ */
+export function normalizeTitles(layout: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, unknown> = { ...layout };
+  const fix = (o: Record<string, unknown>) => {
+    if (typeof o.title === "string") o.title = { text: o.title };
+  };
+  fix(out);
+  for (const [k, v] of Object.entries(out)) {
+    if (/^[xyz]axis\d*$/.test(k) && v && typeof v === "object") {
+      out[k] = { ...(v as Record<string, unknown>) };
+      fix(out[k] as Record<string, unknown>);
+    }
+  }
+  return out;
 }
 
 export function figure(spec: FigureSpec): Figure {

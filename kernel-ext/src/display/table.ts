@@ -83,7 +83,7 @@ export class ResultTable implements Displayable {
 
   html(): string {
     const rows = this.rows
-      .map((r) => `<tr><td>${html(r.section)}</td><td title="${html(r.meaning)}">${html(r.meaning || r.name)} <code>${html(r.name)}</code></td><td>${r.symbol ? `\\(${html(r.symbol)}\\)` : ""}</td><td>${html(r.value)}</td></tr>`)
+      .map((r) => `<tr><td>${html(r.section)}</td><td title="${html(r.meaning)}">${html(r.meaning || r.name)} <code>${html(r.name)}</code></td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`)
       .join("");
     const notes = this.notes.length ? `<ul>${this.notes.map((n) => `<li>${html(n)}</li>`).join("")}</ul>` : "";
     return `<div class="helicoid-table">${this.title ? `<b>${html(this.title)}</b>` : ""}<table><thead><tr><th></th><th>Quantity</th><th>Symbol</th><th>Value</th></tr></thead><tbody>${rows}</tbody></table>${notes}</div>`;
@@ -103,6 +103,24 @@ export class ResultTable implements Displayable {
 
 export function table(result: TableInput): ResultTable {
   return new ResultTable(result);
+}
+
+const greek: Record<string, string> = {
+  alpha: "α", beta: "β", gamma: "γ", delta: "δ", epsilon: "ε", theta: "θ", kappa: "κ", lambda: "λ", mu: "μ", nu: "ν", pi: "π", rho: "ρ",
+  sigma: "σ", tau: "τ", phi: "φ", chi: "χ", psi: "ψ", omega: "ω", Delta: "Δ", Gamma: "Γ", Theta: "Θ", Lambda: "Λ", Sigma: "Σ", Phi: "Φ", Psi: "Ψ", Omega: "Ω",
+  parallel: "∥", perp: "⊥", hbar: "ħ", infty: "∞", cdot: "·", times: "×",
+};
+
+/**
+ * A symbol given in LaTeX as HTML, for pages without a math typesetter (the exported page, plain
+ * HTML front ends): Greek letters, sub- and superscripts ("K_{eff}", "\\mu_0 H", "m^2").
+ */
+export function symbolHtml(tex: string): string {
+  let s = html(tex).replace(/\\(?:mathrm|text|mathit)\{([^}]*)\}/g, "$1");
+  s = s.replace(/\\([A-Za-z]+)/g, (m, name: string) => greek[name] ?? name);
+  s = s.replace(/_\{([^}]*)\}|_(.)/g, (_m, a?: string, b?: string) => `<sub>${a ?? b}</sub>`);
+  s = s.replace(/\^\{([^}]*)\}|\^(.)/g, (_m, a?: string, b?: string) => `<sup>${a ?? b}</sup>`);
+  return `<i>${s.replace(/[{}]/g, "").replace(/\\[,;! ]/g, " ")}</i>`;
 }
 
 function esc(s: string): string {
