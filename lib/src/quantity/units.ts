@@ -2,8 +2,32 @@
  * Units at the edges: parse user input (SI number or string with units) into an SI number,
  * checked for dimension with mathjs; format SI numbers in the trade's customary units.
  */
-import { unit as mathUnit, type Unit } from "mathjs";
+import { unit as mathUnit, createUnit, type Unit } from "mathjs";
 import { InputError } from "../errors.js";
+import { mu0 } from "./constants.js";
+
+/**
+ * Customary CGS units of the trade, added to mathjs once: oersted (Oe, with short prefixes: kOe),
+ * gauss (with long prefixes: kilogauss), emu (so that "800 emu/cm^3" is a magnetization).
+ * 1 Oe = 1000 / (4 pi) A/m, 1 G = 1e-4 T, 1 emu = 1e-3 A m^2 (1 emu/cm^3 = 1 kA/m).
+ * "G" alone is not defined (it would clash with the giga prefix). erg is built into mathjs.
+ * Source: NIST SP 811 (2008), appendix B.9 (CGS conversion factors).
+ */
+function defineCgsUnits(): void {
+  const defs: Array<[string, { definition: string; aliases?: string[]; prefixes?: string }]> = [
+    ["oersted", { definition: `${1000 / (4 * Math.PI)} A/m`, aliases: ["Oe"], prefixes: "short" }],
+    ["gauss", { definition: "1e-4 T", prefixes: "long" }],
+    ["emu", { definition: "1e-3 A m^2" }],
+  ];
+  for (const [name, def] of defs) {
+    try {
+      mathUnit(`1 ${name}`);
+    } catch {
+      createUnit(name, def);
+    }
+  }
+}
+defineCgsUnits();
 
 /** A value as a user may give it: an SI number, or a string such as "15 pJ/m" or "1.1e6". */
 export type QuantityInput = number | string;
@@ -24,6 +48,8 @@ function referenceUnit(siUnit: string): Unit {
  * Parse `raw` as a quantity with the dimension of `siUnit` and return its value in `siUnit`.
  * Numbers (and numeric strings) are taken as already in `siUnit`. `name` is the parameter name used
  * in error messages. An empty `siUnit` ("" or "1") means dimensionless.
+ * A field asked for in tesla (B = mu0 H) may be given as H ("500 Oe", "40 kA/m"): it is converted
+ * with B = mu0 H, the usual convention of the trade.
  */
 export function parseQuantity(name: string, raw: QuantityInput, siUnit: string): number {
   if (typeof raw === "number") {
@@ -50,6 +76,11 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
     throw new InputError(name, raw, "a plain number (this parameter has no unit)");
   }
   const ref = referenceUnit(siUnit);
+  if (siUnit === "T" && !parsed.equalBase(ref) && parsed.equalBase(referenceUnit("A/m")) && parsed.value !== null) {
+    const B = mu0 * parsed.toNumber("A/m");
+    if (!Number.isFinite(B)) throw new InputError(name, raw, "a finite field");
+    return B;
+  }
   if (!parsed.equalBase(ref)) {
     throw new InputError(
       name,
