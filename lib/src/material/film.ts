@@ -232,7 +232,7 @@ export interface SpiralState {
  *   e(k) = [8 sqrt(A K) E(k) / k - 2 pi |D|] / L - K (1/k^2 - 1).
  * de/dk = 0 gives E(k) / k = pi |D| / (4 sqrt(A K)) = |D| / D_c, which has a root k in (0, 1)
  * exactly when |D| > D_c; then L = 4 k Delta K(k) -> 4 pi A / |D| for K -> 0 and -> Infinity for
- * |D| -> D_c. Source: I. Dzyaloshinskii, Sov. Phys. JETP 20, 665 (1965) (soliton lattice);
+ * |D| -> D_c. Source: I. Dzyaloshinskii, Sov. Phys. JETP 20, 665 (1965) (soliton lattice; citation from memory);
  * verified by direct minimization of the quadrature energy over the period in
  * test/lib/material/film.test.ts.
  */

@@ -148,7 +148,7 @@ describe("equilibrium spiral period with anisotropy", () => {
       const f = makeFilm({ ...raw, D: ratio * Dc });
       const s = spiralState(f);
       const q = spiralByQuadrature(f.A, effectiveAnisotropy(f), f.D);
-      // Source: I. Dzyaloshinskii, Sov. Phys. JETP 20, 665 (1965) (chiral soliton lattice), checked here
+      // From memory: I. Dzyaloshinskii, Sov. Phys. JETP 20, 665 (1965) (chiral soliton lattice), checked here
       // against our own quadrature minimization.
       expect(s.groundState).toBe(true);
       expect(Math.abs(s.period / q.L - 1)).toBeLessThan(1e-5);
