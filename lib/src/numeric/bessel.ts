@@ -1,6 +1,6 @@
 /**
- * Bessel functions of the first kind J0 and J1 of real argument, fast and accurate to about 1e-15
- * absolute, for hot loops (Hankel transforms of axisymmetric textures).
+ * Bessel functions of the first kind J0 and J1 of real argument, fast and accurate to about 1e-13
+ * absolute (worst near x = 64), for hot loops (Hankel transforms of axisymmetric textures).
  *
  * Method: for |x| < 64, piecewise Chebyshev series of degree 12 on unit intervals, their
  * coefficients built once (lazily) from the exact integral representation
@@ -8,7 +8,7 @@
  * evaluated with the trapezoid rule (spectrally exact for this periodic integrand: 128 points give
  * machine precision for x < 64); for |x| >= 64 the Hankel asymptotic expansion
  *   J_nu(x) = sqrt(2 / (pi x)) [P cos(chi) - Q sin(chi)],  chi = x - (nu/2 + 1/4) pi,
- * with P, Q to order x^-6 / x^-5 (truncation error below 3e-15 there). Sources: M. Abramowitz, I. Stegun,
+ * with P, Q to order x^-6 / x^-5 (truncation error below 1e-13 there). Sources: M. Abramowitz, I. Stegun,
  * Handbook of Mathematical Functions, 9.1.21 (integral), 9.2.5, 9.2.9, 9.2.10 (asymptotics).
  * Hand-written because mathjs has no Bessel functions. Verified against scipy.special.j0/j1 in
  * test/lib/numeric/bessel.test.ts.

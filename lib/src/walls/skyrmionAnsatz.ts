@@ -77,8 +77,9 @@ export function ansatzLocalIntegrals(a: number): AnsatzIntegrals {
 function ansatzLocalIntegralsInto(a: number, out: AnsatzIntegrals): void {
   const sa = Math.sinh(a);
   const S = sa * sa;
-  const xc = a > 18 ? a - 16 : 0;
-  const xEnd = a + 16;
+  // sin(theta) cos(theta) in I_D decays only as exp(-|x - a|): integrate over a +- 36 (1e-15)
+  const xc = a > 38 ? a - 36 : 0;
+  const xEnd = a + 36;
   let ex = 0;
   let K = 0;
   let D = 0;
@@ -527,12 +528,22 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
 
 function finish(ctx: Context, lo: number, hi: number, notes: string[]): AnsatzSkyrmion {
   const r0 = brentMinimize((uu) => profiledEnergy(ctx, uu), lo, hi, 1e-5, 100);
-  // polish with the exact local integrals (the table interpolates them to about 1e-6)
-  const r = brentMinimize((uu) => profiledEnergy(ctx, uu, true), r0.x - 0.01, r0.x + 0.01, 1e-7, 60);
-  if (!r0.converged || !r.converged || r.x - (r0.x - 0.01) < 1e-6 || r0.x + 0.01 - r.x < 1e-6) {
-    throw new ConvergenceError("skyrmion ansatz minimization", "Brent's method did not meet its tolerance inside its bracket", {
+  // polish with the exact local integrals (the table interpolates them to about 1e-6); widen the
+  // bracket if the exact minimum lies at its edge (flat energy landscapes)
+  let r = r0;
+  let polished = false;
+  for (const half of [0.01, 0.05, 0.25]) {
+    r = brentMinimize((uu) => profiledEnergy(ctx, uu, true), r0.x - half, r0.x + half, 1e-7, 80);
+    if (r.converged && r.x - (r0.x - half) > 1e-6 && r0.x + half - r.x > 1e-6) {
+      polished = true;
+      break;
+    }
+  }
+  if (!polished) {
+    throw new ConvergenceError("skyrmion ansatz minimization", "Brent's method did not find the minimum inside its bracket", {
       B: ctx.B,
       lnA: r.x,
+      tabulatedLnA: r0.x,
       evaluations: ctx.evals,
     });
   }
