@@ -7,3 +7,7 @@ export * from "./spinBerryPhase.js";
 export * from "./wilsonLoop.js";
 export * from "./blochModel.js";
 export * from "./chernNumbers.js";
+export * from "./magnonHoneycomb.js";
+export * from "./dilogarithm.js";
+export * from "./giantSpin.js";
+export * from "./easyPlaneSpin.js";
