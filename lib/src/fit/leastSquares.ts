@@ -327,9 +327,15 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       norms[c] = Math.sqrt(s);
       for (let i = 0; i < m; i++) Jn[c * m + i] = norms[c] > 0 ? J[c * m + i] / norms[c] : 0;
     }
-    const qr = pivotedQr(Jn, m, nn, options.singularThreshold ?? 1e-10);
     const zeroCols = inner.filter((_, c) => norms[c] === 0);
-    if (qr.rank < nn || zeroCols.length > 0) {
+    // fast path: Cholesky of the normalized Gram matrix when clearly well conditioned (its
+    // inverse is then accurate to ~cond * eps <= 1e-9 relative); otherwise pivoted QR
+    const gram = zeroCols.length === 0 ? gramInverse(Jn, m, nn) : null;
+    const qr = gram ? null : pivotedQr(Jn, m, nn, options.singularThreshold ?? 1e-10);
+    if (gram) {
+      cov = new Float64Array(nn * nn);
+      for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = gram[a + b * nn] / (norms[a] * norms[b]);
+    } else if (qr!.rank < nn || zeroCols.length > 0) {
       // name the parameters in the near-null space of the normalized J^T J
       const jtj = new Float64Array(nn * nn);
       for (let a = 0; a < nn; a++)
@@ -358,7 +364,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
           .join("; ") +
         ". Fix one of them or reparametrize; no standard errors are reported.";
     } else {
-      const inv = inverseNormalFromQr(qr);
+      const inv = inverseNormalFromQr(qr!);
       if (inv) {
         cov = new Float64Array(nn * nn);
         for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = inv[a + b * nn] / (norms[a] * norms[b]);
@@ -444,6 +450,57 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   }
   if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
   return result;
+}
+
+/**
+ * Inverse of the Gram matrix A^T A of a column-normalized A (m x n column-major) by Cholesky, or
+ * null when the smallest Cholesky pivot is below 1e-5 of the largest (condition > ~1e10: use QR).
+ */
+function gramInverse(a: Float64Array, m: number, n: number): Float64Array | null {
+  const G = new Float64Array(n * n);
+  for (let p = 0; p < n; p++)
+    for (let q = 0; q <= p; q++) {
+      let s = 0;
+      const op = p * m;
+      const oq = q * m;
+      for (let i = 0; i < m; i++) s += a[op + i] * a[oq + i];
+      G[p + q * n] = s;
+      G[q + p * n] = s;
+    }
+  const L = new Float64Array(n * n);
+  let dmin = Infinity;
+  let dmax = 0;
+  for (let j = 0; j < n; j++) {
+    let d = G[j + j * n];
+    for (let k = 0; k < j; k++) d -= L[j + k * n] ** 2;
+    if (!(d > 0)) return null;
+    const l = Math.sqrt(d);
+    L[j + j * n] = l;
+    dmin = Math.min(dmin, l);
+    dmax = Math.max(dmax, l);
+    for (let i = j + 1; i < n; i++) {
+      let s = G[i + j * n];
+      for (let k = 0; k < j; k++) s -= L[i + k * n] * L[j + k * n];
+      L[i + j * n] = s / l;
+    }
+  }
+  if (dmin < 1e-5 * dmax) return null;
+  // inverse: solve L L^T X = I column by column
+  const inv = new Float64Array(n * n);
+  const y = new Float64Array(n);
+  for (let c = 0; c < n; c++) {
+    for (let i = 0; i < n; i++) {
+      let s = i === c ? 1 : 0;
+      for (let k = 0; k < i; k++) s -= L[i + k * n] * y[k];
+      y[i] = s / L[i + i * n];
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      let s = y[i];
+      for (let k = i + 1; k < n; k++) s -= L[k + i * n] * inv[k + c * n];
+      inv[i + c * n] = s / L[i + i * n];
+    }
+  }
+  return inv;
 }
 
 /** Profile-likelihood interval of parameter j. */

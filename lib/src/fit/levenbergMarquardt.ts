@@ -89,6 +89,59 @@ export interface LmResult {
 }
 
 const EPS = 2.220446049250313e-16;
+
+/**
+ * R (upper triangular, R^T R = J^T J over the free columns, identity permutation) and
+ * Q^T f = R^-T J^T f from a Cholesky factorization of the column-scaled normal matrix; null when
+ * its reciprocal condition estimate is below 1e-8 (then the caller uses QR).
+ */
+function fastFactor(jac: Float64Array, m: number, free: number[], g: Float64Array, cn: Float64Array): { r: Float64Array; perm: Int32Array; rank: number; qtf: Float64Array } | null {
+  const nf = free.length;
+  if (m < 4 * nf || nf > 12) return null;
+  for (const j of free) if (cn[j] === 0) return null;
+  const G = new Float64Array(nf * nf);
+  for (let a = 0; a < nf; a++) {
+    const oa = free[a] * m;
+    for (let b = 0; b <= a; b++) {
+      const ob = free[b] * m;
+      let s = 0;
+      for (let i = 0; i < m; i++) s += jac[oa + i] * jac[ob + i];
+      G[a + b * nf] = s / (cn[free[a]] * cn[free[b]]);
+    }
+  }
+  // Cholesky G = L L^T (lower, column-major)
+  const L = new Float64Array(nf * nf);
+  let dmin = Infinity;
+  let dmax = 0;
+  for (let j = 0; j < nf; j++) {
+    let d = G[j + j * nf];
+    for (let k = 0; k < j; k++) d -= L[j + k * nf] * L[j + k * nf];
+    if (!(d > 0)) return null;
+    const ljj = Math.sqrt(d);
+    L[j + j * nf] = ljj;
+    dmin = Math.min(dmin, ljj);
+    dmax = Math.max(dmax, ljj);
+    for (let i = j + 1; i < nf; i++) {
+      let s = G[i + j * nf];
+      for (let k = 0; k < j; k++) s -= L[i + k * nf] * L[j + k * nf];
+      L[i + j * nf] = s / ljj;
+    }
+  }
+  if (dmin < 1e-4 * dmax) return null;
+  // R = L^T diag(cn): R_ij = L_ji cn_j
+  const r = new Float64Array(nf * nf);
+  for (let i = 0; i < nf; i++) for (let j = i; j < nf; j++) r[i + j * nf] = L[j + i * nf] * cn[free[j]];
+  // qtf = R^-T (J^T f): forward substitution with R^T (lower)
+  const qtf = new Float64Array(nf);
+  for (let i = 0; i < nf; i++) {
+    let s = g[free[i]];
+    for (let k = 0; k < i; k++) s -= r[k + i * nf] * qtf[k];
+    qtf[i] = s / r[i + i * nf];
+  }
+  const perm = new Int32Array(nf);
+  for (let i = 0; i < nf; i++) perm[i] = i;
+  return { r, perm, rank: nf, qtf };
+}
 const DWARF = 2.2250738585072014e-308;
 
 /** Central-difference Jacobian (one-sided second-order formula next to a bound). */
@@ -249,7 +302,7 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
   const lo = problem.lower ?? new Float64Array(n).fill(-Infinity);
   const hi = problem.upper ?? new Float64Array(n).fill(Infinity);
   const x = Float64Array.from(x0);
-  let f = new Float64Array(m);
+  const f = new Float64Array(m);
   const ft = new Float64Array(m);
   const jac = new Float64Array(m * n);
   let nfev = 0;
@@ -285,18 +338,14 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
   let lambda = 0;
   let first = true;
   const jfree = new Float64Array(m * n);
+  const jpa = new Float64Array(m);
   for (;;) {
     if (options.signal?.aborted) return result("stopped", "stopped", "stopped on request before convergence");
     // Jacobian
     if (problem.jacobian) problem.jacobian(x, jac, f);
     else ndiff += centralDifferenceJacobian(problem, x, jac);
     njev++;
-    for (let i = 0; i < m * n; i++) {
-      if (!Number.isFinite(jac[i])) {
-        const j = Math.floor(i / m);
-        return result("failed", "non-finite-jacobian", `the Jacobian column of parameter #${j} is not finite at row ${i % m}`);
-      }
-    }
+
     // gradient g = J^T f, active set
     const free: number[] = [];
     const g = new Float64Array(n);
@@ -308,6 +357,11 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       for (let i = 0; i < m; i++) {
         s += jac[off + i] * f[i];
         c += jac[off + i] * jac[off + i];
+      }
+      if (!Number.isFinite(s) || !Number.isFinite(c)) {
+        let row = 0;
+        while (row < m && Number.isFinite(jac[off + row])) row++;
+        return result("failed", "non-finite-jacobian", `the Jacobian column of parameter #${j} is not finite at row ${row}`);
       }
       g[j] = s;
       cn[j] = Math.sqrt(c);
@@ -332,11 +386,19 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
     } else {
       for (let j = 0; j < n; j++) diag[j] = Math.max(diag[j], cn[j]);
     }
-    // QR of the free columns
-    for (let k = 0; k < nf; k++) jfree.set(jac.subarray(free[k] * m, free[k] * m + m), k * m);
-    const qr = pivotedQr(jfree.subarray(0, nf * m), m, nf);
-    const qtfAll = applyQt(qr, f);
-    const qtf = qtfAll.subarray(0, nf);
+    // R and Q^T f of the free columns: from the Cholesky factor of the column-scaled J^T J when it
+    // is well conditioned (cond(J) < 1e4: one pass over J, the step accuracy is then ~1e-8 and the
+    // residuals themselves are always evaluated exactly), else Householder QR with pivoting
+    let qr = fastFactor(jac, m, free, g, cn);
+    let qtf: Float64Array;
+    if (qr) {
+      qtf = qr.qtf;
+    } else {
+      for (let k = 0; k < nf; k++) jfree.set(jac.subarray(free[k] * m, free[k] * m + m), k * m);
+      const full = pivotedQr(jfree.subarray(0, nf * m), m, nf);
+      qtf = applyQt(full, f).subarray(0, nf);
+      qr = { r: full.r, perm: full.perm, rank: full.rank, qtf };
+    }
     const diagFree = new Float64Array(nf);
     for (let k = 0; k < nf; k++) diagFree[k] = diag[free[k]];
     // inner loop
@@ -359,11 +421,17 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       const finite = Number.isFinite(fnorm1);
       const actred = finite && 0.1 * fnorm1 < fnorm ? 1 - (fnorm1 / fnorm) ** 2 : -1;
       // predicted reduction of the (clipped) step from the linear model
+      jpa.fill(0);
+      for (let j = 0; j < n; j++) {
+        const pj = pa[j];
+        if (pj === 0) continue;
+        const off = j * m;
+        for (let i = 0; i < m; i++) jpa[i] += jac[off + i] * pj;
+      }
       let fjp = 0;
       let sq = 0;
       for (let i = 0; i < m; i++) {
-        let jp = 0;
-        for (let j = 0; j < n; j++) if (pa[j] !== 0) jp += jac[j * m + i] * pa[j];
+        const jp = jpa[i];
         fjp += f[i] * jp;
         const v = f[i] + jp;
         sq += v * v;
@@ -384,9 +452,7 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       let accepted = false;
       if (ratio >= 1e-4 && finite) {
         x.set(xt);
-        const tmp = f;
-        f = ft.slice();
-        void tmp;
+        f.set(ft);
         fnorm = fnorm1;
         xnorm = scaledNorm(diag, x);
         iterations++;

@@ -9,7 +9,7 @@
  */
 import type { FitParameter } from "./leastSquares.js";
 import { InputError } from "../errors.js";
-import { wall360Point } from "./wallProfiles.js";
+import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from "./wallProfiles.js";
 import { erfc as erfcLocal } from "./distributions.js";
 import { gridFor, interpolateGrid, strayFieldOnGrid, stepField, blurOnGrid, type UniformGrid } from "./strayField.js";
 
@@ -121,7 +121,8 @@ const wall180Tilted: ProfileModel = {
 };
 
 function w360Signal(x: Float64Array, p: Float64Array, out: Float64Array) {
-  for (let i = 0; i < x.length; i++) out[i] = p[3] + p[4] * wall360Point(x[i], p[0], p[1], p[2]).mz;
+  wall360MzValues(x, p[0], p[1], p[2], out);
+  for (let i = 0; i < x.length; i++) out[i] = p[3] + p[4] * out[i];
 }
 
 /** offset + contrast * m_z of a 360-degree wall / skyrmion cut (analytic Jacobian). */
@@ -140,14 +141,11 @@ const wall360Mz: ProfileModel = {
         w360Signal(x, p, out);
       },
       jacobian(p, out) {
-        for (let i = 0; i < m; i++) {
-          const q = wall360Point(x[i], p[0], p[1], p[2]);
-          out[i] = p[4] * q.dx0;
-          out[m + i] = p[4] * q.dR;
-          out[2 * m + i] = p[4] * q.dw;
-          out[3 * m + i] = 1;
-          out[4 * m + i] = q.mz;
-        }
+        const mz = out.subarray(4 * m, 5 * m);
+        wall360MzDerivatives(x, p[0], p[1], p[2], mz, out.subarray(0, 3 * m));
+        const c = p[4];
+        for (let i = 0; i < 3 * m; i++) out[i] *= c;
+        out.fill(1, 3 * m, 4 * m);
       },
     };
   },
@@ -184,13 +182,10 @@ function bindGrid(x: Float64Array, lengths: number[], padLengths: number[]): Uni
     if (v < xmin) xmin = v;
     if (v > xmax) xmax = v;
   }
-  const sorted = Float64Array.from(x).sort();
-  const gaps: number[] = [];
-  for (let i = 1; i < sorted.length; i++) if (sorted[i] > sorted[i - 1]) gaps.push(sorted[i] - sorted[i - 1]);
-  gaps.sort((a, b) => a - b);
-  const median = gaps.length ? gaps[Math.floor(gaps.length / 2)] : (xmax - xmin) / 256;
+  // the grid resolves the physical length scales (the model is smooth between them and is
+  // interpolated to the data), not the data spacing
   const scale = Math.min(...lengths.filter((v) => v > 0));
-  const dxMax = Math.min(median, scale / 3);
+  const dxMax = Math.min(scale / 3, (xmax - xmin) / 64);
   const pad = Math.max(...padLengths, 0.25 * (xmax - xmin));
   return gridFor(xmin, xmax, dxMax, pad);
 }
@@ -214,7 +209,7 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
       const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];
       const blur0 = start[ix("blur")];
       const h0 = start[ix("h")];
-      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [100 * (h0 + start[ix("t")]), 20 * Math.max(...widths), 6 * blur0, kind === "360" ? 4 * start[ix("R")] : 0]);
+      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [50 * (h0 + start[ix("t")]), 20 * Math.max(...widths), 6 * blur0, kind === "360" ? 4 * start[ix("R")] : 0]);
       const n = grid.n;
       const mzLocal = new Float64Array(n);
       const mx = new Float64Array(n);

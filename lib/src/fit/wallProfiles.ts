@@ -62,3 +62,80 @@ export function wall360Point(x: number, x0: number, R: number, w: number): { mz:
   const dw = (-sech2 * (-b * cb + acoth)) / w;
   return { mz, signedSin: Math.sign(u) * sech, dx0, dR, dw };
 }
+
+/**
+ * Vectorized m_z of the 360-degree wall / skyrmion cut (same formula as wall360Point, written as
+ * m_z = (sinh^2 a - sinh^2 b) / (sinh^2 a + sinh^2 b), a = |x - x0|/w, b = R/w, with one exp per
+ * point; falls back to the logarithmic form when sinh would overflow).
+ */
+export function wall360Mz(x: ArrayLike<number>, x0: number, R: number, w: number, out: Float64Array): void {
+  const b = R / w;
+  if (b > 300) {
+    for (let i = 0; i < x.length; i++) out[i] = wall360Point(x[i], x0, R, w).mz;
+    return;
+  }
+  const sb = Math.sinh(b);
+  const sb2 = sb * sb;
+  const iw = 1 / w;
+  for (let i = 0; i < x.length; i++) {
+    const a = Math.abs(x[i] - x0) * iw;
+    if (a > 300) {
+      out[i] = 1;
+      continue;
+    }
+    const e = Math.exp(a);
+    const sa = 0.5 * (e - 1 / e);
+    const sa2 = sa * sa;
+    out[i] = (sa2 - sb2) / (sa2 + sb2);
+  }
+}
+
+/**
+ * Vectorized m_z and its derivatives (x0, R, w) of the 360-degree wall, written into `mz` and the
+ * column-major block `d` (3 columns of length x.length). dm_z/dL = -(1 - m_z^2).
+ */
+export function wall360MzDerivatives(x: ArrayLike<number>, x0: number, R: number, w: number, mz: Float64Array, d: Float64Array): void {
+  const m = x.length;
+  const b = R / w;
+  if (b > 300) {
+    for (let i = 0; i < m; i++) {
+      const q = wall360Point(x[i], x0, R, w);
+      mz[i] = q.mz;
+      d[i] = q.dx0;
+      d[m + i] = q.dR;
+      d[2 * m + i] = q.dw;
+    }
+    return;
+  }
+  const sb = Math.sinh(b);
+  const sb2 = sb * sb;
+  const cb = 1 / Math.tanh(b);
+  const iw = 1 / w;
+  for (let i = 0; i < m; i++) {
+    const u = x[i] - x0;
+    const a = Math.abs(u) * iw;
+    if (a > 300) {
+      mz[i] = 1;
+      d[i] = 0;
+      d[m + i] = 0;
+      d[2 * m + i] = 0;
+      continue;
+    }
+    const e = Math.exp(a);
+    const ie = 1 / e;
+    const sa = 0.5 * (e - ie);
+    const sa2 = sa * sa;
+    const v = (sa2 - sb2) / (sa2 + sb2);
+    mz[i] = v;
+    const s2 = 1 - v * v; // sech^2 L
+    let ca = 0;
+    let acoth = 1;
+    if (a > 0) {
+      ca = (e + ie) / (e - ie);
+      acoth = a * ca;
+    }
+    d[i] = a > 0 ? (-s2 * Math.sign(u) * ca) * iw : 0;
+    d[m + i] = -s2 * cb * iw;
+    d[2 * m + i] = -s2 * (-b * cb + acoth) * iw;
+  }
+}
