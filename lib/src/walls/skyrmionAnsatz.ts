@@ -532,7 +532,33 @@ function finish(ctx: Context, lo: number, hi: number, notes: string[]): AnsatzSk
   // bracket if the exact minimum lies at its edge (flat energy landscapes)
   let r = r0;
   let polished = false;
-  for (const half of [0.01, 0.05, 0.25]) {
+  // two parabolic steps on the exact energy (6 evaluations) usually suffice
+  {
+    const fx = (uu: number) => profiledEnergy(ctx, uu, true);
+    let u = r0.x;
+    let ok = true;
+    for (const dlt of [0.01, 0.002]) {
+      const fm = fx(u - dlt);
+      const f0 = fx(u);
+      const fp = fx(u + dlt);
+      const curv = fp - 2 * f0 + fm;
+      if (!(curv > 0)) {
+        ok = false;
+        break;
+      }
+      const shift = (0.5 * dlt * (fm - fp)) / curv;
+      if (Math.abs(shift) > dlt) {
+        ok = false;
+        break;
+      }
+      u += shift;
+    }
+    if (ok) {
+      r = { x: u, f: fx(u), evaluations: 7, converged: true };
+      polished = true;
+    }
+  }
+  for (const half of polished ? [] : [0.01, 0.05, 0.25]) {
     r = brentMinimize((uu) => profiledEnergy(ctx, uu, true), r0.x - half, r0.x + half, 1e-7, 80);
     if (r.converged && r.x - (r0.x - half) > 1e-6 && r0.x + half - r.x > 1e-6) {
       polished = true;
