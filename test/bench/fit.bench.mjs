@@ -82,7 +82,7 @@ export default async () => {
   // stray field with blur, 4000 points: B_z scan of an invented film, NV-like height
   const rng = lib.seededRandom(99);
   const model = lib.getProfileModel("wall180-bz");
-  const truth = Float64Array.from([12 * nm, 18 * nm, 0.3, 60 * nm, 1.2 * nm, 9e5, 25 * nm, 2e-5]);
+  const truth = Float64Array.from([12 * nm, 18 * nm, -0.8, 60 * nm, 1.2 * nm, 9e5, 25 * nm, 2e-5]);
   const x = Float64Array.from({ length: 4000 }, (_, i) => (-1000 + (2000 * i) / 3999) * nm);
   const clean = new Float64Array(x.length);
   model.bind(x, truth).model(truth, clean);
@@ -90,7 +90,7 @@ export default async () => {
   let sres;
   const stray = await medianMs(() => {
     sres = lib.fitProfile({ x, y }, "wall180-bz", {
-      start: { x0: 0, Delta: 25 * nm, helicity: 0, h: 50 * nm, Ms: 8e5, offset: 0, t: 1.2 * nm, blur: 25 * nm },
+      start: { x0: 0, Delta: 25 * nm, neel: 0, h: 50 * nm, Ms: 8e5, offset: 0, t: 1.2 * nm, blur: 25 * nm },
       ftol: 1e-8, xtol: 1e-8, gtol: 1e-8,
     });
   }, { runs: 9, warmup: 2 });

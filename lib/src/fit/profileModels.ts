@@ -56,6 +56,7 @@ const P = {
   h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "sensor height above the film top surface" }),
   t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, meaning: "film thickness" }),
   Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, meaning: "saturation magnetization" }),
+  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
   blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, meaning: "standard deviation of the Gaussian instrument blur" }),
 };
 
@@ -194,13 +195,13 @@ type Kind = "180" | "360";
 
 function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
   const shape = kind === "180" ? [P.x0(), P.Delta()] : [P.x0(), P.R(), P.w()];
-  const params = [...shape, P.helicity(false), P.h(), P.t(), P.Ms(), P.blur(true), P.offset("T")];
+  const params = [...shape, P.neel(), P.h(), P.t(), P.Ms(), P.blur(true), P.offset("T")];
   const ix = idx(params);
   const label = component === "bz" ? "B_z" : "B_x";
   return {
     id: `wall${kind}-${component}`,
     title: `${kind === "180" ? "180-degree wall" : "360-degree wall / skyrmion cut"}: stray field ${label} at height h`,
-    summary: `${label} above the film from its surface and volume charges (Fourier space), with the helicity free so the fit decides Bloch against Neel and the chirality; Gaussian blur optional (fixed at 0 by default).`,
+    summary: `${label} above the film from its surface and volume charges (Fourier space), with neel = cos(helicity) free (m_y has no charge, so the field sees the helicity only through its cosine): |neel| near 1 is a Neel wall, its sign the chirality, near 0 a Bloch wall; Gaussian blur optional (fixed at 0 by default).`,
     parameters: params,
     signalUnit: "T",
     assumptions: [...BASE_ASSUMPTIONS, "point sensor at height h above the top surface (finite size only through the blur)", "the FFT grid is set from the start values: lengths far below the start width are resolved less well"],
@@ -217,8 +218,7 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
       return {
         model(p, out) {
           const x0 = p[0];
-          const helicity = p[ix("helicity")];
-          const cg = Math.cos(helicity);
+          const cg = p[ix("neel")];
           for (let g = 0; g < n; g++) {
             const X = grid.x0 + g * grid.dx;
             if (kind === "180") {

@@ -94,7 +94,7 @@ describe("stray field of walls: Fourier model vs direct dipole sum", () => {
         return [-s * Math.cos(helicity), -s * Math.sin(helicity), -Math.tanh(u)];
       };
       const d = directField(mag, sensors, Ms, h, t, x0);
-      const p = [x0, Delta, helicity, h, t, Ms, 0, 0];
+      const p = [x0, Delta, Math.cos(helicity), h, t, Ms, 0, 0];
       expect(maxRel(ours("wall180-bz", sensors, p), d.bz)).toBeLessThan(1e-3);
       expect(maxRel(ours("wall180-bx", sensors, p), d.bx)).toBeLessThan(1e-3);
     });
@@ -111,7 +111,7 @@ describe("stray field of walls: Fourier model vs direct dipole sum", () => {
         return [s * Math.cos(helicity), s * Math.sin(helicity), mz];
       };
       const d = directField(mag, sensors, Ms, h, t, x0);
-      const p = [x0, R, w, helicity, h, t, Ms, 0, 0];
+      const p = [x0, R, w, Math.cos(helicity), h, t, Ms, 0, 0];
       expect(maxRel(ours("wall360-bz", sensors, p), d.bz)).toBeLessThan(1e-3);
       expect(maxRel(ours("wall360-bx", sensors, p), d.bx)).toBeLessThan(1e-3);
     });
@@ -138,7 +138,7 @@ describe("stray field of walls: Fourier model vs direct dipole sum", () => {
       });
       return num / den;
     });
-    const p = [x0, Delta, 0, h, t, Ms, s, 0];
+    const p = [x0, Delta, 1, h, t, Ms, s, 0];
     expect(maxRel(ours("wall180-bz", targets, p), blurred)).toBeLessThan(1e-3);
   });
 });
