@@ -1,4 +1,391 @@
-import type { CalculatorSpec } from "./spec.js";
+/**
+ * Calculators of the Berry-phase domain: `berry-loop` (spin Berry phase around a cone, two methods),
+ * `chern` (Haldane-model phase diagram by link variables), `magnon-hall` (honeycomb ferromagnet
+ * magnons: Chern numbers and thermal Hall conductivity), `spin-tunnel` (giant-spin tunnel splitting
+ * and its quenching along the hard axis) and `easy-plane` (easy-plane spin: steps and rotor form).
+ * Energies of spin models are given as E / k_B in kelvin (the customary unit of molecular magnets);
+ * compute functions receive them in J. Defaults use invented demo materials.
+ */
+import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import { sweepValues } from "./spec.js";
+import { kB, muB } from "../quantity/constants.js";
+import { coneLoop } from "../berry/loopOnSphere.js";
+import { spinBerryPhase, wrapBerryPhase } from "../berry/spinBerryPhase.js";
+import { chernNumbers } from "../berry/chernNumbers.js";
+import { haldaneModel, haldaneCriticalMass } from "../berry/blochModel.js";
+import { honeycombMagnonHall } from "../berry/magnonHoneycomb.js";
+import { hardAxisQuenchingFields, hardAxisTunnelSplitting, gargQuenchingPeriod, giantSpinLevels } from "../berry/giantSpin.js";
+import { easyPlaneCrossings, easyPlaneGroundM, easyPlaneMagnetization, rotorMagnetization, rotorTruncation } from "../berry/easyPlaneSpin.js";
 
-/** Calculator specs of the berry domain (filled by its issue). */
-export const berryCalculators: CalculatorSpec[] = [];
+const berrySources = ["M. Berry, Proc. R. Soc. A 392, 45 (1984)", "R. Resta, Rev. Mod. Phys. 66, 899 (1994)", "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)"];
+
+// ---------------------------------------------------------------- berry-loop
+function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const S = v.twoS! / 2;
+  const theta = v.theta!;
+  const N = v.segments!;
+  const loop = coneLoop(theta, N);
+  const mValues: number[] = [];
+  const geo: number[] = [];
+  const disc: number[] = [];
+  const exact: number[] = [];
+  let omega = 0;
+  for (let k = 0; k <= v.twoS!; k++) {
+    const m = S - k;
+    const r = spinBerryPhase(loop, S, m);
+    omega = r.solidAngle;
+    mValues.push(m);
+    geo.push(r.geometric);
+    disc.push(r.discrete);
+    exact.push(wrapBerryPhase(-m * 2 * Math.PI * (1 - Math.cos(theta))));
+  }
+  const values: ComputeOutput["values"] = {
+    solidAngle: omega,
+    capSolidAngle: 2 * Math.PI * (1 - Math.cos(theta)),
+    gammaTop: geo[0]!,
+    gammaTopDiscrete: disc[0]!,
+    gammaTopExact: exact[0]!,
+    maxDifference: Math.max(...geo.map((g, i) => Math.abs(wrapBerryPhase(g - disc[i]!)))),
+    mValues,
+    gammaGeometric: geo,
+    gammaDiscrete: disc,
+    gammaCircle: exact,
+  };
+  if (options.sweep) {
+    const ts = sweepValues(berryLoopSpec, options.sweep);
+    const g1: number[] = [], g2: number[] = [], g3: number[] = [];
+    for (const t of ts) {
+      const r = spinBerryPhase(coneLoop(t, N), S, S);
+      g1.push(r.geometric);
+      g2.push(r.discrete);
+      g3.push(wrapBerryPhase(-S * 2 * Math.PI * (1 - Math.cos(t))));
+    }
+    values.thetaSweep = ts;
+    values.gammaTopSweep = g1;
+    values.gammaTopDiscreteSweep = g2;
+    values.gammaTopCircleSweep = g3;
+  }
+  return { values, status: "ok", notes: [`The loop is a geodesic ${N}-gon inscribed in the circle; its solid angle differs from the cap's by O(1/N^2).`] };
+}
+
+export const berryLoopSpec: CalculatorSpec = {
+  id: "berry-loop",
+  title: "Spin Berry phase around a cone",
+  summary: "Berry phase of a spin S in each state m along its axis when the axis runs once counterclockwise (seen from +z) around a cone of half-angle theta: geometric -m Omega and the gauge-invariant product of overlaps of rotated spin-S states, against -m 2 pi (1 - cos theta).",
+  inputs: [
+    { name: "twoS", symbol: "2S", unit: "", default: 3, min: 1, max: 12, scale: "linear", kind: "integer", meaning: "twice the spin (1 for S = 1/2)" },
+    { name: "theta", symbol: "\\theta", unit: "", default: 1.0, min: 0.05, max: 3.09, scale: "linear", meaning: "cone half-angle (rad)" },
+    { name: "segments", symbol: "N", unit: "", default: 400, min: 16, max: 4000, scale: "log", kind: "integer", meaning: "geodesic edges of the discretized loop" },
+  ],
+  outputs: [
+    { name: "solidAngle", symbol: "\\Omega", unit: "", meaning: "solid angle of the polygon, in (-2 pi, 2 pi] (sr)" },
+    { name: "capSolidAngle", symbol: "2\\pi(1-\\cos\\theta)", unit: "", meaning: "solid angle of the circular cap (sr)" },
+    { name: "gammaTop", symbol: "\\gamma_S", unit: "", meaning: "Berry phase of m = S, geometric (rad, in (-pi, pi])" },
+    { name: "gammaTopDiscrete", symbol: "\\gamma_S^{disc}", unit: "", meaning: "Berry phase of m = S from overlaps (rad)" },
+    { name: "gammaTopExact", symbol: "-S\\,2\\pi(1-\\cos\\theta)", unit: "", meaning: "closed form for the circle (rad)" },
+    { name: "maxDifference", symbol: "\\max|\\Delta\\gamma|", unit: "", meaning: "largest difference of the two methods over m (rad)" },
+    { name: "mValues", symbol: "m", unit: "", kind: "array", meaning: "spin projections" },
+    { name: "gammaGeometric", symbol: "\\gamma_m", unit: "", kind: "array", meaning: "-m Omega (rad)" },
+    { name: "gammaDiscrete", symbol: "\\gamma_m^{disc}", unit: "", kind: "array", meaning: "-Im ln prod <u_i|u_i+1> (rad)" },
+    { name: "gammaCircle", symbol: "\\gamma_m^{circle}", unit: "", kind: "array", meaning: "-m 2 pi (1 - cos theta) (rad)" },
+    { name: "thetaSweep", symbol: "\\theta", unit: "", kind: "array", meaning: "cone half-angles of the sweep (rad)" },
+    { name: "gammaTopSweep", symbol: "\\gamma_S(\\theta)", unit: "", kind: "array", meaning: "geometric phase of m = S over the sweep" },
+    { name: "gammaTopDiscreteSweep", symbol: "\\gamma_S^{disc}(\\theta)", unit: "", kind: "array", meaning: "discrete phase of m = S over the sweep" },
+    { name: "gammaTopCircleSweep", symbol: "\\gamma_S^{circle}(\\theta)", unit: "", kind: "array", meaning: "closed form over the sweep" },
+  ],
+  plots: [
+    { id: "phase-vs-m", title: "Berry phase of each m", x: "mValues", y: ["gammaGeometric", "gammaDiscrete", "gammaCircle"], mode: "markers" },
+    { id: "phase-vs-theta", title: "Berry phase of m = S against the cone angle", x: "thetaSweep", y: ["gammaTopSweep", "gammaTopDiscreteSweep", "gammaTopCircleSweep"] },
+  ],
+  sweep: { over: ["theta"], points: 40 },
+  assumptions: [
+    "Adiabatic transport of the state |S, m> quantized along the moving axis; phases modulo 2 pi in (-pi, pi].",
+    "Sign convention: gamma = -Im ln prod <u_i|u_i+1> = i oint <u|du>; Omega > 0 for counterclockwise loops seen from outside, so gamma = -m Omega.",
+  ],
+  sources: berrySources,
+  method: "Van Oosterom-Strackee solid angle of the geodesic polygon; Wigner-D spin-S states and the discrete product of overlaps",
+  compute: computeBerryLoop,
+};
+
+// ---------------------------------------------------------------- chern (Haldane phase diagram)
+function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const n = v.grid!;
+  const model = (M: number) => haldaneModel({ t1: 1, t2: v.t2!, phi: v.phi!, M });
+  const r = chernNumbers(model(v.M!), { n1: n, onUnresolved: "report" });
+  const Mc = haldaneCriticalMass(v.t2!, v.phi!);
+  const closed = (M: number) => (Math.abs(M) < Mc ? -Math.sign(v.t2! * Math.sin(v.phi!)) : 0) + 0;
+  const notes = [...r.notes];
+  const values: ComputeOutput["values"] = {
+    criticalMass: Mc,
+    chernClosedForm: closed(v.M!),
+    resolved: r.status === "ok" ? "resolved on the grid" : "not resolved on this grid (gap closing too close): refine the grid",
+    gapK: 2 * Math.abs(v.M! - 3 * Math.sqrt(3) * v.t2! * Math.sin(v.phi!)),
+    gapKprime: 2 * Math.abs(v.M! + 3 * Math.sqrt(3) * v.t2! * Math.sin(v.phi!)),
+  };
+  if (r.status === "ok") {
+    values.chernLower = r.chern[0]!;
+    values.chernUpper = r.chern[1]!;
+  }
+  if (options.sweep) {
+    const Ms = sweepValues(chernSpec, options.sweep);
+    const xs: number[] = [], cs: number[] = [], cf: number[] = [], un: number[] = [];
+    for (const M of Ms) {
+      const s = chernNumbers(model(M), { n1: n, onUnresolved: "report" });
+      if (s.status === "ok") {
+        xs.push(M);
+        cs.push(s.chern[0]!);
+      } else un.push(M);
+      cf.push(closed(M));
+    }
+    values.MSweep = Ms;
+    values.chernClosedFormSweep = cf;
+    values.MResolved = xs;
+    values.chernSweep = cs;
+    values.MUnresolved = un;
+    if (un.length) notes.push(`${un.length} sweep points near |M| = ${Mc.toPrecision(4)} are not resolved on the ${n} x ${n} grid and are left out of chernSweep.`);
+  }
+  return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
+}
+
+export const chernSpec: CalculatorSpec = {
+  id: "chern",
+  title: "Chern numbers of the Haldane model",
+  summary: "Chern numbers of the two bands of the Haldane model (honeycomb lattice, NN hopping t1 = 1, complex NNN hopping t2 e^{+-i phi}, sublattice mass M) by link variables on an n x n zone grid, the phase diagram against M, and the closed-form boundary |M| = 3 sqrt(3) |t2 sin phi|. Points the grid cannot resolve are reported, never guessed.",
+  inputs: [
+    { name: "t2", symbol: "t_2", unit: "", default: 0.1, min: 0.02, max: 0.3, scale: "linear", meaning: "next-nearest-neighbour hopping (units of t1)" },
+    { name: "phi", symbol: "\\phi", unit: "", default: Math.PI / 2, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "phase of the NNN hopping (rad)" },
+    { name: "M", symbol: "M", unit: "", default: 0.2, min: -1.5, max: 1.5, scale: "linear", meaning: "sublattice (Semenoff) mass (units of t1)" },
+    { name: "grid", symbol: "n", unit: "", default: 36, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "grid points per reciprocal direction" },
+  ],
+  outputs: [
+    { name: "chernLower", symbol: "C_-", unit: "", meaning: "Chern number of the lower band (omitted if unresolved)" },
+    { name: "chernUpper", symbol: "C_+", unit: "", meaning: "Chern number of the upper band (omitted if unresolved)" },
+    { name: "chernClosedForm", symbol: "C_-^{Haldane}", unit: "", meaning: "closed form -sgn(t2 sin phi) inside |M| < 3 sqrt3 |t2 sin phi|, 0 outside" },
+    { name: "criticalMass", symbol: "M_c", unit: "", meaning: "3 sqrt(3) |t2 sin phi| (units of t1)" },
+    { name: "gapK", symbol: "\\Delta_K", unit: "", meaning: "direct gap at K (units of t1)" },
+    { name: "gapKprime", symbol: "\\Delta_{K'}", unit: "", meaning: "direct gap at K' (units of t1)" },
+    { name: "resolved", symbol: "", unit: "", kind: "text", meaning: "whether the grid resolves the bands" },
+    { name: "MSweep", symbol: "M", unit: "", kind: "array", meaning: "masses of the sweep" },
+    { name: "chernClosedFormSweep", symbol: "C_-^{Haldane}(M)", unit: "", kind: "array", meaning: "closed form over the sweep" },
+    { name: "MResolved", symbol: "M", unit: "", kind: "array", meaning: "sweep masses resolved on the grid" },
+    { name: "chernSweep", symbol: "C_-(M)", unit: "", kind: "array", meaning: "lower-band Chern number at MResolved" },
+    { name: "MUnresolved", symbol: "M", unit: "", kind: "array", meaning: "sweep masses the grid does not resolve" },
+  ],
+  plots: [
+    { id: "phase-diagram", title: "Lower-band Chern number against M", x: "MResolved", y: ["chernSweep"], mode: "markers" },
+    { id: "closed-form", title: "Closed form", x: "MSweep", y: ["chernClosedFormSweep"] },
+  ],
+  sweep: { over: ["M"], points: 31 },
+  assumptions: [
+    "Non-interacting tight-binding electrons (or any two-band Bloch system of this form); T = 0 band topology.",
+    "Chern number in the (k1, k2) orientation of the right-handed basis a1 = (sqrt3/2, 3/2), a2 = (-sqrt3/2, 3/2); C = (1/2pi) int Omega with Omega = -2 Im <d1u|d2u>.",
+  ],
+  sources: ["F. D. M. Haldane, PRL 61, 2015 (1988)", "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)"],
+  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux, gap vs band change per step)",
+  compute: computeChern,
+};
+
+// ---------------------------------------------------------------- magnon-hall
+function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const S = v.S!;
+  const p = { J: v.J! * kB, D: v.D! * kB, S, zeeman: (v.g ?? 2) * muB * v.B! };
+  const Ts = options.sweep ? sweepValues(magnonHallSpec, options.sweep) : [];
+  const r = honeycombMagnonHall(p, [v.T!, ...Ts], 40);
+  const values: ComputeOutput["values"] = {
+    kappaXY: r.kappaXY[0]!,
+    kappaXYReduced: r.kappaXYReduced[0]!,
+    gapAtK: r.gapAtK / kB,
+    bandBottom: r.bandBottom / kB,
+    bandTop: r.bandTop / kB,
+    chernText: r.chern ? `C = (${r.chern[0]}, ${r.chern[1]}) for the (lower, upper) band` : r.status === "gapless" ? "undefined: the bands touch at K and K' (D = 0)" : "not resolved on the grid",
+  };
+  if (r.chern) {
+    values.chernLower = r.chern[0];
+    values.chernUpper = r.chern[1];
+  }
+  if (options.sweep) {
+    values.TSweep = Ts;
+    values.kappaXYSweep = r.kappaXY.slice(1);
+    values.kappaXYReducedSweep = r.kappaXYReduced.slice(1);
+  }
+  return { values, status: r.status === "ok" ? "ok" : "warning", notes: r.notes };
+}
+
+export const magnonHallSpec: CalculatorSpec = {
+  id: "magnon-hall",
+  title: "Topological magnons and thermal Hall effect of a honeycomb ferromagnet",
+  summary: "Linear spin waves of a honeycomb ferromagnet with exchange J, next-nearest-neighbour DMI D (along z) and a field B along the magnetization: band range, gap at K, Chern numbers of the two bands, and the magnon thermal Hall conductivity kappa_xy per layer against temperature.",
+  inputs: [
+    { name: "J", symbol: "J/k_B", unit: "K", default: 20, min: 2, max: 60, scale: "linear", meaning: "nearest-neighbour ferromagnetic exchange, J / k_B" },
+    { name: "D", symbol: "D/k_B", unit: "K", default: 3, min: -10, max: 10, scale: "linear", meaning: "next-nearest-neighbour DMI, D / k_B (sign flips the Chern numbers)" },
+    { name: "S", symbol: "S", unit: "", default: 1.5, min: 0.5, max: 3.5, scale: "linear", kind: "choice", choices: [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map((s) => ({ value: s, label: `S = ${s}` })), meaning: "spin length" },
+    { name: "B", symbol: "B", unit: "T", default: 0.5, min: 0.01, max: 10, scale: "log", meaning: "field along the magnetization (gaps the Goldstone mode)" },
+    { name: "T", symbol: "T", unit: "K", default: 10, min: 0.5, max: 100, scale: "log", meaning: "temperature" },
+  ],
+  outputs: [
+    { name: "chernLower", symbol: "C_-", unit: "", meaning: "Chern number of the lower magnon band" },
+    { name: "chernUpper", symbol: "C_+", unit: "", meaning: "Chern number of the upper magnon band" },
+    { name: "chernText", symbol: "C", unit: "", kind: "text", meaning: "Chern numbers in words (or why undefined)" },
+    { name: "gapAtK", symbol: "\\Delta_K/k_B", unit: "K", meaning: "gap 6 sqrt3 |D| S at K, K'" },
+    { name: "bandBottom", symbol: "E_{min}/k_B", unit: "K", meaning: "lowest magnon energy (g muB B)" },
+    { name: "bandTop", symbol: "E_{max}/k_B", unit: "K", meaning: "highest magnon energy" },
+    { name: "kappaXY", symbol: "\\kappa_{xy}^{2D}", unit: "W/K", meaning: "thermal Hall conductivity per layer at T" },
+    { name: "kappaXYReduced", symbol: "\\kappa_{xy}^{2D} \\hbar / (k_B^2 T)", unit: "", meaning: "the same in units of k_B^2 T / hbar" },
+    { name: "TSweep", symbol: "T", unit: "K", kind: "array", meaning: "temperatures of the sweep" },
+    { name: "kappaXYSweep", symbol: "\\kappa_{xy}(T)", unit: "W/K", kind: "array", meaning: "kappa_xy per layer over the sweep" },
+    { name: "kappaXYReducedSweep", symbol: "\\kappa_{xy} \\hbar/(k_B^2 T)", unit: "", kind: "array", meaning: "reduced kappa_xy over the sweep" },
+  ],
+  plots: [{ id: "kappa-vs-T", title: "Magnon thermal Hall conductivity per layer", x: "TSweep", y: ["kappaXYSweep"], xLog: true }],
+  sweep: { over: ["T"], points: 30 },
+  assumptions: [
+    "Linear spin-wave theory about the fully polarized state (no magnon interactions); valid for k_B T well below the band width ~6 J S.",
+    "2D conductivity per layer in W/K (divide by the layer spacing for W/(K m)); g = 2; Berry curvature on a 40 x 40 zone grid.",
+    "kappa_xy = -(k_B^2 T / hbar) sum_n int d^2k/(2pi)^2 c2(rho_n) Omega_n (Matsumoto-Murakami).",
+  ],
+  sources: [
+    "R. Matsumoto, S. Murakami, PRL 106, 197202 (2011)",
+    "S. A. Owerre, J. Phys.: Condens. Matter 28, 386001 (2016)",
+    "S. K. Kim, H. Ochoa, R. Zarzuela, Y. Tserkovnyak, PRL 117, 227201 (2016)",
+    "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)",
+  ],
+  method: "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum",
+  compute: computeMagnonHall,
+};
+
+// ---------------------------------------------------------------- spin-tunnel
+function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const p = { S: v.S!, D: v.D! * kB, E: v.E! * kB, g: 2 };
+  const q = hardAxisQuenchingFields(p, v.Bmax!, 6);
+  const d0 = hardAxisTunnelSplitting(p, 0);
+  const notes: string[] = [];
+  const values: ComputeOutput["values"] = {
+    gargPeriod: gargQuenchingPeriod(p),
+    zeros: q.zeros,
+    zeroCount: q.zeros.length,
+    splittingZeroField: d0.splitting / kB,
+  };
+  if (q.spacings.length) {
+    values.meanPeriod = q.meanPeriod;
+    values.deviation = q.deviation;
+  } else notes.push("fewer than two quenching fields below Bmax: raise Bmax to measure the period");
+  {
+    // Always over [0, Bmax] (the field range of this calculator), 60 points.
+    void options;
+    const Bs = Array.from({ length: 60 }, (_, i) => (v.Bmax! * i) / 59);
+    const logSplit: number[] = [];
+    const l0: number[] = [], l1: number[] = [], l2: number[] = [];
+    const levels = giantSpinLevels(p, Bs, [1, 0, 0]);
+    for (let i = 0; i < Bs.length; i++) {
+      const t = hardAxisTunnelSplitting(p, Bs[i]!);
+      logSplit.push(Math.log10(Math.max(t.splitting, t.resolution) / kB));
+      l0.push(levels[i]![0]! / kB);
+      l1.push(levels[i]![1]! / kB);
+      l2.push(levels[i]![2]! / kB);
+    }
+    values.BSweep = Bs;
+    values.log10Splitting = logSplit;
+    values.level0 = l0;
+    values.level1 = l1;
+    values.level2 = l2;
+  }
+  return { values, status: notes.length ? "warning" : "ok", notes };
+}
+
+export const spinTunnelSpec: CalculatorSpec = {
+  id: "spin-tunnel",
+  title: "Quenching of spin tunnelling by a hard-axis field",
+  summary: "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) - g muB Bx Sx by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
+  inputs: [
+    { name: "S", symbol: "S", unit: "", default: 10, min: 4, max: 12, scale: "linear", kind: "choice", choices: [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })), meaning: "spin of the molecule" },
+    { name: "D", symbol: "D/k_B", unit: "K", default: 0.29, min: 0.05, max: 1, scale: "linear", meaning: "axial (easy-axis) anisotropy" },
+    { name: "E", symbol: "E/k_B", unit: "K", default: 0.047, min: 0.005, max: 0.2, scale: "linear", meaning: "rhombic anisotropy (x hard axis)" },
+    { name: "Bmax", symbol: "B_{max}", unit: "T", default: 1.5, min: 0.2, max: 3, scale: "linear", meaning: "largest hard-axis field searched" },
+  ],
+  outputs: [
+    { name: "gargPeriod", symbol: "\\Delta B_{Garg}", unit: "T", meaning: "semiclassical quenching period" },
+    { name: "meanPeriod", symbol: "\\Delta B", unit: "T", meaning: "mean spacing of the exact zeros" },
+    { name: "deviation", symbol: "\\Delta B/\\Delta B_{Garg} - 1", unit: "", meaning: "relative deviation from Garg" },
+    { name: "zeroCount", symbol: "n_0", unit: "", meaning: "number of zeros in (0, Bmax]" },
+    { name: "zeros", symbol: "B_k", unit: "T", kind: "array", meaning: "quenching fields" },
+    { name: "splittingZeroField", symbol: "\\Delta_0/k_B", unit: "K", meaning: "ground tunnel splitting at B = 0" },
+    { name: "BSweep", symbol: "B_x", unit: "T", kind: "array", meaning: "hard-axis fields of the sweep" },
+    { name: "log10Splitting", symbol: "\\log_{10}(\\Delta/k_B\\,[K])", unit: "", kind: "array", meaning: "log10 of the splitting in K (floored at the resolution)" },
+    { name: "level0", symbol: "E_0/k_B", unit: "K", kind: "array", meaning: "lowest level" },
+    { name: "level1", symbol: "E_1/k_B", unit: "K", kind: "array", meaning: "second level" },
+    { name: "level2", symbol: "E_2/k_B", unit: "K", kind: "array", meaning: "third level" },
+  ],
+  plots: [
+    { id: "splitting", title: "Ground tunnel splitting against the hard-axis field", x: "BSweep", y: ["log10Splitting"] },
+    { id: "levels", title: "Lowest levels against the hard-axis field", x: "BSweep", y: ["level0", "level1", "level2"] },
+  ],
+  assumptions: [
+    "Single-spin (giant spin) Hamiltonian, no hyperfine or intermolecular couplings, T = 0; g = 2.",
+    "Field exactly along the hard axis x; splittings resolved down to ~1e-29 D S^2 by double-double eigenvalues of the parity blocks.",
+  ],
+  sources: ["A. Garg, EPL 22, 205 (1993)", "W. Wernsdorfer, R. Sessoli, Science 284, 133 (1999)"],
+  method: "exact diagonalization of the P-symmetric and antisymmetric blocks in double-double, sign changes + Brent",
+  compute: computeSpinTunnel,
+};
+
+// ---------------------------------------------------------------- easy-plane
+function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const S = v.twoS! / 2;
+  const D = v.D! * kB;
+  const gm = 2 * muB;
+  const b = gm * v.B!;
+  const half = v.twoS! % 2 === 1;
+  const exact = easyPlaneMagnetization(S, D, b, v.T!);
+  const rotor = rotorMagnetization(D, b, v.T!, half).value;
+  const trunc = rotorTruncation(S, D, b, v.T!);
+  const notes: string[] = [];
+  if (trunc > 1e-12) notes.push(`outside the rotor limit: levels beyond |m| = S carry a relative weight ${trunc.toExponential(2)}, so the finite spin differs from the rotor form`);
+  const values: ComputeOutput["values"] = {
+    groundM: easyPlaneGroundM(S, D, b),
+    szExact: exact,
+    szRotor: rotor,
+    rotorDifference: exact - rotor,
+    truncation: Math.min(trunc, 1),
+    crossingFields: easyPlaneCrossings(S, D).map((x) => x / gm),
+  };
+  if (options.sweep) {
+    const Bs = sweepValues(easyPlaneSpec, options.sweep);
+    values.BSweep = Bs;
+    values.szSweep = Bs.map((B) => easyPlaneMagnetization(S, D, gm * B, v.T!));
+    values.szRotorSweep = Bs.map((B) => rotorMagnetization(D, gm * B, v.T!, half).value);
+    values.groundMSweep = Bs.map((B) => easyPlaneGroundM(S, D, gm * B));
+  }
+  return { values, status: notes.length ? "warning" : "ok", notes };
+}
+
+export const easyPlaneSpec: CalculatorSpec = {
+  id: "easy-plane",
+  title: "Easy-plane spin in a hard-axis field: steps and rotor form",
+  summary: "H = D Sz^2 - g muB B Sz: level crossings at g muB B = D (2m + 1), the T = 0 magnetization staircase, and <Sz>(B, T) by the exact finite sum and by the rotor (Jacobi theta function) form; integer and half-integer spins differ by a half step.",
+  inputs: [
+    { name: "twoS", symbol: "2S", unit: "", default: 20, min: 1, max: 60, scale: "linear", kind: "integer", meaning: "twice the spin (odd = half-integer spin)" },
+    { name: "D", symbol: "D/k_B", unit: "K", default: 1, min: 0.1, max: 5, scale: "linear", meaning: "easy-plane anisotropy (z hard axis)" },
+    { name: "B", symbol: "B", unit: "T", default: 2, min: 0, max: 20, scale: "linear", meaning: "field along the hard axis z (g = 2)" },
+    { name: "T", symbol: "T", unit: "K", default: 0.5, min: 0.02, max: 20, scale: "log", meaning: "temperature" },
+  ],
+  outputs: [
+    { name: "groundM", symbol: "m_0", unit: "", meaning: "T = 0 ground-state Sz" },
+    { name: "szExact", symbol: "\\langle S_z\\rangle", unit: "", meaning: "thermal <Sz>, exact sum over m = -S..S" },
+    { name: "szRotor", symbol: "\\langle S_z\\rangle_{rotor}", unit: "", meaning: "rotor (theta function) form" },
+    { name: "rotorDifference", symbol: "\\delta", unit: "", meaning: "exact minus rotor" },
+    { name: "truncation", symbol: "w_{|m|>S}", unit: "", meaning: "weight of the levels beyond |m| = S (0 in the rotor limit)" },
+    { name: "crossingFields", symbol: "B_m", unit: "T", kind: "array", meaning: "level-crossing fields D (2m + 1) / (g muB)" },
+    { name: "BSweep", symbol: "B", unit: "T", kind: "array", meaning: "fields of the sweep" },
+    { name: "szSweep", symbol: "\\langle S_z\\rangle(B)", unit: "", kind: "array", meaning: "exact <Sz> over the sweep" },
+    { name: "szRotorSweep", symbol: "\\langle S_z\\rangle_{rotor}(B)", unit: "", kind: "array", meaning: "rotor form over the sweep" },
+    { name: "groundMSweep", symbol: "m_0(B)", unit: "", kind: "array", meaning: "T = 0 staircase" },
+  ],
+  plots: [{ id: "steps", title: "Magnetization steps", x: "BSweep", y: ["szSweep", "szRotorSweep", "groundMSweep"] }],
+  sweep: { over: ["B"], points: 200 },
+  assumptions: ["Single spin, no transverse anisotropy (Sz conserved), g = 2, thermal equilibrium."],
+  sources: ["E. T. Whittaker, G. N. Watson, A Course of Modern Analysis (1927), ch. 21"],
+  method: "exact Boltzmann sums; Poisson-resummed rotor form x + (pi / 2 beta D) theta'/theta",
+  compute: computeEasyPlane,
+};
+
+/** Calculator specs of the berry domain. */
+export const berryCalculators: CalculatorSpec[] = [berryLoopSpec, chernSpec, magnonHallSpec, spinTunnelSpec, easyPlaneSpec];
