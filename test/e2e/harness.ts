@@ -49,6 +49,7 @@ export async function launchBrowser(): Promise<Browser> {
     newPage: async () => {
       const page = await context.newPage();
       page.on("pageerror", (e) => console.error("[page error]", e.message));
+      if (process.env.HELICOID_E2E_DEBUG) page.on("console", (m) => console.error(`[page ${m.type()}]`, m.text()));
       return page;
     },
     close: async () => {
@@ -91,7 +92,7 @@ export interface JupyterServer {
  * Start Debian's jupyter-server. `dataDir` (a Jupyter data directory holding kernels/ and
  * labextensions/) goes first on JUPYTER_PATH so its kernelspecs are found.
  */
-export async function startJupyterServer(options: { dataDir?: string; cwd?: string; env?: Record<string, string> } = {}): Promise<JupyterServer> {
+export async function startJupyterServer(options: { dataDir?: string; cwd?: string; env?: Record<string, string>; staticDir?: string } = {}): Promise<JupyterServer> {
   const port = await freePort();
   const token = randomBytes(16).toString("hex");
   const runtime = mkdtempSync(join(tmpdir(), "helicoid-jupyter-runtime-"));
@@ -110,6 +111,8 @@ export async function startJupyterServer(options: { dataDir?: string; cwd?: stri
     `--ServerApp.token=${token}`,
     "--ServerApp.open_browser=False",
     ...(options.cwd ? [`--ServerApp.root_dir=${options.cwd}`] : []),
+    // Test pages served at /static/<file> from the server's own origin (no sandboxing, unlike /files/).
+    ...(options.staticDir ? [`--ServerApp.extra_static_paths=${JSON.stringify([options.staticDir])}`] : []),
   ];
   const proc = spawn("/usr/bin/jupyter-server", args, { env, cwd: options.cwd ?? repoRoot, stdio: ["ignore", "pipe", "pipe"] });
   let log = "";
@@ -138,12 +141,39 @@ export async function startJupyterServer(options: { dataDir?: string; cwd?: stri
   };
 }
 
+/** CSS imported by page code becomes a <style> tag (as in widgets/build.mjs). */
+const cssInject: esbuild.Plugin = {
+  name: "css-inject",
+  setup(build) {
+    build.onLoad({ filter: /\.css$/ }, async (a) => {
+      const out = await esbuild.build({ entryPoints: [a.path], bundle: true, write: false, minify: true, logLevel: "silent",
+        loader: { ".svg": "dataurl", ".png": "dataurl", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".gif": "dataurl" } });
+      const css = out.outputFiles[0]!.text;
+      return { loader: "js", contents: `const c = ${JSON.stringify(css)}; const s = document.createElement("style"); s.textContent = c; document.head.appendChild(s); export default c;` };
+    });
+  },
+};
+
+/** The compute worker's source for page bundles that include our views (they import it). */
+const workerSource: esbuild.Plugin = {
+  name: "worker-source",
+  setup(build) {
+    build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: "w", namespace: "helicoid" }));
+    build.onLoad({ filter: /.*/, namespace: "helicoid" }, async () => {
+      const w = await esbuild.build({ entryPoints: [join(repoRoot, "widgets", "src", "compute", "worker.ts")], bundle: true, write: false, format: "iife", minify: true,
+        alias: { "@helicoid/lib": join(repoRoot, "lib", "src", "index.ts") }, logLevel: "silent" });
+      return { loader: "js", contents: `export default ${JSON.stringify(w.outputFiles[0]!.text)};` };
+    });
+  },
+};
+
 /** Bundle a browser page script (IIFE) and return its source text. */
 export async function buildPage(entry: string, options: { alias?: Record<string, string> } = {}): Promise<string> {
   const r = await esbuild.build({
     entryPoints: [entry], bundle: true, write: false, format: "iife", target: "es2020", minify: true,
     define: { __webpack_public_path__: '""', "process.env.NODE_ENV": '"production"', global: "globalThis" },
-    loader: { ".svg": "text", ".css": "text" },
+    loader: { ".svg": "text" },
+    plugins: [cssInject, workerSource],
     alias: { "@helicoid/lib": join(repoRoot, "lib", "src", "index.ts"), ...(options.alias ?? {}) },
     logLevel: "silent",
   });

@@ -28,6 +28,11 @@ function axisTitle(o: OutputSpec | undefined, name: string, unitLabel: string): 
   return unitLabel && unitLabel !== "1" ? `${label} (${displayUnit(unitLabel)})` : label;
 }
 
+function multiTitle(data: PlotFigure["data"], unit: string | null): string {
+  const names = data.map((d) => String(d.name)).join(", ");
+  return unit && unit !== "(mixed)" && unit !== "1" ? `${names} (${displayUnit(unit)})` : names;
+}
+
 export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: CalculatorResult): PlotFigure {
   const xs = arrayOf(result, plot.x);
   const byName = new Map(outputs.map((o) => [o.name, o]));
@@ -63,7 +68,7 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     autosize: true,
     showlegend: data.length > 1,
     xaxis: { title: { text: axisTitle(xo, plot.x, xu) }, type: plot.xLog ? "log" : "linear" },
-    yaxis: { title: { text: data.length > 1 && yUnitShared !== "(mixed)" ? `(${displayUnit(yUnitShared ?? "")})` : yTitle }, type: plot.yLog ? "log" : "linear" },
+    yaxis: { title: { text: data.length > 1 ? multiTitle(data, yUnitShared) : yTitle }, type: plot.yLog ? "log" : "linear" },
   };
   return { data, layout, problem: missing.length ? `not in the result: ${missing.join(", ")}` : null };
 }

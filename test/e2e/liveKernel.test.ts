@@ -1,0 +1,110 @@
+/**
+ * Widgets against a live helicoid kernel: Debian's jupyter-server, the kernelspec installed by
+ * `helicoid install --prefix`, and a page with @jupyterlab/services + @jupyter-widgets/html-manager
+ * in Debian's chromium.
+ * (a) moving a standard FloatSlider in the page runs kernel code whose result shows in another widget;
+ * (b) explorer inputs changed in the page are seen by kernel code, and a kernel-side change
+ *     moves the explorer's slider in the page.
+ */
+import { describe, it, expect, beforeAll, afterAll } from "vitest";
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { Page } from "playwright-core";
+import { launchBrowser, startJupyterServer, buildPage, screenshot, repoRoot, type Browser, type JupyterServer } from "./harness";
+import { getCalculator, runCalculator } from "../../lib/src/index";
+
+const bin = join(repoRoot, "kernel-ext", "bin", "helicoid.js");
+const built = existsSync(join(repoRoot, "kernel-ext", "dist", "cli", "main.js"));
+
+let server: JupyterServer;
+let browser: Browser;
+let page: Page;
+let prefix: string;
+
+async function run(code: string): Promise<{ status: string; text: string; widgets: number }> {
+  const r = await page.evaluate((c) => (window as any).hxLive.execute(c), code);
+  if (r.status !== "ok") throw new Error(`kernel cell failed: ${r.text}`);
+  return r;
+}
+
+describe.skipIf(!built)("widgets with a live helicoid kernel", () => {
+  beforeAll(async () => {
+    prefix = mkdtempSync(join(tmpdir(), "helicoid-live-"));
+    const inst = spawnSync(process.execPath, [bin, "install", "--prefix", prefix], { encoding: "utf8" });
+    if (inst.status !== 0) throw new Error(`helicoid install failed: ${inst.stderr}`);
+    mkdirSync(join(prefix, "pages"));
+    server = await startJupyterServer({ dataDir: join(prefix, "share", "jupyter"), cwd: prefix, staticDir: join(prefix, "pages") });
+    const script = await buildPage(join(__dirname, "pages", "livePage.ts"));
+    browser = await launchBrowser();
+    page = await browser.newPage();
+    // The page is served by the server itself (a static path), so it has the
+    // server's own loopback origin, as JupyterLab has: no CORS or local-network exceptions needed.
+    writeFileSync(join(prefix, "pages", "helicoid-live.html"), `<!DOCTYPE html><html><head><meta charset="utf-8"></head><body><div id="outputs"></div><script>window.hxToken=${JSON.stringify(server.token)};</script><script>${script.replace(/<\/script/g, "<\\/script")}</script></body></html>`);
+    await page.goto(`${server.url}/static/helicoid-live.html`);
+    const impl = await Promise.race([
+      page.evaluate(() => (window as any).hxLive.start("helicoid")),
+      new Promise((_, rej) => setTimeout(() => rej(new Error(`kernel did not start in the page within 60 s; server log:\n${server.log()}`)), 60_000)),
+    ]);
+    expect(typeof impl).toBe("string");
+    if (process.env.HELICOID_E2E_DEBUG) await page.evaluate(() => { (window as any).hxDebug = true; });
+  }, 180_000);
+
+  afterAll(async () => {
+    try { await page?.evaluate(() => (window as any).hxLive.shutdown()); } catch { /* closing */ }
+    await browser?.close();
+    await server?.stop();
+    if (prefix) rmSync(prefix, { recursive: true, force: true });
+  });
+
+  it("(a) a FloatSlider moved in the page changes a value computed by the kernel, shown in an HTML widget", async () => {
+    const r = await run(`import { slider, html, vbox } from "@helicoid/kernel";
+const s = slider({ min: 0, max: 10, value: 1, step: 0.5, description: "x" });
+const out = html("x squared = 1");
+s.onChange("value", (v) => out.set({ value: "x squared = " + (v * v) }));
+vbox([s, out])`);
+    expect(r.widgets).toBeGreaterThanOrEqual(1); // the kernel adds an output area for callback output
+    const readout = page.locator(".widget-slider .widget-readout").first();
+    await readout.waitFor();
+    await readout.click();
+    await page.keyboard.press("Control+A");
+    await page.keyboard.type("3");
+    await page.keyboard.press("Enter");
+    await expect.poll(() => page.locator(".widget-html-content").first().textContent(), { timeout: 15_000 }).toBe("x squared = 9");
+    // And kernel code sees the slider's value.
+    expect((await run("s.get('value')")).text.trim()).toBe("3");
+    await screenshot(page, "live-float-slider", ".hx-live-output");
+  });
+
+  it("(b) explorer inputs changed in the page reach kernel code; a kernel change moves the page's slider", async () => {
+    const r = await run(`import { explore } from "@helicoid/kernel";
+const ex = explore("wall");
+const seen: number[] = [];
+ex.onInputs((v) => seen.push(v.A));
+ex`);
+    expect(r.widgets).toBeGreaterThanOrEqual(1); // the kernel adds an output area for callback output
+    const root = ".hx-live-output .hx-explorer";
+    await page.waitForSelector(`${root} .hx-plot[data-drawn]`, { timeout: 20_000 });
+    const entry = page.locator(`${root} .hx-control[data-input="A"] input.hx-entry`);
+    await entry.fill("21 pJ/m");
+    await entry.press("Enter");
+    await expect.poll(async () => (await run("JSON.stringify([ex.inputs.A, seen.length])")).text, { timeout: 15_000 }).toContain("2.1e-11");
+    // The page computed the result (bundled @helicoid/lib) and wrote it back to the kernel.
+    await expect.poll(async () => Number((await run("ex.result ? ex.result.inputs.A.value : 0")).text.trim()), { timeout: 15_000 }).toBeCloseTo(2.1e-11, 22);
+    const spec = getCalculator("wall");
+    const width = Number((await run("ex.result.outputs.width.value")).text.trim());
+    // Source: @helicoid/lib's wall calculator run in Node on the same inputs.
+    const expected = runCalculator(spec, { A: 2.1e-11 }).outputs.width!.value as number;
+    expect(Math.abs(width - expected) / expected).toBeLessThan(1e-12);
+
+    // Kernel-side change: the slider and the entry in the page move.
+    const slider = page.locator(`${root} .hx-control[data-input="Ms"] input.hx-slider`);
+    const before = Number(await slider.inputValue());
+    await run(`ex.setInputs({ Ms: "${(spec.inputs.find((i) => i.name === "Ms")!.max * 0.9).toPrecision(6)} A/m" }); 0`);
+    await expect.poll(async () => Number(await slider.inputValue()), { timeout: 15_000 }).not.toBe(before);
+    const row = page.locator(`${root} .hx-control[data-input="Ms"]`);
+    expect(Number(await row.getAttribute("data-value"))).toBeCloseTo(spec.inputs.find((i) => i.name === "Ms")!.max * 0.9, 3);
+    await screenshot(page, "live-explorer", root);
+  });
+});
