@@ -104,7 +104,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-const wall = '.hx-explorer:has([data-input="Ku"]):not(:has(.hx-needs-kernel))';
+const wall = '.hx-explorer[data-calculator="test-wall-width"][data-mode="browser"]';
 
 describe("exported page", () => {
   it("renders every saved widget and the plotly output, with no network", async () => {
@@ -186,7 +186,7 @@ describe("exported page", () => {
   });
 
   it("a kernel-function explorer shows its last state and says it needs the kernel", async () => {
-    const k = ".hx-explorer:has(.hx-needs-kernel)";
+    const k = '.hx-explorer[data-mode="kernel"]';
     expect(await page.locator(`${k} .hx-badge`).textContent()).toContain("needs the running kernel");
     expect(await page.locator(`${k} input.hx-slider`).first().isDisabled()).toBe(true);
     expect(await page.locator(`${k} tr[data-output="Delta"]`).getAttribute("data-value")).toBe(String(runCalculator(testWallSpec, { Ms: 1e6, A: 1e-11, Ku: 1e6 }).outputs.Delta!.value));
@@ -224,7 +224,7 @@ describe("exported page", () => {
   });
 
   it.skipIf(!hasSkyrmion)("moving the skyrmion explorer's D slider changes R(B) to what @helicoid/lib computes in Node (1e-9 relative)", async () => {
-    const sk = '.hx-explorer:has([data-input="D"])';
+    const sk = '.hx-explorer[data-calculator="skyrmion"]';
     await settled(page, sk);
     const spec = getCalculator("skyrmion");
     const before = (await tracesOf(page, sk)).find((t) => t.output === "radiusSweep")!;

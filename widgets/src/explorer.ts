@@ -92,6 +92,8 @@ export class ExplorerView extends DOMWidgetView {
     this.spec = resolved.spec;
     this.local = resolved.local && this.model.get("compute_in") !== "kernel";
     this.el.replaceChildren();
+    this.el.dataset.calculator = calculator || this.spec?.id || "";
+    this.el.dataset.mode = this.local ? "browser" : "kernel";
     if (!this.spec) {
       this.el.append(el("div", { class: "hx-error", text: resolved.note || "No calculator spec in the widget state." }));
       return;
