@@ -75,7 +75,7 @@ export const berryLoopSpec: CalculatorSpec = {
   inputs: [
     { name: "twoS", symbol: "2S", unit: "", default: 3, min: 1, max: 12, scale: "linear", kind: "integer", meaning: "twice the spin (1 for S = 1/2)" },
     { name: "theta", symbol: "\\theta", unit: "", default: 1.0, min: 0.05, max: 3.09, scale: "linear", meaning: "cone half-angle (rad)" },
-    { name: "segments", symbol: "N", unit: "", default: 400, min: 16, max: 4000, scale: "log", kind: "integer", meaning: "geodesic edges of the discretized loop" },
+    { name: "segments", symbol: "N", unit: "", default: 200, min: 16, max: 4000, scale: "log", kind: "integer", meaning: "geodesic edges of the discretized loop" },
   ],
   outputs: [
     { name: "solidAngle", symbol: "\\Omega", unit: "", meaning: "solid angle of the polygon, in (-2 pi, 2 pi] (sr)" },
@@ -97,7 +97,7 @@ export const berryLoopSpec: CalculatorSpec = {
     { id: "phase-vs-m", title: "Berry phase of each m", x: "mValues", y: ["gammaGeometric", "gammaDiscrete", "gammaCircle"], mode: "markers" },
     { id: "phase-vs-theta", title: "Berry phase of m = S against the cone angle", x: "thetaSweep", y: ["gammaTopSweep", "gammaTopDiscreteSweep", "gammaTopCircleSweep"] },
   ],
-  sweep: { over: ["theta"], points: 40 },
+  sweep: { over: ["theta"], points: 24 },
   assumptions: [
     "Adiabatic transport of the state |S, m> quantized along the moving axis; phases modulo 2 pi in (-pi, pi].",
     "Sign convention: gamma = -Im ln prod <u_i|u_i+1> = i oint <u|du>; Omega > 0 for counterclockwise loops seen from outside, so gamma = -m Omega.",
@@ -155,7 +155,7 @@ export const chernSpec: CalculatorSpec = {
     { name: "t2", symbol: "t_2", unit: "", default: 0.1, min: 0.02, max: 0.3, scale: "linear", meaning: "next-nearest-neighbour hopping (units of t1)" },
     { name: "phi", symbol: "\\phi", unit: "", default: Math.PI / 2, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "phase of the NNN hopping (rad)" },
     { name: "M", symbol: "M", unit: "", default: 0.2, min: -1.5, max: 1.5, scale: "linear", meaning: "sublattice (Semenoff) mass (units of t1)" },
-    { name: "grid", symbol: "n", unit: "", default: 36, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "grid points per reciprocal direction" },
+    { name: "grid", symbol: "n", unit: "", default: 30, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "grid points per reciprocal direction" },
   ],
   outputs: [
     { name: "chernLower", symbol: "C_-", unit: "", meaning: "Chern number of the lower band (omitted if unresolved)" },
@@ -175,7 +175,7 @@ export const chernSpec: CalculatorSpec = {
     { id: "phase-diagram", title: "Lower-band Chern number against M", x: "MResolved", y: ["chernSweep"], mode: "markers" },
     { id: "closed-form", title: "Closed form", x: "MSweep", y: ["chernClosedFormSweep"] },
   ],
-  sweep: { over: ["M"], points: 31 },
+  sweep: { over: ["M"], points: 21 },
   assumptions: [
     "Non-interacting tight-binding electrons (or any two-band Bloch system of this form); T = 0 band topology.",
     "Chern number in the (k1, k2) orientation of the right-handed basis a1 = (sqrt3/2, 3/2), a2 = (-sqrt3/2, 3/2); C = (1/2pi) int Omega with Omega = -2 Im <d1u|d2u>.",
