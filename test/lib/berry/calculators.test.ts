@@ -42,7 +42,7 @@ describe("berry catalogue", () => {
 
   it("defaults reproduce the closed forms", () => {
     // Source: Berry (1984) for the cone; Haldane (1988) for the phase diagram; Garg (1993) for the period.
-    const loop = runCalculator(getCalculator("berry-loop"), {});
+    const loop = runCalculator(getCalculator("berry-loop"), { segments: 2000 });
     expect(loop.outputs.maxDifference!.value as number).toBeLessThan(1e-4);
     expect(Math.abs((loop.outputs.gammaTop!.value as number) - (loop.outputs.gammaTopExact!.value as number))).toBeLessThan(1e-4);
     const ch = runCalculator(getCalculator("chern"), {});
