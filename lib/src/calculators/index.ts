@@ -1,2 +1,3 @@
 export * from "./spec.js";
 export * from "./catalogue.js";
+export { textureSpec, textureFromInputs } from "./topology.js";

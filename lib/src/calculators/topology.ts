@@ -1,4 +1,145 @@
-import type { CalculatorSpec } from "./spec.js";
+import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import { findObjects } from "../topology/objects.js";
+import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
+import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
+import { findVortices } from "../topology/vortices.js";
+import {
+  skyrmionLatticeTexture, skyrmionTexture, skyrmioniumTexture, vortexPairTexture, type GridSpec,
+} from "../topology/textures.js";
+import type { VectorField } from "../topology/field.js";
 
-/** Calculator specs of the topology domain (filled by its issue). */
-export const topologyCalculators: CalculatorSpec[] = [];
+const KINDS = [
+  { value: 0, label: "skyrmion" },
+  { value: 1, label: "antiskyrmion" },
+  { value: 2, label: "skyrmionium" },
+  { value: 3, label: "skyrmion lattice" },
+  { value: 4, label: "higher-order skyrmion (vorticity input)" },
+  { value: 5, label: "vortex-antivortex pair" },
+];
+
+/** Build the demo texture of the `texture` calculator. Exported for notebooks and tests. */
+export function textureFromInputs(v: InputValues, notes: string[] = []): VectorField {
+  const n = v.n!;
+  const grid: GridSpec = { nx: n, ny: n, dx: v.cell!, periodic: v.boundary === 0 };
+  const bg = v.background === 1 ? -1 : 1;
+  const s = { R: v.R!, w: v.w!, helicity: v.helicity! };
+  const L = n * v.cell!;
+  switch (v.kind) {
+    case 1: return skyrmionTexture(grid, { ...s, vorticity: -1 }, { background: bg });
+    case 2: return skyrmioniumTexture(grid, { ...s, Rinner: s.R / 2 }, { background: bg });
+    case 3: return skyrmionLatticeTexture(grid, { ...s, a: v.a! }, { background: bg });
+    case 4: {
+      let vort = v.vorticity!;
+      if (vort === 0) {
+        notes.push("vorticity 0 describes no skyrmion; vorticity 1 was used");
+        vort = 1;
+      }
+      return skyrmionTexture(grid, { ...s, vorticity: vort }, { background: bg });
+    }
+    case 5:
+      return vortexPairTexture(grid, {
+        vortex: [L / 3 + 0.3 * v.cell!, L / 2 + 0.2 * v.cell!],
+        antivortex: [(2 * L) / 3 + 0.1 * v.cell!, L / 2 + 0.4 * v.cell!],
+        coreRadius: v.w!, vortexPolarity: 1, antivortexPolarity: v.pairPolarity === 1 ? -1 : 1, angle: v.helicity!,
+      });
+    default: return skyrmionTexture(grid, s, { background: bg });
+  }
+}
+
+function computeTexture(v: InputValues): ComputeOutput {
+  const notes: string[] = [];
+  const field = textureFromInputs(v, notes);
+  const boundary = v.boundary === 1 ? "open" : "periodic";
+  if (v.kind === 5 && boundary === "periodic") notes.push("a vortex-antivortex pair is not periodic: choose the open boundary for a meaningful Q");
+  const q = skyrmionNumber(field, { boundary });
+  const cont = continuumSkyrmionNumber(field, { boundary });
+  const objs = findObjects(field, { boundary });
+  const vort = findVortices(field, { boundary });
+  const n = field.nx;
+  const j = Math.floor(n / 2);
+  const lineX: number[] = [], lineMz: number[] = [];
+  for (let i = 0; i < n; i++) {
+    lineX.push(i * field.dx);
+    lineMz.push(field.m[3 * (j * n + i) + 2]!);
+  }
+  if (objs.objects.length === 0) notes.push("no reversed core: no objects");
+  return {
+    status: notes.some((s) => s.startsWith("a vortex")) ? "warning" : "ok",
+    notes,
+    values: {
+      Q: q.Q,
+      Qinteger: q.nearestInteger,
+      Qcontinuum: cont.Q,
+      objectCount: objs.objects.length,
+      vortexCount: vort.vortices,
+      antivortexCount: vort.antivortices,
+      objectX: objs.objects.map((o) => o.center[0]),
+      objectY: objs.objects.map((o) => o.center[1]),
+      objectCharge: objs.objects.map((o) => o.charge),
+      objectRadius: objs.objects.map((o) => o.radius),
+      objectVorticity: objs.objects.map((o) => o.vorticity ?? 0),
+      objectHelicity: objs.objects.map((o) => o.helicity ?? 0),
+      objectKinds: objs.objects.map((o) => o.kind).join(", ") || "(none)",
+      lineX,
+      lineMz,
+      field: Array.from(field.m),
+    },
+  };
+}
+
+export const textureSpec: CalculatorSpec = {
+  id: "texture",
+  title: "Demo texture: topological charge and objects",
+  summary:
+    "Generates an analytic demo texture (skyrmion, antiskyrmion, skyrmionium, skyrmion lattice, higher-order skyrmion or vortex-antivortex pair) on an n x n grid and counts its topology: lattice skyrmion number Q (Berg-Luescher solid angles), a continuum finite-difference estimate beside it, in-plane vortices, and the objects with their charge, centre, radius (area inside m_z = 0), vorticity and helicity.",
+  inputs: [
+    { name: "kind", symbol: "\\text{kind}", unit: "", default: 0, min: 0, max: 5, scale: "linear", kind: "choice", choices: KINDS, meaning: "which texture to generate" },
+    { name: "n", symbol: "n", unit: "", default: 128, min: 16, max: 512, scale: "log", kind: "integer", meaning: "cells along x and y" },
+    { name: "cell", symbol: "\\Delta", unit: "m", default: 1e-9, min: 1e-10, max: 1e-8, scale: "log", meaning: "cell size" },
+    { name: "R", symbol: "R", unit: "m", default: 20e-9, min: 1e-9, max: 100e-9, scale: "log", meaning: "radius where m_z = 0 (outer radius of a skyrmionium)" },
+    { name: "w", symbol: "w", unit: "m", default: 5e-9, min: 5e-10, max: 30e-9, scale: "log", meaning: "wall width of the profile (core radius of a vortex)" },
+    { name: "helicity", symbol: "\\gamma", unit: "", default: 0, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "helicity in rad: 0 outward Neel, pi inward Neel, +-pi/2 Bloch" },
+    { name: "vorticity", symbol: "v", unit: "", default: 2, min: -4, max: 4, scale: "linear", kind: "integer", meaning: "vorticity of the higher-order skyrmion (kind 4)" },
+    { name: "a", symbol: "a", unit: "m", default: 45e-9, min: 10e-9, max: 200e-9, scale: "log", meaning: "target lattice constant of the skyrmion lattice (kind 3)" },
+    { name: "background", symbol: "m_\\infty", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "+z" }, { value: 1, label: "-z" }], meaning: "background direction (cores point the other way)" },
+    { name: "pairPolarity", symbol: "p_1 p_2", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "same core polarities" }, { value: 1, label: "opposite core polarities" }], meaning: "core polarities of the vortex-antivortex pair (kind 5)" },
+    { name: "boundary", symbol: "\\text{bc}", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "periodic" }, { value: 1, label: "open" }], meaning: "boundary of the grid" },
+  ],
+  outputs: [
+    { name: "Q", symbol: "Q", unit: "", meaning: "lattice skyrmion number (exact integer on a periodic grid)" },
+    { name: "Qinteger", symbol: "[Q]", unit: "", meaning: "nearest integer of Q" },
+    { name: "Qcontinuum", symbol: "Q_{\\mathrm{fd}}", unit: "", meaning: "continuum finite-difference estimate of Q (resolution check)" },
+    { name: "objectCount", symbol: "N", unit: "", meaning: "number of objects (reversed-core regions)" },
+    { name: "vortexCount", symbol: "N_v", unit: "", meaning: "plaquettes with in-plane winding +1" },
+    { name: "antivortexCount", symbol: "N_{av}", unit: "", meaning: "plaquettes with in-plane winding -1" },
+    { name: "objectX", symbol: "x_c", unit: "m", kind: "array", meaning: "charge-weighted centres, x" },
+    { name: "objectY", symbol: "y_c", unit: "m", kind: "array", meaning: "charge-weighted centres, y" },
+    { name: "objectCharge", symbol: "Q_i", unit: "", kind: "array", meaning: "charge of each object" },
+    { name: "objectRadius", symbol: "R_i", unit: "m", kind: "array", meaning: "radius sqrt(area inside m_z = 0 / pi)" },
+    { name: "objectVorticity", symbol: "v_i", unit: "", kind: "array", meaning: "vorticity (0 where it cannot be measured)" },
+    { name: "objectHelicity", symbol: "\\gamma_i", unit: "", kind: "array", meaning: "helicity in rad (0 where it cannot be measured)" },
+    { name: "objectKinds", symbol: "\\text{kinds}", unit: "", kind: "text", meaning: "names of the objects" },
+    { name: "lineX", symbol: "x", unit: "m", kind: "array", meaning: "x along the middle row" },
+    { name: "lineMz", symbol: "m_z", unit: "", kind: "array", meaning: "m_z along the middle row" },
+    { name: "field", symbol: "\\mathbf{m}", unit: "", kind: "array", meaning: "the texture: mx, my, mz interleaved, x fastest (3 n^2 numbers)" },
+  ],
+  plots: [
+    { id: "profile", title: "m_z along the middle row", x: "lineX", y: ["lineMz"] },
+    { id: "objects", title: "object centres", x: "objectX", y: ["objectY"], mode: "markers" },
+  ],
+  assumptions: [
+    "analytic demo textures (not simulations): wall profile tan(theta/2) = sinh(R/w)/sinh(rho/w), each cell takes its nearest object",
+    "|m| = 1; Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy, so a core-down skyrmion of vorticity +1 in a +z background has Q = -1",
+    "the lattice Q is an exact integer only on a closed (periodic, vacuum-free) grid",
+  ],
+  sources: [
+    ...LATTICE_Q_SOURCES,
+    "F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (profile)",
+    "N. Nagaosa, Y. Tokura, Nat. Nanotechnol. 8, 899 (2013) (vorticity and helicity)",
+  ],
+  method: "analytic texture generator; Berg-Luescher solid angles; central differences; reversed-core regions grown over the grid",
+  compute: computeTexture,
+};
+
+/** Calculator specs of the topology domain. */
+export const topologyCalculators: CalculatorSpec[] = [textureSpec];

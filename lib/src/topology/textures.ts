@@ -108,7 +108,13 @@ function checkObject(o: TextureObject, k: number): void {
  * A texture of several objects on a uniform background. Each cell takes the profile of its nearest
  * object (objects should be farther apart than a few wall widths beyond their radii).
  */
-export function textureOfObjects(grid: GridSpec, objects: readonly TextureObject[], options: TextureOptions = {}): VectorField {
+export function textureOfObjects(
+  grid: GridSpec,
+  objects: readonly TextureObject[],
+  options: TextureOptions = {},
+  /** Optional shortlist of object indices that may be nearest to (x, y) (default: all objects). */
+  candidates?: (x: number, y: number) => ArrayLike<number>,
+): VectorField {
   const source = options.source ?? "generated texture";
   const geom = gridGeometry(grid, source);
   objects.forEach(checkObject);
@@ -118,7 +124,10 @@ export function textureOfObjects(grid: GridSpec, objects: readonly TextureObject
   return vectorFieldFromFunction(geom, (x, y) => {
     if (objects.length === 0) return [0, 0, bg];
     let best = Infinity, ex = 0, ey = 0, o: TextureObject = objects[0]!;
-    for (const obj of objects) {
+    const list = candidates ? candidates(x, y) : null;
+    const count = list ? list.length : objects.length;
+    for (let q = 0; q < count; q++) {
+      const obj = objects[list ? list[q]! : q]!;
       const [px, py] = disp(x, y, obj.x, obj.y);
       const d = px * px + py * py;
       if (d < best) { best = d; ex = px; ey = py; o = obj; }
@@ -207,7 +216,20 @@ export function skyrmionLatticeTexture(grid: GridSpec, s: SkyrmionLatticeSpec, o
       objects.push(o);
     }
   }
-  const field = textureOfObjects({ ...grid, periodic: true }, objects, { source: "generated skyrmion lattice", ...options });
+  // the nearest centre lies within two rows and one column of the cell: 15 candidates instead of all
+  const rowH = Ly / rows, colW = Lx / cols;
+  const list = new Int32Array(15);
+  const near = (x: number, y: number) => {
+    const r0 = Math.floor(y / rowH);
+    let k = 0;
+    for (let dr = -2; dr <= 2; dr++) {
+      const r = (((r0 + dr) % rows) + rows) % rows;
+      const c0 = Math.floor((x - (0.25 + 0.5 * (r % 2)) * colW) / colW);
+      for (let dc = 0; dc <= 2; dc++) list[k++] = r * cols + ((((c0 + dc - 1) % cols) + cols) % cols);
+    }
+    return list;
+  };
+  const field = textureOfObjects({ ...grid, periodic: true }, objects, { source: "generated skyrmion lattice", ...options }, near);
   return Object.assign(field, { centres });
 }
 
