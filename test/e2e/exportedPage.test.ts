@@ -47,7 +47,7 @@ async function moveSlider(page: Page, explorer: string, input: string, position:
 async function settled(page: Page, explorer: string): Promise<void> {
   await page.waitForFunction((sel) => {
     const root = document.querySelector(sel) as HTMLElement | null;
-    return !!root && root.dataset.busy === "" && !!root.querySelector(".hx-plot[data-drawn]");
+    return !!root && root.dataset.busy === "" && root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]");
   }, explorer, { timeout: 20_000 });
   await page.waitForTimeout(50);
 }

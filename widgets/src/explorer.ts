@@ -84,6 +84,7 @@ export class ExplorerView extends DOMWidgetView {
   private resizeObserver: ResizeObserver | null = null;
   /** Performance marks: set when a slider input starts a recompute. */
   private pendingMark: string | null = null;
+  private drawingToken: object | null = null;
 
   override render(): void {
     this.el.classList.add("hx-explorer");
@@ -94,6 +95,7 @@ export class ExplorerView extends DOMWidgetView {
     this.el.replaceChildren();
     this.el.dataset.calculator = calculator || this.spec?.id || "";
     this.el.dataset.mode = this.local ? "browser" : "kernel";
+    this.el.dataset.drawing = "";
     if (!this.spec) {
       this.el.append(el("div", { class: "hx-error", text: resolved.note || "No calculator spec in the widget state." }));
       return;
@@ -121,6 +123,7 @@ export class ExplorerView extends DOMWidgetView {
     results.append(this.outputsEl);
     const plots = el("div", { class: "hx-plots" });
     this.plotEls = spec.plots.map((p) => {
+      plots.append(el("div", { class: "hx-plot-title", text: p.title }));
       const d = el("div", { class: "hx-plot", "data-plot": p.id });
       plots.append(d);
       return d;
@@ -345,6 +348,8 @@ export class ExplorerView extends DOMWidgetView {
   private applyOutcome(o: ComputeOutcome): void {
     if (o.seq <= this.appliedSeq) return;
     this.appliedSeq = o.seq;
+    this.el.dataset.computeMs = String(o.ms);
+    performance.mark("hx-result-arrived");
     if (o.ok) {
       this.model.set({ result: o.result, error: "" });
     } else {
@@ -414,7 +419,9 @@ export class ExplorerView extends DOMWidgetView {
       for (const n of result.notes ?? []) notes.append(el("li", { text: n }));
       this.outputsEl.append(notes);
     }
-    spec.plots.forEach((plot, k) => {
+    // The first (main) plot is drawn at once; the others just after, so it shows sooner.
+    const drawPlot = (k: number): Promise<unknown> => {
+      const plot = spec.plots[k]!;
       const target = this.plotEls[k]!;
       target.hidden = false;
       const fig = plotFigure(plot, spec.outputs, result);
@@ -422,23 +429,45 @@ export class ExplorerView extends DOMWidgetView {
         Plotly.purge(target);
         delete target.dataset.drawn;
         target.replaceChildren(el("div", { class: "hx-error", text: `Plot '${plot.title}': ${fig.problem}` }));
-        return;
+        return Promise.resolve();
       }
       if (!target.dataset.drawn) target.replaceChildren();
-      void Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
+      return Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
         target.dataset.drawn = "1";
-        this.markDone();
+        if (k === 0) this.markFirstPlot();
       });
+    };
+    const draws: Promise<unknown>[] = [];
+    const drawing = (this.drawingToken = {});
+    this.el.dataset.drawing = "1";
+    if (spec.plots.length > 0) {
+      const first = drawPlot(0);
+      draws.push(first);
+      for (let k = 1; k < spec.plots.length; k++) draws.push(first.then(() => new Promise((r) => setTimeout(r, 0))).then(() => drawPlot(k)));
+    }
+    void Promise.all(draws).then(() => {
+      if (drawing === this.drawingToken) this.el.dataset.drawing = "";
+      this.markDone();
     });
-    if (spec.plots.length === 0) this.markDone();
   }
 
+  /** The first (main) plot shows the new result: "hx-slider-to-plot". */
+  private markFirstPlot(): void {
+    if (!this.pendingMark || this.coalescer?.busy) return;
+    performance.mark(`${this.pendingMark}-first`);
+    try {
+      performance.measure("hx-slider-to-plot", this.pendingMark, `${this.pendingMark}-first`);
+      performance.measure("hx-result-to-plot", "hx-result-arrived", `${this.pendingMark}-first`);
+    } catch { /* marks cleared */ }
+  }
+
+  /** Every plot and the table show it: "hx-slider-to-all-plots". */
   private markDone(): void {
     if (!this.pendingMark) return;
     const start = this.pendingMark;
     this.pendingMark = null;
     if (this.coalescer?.busy) { this.pendingMark = start; return; }
     performance.mark(`${start}-done`);
-    try { performance.measure("hx-slider-to-plot", start, `${start}-done`); } catch { /* marks cleared */ }
+    try { performance.measure("hx-slider-to-all-plots", start, `${start}-done`); } catch { /* marks cleared */ }
   }
 }

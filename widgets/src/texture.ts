@@ -52,6 +52,7 @@ export class TextureView extends DOMWidgetView {
   private messageEl!: HTMLElement;
   private density: Float32Array | null = null;
   private imageData: ImageData | null = null;
+  private chargeToken: object | null = null;
 
   override render(): void {
     this.el.classList.add("hx-texture");
@@ -135,17 +136,33 @@ export class TextureView extends DOMWidgetView {
     if (!this.imageData || this.imageData.width !== nx || this.imageData.height !== ny) this.imageData = ctx.createImageData(nx, ny);
     fillColours(field, nx, ny, this.imageData.data);
     const showCharge = this.model.get("overlay") === "charge";
-    if (showCharge || !this.density) {
-      const given = asFloat32(this.model.get("density"));
-      this.density = given && given.length === (nx - 1) * (ny - 1) ? given : this.density ?? chargeDensity(field, nx, ny);
-    }
+    const given = asFloat32(this.model.get("density"));
+    if (!this.density && given && given.length === (nx - 1) * (ny - 1)) this.density = given;
+    if (showCharge && !this.density) this.density = chargeDensity(field, nx, ny);
     if (showCharge && this.density) overlayCharge(this.density, nx, ny, this.imageData.data);
     ctx.putImageData(this.imageData, 0, 0);
-    const Q = this.density ? total(this.density) : NaN;
-    const dx = this.model.get("dx") as number, dy = this.model.get("dy") as number;
-    this.summary.textContent = `${nx} × ${ny} cells of ${formatQuantity(dx, "m")} × ${formatQuantity(dy, "m")}; topological charge Q = ${Number.isFinite(Q) ? Q.toFixed(3) : "n/a"}`;
-    this.el.dataset.charge = String(Q);
     this.drawArrows(field, nx, ny, cssW, cssH);
+    const dx = this.model.get("dx") as number, dy = this.model.get("dy") as number;
+    const cells = `${nx} × ${ny} cells of ${formatQuantity(dx, "m")} × ${formatQuantity(dy, "m")}`;
+    const showTotal = () => {
+      const Q = total(this.density!);
+      this.summary.textContent = `${cells}; topological charge Q = ${Q.toFixed(3)}`;
+      this.el.dataset.charge = String(Q);
+    };
+    if (this.density) showTotal();
+    else {
+      // The charge is not needed for the first picture: compute it right after.
+      this.summary.textContent = `${cells}; topological charge: computing…`;
+      const token = (this.chargeToken = {});
+      setTimeout(() => {
+        if (token !== this.chargeToken) return;
+        performance.mark("hx-charge-start");
+        this.density = chargeDensity(field, nx, ny);
+        showTotal();
+        performance.mark("hx-charge-end");
+        try { performance.measure("hx-texture-charge", "hx-charge-start", "hx-charge-end"); } catch { /* ignore */ }
+      }, 0);
+    }
     performance.mark("hx-texture-end");
     try { performance.measure("hx-texture-render", "hx-texture-start", "hx-texture-end"); } catch { /* ignore */ }
   }

@@ -62,8 +62,8 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
   }
   if (data.length === 0) return { data: [], layout: {}, problem: `outputs ${missing.join(", ")} of '${plot.title}' are not in the result` };
   const layout = {
-    title: { text: plot.title, font: { size: 14 } },
-    margin: { l: 60, r: 16, t: 36, b: 44 },
+    // The plot's title is drawn by the view above the plot (cheaper for plotly to redraw).
+    margin: { l: 60, r: 16, t: 12, b: 44 },
     height: 300,
     autosize: true,
     showlegend: data.length > 1,
