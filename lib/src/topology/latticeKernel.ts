@@ -44,7 +44,14 @@ export function solidAngleSumSquare(
       // a . (b x c) and a . (c x d)
       const t1 = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
       const t2 = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
-      rowSum += Math.atan2(t1, 1 + ab + bc + ca) + Math.atan2(t2, 1 + ca + cd + da);
+      const d1 = 1 + ab + bc + ca, d2 = 1 + ca + cd + da;
+      if (d1 > 0 && d2 > 0) {
+        // Both half-angles lie in (-pi/2, pi/2), so their sum lies in (-pi, pi) and equals the argument of
+        // (d1 + i t1)(d2 + i t2): one atan2 for the plaquette instead of two. Exact same branch, no wrap.
+        rowSum += Math.atan2(t1 * d2 + t2 * d1, d1 * d2 - t1 * t2);
+      } else {
+        rowSum += Math.atan2(t1, d1) + Math.atan2(t2, d2);
+      }
       ax = bx; ay = by; az = bz;
       dx = cx; dy = cy; dz = cz;
     }
