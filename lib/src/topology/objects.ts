@@ -87,6 +87,16 @@ export interface ObjectOptions {
 export const OBJECT_DEFINITIONS =
   "centre: charge-weighted mean position; radius: sqrt(area inside m_z = 0 / pi); vorticity: winding of the in-plane angle on that circle; helicity: circular mean of Phi - v*phi on it (0 outward Neel, pi inward Neel, +-pi/2 Bloch)";
 
+/** Index of the q-th 4-neighbour (east, west, north, south) of cell (i, j); -1 outside an open edge. */
+function neighbour(i: number, j: number, q: number, nx: number, ny: number, wrapX: boolean, wrapY: boolean): number {
+  let ii = i, jj = j;
+  if (q === 0) { ii++; if (ii === nx) { if (!wrapX) return -1; ii = 0; } }
+  else if (q === 1) { ii--; if (ii < 0) { if (!wrapX) return -1; ii = nx - 1; } }
+  else if (q === 2) { jj++; if (jj === ny) { if (!wrapY) return -1; jj = 0; } }
+  else { jj--; if (jj < 0) { if (!wrapY) return -1; jj = ny - 1; } }
+  return jj * nx + ii;
+}
+
 /** Connected components of cells with flag[c] = 1 (4-neighbour). Returns labels (-1 = none) and sizes. */
 function components(flag: Uint8Array, nx: number, ny: number, wrapX: boolean, wrapY: boolean): { label: Int32Array; sizes: number[] } {
   const n = nx * ny;
@@ -102,13 +112,10 @@ function components(flag: Uint8Array, nx: number, ny: number, wrapX: boolean, wr
     while (head < tail) {
       const c = queue[head++]!;
       const i = c % nx, j = (c - i) / nx;
-      const visit = (ii: number, jj: number) => {
-        if (ii < 0) { if (!wrapX) return; ii += nx; } else if (ii >= nx) { if (!wrapX) return; ii -= nx; }
-        if (jj < 0) { if (!wrapY) return; jj += ny; } else if (jj >= ny) { if (!wrapY) return; jj -= ny; }
-        const d = jj * nx + ii;
-        if (flag[d] === 1 && label[d] === -1) { label[d] = id; queue[tail++] = d; }
-      };
-      visit(i + 1, j); visit(i - 1, j); visit(i, j + 1); visit(i, j - 1);
+      for (let q = 0; q < 4; q++) {
+        const d = neighbour(i, j, q, nx, ny, wrapX, wrapY);
+        if (d >= 0 && flag[d] === 1 && label[d] === -1) { label[d] = id; queue[tail++] = d; }
+      }
     }
     sizes.push(tail);
   }
@@ -168,9 +175,9 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
         const edge = (!wrapX && (i === 0 || i === nx - 1)) || (!wrapY && (j === 0 || j === ny - 1));
         let nearVac = false;
         if (vacuum !== null) {
-          for (const [ii, jj] of [[i + 1, j], [i - 1, j], [i, j + 1], [i, j - 1]] as const) {
-            const wi = (ii + nx) % nx, wj = (jj + ny) % ny;
-            if (isVac(wj * nx + wi)) nearVac = true;
+          for (let q = 0; q < 4; q++) {
+            const d = neighbour(i, j, q, nx, ny, true, true);
+            if (isVac(d)) nearVac = true;
           }
         }
         if (edge || nearVac) outside[id] = 1;
@@ -224,12 +231,9 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
     const c = queue[head++]!;
     const i = c % nx, j = (c - i) / nx;
     const o = basin[c]!;
-    for (const [ii0, jj0] of [[i + 1, j], [i - 1, j], [i, j + 1], [i, j - 1]] as const) {
-      let ii = ii0, jj = jj0;
-      if (ii < 0 || ii >= nx) { if (!wrapX) continue; ii = (ii + nx) % nx; }
-      if (jj < 0 || jj >= ny) { if (!wrapY) continue; jj = (jj + ny) % ny; }
-      const d = jj * nx + ii;
-      if (basin[d] === -1 && !isVac(d)) { basin[d] = o; queue[tail++] = d; }
+    for (let q = 0; q < 4; q++) {
+      const d = neighbour(i, j, q, nx, ny, wrapX, wrapY);
+      if (d >= 0 && basin[d] === -1 && !isVac(d)) { basin[d] = o; queue[tail++] = d; }
     }
   }
 
