@@ -113,9 +113,10 @@ export class FitPanelView extends DOMWidgetView {
     const yl = `${this.model.get("y_label")}${this.model.get("y_unit") ? ` (${this.model.get("y_unit")})` : ""}`;
     const layout = {
       height: 380, autosize: true, margin: { l: 60, r: 20, t: 20, b: 50 },
-      xaxis: { title: { text: xl } },
-      yaxis: { title: { text: yl }, domain: [0.32, 1] },
-      yaxis2: { title: { text: "residual" }, domain: [0, 0.24], zeroline: true, anchor: "x" },
+      // One x axis at the bottom (under the residuals), shared by both panels.
+      xaxis: { title: { text: xl }, anchor: "y2" },
+      yaxis: { title: { text: yl }, domain: [0.34, 1], anchor: "x" },
+      yaxis2: { title: { text: "residual" }, domain: [0, 0.26], zeroline: true, anchor: "x" },
       legend: { orientation: "h" },
     };
     void Plotly.react(this.plotEl, data, layout, { displaylogo: false, responsive: true });
