@@ -107,4 +107,44 @@ ex`);
     expect(Number(await row.getAttribute("data-value"))).toBeCloseTo(spec.inputs.find((i) => i.name === "Ms")!.max * 0.9, 3);
     await screenshot(page, "live-explorer", root);
   });
+
+  it("(c) a kernel-function explorer computes in the kernel on each page change", async () => {
+    await run(`function cellVolume(v: Record<string, number>) { return { volume: v.a * v.a * v.t }; }
+const kx = explore(cellVolume, { a: "3 nm" }, { describe: { title: "cell volume", inputs: [{ name: "a", default: 2e-9, unit: "m", min: 1e-9, max: 1e-8 }, { name: "t", default: 1e-9, unit: "m", min: 1e-10, max: 5e-9 }], outputs: [{ name: "volume", unit: "m^3" }] } });
+kx`);
+    const root = '.hx-live-output .hx-explorer[data-calculator="cellVolume"]';
+    await page.waitForSelector(`${root} tr[data-output="volume"]`);
+    expect(await page.locator(`${root} .hx-badge`).textContent()).toContain("computed by the kernel");
+    const entry = page.locator(`${root} .hx-control[data-input="t"] input.hx-entry`);
+    await entry.fill("2 nm");
+    await entry.press("Enter");
+    // Source: arithmetic, (3 nm)^2 * 2 nm = 1.8e-26 m^3.
+    await expect.poll(async () => Number(await page.locator(`${root} tr[data-output="volume"]`).getAttribute("data-value")), { timeout: 15_000 }).toBeCloseTo(1.8e-26, 35);
+    expect(Number((await run("kx.result.outputs.volume.value")).text.trim())).toBeCloseTo(1.8e-26, 35);
+  });
+
+  it("(d) a figure widget is redrawn in place and the fit panel's buttons reach kernel callbacks", async () => {
+    await run(`import { figureWidget, fitPanel } from "@helicoid/kernel";
+const fw = figureWidget({ data: [{ type: "scatter", y: [1, 2, 3] }] });
+fw`);
+    const fig = page.locator(".hx-live-output .hx-figure").last();
+    await expect.poll(() => fig.getAttribute("data-draws"), { timeout: 15_000 }).toBe("1");
+    await run("fw.update({ data: [{ type: 'scatter', y: [5, 6, 7, 8] }] }); 0");
+    await expect.poll(() => fig.getAttribute("data-draws"), { timeout: 15_000 }).toBe("2");
+    expect(await fig.evaluate((el) => (el.querySelector(".hx-figure-plot") as any).data[0].y)).toEqual([5, 6, 7, 8]);
+
+    await run(`const fp = fitPanel({ title: "invented", x: [0, 1], y: [0, 1] });
+const heard: string[] = [];
+fp.onStart((p) => { heard.push("start"); p.update({ status: "running", progress: 0.25, message: "iterating" }); });
+fp.onStop((p) => { heard.push("stop"); p.update({ status: "stopped" }); });
+fp`);
+    const panel = page.locator(".hx-live-output .hx-fit").last();
+    await panel.locator(".hx-fit-start").click();
+    await expect.poll(() => panel.getAttribute("data-status"), { timeout: 15_000 }).toBe("running");
+    expect(Number(await panel.locator("progress").evaluate((p) => (p as HTMLProgressElement).value))).toBe(0.25);
+    await panel.locator(".hx-fit-stop").click();
+    await expect.poll(() => panel.getAttribute("data-status"), { timeout: 15_000 }).toBe("stopped");
+    expect((await run("heard.join(',')")).text.trim()).toContain("start,stop");
+    await screenshot(page, "live-fit-panel", ".hx-live-output .hx-fit >> nth=-1");
+  });
 });
