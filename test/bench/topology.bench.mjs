@@ -71,7 +71,7 @@ export default async () => {
     writeFileSync(path, lib.writeNpyVectorField(field));
     const ours = await medianMs(() => lib.skyrmionNumber(field, { boundary: "periodic" }), { runs: 11, warmup: 2 });
     const Q = lib.skyrmionNumber(field, { boundary: "periodic" }).Q;
-    const np = pythonTiming(NUMPY_Q, { path, runs: 3 });
+    const np = pythonTiming(NUMPY_Q, { path, runs: 5 });
     rows.push({
       group: "topology", name: `lattice Q ${n}x${n}, 1 thread (Q = ${Q.toFixed(6)}, numpy ${np.Q.toFixed(6)})`,
       ours_ms: ours, reference: "numpy vectorized, same formula", reference_ms: np.ms, ratio: ours / np.ms, goal: "ratio <= 0.2",

@@ -118,7 +118,7 @@ export function plaquetteCentre(field: VectorField, i: number, j: number): [numb
     : [(i + 0.5) * field.dx, (j + 0.5) * field.dy];
 }
 
-/** Skyrmion number of every layer of a (3D) field, lower layer first. */
+/** Skyrmion number of every layer of a (3D) field, lower layer first (0 for a layer that is all vacuum). */
 export function skyrmionNumberPerLayer(field: VectorField, options: Omit<SkyrmionNumberOptions, "layer" | "density"> = {}): number[] {
   const out: number[] = [];
   for (let k = 0; k < field.nz; k++) {
