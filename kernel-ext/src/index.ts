@@ -11,3 +11,6 @@ export * from "./widgets/index.js";
 export * from "./display/index.js";
 export { comms, Comm, CommManager } from "./comm/comms.js";
 export { KERNEL_VERSION } from "./version.js";
+export { readVectorFieldFile, type FileReadOptions } from "./io/readFieldFile.js";
+export { parallelSkyrmionNumber, closeChargeWorkers, type ParallelChargeResult } from "./parallel/parallelSkyrmionNumber.js";
+export { runNotebookFile, type RunResult } from "./notebook/runner.js";

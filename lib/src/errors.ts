@@ -16,7 +16,8 @@ export class InputError extends Error {
     readonly value: unknown,
     /** What was expected, in words: "a positive length", "shape (ny, nx, 3)". */
     readonly expected: string,
-    detail?: string,
+    /** More about the problem, if anything. */
+    readonly detail?: string,
   ) {
     super(
       `${parameter} = ${describeValue(value)} is not valid: expected ${expected}` +

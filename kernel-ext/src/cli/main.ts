@@ -12,7 +12,6 @@
  *   helicoid charge FILE [--json]            topological charge of a vector field file
  *   helicoid fit FILE --model ID [--json]    fit a measured line profile
  */
-import { join } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
 import { processIO, UsageError, type CommandIO } from "./args.js";
 
@@ -24,26 +23,13 @@ const commands: Record<string, { load: () => Command; help: string }> = {
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT]             execute a notebook in process, no Jupyter needed" },
-  export: { load: () => optional("../notebook/export.js", "exportCommand"), help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live" },
+  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live" },
   lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)" },
-  charge: { load: () => optional("./charge.js", "chargeCommand"), help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
-  fit: { load: () => optional("./fit.js", "fitCommand"), help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)" },
+  charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
+  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)" },
 };
-
-function optional(path: string, name: string): Command {
-  try {
-    const mod = require(join(__dirname, path));
-    if (typeof mod[name] === "function") return mod[name];
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code !== "MODULE_NOT_FOUND") throw err;
-  }
-  return async (_args, io) => {
-    io.stderr(`this command is not available in this build (${path} is missing)\n`);
-    return 2;
-  };
-}
 
 export function usage(): string {
   return `helicoid ${KERNEL_VERSION}: TypeScript notebooks, widgets and calculators for magnetic textures\n\nusage: helicoid COMMAND ...\n\n${Object.values(commands)

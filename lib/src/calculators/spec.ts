@@ -161,7 +161,17 @@ export function runCalculator(
 ): CalculatorResult {
   const inputs = coerceInputs(spec, raw);
   const sweep = options.sweep ?? defaultSweep(spec, inputs);
-  const computed = spec.compute(inputs, sweep ? { sweep } : {});
+  let computed: ComputeOutput;
+  try {
+    computed = spec.compute(inputs, sweep ? { sweep } : {});
+  } catch (err) {
+    // The compute function sees SI numbers; name the value as the user gave it ("-15 pJ/m").
+    const given = err instanceof InputError ? raw[err.parameter] : undefined;
+    if (err instanceof InputError && given !== undefined && given !== err.value) {
+      throw new InputError(err.parameter, given, err.expected, [`(${err.parameter} = ${err.value} in SI)`, err.detail].filter(Boolean).join(" "));
+    }
+    throw err;
+  }
   const outputs: CalculatorResult["outputs"] = {};
   for (const o of spec.outputs) {
     const v = computed.values[o.name];

@@ -1,0 +1,67 @@
+/**
+ * `helicoid calc`: any catalogue calculator from the shell, values with units, JSON in SI.
+ * The physics of each calculator is tested in test/lib; here the command's contract is checked,
+ * and its numbers against the closed forms they print (Delta = sqrt(A/K_eff), sigma = 4 sqrt(A K_eff) - pi |D|).
+ */
+import { describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { helicoidBin } from "../../helpers/paths.js";
+
+function calc(...args: string[]) {
+  const r = spawnSync(process.execPath, [helicoidBin, "calc", ...args], { encoding: "utf8", timeout: 60_000 });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+describe("helicoid calc", () => {
+  it("runs the wall calculator with units and prints SI JSON", () => {
+    const r = calc("wall", "Ms=1.1MA/m", "A=15pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j).toMatchObject({ id: "wall", status: "ok" });
+    expect(j.inputs.A).toEqual({ value: 1.5e-11, unit: "J/m" });
+    expect(j.inputs.Ms.value).toBeCloseTo(1.1e6, 3);
+    for (const k of ["width", "energy", "criticalDmi", "exchangeLength", "effectiveAnisotropy", "qualityFactor"]) expect(j.outputs[k], k).toBeDefined();
+    // Source: Landau-Lifshitz wall (Hubert & Schaefer, Magnetic Domains, 1998); Thiaville et al., EPL 100, 57002 (2012).
+    const mu0 = 1.25663706212e-6; // CODATA 2018
+    const Keff = 1.2e6 - (mu0 * 1.1e6 ** 2) / 2;
+    expect(j.outputs.effectiveAnisotropy).toEqual({ value: expect.closeTo(Keff, 6), unit: "J/m^3" });
+    expect(j.outputs.width.value / Math.sqrt(1.5e-11 / Keff) - 1).toBeLessThan(1e-12);
+    expect(Math.abs(j.outputs.energy.value / (4 * Math.sqrt(1.5e-11 * Keff) - Math.PI * 1.5e-3) - 1)).toBeLessThan(1e-12);
+    expect(j.outputs.width.unit).toBe("m");
+  });
+
+  it("gives sweep outputs as arrays, and a sweep of our choosing", () => {
+    const r = calc("skyrmion", "B=50mT", "--sweep", "B=0mT:100mT:11", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    for (const k of ["radius", "wallWidth", "energy"]) expect(typeof j.outputs[k].value, k).toBe("number");
+    expect(Array.isArray(j.outputs.fieldSweep.value)).toBe(true);
+    expect(j.outputs.fieldSweep.value.length).toBeLessThanOrEqual(11);
+    expect(j.outputs.radiusSweep.value.length).toBe(j.outputs.fieldSweep.value.length);
+    expect(j.sweep).toEqual({ over: "B", from: 0, to: 0.1, points: 11 });
+  });
+
+  it("lists the catalogue with inputs and outputs", () => {
+    const r = calc("--list", "--json");
+    expect(r.status).toBe(0);
+    const list = JSON.parse(r.stdout) as Array<{ id: string; inputs: Array<{ name: string }>; outputs: Array<{ name: string }> }>;
+    const ids = list.map((s) => s.id);
+    for (const id of ["wall", "wall360", "skyrmion", "skyrmion-profile", "wall-type"]) expect(ids).toContain(id);
+    expect(list.find((s) => s.id === "wall")!.inputs.map((i) => i.name)).toEqual(["Ms", "A", "Ku", "D", "t"]);
+  });
+
+  it("refuses bad input naming the parameter, the value and what was expected", () => {
+    let r = calc("wall", "A=50mT");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/A = "50mT" is not valid: expected a quantity of the dimension of J\/m/);
+    r = calc("wall", "A=-15pJ/m", "--json");
+    expect(r.status).toBe(2);
+    const j = JSON.parse(r.stdout);
+    expect(j.status).toBe("error");
+    expect(j.error).toMatchObject({ type: "InputError", parameter: "A", value: "-15pJ/m" });
+    r = calc("wall", "Aex=15pJ/m");
+    expect(r.stderr).toMatch(/Aex = "15pJ\/m" is not valid: expected one of the inputs of 'wall'/);
+    r = calc("nosuch");
+    expect(r.stderr).toMatch(/calculator = "nosuch" is not valid: expected one of the catalogue ids/);
+  });
+});
