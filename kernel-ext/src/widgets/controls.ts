@@ -94,6 +94,21 @@ abstract class BoundedNumber extends ValueWidget<number, SliderState> {
   }
 }
 
+/** The attributes every slider of the standard set has, from the options given. */
+function sliderLook(o: SliderOptions, readoutFormat: string): Record<string, unknown> {
+  return {
+    description: o.description ?? "",
+    description_allow_html: false,
+    behavior: "drag-tap",
+    continuous_update: o.continuous_update ?? true,
+    orientation: o.orientation ?? "horizontal",
+    readout: true,
+    readout_format: o.readout_format ?? readoutFormat,
+    disabled: o.disabled ?? false,
+    tooltip: o.tooltip ?? null,
+  };
+}
+
 function checkRange(kind: string, o: SliderOptions, dflt: { min: number; max: number }): { min: number; max: number } {
   const min = o.min ?? dflt.min;
   const max = o.max ?? dflt.max;
@@ -111,15 +126,7 @@ export class FloatSlider extends BoundedNumber {
       min,
       max,
       step: o.step ?? 0.1,
-      description: o.description ?? "",
-      description_allow_html: false,
-      behavior: "drag-tap",
-      continuous_update: o.continuous_update ?? true,
-      orientation: o.orientation ?? "horizontal",
-      readout: true,
-      readout_format: o.readout_format ?? ".2f",
-      disabled: o.disabled ?? false,
-      tooltip: o.tooltip ?? null,
+      ...sliderLook(o, ".2f"),
     });
   }
 }
@@ -132,15 +139,7 @@ export class IntSlider extends BoundedNumber {
       min: Math.ceil(min),
       max: Math.floor(max),
       step: Math.max(1, Math.round(o.step ?? 1)),
-      description: o.description ?? "",
-      description_allow_html: false,
-      behavior: "drag-tap",
-      continuous_update: o.continuous_update ?? true,
-      orientation: o.orientation ?? "horizontal",
-      readout: true,
-      readout_format: o.readout_format ?? "d",
-      disabled: o.disabled ?? false,
-      tooltip: o.tooltip ?? null,
+      ...sliderLook(o, "d"),
     });
   }
   protected override coerce(key: string, value: unknown): unknown {
@@ -160,15 +159,7 @@ export class FloatLogSlider extends ValueWidget<number, SliderState & { base: nu
       max,
       step: o.step ?? 0.1,
       base,
-      description: o.description ?? "",
-      description_allow_html: false,
-      behavior: "drag-tap",
-      continuous_update: o.continuous_update ?? true,
-      orientation: o.orientation ?? "horizontal",
-      readout: true,
-      readout_format: o.readout_format ?? ".3g",
-      disabled: o.disabled ?? false,
-      tooltip: o.tooltip ?? null,
+      ...sliderLook(o, ".3g"),
     });
   }
   protected override coerce(key: string, value: unknown): unknown {
