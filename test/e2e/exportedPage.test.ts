@@ -89,6 +89,12 @@ beforeAll(async () => {
     parameters: [{ name: "slope", unit: "", value: 1.02, uncertainty: 0.03 }], status: "done", progress: 1, iterations: 7, reduced_chi2: 1.1, message: "converged",
   });
   nb.code("figure({...})", [{ output_type: "display_data", metadata: {}, data: { "application/vnd.plotly.v1+json": { data: [{ type: "bar", x: ["a", "b"], y: [2, 3] }], layout: { title: { text: "plotly output" } } }, "text/plain": "Figure(1 trace)" } }]);
+  const sliderId = nb.model("FloatSliderModel", "@jupyter-widgets/controls", "2.0.0", {
+    _model_name: "FloatSliderModel", _model_module: "@jupyter-widgets/controls", _model_module_version: "2.0.0",
+    _view_name: "FloatSliderView", _view_module: "@jupyter-widgets/controls", _view_module_version: "2.0.0",
+    value: 3, min: 0, max: 10, step: 0.5, description: "x",
+  });
+  nb.code("slider({ value: 3 })", [nb.viewOutput(sliderId, "FloatSlider(value=3)")]);
   nb.code('console.log("hello")', [{ output_type: "stream", name: "stdout", text: ["hello\n"] }]);
   const html = exportNotebook(nb.build(), { bundle, sourceName: "exported-test.ipynb" });
   mkdirSync(join(outputDir, "export"), { recursive: true });
@@ -108,7 +114,10 @@ const wall = '.hx-explorer[data-calculator="test-wall-width"][data-mode="browser
 
 describe("exported page", () => {
   it("renders every saved widget and the plotly output, with no network", async () => {
-    expect(await page.evaluate(() => document.body.dataset.helicoidWidgets)).toBe(String(hasSkyrmion ? 6 : 5));
+    expect(await page.evaluate(() => document.body.dataset.helicoidWidgets)).toBe(String(hasSkyrmion ? 7 : 6));
+    // A standard control (driven by kernel code) renders with its saved value and says it needs the kernel.
+    expect(await page.locator(".widget-slider .widget-readout").first().textContent()).toBe("3.00");
+    expect(await page.locator(".hx-static-note").count()).toBe(1);
     expect(await page.locator(".hx-plotly-output .main-svg").count()).toBeGreaterThan(0);
     expect(await page.locator("main h1").textContent()).toBe("Exported explorers");
     expect(await page.locator(".hx-markdown-cell table td").count()).toBe(2);

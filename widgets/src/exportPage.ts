@@ -52,6 +52,14 @@ async function renderWidgets(root: ParentNode): Promise<number> {
       const view = await manager.create_view(model);
       await manager.display_view(view, host);
       shown++;
+      // Standard controls were driven by kernel code: say that they only show their last state.
+      const module = model.get("_model_module") as string;
+      if (module === "@jupyter-widgets/controls" && model.get("_model_name") !== "OutputModel") {
+        const note = document.createElement("div");
+        note.className = "hx-static-note";
+        note.textContent = "Kernel widget: its last state is shown; it runs only with the kernel (open the notebook in Jupyter with the helicoid kernel).";
+        host.after(note);
+      }
       tag.parentElement!.querySelector(".hx-widget-fallback")?.remove();
     } catch (err) {
       host.textContent = `Could not show widget ${model_id}: ${(err as Error)?.message ?? String(err)}`;
