@@ -4,15 +4,33 @@
  * way JupyterLab does, its plugin registers the module "@helicoid/widgets" and the views render.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
-import { existsSync, readFileSync, statSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { tmpdir } from "node:os";
 import { join, extname } from "node:path";
 import { launchBrowser, buildPage, screenshot, repoRoot, type Browser } from "./harness";
 import { skyrmionField } from "../widgets/fixtures/notebook";
 import { testWallSpec } from "../widgets/fixtures/testSpecs";
 import { runCalculator } from "../../lib/src/index";
 
-const ext = join(repoRoot, "widgets", "labextension");
+const built = join(repoRoot, "widgets", "labextension");
 let browser: Browser;
+
+/**
+ * Where JupyterLab would find the extension: `helicoid install --prefix` copies it to
+ * <prefix>/share/jupyter/labextensions/@helicoid/widgets (used when the command is built),
+ * else the build output itself.
+ */
+function installedExtension(): string {
+  const bin = join(repoRoot, "kernel-ext", "bin", "helicoid.js");
+  if (!existsSync(join(repoRoot, "kernel-ext", "dist", "cli", "main.js"))) return built;
+  const prefix = mkdtempSync(join(tmpdir(), "helicoid-labext-"));
+  const r = spawnSync(process.execPath, [bin, "install", "--prefix", prefix], { encoding: "utf8" });
+  if (r.status !== 0) throw new Error(`helicoid install failed: ${r.stderr}`);
+  return join(prefix, "share", "jupyter", "labextensions", "@helicoid", "widgets");
+}
+const ext = installedExtension();
+afterAll(() => { if (ext !== built) rmSync(join(ext, "..", "..", "..", "..", ".."), { recursive: true, force: true }); });
 
 const types: Record<string, string> = { ".js": "text/javascript", ".json": "application/json", ".html": "text/html" };
 
