@@ -102,6 +102,8 @@ beforeAll(async () => {
   writeFileSync(pagePath, html);
   browser = await launchBrowser();
   page = await browser.newPage();
+  // No network: any request that is not the page file itself fails.
+  await page.route(/^(?!file:).*/, (route) => route.abort());
   await page.goto(`file://${pagePath}`);
   await page.waitForSelector("body[data-helicoid-ready]", { timeout: 60_000 });
 }, 180_000);
@@ -121,6 +123,8 @@ describe("exported page", () => {
     expect(await page.locator(".hx-plotly-output .main-svg").count()).toBeGreaterThan(0);
     expect(await page.locator("main h1").textContent()).toBe("Exported explorers");
     expect(await page.locator(".hx-markdown-cell table td").count()).toBe(2);
+    // Catalogue explorers compute in a Web Worker started from the page itself (a Blob URL).
+    expect(await page.locator(`${wall} .hx-badge`).textContent()).toContain("Web Worker");
     await screenshot(page, "export-page");
   });
 

@@ -28,6 +28,8 @@ function pageWorker(): Worker | null {
 
 let nextChannel = 1;
 const sinks = new Map<number, (o: ComputeOutcome) => void>();
+/** Coalescers to move to the page if the worker fails. */
+const live = new Set<Coalescer>();
 let listening = false;
 
 export class Coalescer {
@@ -35,8 +37,8 @@ export class Coalescer {
   private inFlight: ComputeJob | null = null;
   private waiting: ComputeJob | null = null;
   private readonly channel = nextChannel++;
-  /** Where jobs run: "worker" or "page". */
-  readonly where: "worker" | "page";
+  /** Where jobs run: "worker" or "page" (the page also when the worker failed). */
+  where: "worker" | "page";
 
   constructor(private readonly sink: Sink, useWorker = true) {
     const w = useWorker ? pageWorker() : null;
@@ -49,9 +51,21 @@ export class Coalescer {
           const ch = Math.floor(e.data.seq / 1e9);
           sinks.get(ch)?.(e.data);
         });
-        w.addEventListener("error", (e) => console.error("helicoid compute worker error", e));
+        w.addEventListener("error", (e) => {
+          console.error("helicoid compute worker failed; computing on the page instead", e);
+          sharedWorker = null;
+          for (const c of live) c.moveToPage();
+        });
       }
     }
+    live.add(this);
+  }
+
+  /** The worker failed: run the job it held (and all later ones) on the page. */
+  moveToPage(): void {
+    this.where = "page";
+    const job = this.inFlight;
+    if (job) this.start(job);
   }
 
   /** Ask for a recompute; the sink gets the outcome of the newest request. */
@@ -72,13 +86,14 @@ export class Coalescer {
 
   dispose(): void {
     sinks.delete(this.channel);
+    live.delete(this);
     this.waiting = null;
   }
 
   private start(job: ComputeJob): void {
     this.inFlight = job;
-    if (this.where === "worker") {
-      sharedWorker!.postMessage(job);
+    if (this.where === "worker" && sharedWorker) {
+      sharedWorker.postMessage(job);
     } else {
       // Yield to the page first so several slider events can coalesce.
       setTimeout(() => this.done(runJob(job)), 0);
