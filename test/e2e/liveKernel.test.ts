@@ -106,6 +106,15 @@ ex`);
     const row = page.locator(`${root} .hx-control[data-input="Ms"]`);
     expect(Number(await row.getAttribute("data-value"))).toBeCloseTo(spec.inputs.find((i) => i.name === "Ms")!.max * 0.9, 3);
     await screenshot(page, "live-explorer", root);
+
+    // "Copy as code" gives a cell that the kernel runs to the same result.
+    await page.locator(`${root} .hx-copy`).click();
+    const snippet = (await page.locator(`${root} .hx-snippet`).textContent())!;
+    const cell = await run(snippet);
+    expect(cell.text).toContain("width");
+    const fromSnippet = Number((await run("result.outputs.width.value")).text.trim());
+    const fromExplorer = Number((await run("ex.result.outputs.width.value")).text.trim());
+    expect(Math.abs(fromSnippet - fromExplorer) / fromExplorer).toBeLessThan(1e-10);
   });
 
   it("(c) a kernel-function explorer computes in the kernel on each page change", async () => {

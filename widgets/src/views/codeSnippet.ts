@@ -29,9 +29,10 @@ export function codeSnippet(options: {
     : "";
   if (calculator) {
     return (
-      `import { getCalculator, runCalculator } from "@helicoid/lib";\n\n` +
+      `import { getCalculator, runCalculator } from "@helicoid/lib";\n` +
+      `import { table } from "@helicoid/kernel";\n\n` +
       `const result = runCalculator(getCalculator(${JSON.stringify(calculator)}), {\n${body}\n}${sweepText});\n` +
-      `result;\n`
+      `table(result)\n`
     );
   }
   const fn = options.functionName || "myCalculator";
