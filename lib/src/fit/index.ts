@@ -8,3 +8,6 @@ export * from "./profileModels.js";
 export * from "./fitProfile.js";
 export * from "./profileCsv.js";
 export * from "./startGuess.js";
+export * from "./skyrmionSensitivity.js";
+export * from "./fieldSeries.js";
+export * from "./syntheticProfiles.js";

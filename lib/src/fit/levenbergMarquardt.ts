@@ -394,10 +394,23 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
     if (qr) {
       qtf = qr.qtf;
     } else {
-      for (let k = 0; k < nf; k++) jfree.set(jac.subarray(free[k] * m, free[k] * m + m), k * m);
+      // QR of the column-normalized J (so the numerical-rank decision does not depend on the
+      // units of the parameters: columns may differ by 1e16 in norm), then R rescaled:
+      // J C^-1 P = Q R'  =>  J P = Q R' (P^T C P), still upper triangular
+      for (let k = 0; k < nf; k++) {
+        const c = cn[free[k]] > 0 ? 1 / cn[free[k]] : 1;
+        const src = free[k] * m;
+        const dst = k * m;
+        for (let i = 0; i < m; i++) jfree[dst + i] = jac[src + i] * c;
+      }
       const full = pivotedQr(jfree.subarray(0, nf * m), m, nf);
       qtf = applyQt(full, f).subarray(0, nf);
-      qr = { r: full.r, perm: full.perm, rank: full.rank, qtf };
+      const rs = full.r;
+      for (let j = 0; j < nf; j++) {
+        const c = cn[free[full.perm[j]]] > 0 ? cn[free[full.perm[j]]] : 1;
+        for (let i = 0; i <= j; i++) rs[i + j * nf] *= c;
+      }
+      qr = { r: rs, perm: full.perm, rank: full.rank, qtf };
     }
     const diagFree = new Float64Array(nf);
     for (let k = 0; k < nf; k++) diagFree[k] = diag[free[k]];
