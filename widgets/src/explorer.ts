@@ -85,6 +85,8 @@ export class ExplorerView extends DOMWidgetView {
   /** Performance marks: set when a slider input starts a recompute. */
   private pendingMark: string | null = null;
   private drawingToken: object | null = null;
+  private tableKey = "";
+  private valueCells = new Map<string, { tr: HTMLElement; td: HTMLElement; unit: string }>();
 
   override render(): void {
     this.el.classList.add("hx-explorer");
@@ -390,35 +392,15 @@ export class ExplorerView extends DOMWidgetView {
     this.errorEl.hidden = !error;
     this.errorEl.textContent = error ? `Calculator error: ${error}` : "";
     this.el.classList.toggle("hx-has-error", !!error);
-    this.outputsEl.replaceChildren();
     if (!result) {
+      this.tableKey = "";
+      this.outputsEl.replaceChildren();
       if (!error) this.outputsEl.append(el("div", { class: "hx-muted", text: this.local ? "computing…" : "no result yet" }));
       for (const p of this.plotEls) { p.hidden = !!error; }
       this.markDone();
       return;
     }
-    const table = el("table", { class: "hx-table" });
-    const head = el("tr");
-    head.append(el("th", { text: "output" }), el("th", { text: "value" }));
-    table.append(head);
-    for (const o of spec.outputs) {
-      const kind = o.kind ?? "scalar";
-      if (kind === "array") continue;
-      const entry = result.outputs[o.name];
-      if (!entry) continue;
-      const tr = el("tr", { title: o.meaning, "data-output": o.name });
-      tr.append(el("td", { text: o.name }));
-      const value = entry.value;
-      tr.append(el("td", { class: "hx-value", text: typeof value === "number" ? formatQuantity(value, o.unit) : String(value) }));
-      if (typeof value === "number") tr.dataset.value = String(value);
-      table.append(tr);
-    }
-    this.outputsEl.append(table);
-    if (result.status === "warning" || (result.notes && result.notes.length)) {
-      const notes = el("ul", { class: result.status === "warning" ? "hx-warning" : "hx-notes" });
-      for (const n of result.notes ?? []) notes.append(el("li", { text: n }));
-      this.outputsEl.append(notes);
-    }
+    this.renderTable(result);
     // The first (main) plot is drawn at once; the others just after, so it shows sooner.
     const drawPlot = (k: number): Promise<unknown> => {
       const plot = spec.plots[k]!;
@@ -449,6 +431,46 @@ export class ExplorerView extends DOMWidgetView {
       if (drawing === this.drawingToken) this.el.dataset.drawing = "";
       this.markDone();
     });
+  }
+
+  /**
+   * The outputs table and notes. Rebuilt only when the set of outputs or the notes change;
+   * otherwise the value cells are updated in place (cheaper while a slider moves).
+   */
+  private renderTable(result: CalculatorResult): void {
+    const spec = this.spec!;
+    const shown = spec.outputs.filter((o) => (o.kind ?? "scalar") !== "array" && result.outputs[o.name]);
+    const notes = result.notes ?? [];
+    const key = JSON.stringify([shown.map((o) => o.name), result.status, notes]);
+    if (key !== this.tableKey) {
+      this.tableKey = key;
+      this.valueCells = new Map();
+      const table = el("table", { class: "hx-table" });
+      const head = el("tr");
+      head.append(el("th", { text: "output" }), el("th", { text: "value" }));
+      table.append(head);
+      for (const o of shown) {
+        const tr = el("tr", { title: o.meaning, "data-output": o.name });
+        const td = el("td", { class: "hx-value" });
+        tr.append(el("td", { text: o.name }), td);
+        table.append(tr);
+        this.valueCells.set(o.name, { tr, td, unit: o.unit });
+      }
+      const parts: HTMLElement[] = [table];
+      if (result.status === "warning" || notes.length) {
+        const list = el("ul", { class: result.status === "warning" ? "hx-warning" : "hx-notes" });
+        for (const n of notes) list.append(el("li", { text: n }));
+        parts.push(list);
+      }
+      this.outputsEl.replaceChildren(...parts);
+    }
+    for (const [name, cell] of this.valueCells) {
+      const value = result.outputs[name]!.value;
+      const text = typeof value === "number" ? formatQuantity(value, cell.unit) : String(value);
+      if (cell.td.textContent !== text) cell.td.textContent = text;
+      if (typeof value === "number") cell.tr.dataset.value = String(value);
+      else delete cell.tr.dataset.value;
+    }
   }
 
   /** The first (main) plot shows the new result: "hx-slider-to-plot". */
