@@ -45,10 +45,15 @@ async function moveSlider(page: Page, explorer: string, input: string, position:
 
 /** Wait until an explorer's plot reflects its current inputs (the worker answered and plotly drew). */
 async function settled(page: Page, explorer: string): Promise<void> {
-  await page.waitForFunction((sel) => {
+  const state = await page.waitForFunction((sel) => {
     const root = document.querySelector(sel) as HTMLElement | null;
-    return !!root && root.dataset.busy === "" && root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]");
-  }, explorer, { timeout: 20_000 });
+    if (!root || root.dataset.busy !== "") return false;
+    const err = root.querySelector(".hx-results > .hx-error") as HTMLElement | null;
+    if (err && !err.hidden) return `error: ${err.textContent}`;
+    return root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]") ? "ok" : false;
+  }, explorer, { timeout: 30_000 });
+  const outcome = await state.jsonValue();
+  if (outcome !== "ok") throw new Error(`explorer ${explorer} shows a calculator ${outcome}`);
   await page.waitForTimeout(50);
 }
 
@@ -74,7 +79,8 @@ beforeAll(async () => {
     const spec = getCalculator("skyrmion");
     const sweep = defaultSweep(spec, {})!;
     const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
-    nb.widget("ExplorerModel", { calculator: "skyrmion", spec: null, inputs, sweep, result: runCalculator(spec, inputs, { sweep }), error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("skyrmion")');
+    // No saved result: the page computes the first one itself.
+    nb.widget("ExplorerModel", { calculator: "skyrmion", spec: null, inputs, sweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("skyrmion")');
   }
   const { compute: _c, ...specData } = testWallSpec;
   nb.widget("ExplorerModel", {
@@ -95,6 +101,15 @@ beforeAll(async () => {
     value: 3, min: 0, max: 10, step: 0.5, description: "x",
   });
   nb.code("slider({ value: 3 })", [nb.viewOutput(sliderId, "FloatSlider(value=3)")]);
+  const outputId = nb.model("OutputModel", "@jupyter-widgets/output", "1.0.0", {
+    _model_name: "OutputModel", _model_module: "@jupyter-widgets/output", _model_module_version: "1.0.0",
+    _view_name: "OutputView", _view_module: "@jupyter-widgets/output", _view_module_version: "1.0.0",
+    outputs: [
+      { output_type: "display_data", metadata: {}, data: { "text/markdown": "width **5.5 nm** (invented)", "text/plain": "width 5.5 nm" } },
+      { output_type: "display_data", metadata: {}, data: { "application/vnd.plotly.v1+json": { data: [{ type: "scatter", y: [3, 1, 2] }], layout: { height: 250 } }, "text/plain": "Figure(1 trace)" } },
+    ],
+  });
+  nb.code("controlPanel(...)", [nb.viewOutput(outputId, "Output()")]);
   nb.code('console.log("hello")', [{ output_type: "stream", name: "stdout", text: ["hello\n"] }]);
   const html = exportNotebook(nb.build(), { bundle, sourceName: "exported-test.ipynb" });
   mkdirSync(join(outputDir, "export"), { recursive: true });
@@ -116,7 +131,10 @@ const wall = '.hx-explorer[data-calculator="test-wall-width"][data-mode="browser
 
 describe("exported page", () => {
   it("renders every saved widget and the plotly output, with no network", async () => {
-    expect(await page.evaluate(() => document.body.dataset.helicoidWidgets)).toBe(String(hasSkyrmion ? 7 : 6));
+    expect(await page.evaluate(() => document.body.dataset.helicoidWidgets)).toBe(String(hasSkyrmion ? 8 : 7));
+    // An output area (as a control panel leaves it) shows its Markdown and its plotly figure.
+    await page.waitForSelector(".widget-output .hx-plotly-output .main-svg", { timeout: 20_000 });
+    expect(await page.locator(".widget-output strong").first().textContent()).toBe("5.5 nm");
     // A standard control (driven by kernel code) renders with its saved value and says it needs the kernel.
     expect(await page.locator(".widget-slider .widget-readout").first().textContent()).toBe("3.00");
     expect(await page.locator(".hx-static-note").count()).toBe(1);

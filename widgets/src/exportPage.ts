@@ -11,13 +11,42 @@ import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager";
 import "@lumino/widgets/style/index.css";
 import "@jupyter-widgets/controls/css/widgets-base.css";
 import "@jupyter-widgets/controls/css/labvariables.css";
+import { RenderMimeRegistry, standardRendererFactories } from "@jupyterlab/rendermime";
+import type { IRenderMime } from "@jupyterlab/rendermime-interfaces";
+import { Widget as LuminoWidget } from "@lumino/widgets";
+import { marked } from "marked";
 import * as ours from "./index.js";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { Plotly } from "./plotly.js";
 
+const PLOTLY_MIME = "application/vnd.plotly.v1+json";
+const WIDGET_MIME = "application/vnd.jupyter.widget-view+json";
+
+/** Plotly outputs inside Output widgets (e.g. a control panel's figure), drawn with the page's plotly. */
+class PlotlyRenderer extends LuminoWidget implements IRenderMime.IRenderer {
+  async renderModel(model: IRenderMime.IMimeModel): Promise<void> {
+    const fig = model.data[PLOTLY_MIME] as { data?: unknown[]; layout?: Record<string, unknown>; config?: Record<string, unknown> };
+    this.node.classList.add("hx-plotly-output");
+    await Plotly.react(this.node, fig.data ?? [], { autosize: true, ...(fig.layout ?? {}) }, { displaylogo: false, responsive: true, ...(fig.config ?? {}) });
+  }
+}
+
 class StaticManager extends HTMLManager {
   /** Read by our views: there is no kernel behind this page. */
   readonly helicoidStatic = true;
+
+  constructor(options: ConstructorParameters<typeof HTMLManager>[0]) {
+    super(options);
+    // Output widgets' contents: the standard renderers with a Markdown parser (marked), plotly
+    // figures, and nested widgets (the factory html-manager registered).
+    const widgetFactory = this.renderMime.getFactory(WIDGET_MIME);
+    this.renderMime = new RenderMimeRegistry({
+      initialFactories: standardRendererFactories,
+      markdownParser: { render: async (source: string) => marked.parse(source, { async: false, gfm: true }) as string },
+    });
+    if (widgetFactory) this.renderMime.addFactory(widgetFactory, 0);
+    this.renderMime.addFactory({ safe: true, mimeTypes: [PLOTLY_MIME], createRenderer: () => new PlotlyRenderer() }, 1);
+  }
 }
 
 function makeManager(): StaticManager {
