@@ -54,7 +54,8 @@ const common = {
   define: { __webpack_public_path__: '""', "process.env.NODE_ENV": '"production"', global: "globalThis" },
   // @helicoid/lib from its TypeScript source: the front end and the kernel share one build of the physics.
   alias: { "@helicoid/lib": join(here, "..", "lib", "src", "index.ts") },
-  legalComments: "none",
+  // Keep the licence notices of bundled libraries (plotly.js, mathjs, jupyter-widgets ...) at the end of each bundle.
+  legalComments: "eof",
   inject: extraSpecs ? [extraSpecs] : [],
   loader: { ".svg": "text" },
 };
