@@ -11,7 +11,9 @@ import type { FitParameter } from "./leastSquares.js";
 import { InputError } from "../errors.js";
 import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from "./wallProfiles.js";
 import { erfc as erfcLocal } from "./distributions.js";
-import { gridFor, interpolateGrid, strayFieldOnGrid, stepField, blurOnGrid, type UniformGrid } from "./strayField.js";
+import { gridFor, interpolateGrid, blurOnGrid, type UniformGrid } from "./strayField.js";
+import { fft, ifft } from "../numeric/fft.js";
+import { mu0 } from "../quantity/constants.js";
 
 export interface BoundModel {
   model(p: Float64Array, out: Float64Array): void;
@@ -211,45 +213,363 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
       const blur0 = start[ix("blur")];
       const h0 = start[ix("h")];
       const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [50 * (h0 + start[ix("t")]), 20 * Math.max(...widths), 6 * blur0, kind === "360" ? 4 * start[ix("R")] : 0]);
-      const n = grid.n;
-      const mzLocal = new Float64Array(n);
-      const mx = new Float64Array(n);
-      const gridOut = new Float64Array(x.length);
-      return {
-        model(p, out) {
-          const x0 = p[0];
-          const cg = p[ix("neel")];
-          for (let g = 0; g < n; g++) {
-            const X = grid.x0 + g * grid.dx;
-            if (kind === "180") {
-              // remove the smooth reference -(2/pi) atan(u) (the ideal step smoothed by a Poisson
-              // kernel of width a = Delta), whose field is the step field at height h + a
-              const u = (X - x0) / p[1];
-              mzLocal[g] = -Math.tanh(u) + (2 / Math.PI) * Math.atan(u);
-              mx[g] = -cg / Math.cosh(u);
-            } else {
-              const q = wall360Point(X, x0, p[1], p[2]);
-              mzLocal[g] = q.mz - 1;
-              mx[g] = q.signedSin * cg;
-            }
-          }
-          const Ms = p[ix("Ms")];
-          const h = p[ix("h")];
-          const t = p[ix("t")];
-          const blur = p[ix("blur")];
-          const f = strayFieldOnGrid({ grid, mzLocal, mx, Ms, h: h, t, blur, stepCenter: kind === "180" ? x0 : null, stepHeight: h + p[1] });
-          interpolateGrid(grid, component === "bz" ? f.bz : f.bx, x, gridOut);
-          const off = p[ix("offset")];
-          for (let i = 0; i < x.length; i++) {
-            let v = gridOut[i] + off;
-            if (kind === "180" && !(blur > 0)) {
-              const s = stepField(x[i], x0, Ms, h + p[1], t);
-              v += component === "bz" ? s.bz : s.bx;
-            }
-            out[i] = v;
-          }
-        },
-      };
+      return strayBound(kind, component, grid, x, ix);
+    },
+  };
+}
+
+/**
+ * The bound stray-field model with its analytic Jacobian. The field is linear in the transformed
+ * magnetization: with L(k) = FFT(m_z,local) - i sgn(k) FFT(m_x), the kernel
+ * K(k) = (mu0 Ms / 2) e^{-|k| h} (1 - e^{-|k| t}) G(k), G = exp(-k^2 s^2 / 2), and the component
+ * factor C(k) = 1 (B_z) or -i sgn(k) (B_x), the output spectrum is C K L (+ G S_c, the transform of
+ * the closed-form step field of a 180-degree wall when blurred). So d/dp of the spectrum is
+ * C K dL/dp (transform of d m / dp) for the shape parameters and neel, C (dK/dp) L for h and t
+ * (dK/dh = -|k| K, dK/dt = (mu0 Ms / 2) e^{-|k| (h + t)} |k| G), -k^2 s (spectrum) for the blur,
+ * (spectrum) / Ms for Ms; the step field's derivatives are in closed form. Two real derivative
+ * fields share one complex FFT (forward and inverse). Checked against central differences in
+ * test/lib/fit/strayFieldJacobian.test.ts.
+ */
+function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Float64Array, ix: (name: string) => number): BoundModel {
+  const n = grid.n;
+  const m = x.length;
+  const is180 = kind === "180";
+  const nShape = is180 ? 2 : 3; // x0 + (Delta | R, w)
+  const iNeel = ix("neel");
+  const iH = ix("h");
+  const iT = ix("t");
+  const iMs = ix("Ms");
+  const iBlur = ix("blur");
+  const iOff = ix("offset");
+  const nPar = iOff + 1;
+  const ak = new Float64Array(n);
+  const kk = new Float64Array(n);
+  const sg = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    const f = j < n / 2 ? j : j - n;
+    const k = (2 * Math.PI * f) / (n * grid.dx);
+    kk[j] = k;
+    ak[j] = Math.abs(k);
+    sg[j] = 2 * j === n ? 0 : Math.sign(k);
+  }
+  const gx = new Float64Array(n);
+  for (let g = 0; g < n; g++) gx[g] = grid.x0 + g * grid.dx;
+  // work arrays
+  const mzL = new Float64Array(n);
+  const mx1 = new Float64Array(n); // m_x / neel
+  const dmz = Array.from({ length: nShape }, () => new Float64Array(n));
+  const dmx1 = Array.from({ length: nShape }, () => new Float64Array(n));
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  const K = new Float64Array(n);
+  const G = new Float64Array(n);
+  const Kt = new Float64Array(n);
+  const gridOut = new Float64Array(m);
+  // spectra kept per evaluation: local base (A: mz, B: mx1) and step (Sc) as separate re/im
+  const Ar = new Float64Array(n), Ai = new Float64Array(n), Br = new Float64Array(n), Bi = new Float64Array(n);
+  const Sr = new Float64Array(n), Si = new Float64Array(n);
+  const stepAt = new Float64Array(m);
+  const scratch = new Float64Array(m);
+  // scratch grid (W) and data-point (Wm) arrays, allocated once per bind
+  const W = Array.from({ length: 14 }, () => new Float64Array(n));
+  const Wm = Array.from({ length: 3 }, () => new Float64Array(m));
+
+  /** Fill the grid fields (and their shape derivatives when d is true). */
+  function gridFields(p: Float64Array, d: boolean) {
+    const x0 = p[0];
+    if (is180) {
+      const Delta = p[1];
+      for (let g = 0; g < n; g++) {
+        const u = (gx[g] - x0) / Delta;
+        const th = Math.tanh(u);
+        const sech = 1 / Math.cosh(u);
+        mzL[g] = -th + (2 / Math.PI) * Math.atan(u);
+        mx1[g] = -sech;
+        if (d) {
+          // d/du of mzL and mx1, then du/dx0 = -1/Delta, du/dDelta = -u/Delta
+          const dzu = -sech * sech + 2 / (Math.PI * (1 + u * u));
+          const dxu = sech * th;
+          dmz[0][g] = -dzu / Delta;
+          dmx1[0][g] = -dxu / Delta;
+          dmz[1][g] = (-u * dzu) / Delta;
+          dmx1[1][g] = (-u * dxu) / Delta;
+        }
+      }
+    } else {
+      for (let g = 0; g < n; g++) {
+        const q = wall360Point(gx[g], x0, p[1], p[2]);
+        mzL[g] = q.mz - 1;
+        mx1[g] = q.signedSin;
+        if (d) {
+          // s = sign(u) sech L with dm_z = -sech^2 L dL: ds = sign(u) tanh(L) dm_z / sech(L), tanh L = -m_z
+          const sech = Math.abs(q.signedSin);
+          const f = sech > 1e-150 ? (Math.sign(gx[g] - x0) * -q.mz) / sech : 0;
+          dmz[0][g] = q.dx0;
+          dmz[1][g] = q.dR;
+          dmz[2][g] = q.dw;
+          dmx1[0][g] = f * q.dx0;
+          dmx1[1][g] = f * q.dR;
+          dmx1[2][g] = f * q.dw;
+        }
+      }
+    }
+  }
+
+  /** Kernels K, G and dK/dt / K-free factor for the current p. */
+  function kernels(p: Float64Array) {
+    const pref = (mu0 * p[iMs]) / 2;
+    const h = p[iH];
+    const t = p[iT];
+    const s = p[iBlur];
+    for (let j = 0; j < n; j++) {
+      const a = ak[j];
+      const g = s > 0 ? Math.exp(-0.5 * kk[j] * kk[j] * s * s) : 1;
+      const eh = Math.exp(-a * h);
+      G[j] = g;
+      K[j] = pref * eh * -Math.expm1(-a * t) * g;
+      Kt[j] = pref * eh * Math.exp(-a * t) * a * g;
+    }
+  }
+
+  /** FFT of two real fields u + i v, unpacked into the spectra of u (ur, ui) and v (vr, vi). */
+  function fftPair(u: Float64Array, v: Float64Array | null, ur: Float64Array, ui: Float64Array, vr: Float64Array | null, vi: Float64Array | null) {
+    re.set(u);
+    if (v) im.set(v);
+    else im.fill(0);
+    fft(re, im);
+    for (let j = 0; j < n; j++) {
+      const jm = j === 0 ? 0 : n - j;
+      const a = re[j], b = im[j], c = re[jm], e = im[jm];
+      ur[j] = 0.5 * (a + c);
+      ui[j] = 0.5 * (b - e);
+      if (vr && vi) {
+        vr[j] = 0.5 * (b + e);
+        vi[j] = -0.5 * (a - c);
+      }
+    }
+  }
+
+  /** Closed-form step field component and its derivatives (u, H, t) on the grid or at points. */
+  function stepValues(xs: ArrayLike<number>, p: Float64Array, val: Float64Array, du: Float64Array | null, dH: Float64Array | null, dt: Float64Array | null) {
+    const x0 = p[0];
+    const H = p[iH] + p[1];
+    const t = p[iT];
+    const Ms = p[iMs];
+    const Ht = H + t;
+    for (let i = 0; i < xs.length; i++) {
+      const u = xs[i] - x0;
+      const a2 = Ht * Ht + u * u;
+      const b2 = H * H + u * u;
+      if (component === "bz") {
+        const c = (mu0 * Ms) / Math.PI;
+        val[i] = c * (Math.atan(u / Ht) - Math.atan(u / H));
+        if (du) du[i] = c * (Ht / a2 - H / b2);
+        if (dH) dH[i] = c * (-u / a2 + u / b2);
+        if (dt) dt[i] = c * (-u / a2);
+      } else {
+        const c = (mu0 * Ms) / (2 * Math.PI);
+        val[i] = c * Math.log(a2 / b2);
+        if (du) du[i] = c * (2 * u / a2 - 2 * u / b2);
+        if (dH) dH[i] = c * (2 * Ht / a2 - 2 * H / b2);
+        if (dt) dt[i] = c * (2 * Ht / a2);
+      }
+    }
+  }
+
+  /** Component factor C(k): 1 (B_z) or -i sgn(k) (B_x). */
+  const comp = component === "bx";
+
+  // spectra of the output columns to invert: list of [re, im] arrays
+  const colR = Array.from({ length: nPar }, () => new Float64Array(n));
+  const colI = Array.from({ length: nPar }, () => new Float64Array(n));
+
+  function evaluate(p: Float64Array, out: Float64Array, jac: Float64Array | null) {
+    const blur = p[iBlur];
+    const cg = p[iNeel];
+    const stepInFft = is180 && blur > 0;
+    gridFields(p, jac !== null);
+    kernels(p);
+    fftPair(mzL, mx1, Ar, Ai, Br, Bi);
+    if (stepInFft) {
+      stepValues(gx, p, W[0], jac ? W[1] : null, jac ? W[2] : null, jac ? W[3] : null);
+      fftPair(W[0], null, Sr, Si, null, null);
+    }
+    // base output spectrum O = C (K L + G S), L = A - i sg cg B
+    const Or = colR[iOff], Oi = colI[iOff]; // reuse the offset slot for the base
+    for (let j = 0; j < n; j++) {
+      const lr = Ar[j] + sg[j] * cg * Bi[j];
+      const li = Ai[j] - sg[j] * cg * Br[j];
+      let r = K[j] * lr;
+      let i = K[j] * li;
+      if (comp) {
+        const t = r;
+        r = sg[j] * i;
+        i = -sg[j] * t;
+      }
+      if (stepInFft) {
+        r += G[j] * Sr[j];
+        i += G[j] * Si[j];
+      }
+      Or[j] = r;
+      Oi[j] = i;
+    }
+    // base values
+    re.set(Or);
+    im.set(Oi);
+    ifft(re, im);
+    interpolateGrid(grid, re, x, gridOut);
+    const off = p[iOff];
+    if (is180 && !stepInFft) stepValues(x, p, stepAt, null, null, null);
+    for (let i = 0; i < m; i++) out[i] = gridOut[i] + off + (is180 && !stepInFft ? stepAt[i] : 0);
+    if (!jac) return;
+
+    // ---- Jacobian columns (spectra) ----
+    const cols: number[] = [];
+    const setLocal = (c: number, dr: Float64Array, di: Float64Array, er: Float64Array, ei: Float64Array, scale: number) => {
+      // column spectrum C K (dA - i sg cg dB) * scale, dA = (dr, di), dB = (er, ei)
+      const R = colR[c], I = colI[c];
+      for (let j = 0; j < n; j++) {
+        const lr = dr[j] + sg[j] * cg * ei[j];
+        const li = di[j] - sg[j] * cg * er[j];
+        let r = K[j] * lr * scale;
+        let i = K[j] * li * scale;
+        if (comp) {
+          const t = r;
+          r = sg[j] * i;
+          i = -sg[j] * t;
+        }
+        R[j] = r;
+        I[j] = i;
+      }
+      cols.push(c);
+    };
+    const [tr, ti, ur, ui] = [W[4], W[5], W[6], W[7]];
+    for (let s = 0; s < nShape; s++) {
+      fftPair(dmz[s], dmx1[s], tr, ti, ur, ui);
+      setLocal(s, tr, ti, ur, ui, 1);
+    }
+    // step derivatives (blurred 180 wall): d/dx0 = -d/du, d/dDelta and d/dh through H, d/dt
+    let SdR: Float64Array | null = null, SdI: Float64Array | null = null, SHr: Float64Array | null = null, SHi: Float64Array | null = null, Str: Float64Array | null = null, Sti: Float64Array | null = null;
+    if (stepInFft) {
+      [SdR, SdI, SHr, SHi, Str, Sti] = [W[8], W[9], W[10], W[11], W[12], W[13]];
+      fftPair(W[1], W[2], SdR, SdI, SHr, SHi);
+      fftPair(W[3], null, Str, Sti, null, null);
+      for (let j = 0; j < n; j++) {
+        colR[0][j] -= G[j] * SdR[j];
+        colI[0][j] -= G[j] * SdI[j];
+        colR[1][j] += G[j] * SHr[j];
+        colI[1][j] += G[j] * SHi[j];
+      }
+    }
+    // neel: C K (-i sg B)
+    {
+      const R = colR[iNeel], I = colI[iNeel];
+      for (let j = 0; j < n; j++) {
+        let r = K[j] * sg[j] * Bi[j];
+        let i = -K[j] * sg[j] * Br[j];
+        if (comp) {
+          const t = r;
+          r = sg[j] * i;
+          i = -sg[j] * t;
+        }
+        R[j] = r;
+        I[j] = i;
+      }
+      cols.push(iNeel);
+    }
+    // h, t: dK/dh = -|k| K, dK/dt = Kt; the step through H (h) and t
+    {
+      const Rh = colR[iH], Ih = colI[iH], Rt = colR[iT], It = colI[iT];
+      for (let j = 0; j < n; j++) {
+        const lr = Ar[j] + sg[j] * cg * Bi[j];
+        const li = Ai[j] - sg[j] * cg * Br[j];
+        let rh = -ak[j] * K[j] * lr;
+        let ih = -ak[j] * K[j] * li;
+        let rt = Kt[j] * lr;
+        let it = Kt[j] * li;
+        if (comp) {
+          let t = rh;
+          rh = sg[j] * ih;
+          ih = -sg[j] * t;
+          t = rt;
+          rt = sg[j] * it;
+          it = -sg[j] * t;
+        }
+        if (stepInFft) {
+          rh += G[j] * SHr![j];
+          ih += G[j] * SHi![j];
+          rt += G[j] * Str![j];
+          it += G[j] * Sti![j];
+        }
+        Rh[j] = rh;
+        Ih[j] = ih;
+        Rt[j] = rt;
+        It[j] = it;
+      }
+      cols.push(iH, iT);
+    }
+    // Ms: O / Ms; blur: -k^2 s O
+    {
+      const Ms = p[iMs];
+      const Rm = colR[iMs], Im = colI[iMs], Rb = colR[iBlur], Ib = colI[iBlur];
+      for (let j = 0; j < n; j++) {
+        Rm[j] = Or[j] / Ms;
+        Im[j] = Oi[j] / Ms;
+        const f = -kk[j] * kk[j] * blur;
+        Rb[j] = f * Or[j];
+        Ib[j] = f * Oi[j];
+      }
+      cols.push(iMs, iBlur);
+    }
+    // invert two columns per complex transform (both spectra are Hermitian); each is scaled to
+    // unit peak first, since columns differ by up to 1e16 (units) and the round-off of the larger
+    // would swamp the smaller
+    const peakOf = (c: number) => {
+      let v = 0;
+      const R = colR[c], I = colI[c];
+      for (let j = 0; j < n; j++) v = Math.max(v, Math.abs(R[j]), Math.abs(I[j]));
+      return v > 0 ? v : 1;
+    };
+    for (let q = 0; q < cols.length; q += 2) {
+      const a = cols[q];
+      const b = q + 1 < cols.length ? cols[q + 1] : -1;
+      const pa = peakOf(a);
+      const pb = b >= 0 ? peakOf(b) : 1;
+      const ia = 1 / pa;
+      const ib = 1 / pb;
+      for (let j = 0; j < n; j++) {
+        re[j] = colR[a][j] * ia - (b >= 0 ? colI[b][j] * ib : 0);
+        im[j] = colI[a][j] * ia + (b >= 0 ? colR[b][j] * ib : 0);
+      }
+      ifft(re, im);
+      for (let j = 0; j < n; j++) {
+        re[j] *= pa;
+        im[j] *= pb;
+      }
+      interpolateGrid(grid, re, x, jac.subarray(a * m, a * m + m));
+      if (b >= 0) interpolateGrid(grid, im, x, jac.subarray(b * m, b * m + m));
+    }
+    // closed-form step at the data points (unblurred 180 wall)
+    if (is180 && !stepInFft) {
+      const [du, dH, dt] = [Wm[0], Wm[1], Wm[2]];
+      stepValues(x, p, stepAt, du, dH, dt);
+      for (let i = 0; i < m; i++) {
+        jac[i] -= du[i];
+        jac[m + i] += dH[i];
+        jac[iH * m + i] += dH[i];
+        jac[iT * m + i] += dt[i];
+        jac[iMs * m + i] += stepAt[i] / p[iMs];
+      }
+    }
+    jac.fill(1, iOff * m, iOff * m + m);
+  }
+
+  return {
+    model(p, out) {
+      evaluate(p, out, null);
+    },
+    jacobian(p, out) {
+      evaluate(p, scratch, out);
     },
   };
 }
