@@ -24,6 +24,7 @@
 import { InputError } from "../errors.js";
 import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
 import { pivotedQr, inverseNormalFromQr, symmetricEigen } from "../numeric/denseLinalg.js";
+import { gramMatrix } from "./gramMatrix.js";
 import { studentTQuantile, normalQuantile } from "./distributions.js";
 import { seededRandom } from "./prng.js";
 
@@ -170,6 +171,8 @@ interface Core {
   jacobianEvaluations: number;
   iterations: number;
   chiSquare: number;
+  /** Weighted residuals (f - y) / sigma at x, from the last evaluation of the minimizer. */
+  residuals: Float64Array;
 }
 
 /** Minimize with the parameters in `freeIdx` free, others held at `base`. */
@@ -218,6 +221,7 @@ function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: num
     jacobianEvaluations: r.jacobianEvaluations,
     iterations: r.iterations,
     chiSquare: r.sumOfSquares,
+    residuals: r.residuals,
   };
 }
 
@@ -290,8 +294,14 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const chi2 = core.chiSquare;
   const dof = m - k;
   const red = chi2 / dof;
+  // model values from the minimizer's last residuals (no extra evaluation): f = y + sigma r
   const fitted = new Float64Array(m);
-  problem.model(x, fitted);
+  {
+    const r = core.residuals;
+    const sg = problem.sigma;
+    if (sg) for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + sg[i] * r[i];
+    else for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + r[i];
+  }
   // log-likelihood
   let logL: number;
   let K: number;
@@ -322,10 +332,15 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     const norms = new Float64Array(nn);
     const Jn = new Float64Array(J.length);
     for (let c = 0; c < nn; c++) {
+      const off = c * m;
       let s = 0;
-      for (let i = 0; i < m; i++) s += J[c * m + i] ** 2;
+      for (let i = 0; i < m; i++) {
+        const v = J[off + i];
+        s += v * v;
+      }
       norms[c] = Math.sqrt(s);
-      for (let i = 0; i < m; i++) Jn[c * m + i] = norms[c] > 0 ? J[c * m + i] / norms[c] : 0;
+      const inv = norms[c] > 0 ? 1 / norms[c] : 0;
+      for (let i = 0; i < m; i++) Jn[off + i] = J[off + i] * inv;
     }
     const zeroCols = inner.filter((_, c) => norms[c] === 0);
     // fast path: Cholesky of the normalized Gram matrix when clearly well conditioned (its
@@ -412,7 +427,8 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   if (sigmaKnown && (red > 2 || red < 0.5)) {
     notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
   }
-  const residuals = Array.from(problem.y, (v, i) => v - fitted[i]);
+  const residuals: number[] = new Array(m);
+  for (let i = 0; i < m; i++) residuals[i] = problem.y[i] - fitted[i];
   const result: FitResult = {
     status,
     reason,
@@ -433,7 +449,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     evaluations: core.evaluations,
     jacobianEvaluations: core.jacobianEvaluations + 1,
     iterations: core.iterations,
-    fitted: Array.from(fitted),
+    fitted: toPlainArray(fitted),
     residuals,
     notes,
     degenerate,
@@ -452,21 +468,18 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   return result;
 }
 
+function toPlainArray(a: Float64Array): number[] {
+  const out: number[] = new Array(a.length);
+  for (let i = 0; i < a.length; i++) out[i] = a[i];
+  return out;
+}
+
 /**
  * Inverse of the Gram matrix A^T A of a column-normalized A (m x n column-major) by Cholesky, or
  * null when the smallest Cholesky pivot is below 1e-5 of the largest (condition > ~1e10: use QR).
  */
 function gramInverse(a: Float64Array, m: number, n: number): Float64Array | null {
-  const G = new Float64Array(n * n);
-  for (let p = 0; p < n; p++)
-    for (let q = 0; q <= p; q++) {
-      let s = 0;
-      const op = p * m;
-      const oq = q * m;
-      for (let i = 0; i < m; i++) s += a[op + i] * a[oq + i];
-      G[p + q * n] = s;
-      G[q + p * n] = s;
-    }
+  const G = gramMatrix(a, m, n);
   const L = new Float64Array(n * n);
   let dmin = Infinity;
   let dmax = 0;

@@ -27,6 +27,7 @@
  * checked between evaluations (status "stopped").
  */
 import { pivotedQr, applyQt, solveDampedTriangular, solveUpperTransposed } from "../numeric/denseLinalg.js";
+import { gramMatrix } from "./gramMatrix.js";
 
 export interface LmProblem {
   /** Number of parameters. */
@@ -99,16 +100,8 @@ function fastFactor(jac: Float64Array, m: number, free: number[], g: Float64Arra
   const nf = free.length;
   if (m < 4 * nf || nf > 12) return null;
   for (const j of free) if (cn[j] === 0) return null;
-  const G = new Float64Array(nf * nf);
-  for (let a = 0; a < nf; a++) {
-    const oa = free[a] * m;
-    for (let b = 0; b <= a; b++) {
-      const ob = free[b] * m;
-      let s = 0;
-      for (let i = 0; i < m; i++) s += jac[oa + i] * jac[ob + i];
-      G[a + b * nf] = s / (cn[free[a]] * cn[free[b]]);
-    }
-  }
+  const G = gramMatrix(jac, m, nf, free);
+  for (let a = 0; a < nf; a++) for (let b = 0; b <= a; b++) G[a + b * nf] /= cn[free[a]] * cn[free[b]];
   // Cholesky G = L L^T (lower, column-major)
   const L = new Float64Array(nf * nf);
   let dmin = Infinity;
