@@ -93,8 +93,15 @@ describe.skipIf(!built)("helicoid run + helicoid export + browser", () => {
     expect(after.trace.y.length).toBe(ys.length);
     expect(after.trace.y).not.toEqual(before.trace.y);
     // Source: @helicoid/lib's skyrmion calculator run in Node on the inputs the page shows.
-    const bad = after.trace.y.map((v, i) => [i, v, ys[i]]).filter(([, v, e]) => (v === null ? Number.isFinite(e as number) : Math.abs((v as number) - (e as number)) > 1e-9 * Math.abs(e as number)));
-    expect(bad).toEqual([]);
+    // Chromium's and Node's V8 differ in the last ulp of Math.exp/log/pow/sin/atan2 for some
+    // arguments, so 1e-9 agreement also asks the calculator's solvers to converge well below 1e-9.
+    let worst = 0;
+    after.trace.y.forEach((v, i) => {
+      const e = ys[i]!;
+      if (v === null) { if (Number.isFinite(e)) worst = Infinity; return; }
+      worst = Math.max(worst, Math.abs(v - e) / Math.max(Math.abs(v), Math.abs(e)));
+    });
+    expect(worst).toBeLessThanOrEqual(1e-9);
     after.trace.x.forEach((v, i) => expect(Math.abs(v - xs[i]!)).toBeLessThanOrEqual(1e-9 * Math.abs(xs[i]!) + 1e-18));
     await screenshot(page, "run-export-skyrmion", sk);
   });
