@@ -396,7 +396,10 @@ export class ExplorerView extends DOMWidgetView {
       this.tableKey = "";
       this.outputsEl.replaceChildren();
       if (!error) this.outputsEl.append(el("div", { class: "hx-muted", text: this.local ? "computing…" : "no result yet" }));
-      for (const p of this.plotEls) { p.hidden = !!error; }
+      for (const p of this.plotEls) {
+        p.hidden = !!error;
+        (p.previousElementSibling as HTMLElement | null)?.toggleAttribute("hidden", !!error);
+      }
       this.markDone();
       return;
     }
@@ -406,6 +409,7 @@ export class ExplorerView extends DOMWidgetView {
       const plot = spec.plots[k]!;
       const target = this.plotEls[k]!;
       target.hidden = false;
+      (target.previousElementSibling as HTMLElement | null)?.removeAttribute("hidden");
       const fig = plotFigure(plot, spec.outputs, result);
       if (fig.data.length === 0) {
         Plotly.purge(target);
