@@ -44,6 +44,11 @@ export interface ChernOptions {
   energies?: boolean;
   /** Use the model's orbital positions in the links (default true). */
   usePositions?: boolean;
+  /**
+   * Two-band models: eigenvectors in closed form (default true) instead of the general Hermitian
+   * solver; both give the same fluxes (tested), the closed form is several times faster.
+   */
+  closedFormTwoBand?: boolean;
 }
 
 export interface ChernResult {
@@ -150,59 +155,88 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       p2i[a] = Math.sin((-2 * Math.PI * r[1]) / n2);
     }
   }
-  const solver = new HermitianEigenSolver(n);
+  // Per grid row: energies E[i * n + b] and eigenvectors as rows, vector b of point i at
+  // [(i * n + b) * n + s] (s = orbital). Each k-point is diagonalized once; its vectors serve the
+  // four links that touch it. All work arrays are allocated here, none per k-point.
+  const solver = n === 2 && (options.closedFormTwoBand ?? true) ? null : new HermitianEigenSolver(n);
   const nn = n * n;
   const G = groups.length;
-  const rowE = () => new Float64Array(n1 * n);
-  const rowV = () => ({ re: new Float64Array(n1 * nn), im: new Float64Array(n1 * nn) });
   const energiesOut = options.energies ? new Float64Array(n1 * n2 * n) : undefined;
-  const computeRow = (j: number, E: Float64Array, V: { re: Float64Array; im: Float64Array }) => {
+  interface Row { E: Float64Array; Vr: Float64Array; Vi: Float64Array; u1r: Float64Array; u1i: Float64Array }
+  const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * nn), Vi: new Float64Array(n1 * nn), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
+  const computeRow = (j: number, row: Row) => {
     const k2 = j / n2;
+    const { E, Vr, Vi } = row;
     for (let i = 0; i < n1; i++) {
       model.fill(i / n1, k2, re, im);
-      solver.solve(re, im, true);
-      E.set(solver.values, i * n);
-      V.re.set(solver.vectorsRe, i * nn);
-      V.im.set(solver.vectorsIm, i * nn);
-      if (energiesOut && j < n2) energiesOut.set(solver.values, (j * n1 + i) * n);
+      if (solver) {
+        solver.solveVectorRows(re, im);
+        E.set(solver.values, i * n);
+        Vr.set(solver.vectorsRe, i * nn);
+        Vi.set(solver.vectorsIm, i * nn);
+      } else twoBandEigen(re, im, E, i * 2, Vr, Vi, i * 4);
+      if (energiesOut) energiesOut.set(E.subarray(i * n, i * n + n), (j * n1 + i) * n);
     }
   };
   const kmax = Math.max(...groups.map((g) => g.length));
   const mr = new Float64Array(kmax * kmax), mi = new Float64Array(kmax * kmax);
   const sr0 = new Float64Array(kmax * kmax), si0 = new Float64Array(kmax * kmax);
+  // Phased copy of the second point's group vectors (k rows of n), when the embedding phases are not all 1.
+  const yr = new Float64Array(kmax * n), yi = new Float64Array(kmax * n);
+  const phased1 = !Array.from(p1r).every((x, a) => x === 1 && p1i[a] === 0);
+  const phased2 = !Array.from(p2r).every((x, a) => x === 1 && p2i[a] === 0);
   let minLinkOverlap = Infinity;
-  // Scratch for links: phased copy of the second point's group vectors (n x k), link output.
-  const yr = new Float64Array(n * kmax), yi = new Float64Array(n * kmax);
   let linkRe = 1, linkIm = 0;
-  /** Normalized link of group g between point A (row VA, index ia) and B, with phase factors; sets linkRe/linkIm. */
-  const link = (g: number[], VA: { re: Float64Array; im: Float64Array }, ia: number, VB: { re: Float64Array; im: Float64Array }, ib: number, pr: Float64Array, pi: Float64Array): void => {
-    const k = g.length;
-    const lo = g[0]!;
-    const oa = ia * nn, ob = ib * nn;
-    for (let s = 0; s < n; s++) {
-      const fr = pr[s]!, fi = pi[s]!;
-      for (let b = 0; b < k; b++) {
-        const vr = VB.re[ob + s * n + lo + b]!, vi = VB.im[ob + s * n + lo + b]!;
-        yr[s * k + b] = vr * fr - vi * fi;
-        yi[s * k + b] = vr * fi + vi * fr;
-      }
-    }
-    for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) {
-      let sr = 0, si = 0;
-      const ca = lo + a;
-      for (let s = 0; s < n; s++) {
-        const xr = VA.re[oa + s * n + ca]!, xi = VA.im[oa + s * n + ca]!;
-        const zr = yr[s * k + b]!, zi = yi[s * k + b]!;
-        sr += xr * zr + xi * zi;
-        si += xr * zi - xi * zr;
-      }
-      mr[a * k + b] = sr;
-      mi[a * k + b] = si;
-    }
+  /** Normalized link of group (lo, k) from vector set A (offset oa) to B (offset ob); sets linkRe/linkIm. */
+  const link = (lo: number, k: number, Ar: Float64Array, Ai: Float64Array, oa: number, Br: Float64Array, Bi: Float64Array, ob: number, pr: Float64Array, pi: Float64Array, phased: boolean): void => {
     let dr: number, di: number;
+    let Yr = Br, Yi = Bi, oy = ob + lo * n;
+    if (phased) {
+      for (let b = 0; b < k; b++) {
+        const src = ob + (lo + b) * n;
+        for (let s = 0; s < n; s++) {
+          const vr = Br[src + s]!, vi = Bi[src + s]!;
+          const fr = pr[s]!, fi = pi[s]!;
+          yr[b * n + s] = vr * fr - vi * fi;
+          yi[b * n + s] = vr * fi + vi * fr;
+        }
+      }
+      Yr = yr;
+      Yi = yi;
+      oy = 0;
+    }
+    const oA = oa + lo * n;
+    for (let a = 0; a < k; a++) {
+      const ra = oA + a * n;
+      for (let b = 0; b < k; b++) {
+        const rb = oy + b * n;
+        let sr = 0, si = 0;
+        for (let s = 0; s < n; s++) {
+          const xr = Ar[ra + s]!, xi = Ai[ra + s]!;
+          const zr = Yr[rb + s]!, zi = Yi[rb + s]!;
+          sr += xr * zr + xi * zi;
+          si += xr * zi - xi * zr;
+        }
+        mr[a * k + b] = sr;
+        mi[a * k + b] = si;
+      }
+    }
     if (k === 1) {
       dr = mr[0]!;
       di = mi[0]!;
+    } else if (k === 2) {
+      dr = mr[0]! * mr[3]! - mi[0]! * mi[3]! - (mr[1]! * mr[2]! - mi[1]! * mi[2]!);
+      di = mr[0]! * mi[3]! + mi[0]! * mr[3]! - (mr[1]! * mi[2]! + mi[1]! * mr[2]!);
+    } else if (k === 3) {
+      // cofactor expansion along the first row (entries O(1), |det| ~ 1: no cancellation issue)
+      const c0r = mr[4]! * mr[8]! - mi[4]! * mi[8]! - (mr[5]! * mr[7]! - mi[5]! * mi[7]!);
+      const c0i = mr[4]! * mi[8]! + mi[4]! * mr[8]! - (mr[5]! * mi[7]! + mi[5]! * mr[7]!);
+      const c1r = mr[3]! * mr[8]! - mi[3]! * mi[8]! - (mr[5]! * mr[6]! - mi[5]! * mi[6]!);
+      const c1i = mr[3]! * mi[8]! + mi[3]! * mr[8]! - (mr[5]! * mi[6]! + mi[5]! * mr[6]!);
+      const c2r = mr[3]! * mr[7]! - mi[3]! * mi[7]! - (mr[4]! * mr[6]! - mi[4]! * mi[6]!);
+      const c2i = mr[3]! * mi[7]! + mi[3]! * mr[7]! - (mr[4]! * mi[6]! + mi[4]! * mr[6]!);
+      dr = mr[0]! * c0r - mi[0]! * c0i - (mr[1]! * c1r - mi[1]! * c1i) + (mr[2]! * c2r - mi[2]! * c2i);
+      di = mr[0]! * c0i + mi[0]! * c0r - (mr[1]! * c1i + mi[1]! * c1r) + (mr[2]! * c2i + mi[2]! * c2r);
     } else {
       const d = complexDeterminant(k, mr, mi, sr0, si0);
       dr = d[0];
@@ -224,16 +258,17 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const minGap = new Float64Array(G).fill(Infinity);
   const hiddenClosing = new Array<boolean>(G).fill(false);
   const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * n2)) : undefined;
-  const gapAt = (g: number[], E: Float64Array, i: number) => {
-    const lo = g[0]!, hi = g[g.length - 1]!;
+  const gLo = Int32Array.from(groups.map((g) => g[0]!));
+  const gK = Int32Array.from(groups.map((g) => g.length));
+  const gapAt = (gi: number, E: Float64Array, i: number) => {
+    const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
     let gap = Infinity;
     if (lo > 0) gap = Math.min(gap, E[i * n + lo]! - E[i * n + lo - 1]!);
     if (hi < n - 1) gap = Math.min(gap, E[i * n + hi + 1]! - E[i * n + hi]!);
     return gap;
   };
   const checkLink = (gi: number, EA: Float64Array, ia: number, EB: Float64Array, ib: number) => {
-    const g = groups[gi]!;
-    const lo = g[0]!, hi = g[g.length - 1]!;
+    const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
     if (lo > 0) {
       const dE = Math.abs(EA[ia * n + lo]! - EB[ib * n + lo]!) + Math.abs(EA[ia * n + lo - 1]! - EB[ib * n + lo - 1]!);
       const gl = Math.min(EA[ia * n + lo]! - EA[ia * n + lo - 1]!, EB[ib * n + lo]! - EB[ib * n + lo - 1]!);
@@ -245,94 +280,73 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       if (gh < dE) hiddenClosing[gi] = true;
     }
   };
-  const E0 = rowE(), V0 = rowV();
-  computeRow(0, E0, V0);
-  let Ep = E0, Vp = V0;
-  let Ec = rowE(), Vc = rowV();
-  // U1 along the current lower row, per group: [gi][i] -> (re, im)
-  const u1Lower = groups.map(() => ({ re: new Float64Array(n1), im: new Float64Array(n1) }));
-  const u1Upper = groups.map(() => ({ re: new Float64Array(n1), im: new Float64Array(n1) }));
-  const u2 = groups.map(() => ({ re: new Float64Array(n1), im: new Float64Array(n1) }));
-  const rowLinks = (E: Float64Array, V: { re: Float64Array; im: Float64Array }, out: typeof u1Lower) => {
+  /** U1 links along a row (i -> i + 1, periodic), gap checks. */
+  const rowLinks = (row: Row) => {
+    const { E, Vr, Vi, u1r, u1i } = row;
     for (let gi = 0; gi < G; gi++) {
-      const g = groups[gi]!;
+      const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
-        const ip = (i + 1) % n1;
-        link(g, V, i, V, ip, p1r, p1i);
-        out[gi]!.re[i] = linkRe;
-        out[gi]!.im[i] = linkIm;
+        const ip = i + 1 === n1 ? 0 : i + 1;
+        link(lo, k, Vr, Vi, i * nn, Vr, Vi, ip * nn, p1r, p1i, phased1);
+        u1r[gi * n1 + i] = linkRe;
+        u1i[gi * n1 + i] = linkIm;
         checkLink(gi, E, i, E, ip);
-        minGap[gi] = Math.min(minGap[gi]!, gapAt(g, E, i));
+        const gap = gapAt(gi, E, i);
+        if (gap < minGap[gi]!) minGap[gi] = gap;
       }
     }
   };
-  rowLinks(Ep, Vp, u1Lower);
+  const u2r = new Float64Array(n1), u2i = new Float64Array(n1);
+  const row0 = newRow();
+  computeRow(0, row0);
+  rowLinks(row0);
+  let lower = row0;
+  let spare = newRow();
   for (let j = 0; j < n2; j++) {
-    let EcUse: Float64Array, VcUse: { re: Float64Array; im: Float64Array };
+    let upper: Row;
     if (j + 1 < n2) {
-      computeRow(j + 1, Ec, Vc);
-      EcUse = Ec;
-      VcUse = Vc;
-      rowLinks(Ec, Vc, u1Upper);
-    } else {
-      EcUse = E0;
-      VcUse = V0;
-      // u1 of row 0: recompute links (cheap) into u1Upper
-      for (let gi = 0; gi < G; gi++) {
-        const g = groups[gi]!;
-        for (let i = 0; i < n1; i++) {
-          link(g, V0, i, V0, (i + 1) % n1, p1r, p1i);
-          u1Upper[gi]!.re[i] = linkRe;
-          u1Upper[gi]!.im[i] = linkIm;
-        }
-      }
-    }
+      upper = spare;
+      computeRow(j + 1, upper);
+      rowLinks(upper);
+    } else upper = row0;
     for (let gi = 0; gi < G; gi++) {
-      const g = groups[gi]!;
-      const U2 = u2[gi]!;
+      const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
-        link(g, Vp, i, VcUse, i, p2r, p2i);
-        U2.re[i] = linkRe;
-        U2.im[i] = linkIm;
-        checkLink(gi, Ep, i, EcUse, i);
+        link(lo, k, lower.Vr, lower.Vi, i * nn, upper.Vr, upper.Vi, i * nn, p2r, p2i, phased2);
+        u2r[i] = linkRe;
+        u2i[i] = linkIm;
+        checkLink(gi, lower.E, i, upper.E, i);
       }
-      const L = u1Lower[gi]!, Up = u1Upper[gi]!;
+      const Lr = lower.u1r, Li = lower.u1i, Ur = upper.u1r, Ui = upper.u1i;
+      const o = gi * n1;
+      let sum = sums[gi]!, comp = comps[gi]!, mx = maxFlux[gi]!;
+      const fmap = fluxMaps ? fluxMaps[gi]! : null;
       for (let i = 0; i < n1; i++) {
-        const ip = (i + 1) % n1;
+        const ip = i + 1 === n1 ? 0 : i + 1;
         // z = U1(i,j) U2(i+1,j) conj(U1(i,j+1)) conj(U2(i,j))
-        let zr = L.re[i]! * U2.re[ip]! - L.im[i]! * U2.im[ip]!;
-        let zi = L.re[i]! * U2.im[ip]! + L.im[i]! * U2.re[ip]!;
-        const tr = zr * Up.re[i]! + zi * Up.im[i]!;
-        const ti = zi * Up.re[i]! - zr * Up.im[i]!;
-        zr = tr * U2.re[i]! + ti * U2.im[i]!;
-        zi = ti * U2.re[i]! - tr * U2.im[i]!;
+        let zr = Lr[o + i]! * u2r[ip]! - Li[o + i]! * u2i[ip]!;
+        let zi = Lr[o + i]! * u2i[ip]! + Li[o + i]! * u2r[ip]!;
+        const tr = zr * Ur[o + i]! + zi * Ui[o + i]!;
+        const ti = zi * Ur[o + i]! - zr * Ui[o + i]!;
+        zr = tr * u2r[i]! + ti * u2i[i]!;
+        zi = ti * u2r[i]! - tr * u2i[i]!;
         const F = -Math.atan2(zi, zr);
-        const y = F - comps[gi]!;
-        const s = sums[gi]! + y;
-        comps[gi] = s - sums[gi]! - y;
-        sums[gi] = s;
+        const y = F - comp;
+        const s = sum + y;
+        comp = s - sum - y;
+        sum = s;
         const aF = Math.abs(F);
-        if (aF > maxFlux[gi]!) maxFlux[gi] = aF;
-        if (fluxMaps) fluxMaps[gi]![j * n1 + i] = F;
+        if (aF > mx) mx = aF;
+        if (fmap) fmap[j * n1 + i] = F;
       }
-      // the upper row becomes the lower row
-      L.re.set(Up.re);
-      L.im.set(Up.im);
+      sums[gi] = sum;
+      comps[gi] = comp;
+      maxFlux[gi] = mx;
     }
     if (j + 1 < n2) {
-      // rotate buffers (keep row 0 untouched)
-      if (Ep === E0) {
-        Ep = Ec;
-        Vp = Vc;
-        Ec = rowE();
-        Vc = rowV();
-      } else {
-        const te = Ep, tv = Vp;
-        Ep = Ec;
-        Vp = Vc;
-        Ec = te;
-        Vc = tv;
-      }
+      // the upper row becomes the lower row; row 0 is kept for the periodic closure
+      spare = lower === row0 ? newRow() : lower;
+      lower = upper;
     }
   }
   const chern: number[] = [];
@@ -373,4 +387,40 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   if (fluxMaps) result.flux = fluxMaps;
   if (energiesOut) result.energies = energiesOut;
   return result;
+}
+
+/**
+ * Eigen-decomposition of a 2 x 2 Hermitian matrix H = [[a, conj(c)], [c, d]] (lower triangle read:
+ * a = re[0], c = re[2] + i im[2], d = re[3]) in closed form: lambda = (a + d)/2 -+ r,
+ * r = sqrt(((a - d)/2)^2 + |c|^2); each eigenvector is the column of the spectral projector
+ * (lambda_other - H) / (lambda_other - lambda) chosen so that no component suffers cancellation.
+ * Writes E[eo], E[eo + 1] (ascending) and the vectors as rows at vo (vector b, component s at vo + 2b + s).
+ * Common practice, no source (the projector form of the 2 x 2 eigenproblem).
+ */
+export function twoBandEigen(re: ArrayLike<number>, im: ArrayLike<number>, E: Float64Array, eo: number, Vr: Float64Array, Vi: Float64Array, vo: number): void {
+  const a = re[0]!, d = re[3]!, cr = re[2]!, ci = im[2]!;
+  const mean = 0.5 * (a + d);
+  const dz = 0.5 * (a - d);
+  const c2 = cr * cr + ci * ci;
+  const r = Math.sqrt(dz * dz + c2);
+  E[eo] = mean - r;
+  E[eo + 1] = mean + r;
+  if (r === 0) {
+    Vr[vo] = 1; Vi[vo] = 0; Vr[vo + 1] = 0; Vi[vo + 1] = 0;
+    Vr[vo + 2] = 0; Vi[vo + 2] = 0; Vr[vo + 3] = 1; Vi[vo + 3] = 0;
+    return;
+  }
+  if (dz >= 0) {
+    // lower: column 1 of (lambda+ - H) = (-conj(c), r + dz); upper: column 0 of (H - lambda-) = (r + dz, c)
+    const w = r + dz;
+    const inv = 1 / Math.sqrt(c2 + w * w);
+    Vr[vo] = -cr * inv; Vi[vo] = ci * inv; Vr[vo + 1] = w * inv; Vi[vo + 1] = 0;
+    Vr[vo + 2] = w * inv; Vi[vo + 2] = 0; Vr[vo + 3] = cr * inv; Vi[vo + 3] = ci * inv;
+  } else {
+    // lower: column 0 of (lambda+ - H) = (r - dz, -c); upper: column 1 of (H - lambda-) = (conj(c), r - dz)
+    const w = r - dz;
+    const inv = 1 / Math.sqrt(c2 + w * w);
+    Vr[vo] = w * inv; Vi[vo] = 0; Vr[vo + 1] = -cr * inv; Vi[vo + 1] = -ci * inv;
+    Vr[vo + 2] = cr * inv; Vi[vo + 2] = -ci * inv; Vr[vo + 3] = w * inv; Vi[vo + 3] = 0;
+  }
 }

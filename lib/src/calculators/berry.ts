@@ -127,10 +127,13 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
     values.chernUpper = r.chern[1]!;
   }
   if (options.sweep) {
+    // The phase diagram runs 21+ grids: on its own (coarser) grid; unresolved points near the
+    // boundary are reported, never guessed, so a coarse grid costs resolution, not correctness.
+    const ns = v.sweepGrid ?? 24;
     const Ms = sweepValues(chernSpec, options.sweep);
     const xs: number[] = [], cs: number[] = [], cf: number[] = [], un: number[] = [];
     for (const M of Ms) {
-      const s = chernNumbers(model(M), { n1: n, onUnresolved: "report" });
+      const s = chernNumbers(model(M), { n1: ns, onUnresolved: "report" });
       if (s.status === "ok") {
         xs.push(M);
         cs.push(s.chern[0]!);
@@ -142,7 +145,7 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
     values.MResolved = xs;
     values.chernSweep = cs;
     values.MUnresolved = un;
-    if (un.length) notes.push(`${un.length} sweep points near |M| = ${Mc.toPrecision(4)} are not resolved on the ${n} x ${n} grid and are left out of chernSweep.`);
+    if (un.length) notes.push(`${un.length} sweep points near |M| = ${Mc.toPrecision(4)} are not resolved on the ${ns} x ${ns} sweep grid and are left out of chernSweep (raise sweepGrid to resolve them).`);
   }
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
 }
@@ -155,7 +158,8 @@ export const chernSpec: CalculatorSpec = {
     { name: "t2", symbol: "t_2", unit: "", default: 0.1, min: 0.02, max: 0.3, scale: "linear", meaning: "next-nearest-neighbour hopping (units of t1)" },
     { name: "phi", symbol: "\\phi", unit: "", default: Math.PI / 2, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "phase of the NNN hopping (rad)" },
     { name: "M", symbol: "M", unit: "", default: 0.2, min: -1.5, max: 1.5, scale: "linear", meaning: "sublattice (Semenoff) mass (units of t1)" },
-    { name: "grid", symbol: "n", unit: "", default: 30, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "grid points per reciprocal direction" },
+    { name: "grid", symbol: "n", unit: "", default: 30, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "grid points per reciprocal direction (Chern numbers at M)" },
+    { name: "sweepGrid", symbol: "n_{sweep}", unit: "", default: 24, min: 12, max: 72, scale: "linear", kind: "integer", meaning: "grid points per direction for the phase diagram against M (refine to resolve points near the boundary)" },
   ],
   outputs: [
     { name: "chernLower", symbol: "C_-", unit: "", meaning: "Chern number of the lower band (omitted if unresolved)" },
@@ -181,7 +185,7 @@ export const chernSpec: CalculatorSpec = {
     "Chern number in the (k1, k2) orientation of the right-handed basis a1 = (sqrt3/2, 3/2), a2 = (-sqrt3/2, 3/2); C = (1/2pi) int Omega with Omega = -2 Im <d1u|d2u>.",
   ],
   sources: ["F. D. M. Haldane, PRL 61, 2015 (1988)", "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)"],
-  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux, gap vs band change per step)",
+  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux, gap vs band change per step); two-band eigenvectors in closed form",
   compute: computeChern,
 };
 

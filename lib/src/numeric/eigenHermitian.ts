@@ -3,7 +3,9 @@
  *
  * Method: complex Householder reduction to Hermitian tridiagonal form, a diagonal unitary phase
  * transform that makes the tridiagonal real symmetric, then the implicit QL algorithm with Wilkinson
- * shifts (the EISPACK htridi / tql2 / htribk sequence), eigenvectors accumulated on the fly.
+ * shifts (the EISPACK htridi / tql2 / htribk sequence). Eigenvectors: the QL rotations act on a REAL
+ * matrix Z (eigenvectors of the real tridiagonal), then v_k = Q D z_k (one complex-by-real product),
+ * which halves the rotation work against rotating complex vectors.
  * Sources: J. H. Wilkinson, C. Reinsch, *Handbook for Automatic Computation II, Linear Algebra*
  * (Springer 1971), contributions II/2 (tred2) and II/3 (tql2); B. T. Smith et al., *Matrix Eigensystem
  * Routines - EISPACK Guide* (Springer 1976) for the complex Hermitian variant.
@@ -56,6 +58,7 @@ export class HermitianEigenSolver {
   private readonly taus: Float64Array;
   private readonly wr: Float64Array;
   private readonly wi: Float64Array;
+  private readonly z: Float64Array;
 
   constructor(n: number) {
     if (!Number.isInteger(n) || n < 1) throw new InputError("n", n, "a positive whole matrix size");
@@ -75,6 +78,7 @@ export class HermitianEigenSolver {
     this.taus = new Float64Array(n);
     this.wr = new Float64Array(n * n);
     this.wi = new Float64Array(n * n);
+    this.z = new Float64Array(n * n);
   }
 
   /**
@@ -83,6 +87,19 @@ export class HermitianEigenSolver {
    * With `vectors = false` only eigenvalues are computed (about 3 times faster).
    */
   solve(re: ArrayLike<number>, im: ArrayLike<number> | null, vectors = true): void {
+    this.solveInternal(re, im, vectors, false);
+  }
+
+  /**
+   * As `solve` with vectors, but leaves eigenvector k as ROW k of (vectorsRe, vectorsIm)
+   * (component i at [k * n + i]): the solver's internal layout, which saves a transpose for
+   * callers that read whole vectors (link variables).
+   */
+  solveVectorRows(re: ArrayLike<number>, im: ArrayLike<number> | null): void {
+    this.solveInternal(re, im, true, true);
+  }
+
+  private solveInternal(re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean): void {
     const n = this.n;
     const ar = this.ar;
     const ai = this.ai;
@@ -101,7 +118,7 @@ export class HermitianEigenSolver {
     const hr = this.hr;
     const hi = this.hi;
     const taus = this.taus;
-    taus.fill(0);
+    for (let k = 0; k < n; k++) taus[k] = 0;
     const vr = this.vr;
     const vi = this.vi;
     const pr = this.pr;
@@ -188,14 +205,16 @@ export class HermitianEigenSolver {
       for (let i = 0; i < n - 1; i++) e[i] = fastHypot(ar[(i + 1) * n + i]!, ai[(i + 1) * n + i]!);
       e[n - 1] = 0;
       tql2(n, d, e, null, null);
-      d.sort();
+      insertionSort(d);
       return;
     }
     // Q = P_0 P_1 ... P_{n-3} accumulated backwards (only the trailing block is touched), in Wr/Wi.
     const Wr = this.wr;
     const Wi = this.wi;
-    Wr.fill(0);
-    Wi.fill(0);
+    for (let i = 0; i < n * n; i++) {
+      Wr[i] = 0;
+      Wi[i] = 0;
+    }
     for (let i = 0; i < n; i++) Wr[i * n + i] = 1;
     for (let k = n - 3; k >= 0; k--) {
       const tau = taus[k]!;
@@ -224,17 +243,17 @@ export class HermitianEigenSolver {
         }
       }
     }
-    // Transposed storage for the QL (eigenvector k = row k, contiguous), with the phases D.
-    const Vr = this.vectorsRe;
-    const Vi = this.vectorsIm;
+    // Phases D (delta_{j+1} = delta_j c_j / |c_j|) folded into the columns of Q: W <- Q D.
     let dr = 1;
     let di = 0;
     for (let j = 0; j < n; j++) {
-      for (let i = 0; i < n; i++) {
-        const a = Wr[i * n + j]!;
-        const b = Wi[i * n + j]!;
-        Vr[j * n + i] = a * dr - b * di;
-        Vi[j * n + i] = a * di + b * dr;
+      if (j > 0) {
+        for (let i = 0; i < n; i++) {
+          const a = Wr[i * n + j]!;
+          const b = Wi[i * n + j]!;
+          Wr[i * n + j] = a * dr - b * di;
+          Wi[i * n + j] = a * di + b * dr;
+        }
       }
       if (j < n - 1) {
         const cr = ar[(j + 1) * n + j]!;
@@ -252,8 +271,31 @@ export class HermitianEigenSolver {
         e[j] = 0;
       }
     }
-    tql2(n, d, e, Vr, Vi);
-    sortAscending(n, d, Vr, Vi);
+    // QL on the real tridiagonal with REAL rotations of Z (eigenvector k of T' = row k of Z): half
+    // the work of rotating complex rows; then eigenvector k of A = (Q D) z_k.
+    const Z = this.z;
+    for (let i = 0; i < n * n; i++) Z[i] = 0;
+    for (let i = 0; i < n; i++) Z[i * n + i] = 1;
+    tql2(n, d, e, Z, null);
+    sortAscending(n, d, Z, null);
+    const Vr = this.vectorsRe;
+    const Vi = this.vectorsIm;
+    for (let k = 0; k < n; k++) {
+      const zk = k * n;
+      for (let i = 0; i < n; i++) {
+        const wi = i * n;
+        let sr = 0;
+        let si = 0;
+        for (let j = 0; j < n; j++) {
+          const z = Z[zk + j]!;
+          sr += z * Wr[wi + j]!;
+          si += z * Wi[wi + j]!;
+        }
+        Vr[zk + i] = sr;
+        Vi[zk + i] = si;
+      }
+    }
+    if (rows) return;
     // Back to the documented layout: component i of vector k at [i * n + k].
     for (let i = 0; i < n; i++) {
       for (let k = i + 1; k < n; k++) {
@@ -270,10 +312,10 @@ export class HermitianEigenSolver {
 
 /** hypot without the slow generic path of Math.hypot, safe for the magnitudes met here. */
 function fastHypot(a: number, b: number): number {
-  const x = Math.abs(a);
-  const y = Math.abs(b);
-  if (x > 1e150 || y > 1e150 || (x < 1e-150 && y < 1e-150)) return Math.hypot(a, b);
-  return Math.sqrt(x * x + y * y);
+  const h = a * a + b * b;
+  // Neither overflow nor loss of the smaller term to underflow: the plain formula is exact enough.
+  if (h < 1e300 && h > 1e-290) return Math.sqrt(h);
+  return Math.hypot(a, b);
 }
 
 /**
@@ -325,16 +367,20 @@ function tql2(n: number, d: Float64Array, e: Float64Array, Vr: Float64Array | nu
           c = p / r;
           p = c * d[i]! - s * g;
           d[i + 1] = h + s * (c * g + s * d[i]!);
-          if (Vr && Vi) {
+          if (Vr) {
             const r0 = i * n;
             const r1 = r0 + n;
             for (let k = 0; k < n; k++) {
-              let t = Vr[r1 + k]!;
+              const t = Vr[r1 + k]!;
               Vr[r1 + k] = s * Vr[r0 + k]! + c * t;
               Vr[r0 + k] = c * Vr[r0 + k]! - s * t;
-              t = Vi[r1 + k]!;
-              Vi[r1 + k] = s * Vi[r0 + k]! + c * t;
-              Vi[r0 + k] = c * Vi[r0 + k]! - s * t;
+            }
+            if (Vi) {
+              for (let k = 0; k < n; k++) {
+                const t = Vi[r1 + k]!;
+                Vi[r1 + k] = s * Vi[r0 + k]! + c * t;
+                Vi[r0 + k] = c * Vi[r0 + k]! - s * t;
+              }
             }
           }
         }
@@ -348,7 +394,19 @@ function tql2(n: number, d: Float64Array, e: Float64Array, Vr: Float64Array | nu
   }
 }
 
-function sortAscending(n: number, d: Float64Array, Vr: Float64Array, Vi: Float64Array): void {
+function insertionSort(d: Float64Array): void {
+  for (let i = 1; i < d.length; i++) {
+    const v = d[i]!;
+    let j = i - 1;
+    while (j >= 0 && d[j]! > v) {
+      d[j + 1] = d[j]!;
+      j--;
+    }
+    d[j + 1] = v;
+  }
+}
+
+function sortAscending(n: number, d: Float64Array, Vr: Float64Array, Vi: Float64Array | null): void {
   // Selection sort swapping rows (vectors): n is small next to the QL cost.
   for (let i = 0; i < n - 1; i++) {
     let k = i;
@@ -361,9 +419,11 @@ function sortAscending(n: number, d: Float64Array, Vr: Float64Array, Vi: Float64
       let x = Vr[i * n + c]!;
       Vr[i * n + c] = Vr[k * n + c]!;
       Vr[k * n + c] = x;
-      x = Vi[i * n + c]!;
-      Vi[i * n + c] = Vi[k * n + c]!;
-      Vi[k * n + c] = x;
+      if (Vi) {
+        x = Vi[i * n + c]!;
+        Vi[i * n + c] = Vi[k * n + c]!;
+        Vi[k * n + c] = x;
+      }
     }
   }
 }

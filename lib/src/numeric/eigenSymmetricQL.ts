@@ -161,7 +161,7 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
         }
         let g = d[l]!;
         let p = (d[l + 1]! - g) / (2 * e[l]!);
-        let r = Math.hypot(p, 1);
+        let r = fastHypot(p, 1);
         if (p < 0) r = -r;
         d[l] = e[l]! / (p + r);
         d[l + 1] = e[l]! * (p + r);
@@ -182,7 +182,7 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
           s2 = s;
           g = c * e[i]!;
           h = c * p;
-          r = Math.hypot(p, e[i]!);
+          r = fastHypot(p, e[i]!);
           e[i + 1] = s * r;
           s = e[i]! / r;
           c = p / r;
@@ -206,4 +206,12 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
     d[l] = d[l]! + f;
     e[l] = 0;
   }
+}
+
+/** hypot without the slow generic path of Math.hypot, safe for the magnitudes met here. */
+function fastHypot(a: number, b: number): number {
+  const x = Math.abs(a);
+  const y = Math.abs(b);
+  if (x > 1e150 || y > 1e150 || (x < 1e-150 && y < 1e-150)) return Math.hypot(a, b);
+  return Math.sqrt(x * x + y * y);
 }

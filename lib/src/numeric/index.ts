@@ -12,3 +12,4 @@ export * from "./eigenHermitian.js";
 export * from "./eigenSymmetricQL.js";
 export * from "./doubleDouble.js";
 export * from "./brentRoot.js";
+export * from "./eigenSymmetricBand.js";

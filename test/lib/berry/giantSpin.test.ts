@@ -1,8 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { hardAxisTunnelSplitting, hardAxisQuenchingFields, giantSpinLevels, giantSpinMatrix, gargQuenchingPeriod, tunnelSplittingAnyField } from "../../../lib/src/berry/giantSpin.js";
+import { hardAxisParityBlocks, hardAxisTunnelSplitting, hardAxisQuenchingFields, giantSpinLevels, giantSpinMatrix, gargQuenchingPeriod, tunnelSplittingAnyField } from "../../../lib/src/berry/giantSpin.js";
 import { kB } from "../../../lib/src/quantity/constants.js";
 import { InputError } from "../../../lib/src/errors.js";
 import { runPython } from "../../helpers/python.js";
+import { symmetricEigenvaluesDD, ddSub, ddToNumber } from "../../../lib/src/numeric/doubleDouble.js";
 
 // Invented molecular magnet "Ferrowheel-10" (S = 10, D = 0.29 K, E = 0.047 K, g = 2): demo values.
 const mol = { S: 10, D: 0.29 * kB, E: 0.047 * kB, g: 2 };
@@ -74,5 +75,21 @@ print(json.dumps({"split": mp.nstr(E[1] - E[0], 25)}))`, { n: H.dim, re: Array.f
     expect(() => hardAxisTunnelSplitting({ S: 10.3, D: 1, E: 0.1 }, 0)).toThrow(InputError);
     expect(() => hardAxisTunnelSplitting({ S: 10.3, D: 1, E: 0.1 }, 0)).toThrow(/S = 10.3/);
     expect(() => giantSpinMatrix({ S: 2, D: 1, E: -1 }, [0, 0, 0])).toThrow(/E >= 0/);
+  });
+
+  it("Rayleigh-quotient splitting (double vector, double-double quotient) equals the all-double-double route", () => {
+    // Common practice, no source: two independent double-double routes (Householder + Sturm bisection
+    // in double-double, symmetricEigenvaluesDD) must agree to the stated resolution (1e-29 D S^2).
+    for (const p of [mol, { S: 12, D: 0.05 * kB, E: 0.005 * kB, g: 2 }, { S: 9.5, D: 0.3 * kB, E: 0.05 * kB, g: 2 }]) {
+      for (const Bx of [0, 0.05, 0.77, 3]) {
+        const b = hardAxisParityBlocks(p, Bx);
+        const ls = symmetricEigenvaluesDD(b.nSym, b.sym, [0])[0]!;
+        const la = symmetricEigenvaluesDD(b.nAnti, b.anti, [0])[0]!;
+        const slow = ddToNumber(ddSub(la, ls));
+        const fast = hardAxisTunnelSplitting(p, Bx);
+        expect(Math.abs(fast.signed - slow), `S = ${p.S}, Bx = ${Bx}`).toBeLessThan(1e-29 * p.D * p.S * p.S);
+        expect(fast.resolution).toBeLessThan(1e-28 * p.D * p.S * p.S);
+      }
+    }
   });
 });

@@ -137,4 +137,22 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
     const solver = new HermitianEigenSolver(2);
     expect(solver.n).toBe(2);
   });
+
+  it("solveVectorRows gives the transposed vectors of solve; a reused workspace gives identical results", () => {
+    // Common practice, no source: layout variant and workspace reuse must not change results.
+    for (const m of mats.filter((x) => x.n <= 17)) {
+      const n = m.n;
+      const a = new HermitianEigenSolver(n);
+      a.solve(m.re, m.im, true);
+      const colsRe = Float64Array.from(a.vectorsRe), colsIm = Float64Array.from(a.vectorsIm), vals = Float64Array.from(a.values);
+      const other = randomHermitian(n, 999);
+      a.solve(other.re, other.im, true); // dirty the workspace
+      a.solveVectorRows(m.re, m.im);
+      expect(Array.from(a.values)).toEqual(Array.from(vals));
+      for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) {
+        expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
+        expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
+      }
+    }
+  });
 });
