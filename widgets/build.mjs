@@ -74,9 +74,11 @@ const workerSource = {
   },
 };
 
-// 2. export bootstrap
+// 2. export bootstrap (ipywidgets 7 models left out: our kernel speaks protocol 2)
+const widgets7 = join(here, "src", "stubs", "widgets7");
 await esbuild.build({
   ...common,
+  alias: { ...common.alias, "@jupyter-widgets/base7": widgets7, "@jupyter-widgets/controls7": widgets7 },
   entryPoints: [join(here, "src/exportPage.ts")],
   format: "iife",
   outfile: join(dist, "export.js"),
