@@ -11,3 +11,4 @@ export * from "./startGuess.js";
 export * from "./skyrmionSensitivity.js";
 export * from "./fieldSeries.js";
 export * from "./syntheticProfiles.js";
+export * from "./fitReport.js";

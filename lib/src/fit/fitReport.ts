@@ -1,0 +1,85 @@
+/**
+ * Markdown reports of fits: a parameter table (value +- standard error and the confidence interval
+ * in the trade's customary units), the goodness of fit, status, notes, assumptions, method and
+ * sources, so a notebook documents a fit with one call. Works for single-profile and global fits
+ * (FitResult) and for field series (FieldSeriesResult). Common practice, no source.
+ */
+import { customaryUnit, displayUnit, formatNumber } from "../quantity/units.js";
+import type { FitResult, ParameterResult } from "./leastSquares.js";
+import type { FieldSeriesResult } from "./fieldSeries.js";
+
+/** "value ± stderr unit" in one customary unit chosen from the value. */
+export function formatWithError(value: number, stderr: number | null, siUnit: string, digits = 4): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (value === 0 && !stderr) return `0${siUnit ? " " + displayUnit(siUnit) : ""}`;
+  const [u, f] = customaryUnit(value !== 0 ? value : stderr ?? 0, siUnit);
+  const unit = u && u !== "1" ? " " + displayUnit(u) : "";
+  if (stderr === null || !Number.isFinite(stderr)) return `${formatNumber(value / f, digits)}${unit}`;
+  // digits of the value follow the error: two significant digits of the error
+  const e = stderr / f;
+  const decimals = e > 0 ? Math.max(0, 1 - Math.floor(Math.log10(e))) : digits;
+  const fix = (v: number) => (decimals <= 12 ? v.toFixed(Math.min(decimals, 12)) : formatNumber(v, digits));
+  return `${fix(value / f)} ± ${fix(e)}${unit}`;
+}
+
+function intervalText(p: ParameterResult): string {
+  if (!p.interval) return p.fixed ? "fixed" : p.atBound ? "on its bound" : "—";
+  const [u, f] = customaryUnit(p.value !== 0 ? p.value : p.interval[1], p.unit);
+  const unit = u && u !== "1" ? " " + displayUnit(u) : "";
+  return `[${formatNumber(p.interval[0] / f, 4)}, ${formatNumber(p.interval[1] / f, 4)}]${unit}`;
+}
+
+function esc(s: string): string {
+  return s.replace(/\|/g, "\\|");
+}
+
+function isSeries(r: FitResult | FieldSeriesResult): r is FieldSeriesResult {
+  return (r as FieldSeriesResult).kuDecision !== undefined;
+}
+
+/** Markdown of the parameter table alone. */
+export function fitParameterTable(result: FitResult | FieldSeriesResult, meanings: Record<string, string> = {}): string {
+  const conf = Math.round(100 * result.confidence);
+  const lines = [`| parameter | meaning | value ± standard error | ${conf} % interval |`, "|---|---|---|---|"];
+  for (const [name, p] of Object.entries(result.parameters)) {
+    const status = p.fixed ? " (fixed)" : p.atBound ? " (on bound)" : "";
+    lines.push(`| ${esc(name)}${status} | ${esc(meanings[name] ?? "")} | ${formatWithError(p.value, p.stderr, p.unit)} | ${intervalText(p)} |`);
+  }
+  return lines.join("\n");
+}
+
+/** A full Markdown report of a fit. */
+export function fitReport(result: FitResult | FieldSeriesResult, options: { title?: string; meanings?: Record<string, string> } = {}): string {
+  const out: string[] = [];
+  if (options.title) out.push(`### ${options.title}`, "");
+  out.push(`**Status:** ${result.status} — ${result.message}`, "");
+  out.push(fitParameterTable(result, options.meanings), "");
+  const gof: string[] = [`chi² = ${formatNumber(result.chiSquare, 4)}`, `degrees of freedom = ${result.dof}`, `reduced chi² = ${formatNumber(result.chiSquareReduced, 4)}`];
+  if (isSeries(result)) {
+    out.push(`**Goodness of fit (${result.approach === "two-stage" ? "energy model against the per-profile R, w" : "all profiles"}):** ${gof.join(", ")}`, "");
+    out.push(`**Ku:** ${result.kuDecision.reason}.`, "");
+    out.push("| B | R (profile fit) | w (profile fit) | corr(R, w) | R (energy model) | w (energy model) | pull R | pull w |", "|---|---|---|---|---|---|---|---|");
+    for (const p of result.profiles) {
+      out.push(
+        `| ${formatNumber(p.B * 1e3, 4)} mT | ${formatWithError(p.R, p.stderrR, "m")} | ${formatWithError(p.w, p.stderrW, "m")} | ${p.correlationRw.toFixed(2)} | ${formatWithError(p.modelR, null, "m")} | ${formatWithError(p.modelW, null, "m")} | ${p.pullR.toFixed(2)} | ${p.pullW.toFixed(2)} |`,
+      );
+    }
+    out.push("");
+  } else {
+    const extra = [`AIC = ${formatNumber(result.aic, 6)}`, `BIC = ${formatNumber(result.bic, 6)}`, `${result.points} points`, result.sigmaKnown ? "sigmas given (errors unscaled)" : "sigmas unknown (errors scaled by the reduced chi²)"];
+    out.push(`**Goodness of fit:** ${[...gof, ...extra].join(", ")}`, "");
+  }
+  if (result.correlation && result.freeNames.length > 1) {
+    const names = result.freeNames;
+    let worst = { a: "", b: "", r: 0 };
+    for (let i = 0; i < names.length; i++) for (let j = i + 1; j < names.length; j++) if (Math.abs(result.correlation[i][j]) > Math.abs(worst.r)) worst = { a: names[i], b: names[j], r: result.correlation[i][j] };
+    out.push(`**Strongest correlation:** ${worst.a} – ${worst.b}: ${worst.r.toFixed(3)}`, "");
+  }
+  if (result.notes.length) out.push("**Notes:**", ...result.notes.map((n) => `- ${n}`), "");
+  const assumptions = isSeries(result) ? result.assumptions : ((result as FitResult & { assumptions?: string[] }).assumptions ?? []);
+  if (assumptions.length) out.push("**Assumptions:**", ...assumptions.map((a) => `- ${a}`), "");
+  out.push(`**Method:** ${result.method}`, "");
+  const sources = [...result.sources, ...(((result as FitResult & { modelSources?: string[] }).modelSources ?? []) as string[])];
+  if (sources.length) out.push("**Sources:**", ...sources.map((s) => `- ${s}`));
+  return out.join("\n");
+}
