@@ -13,3 +13,4 @@ export * from "./eigenSymmetricQL.js";
 export * from "./doubleDouble.js";
 export * from "./brentRoot.js";
 export * from "./eigenSymmetricBand.js";
+export * from "./latticeHankelTransform.js";
