@@ -330,7 +330,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     // column-normalized J for the rank decision
     const nn = inner.length;
     const norms = new Float64Array(nn);
-    const Jn = new Float64Array(J.length);
+    const Jn = J; // normalized in place (J is not needed afterwards)
     for (let c = 0; c < nn; c++) {
       const off = c * m;
       let s = 0;

@@ -330,7 +330,7 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
   let xnorm = 0;
   let lambda = 0;
   let first = true;
-  const jfree = new Float64Array(m * n);
+  let jfree: Float64Array | null = null; // allocated on the first QR step only
   const jpa = new Float64Array(m);
   const dots = new Float64Array(2);
   for (;;) {
@@ -392,9 +392,10 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
         const c = cn[free[k]] > 0 ? 1 / cn[free[k]] : 1;
         const src = free[k] * m;
         const dst = k * m;
+        jfree ??= new Float64Array(m * n);
         for (let i = 0; i < m; i++) jfree[dst + i] = jac[src + i] * c;
       }
-      const full = pivotedQr(jfree.subarray(0, nf * m), m, nf);
+      const full = pivotedQr(jfree!.subarray(0, nf * m), m, nf);
       qtf = applyQt(full, f).subarray(0, nf);
       const rs = full.r;
       for (let j = 0; j < nf; j++) {
