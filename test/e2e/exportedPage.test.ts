@@ -273,7 +273,9 @@ describe("exported page", () => {
     await moveSlider(page, sk, "D", 700);
     await settled(page, sk);
     const inputs = await inputsOf(page, sk);
-    const sweep = defaultSweep(spec, inputs)!;
+    // The same inputs and the same sweep as the page.
+    const sweep = JSON.parse((await page.locator(sk).getAttribute("data-sweep"))!);
+    expect(sweep).toEqual(defaultSweep(spec, inputs));
     const node = runCalculator(spec, inputs, { sweep });
     const after = (await tracesOf(page, sk)).find((t) => t.output === "radiusSweep")!;
     const expected = node.outputs.radiusSweep!.value as number[];

@@ -72,7 +72,8 @@ describe.skipIf(!built)("helicoid run + helicoid export + browser", () => {
       root.querySelectorAll(".hx-plot").forEach((gd) => {
         for (const t of ((gd as any).data ?? [])) if (t.meta.output === "radiusSweep") trace = { x: t.x.map((v: number) => v * t.meta.xFactor), y: t.y.map((v: number | null) => (v === null ? null : v * t.meta.yFactor)) };
       });
-      return { inputs, trace: trace! };
+      const sweep = JSON.parse((root as HTMLElement).dataset.sweep || "null");
+      return { inputs, sweep, trace: trace! };
     }, sk);
     const before = await read();
     expect(before.inputs.D).toBeCloseTo(2.6e-3, 12);
@@ -86,8 +87,9 @@ describe.skipIf(!built)("helicoid run + helicoid export + browser", () => {
     const after = await read();
     expect(after.inputs.D).not.toBe(before.inputs.D);
     const spec = getCalculator("skyrmion");
-    const sweep = { over: "B", from: spec.inputs.find((i) => i.name === "B")!.min, to: spec.inputs.find((i) => i.name === "B")!.max, points: spec.sweep!.points };
-    const node = runCalculator(spec, after.inputs, { sweep });
+    // The same inputs and the same sweep as the page.
+    expect(after.sweep.over).toBe("B");
+    const node = runCalculator(spec, after.inputs, { sweep: after.sweep });
     const ys = node.outputs.radiusSweep!.value as number[];
     const xs = node.outputs.fieldSweep!.value as number[];
     expect(after.trace.y.length).toBe(ys.length);

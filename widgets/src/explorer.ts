@@ -337,6 +337,7 @@ export class ExplorerView extends DOMWidgetView {
       }
     }
     if (this.sweepSelect && sweep) this.sweepSelect.value = sweep.over;
+    this.el.dataset.sweep = sweep ? JSON.stringify(sweep) : "";
   }
 
   // ----- compute -----
