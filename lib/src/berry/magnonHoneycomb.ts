@@ -76,10 +76,11 @@ export function c2Weight(x: number): number {
   }
   if (x > 700) return 0;
   const q = Math.exp(-x);
-  const rho = q / -Math.expm1(-x);
+  const oneMinusQ = -Math.expm1(-x);
+  const rho = q / oneMinusQ;
   const l1q = Math.log1p(-q); // ln(1 - q)
   // (1 + rho) x^2 - ln^2 rho = x^2 q / (1 - q) - 2 x ln(1 - q) - ln^2(1 - q)
-  return (x * x * q) / -Math.expm1(-x) - 2 * x * l1q - l1q * l1q - 2 * dilogarithm(-rho);
+  return x * x * rho - 2 * x * l1q - l1q * l1q - 2 * dilogarithm(-rho);
 }
 
 export interface HoneycombMagnonResult {
@@ -124,27 +125,35 @@ export function honeycombMagnonHall(p: HoneycombMagnonParams, temperatures: numb
   }
   const kappaXYReduced: number[] = [];
   const kappaXY: number[] = [];
-  const w = new Float64Array(n * n * 2);
   const fluxLimit = 1;
   // Grid points where the bands touch (D = 0 with K on the grid): their eigenvectors are arbitrary.
   const degenerate = new Uint8Array(n * n);
   for (let q = 0; q < n * n; q++) if (E[q * 2 + 1]! - E[q * 2]! < 1e-9 * (hi - lo || 1)) degenerate[q] = 1;
+  // Plaquette weight = mean of c2 at its four corners, so sum_plaquettes c f = sum_corners c2(q) G(q)
+  // with G(q) = (1/4) sum of the fluxes of the plaquettes touching q: G is computed once, and each
+  // temperature costs one c2 per grid point and band.
+  const G = new Float64Array(n * n * 2);
+  for (let b = 0; b < 2; b++) {
+    const F = res.flux![b]!;
+    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
+      const f = F[j * n + i]!;
+      // At D = 0 the plaquettes around K, K' carry an ambiguous flux near +-pi: leave them out
+      // (the curvature is singular there and zero elsewhere).
+      const ip = (i + 1) % n, jp = (j + 1) % n;
+      if (p.D === 0 && (Math.abs(f) > fluxLimit || degenerate[j * n + i] || degenerate[j * n + ip] || degenerate[jp * n + i] || degenerate[jp * n + ip])) continue;
+      const q = 0.25 * f;
+      G[(j * n + i) * 2 + b] = G[(j * n + i) * 2 + b]! + q;
+      G[(j * n + ip) * 2 + b] = G[(j * n + ip) * 2 + b]! + q;
+      G[(jp * n + i) * 2 + b] = G[(jp * n + i) * 2 + b]! + q;
+      G[(jp * n + ip) * 2 + b] = G[(jp * n + ip) * 2 + b]! + q;
+    }
+  }
   for (const T of temperatures) {
     let sum = 0;
     const kT = kB * T;
-    for (let q = 0; q < w.length; q++) w[q] = c2Weight(Math.max(E[q]!, 0) / kT);
-    for (let b = 0; b < 2; b++) {
-      const F = res.flux![b]!;
-      for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-        const f = F[j * n + i]!;
-        // At D = 0 the plaquettes around K, K' carry an ambiguous flux near +-pi: leave them out
-        // (the curvature is singular there and zero elsewhere).
-        const ip = (i + 1) % n, jp = (j + 1) % n;
-        if (p.D === 0 && (Math.abs(f) > fluxLimit || degenerate[j * n + i] || degenerate[j * n + ip] || degenerate[jp * n + i] || degenerate[jp * n + ip])) continue;
-        // plaquette weight: mean of c2 at its four corners
-        const c = 0.25 * (w[(j * n + i) * 2 + b]! + w[(j * n + ip) * 2 + b]! + w[(jp * n + i) * 2 + b]! + w[(jp * n + ip) * 2 + b]!);
-        sum += c * f;
-      }
+    for (let q = 0; q < G.length; q++) {
+      const g = G[q]!;
+      if (g !== 0) sum += c2Weight(Math.max(E[q]!, 0) / kT) * g;
     }
     const red = -sum / (4 * Math.PI * Math.PI);
     kappaXYReduced.push(red + 0);

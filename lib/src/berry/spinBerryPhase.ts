@@ -62,9 +62,11 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   const n = v.length / 3;
   const omega = solidAngleOfVertices(v).value;
   const { dim } = spinBasis(S);
-  // States at each vertex; overlap phases summed (arg of each factor) to avoid underflow.
-  let phase = 0;
+  // States at each vertex; the product of overlaps is kept as a unit phase times a magnitude
+  // (renormalized) so that it never underflows.
+  let zr = 1, zi = 0;
   let logMag = 0;
+  let magProd = 1;
   const d = new Float64Array(dim);
   let prevRe = new Float64Array(dim);
   let prevIm = new Float64Array(dim);
@@ -73,20 +75,26 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   const firstRe = new Float64Array(dim);
   const firstIm = new Float64Array(dim);
   let lastTheta = NaN;
+  let lastZ = NaN;
   const state = (i: number, re: Float64Array, im: Float64Array) => {
     const x = v[3 * i]!, y = v[3 * i + 1]!, z = v[3 * i + 2]!;
-    const t = Math.atan2(Math.sqrt(x * x + y * y), z);
-    const p = Math.atan2(y, x);
-    if (t !== lastTheta) {
-      wignerSmallDColumn(S, m, t, d);
-      lastTheta = t;
+    const rho = Math.sqrt(x * x + y * y);
+    if (z !== lastZ) {
+      // the small-d column depends on the polar angle only (constant along a cone)
+      const t = Math.atan2(rho, z);
+      if (t !== lastTheta) {
+        wignerSmallDColumn(S, m, t, d);
+        lastTheta = t;
+      }
+      lastZ = z;
     }
+    const p = Math.atan2(y, x);
     // exp(-i m_k p) for m_k = S, S-1, ..., -S: one cos/sin pair, then steps of exp(+i p)
     // (relative error ~ 2S eps, against 2 (2S+1) trigonometric calls per vertex).
     let cr = Math.cos(S * p);
     let ci = -Math.sin(S * p);
-    const ur = Math.cos(p);
-    const ui = Math.sin(p);
+    const ur = rho > 0 ? x / rho : 1;
+    const ui = rho > 0 ? y / rho : 0;
     for (let k = 0; k < dim; k++) {
       re[k] = cr * d[k]!;
       im[k] = ci * d[k]!;
@@ -115,8 +123,22 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     if (mag < 1e-300) {
       throw new InputError("loop", `edge ${i - 1} -> ${i % n}`, "edges short enough that consecutive states overlap (refine the loop)");
     }
-    phase += Math.atan2(si, sr);
-    logMag += Math.log(mag);
+    // running product of the normalized overlaps (its argument is the phase sum mod 2 pi) and of
+    // the magnitudes (renormalized before it can underflow)
+    const wr = sr / mag, wi = si / mag;
+    const nzr = zr * wr - zi * wi;
+    zi = zr * wi + zi * wr;
+    zr = nzr;
+    if ((i & 63) === 0) {
+      const l = Math.sqrt(zr * zr + zi * zi);
+      zr /= l;
+      zi /= l;
+    }
+    magProd *= mag;
+    if (magProd < 1e-150) {
+      logMag += Math.log(magProd);
+      magProd = 1;
+    }
     const tr = prevRe;
     const ti = prevIm;
     prevRe = curRe;
@@ -125,7 +147,8 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     curIm = ti;
   }
   const geometric = wrapBerryPhase(-m * omega);
-  const discrete = wrapBerryPhase(-phase);
+  logMag += Math.log(magProd);
+  const discrete = wrapBerryPhase(-Math.atan2(zi, zr));
   return {
     S,
     m,

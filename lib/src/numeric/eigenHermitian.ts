@@ -4,8 +4,9 @@
  * Method: complex Householder reduction to Hermitian tridiagonal form, a diagonal unitary phase
  * transform that makes the tridiagonal real symmetric, then the implicit QL algorithm with Wilkinson
  * shifts (the EISPACK htridi / tql2 / htribk sequence). Eigenvectors: the QL rotations act on a REAL
- * matrix Z (eigenvectors of the real tridiagonal), then v_k = Q D z_k (one complex-by-real product),
- * which halves the rotation work against rotating complex vectors.
+ * matrix Z (eigenvectors of the real tridiagonal), then v_k = Q D z_k with the Householder
+ * reflectors applied to each vector (the htribk back-transformation), which halves the rotation work
+ * against rotating complex vectors and never forms Q.
  * Sources: J. H. Wilkinson, C. Reinsch, *Handbook for Automatic Computation II, Linear Algebra*
  * (Springer 1971), contributions II/2 (tred2) and II/3 (tql2); B. T. Smith et al., *Matrix Eigensystem
  * Routines - EISPACK Guide* (Springer 1976) for the complex Hermitian variant.
@@ -56,8 +57,6 @@ export class HermitianEigenSolver {
   private readonly hr: Float64Array;
   private readonly hi: Float64Array;
   private readonly taus: Float64Array;
-  private readonly wr: Float64Array;
-  private readonly wi: Float64Array;
   private readonly z: Float64Array;
 
   constructor(n: number) {
@@ -76,8 +75,6 @@ export class HermitianEigenSolver {
     this.hr = new Float64Array(n * n);
     this.hi = new Float64Array(n * n);
     this.taus = new Float64Array(n);
-    this.wr = new Float64Array(n * n);
-    this.wi = new Float64Array(n * n);
     this.z = new Float64Array(n * n);
   }
 
@@ -208,53 +205,14 @@ export class HermitianEigenSolver {
       insertionSort(d);
       return;
     }
-    // Q = P_0 P_1 ... P_{n-3} accumulated backwards (only the trailing block is touched), in Wr/Wi.
-    const Wr = this.wr;
-    const Wi = this.wi;
-    for (let i = 0; i < n * n; i++) {
-      Wr[i] = 0;
-      Wi[i] = 0;
-    }
-    for (let i = 0; i < n; i++) Wr[i * n + i] = 1;
-    for (let k = n - 3; k >= 0; k--) {
-      const tau = taus[k]!;
-      if (tau === 0) continue;
-      const base = k * n;
-      // Q_sub <- Q_sub - tau v (v^H Q_sub), columns j = k+1..n-1
-      for (let j = k + 1; j < n; j++) {
-        let sr = 0;
-        let si = 0;
-        for (let i = k + 1; i < n; i++) {
-          const a = Wr[i * n + j]!;
-          const b = Wi[i * n + j]!;
-          const xr = hr[base + i]!;
-          const xi = hi[base + i]!;
-          sr += xr * a + xi * b;
-          si += xr * b - xi * a;
-        }
-        if (sr === 0 && si === 0) continue;
-        sr *= tau;
-        si *= tau;
-        for (let i = k + 1; i < n; i++) {
-          const xr = hr[base + i]!;
-          const xi = hi[base + i]!;
-          Wr[i * n + j] = Wr[i * n + j]! - (xr * sr - xi * si);
-          Wi[i * n + j] = Wi[i * n + j]! - (xr * si + xi * sr);
-        }
-      }
-    }
-    // Phases D (delta_{j+1} = delta_j c_j / |c_j|) folded into the columns of Q: W <- Q D.
+    // Phases D: delta_0 = 1, delta_{j+1} = delta_j c_j / |c_j| (c_j = T[j+1][j]); e_j = |c_j|.
+    const phr = pr;
+    const phi = pi;
     let dr = 1;
     let di = 0;
     for (let j = 0; j < n; j++) {
-      if (j > 0) {
-        for (let i = 0; i < n; i++) {
-          const a = Wr[i * n + j]!;
-          const b = Wi[i * n + j]!;
-          Wr[i * n + j] = a * dr - b * di;
-          Wi[i * n + j] = a * di + b * dr;
-        }
-      }
+      phr[j] = dr;
+      phi[j] = di;
       if (j < n - 1) {
         const cr = ar[(j + 1) * n + j]!;
         const ci = ai[(j + 1) * n + j]!;
@@ -272,7 +230,8 @@ export class HermitianEigenSolver {
       }
     }
     // QL on the real tridiagonal with REAL rotations of Z (eigenvector k of T' = row k of Z): half
-    // the work of rotating complex rows; then eigenvector k of A = (Q D) z_k.
+    // the work of rotating complex rows. Then v_k = Q D z_k with Q = P_0 P_1 ... P_{n-3} applied
+    // reflector by reflector (P_{n-3} first): cheaper than forming Q and multiplying.
     const Z = this.z;
     for (let i = 0; i < n * n; i++) Z[i] = 0;
     for (let i = 0; i < n; i++) Z[i * n + i] = 1;
@@ -281,18 +240,32 @@ export class HermitianEigenSolver {
     const Vr = this.vectorsRe;
     const Vi = this.vectorsIm;
     for (let k = 0; k < n; k++) {
-      const zk = k * n;
-      for (let i = 0; i < n; i++) {
-        const wi = i * n;
+      const o = k * n;
+      for (let j = 0; j < n; j++) {
+        const z = Z[o + j]!;
+        Vr[o + j] = z * phr[j]!;
+        Vi[o + j] = z * phi[j]!;
+      }
+      for (let q = n - 3; q >= 0; q--) {
+        const tau = taus[q]!;
+        if (tau === 0) continue;
+        const base = q * n;
+        // v <- v - tau h (h^H v), on components q+1..n-1
         let sr = 0;
         let si = 0;
-        for (let j = 0; j < n; j++) {
-          const z = Z[zk + j]!;
-          sr += z * Wr[wi + j]!;
-          si += z * Wi[wi + j]!;
+        for (let i = q + 1; i < n; i++) {
+          const xr = hr[base + i]!, xi = hi[base + i]!;
+          const a = Vr[o + i]!, b = Vi[o + i]!;
+          sr += xr * a + xi * b;
+          si += xr * b - xi * a;
         }
-        Vr[zk + i] = sr;
-        Vi[zk + i] = si;
+        sr *= tau;
+        si *= tau;
+        for (let i = q + 1; i < n; i++) {
+          const xr = hr[base + i]!, xi = hi[base + i]!;
+          Vr[o + i] = Vr[o + i]! - (xr * sr - xi * si);
+          Vi[o + i] = Vi[o + i]! - (xr * si + xi * sr);
+        }
       }
     }
     if (rows) return;
@@ -363,8 +336,9 @@ function tql2(n: number, d: Float64Array, e: Float64Array, Vr: Float64Array | nu
           h = c * p;
           r = fastHypot(p, e[i]!);
           e[i + 1] = s * r;
-          s = e[i]! / r;
-          c = p / r;
+          const ir = 1 / r;
+          s = e[i]! * ir;
+          c = p * ir;
           p = c * d[i]! - s * g;
           d[i + 1] = h + s * (c * g + s * d[i]!);
           if (Vr) {

@@ -184,8 +184,9 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
           h = c * p;
           r = fastHypot(p, e[i]!);
           e[i + 1] = s * r;
-          s = e[i]! / r;
-          c = p / r;
+          const ir = 1 / r;
+          s = e[i]! * ir;
+          c = p * ir;
           p = c * d[i]! - s * g;
           d[i + 1] = h + s * (c * g + s * d[i]!);
           if (V) {
