@@ -139,15 +139,87 @@ const wall360Mz: ProfileModel = {
   sources: W360_SOURCES,
   bind(x) {
     const m = x.length;
+    // exp(|x - x0| / w) of the last evaluation: Levenberg-Marquardt asks for the Jacobian at the
+    // point it evaluated last, so the Jacobian reuses them (one exp per point per iteration)
+    const E = new Float64Array(m);
+    let keyX0 = NaN;
+    let keyW = NaN;
+    const expsFor = (x0: number, w: number) => {
+      if (x0 === keyX0 && w === keyW) return;
+      const iw = 1 / w;
+      for (let i = 0; i < m; i++) E[i] = Math.exp(Math.abs(x[i] - x0) * iw);
+      keyX0 = x0;
+      keyW = w;
+    };
     return {
       model(p, out) {
-        w360Signal(x, p, out);
+        if (p[1] / p[2] > 300) {
+          w360Signal(x, p, out);
+          return;
+        }
+        expsFor(p[0], p[2]);
+        const sb = Math.sinh(p[1] / p[2]);
+        const sb2 = sb * sb;
+        const off = p[3];
+        const c = p[4];
+        for (let i = 0; i < m; i++) {
+          const e = E[i];
+          if (e > 1e130) {
+            out[i] = off + c;
+            continue;
+          }
+          const sa = 0.5 * (e - 1 / e);
+          const sa2 = sa * sa;
+          out[i] = off + (c * (sa2 - sb2)) / (sa2 + sb2);
+        }
       },
       jacobian(p, out) {
-        const mz = out.subarray(4 * m, 5 * m);
-        wall360MzDerivatives(x, p[0], p[1], p[2], mz, out.subarray(0, 3 * m));
+        const x0 = p[0];
+        const R = p[1];
+        const w = p[2];
         const c = p[4];
-        for (let i = 0; i < 3 * m; i++) out[i] *= c;
+        if (R / w > 300) {
+          const mz = out.subarray(4 * m, 5 * m);
+          wall360MzDerivatives(x, x0, R, w, mz, out.subarray(0, 3 * m));
+          for (let i = 0; i < 3 * m; i++) out[i] *= c;
+          out.fill(1, 3 * m, 4 * m);
+          return;
+        }
+        // same formulas as wallProfiles.wall360MzDerivatives, from the cached exponentials
+        expsFor(x0, w);
+        const b = R / w;
+        const sb = Math.sinh(b);
+        const sb2 = sb * sb;
+        const cb = 1 / Math.tanh(b);
+        const iw = 1 / w;
+        const ciw = c * iw;
+        for (let i = 0; i < m; i++) {
+          const e = E[i];
+          if (e > 1e130) {
+            out[i] = 0;
+            out[m + i] = 0;
+            out[2 * m + i] = 0;
+            out[4 * m + i] = 1;
+            continue;
+          }
+          const ie = 1 / e;
+          const sa = 0.5 * (e - ie);
+          const sa2 = sa * sa;
+          const v = (sa2 - sb2) / (sa2 + sb2);
+          out[4 * m + i] = v;
+          const s2 = 1 - v * v;
+          const u = x[i] - x0;
+          if (u !== 0) {
+            const ca = (e + ie) / (e - ie);
+            const a = Math.abs(u) * iw;
+            out[i] = (u > 0 ? -s2 : s2) * ca * ciw;
+            out[2 * m + i] = -s2 * (a * ca - b * cb) * ciw;
+          } else {
+            out[i] = 0;
+            out[2 * m + i] = -s2 * (1 - b * cb) * ciw;
+          }
+          out[m + i] = -s2 * cb * ciw;
+        }
         out.fill(1, 3 * m, 4 * m);
       },
     };
