@@ -427,8 +427,9 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   if (sigmaKnown && (red > 2 || red < 0.5)) {
     notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
   }
-  const residuals: number[] = new Array(m);
-  for (let i = 0; i < m; i++) residuals[i] = problem.y[i] - fitted[i];
+  const res = new Float64Array(m);
+  for (let i = 0; i < m; i++) res[i] = problem.y[i] - fitted[i];
+  const residuals = Array.from(res); // typed -> plain array: V8's fast path (no map callback)
   const result: FitResult = {
     status,
     reason,
@@ -449,7 +450,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     evaluations: core.evaluations,
     jacobianEvaluations: core.jacobianEvaluations + 1,
     iterations: core.iterations,
-    fitted: toPlainArray(fitted),
+    fitted: Array.from(fitted),
     residuals,
     notes,
     degenerate,
@@ -466,12 +467,6 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   }
   if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
   return result;
-}
-
-function toPlainArray(a: Float64Array): number[] {
-  const out: number[] = new Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i];
-  return out;
 }
 
 /**
