@@ -19,65 +19,88 @@
 import { InputError } from "../errors.js";
 
 /**
- * Evaluate `count` radial functions at r and write them to out[0 .. count-1] (no allocation;
- * called once per lattice point).
+ * Radial functions to transform: `sample(r, out)` writes the `count` function values at r to
+ * out[0 .. count-1] (called once per quadrature point; no allocation). Optional `yStep(x)`: the step of
+ * the trapezoid rule along y at abscissa x (default: the lattice spacing h). An object with methods
+ * (one class per use) keeps the call sites monomorphic across calls.
  */
-export type RadialSampler = (r: number, out: Float64Array) => void;
+export interface RadialSampler {
+  readonly count: number;
+  sample(r: number, out: Float64Array): void;
+  yStep?(x: number): number;
+}
 
 /**
- * Order-0 Hankel transforms of `count` radial functions (sampled by `sample`) at the wavenumbers q,
- * by the trapezoid rule with spacing h along x over the disc r <= rMax. Along y the projection
- * P(x_i) = Int f(sqrt(x_i^2 + y^2)) dy uses the trapezoid rule with step yStep(x_i) (default h): an
+ * Order-0 Hankel transforms of the sampler's radial functions at the wavenumbers q, by the trapezoid
+ * rule with spacing h along x over the disc r <= rMax. Along y the projection
+ * P(x_i) = Int f(sqrt(x_i^2 + y^2)) dy uses the trapezoid rule with step sampler.yStep(x_i): an
  * integrand analytic in |Im y| < s(x) needs only a step of about 2 pi s(x) / ln(1 / tolerance), and
  * s(x) often grows with x (for a pole of f at r = i d, s(x) = sqrt(x^2 + d^2)).
  * Returns one Float64Array per function: result[k][j] = Int_0^inf f_k(r) J0(q_j r) r dr.
  */
-export function latticeHankel0(
-  sample: RadialSampler,
-  count: number,
-  h: number,
-  rMax: number,
-  q: ArrayLike<number>,
-  yStep?: (x: number) => number,
-): Float64Array[] {
+export function latticeHankel0(sampler: RadialSampler, h: number, rMax: number, q: ArrayLike<number>): Float64Array[] {
+  const count = sampler.count;
   if (!(h > 0) || !Number.isFinite(h)) throw new InputError("h", h, "a positive lattice spacing");
   if (!(rMax > h)) throw new InputError("rMax", rMax, `a radius larger than the spacing h = ${h}`);
   if (!Number.isInteger(count) || count < 1) throw new InputError("count", count, "a whole number of functions >= 1");
   const n = Math.ceil(rMax / h);
   if (n > 20000) throw new InputError("rMax", rMax, `at most 20000 lattice spacings (h = ${h})`);
-  // Abel projections P[k][i], planar: P[k * (n + 1) + i]
+  const stride = n + 1;
+  const P = abelProjections(sampler, count, h, n, rMax);
+  const out: Float64Array[] = [];
+  for (let k = 0; k < count; k++) {
+    const res = new Float64Array(q.length);
+    cosineSums(P, k * stride, significantLength(P, k * stride, n), h, q, res);
+    out.push(res);
+  }
+  return out;
+}
+
+/** Trapezoid Abel projections P[k * (n + 1) + i] = h_y Sum_j f_k(sqrt((i h)^2 + (j h_y)^2)), j in Z. */
+function abelProjections(sampler: RadialSampler, count: number, h: number, n: number, rMax: number): Float64Array {
   const stride = n + 1;
   const P = new Float64Array(count * stride);
   const v = new Float64Array(count);
   for (let i = 0; i <= n; i++) {
     const x = i * h;
     const x2 = x * x;
-    const hy = yStep ? yStep(x) : h;
+    const hy = sampler.yStep ? sampler.yStep(x) : h;
     if (!(hy > 0)) throw new InputError("yStep", hy, `a positive step at x = ${x}`);
     const Y = Math.sqrt(Math.max(0, rMax * rMax - x2));
     const nj = Math.floor(Y / hy);
-    sample(x, v);
+    sampler.sample(x, v);
     for (let k = 0; k < count; k++) P[k * stride + i] = v[k]!;
     for (let j = 1; j <= nj; j++) {
       const y = j * hy;
-      sample(Math.sqrt(x2 + y * y), v);
+      sampler.sample(Math.sqrt(x2 + y * y), v);
       for (let k = 0; k < count; k++) P[k * stride + i] += 2 * v[k]!;
     }
     for (let k = 0; k < count; k++) P[k * stride + i] *= hy;
   }
-  const out: Float64Array[] = [];
-  for (let k = 0; k < count; k++) out.push(new Float64Array(q.length));
+  return P;
+}
+
+/** Index of the last projection above 1e-18 of the peak (the cosine sums stop there). */
+function significantLength(P: Float64Array, base: number, n: number): number {
+  let peak = 0;
+  for (let i = 0; i <= n; i++) peak = Math.max(peak, Math.abs(P[base + i]!));
+  let i = n;
+  while (i > 0 && Math.abs(P[base + i]!) <= 1e-18 * peak) i -= 1;
+  return i;
+}
+
+/** res[m] = (h / 2 pi) [P_0 + 2 Sum_{i=1..nk} P_i cos(q_m h i)], cosines by rotation (re-seeded every 64 steps). */
+function cosineSums(P: Float64Array, base: number, nk: number, h: number, q: ArrayLike<number>, res: Float64Array): void {
   const pre = h / (2 * Math.PI);
-  const acc = new Float64Array(count);
+  const p0 = P[base]!;
   for (let m = 0; m < q.length; m++) {
     const th = q[m]! * h;
     const c1 = Math.cos(th);
     const s1 = Math.sin(th);
-    acc.fill(0);
     let c = 1;
     let s = 0;
-    for (let i = 1; i <= n; i++) {
-      // rotate (c, s) = (cos i th, sin i th) by th; re-seed every 64 steps against drift
+    let acc = 0;
+    for (let i = 1; i <= nk; i++) {
       if ((i & 63) === 0) {
         c = Math.cos(i * th);
         s = Math.sin(i * th);
@@ -86,9 +109,8 @@ export function latticeHankel0(
         s = s * c1 + c * s1;
         c = cn;
       }
-      for (let k = 0; k < count; k++) acc[k] += P[k * stride + i]! * c;
+      acc += P[base + i]! * c;
     }
-    for (let k = 0; k < count; k++) out[k]![m] = pre * (P[k * stride]! + 2 * acc[k]!);
+    res[m] = pre * (p0 + 2 * acc);
   }
-  return out;
 }

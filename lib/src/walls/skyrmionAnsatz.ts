@@ -186,6 +186,51 @@ export function ansatzAnalyticStrip(a: number): number {
   return s < 1 ? Math.asin(s) : Math.PI / 2;
 }
 
+/**
+ * The two radial functions of the ansatz for the lattice rule: 1 - cos theta and
+ * (rho sin theta)' / rho = (2 s / D) [sinh x / x - (sinh^2 x - S) cosh x / D] (s = sinh a, S = s^2,
+ * D = sinh^2 x + S; from sin theta = 2 s sinh x / D, cos theta = (sinh^2 x - S) / D,
+ * theta_x = -sin theta coth x). Along y at abscissa x the profile f(sqrt(x^2 + y^2)) is analytic for
+ * |Im y| < sqrt(x^2 + d^2) (poles at r = +-i d, a < asinh 1) or |Im y| < pi / 2 (larger a): trapezoid
+ * step 2 pi s(x) / (L + 4).
+ */
+class AnsatzLatticeSampler {
+  readonly count = 2;
+  private readonly sa: number;
+  private readonly S: number;
+  constructor(a: number, private readonly d: number, private readonly L: number) {
+    this.sa = Math.sinh(a);
+    this.S = this.sa * this.sa;
+  }
+  sample(x: number, out: Float64Array): void {
+    let sx: number;
+    let cx: number;
+    let shc: number;
+    if (x < 0.1) {
+      sx = Math.sinh(x);
+      cx = Math.cosh(x);
+      const x2 = x * x;
+      shc = 1 + (x2 / 6) * (1 + (x2 / 20) * (1 + x2 / 42));
+    } else {
+      const ep = Math.exp(x);
+      const em = 1 / ep;
+      sx = 0.5 * (ep - em);
+      cx = 0.5 * (ep + em);
+      shc = sx / x;
+    }
+    const S = this.S;
+    const sx2 = sx * sx;
+    const D = sx2 + S;
+    out[0] = (2 * S) / D;
+    out[1] = ((2 * this.sa) / D) * (shc - ((sx2 - S) * cx) / D);
+  }
+  yStep(x: number): number {
+    const d = this.d;
+    if (d < Math.PI / 2) return Math.min(1.5, (2 * Math.PI * Math.sqrt(x * x + d * d)) / (this.L + 4));
+    return (Math.PI * Math.PI) / (this.L + 4);
+  }
+}
+
 /** Options of the lattice (fast) transforms of the ansatz. */
 export interface LatticeTransformOptions {
   /** ln(1 / tolerance) of the aliasing error (default 20). */
@@ -233,35 +278,8 @@ export function ansatzTransformsLattice(a: number, options: LatticeTransformOpti
   const d = ansatzAnalyticStrip(a);
   const h = (2 * Math.PI * d) / (Lq + L);
   const qMax = Math.max(Lq / d, 6);
-  const sa = Math.sinh(a);
-  const S = sa * sa;
-  const sample = (x: number, out: Float64Array) => {
-    let sx: number;
-    let cx: number;
-    let shc: number;
-    if (x < 0.1) {
-      sx = Math.sinh(x);
-      cx = Math.cosh(x);
-      const x2 = x * x;
-      shc = 1 + (x2 / 6) * (1 + (x2 / 20) * (1 + x2 / 42));
-    } else {
-      const ep = Math.exp(x);
-      const em = 1 / ep;
-      sx = 0.5 * (ep - em);
-      cx = 0.5 * (ep + em);
-      shc = sx / x;
-    }
-    const sx2 = sx * sx;
-    const D = sx2 + S;
-    out[0] = (2 * S) / D;
-    // (rho sin theta)' / rho with sin theta = 2 s sinh x / D, cos theta = (sinh^2 x - S) / D, theta_x = -sin theta coth x
-    out[1] = ((2 * sa) / D) * (shc - ((sx2 - S) * cx) / D);
-  };
   const kn = options.wavenumbers ?? ansatzWavenumberNodes(a, qMax);
-  // along y at abscissa x the profile f(sqrt(x^2 + y^2)) is analytic for |Im y| < sqrt(x^2 + d^2)
-  // (poles at r = +-i d, a < asinh 1) or |Im y| < pi / 2 (larger a): trapezoid step 2 pi s / (L + 4)
-  const yStep = d < Math.PI / 2 ? (x: number) => Math.min(1.5, (2 * Math.PI * Math.sqrt(x * x + d * d)) / (L + 4)) : () => (Math.PI * Math.PI) / (L + 4);
-  const [F0, D0] = latticeHankel0(sample, 2, h, a + tail, kn.x, yStep);
+  const [F0, D0] = latticeHankel0(new AnsatzLatticeSampler(a, d, L), h, a + tail, kn.x);
   const nq = kn.x.length;
   const f0sq = new Float64Array(nq);
   const g1sq = new Float64Array(nq);

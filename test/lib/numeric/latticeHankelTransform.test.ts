@@ -9,13 +9,17 @@ describe("lattice (2D trapezoid) order-0 Hankel transform", () => {
     const q = Float64Array.from([0.01, 0.3, 1, 2.5, 4, 6]);
     const b = 0.5;
     const c = 1;
-    const sample = (r: number, out: Float64Array) => {
-      out[0] = Math.exp(-0.5 * r * r);
-      const s = Math.sqrt(r * r + b * b);
-      out[1] = Math.exp(-c * s) / s;
+    const sampler = {
+      count: 2,
+      sample(r: number, out: Float64Array) {
+        out[0] = Math.exp(-0.5 * r * r);
+        const s = Math.sqrt(r * r + b * b);
+        out[1] = Math.exp(-c * s) / s;
+      },
+      // branch points at r = +-i b: h = 2 pi b / 40; along y the strip is sqrt(x^2 + b^2)
+      yStep: (x: number) => Math.min(2, (2 * Math.PI * Math.sqrt(x * x + b * b)) / 36),
     };
-    // branch points at r = +-i b: h = 2 pi b / 40; along y the strip is sqrt(x^2 + b^2)
-    const g = latticeHankel0(sample, 2, (2 * Math.PI * b) / 40, 40, q, (x) => Math.min(2, (2 * Math.PI * Math.sqrt(x * x + b * b)) / 36));
+    const g = latticeHankel0(sampler, (2 * Math.PI * b) / 40, 40, q);
     q.forEach((qq, i) => {
       expect(Math.abs(g[0]![i]! - Math.exp(-0.5 * qq * qq)), `gauss q=${qq}`).toBeLessThan(1e-12);
       const k = Math.sqrt(qq * qq + c * c);
@@ -29,16 +33,14 @@ describe("lattice (2D trapezoid) order-0 Hankel transform", () => {
     const S = Math.sinh(a) ** 2;
     const qs = [0.05, 0.5, 2, 5, 9];
     const d = Math.asin(Math.sinh(a));
-    const r = latticeHankel0(
-      (x, out) => {
+    const sampler = {
+      count: 1,
+      sample(x: number, out: Float64Array) {
         out[0] = (2 * S) / (Math.sinh(x) ** 2 + S);
       },
-      1,
-      (2 * Math.PI * d) / 34,
-      30,
-      qs,
-      (x) => Math.min(1.5, (2 * Math.PI * Math.sqrt(x * x + d * d)) / 30),
-    )[0]!;
+      yStep: (x: number) => Math.min(1.5, (2 * Math.PI * Math.sqrt(x * x + d * d)) / 30),
+    };
+    const r = latticeHankel0(sampler, (2 * Math.PI * d) / 34, 30, qs)[0]!;
     const ref = runPython<number[]>(
       `
 import json, sys, numpy as np
@@ -59,12 +61,15 @@ print(json.dumps(out))
   });
 
   it("rejects bad spacing, radius and count", () => {
-    const s = (_r: number, out: Float64Array) => {
-      out[0] = 0;
+    const s = {
+      count: 1,
+      sample(_r: number, out: Float64Array) {
+        out[0] = 0;
+      },
     };
-    expect(() => latticeHankel0(s, 1, 0, 10, [1])).toThrow(InputError);
-    expect(() => latticeHankel0(s, 1, 0.1, 0.05, [1])).toThrow(InputError);
-    expect(() => latticeHankel0(s, 0, 0.1, 10, [1])).toThrow(InputError);
-    expect(() => latticeHankel0(s, 1, 0.1, 10, [1], () => -1)).toThrow(InputError);
+    expect(() => latticeHankel0(s, 0, 10, [1])).toThrow(InputError);
+    expect(() => latticeHankel0(s, 0.1, 0.05, [1])).toThrow(InputError);
+    expect(() => latticeHankel0({ ...s, count: 0 }, 0.1, 10, [1])).toThrow(InputError);
+    expect(() => latticeHankel0({ ...s, yStep: () => -1 }, 0.1, 10, [1])).toThrow(InputError);
   });
 });
