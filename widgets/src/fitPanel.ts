@@ -9,7 +9,7 @@
  * iterations, chi2, reduced_chi2. Messages to the kernel: {event: "start"}, {event: "stop"}.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { formatQuantity } from "@helicoid/lib";
+import { formatQuantity, customaryUnit, displayUnit } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { Plotly } from "./plotly.js";
 import { el, isStaticPage } from "./views/dom.js";
@@ -49,6 +49,7 @@ export class FitPanelView extends DOMWidgetView {
   private bar!: HTMLProgressElement;
   private startBtn!: HTMLButtonElement;
   private stopBtn!: HTMLButtonElement;
+  private observer: ResizeObserver | null = null;
 
   override render(): void {
     this.el.classList.add("hx-fit");
@@ -75,6 +76,17 @@ export class FitPanelView extends DOMWidgetView {
     this.renderStatus();
     this.renderPlot();
     this.renderTable();
+    // Follow the cell's width (the first drawing may happen before the view is attached).
+    if (typeof ResizeObserver !== "undefined") {
+      this.observer = new ResizeObserver(() => { if (this.plotEl.offsetParent !== null && this.plotEl.querySelector(".main-svg")) Plotly.Plots.resize(this.plotEl); });
+      this.observer.observe(this.el);
+    }
+  }
+
+  override remove(): this {
+    this.observer?.disconnect();
+    Plotly.purge(this.plotEl);
+    return super.remove();
   }
 
   private renderStatus(): void {
@@ -104,19 +116,28 @@ export class FitPanelView extends DOMWidgetView {
     const mx = nums(this.model.get("model_x") ?? this.model.get("x"));
     const my = nums(this.model.get("model_y"));
     const res = nums(this.model.get("residuals"));
+    // Axes in the trade's units (nm, mT ...) when the state gives SI units.
+    const scale = (values: number[], unit: string): [string, number] => {
+      let peak = 0;
+      for (const v of values) if (Number.isFinite(v)) peak = Math.max(peak, Math.abs(v));
+      return unit ? customaryUnit(peak, unit) : ["", 1];
+    };
+    const [xu, xf] = scale(x, this.model.get("x_unit") as string);
+    const [yu, yf] = scale(y, this.model.get("y_unit") as string);
+    const [ru, rf] = scale(res, this.model.get("y_unit") as string);
+    const sx = (a: number[]) => a.map((v) => v / xf);
     const data: Array<Record<string, unknown>> = [
-      { type: "scatter", mode: "markers", name: "data", x, y, marker: { size: 5 }, ...(err.length === y.length && err.length ? { error_y: { type: "data", array: err, visible: true } } : {}) },
+      { type: "scatter", mode: "markers", name: "data", x: sx(x), y: y.map((v) => v / yf), marker: { size: 5 }, ...(err.length === y.length && err.length ? { error_y: { type: "data", array: err.map((v) => v / yf), visible: true } } : {}) },
     ];
-    if (my.length) data.push({ type: "scatter", mode: "lines", name: "model", x: mx.length === my.length ? mx : x, y: my });
-    if (res.length) data.push({ type: "scatter", mode: "markers", name: "residuals", x, y: res, xaxis: "x", yaxis: "y2", marker: { size: 4 } });
-    const xl = `${this.model.get("x_label")}${this.model.get("x_unit") ? ` (${this.model.get("x_unit")})` : ""}`;
-    const yl = `${this.model.get("y_label")}${this.model.get("y_unit") ? ` (${this.model.get("y_unit")})` : ""}`;
+    if (my.length) data.push({ type: "scatter", mode: "lines", name: "model", x: sx(mx.length === my.length ? mx : x), y: my.map((v) => v / yf) });
+    if (res.length) data.push({ type: "scatter", mode: "markers", name: "residuals", x: sx(x), y: res.map((v) => v / rf), xaxis: "x", yaxis: "y2", marker: { size: 4 } });
+    const label = (name: string, unit: string) => `${name}${unit && unit !== "1" ? ` (${displayUnit(unit)})` : ""}`;
     const layout = {
       height: 380, autosize: true, margin: { l: 60, r: 20, t: 20, b: 50 },
       // One x axis at the bottom (under the residuals), shared by both panels.
-      xaxis: { title: { text: xl }, anchor: "y2" },
-      yaxis: { title: { text: yl }, domain: [0.34, 1], anchor: "x" },
-      yaxis2: { title: { text: "residual" }, domain: [0, 0.26], zeroline: true, anchor: "x" },
+      xaxis: { title: { text: label(this.model.get("x_label") as string, xu) }, anchor: "y2" },
+      yaxis: { title: { text: label(this.model.get("y_label") as string, yu) }, domain: [0.34, 1], anchor: "x" },
+      yaxis2: { title: { text: label("residual", ru) }, domain: [0, 0.26], zeroline: true, anchor: "x" },
       legend: { orientation: "h" },
     };
     void Plotly.react(this.plotEl, data, layout, { displaylogo: false, responsive: true });
