@@ -78,6 +78,19 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
   });
   const cr = new Float64Array(uniqueR.length);
   const ci = new Float64Array(uniqueR.length);
+  // exp(2 pi i k.R) = exp(2 pi i k1 R1) exp(2 pi i k2 R2): one cos/sin pair per distinct |R1| > 0
+  // and |R2| > 0 (negative R by conjugation); the k2 factors are kept while k2 does not change
+  // (a grid row), so a call costs a few trigonometric evaluations instead of two per lattice vector.
+  const abs1 = [...new Set(uniqueR.map((r) => Math.abs(r[0])).filter((x) => x > 0))];
+  const abs2 = [...new Set(uniqueR.map((r) => Math.abs(r[1])).filter((x) => x > 0))];
+  const idx1 = Int32Array.from(uniqueR.map((r) => (r[0] === 0 ? -1 : abs1.indexOf(Math.abs(r[0])))));
+  const idx2 = Int32Array.from(uniqueR.map((r) => (r[1] === 0 ? -1 : abs2.indexOf(Math.abs(r[1])))));
+  const sgn1 = Float64Array.from(uniqueR.map((r) => (r[0] < 0 ? -1 : 1)));
+  const sgn2 = Float64Array.from(uniqueR.map((r) => (r[1] < 0 ? -1 : 1)));
+  const a1 = Float64Array.from(abs1), a2 = Float64Array.from(abs2);
+  const e1r = new Float64Array(abs1.length), e1i = new Float64Array(abs1.length);
+  const e2r = new Float64Array(abs2.length), e2i = new Float64Array(abs2.length);
+  let lastK2 = NaN;
   const A = Int32Array.from(hops.map((h) => h.a));
   const B = Int32Array.from(hops.map((h) => h.b));
   const TR = Float64Array.from(hops.map((h) => h.tr));
@@ -90,10 +103,25 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
       re.fill(0);
       im.fill(0);
       for (let a = 0; a < n; a++) re[a * n + a] = onsite[a]!;
-      for (let u = 0; u < uniqueR.length; u++) {
-        const ph = twoPi * (k1 * uniqueR[u]![0] + k2 * uniqueR[u]![1]);
-        cr[u] = Math.cos(ph);
-        ci[u] = Math.sin(ph);
+      for (let q = 0; q < a1.length; q++) {
+        const ph = twoPi * k1 * a1[q]!;
+        e1r[q] = Math.cos(ph);
+        e1i[q] = Math.sin(ph);
+      }
+      if (k2 !== lastK2) {
+        for (let q = 0; q < a2.length; q++) {
+          const ph = twoPi * k2 * a2[q]!;
+          e2r[q] = Math.cos(ph);
+          e2i[q] = Math.sin(ph);
+        }
+        lastK2 = k2;
+      }
+      for (let u = 0; u < cr.length; u++) {
+        const q1 = idx1[u]!, q2 = idx2[u]!;
+        const xr = q1 < 0 ? 1 : e1r[q1]!, xi = q1 < 0 ? 0 : sgn1[u]! * e1i[q1]!;
+        const yr = q2 < 0 ? 1 : e2r[q2]!, yi = q2 < 0 ? 0 : sgn2[u]! * e2i[q2]!;
+        cr[u] = xr * yr - xi * yi;
+        ci[u] = xr * yi + xi * yr;
       }
       for (let q = 0; q < H; q++) {
         const u = rIndex[q]!;

@@ -11,6 +11,11 @@
  * For a right-handed lattice basis (a1 x a2 along +z) this is the Chern number of the plane with
  * z out of plane (the convention of D. Xiao, M.-C. Chang, Q. Niu, Rev. Mod. Phys. 82, 1959 (2010)).
  *
+ * Two groups holding every band between them (a two-band model's bands, or lower and upper bands)
+ * need the links of one only: the fluxes of the other are their negatives on every plaquette
+ * (option `complement`), since the link of all bands is a unitary determinant whose plaquette
+ * product is 1 (the total Chern number of all bands vanishes).
+ *
  * The integer is the Chern number of the bands only if the grid resolves them: the flux of every
  * plaquette must stay well below pi (else its sign is ambiguous: a Dirac point with a gap smaller
  * than the grid spacing puts a flux near +-pi in one plaquette) and the gap must not close between
@@ -49,6 +54,14 @@ export interface ChernOptions {
    * solver; both give the same fluxes (tested), the closed form is several times faster.
    */
   closedFormTwoBand?: boolean;
+  /**
+   * Two groups that hold every band between them (e.g. the default per-band groups of a two-band
+   * model, or lower and upper bands): compute the links of one and take F_B = -F_A for the other
+   * (default true). Exact: the link of all bands is the phase of det(V^H Phi V'), a unitary
+   * determinant whose product around a plaquette is 1, and det(W_BB) = det(W) conj(det(W_AA)) for
+   * unitary W; so the total Chern number of all bands vanishes plaquette by plaquette.
+   */
+  complement?: boolean;
 }
 
 export interface ChernResult {
@@ -260,6 +273,11 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * n2)) : undefined;
   const gLo = Int32Array.from(groups.map((g) => g[0]!));
   const gK = Int32Array.from(groups.map((g) => g.length));
+  // Complementary pair: links of the smaller group only; the other follows (F_B = -F_A).
+  let derived = -1;
+  if ((options.complement ?? true) && G === 2 && gK[0]! + gK[1]! === n && (gLo[0] === 0 ? gLo[1] === gK[0] : gLo[0] === gK[1])) {
+    derived = gK[0]! <= gK[1]! ? 1 : 0;
+  }
   const gapAt = (gi: number, E: Float64Array, i: number) => {
     const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
     let gap = Infinity;
@@ -284,6 +302,7 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const rowLinks = (row: Row) => {
     const { E, Vr, Vi, u1r, u1i } = row;
     for (let gi = 0; gi < G; gi++) {
+      if (gi === derived) continue;
       const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         const ip = i + 1 === n1 ? 0 : i + 1;
@@ -310,6 +329,7 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       rowLinks(upper);
     } else upper = row0;
     for (let gi = 0; gi < G; gi++) {
+      if (gi === derived) continue;
       const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         link(lo, k, lower.Vr, lower.Vi, i * nn, upper.Vr, upper.Vi, i * nn, p2r, p2i, phased2);
@@ -347,6 +367,18 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       // the upper row becomes the lower row; row 0 is kept for the periodic closure
       spare = lower === row0 ? newRow() : lower;
       lower = upper;
+    }
+  }
+  if (derived >= 0) {
+    // The other group of the pair shares the boundary gap (same checks) and has opposite fluxes.
+    const c = 1 - derived;
+    sums[derived] = -sums[c]!;
+    maxFlux[derived] = maxFlux[c]!;
+    minGap[derived] = minGap[c]!;
+    hiddenClosing[derived] = hiddenClosing[c]!;
+    if (fluxMaps) {
+      const src = fluxMaps[c]!, dst = fluxMaps[derived]!;
+      for (let q = 0; q < src.length; q++) dst[q] = -src[q]!;
     }
   }
   const chern: number[] = [];

@@ -160,4 +160,32 @@ print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
       }
     });
   });
+
+  it("complementary groups: the derived fluxes equal the directly computed ones (2-band and 6-band)", () => {
+    // Common practice, no source: the link of all bands is a unitary determinant, so the fluxes of
+    // two complementary groups are opposite on every plaquette; computing both checks it.
+    const sc = supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1);
+    const cases = [
+      { model: haldaneModel({ t2, phi: 0.8, M: 0.15 }), groups: undefined, n1: 21 },
+      { model: supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1), groups: [[0, 1, 2], [3, 4, 5]], n1: 18 },
+      // modulated on-site energies (invented) so that band 0 is separated from band 1
+      { model: tightBindingModel({ ...sc.spec, onsite: Array.from(sc.spec.onsite).map((x, i) => x + [0, 0.35, -0.25, 0.15, -0.3, 0.2][i]!) }), groups: [[0], [1, 2, 3, 4, 5]], n1: 18 },
+    ];
+    for (const c of cases) {
+      expect(Math.min(...chernNumbers(c.model, { n1: c.n1, onUnresolved: "report", ...(c.groups ? { groups: c.groups } : {}) }).minGap)).toBeGreaterThan(0.02);
+      const opts = { n1: c.n1, map: true, onUnresolved: "report" as const, ...(c.groups ? { groups: c.groups } : {}) };
+      const fast = chernNumbers(c.model, opts);
+      const both = chernNumbers(c.model, { ...opts, complement: false });
+      expect(fast.chern).toEqual(both.chern);
+      expect(fast.resolved).toEqual(both.resolved);
+      for (let g = 0; g < 2; g++) {
+        expect(Math.abs(fast.chernSum[g]! - both.chernSum[g]!)).toBeLessThan(1e-9);
+        expect(Math.abs(fast.maxFlux[g]! - both.maxFlux[g]!)).toBeLessThan(1e-9);
+        for (let q = 0; q < c.n1 * c.n1; q++) {
+          const d = Math.abs(fast.flux![g]![q]! - both.flux![g]![q]!);
+          expect(Math.min(d, Math.abs(d - 2 * Math.PI))).toBeLessThan(1e-9);
+        }
+      }
+    }
+  });
 });
