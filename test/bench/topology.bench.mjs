@@ -85,6 +85,25 @@ export default async () => {
     });
     await par.closeChargeWorkers();
 
+    // per-plaquette density map (one atan2 per plaquette where both half-angles are below pi/2);
+    // numpy's vectorized formula builds the same per-triangle arrays before summing
+    const dens = await medianMs(() => lib.skyrmionNumber(field, { boundary: "periodic", density: true }), { runs: 7, warmup: 2 });
+    rows.push({
+      group: "topology", name: `lattice Q with density map ${n}x${n}, 1 thread`,
+      ours_ms: dens, reference: "numpy vectorized, same formula", reference_ms: np.ms, ratio: dens / np.ms, goal: "(information)",
+    });
+
+    // the texture calculator as the explorer runs it (live sliders), and the size of its result
+    const spec = lib.getCalculator("texture");
+    for (const side of [128, 512]) {
+      const t = await medianMs(() => lib.runCalculator(spec, { n: side }), { runs: side > 200 ? 5 : 21, warmup: 2 });
+      const bytes = JSON.stringify(lib.runCalculator(spec, { n: side })).length;
+      rows.push({
+        group: "topology", name: `texture calculator n = ${side}${side === 128 ? " (default)" : ""}: result ${(bytes / 1e3).toFixed(0)} kB as JSON`,
+        ours_ms: t, goal: side === 128 ? "live slider (<= 16 ms)" : "(information)",
+      });
+    }
+
     // peak memory in a fresh process
     const child = spawnSync(process.execPath, ["--expose-gc", "-e", MEMORY_CHILD, path], { encoding: "utf8", maxBuffer: 1 << 20 });
     if (child.status !== 0) throw new Error(`memory child failed: ${child.stderr}`);

@@ -1,3 +1,4 @@
 export * from "./spec.js";
 export * from "./catalogue.js";
 export { textureSpec, textureFromInputs } from "./topology.js";
+export { fieldPreview, TEXTURE_PREVIEW_MAX } from "./topology.js";

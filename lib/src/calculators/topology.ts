@@ -46,6 +46,28 @@ export function textureFromInputs(v: InputValues, notes: string[] = []): VectorF
   }
 }
 
+/** Largest side (cells) of the field preview in the outputs. */
+export const TEXTURE_PREVIEW_MAX = 64;
+
+/**
+ * A compact picture of an n x n texture for the outputs (widget state, exported pages): every k-th
+ * cell along x and y, k = ceil(n / 64), so at most 64 x 64 cells (12 288 numbers), components
+ * rounded to 1e-4 (for display; the full field comes from textureFromInputs).
+ */
+export function fieldPreview(m: Float64Array, n: number, cell: number): { size: number; cell: number; m: number[] } {
+  const k = Math.ceil(n / TEXTURE_PREVIEW_MAX);
+  const size = Math.ceil(n / k);
+  const out = new Array<number>(3 * size * size);
+  let o = 0;
+  for (let j = 0; j < size; j++) {
+    for (let i = 0; i < size; i++) {
+      const c = 3 * (j * k * n + i * k);
+      for (let comp = 0; comp < 3; comp++) out[o++] = Math.round(m[c + comp]! * 1e4) / 1e4 + 0; // + 0: no -0
+    }
+  }
+  return { size, cell: k * cell, m: out };
+}
+
 function computeTexture(v: InputValues): ComputeOutput {
   const notes: string[] = [];
   const field = textureFromInputs(v, notes);
@@ -63,6 +85,7 @@ function computeTexture(v: InputValues): ComputeOutput {
     lineMz.push(field.m[3 * (j * n + i) + 2]!);
   }
   if (objs.objects.length === 0) notes.push("no reversed core: no objects");
+  const preview = fieldPreview(field.m, n, field.dx);
   return {
     status: notes.some((s) => s.startsWith("a vortex")) ? "warning" : "ok",
     notes,
@@ -82,7 +105,9 @@ function computeTexture(v: InputValues): ComputeOutput {
       objectKinds: objs.objects.map((o) => o.kind).join(", ") || "(none)",
       lineX,
       lineMz,
-      field: Array.from(field.m),
+      previewSize: preview.size,
+      previewCell: preview.cell,
+      fieldPreview: preview.m,
     },
   };
 }
@@ -121,7 +146,9 @@ export const textureSpec: CalculatorSpec = {
     { name: "objectKinds", symbol: "\\text{kinds}", unit: "", kind: "text", meaning: "names of the objects" },
     { name: "lineX", symbol: "x", unit: "m", kind: "array", meaning: "x along the middle row" },
     { name: "lineMz", symbol: "m_z", unit: "", kind: "array", meaning: "m_z along the middle row" },
-    { name: "field", symbol: "\\mathbf{m}", unit: "", kind: "array", meaning: "the texture: mx, my, mz interleaved, x fastest (3 n^2 numbers)" },
+    { name: "previewSize", symbol: "n_p", unit: "", meaning: "cells along x and y of the field preview (at most 64)" },
+    { name: "previewCell", symbol: "\\Delta_p", unit: "m", meaning: "cell size of the field preview (every k-th cell of the grid)" },
+    { name: "fieldPreview", symbol: "\\mathbf{m}_p", unit: "", kind: "array", meaning: "the texture at preview resolution: mx, my, mz interleaved, x fastest (3 previewSize^2 numbers, rounded to 1e-4); the full field is textureFromInputs(inputs)" },
   ],
   plots: [
     { id: "profile", title: "m_z along the middle row", x: "lineX", y: ["lineMz"] },
@@ -131,6 +158,7 @@ export const textureSpec: CalculatorSpec = {
     "analytic demo textures (not simulations): wall profile tan(theta/2) = sinh(R/w)/sinh(rho/w), each cell takes its nearest object",
     "|m| = 1; Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy, so a core-down skyrmion of vorticity +1 in a +z background has Q = -1",
     "the lattice Q is an exact integer only on a closed (periodic, vacuum-free) grid",
+    "the outputs carry a preview of the field (every k-th cell, at most 64 x 64 cells, components rounded to 1e-4); the counts use the full n x n grid, and textureFromInputs(inputs) regenerates the full field",
   ],
   sources: [
     ...LATTICE_Q_SOURCES,

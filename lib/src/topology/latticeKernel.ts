@@ -63,7 +63,8 @@ export function solidAngleSumSquare(
 /**
  * General version: vacuum mask (a triangle with any vacuum corner is skipped), square or triangular
  * lattice, and an optional per-plaquette output `density` (solid angle / 4 pi of each plaquette, index
- * j * px + i with px = wrapX ? nx : nx - 1). Returns the sum of solid angles (radians) and counts the
+ * j * px + i with px = wrapX ? nx : nx - 1). When both triangles of a plaquette count and both denominators are
+ * positive, one atan2 gives their sum (as in solidAngleSumSquare). Returns the sum of solid angles (radians) and counts the
  * triangles used in `counts[0]` and skipped in `counts[1]` when `counts` is given.
  */
 export function solidAngleSumGeneral(
@@ -89,27 +90,45 @@ export function solidAngleSumGeneral(
       const bx = m[pb]!, by = m[pb + 1]!, bz = m[pb + 2]!;
       const cx = m[pc]!, cy = m[pc + 1]!, cz = m[pc + 2]!;
       const dx = m[pd]!, dy = m[pd + 1]!, dz = m[pd + 2]!;
-      let omega = 0;
+      // the two triangles of the plaquette: (a, b, c), (a, c, d) on the square lattice, (a, b, d),
+      // (b, c, d) on the triangular one; t = signed triple product, den = 1 + sum of the dot products
+      let use1: boolean;
+      let use2: boolean;
+      let t1: number;
+      let d1: number;
+      let t2: number;
+      let d2: number;
       if (!triangular) {
-        if ((va | vb | vc) === 0) {
-          const t = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
-          omega += Math.atan2(t, 1 + ax * bx + ay * by + az * bz + bx * cx + by * cy + bz * cz + cx * ax + cy * ay + cz * az);
-          used++;
-        } else skipped++;
-        if ((va | vc | vd) === 0) {
-          const t = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
-          omega += Math.atan2(t, 1 + ax * cx + ay * cy + az * cz + cx * dx + cy * dy + cz * dz + dx * ax + dy * ay + dz * az);
-          used++;
-        } else skipped++;
+        use1 = (va | vb | vc) === 0;
+        use2 = (va | vc | vd) === 0;
+        const ac = ax * cx + ay * cy + az * cz;
+        t1 = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
+        d1 = 1 + ax * bx + ay * by + az * bz + bx * cx + by * cy + bz * cz + ac;
+        t2 = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
+        d2 = 1 + ac + cx * dx + cy * dy + cz * dz + dx * ax + dy * ay + dz * az;
       } else {
-        if ((va | vb | vd) === 0) {
-          const t = ax * (by * dz - bz * dy) + ay * (bz * dx - bx * dz) + az * (bx * dy - by * dx);
-          omega += Math.atan2(t, 1 + ax * bx + ay * by + az * bz + bx * dx + by * dy + bz * dz + dx * ax + dy * ay + dz * az);
+        use1 = (va | vb | vd) === 0;
+        use2 = (vb | vc | vd) === 0;
+        const bd = bx * dx + by * dy + bz * dz;
+        t1 = ax * (by * dz - bz * dy) + ay * (bz * dx - bx * dz) + az * (bx * dy - by * dx);
+        d1 = 1 + ax * bx + ay * by + az * bz + bd + dx * ax + dy * ay + dz * az;
+        t2 = bx * (cy * dz - cz * dy) + by * (cz * dx - cx * dz) + bz * (cx * dy - cy * dx);
+        d2 = 1 + bx * cx + by * cy + bz * cz + cx * dx + cy * dy + cz * dz + bd;
+      }
+      let omega: number;
+      if (use1 && use2) {
+        used += 2;
+        // as in solidAngleSumSquare: with both denominators positive both half-angles lie in
+        // (-pi/2, pi/2), their sum in (-pi, pi), and it is the argument of (d1 + i t1)(d2 + i t2)
+        omega = d1 > 0 && d2 > 0 ? Math.atan2(t1 * d2 + t2 * d1, d1 * d2 - t1 * t2) : Math.atan2(t1, d1) + Math.atan2(t2, d2);
+      } else {
+        omega = 0;
+        if (use1) {
+          omega += Math.atan2(t1, d1);
           used++;
         } else skipped++;
-        if ((vb | vc | vd) === 0) {
-          const t = bx * (cy * dz - cz * dy) + by * (cz * dx - cx * dz) + bz * (cx * dy - cy * dx);
-          omega += Math.atan2(t, 1 + bx * cx + by * cy + bz * cz + cx * dx + cy * dy + cz * dz + dx * bx + dy * by + dz * bz);
+        if (use2) {
+          omega += Math.atan2(t2, d2);
           used++;
         } else skipped++;
       }

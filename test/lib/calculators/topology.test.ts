@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { getCalculator, runCalculator, type CalculatorSpec } from "@helicoid/lib";
-import { textureSpec } from "../../../lib/src/calculators/topology.js";
+import { textureSpec, textureFromInputs } from "../../../lib/src/calculators/topology.js";
 
 function check(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
@@ -24,7 +24,10 @@ describe("texture calculator", () => {
     expect(Math.abs((r.outputs.Q!.value as number) + 1)).toBeLessThan(1e-9);
     expect(r.outputs.objectCount!.value).toBe(1);
     expect((r.outputs.objectRadius!.value as number[])[0]).toBeCloseTo(20e-9, 9);
-    expect((r.outputs.field!.value as number[]).length).toBe(3 * 128 * 128);
+    // the outputs stay compact: a 64 x 64 preview (every 2nd cell of the 128 x 128 grid)
+    expect(r.outputs.previewSize!.value).toBe(64);
+    expect(r.outputs.previewCell!.value).toBeCloseTo(2e-9, 20);
+    expect((r.outputs.fieldPreview!.value as number[]).length).toBe(3 * 64 * 64);
     expect(r.assumptions.length).toBeGreaterThan(0);
   });
 
@@ -50,6 +53,28 @@ describe("texture calculator", () => {
     expect(warn.status).toBe("warning");
     const zero = runCalculator(textureSpec, { kind: 4, vorticity: 0 });
     expect(zero.notes.join(" ")).toMatch(/vorticity 1 was used/);
+  });
+
+  it("its field preview samples the generated texture, and the result stays small at n = 512", () => {
+    // Common practice, no source: the preview is every k-th cell of the full field, rounded to 1e-4.
+    for (const n of [16, 100, 512]) {
+      const inputs = { n, kind: 3, R: 8e-9, w: 2e-9, a: 32e-9 };
+      const r = runCalculator(textureSpec, inputs);
+      const full = textureFromInputs({ ...Object.fromEntries(textureSpec.inputs.map((i) => [i.name, i.default])), ...inputs });
+      const k = Math.ceil(n / 64);
+      const size = r.outputs.previewSize!.value as number;
+      expect(size).toBe(Math.ceil(n / k));
+      expect(r.outputs.previewCell!.value as number).toBeCloseTo(k * 1e-9, 20);
+      const p = r.outputs.fieldPreview!.value as number[];
+      expect(p.length).toBe(3 * size * size);
+      for (const [i, j] of [[0, 0], [size - 1, 0], [size >> 1, size >> 1], [3, size - 2]] as const) {
+        for (let c = 0; c < 3; c++) {
+          expect(Math.abs(p[3 * (j * size + i) + c]! - full.m[3 * (j * k * n + i * k) + c]!), `n=${n} (${i},${j}) c${c}`).toBeLessThanOrEqual(5e-5 + 1e-12);
+        }
+      }
+      // JSON of the whole result (what the widget state and an exported page hold)
+      expect(JSON.stringify(r).length, `n=${n}`).toBeLessThan(150_000);
+    }
   });
 
   it("computes on every range corner (n at its minimum), and at n = 512 for every kind", () => {
