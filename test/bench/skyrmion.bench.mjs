@@ -2,11 +2,36 @@
 // exact radial profile against scipy.integrate.solve_bvp on the same boundary-value problem.
 import lib from "../../lib/dist/index.js";
 import { medianMs, pythonTiming } from "./util.mjs";
+import { spawnSync } from "node:child_process";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+
+const here = dirname(fileURLToPath(import.meta.url));
+
+// Fresh process: the first runCalculator("skyrmion") with its defaults and 200-point sweep (what the
+// page's Web Worker does on first use: builds the table rows it needs), then the warm median.
+const CALCULATOR_CHILD = `
+const lib = require(${JSON.stringify(join(here, "../../lib/dist/index.js"))});
+const spec = lib.getCalculator("skyrmion");
+const t0 = performance.now();
+const r = lib.runCalculator(spec);
+const first = performance.now() - t0;
+const rows = lib.ansatzTableRowsBuilt();
+const ts = [];
+for (let i = 0; i < 15; i++) { const t = performance.now(); lib.runCalculator(spec); ts.push(performance.now() - t); }
+ts.sort((a, b) => a - b);
+console.log(JSON.stringify({ first, rows, warm: ts[7], points: r.outputs.fieldSweep.value.length }));
+`;
 
 const { makeFilm, solveSkyrmionAnsatz, skyrmionFieldSweep, solveSkyrmionExact, ansatzTableRowsBuilt } = lib;
 
 export default async () => {
   const rows = [];
+  const child = spawnSync(process.execPath, ["-e", CALCULATOR_CHILD], { encoding: "utf8" });
+  if (child.status !== 0) throw new Error(`skyrmion calculator child failed: ${child.stderr}`);
+  const calc = JSON.parse(child.stdout);
+  rows.push({ group: "skyrmion", name: `runCalculator("skyrmion") defaults + 200-point sweep, first call in a fresh process (builds ${calc.rows} table rows)`, ours_ms: calc.first, goal: "<= 100 ms" });
+  rows.push({ group: "skyrmion", name: `runCalculator("skyrmion") defaults + 200-point sweep (${calc.points} metastable points, boundary refinement), warm median`, ours_ms: calc.warm, goal: "<= 16 ms (slider)" });
   const film = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9 }); // invented demo film HX-1
   // cold: first solve builds the shared magnetostatics table rows it needs
   const t0 = performance.now();
@@ -21,7 +46,7 @@ export default async () => {
   const sweepCold = performance.now() - t1;
   rows.push({ group: "skyrmion", name: `200-point R(B) sweep, first call (table rows now ${ansatzTableRowsBuilt()})`, ours_ms: sweepCold, goal: "one-time cost" });
   const sweep = await medianMs(() => skyrmionFieldSweep(film, fields), { runs: 7, warmup: 1 });
-  rows.push({ group: "skyrmion", name: "200-point R(B) sweep with warm starts (median)", ours_ms: sweep, goal: "<= 200 ms" });
+  rows.push({ group: "skyrmion", name: "200-point R(B) sweep with warm starts (median)", ours_ms: sweep, goal: "<= 200 ms (issue), <= 16 ms (slider)" });
 
   // exact profile vs scipy solve_bvp
   const f2 = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 2e-3, t: 1e-9 });
