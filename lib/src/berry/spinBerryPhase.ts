@@ -62,6 +62,7 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   const n = v.length / 3;
   const omega = solidAngleOfVertices(v).value;
   const { dim } = spinBasis(S);
+  const twoS = dim - 1;
   // States at each vertex; the product of overlaps is kept as a unit phase times a magnitude
   // (renormalized) so that it never underflows.
   let zr = 1, zi = 0;
@@ -88,13 +89,39 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
       }
       lastZ = z;
     }
-    const p = Math.atan2(y, x);
-    // exp(-i m_k p) for m_k = S, S-1, ..., -S: one cos/sin pair, then steps of exp(+i p)
-    // (relative error ~ 2S eps, against 2 (2S+1) trigonometric calls per vertex).
-    let cr = Math.cos(S * p);
-    let ci = -Math.sin(S * p);
+    // exp(-i m_k p) for m_k = S, S-1, ..., -S, with u = exp(i p) = (x + i y) / rho: start at
+    // exp(-i S p) = conj(u)^S, then steps of u (relative error ~ 2S eps, no trigonometric call).
+    // For half-integer S any square root of conj(u) will do: the other one flips the sign of every
+    // component, a phase of the state, and the discrete product is gauge invariant.
     const ur = rho > 0 ? x / rho : 1;
     const ui = rho > 0 ? y / rho : 0;
+    let cr: number, ci: number;
+    if (twoS <= 64) {
+      if (twoS % 2 === 1) {
+        // principal square root of conj(u) = (ur, -ui), |u| = 1
+        const a = Math.sqrt(0.5 * (1 + Math.abs(ur)));
+        const b = -ui / (2 * a);
+        if (ur >= 0) {
+          cr = a;
+          ci = b;
+        } else {
+          cr = Math.abs(b);
+          ci = -ui >= 0 ? a : -a;
+        }
+      } else {
+        cr = 1;
+        ci = 0;
+      }
+      for (let q = 0; q < twoS >> 1; q++) {
+        const nr = cr * ur + ci * ui; // times conj(u)
+        ci = ci * ur - cr * ui;
+        cr = nr;
+      }
+    } else {
+      const p = Math.atan2(y, x);
+      cr = Math.cos(S * p);
+      ci = -Math.sin(S * p);
+    }
     for (let k = 0; k < dim; k++) {
       re[k] = cr * d[k]!;
       im[k] = ci * d[k]!;

@@ -55,7 +55,8 @@ describe("Berry phase of a spin S in state m around a cone", () => {
     // spin-1/2 coherent-state overlaps around a geodesic polygon is Omega/2; spin S = its 2S-th power.
     const loop = [[1, 0, 0.2], [0.1, 1, 0.3], [-0.5, 0.2, 1], [0.3, -0.8, 0.4], [1, 0, 0.2]];
     const om = loopSolidAngle(loop).value;
-    for (const S of [0.5, 1.5, 4]) {
+    // (S = 8.5: the half-integer start exp(-i S p) = sqrt(conj u) conj(u)^8 of the phase recurrence.)
+    for (const S of [0.5, 1.5, 4, 8.5]) {
       const r = spinBerryPhase(loop, S, S);
       expect(Math.abs(wrapBerryPhase(r.discrete + S * om))).toBeLessThan(1e-13);
     }
