@@ -49,6 +49,11 @@ import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, 
 import { getProfileModel, type BoundModel, type ProfileModel } from "./profileModels.js";
 import { guessStart } from "./startGuess.js";
 import { filmWith, skyrmionSensitivity, type SeriesParameter, type SkyrmionSensitivity } from "./skyrmionSensitivity.js";
+import { wall360Sensitivity } from "./wall360Sensitivity.js";
+
+type Sensitivity = (film: Film, B: number, names: SeriesParameter[], options: { nonlocal: boolean; startRadius?: number }) => SkyrmionSensitivity;
+const skyrmionModel: Sensitivity = (f, B, names, o) => skyrmionSensitivity(f, B, names, o);
+const wall360Model: Sensitivity = (f, B, names) => wall360Sensitivity(f, B, names);
 
 export interface FieldSeriesProfile {
   /** Applied field mu0 H along +z (T). */
@@ -72,6 +77,12 @@ export interface FieldSeriesOptions {
   fitKu?: boolean | "auto";
   /** "two-stage" (default) or "global". */
   method?: "two-stage" | "global";
+  /**
+   * What the profiles cut through: "skyrmion" (default; R(B), w(B) from the 2D ansatz energy) or
+   * "wall360" (a 1D 360-degree wall pair, local model, closed form: D does not enter R and w there,
+   * so only A and Ku can be fitted; D is held and a note says so).
+   */
+  texture?: "skyrmion" | "wall360";
   /** Start values of A, D, Ku (SI) overriding the film's. */
   start?: Partial<Record<SeriesParameter, number>>;
   /** Options for every stage-1 profile fit (start / fixed / bounds of local parameters). */
@@ -148,6 +159,12 @@ const ASSUMPTIONS = [
   "Ms, t and the DMI symmetry known exactly; the line cut passes through the skyrmion core",
   "the sign of D (chirality) is not seen by an m_z profile: it is the start film's",
 ];
+const WALL360_ASSUMPTIONS = [
+  "continuum micromagnetics, T = 0, magnetization uniform through the film thickness",
+  "straight 360-degree wall pairs at equilibrium in the local 1D model (magnetostatics through K_eff = Ku - mu0 Ms^2 / 2), 2-pi-wall ansatz, exact pair w = Delta / sqrt(1 + h), sinh(R/w) = sqrt((1 + h)/h), h = Ms B / (2 K_eff)",
+  "Ms known exactly; the line cut is perpendicular to the pair",
+  "D does not enter the 1D pair's R and w (topological DMI energy): it is not determined",
+];
 const SOURCES = [
   "F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018): skyrmion ansatz and energy",
   "S. Rohart, A. Thiaville, PRB 88, 184422 (2013): energy functional with DMI",
@@ -162,7 +179,7 @@ interface Stage1 {
   cov: [number, number, number]; // var R, cov Rw, var w
 }
 
-function stage1(profiles: FieldSeriesProfile[], pm: ProfileModel, film: Film, options: FieldSeriesOptions, nonlocal: boolean): Stage1[] {
+function stage1(profiles: FieldSeriesProfile[], pm: ProfileModel, film: Film, options: FieldSeriesOptions, nonlocal: boolean, sens: Sensitivity): Stage1[] {
   let warm: number | undefined;
   return profiles.map((pr, i) => {
     const base = options.profileFit ?? {};
@@ -172,7 +189,7 @@ function stage1(profiles: FieldSeriesProfile[], pm: ProfileModel, film: Film, op
     } catch {
       // no guess for this model: defaults are used
     }
-    const sk = skyrmionSensitivity(film, pr.B, [], { nonlocal, startRadius: warm });
+    const sk = sens(film, pr.B, [], { nonlocal, startRadius: warm });
     if (sk.status === "ok") {
       start.R = sk.R;
       start.w = sk.w;
@@ -218,7 +235,7 @@ function whiteners(s1: Stage1[]) {
 }
 
 /** The energy model at theta for every field, cached on the last theta. */
-function energyModel(film: Film, fields: number[], names: SeriesParameter[], nonlocal: boolean) {
+function energyModel(film: Film, fields: number[], names: SeriesParameter[], nonlocal: boolean, sens: Sensitivity) {
   let lastKey = "";
   let last: SkyrmionSensitivity[] = [];
   let warm: Array<number | undefined> = fields.map(() => undefined);
@@ -230,7 +247,7 @@ function energyModel(film: Film, fields: number[], names: SeriesParameter[], non
     let out: SkyrmionSensitivity[] | null;
     try {
       const f = filmWith(film, values);
-      out = fields.map((B, i) => skyrmionSensitivity(f, B, names, { nonlocal, startRadius: warm[i] }));
+      out = fields.map((B, i) => sens(f, B, names, { nonlocal, startRadius: warm[i] }));
       if (out.some((s) => s.status !== "ok")) out = null;
     } catch (err) {
       // a trial film outside the model's domain (A <= 0, Ku below the shape anisotropy, ...)
@@ -261,10 +278,10 @@ interface Stage2 {
   names: SeriesParameter[];
 }
 
-function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Partial<Record<SeriesParameter, number>>, nonlocal: boolean, options: FitOptions): Stage2 {
+function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Partial<Record<SeriesParameter, number>>, nonlocal: boolean, options: FitOptions, sens: Sensitivity): Stage2 {
   const L = whiteners(s1);
   const fields = s1.map((s) => s.B);
-  const em = energyModel(film, fields, names, nonlocal);
+  const em = energyModel(film, fields, names, nonlocal, sens);
   const n = names.length;
   const N = s1.length;
   const y = new Float64Array(2 * N);
@@ -308,7 +325,7 @@ function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Parti
   problem.model(Float64Array.from(params.map((p) => p.value)), f0);
   if (!Number.isFinite(f0[0])) {
     const f = filmWith(film, Object.fromEntries(params.map((p) => [p.name, p.value])));
-    const bad = fields.map((B) => ({ B, s: skyrmionSensitivity(f, B, [], { nonlocal }).status })).filter((r) => r.s !== "ok");
+    const bad = fields.map((B) => ({ B, s: sens(f, B, [], { nonlocal }).status })).filter((r) => r.s !== "ok");
     throw new InputError(
       "fields",
       bad.map((r) => `${r.B} T (${r.s})`).join(", "),
@@ -321,40 +338,42 @@ function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Parti
 }
 
 /** Relative-sensitivity condition number and predicted relative Ku error at theta (Ku last). */
-function kuDiagnostics(s1: Stage1[], film: Film, theta: Record<SeriesParameter, number>, nonlocal: boolean): { condition: number; kuRel: number | null } {
+function kuDiagnostics(s1: Stage1[], film: Film, base: SeriesParameter[], theta: Record<SeriesParameter, number>, nonlocal: boolean, sens: Sensitivity): { condition: number; kuRel: number | null } {
   const L = whiteners(s1);
-  const names: SeriesParameter[] = ["A", "D", "Ku"];
-  const em = energyModel(film, s1.map((s) => s.B), names, nonlocal);
-  const sk = em([theta.A, theta.D, theta.Ku]);
+  const names: SeriesParameter[] = [...base, "Ku"];
+  const np = names.length;
+  const em = energyModel(film, s1.map((s) => s.B), names, nonlocal, sens);
+  const sk = em(names.map((n) => theta[n]));
   if (!sk) return { condition: Infinity, kuRel: null };
   const N = s1.length;
-  const J = new Float64Array(2 * N * 3);
-  for (let j = 0; j < 3; j++)
+  const J = new Float64Array(2 * N * np);
+  for (let j = 0; j < np; j++)
     for (let i = 0; i < N; i++) {
       const [a, b, d] = L[i];
       const sc = theta[names[j]];
       J[j * 2 * N + 2 * i] = a * sk[i].dR[j] * sc;
       J[j * 2 * N + 2 * i + 1] = (b * sk[i].dR[j] + d * sk[i].dw[j]) * sc;
     }
-  const G = new Float64Array(9);
-  for (let p = 0; p < 3; p++)
-    for (let q = 0; q < 3; q++) {
+  const G = new Float64Array(np * np);
+  for (let p = 0; p < np; p++)
+    for (let q = 0; q < np; q++) {
       let s = 0;
       for (let i = 0; i < 2 * N; i++) s += J[p * 2 * N + i] * J[q * 2 * N + i];
-      G[p + 3 * q] = s;
+      G[p + np * q] = s;
     }
   // condition number of J with unit-norm columns (scale-free)
-  const dn = [0, 1, 2].map((p) => Math.sqrt(G[p + 3 * p]));
-  const Gn = G.map((v, k) => v / (dn[k % 3] * dn[Math.floor(k / 3)]));
-  const eig = symmetricEigen(Gn, 3);
+  const dn = names.map((_, p) => Math.sqrt(G[p + np * p]));
+  const Gn = G.map((v, k) => v / (dn[k % np] * dn[Math.floor(k / np)]));
+  const eig = symmetricEigen(Gn, np);
   const lmin = eig.values[0];
-  const lmax = eig.values[2];
+  const lmax = eig.values[np - 1];
   const condition = lmin > 0 ? Math.sqrt(lmax / lmin) : Infinity;
   if (!(lmin > 1e-14 * lmax)) return { condition, kuRel: null };
   // (G^-1)_{Ku,Ku} from the eigen decomposition of Gn
+  const k = np - 1;
   let inv = 0;
-  for (let e = 0; e < 3; e++) inv += eig.vectors[2 + 3 * e] ** 2 / eig.values[e];
-  return { condition, kuRel: Math.sqrt(inv) / dn[2] };
+  for (let e = 0; e < np; e++) inv += eig.vectors[k + np * e] ** 2 / eig.values[e];
+  return { condition, kuRel: Math.sqrt(inv) / dn[k] };
 }
 
 function pick(fit: FitResult, names: SeriesParameter[], film: Film, start: Partial<Record<SeriesParameter, number>>, confidence: number, mapName: (n: SeriesParameter) => string = (n) => n): Record<SeriesParameter, ParameterResult> {
@@ -392,16 +411,21 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   const confidence = options.confidence ?? 0.95;
   const start = options.start ?? {};
   const notes: string[] = [];
-  const s1 = stage1(profiles, pm, film, options, nonlocal);
+  const texture = options.texture ?? "skyrmion";
+  if (texture !== "skyrmion" && texture !== "wall360") throw new InputError("texture", texture, `"skyrmion" or "wall360"`);
+  const sens = texture === "skyrmion" ? skyrmionModel : wall360Model;
+  const base: SeriesParameter[] = texture === "skyrmion" ? ["A", "D"] : ["A"];
+  if (texture === "wall360") notes.push("360-degree walls: the DMI energy of the 1D pair is topological (independent of R and w), so D does not enter R(B), w(B) and is held at the given value; only A (and Ku) are determined");
+  const s1 = stage1(profiles, pm, film, options, nonlocal, sens);
   const lmOptions: FitOptions = { confidence, signal: options.signal };
   // stage 2 with Ku held
-  const held = stage2(s1, film, ["A", "D"], start, nonlocal, lmOptions);
+  const held = stage2(s1, film, base, start, nonlocal, lmOptions, sens);
   const requested = options.fitKu ?? "auto";
-  const thetaHeld = { A: held.fit.parameters.A.value, D: held.fit.parameters.D.value, Ku: start.Ku ?? film.Ku };
-  const diag = kuDiagnostics(s1, film, thetaHeld, nonlocal);
+  const thetaHeld = { A: held.fit.parameters.A.value, D: held.fit.parameters.D?.value ?? start.D ?? film.D, Ku: start.Ku ?? film.Ku };
+  const diag = kuDiagnostics(s1, film, base, thetaHeld, nonlocal, sens);
   const maxCond = options.maxCondition ?? 1e4;
   const maxRel = options.maxKuRelativeError ?? 0.2;
-  const allows = 2 * s1.length > 3 && diag.kuRel !== null && diag.condition < maxCond && diag.kuRel < maxRel;
+  const allows = 2 * s1.length > base.length + 1 && diag.kuRel !== null && diag.condition < maxCond && diag.kuRel < maxRel;
   const fitKu = requested === true || (requested === "auto" && allows);
   const cond = Number.isFinite(diag.condition) ? diag.condition.toPrecision(3) : "infinite";
   const relText = diag.kuRel === null ? "undefined (singular Jacobian)" : `${(100 * diag.kuRel).toPrecision(2)} %`;
@@ -409,11 +433,11 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   if (requested === true) reason = `Ku fitted on request; relative-sensitivity condition number ${cond}, predicted relative error of Ku ${relText}`;
   else if (requested === false) reason = `Ku held at the given value on request (the data would give: condition number ${cond}, relative error of Ku ${relText})`;
   else if (fitKu) reason = `Ku fitted: the data determine it (condition number ${cond} < ${maxCond}, predicted relative error of Ku ${relText} < ${100 * maxRel} %)`;
-  else if (2 * s1.length <= 3) reason = `Ku held at the given value: ${2 * s1.length} observables (R, w at ${s1.length} fields) cannot fix three parameters`;
+  else if (2 * s1.length <= base.length + 1) reason = `Ku held at the given value: ${2 * s1.length} observables (R, w at ${s1.length} fields) cannot fix ${base.length + 1} parameters`;
   else reason = `Ku held at the given value: the data do not determine it (condition number ${cond}${diag.condition >= maxCond ? ` >= ${maxCond}` : ""}, predicted relative error of Ku ${relText}${diag.kuRel !== null && diag.kuRel >= maxRel ? ` >= ${100 * maxRel} %` : ""})`;
   const kuDecision: KuDecision = { fitted: fitKu, requested, conditionNumber: diag.condition, kuRelativeStderr: diag.kuRel, reason };
-  const names: SeriesParameter[] = fitKu ? ["A", "D", "Ku"] : ["A", "D"];
-  const final = fitKu ? stage2(s1, film, names, { ...start, A: thetaHeld.A, D: thetaHeld.D }, nonlocal, lmOptions) : held;
+  const names: SeriesParameter[] = fitKu ? [...base, "Ku"] : base;
+  const final = fitKu ? stage2(s1, film, names, { ...start, A: thetaHeld.A, D: thetaHeld.D }, nonlocal, lmOptions, sens) : held;
   const two = final.fit;
   let parameters = pick(two, names, film, start, confidence);
   let status = two.status;
@@ -431,7 +455,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     notes.push(`stage-2 reduced chi-square ${two.chiSquareReduced.toPrecision(3)}: the energy model does not describe the measured R(B), w(B) within their errors (check Ms, t, the field calibration, or the ansatz)`);
   }
   if (options.method === "global") {
-    const g = globalFit(profiles, s1, pm, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, options, lmOptions);
+    const g = globalFit(profiles, s1, pm, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, options, lmOptions, sens);
     twoStage = { parameters, covariance };
     approach = "global";
     parameters = pick(g, names, film, start, confidence);
@@ -456,7 +480,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     return Math.sqrt(s);
   };
   const profilesOut: SeriesProfileResult[] = s1.map((s) => {
-    const sk = skyrmionSensitivity(ff, s.B, [], { nonlocal });
+    const sk = sens(ff, s.B, [], { nonlocal });
     const sR = Math.sqrt(s.cov[0]);
     const sW = Math.sqrt(s.cov[2]);
     return { B: s.B, R: s.R, w: s.w, stderrR: sR, stderrW: sW, correlationRw: s.cov[1] / (sR * sW), modelR: sk.R, modelW: sk.w, pullR: (s.R - sk.R) / sR, pullW: (s.w - sk.w) / sW, fit: s.fit };
@@ -469,7 +493,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   let warm: number | undefined;
   for (let k = 0; k < np; k++) {
     const B = bmin + ((bmax - bmin) * k) / Math.max(1, np - 1);
-    const sk = skyrmionSensitivity(ff, B, names, { nonlocal, startRadius: warm });
+    const sk = sens(ff, B, names, { nonlocal, startRadius: warm });
     if (sk.status !== "ok") continue;
     warm = sk.R;
     curve.B.push(B);
@@ -497,7 +521,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     confidence,
     evaluations,
     notes,
-    assumptions: ASSUMPTIONS,
+    assumptions: texture === "skyrmion" ? ASSUMPTIONS : WALL360_ASSUMPTIONS,
     method:
       approach === "two-stage"
         ? "two-stage: (1) each profile fitted alone (Levenberg-Marquardt), keeping the full covariance of (R, w); (2) A, D (Ku) fitted to {R_i, w_i} with that covariance, R(B), w(B) at the ansatz energy minimum, Jacobian by implicit differentiation of the minimum"
@@ -536,6 +560,7 @@ function globalFit(
   nonlocal: boolean,
   options: FieldSeriesOptions,
   lmOptions: FitOptions,
+  sens: Sensitivity,
 ): FitResult {
   const shared = seriesParameters(film, names, start);
   const params: FitParameter[] = [...shared];
@@ -564,7 +589,7 @@ function globalFit(
     if (sigma) sigma.set(Float64Array.from(pr.data.sigma!), off);
     off += parts[i].m;
   }
-  const em = energyModel(film, profiles.map((p) => p.B), names, nonlocal);
+  const em = energyModel(film, profiles.map((p) => p.B), names, nonlocal, sens);
   const ns = names.length;
   const qOf = (p: Float64Array, i: number, sk: SkyrmionSensitivity[]) => {
     const part = parts[i];

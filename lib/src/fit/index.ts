@@ -12,3 +12,4 @@ export * from "./skyrmionSensitivity.js";
 export * from "./fieldSeries.js";
 export * from "./syntheticProfiles.js";
 export * from "./fitReport.js";
+export * from "./wall360Sensitivity.js";

@@ -7,6 +7,7 @@
 import { InputError } from "../errors.js";
 import type { Film } from "../material/film.js";
 import { solveSkyrmionAnsatz } from "../walls/skyrmionAnsatz.js";
+import { wall360Equilibrium } from "../walls/wall360.js";
 import { getProfileModel, type ProfileModel } from "./profileModels.js";
 import { seededRandom } from "./prng.js";
 
@@ -64,14 +65,26 @@ export interface SyntheticSeriesProfile extends SyntheticProfile {
 export function syntheticFieldSeries(
   film: Film,
   fields: number[],
-  options: SyntheticOptions & { model?: string; local?: Record<string, number>; nonlocal?: boolean } = {},
+  options: SyntheticOptions & { model?: string; local?: Record<string, number>; nonlocal?: boolean; texture?: "skyrmion" | "wall360" } = {},
 ): SyntheticSeriesProfile[] {
   let warm: number | undefined;
   return fields.map((B, i) => {
-    const s = solveSkyrmionAnsatz(film, B, { nonlocal: options.nonlocal ?? true, startRadius: warm });
-    if (s.status !== "ok") throw new InputError(`fields[${i}]`, B, "a field at which the film has a metastable skyrmion", `status ${s.status}: ${s.notes.join(" ")}`);
-    warm = s.radius;
-    const prof = syntheticProfile(options.model ?? "wall360-mz", { x0: 0, offset: 0, contrast: 1, ...(options.local ?? {}), R: s.radius, w: s.wallWidth }, { ...options, seed: (options.seed ?? 1) * 1000 + i });
+    let R: number;
+    let w: number;
+    if (options.texture === "wall360") {
+      // the 1D pair by numerical minimization of its energy (walls/wall360.ts)
+      const e = wall360Equilibrium(film, B);
+      if (e.status !== "bound") throw new InputError(`fields[${i}]`, B, "a positive field (a bound 360-degree wall pair)");
+      R = e.radius;
+      w = e.width;
+    } else {
+      const s = solveSkyrmionAnsatz(film, B, { nonlocal: options.nonlocal ?? true, startRadius: warm });
+      if (s.status !== "ok") throw new InputError(`fields[${i}]`, B, "a field at which the film has a metastable skyrmion", `status ${s.status}: ${s.notes.join(" ")}`);
+      warm = s.radius;
+      R = s.radius;
+      w = s.wallWidth;
+    }
+    const prof = syntheticProfile(options.model ?? "wall360-mz", { x0: 0, offset: 0, contrast: 1, ...(options.local ?? {}), R, w }, { ...options, seed: (options.seed ?? 1) * 1000 + i });
     return { ...prof, B };
   });
 }

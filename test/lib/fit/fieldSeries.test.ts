@@ -95,6 +95,18 @@ describe("fitFieldSeries", () => {
     expect(JSON.stringify(data)).toBe(copy);
   });
 
+  it("360-degree walls: A and Ku from the 1D pair; D held with a note (it does not enter R and w)", () => {
+    const data = syntheticFieldSeries(film, [0.005, 0.02, 0.06, 0.15], { texture: "wall360", noise: 0.02, seed: 21 }).map((p) => ({ B: p.B, data: { x: p.x, y: p.y, sigma: p.sigma } }));
+    const r = fitFieldSeries(data, { film: filmWith(film, { A: 12e-12, Ku: 0.37e6 }), texture: "wall360" });
+    expect(r.status).toBe("converged");
+    expect(r.kuDecision.fitted).toBe(true);
+    expect(r.parameters.D.stderr).toBeNull();
+    expect(r.notes.join(" ")).toMatch(/D does not enter/);
+    for (const k of ["A", "Ku"] as const) expect(Math.abs(r.parameters[k].value - truth[k])).toBeLessThan(3 * r.parameters[k].stderr!);
+    const g = fitFieldSeries(data, { film: filmWith(film, { A: 12e-12, Ku: 0.37e6 }), texture: "wall360", method: "global" });
+    expect(Math.abs(g.parameters.A.value - r.parameters.A.value)).toBeLessThan(0.2 * r.parameters.A.stderr!);
+  });
+
   describe("bad input", () => {
     it("a single field", () => {
       const one = series(16).filter((p) => p.B === 0.02);
