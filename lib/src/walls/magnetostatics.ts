@@ -35,7 +35,9 @@
  *
  * Numerics: composite Gauss-Legendre in rho and k; the saturated core (1 - cos theta = 2 to 1e-12)
  * is integrated analytically, Int_0^c 2 J0(k rho) rho d rho = 2 c J1(k c) / k. For the 360-degree
- * wall ansatz, skyrmionAnsatz.ts uses dimensionless tables built from the same transforms.
+ * wall ansatz, skyrmionAnsatz.ts uses dimensionless tables built from the same transforms, computed
+ * there by the lattice (2D trapezoid) rule of numeric/latticeHankelTransform.ts and checked against
+ * this Gauss-Legendre / Bessel route in test/lib/walls/magnetostatics.test.ts.
  */
 import { InputError } from "../errors.js";
 import { mu0 } from "../quantity/constants.js";

@@ -735,9 +735,47 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
   void fprev;
 }
 
+/**
+ * Newton steps on E(ln a, ln w) with a central-difference gradient and Hessian (stencil 1e-3) from
+ * the nested-Brent minimum (located to about 1e-6). Brent's path (and so its last digits) can change
+ * with last-ulp differences of Math functions between JavaScript engines (the browser recomputes
+ * what Node computes); the stencil's stationary point cannot: a 1-ulp change of D moves R(B) by about
+ * 1e-11 (measured), against about 3e-7 without these steps. The stencil's own bias, about 2e-7 (third over
+ * second derivative times delta^2 / 6), is below the table accuracy. Stops (keeping the last point)
+ * when the Hessian is not positive definite or a step exceeds 0.02 (flat landscapes).
+ */
+function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
+  const d = 1e-3;
+  let u = u0;
+  let v = v0;
+  const E = new Float64Array(9);
+  for (let it = 0; it < 3; it++) {
+    for (let p = 0; p < 3; p++) {
+      const a = Math.exp(u + (p - 1) * d);
+      ansatzLocalIntegralsTabulated(a, ctx.I);
+      for (let q = 0; q < 3; q++) E[3 * p + q] = energyAt(ctx, a, Math.exp(v + (q - 1) * d));
+    }
+    const e0 = E[4]!;
+    const gu = (E[7]! - E[1]!) / (2 * d);
+    const gv = (E[5]! - E[3]!) / (2 * d);
+    const huu = (E[7]! - 2 * e0 + E[1]!) / (d * d);
+    const hvv = (E[5]! - 2 * e0 + E[3]!) / (d * d);
+    const huv = (E[8]! - E[6]! - E[2]! + E[0]!) / (4 * d * d);
+    const det = huu * hvv - huv * huv;
+    if (!(huu > 0 && det > 0)) break;
+    const su = -(hvv * gu - huv * gv) / det;
+    const sv = -(huu * gv - huv * gu) / det;
+    if (!(Math.abs(su) < 0.02 && Math.abs(sv) < 0.02)) break;
+    u += su;
+    v += sv;
+    if (Math.abs(su) < 1e-10 && Math.abs(sv) < 1e-10) break;
+  }
+  return [u, v];
+}
+
 function finish(ctx: Context, lo: number, hi: number, notes: string[]): AnsatzSkyrmion {
   // The tables interpolate the local integrals to about 1e-7 and Phi to about 1e-6 (6-point
-  // Lagrange): the minimum over ln a is located on the tabulated energy, with no exact polish.
+  // Lagrange): the minimum is located on the tabulated energy (Brent over ln a, then Newton polish).
   const r = brentMinimize((uu) => profiledEnergy(ctx, uu), lo, hi, 1e-6, 100);
   if (!r.converged) {
     throw new ConvergenceError("skyrmion ansatz minimization", "Brent's method did not converge inside its bracket", {
@@ -748,8 +786,10 @@ function finish(ctx: Context, lo: number, hi: number, notes: string[]): AnsatzSk
     });
   }
   profiledEnergy(ctx, r.x);
-  const a = Math.exp(r.x);
-  const w = ctx.w;
+  const [lnA, lnW] = newtonPolish(ctx, r.x, Math.log(ctx.w));
+  const a = Math.exp(lnA);
+  const w = Math.exp(lnW);
+  ansatzLocalIntegralsTabulated(a, ctx.I);
   const parts: SkyrmionEnergyParts = { exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 };
   energyAt(ctx, a, w, parts);
   const film = ctx.film;
