@@ -177,13 +177,14 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const energiesOut = options.energies ? new Float64Array(n1 * n2 * n) : undefined;
   interface Row { E: Float64Array; Vr: Float64Array; Vi: Float64Array; u1r: Float64Array; u1i: Float64Array }
   const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * nn), Vi: new Float64Array(n1 * nn), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
+  let vFirst = 0, vCount = n;
   const computeRow = (j: number, row: Row) => {
     const k2 = j / n2;
     const { E, Vr, Vi } = row;
     for (let i = 0; i < n1; i++) {
       model.fill(i / n1, k2, re, im);
       if (solver) {
-        solver.solveVectorRows(re, im);
+        solver.solveVectorRows(re, im, vFirst, vCount);
         E.set(solver.values, i * n);
         Vr.set(solver.vectorsRe, i * nn);
         Vi.set(solver.vectorsIm, i * nn);
@@ -316,6 +317,15 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
     }
   };
   const u2r = new Float64Array(n1), u2i = new Float64Array(n1);
+  // Eigenvectors needed: the bands of the groups whose links are computed.
+  let vLo = n, vHi = -1;
+  for (let gi = 0; gi < G; gi++) {
+    if (gi === derived) continue;
+    vLo = Math.min(vLo, gLo[gi]!);
+    vHi = Math.max(vHi, gLo[gi]! + gK[gi]! - 1);
+  }
+  vFirst = vLo;
+  vCount = vHi - vLo + 1;
   const row0 = newRow();
   computeRow(0, row0);
   rowLinks(row0);

@@ -90,13 +90,18 @@ export class HermitianEigenSolver {
   /**
    * As `solve` with vectors, but leaves eigenvector k as ROW k of (vectorsRe, vectorsIm)
    * (component i at [k * n + i]): the solver's internal layout, which saves a transpose for
-   * callers that read whole vectors (link variables).
+   * callers that read whole vectors (link variables). Only the vectors first .. first + count - 1
+   * are computed (the QL runs in full; the back-transformation is skipped for the others, whose
+   * rows are then undefined).
    */
-  solveVectorRows(re: ArrayLike<number>, im: ArrayLike<number> | null): void {
-    this.solveInternal(re, im, true, true);
+  solveVectorRows(re: ArrayLike<number>, im: ArrayLike<number> | null, first = 0, count = this.n): void {
+    if (!Number.isInteger(first) || !Number.isInteger(count) || first < 0 || count < 0 || first + count > this.n) {
+      throw new InputError("first, count", [first, count], `a range of eigenvector indices within 0..${this.n - 1}`);
+    }
+    this.solveInternal(re, im, true, true, first, first + count);
   }
 
-  private solveInternal(re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean): void {
+  private solveInternal(re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean, kFrom = 0, kTo = this.n): void {
     const n = this.n;
     const ar = this.ar;
     const ai = this.ai;
@@ -239,7 +244,7 @@ export class HermitianEigenSolver {
     sortAscending(n, d, Z, null);
     const Vr = this.vectorsRe;
     const Vi = this.vectorsIm;
-    for (let k = 0; k < n; k++) {
+    for (let k = kFrom; k < kTo; k++) {
       const o = k * n;
       for (let j = 0; j < n; j++) {
         const z = Z[o + j]!;

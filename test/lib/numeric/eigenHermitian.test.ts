@@ -153,6 +153,16 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
         expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
         expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
       }
+      // a subset of the vectors: the same rows
+      const first = Math.floor(n / 3), count = Math.max(1, Math.floor(n / 2));
+      if (first + count <= n) {
+        a.solveVectorRows(m.re, m.im, first, count);
+        for (let k = first; k < first + count; k++) for (let i = 0; i < n; i++) {
+          expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
+          expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
+        }
+      }
     }
+    expect(() => new HermitianEigenSolver(3).solveVectorRows(new Float64Array(9), null, 2, 2)).toThrow(InputError);
   });
 });
