@@ -40,6 +40,17 @@ describe("skyrmion calculators", () => {
     expect(spec.plots.some((p) => p.x === "fieldSweep" && p.y.includes("radiusSweep"))).toBe(true);
     expect(r.outputs.collapseField!.value as number).toBeGreaterThan(0);
   });
+  it("skyrmion: R(B) is insensitive to last-ulp changes of the inputs (the browser recomputes what Node computes)", () => {
+    // Common practice, no source: a 1-ulp change of D changes R(B) by about 1e-16 in exact arithmetic;
+    // the solver's result must not amplify it beyond 1e-9 (engines differ in last ulps of Math.exp etc.).
+    const spec = getCalculator("skyrmion");
+    for (const D of [1.5e-3, 2.6e-3]) {
+      const a = runCalculator(spec, { D }).outputs.radiusSweep!.value as number[];
+      const b = runCalculator(spec, { D: D * (1 + 2 ** -51) }).outputs.radiusSweep!.value as number[];
+      expect(b.length).toBe(a.length);
+      for (let i = 0; i < a.length; i++) expect(Math.abs(b[i]! / a[i]! - 1), `D=${D} point ${i}`).toBeLessThan(1e-9);
+    }
+  });
   it("skyrmion: above D_c reports the spiral and its period instead of a radius", () => {
     // Source: S. Rohart, A. Thiaville, PRB 88, 184422 (2013).
     const r = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2" });
