@@ -90,7 +90,7 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
   const a1 = Float64Array.from(abs1), a2 = Float64Array.from(abs2);
   const e1r = new Float64Array(abs1.length), e1i = new Float64Array(abs1.length);
   const e2r = new Float64Array(abs2.length), e2i = new Float64Array(abs2.length);
-  let lastK2 = NaN;
+  const lastK2 = new Float64Array([NaN]); // typed-array slot: a captured `let` double would be boxed
   const A = Int32Array.from(hops.map((h) => h.a));
   const B = Int32Array.from(hops.map((h) => h.b));
   const TR = Float64Array.from(hops.map((h) => h.tr));
@@ -108,13 +108,13 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
         e1r[q] = Math.cos(ph);
         e1i[q] = Math.sin(ph);
       }
-      if (k2 !== lastK2) {
+      if (k2 !== lastK2[0]) {
         for (let q = 0; q < a2.length; q++) {
           const ph = twoPi * k2 * a2[q]!;
           e2r[q] = Math.cos(ph);
           e2i[q] = Math.sin(ph);
         }
-        lastK2 = k2;
+        lastK2[0] = k2;
       }
       for (let u = 0; u < cr.length; u++) {
         const q1 = idx1[u]!, q2 = idx2[u]!;

@@ -199,9 +199,11 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const yr = new Float64Array(kmax * n), yi = new Float64Array(kmax * n);
   const phased1 = !Array.from(p1r).every((x, a) => x === 1 && p1i[a] === 0);
   const phased2 = !Array.from(p2r).every((x, a) => x === 1 && p2i[a] === 0);
-  let minLinkOverlap = Infinity;
-  let linkRe = 1, linkIm = 0;
-  /** Normalized link of group (lo, k) from vector set A (offset oa) to B (offset ob); sets linkRe/linkIm. */
+  // Link result and smallest overlap in a typed array, not in captured `let`s: V8 boxes a double
+  // stored into a closure variable (one heap allocation per link otherwise).
+  const out = new Float64Array(3); // [linkRe, linkIm, minLinkOverlap]
+  out[2] = Infinity;
+  /** Normalized link of group (lo, k) from vector set A (offset oa) to B (offset ob); sets out[0], out[1]. */
   const link = (lo: number, k: number, Ar: Float64Array, Ai: Float64Array, oa: number, Br: Float64Array, Bi: Float64Array, ob: number, pr: Float64Array, pi: Float64Array, phased: boolean): void => {
     let dr: number, di: number;
     let Yr = Br, Yi = Bi, oy = ob + lo * n;
@@ -257,13 +259,13 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       di = d[1];
     }
     const m = Math.sqrt(dr * dr + di * di);
-    if (m < minLinkOverlap) minLinkOverlap = m;
+    if (m < out[2]!) out[2] = m;
     if (m > 0) {
-      linkRe = dr / m;
-      linkIm = di / m;
+      out[0] = dr / m;
+      out[1] = di / m;
     } else {
-      linkRe = 1;
-      linkIm = 0;
+      out[0] = 1;
+      out[1] = 0;
     }
   };
   const sums = new Float64Array(G);
@@ -308,8 +310,8 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       for (let i = 0; i < n1; i++) {
         const ip = i + 1 === n1 ? 0 : i + 1;
         link(lo, k, Vr, Vi, i * nn, Vr, Vi, ip * nn, p1r, p1i, phased1);
-        u1r[gi * n1 + i] = linkRe;
-        u1i[gi * n1 + i] = linkIm;
+        u1r[gi * n1 + i] = out[0]!;
+        u1i[gi * n1 + i] = out[1]!;
         checkLink(gi, E, i, E, ip);
         const gap = gapAt(gi, E, i);
         if (gap < minGap[gi]!) minGap[gi] = gap;
@@ -343,8 +345,8 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
       const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         link(lo, k, lower.Vr, lower.Vi, i * nn, upper.Vr, upper.Vi, i * nn, p2r, p2i, phased2);
-        u2r[i] = linkRe;
-        u2i[i] = linkIm;
+        u2r[i] = out[0]!;
+        u2i[i] = out[1]!;
         checkLink(gi, lower.E, i, upper.E, i);
       }
       const Lr = lower.u1r, Li = lower.u1i, Ur = upper.u1r, Ui = upper.u1i;
@@ -407,6 +409,7 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
     resolved.push(why.length === 0);
     if (why.length) notes.push(`${label}: not resolved on the ${n1} x ${n2} grid: ${why.join("; ")}. Refine the grid (or group the touching bands); a gapless model has no Chern number.`);
   }
+  const minLinkOverlap = out[2]!;
   if (minLinkOverlap < 1e-8) notes.push(`a link overlap nearly vanishes (${minLinkOverlap.toExponential(2)}): states change completely between neighbouring points`);
   const status: ChernResult["status"] = resolved.every(Boolean) ? "ok" : "unresolved";
   if (status === "unresolved" && (options.onUnresolved ?? "throw") === "throw") {
