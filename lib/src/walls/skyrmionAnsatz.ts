@@ -419,6 +419,10 @@ const sliceV = new Float64Array(NT);
 const sliceW = new Float64Array(6);
 const sliceRows: Row[] = [];
 let sliceA = NaN;
+/** tau interval whose monomial coefficients (sliceCoefS, sliceCoefV) are cached; -1: none. */
+let sliceCoefJt = -1;
+const sliceCoefS = new Float64Array(6);
+const sliceCoefV = new Float64Array(6);
 
 /**
  * As ansatzNonlocal, through a cached slice of the table at fixed a (the inner minimization over the
@@ -427,30 +431,8 @@ let sliceA = NaN;
 function ansatzNonlocalSlice(a: number, tau: number): { surface: number; volume: number } {
   const ut = (Math.log(tau) - LNT0) / DLNT;
   if (!(ut >= 2 && ut < NT - 3)) return ansatzNonlocal(a, tau);
-  if (a !== sliceA) {
-    const ua = (Math.log(a) - LNA0) / DLNA;
-    const ja = Math.floor(ua);
-    lagrange6(ua - ja, sliceW);
-    for (let p = 0; p < 6; p++) sliceRows[p] = row(ja - 2 + p);
-    sliceS.fill(NaN);
-    sliceA = a;
-  }
   const jt = Math.floor(ut);
-  if (!(sliceS[jt - 2]! === sliceS[jt - 2]! && sliceS[jt + 3]! === sliceS[jt + 3]!)) {
-    for (let p = 0; p < 6; p++) columns(sliceRows[p]!, jt - 2);
-    for (let m = jt - 2; m < jt + 4; m++) {
-      if (sliceS[m]! === sliceS[m]!) continue;
-      let ss = 0;
-      let vv = 0;
-      for (let p = 0; p < 6; p++) {
-        const r = sliceRows[p]!;
-        ss += sliceW[p]! * r.lnS[m]!;
-        vv += sliceW[p]! * r.lnV[m]!;
-      }
-      sliceS[m] = ss;
-      sliceV[m] = vv;
-    }
-  }
+  ensureSlice(a, jt);
   lagrange6(ut - jt, wt);
   let s = 0;
   let v = 0;
@@ -461,6 +443,109 @@ function ansatzNonlocalSlice(a: number, tau: number): { surface: number; volume:
   nlOut.surface = -Math.exp(s);
   nlOut.volume = Math.exp(v);
   return nlOut;
+}
+
+/** Make the slice at a hold the tau entries jt - 2 .. jt + 3 (a-interpolated once per a). */
+function ensureSlice(a: number, jt: number): void {
+  if (a !== sliceA) {
+    const ua = (Math.log(a) - LNA0) / DLNA;
+    const ja = Math.floor(ua);
+    lagrange6(ua - ja, sliceW);
+    for (let p = 0; p < 6; p++) sliceRows[p] = row(ja - 2 + p);
+    sliceS.fill(NaN);
+    sliceA = a;
+    sliceCoefJt = -1;
+  }
+  if (sliceS[jt - 2]! === sliceS[jt - 2]! && sliceS[jt + 3]! === sliceS[jt + 3]!) return;
+  for (let p = 0; p < 6; p++) columns(sliceRows[p]!, jt - 2);
+  for (let m = jt - 2; m < jt + 4; m++) {
+    if (sliceS[m]! === sliceS[m]!) continue;
+    let ss = 0;
+    let vv = 0;
+    for (let p = 0; p < 6; p++) {
+      const r = sliceRows[p]!;
+      ss += sliceW[p]! * r.lnS[m]!;
+      vv += sliceW[p]! * r.lnV[m]!;
+    }
+    sliceS[m] = ss;
+    sliceV[m] = vv;
+  }
+}
+
+/** Monomial coefficients of the 6-point interpolant on the nodes -2 .. 3: p(s) = Sum_k c_k s^k, c = M y. */
+const POLY6: Float64Array = (() => {
+  const M = new Float64Array(36); // M[k * 6 + i]
+  for (let i = 0; i < 6; i++) {
+    // coefficients of L_i(s) = Prod_{j != i} (s - x_j) / (x_i - x_j), x_j = j - 2
+    let c = [1];
+    let den = 1;
+    for (let j = 0; j < 6; j++) {
+      if (j === i) continue;
+      const xj = j - 2;
+      const next = new Array<number>(c.length + 1).fill(0);
+      for (let k = 0; k < c.length; k++) {
+        next[k + 1]! += c[k]!;
+        next[k]! -= xj * c[k]!;
+      }
+      c = next;
+      den *= i - 2 - xj;
+    }
+    for (let k = 0; k < 6; k++) M[k * 6 + i] = c[k]! / den;
+  }
+  return M;
+})();
+
+/** Monomial coefficients c (p(s) = Sum_k c_k s^k) of the interpolant through y[base .. base + 5] (nodes -2 .. 3). */
+function poly6Coefficients(y: Float64Array, base: number, c: Float64Array): void {
+  for (let k = 0; k < 6; k++) {
+    let ck = 0;
+    for (let i = 0; i < 6; i++) ck += POLY6[k * 6 + i]! * y[base + i]!;
+    c[k] = ck;
+  }
+}
+
+/** p(s), p'(s), p''(s) of p = Sum_k c_k s^k, to out[o .. o + 2]. */
+function poly6At(c: Float64Array, s: number, out: Float64Array, o: number): void {
+  let p = 0;
+  let d1 = 0;
+  let d2 = 0;
+  for (let k = 5; k >= 0; k--) {
+    d2 = d2 * s + 2 * d1;
+    d1 = d1 * s + p;
+    p = p * s + c[k]!;
+  }
+  out[o] = p;
+  out[o + 1] = d1;
+  out[o + 2] = d2;
+}
+
+const sliceDer = new Float64Array(6);
+
+/**
+ * ln(-Phi_s), ln(Phi_v) and their first two derivatives in ln tau at (a, tau = exp(lnTau)) from
+ * the slice at fixed a (the same interpolant as ansatzNonlocalSlice), written to sliceDer as
+ * [s, s', s'', v, v', v'']. Returns false outside the tau table.
+ */
+function ansatzNonlocalSliceDerivatives(a: number, lnTau: number): boolean {
+  const ut = (lnTau - LNT0) / DLNT;
+  if (!(ut >= 2 && ut < NT - 3)) return false;
+  const jt = Math.floor(ut);
+  ensureSlice(a, jt);
+  if (jt !== sliceCoefJt) {
+    poly6Coefficients(sliceS, jt - 2, sliceCoefS);
+    poly6Coefficients(sliceV, jt - 2, sliceCoefV);
+    sliceCoefJt = jt;
+  }
+  const st = ut - jt;
+  poly6At(sliceCoefS, st, sliceDer, 0);
+  poly6At(sliceCoefV, st, sliceDer, 3);
+  const k1 = 1 / DLNT;
+  const k2 = k1 * k1;
+  sliceDer[1] *= k1;
+  sliceDer[2] *= k2;
+  sliceDer[4] *= k1;
+  sliceDer[5] *= k2;
+  return true;
 }
 
 /**
@@ -537,6 +622,8 @@ interface Context {
   w: number;
   /** ln(w / Delta) of the last inner minimum (NaN before the first). */
   lwLast: number;
+  /** ln(t / Delta): ln tau = lnTauDelta - ln(w / Delta). */
+  lnTauDelta: number;
   h: number;
   vf: number;
 }
@@ -587,6 +674,91 @@ function energyAt(ctx: Context, a: number, w: number, parts?: SkyrmionEnergyPart
   return total;
 }
 
+const der = { e: 0, e1: 0, e2: 0 };
+
+/**
+ * Energy at (a, w = Delta exp(lw)) and its first two derivatives in lw (ctx.I must hold the local
+ * integrals at a), from the analytic w-dependence of each term and the slice's derivatives in ln tau
+ * (tau = t / w). Returns false outside the tau table.
+ */
+function energyDerivativesInLnW(ctx: Context, a: number, lw: number): boolean {
+  const { film, B } = ctx;
+  const I = ctx.I;
+  const w = ctx.Delta * Math.exp(lw);
+  if (!ansatzNonlocalSliceDerivatives(a, ctx.lnTauDelta - lw)) return false;
+  const twoPiT = 2 * Math.PI * film.t;
+  const ex = twoPiT * film.A * I.ex;
+  const Q = twoPiT * (ctx.Keff * I.K + film.Ms * B * I.Z) * w * w; // Q' = 2Q, Q'' = 4Q
+  const X = twoPiT * film.D * w * I.D; // X' = X'' = X
+  const P = mu0 * film.Ms * film.Ms * film.t * w * w;
+  // Phi_s = -exp(s), Phi_v = exp(v) with s, v functions of ln tau = const - lw
+  const es = Math.exp(sliceDer[0]!);
+  const s1 = sliceDer[1]!;
+  const s2 = sliceDer[2]!;
+  const ev = Math.exp(sliceDer[3]!);
+  const v1 = sliceDer[4]!;
+  const v2 = sliceDer[5]!;
+  const fs = -es;
+  const fs1 = es * s1;
+  const fs2 = -es * (s1 * s1 + s2);
+  const fv = ev;
+  const fv1 = -ev * v1;
+  const fv2 = ev * (v1 * v1 + v2);
+  const S = P * fs;
+  const S1 = P * (2 * fs + fs1);
+  const S2 = P * (4 * fs + 4 * fs1 + fs2);
+  const V = P * fv;
+  const V1 = P * (2 * fv + fv1);
+  const V2 = P * (4 * fv + 4 * fv1 + fv2);
+  let H: number;
+  let H1: number;
+  let H2: number;
+  if (ctx.fixedPsi !== undefined) {
+    const h = film.dmi === "interfacial" ? Math.cos(ctx.fixedPsi) : Math.sin(ctx.fixedPsi);
+    const vf = Math.cos(ctx.fixedPsi) ** 2;
+    H = X * h + vf * V;
+    H1 = X * h + vf * V1;
+    H2 = X * h + vf * V2;
+  } else if (film.dmi === "interfacial" && V > 0 && Math.abs(X) < 2 * V) {
+    // H = -X^2 / (4 V) = -F / 4, ln F = 2 ln|X| - ln V
+    const F = (X * X) / V;
+    const g1 = 2 - V1 / V;
+    const g2 = (V1 / V) ** 2 - V2 / V;
+    H = -F / 4;
+    H1 = (-F * g1) / 4;
+    H2 = (-F * (g1 * g1 + g2)) / 4;
+  } else {
+    const h = X > 0 ? -1 : 1;
+    const vf = film.dmi === "interfacial" ? 1 : 0;
+    H = X * h + vf * V;
+    H1 = X * h + vf * V1;
+    H2 = X * h + vf * V2;
+  }
+  der.e = ex + Q + S + H;
+  der.e1 = 2 * Q + S1 + H1;
+  der.e2 = 4 * Q + S2 + H2;
+  return true;
+}
+
+/**
+ * Newton's method for the inner minimum over lw = ln(w / Delta) from l0, inside (lo, hi); NaN when
+ * it does not converge there (then Brent takes over).
+ */
+function innerNewton(ctx: Context, a: number, l0: number, lo: number, hi: number): number {
+  let l = l0;
+  for (let it = 0; it < 12; it++) {
+    if (!energyDerivativesInLnW(ctx, a, l)) return NaN;
+    if (!(der.e2 > 0)) return NaN;
+    let step = -der.e1 / der.e2;
+    if (step > 0.25) step = 0.25;
+    else if (step < -0.25) step = -0.25;
+    l += step;
+    if (!(l > lo && l < hi)) return NaN;
+    if (Math.abs(step) < 1e-9) return l;
+  }
+  return NaN;
+}
+
 const W_LO = Math.log(1 / 40);
 const W_HI = Math.log(40);
 
@@ -617,7 +789,12 @@ function profiledEnergy(ctx: Context, lna: number): number {
   const wlo = Math.max(W_LO, l0 - 0.7);
   const whi = Math.min(W_HI, l0 + 0.7);
   let lw = NaN;
-  if (ctx.lwLast > wlo + 0.01 && ctx.lwLast < whi - 0.01) {
+  if (ctx.nonlocal) {
+    // Newton with the analytic w-dependence (a few steps), from the last minimum or the estimate
+    const start = ctx.lwLast > wlo + 0.01 && ctx.lwLast < whi - 0.01 ? ctx.lwLast : l0;
+    lw = innerNewton(ctx, a, start, wlo, whi);
+  }
+  if (Number.isNaN(lw) && ctx.lwLast > wlo + 0.01 && ctx.lwLast < whi - 0.01) {
     lo = Math.max(wlo, ctx.lwLast - 0.15);
     hi = Math.min(whi, ctx.lwLast + 0.15);
     const r = brentMinimize(f, lo, hi, 1e-6, 60);
@@ -674,6 +851,7 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
     I: { ex: 0, K: 0, D: 0, Z: 0 },
     w: Delta,
     lwLast: NaN,
+    lnTauDelta: Math.log(film.t / Delta),
     h: 1,
     vf: 1,
   };
