@@ -15,6 +15,7 @@ import {
   InputError,
   type AnsatzIntegrals,
 } from "@helicoid/lib";
+import { runPython } from "../../helpers/python.js";
 
 const base = { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9 };
 const film = makeFilm(base);
@@ -68,6 +69,31 @@ describe("360-degree-wall ansatz skyrmion", () => {
     // a thicker film with strong stray field: bubble-like run-away at negative field
     const thick = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 2.5e-3, t: 3e-9 });
     expect(solveSkyrmionAnsatz(thick, -0.1).status).toBe("expanded");
+  });
+  it("local integrals I_ex, I_K, I_D, I_Z agree with scipy.integrate.quad to 1e-12", () => {
+    // Source: scipy.integrate.quad (Debian's scipy 1.10) of the same closed-form integrands, as an oracle.
+    const as = [0.05, 0.2456, 0.3, 0.61, 2.5, 45];
+    const ref = runPython<number[][]>(
+      `
+import json, sys, numpy as np
+from scipy.integrate import quad
+out = []
+for a in json.load(sys.stdin):
+    sa = np.sinh(a); S = sa * sa
+    def parts(x, k):
+        sx, cx = np.sinh(x), np.cosh(x); d = sx * sx + S
+        omc = 2 * S / d; sn = 2 * sa * sx / d; cs = (sx * sx - S) / d; thx = -2 * sa * cx / d
+        return (thx * thx * x + sn * sn / x, sn * sn * x, thx * x + sn * cs, omc * x)[k]
+    edges = np.concatenate([[0], min(a, 1) * np.geomspace(1e-4, 1, 30), np.linspace(min(a, 1), a + 40, 600)[1:]])
+    out.append([sum(quad(parts, lo, hi, args=(k,), epsabs=1e-17, epsrel=1e-13, limit=200)[0] for lo, hi in zip(edges[:-1], edges[1:])) for k in range(4)])
+print(json.dumps(out))
+`,
+      as,
+    );
+    as.forEach((a, i) => {
+      const I = ansatzLocalIntegrals(a);
+      (["ex", "K", "D", "Z"] as const).forEach((k, j) => expect(Math.abs(I[k] / ref[i]![j]! - 1), `${k} at a = ${a}`).toBeLessThan(1e-12));
+    });
   });
   it("tabulated local integrals agree with the exact quadrature to 1e-6", () => {
     // Common practice, no source: interpolation (6-point Lagrange in ln a) against direct evaluation.
