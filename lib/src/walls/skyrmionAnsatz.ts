@@ -26,11 +26,14 @@
  * route as the independent reference (agreement to about 2e-6, the direct route's own k-grid error).
  * Accuracy of the interpolated energy terms: about 1e-6 relative (Phi) and 1e-7 (I_*), checked in
  * test/lib/walls/magnetostatics.test.ts and skyrmionAnsatz.test.ts.
- * Minimization: for fixed a the energy is minimized over w by Brent's method in ln w, bracketed
- * around the last inner minimum (with the interfacial helicity in closed form: cos psi =
+ * Minimization: for fixed a the energy is minimized over w by Newton's method in ln w with the
+ * analytic w-dependence of each term and the table's derivatives in ln tau (Brent's method as the
+ * fallback), from the last inner minimum (with the interfacial helicity in closed form: cos psi =
  * clamp(-X / 2Y), X the DMI term, Y the volume-charge term); the outer minimization over ln a walks
- * downhill from a start (a warm start in sweeps) to a bracket, then Brent. A run to the table edge
- * a < 0.3 (R < 0.3 w) is reported as collapse, a run to a > 100 as run-away expansion.
+ * downhill from a start (a warm start in sweeps) to a bracket, then Brent, then Newton steps on a
+ * central-difference stencil in (ln a, ln w) fix the minimum far below the tolerances (results do
+ * not depend on last-ulp differences between engines). A run to the table edge a < 0.3 (R < 0.3 w)
+ * is reported as collapse, a run to a > 100 as run-away expansion.
  */
 import { ConvergenceError, InputError } from "../errors.js";
 import { mu0 } from "../quantity/constants.js";
