@@ -22,9 +22,8 @@
  * thickness, ansatz profile, non-local thin-film magnetostatics unless switched off).
  */
 import { InputError } from "../errors.js";
-import { mu0 } from "../quantity/constants.js";
 import { effectiveAnisotropy, makeFilm, type Film } from "../material/film.js";
-import { ansatzLocalIntegrals, ansatzNonlocal, solveSkyrmionAnsatz, type AnsatzSkyrmion } from "../walls/skyrmionAnsatz.js";
+import { ansatzEnergyTerms, ansatzLocalIntegrals, ansatzNonlocal, solveSkyrmionAnsatz, type AnsatzSkyrmion } from "../walls/skyrmionAnsatz.js";
 
 /** Film parameters a field-series fit can vary. */
 export type SeriesParameter = "A" | "D" | "Ku";
@@ -66,29 +65,10 @@ interface EnergyAndGradient {
 /** The ansatz energy with the optimal helicity, and its closed-form parameter gradient. */
 export function ansatzEnergyAt(film: Film, B: number, a: number, w: number, nonlocal = true): EnergyAndGradient {
   const I = ansatzLocalIntegrals(a);
-  const Keff = effectiveAnisotropy(film);
+  const nl = nonlocal ? ansatzNonlocal(a, film.t / w) : { surface: 0, volume: 0 };
+  const T = ansatzEnergyTerms(film, B, effectiveAnisotropy(film), I, w, nl.surface, nl.volume, undefined, { exchange: 0, anisotropy: 0, zeeman: 0, dmiScale: 0, surface: 0, volumeScale: 0, h: 0, vf: 0, total: 0 });
   const twoPiT = 2 * Math.PI * film.t;
-  const X = twoPiT * film.D * w * I.D;
-  let S = 0;
-  let V = 0;
-  if (nonlocal) {
-    const pref = mu0 * film.Ms * film.Ms * film.t * w * w;
-    const nl = ansatzNonlocal(a, film.t / w);
-    S = pref * nl.surface;
-    V = pref * nl.volume;
-  }
-  let h: number;
-  let vf: number;
-  if (film.dmi === "interfacial") {
-    if (V > 0 && Math.abs(X) < 2 * V) h = -X / (2 * V);
-    else h = X > 0 ? -1 : 1;
-    vf = h * h;
-  } else {
-    h = X > 0 ? -1 : 1;
-    vf = 0;
-  }
-  const E = twoPiT * (film.A * I.ex + (Keff * I.K + film.Ms * B * I.Z) * w * w) + X * h + S + vf * V;
-  return { E, gA: twoPiT * I.ex, gD: twoPiT * w * I.D * h, gK: twoPiT * w * w * I.K };
+  return { E: T.total, gA: twoPiT * I.ex, gD: twoPiT * w * I.D * T.h, gK: twoPiT * w * w * I.K };
 }
 
 const STEP = 2e-3;

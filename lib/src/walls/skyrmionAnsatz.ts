@@ -668,29 +668,51 @@ interface Context {
   vf: number;
 }
 
-function energyAt(ctx: Context, a: number, w: number, parts?: SkyrmionEnergyParts): number {
-  const { film, B } = ctx;
-  const I = ctx.I;
+/** The terms of the ansatz energy (J) at one (a, w); see `ansatzEnergyTerms`. */
+export interface AnsatzEnergyTerms {
+  exchange: number;
+  anisotropy: number;
+  zeeman: number;
+  /** DMI energy at helicity factor h = 1: the DMI term is dmiScale * h. */
+  dmiScale: number;
+  /** Surface-charge correction (J). */
+  surface: number;
+  /** Volume-charge correction at cos psi = 1 (J): the term is volumeScale * vf. */
+  volumeScale: number;
+  /** Helicity factor of the DMI term (cos psi interfacial, sin psi bulk). */
+  h: number;
+  /** cos^2 psi, the weight of the volume charges. */
+  vf: number;
+  total: number;
+}
+
+/**
+ * The ansatz energy at (a = R/w, w) from the local integrals `I` at a and the dimensionless
+ * nonlocal values (`surface`, `volume` of ansatzNonlocal(a, t/w); 0 for local magnetostatics), with
+ * the optimal helicity (or `fixedPsi`): for interfacial DMI, cos psi minimizes X c + V c^2 on [-1, 1];
+ * for bulk DMI the Bloch sign is chosen (no volume charges). Writes into and returns `out`.
+ */
+export function ansatzEnergyTerms(
+  film: Film,
+  B: number,
+  Keff: number,
+  I: AnsatzIntegrals,
+  w: number,
+  surface: number,
+  volume: number,
+  fixedPsi: number | undefined,
+  out: AnsatzEnergyTerms,
+): AnsatzEnergyTerms {
   const twoPiT = 2 * Math.PI * film.t;
-  const ex = twoPiT * film.A * I.ex;
-  const an = twoPiT * ctx.Keff * w * w * I.K;
-  const ze = twoPiT * film.Ms * B * w * w * I.Z;
+  const pref = mu0 * film.Ms * film.Ms * film.t * w * w;
   const X = twoPiT * film.D * w * I.D;
-  let S = 0;
-  let V = 0;
-  if (ctx.nonlocal) {
-    const pref = mu0 * film.Ms * film.Ms * film.t * w * w;
-    const nl = ansatzNonlocalSlice(a, film.t / w);
-    S = pref * nl.surface;
-    V = pref * nl.volume;
-  }
+  const V = pref * volume;
   let h: number;
   let vf: number;
-  if (ctx.fixedPsi !== undefined) {
-    h = film.dmi === "interfacial" ? Math.cos(ctx.fixedPsi) : Math.sin(ctx.fixedPsi);
-    vf = Math.cos(ctx.fixedPsi) ** 2;
+  if (fixedPsi !== undefined) {
+    h = film.dmi === "interfacial" ? Math.cos(fixedPsi) : Math.sin(fixedPsi);
+    vf = Math.cos(fixedPsi) ** 2;
   } else if (film.dmi === "interfacial") {
-    // minimize X c + V c^2 over c = cos psi in [-1, 1]
     if (V > 0 && Math.abs(X) < 2 * V) h = -X / (2 * V);
     else h = X > 0 ? -1 : 1;
     vf = h * h;
@@ -698,20 +720,41 @@ function energyAt(ctx: Context, a: number, w: number, parts?: SkyrmionEnergyPart
     h = X > 0 ? -1 : 1;
     vf = 0;
   }
-  ctx.h = h;
-  ctx.vf = vf;
-  const dm = X * h;
-  const total = ex + an + ze + dm + S + vf * V;
-  if (parts) {
-    parts.exchange = ex;
-    parts.anisotropy = an;
-    parts.zeeman = ze;
-    parts.dmi = dm;
-    parts.magnetostaticSurface = S;
-    parts.magnetostaticVolume = vf * V;
-    parts.total = total;
+  out.exchange = twoPiT * film.A * I.ex;
+  out.anisotropy = twoPiT * Keff * w * w * I.K;
+  out.zeeman = twoPiT * film.Ms * B * w * w * I.Z;
+  out.dmiScale = X;
+  out.surface = pref * surface;
+  out.volumeScale = V;
+  out.h = h;
+  out.vf = vf;
+  out.total = out.exchange + out.anisotropy + out.zeeman + X * h + out.surface + vf * V;
+  return out;
+}
+
+const terms: AnsatzEnergyTerms = { exchange: 0, anisotropy: 0, zeeman: 0, dmiScale: 0, surface: 0, volumeScale: 0, h: 0, vf: 0, total: 0 };
+
+function energyAt(ctx: Context, a: number, w: number, parts?: SkyrmionEnergyParts): number {
+  let surface = 0;
+  let volume = 0;
+  if (ctx.nonlocal) {
+    const nl = ansatzNonlocalSlice(a, ctx.film.t / w);
+    surface = nl.surface;
+    volume = nl.volume;
   }
-  return total;
+  const T = ansatzEnergyTerms(ctx.film, ctx.B, ctx.Keff, ctx.I, w, surface, volume, ctx.fixedPsi, terms);
+  ctx.h = T.h;
+  ctx.vf = T.vf;
+  if (parts) {
+    parts.exchange = T.exchange;
+    parts.anisotropy = T.anisotropy;
+    parts.zeeman = T.zeeman;
+    parts.dmi = T.dmiScale * T.h;
+    parts.magnetostaticSurface = T.surface;
+    parts.magnetostaticVolume = T.vf * T.volumeScale;
+    parts.total = T.total;
+  }
+  return T.total;
 }
 
 const der = { e: 0, e1: 0, e2: 0 };
