@@ -16,7 +16,9 @@ import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
 import { STEPS, toPosition, fromPosition, isLogScale } from "./views/sliderScale.js";
 import { validateEntry, entryText } from "./views/quantityEntry.js";
 import { codeSnippet } from "./views/codeSnippet.js";
-import { plotFigure } from "./views/explorerPlots.js";
+import { plotFigure, type PlotFigure } from "./views/explorerPlots.js";
+import { dataExtent, stableRange } from "./views/plotRanges.js";
+import { swapLineData } from "./views/linePath.js";
 import { Plotly } from "./plotly.js";
 import { isStaticPage, copyText, el } from "./views/dom.js";
 
@@ -68,6 +70,18 @@ export function resolveSpec(calculator: string, stateSpec: SpecData | null): { s
   return { spec: stateSpec, local: false, note: "" };
 }
 
+/** Quiet time after the last in-place curve swap before plotly redraws those plots exactly. */
+const EXACT_REDRAW_DELAY_MS = 120;
+
+interface PlotState {
+  /** Layout and trace identity (names, modes, units) without the ranges. */
+  shape: string;
+  xaxis: [number, number] | null;
+  yaxis: [number, number] | null;
+  /** Same shape and ranges as the previous draw: the curves can be swapped in place. */
+  swappable: boolean;
+}
+
 export class ExplorerView extends DOMWidgetView {
   private spec: SpecData | null = null;
   private local = false;
@@ -87,6 +101,10 @@ export class ExplorerView extends DOMWidgetView {
   private drawingToken: object | null = null;
   private tableKey = "";
   private valueCells = new Map<string, { tr: HTMLElement; td: HTMLElement; unit: string }>();
+  private plotState: Array<PlotState | undefined> = [];
+  /** Plots whose curves were swapped in place, with the figure plotly still has to draw. */
+  private stalePlots = new Map<number, PlotFigure>();
+  private exactTimer: ReturnType<typeof setTimeout> | null = null;
 
   override render(): void {
     this.el.classList.add("hx-explorer");
@@ -161,7 +179,13 @@ export class ExplorerView extends DOMWidgetView {
 
     if (typeof ResizeObserver !== "undefined") {
       this.resizeObserver = new ResizeObserver(() => {
-        for (const p of this.plotEls) if (p.dataset.drawn && p.offsetParent !== null) Plotly.Plots.resize(p);
+        this.plotEls.forEach((p, k) => {
+          if (!p.dataset.drawn || p.offsetParent === null) return;
+          // A plot with swapped curves is redrawn by plotly first (its own data are older).
+          const fig = this.stalePlots.get(k);
+          if (fig) { this.stalePlots.delete(k); void this.plotlyDraw(k, fig).then(() => Plotly.Plots.resize(p)); }
+          else void Plotly.Plots.resize(p);
+        });
       });
       this.resizeObserver.observe(this.el);
     }
@@ -170,6 +194,8 @@ export class ExplorerView extends DOMWidgetView {
   override remove(): this {
     this.coalescer?.dispose();
     this.resizeObserver?.disconnect();
+    if (this.exactTimer !== null) clearTimeout(this.exactTimer);
+    this.stalePlots.clear();
     for (const p of this.plotEls) Plotly.purge(p);
     return super.remove();
   }
@@ -405,36 +431,101 @@ export class ExplorerView extends DOMWidgetView {
       return;
     }
     this.renderTable(result);
-    // The first (main) plot is drawn at once; the others just after, so it shows sooner.
-    const drawPlot = (k: number): Promise<unknown> => {
-      const plot = spec.plots[k]!;
-      const target = this.plotEls[k]!;
-      target.hidden = false;
-      (target.previousElementSibling as HTMLElement | null)?.removeAttribute("hidden");
-      const fig = plotFigure(plot, spec.outputs, result);
-      if (fig.data.length === 0) {
-        Plotly.purge(target);
-        delete target.dataset.drawn;
-        target.replaceChildren(el("div", { class: "hx-error", text: `Plot '${plot.title}': ${fig.problem}` }));
-        return Promise.resolve();
-      }
-      if (!target.dataset.drawn) target.replaceChildren();
-      return Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
-        target.dataset.drawn = "1";
-        if (k === 0) this.markFirstPlot();
-      });
-    };
-    const draws: Promise<unknown>[] = [];
+    // The first (main) plot is drawn at once; the others just after, so it shows sooner. A plot
+    // whose axes and labels stay as they are gets its curves swapped in place (views/linePath.ts)
+    // and a full Plotly.react once the slider rests (hover labels and gd.data exact again).
     const drawing = (this.drawingToken = {});
     this.el.dataset.drawing = "1";
+    const draws: Promise<unknown>[] = [];
     if (spec.plots.length > 0) {
-      const first = drawPlot(0);
+      const first = this.drawPlot(0, result);
       draws.push(first);
-      for (let k = 1; k < spec.plots.length; k++) draws.push(first.then(() => new Promise((r) => setTimeout(r, 0))).then(() => drawPlot(k)));
+      for (let k = 1; k < spec.plots.length; k++) {
+        const kk = k;
+        draws.push(first.then((swapped) => (swapped ? this.drawPlot(kk, result) : new Promise((r) => setTimeout(r, 0)).then(() => this.drawPlot(kk, result)))));
+      }
     }
     void Promise.all(draws).then(() => {
-      if (drawing === this.drawingToken) this.el.dataset.drawing = "";
       this.markDone();
+      if (drawing !== this.drawingToken) return;
+      if (this.stalePlots.size) this.scheduleExactRedraw();
+      else this.el.dataset.drawing = "";
+    });
+  }
+
+  /** Plot figures with the explorer's own (stable) axis ranges: see views/plotRanges.ts. */
+  private figureFor(k: number, result: CalculatorResult): PlotFigure {
+    const spec = this.spec!;
+    const plot = spec.plots[k]!;
+    const fig = plotFigure(plot, spec.outputs, result);
+    if (fig.data.length === 0) return fig;
+    const shape = JSON.stringify([fig.layout, fig.data.map((t) => [t.name, t.mode, t.meta])]);
+    const prev = this.plotState[k];
+    const same = prev?.shape === shape;
+    const axis = (name: "xaxis" | "yaxis", values: Array<ArrayLike<number | null>>, log: boolean): [number, number] | null => {
+      let ext: [number, number] | null = null;
+      for (const v of values) {
+        const e = dataExtent(v, log);
+        if (e) ext = ext ? [Math.min(ext[0], e[0]), Math.max(ext[1], e[1])] : e;
+      }
+      return stableRange(same ? prev![name] : null, ext);
+    };
+    const xr = axis("xaxis", fig.data.map((t) => t.x as number[]), !!plot.xLog);
+    const yr = axis("yaxis", fig.data.map((t) => t.y as Array<number | null>), !!plot.yLog);
+    const layout = fig.layout as { xaxis: Record<string, unknown>; yaxis: Record<string, unknown> };
+    if (xr) { layout.xaxis.range = xr; layout.xaxis.autorange = false; }
+    if (yr) { layout.yaxis.range = yr; layout.yaxis.autorange = false; }
+    this.plotState[k] = { shape, xaxis: xr, yaxis: yr, swappable: same && prev!.xaxis === xr && prev!.yaxis === yr };
+    return fig;
+  }
+
+  /** Draw plot k; resolves true when the curves were swapped in place (no plotly redraw). */
+  private drawPlot(k: number, result: CalculatorResult): Promise<boolean> {
+    const plot = this.spec!.plots[k]!;
+    const target = this.plotEls[k]!;
+    target.hidden = false;
+    (target.previousElementSibling as HTMLElement | null)?.removeAttribute("hidden");
+    const fig = this.figureFor(k, result);
+    if (fig.data.length === 0) {
+      Plotly.purge(target);
+      delete target.dataset.drawn;
+      this.stalePlots.delete(k);
+      target.replaceChildren(el("div", { class: "hx-error", text: `Plot '${plot.title}': ${fig.problem}` }));
+      return Promise.resolve(false);
+    }
+    if (target.dataset.drawn && this.plotState[k]!.swappable && swapLineData(target, fig.data as Array<{ x: number[]; y: Array<number | null>; mode: unknown }>)) {
+      this.stalePlots.set(k, fig);
+      target.dataset.swaps = String(Number(target.dataset.swaps ?? 0) + 1);
+      if (k === 0) this.markFirstPlot();
+      return Promise.resolve(true);
+    }
+    this.stalePlots.delete(k);
+    return this.plotlyDraw(k, fig).then(() => false);
+  }
+
+  private plotlyDraw(k: number, fig: PlotFigure): Promise<void> {
+    const target = this.plotEls[k]!;
+    if (!target.dataset.drawn) target.replaceChildren();
+    return Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
+      target.dataset.drawn = "1";
+      if (k === 0) this.markFirstPlot();
+    });
+  }
+
+  /** After in-place swaps: a full plotly redraw of those plots once no update came for a while. */
+  private scheduleExactRedraw(): void {
+    if (this.exactTimer !== null) clearTimeout(this.exactTimer);
+    this.exactTimer = setTimeout(() => this.exactRedraw(), EXACT_REDRAW_DELAY_MS);
+  }
+
+  private exactRedraw(): void {
+    this.exactTimer = null;
+    if (this.coalescer?.busy || this.pendingMark) { this.scheduleExactRedraw(); return; }
+    const token = this.drawingToken;
+    const jobs = [...this.stalePlots].map(([k, fig]) => this.plotlyDraw(k, fig));
+    this.stalePlots.clear();
+    void Promise.all(jobs).then(() => {
+      if (token === this.drawingToken && this.stalePlots.size === 0) this.el.dataset.drawing = "";
     });
   }
 
