@@ -289,4 +289,52 @@ describe("exported page", () => {
     after.x.forEach((v, i) => expect(relClose(v, xs[i]!, 1e-9)).toBe(true));
     await screenshot(page, "explorer-skyrmion", sk);
   });
+  it.skipIf(!hasSkyrmion)("small slider steps swap the curves in place as plotly would draw them, then plotly redraws them exactly", async () => {
+    const sk = '.hx-explorer[data-calculator="skyrmion"]';
+    await settled(page, sk);
+    // Several small steps of D: the axes stay, so the view swaps the curves in plotly's SVG lines
+    // and redraws with plotly once the slider rests. Each swapped path is recorded on arrival.
+    const swapped = await page.evaluate(async (sel) => {
+      const root = document.querySelector(sel) as HTMLElement;
+      const s = root.querySelector('.hx-control[data-input="D"] input.hx-slider') as HTMLInputElement;
+      const gd = root.querySelector(".hx-plot") as HTMLElement;
+      const paths = () => Array.from(gd.querySelectorAll(".scatterlayer > .trace path.js-line")).map((p) => p.getAttribute("d") ?? "");
+      let last: string[] | null = null;
+      for (let k = 0; k < 6; k++) {
+        const swaps = Number(gd.dataset.swaps ?? 0);
+        const marks = performance.getEntriesByName("hx-slider-to-all-plots").length;
+        s.value = String(Number(s.value) + 2);
+        s.dispatchEvent(new Event("input", { bubbles: true }));
+        const t0 = performance.now();
+        while (performance.getEntriesByName("hx-slider-to-all-plots").length === marks && performance.now() - t0 < 20_000) await new Promise((r) => setTimeout(r, 1));
+        if (Number(gd.dataset.swaps ?? 0) > swaps) last = paths();
+        else last = null;
+      }
+      return last;
+    }, sk);
+    // Common practice, no source: with the axes kept, 2 of 1000 slider steps change R(B) far less
+    // than the axis span, so at least the last step is a swap.
+    expect(swapped).not.toBeNull();
+    await settled(page, sk);
+    await page.waitForTimeout(200);
+    await settled(page, sk);
+    const drawn = await page.evaluate((sel) => Array.from(document.querySelector(sel)!.querySelectorAll(".hx-plot")[0]!.querySelectorAll(".scatterlayer > .trace path.js-line")).map((p) => p.getAttribute("d") ?? ""), sk);
+    // Source: plotly.js's own drawing of the same data and axes (it keeps a subset of the points
+    // after its line simplification): every vertex plotly drew is a vertex of the swapped path.
+    const vertices = (d: string) => d.split(/[ML]/).filter(Boolean).map((p) => p.split(",").map(Number) as [number, number]);
+    expect(drawn.length).toBe(swapped!.length);
+    drawn.forEach((d, k) => {
+      const ours = vertices(swapped![k]!);
+      const theirs = vertices(d);
+      expect(theirs.length).toBeGreaterThan(2);
+      for (const [x, y] of theirs) expect(ours.some(([u, v]) => Math.abs(u - x) <= 0.011 && Math.abs(v - y) <= 0.011)).toBe(true);
+    });
+    // After the rest, plotly's data are the exact numbers of @helicoid/lib in Node.
+    const inputs = await inputsOf(page, sk);
+    const spec = getCalculator("skyrmion");
+    const node = runCalculator(spec, inputs, { sweep: JSON.parse((await page.locator(sk).getAttribute("data-sweep"))!) });
+    const after = (await tracesOf(page, sk)).find((t) => t.output === "radiusSweep")!;
+    // Source: @helicoid/lib's skyrmion calculator run in Node on the inputs the page shows.
+    expect(maxRelativeDifference(after.y, node.outputs.radiusSweep!.value as number[])).toBeLessThanOrEqual(1e-9);
+  });
 });
