@@ -26,7 +26,8 @@
  * component i of eigenvector k is `vectorsRe[i * n + k] + i * vectorsIm[i * n + k]`.
  * Eigenvalues are ascending.
  */
-import { ConvergenceError, InputError } from "../errors.js";
+import { InputError } from "../errors.js";
+import { fastHypot, tql2Real } from "./eigenSymmetricQL.js";
 
 export interface HermitianEigenResult {
   n: number;
@@ -36,7 +37,6 @@ export interface HermitianEigenResult {
   vectorsIm?: Float64Array;
 }
 
-const EPS = 2 ** -52;
 
 /**
  * Reusable workspace for repeated diagonalizations of n x n Hermitian matrices (no allocation per
@@ -206,7 +206,7 @@ export class HermitianEigenSolver {
     if (!vectors) {
       for (let i = 0; i < n - 1; i++) e[i] = fastHypot(ar[(i + 1) * n + i]!, ai[(i + 1) * n + i]!);
       e[n - 1] = 0;
-      tql2(n, d, e, null, null);
+      tql2Real(n, d, e, null, "tridiagonal QL (Hermitian eigensolver)");
       insertionSort(d);
       return;
     }
@@ -240,7 +240,7 @@ export class HermitianEigenSolver {
     const Z = this.z;
     for (let i = 0; i < n * n; i++) Z[i] = 0;
     for (let i = 0; i < n; i++) Z[i * n + i] = 1;
-    tql2(n, d, e, Z, null);
+    tql2Real(n, d, e, Z, "tridiagonal QL (Hermitian eigensolver)");
     sortAscending(n, d, Z, null);
     const Vr = this.vectorsRe;
     const Vi = this.vectorsIm;
@@ -288,90 +288,6 @@ export class HermitianEigenSolver {
   }
 }
 
-/** hypot without the slow generic path of Math.hypot, safe for the magnitudes met here. */
-function fastHypot(a: number, b: number): number {
-  const h = a * a + b * b;
-  // Neither overflow nor loss of the smaller term to underflow: the plain formula is exact enough.
-  if (h < 1e300 && h > 1e-290) return Math.sqrt(h);
-  return Math.hypot(a, b);
-}
-
-/**
- * Implicit QL with Wilkinson shifts on the real symmetric tridiagonal (d, e), e[i] = T[i+1][i],
- * e[n-1] = 0. Rotations are applied to the ROWS of (Vr, Vi) when given (vector k = row k).
- */
-function tql2(n: number, d: Float64Array, e: Float64Array, Vr: Float64Array | null, Vi: Float64Array | null): void {
-  let f = 0;
-  let tst1 = 0;
-  for (let l = 0; l < n; l++) {
-    tst1 = Math.max(tst1, Math.abs(d[l]!) + Math.abs(e[l]!));
-    let m = l;
-    while (m < n - 1) {
-      if (Math.abs(e[m]!) <= EPS * tst1) break;
-      m++;
-    }
-    if (m > l) {
-      let iter = 0;
-      do {
-        if (++iter > 60) {
-          throw new ConvergenceError("tridiagonal QL (Hermitian eigensolver)", "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
-        }
-        let g = d[l]!;
-        let p = (d[l + 1]! - g) / (2 * e[l]!);
-        let r = fastHypot(p, 1);
-        if (p < 0) r = -r;
-        d[l] = e[l]! / (p + r);
-        d[l + 1] = e[l]! * (p + r);
-        const dl1 = d[l + 1]!;
-        let h = g - d[l]!;
-        for (let i = l + 2; i < n; i++) d[i] = d[i]! - h;
-        f += h;
-        p = d[m]!;
-        let c = 1;
-        let c2 = c;
-        let c3 = c;
-        const el1 = e[l + 1]!;
-        let s = 0;
-        let s2 = 0;
-        for (let i = m - 1; i >= l; i--) {
-          c3 = c2;
-          c2 = c;
-          s2 = s;
-          g = c * e[i]!;
-          h = c * p;
-          r = fastHypot(p, e[i]!);
-          e[i + 1] = s * r;
-          const ir = 1 / r;
-          s = e[i]! * ir;
-          c = p * ir;
-          p = c * d[i]! - s * g;
-          d[i + 1] = h + s * (c * g + s * d[i]!);
-          if (Vr) {
-            const r0 = i * n;
-            const r1 = r0 + n;
-            for (let k = 0; k < n; k++) {
-              const t = Vr[r1 + k]!;
-              Vr[r1 + k] = s * Vr[r0 + k]! + c * t;
-              Vr[r0 + k] = c * Vr[r0 + k]! - s * t;
-            }
-            if (Vi) {
-              for (let k = 0; k < n; k++) {
-                const t = Vi[r1 + k]!;
-                Vi[r1 + k] = s * Vi[r0 + k]! + c * t;
-                Vi[r0 + k] = c * Vi[r0 + k]! - s * t;
-              }
-            }
-          }
-        }
-        p = (-s * s2 * c3 * el1 * e[l]!) / dl1;
-        e[l] = s * p;
-        d[l] = c * p;
-      } while (Math.abs(e[l]!) > EPS * tst1);
-    }
-    d[l] = d[l]! + f;
-    e[l] = 0;
-  }
-}
 
 function insertionSort(d: Float64Array): void {
   for (let i = 1; i < d.length; i++) {

@@ -143,7 +143,7 @@ export class SymmetricEigenSolver {
 }
 
 /** Implicit QL on (d, e), e[i] = T[i+1][i]; rotations applied to the rows of V when given. */
-export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64Array | null): void {
+export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64Array | null, solver = "tridiagonal QL (symmetric eigensolver)"): void {
   let f = 0;
   let tst1 = 0;
   for (let l = 0; l < n; l++) {
@@ -157,7 +157,7 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
       let iter = 0;
       do {
         if (++iter > 60) {
-          throw new ConvergenceError("tridiagonal QL (symmetric eigensolver)", "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
+          throw new ConvergenceError(solver, "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
         }
         let g = d[l]!;
         let p = (d[l + 1]! - g) / (2 * e[l]!);
@@ -210,7 +210,7 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
 }
 
 /** hypot without the slow generic path of Math.hypot, safe for the magnitudes met here. */
-function fastHypot(a: number, b: number): number {
+export function fastHypot(a: number, b: number): number {
   const x = Math.abs(a);
   const y = Math.abs(b);
   if (x > 1e150 || y > 1e150 || (x < 1e-150 && y < 1e-150)) return Math.hypot(a, b);
