@@ -207,7 +207,7 @@ export class HermitianEigenSolver {
       for (let i = 0; i < n - 1; i++) e[i] = fastHypot(ar[(i + 1) * n + i]!, ai[(i + 1) * n + i]!);
       e[n - 1] = 0;
       tql2Real(n, d, e, null, "tridiagonal QL (Hermitian eigensolver)");
-      insertionSort(d);
+      d.sort(); // typed arrays sort numerically
       return;
     }
     // Phases D: delta_0 = 1, delta_{j+1} = delta_j c_j / |c_j| (c_j = T[j+1][j]); e_j = |c_j|.
@@ -285,19 +285,6 @@ export class HermitianEigenSolver {
         Vi[k * n + i] = t;
       }
     }
-  }
-}
-
-
-function insertionSort(d: Float64Array): void {
-  for (let i = 1; i < d.length; i++) {
-    const v = d[i]!;
-    let j = i - 1;
-    while (j >= 0 && d[j]! > v) {
-      d[j + 1] = d[j]!;
-      j--;
-    }
-    d[j + 1] = v;
   }
 }
 

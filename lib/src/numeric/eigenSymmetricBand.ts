@@ -28,7 +28,7 @@
  * (component i at [i * n + k]), the dense solvers' layout.
  */
 import { InputError } from "../errors.js";
-import { SymmetricEigenSolver, tql2Real } from "./eigenSymmetricQL.js";
+import { fastHypot, SymmetricEigenSolver, tql2Real } from "./eigenSymmetricQL.js";
 
 const EPS = 2 ** -52;
 
@@ -142,7 +142,7 @@ export class SymmetricBandEigenSolver {
           const x = w[row * n + col]!;
           if (x !== 0) {
             const y = w[(row - 1) * n + col]!;
-            const r = hypot(x, y);
+            const r = fastHypot(x, y);
             const c = y / r;
             const s = x / r;
             rotate(w, n, row - 1, row, c, s, d);
@@ -161,7 +161,7 @@ export class SymmetricBandEigenSolver {
       e[i] = i < n - 1 ? w[(i + 1) * n + i]! : 0;
     }
     tql2Real(n, dd, e, null);
-    insertionSort(dd);
+    dd.sort(); // typed arrays sort numerically
   }
 
   /** Step 3; false if a vector fails the checks (the caller then falls back to the dense path). */
@@ -364,24 +364,6 @@ function rotate(w: Float64Array, n: number, p: number, q: number, c: number, s: 
   const npq = cs * (aqq - app) + (cc - ss) * apq;
   w[q * n + p] = npq;
   w[p * n + q] = npq;
-}
-
-function hypot(a: number, b: number): number {
-  const x = Math.abs(a), y = Math.abs(b);
-  if (x > 1e150 || y > 1e150 || (x < 1e-150 && y < 1e-150)) return Math.hypot(a, b);
-  return Math.sqrt(x * x + y * y);
-}
-
-function insertionSort(d: Float64Array): void {
-  for (let i = 1; i < d.length; i++) {
-    const v = d[i]!;
-    let j = i - 1;
-    while (j >= 0 && d[j]! > v) {
-      d[j + 1] = d[j]!;
-      j--;
-    }
-    d[j + 1] = v;
-  }
 }
 
 /** Half-bandwidth of a dense row-major n x n matrix: the largest |i - j| with A[i][j] != 0 (either triangle). */
