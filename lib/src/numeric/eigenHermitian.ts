@@ -27,7 +27,7 @@
  * Eigenvalues are ascending.
  */
 import { InputError } from "../errors.js";
-import { fastHypot, tql2Real } from "./eigenSymmetricQL.js";
+import { fastHypot, sortAscending, tql2Real } from "./eigenSymmetricQL.js";
 
 export interface HermitianEigenResult {
   n: number;
@@ -288,27 +288,6 @@ export class HermitianEigenSolver {
   }
 }
 
-function sortAscending(n: number, d: Float64Array, Vr: Float64Array, Vi: Float64Array | null): void {
-  // Selection sort swapping rows (vectors): n is small next to the QL cost.
-  for (let i = 0; i < n - 1; i++) {
-    let k = i;
-    for (let j = i + 1; j < n; j++) if (d[j]! < d[k]!) k = j;
-    if (k === i) continue;
-    const t = d[i]!;
-    d[i] = d[k]!;
-    d[k] = t;
-    for (let c = 0; c < n; c++) {
-      let x = Vr[i * n + c]!;
-      Vr[i * n + c] = Vr[k * n + c]!;
-      Vr[k * n + c] = x;
-      if (Vi) {
-        x = Vi[i * n + c]!;
-        Vi[i * n + c] = Vi[k * n + c]!;
-        Vi[k * n + c] = x;
-      }
-    }
-  }
-}
 
 /**
  * Diagonalize one Hermitian matrix given as planar row-major arrays. Checks that the matrix is

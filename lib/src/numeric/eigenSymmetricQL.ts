@@ -118,25 +118,36 @@ export class SymmetricEigenSolver {
     const V = this.vectors;
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) V[j * n + i] = W[i * n + j]!;
     tql2Real(n, d, e, V);
-    // Sort (selection, swapping rows), then transpose back to columns.
-    for (let i = 0; i < n - 1; i++) {
-      let k = i;
-      for (let j = i + 1; j < n; j++) if (d[j]! < d[k]!) k = j;
-      if (k === i) continue;
-      const t = d[i]!;
-      d[i] = d[k]!;
-      d[k] = t;
-      for (let c = 0; c < n; c++) {
-        const x = V[i * n + c]!;
-        V[i * n + c] = V[k * n + c]!;
-        V[k * n + c] = x;
-      }
-    }
+    // Sort (swapping rows), then transpose back to columns.
+    sortAscending(n, d, V, null);
     for (let i = 0; i < n; i++) {
       for (let k = i + 1; k < n; k++) {
         const t = V[i * n + k]!;
         V[i * n + k] = V[k * n + i]!;
         V[k * n + i] = t;
+      }
+    }
+  }
+}
+
+/** Sort eigenvalues ascending, swapping the rows (vectors = rows) of Vr and Vi along. */
+export function sortAscending(n: number, d: Float64Array, Vr: Float64Array, Vi: Float64Array | null): void {
+  // Selection sort swapping rows (vectors): n is small next to the QL cost.
+  for (let i = 0; i < n - 1; i++) {
+    let k = i;
+    for (let j = i + 1; j < n; j++) if (d[j]! < d[k]!) k = j;
+    if (k === i) continue;
+    const t = d[i]!;
+    d[i] = d[k]!;
+    d[k] = t;
+    for (let c = 0; c < n; c++) {
+      let x = Vr[i * n + c]!;
+      Vr[i * n + c] = Vr[k * n + c]!;
+      Vr[k * n + c] = x;
+      if (Vi) {
+        x = Vi[i * n + c]!;
+        Vi[i * n + c] = Vi[k * n + c]!;
+        Vi[k * n + c] = x;
       }
     }
   }
