@@ -119,7 +119,78 @@ function compileFormula(h: string, parameters: Record<string, number>): (k1: num
   return (k1, k2) => c.evaluate({ ...parameters, k1, k2 });
 }
 
+/** Validated settings shared by the strips and their combination. */
+interface ChernSetup {
+  n: number;
+  n1: number;
+  n2: number;
+  groups: number[][];
+  fluxLimit: number;
+  usePos: boolean;
+  gapTol: number;
+  /** Group whose fluxes follow from the other's (complementary pair), or -1. */
+  derived: number;
+}
+
+/**
+ * Partial sums of one strip of plaquette rows [rowFrom, rowTo): what chernStrip returns and
+ * combineChernStrips merges (plain data, so a strip can be computed in another thread).
+ */
+export interface ChernPartial {
+  n1: number;
+  n2: number;
+  rowFrom: number;
+  rowTo: number;
+  /** Per group: Kahan sum of the plaquette fluxes and its compensation (0 for a derived group). */
+  sums: number[];
+  comps: number[];
+  maxFlux: number[];
+  minGap: number[];
+  hiddenClosing: boolean[];
+  minLinkOverlap: number;
+  /** Fluxes of the strip's plaquettes per computed group, [(j - rowFrom) * n1 + i] (option map). */
+  flux?: Float64Array[];
+  /** Band energies of the strip's rows, [((j - rowFrom) * n1 + i) * bands + b] (option energies). */
+  energies?: Float64Array;
+}
+
+/**
+ * Berry fluxes of the plaquette rows [rowFrom, rowTo) of the grid (all rows by default): the unit of
+ * work of chernNumbers, exposed so that strips can run in parallel (kernel: parallelChernNumbers).
+ * Each strip diagonalizes its rows and the row above its last (one extra row per strip).
+ */
+export function chernStrip(model: BlochModel, options: ChernOptions = {}, rowFrom = 0, rowTo?: number): ChernPartial {
+  const setup = chernSetup(model, options);
+  const to = rowTo ?? setup.n2;
+  if (!Number.isInteger(rowFrom) || !Number.isInteger(to) || rowFrom < 0 || to > setup.n2 || rowFrom >= to) {
+    throw new InputError("rowFrom, rowTo", [rowFrom, rowTo], `a non-empty range of plaquette rows within 0..${setup.n2}`);
+  }
+  return stripFluxes(model, options, setup, rowFrom, to);
+}
+
+/** Chern numbers of the groups of bands (see the file header and ChernOptions). */
 export function chernNumbers(model: BlochModel, options: ChernOptions = {}): ChernResult {
+  const setup = chernSetup(model, options);
+  return combine(model, options, setup, [stripFluxes(model, options, setup, 0, setup.n2)]);
+}
+
+/** Merge the strips of a whole grid (each row exactly once, any order) into the result. */
+export function combineChernStrips(model: BlochModel, options: ChernOptions, parts: ChernPartial[]): ChernResult {
+  const setup = chernSetup(model, options);
+  const covered = new Uint8Array(setup.n2);
+  for (const p of parts) {
+    if (p.n1 !== setup.n1 || p.n2 !== setup.n2) throw new InputError("parts", `a strip of a ${p.n1} x ${p.n2} grid`, `strips of the ${setup.n1} x ${setup.n2} grid of the options`);
+    for (let j = p.rowFrom; j < p.rowTo; j++) {
+      if (covered[j]) throw new InputError("parts", `row ${j} twice`, "strips that cover every plaquette row once");
+      covered[j] = 1;
+    }
+  }
+  const missing = covered.indexOf(0);
+  if (missing >= 0) throw new InputError("parts", `row ${missing} missing`, "strips that cover every plaquette row once");
+  return combine(model, options, setup, parts);
+}
+
+function chernSetup(model: BlochModel, options: ChernOptions): ChernSetup {
   const n = model.bands;
   const n1 = options.n1 ?? 60;
   const n2 = options.n2 ?? n1;
@@ -156,6 +227,20 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
     }
   }
   const gapTol = (options.gapTolerance ?? 1e-9) * Math.max(scale, 1e-300);
+  const G0 = groups.length;
+  const gLo0 = groups.map((g) => g[0]!), gK0 = groups.map((g) => g.length);
+  // Complementary pair: links of the smaller group only; the other follows (F_B = -F_A).
+  let derived = -1;
+  if ((options.complement ?? true) && G0 === 2 && gK0[0]! + gK0[1]! === n && (gLo0[0] === 0 ? gLo0[1] === gK0[0] : gLo0[0] === gK0[1])) {
+    derived = gK0[0]! <= gK0[1]! ? 1 : 0;
+  }
+  return { n, n1, n2, groups, fluxLimit, usePos, gapTol, derived };
+}
+
+function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup, rowFrom: number, rowTo: number): ChernPartial {
+  const { n, n1, n2, groups, usePos, derived } = setup;
+  const re = new Float64Array(n * n);
+  const im = new Float64Array(n * n);
   // Embedding phases per orbital for steps 1/n1 and 1/n2: exp(-2 pi i r / n).
   const p1r = new Float64Array(n).fill(1), p1i = new Float64Array(n);
   const p2r = new Float64Array(n).fill(1), p2i = new Float64Array(n);
@@ -174,7 +259,8 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const solver = n === 2 && (options.closedFormTwoBand ?? true) ? null : new HermitianEigenSolver(n);
   const nn = n * n;
   const G = groups.length;
-  const energiesOut = options.energies ? new Float64Array(n1 * n2 * n) : undefined;
+  const stripRows = rowTo - rowFrom;
+  const energiesOut = options.energies ? new Float64Array(n1 * stripRows * n) : undefined;
   interface Row { E: Float64Array; Vr: Float64Array; Vi: Float64Array; u1r: Float64Array; u1i: Float64Array }
   const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * nn), Vi: new Float64Array(n1 * nn), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
   let vFirst = 0, vCount = n;
@@ -189,7 +275,7 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
         Vr.set(solver.vectorsRe, i * nn);
         Vi.set(solver.vectorsIm, i * nn);
       } else twoBandEigen(re, im, E, i * 2, Vr, Vi, i * 4);
-      if (energiesOut) energiesOut.set(E.subarray(i * n, i * n + n), (j * n1 + i) * n);
+      if (energiesOut && j >= rowFrom && j < rowTo) energiesOut.set(E.subarray(i * n, i * n + n), ((j - rowFrom) * n1 + i) * n);
     }
   };
   const kmax = Math.max(...groups.map((g) => g.length));
@@ -273,14 +359,9 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   const maxFlux = new Float64Array(G);
   const minGap = new Float64Array(G).fill(Infinity);
   const hiddenClosing = new Array<boolean>(G).fill(false);
-  const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * n2)) : undefined;
+  const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * stripRows)) : undefined;
   const gLo = Int32Array.from(groups.map((g) => g[0]!));
   const gK = Int32Array.from(groups.map((g) => g.length));
-  // Complementary pair: links of the smaller group only; the other follows (F_B = -F_A).
-  let derived = -1;
-  if ((options.complement ?? true) && G === 2 && gK[0]! + gK[1]! === n && (gLo[0] === 0 ? gLo[1] === gK[0] : gLo[0] === gK[1])) {
-    derived = gK[0]! <= gK[1]! ? 1 : 0;
-  }
   const gapAt = (gi: number, E: Float64Array, i: number) => {
     const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
     let gap = Infinity;
@@ -328,16 +409,18 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
   }
   vFirst = vLo;
   vCount = vHi - vLo + 1;
+  // Rows rowFrom .. rowTo are diagonalized (row n2 is row 0 again: the whole grid reuses it).
   const row0 = newRow();
-  computeRow(0, row0);
+  computeRow(rowFrom, row0);
   rowLinks(row0);
   let lower = row0;
   let spare = newRow();
-  for (let j = 0; j < n2; j++) {
+  const wrapsToFirst = rowFrom === 0 && rowTo === n2;
+  for (let j = rowFrom; j < rowTo; j++) {
     let upper: Row;
-    if (j + 1 < n2) {
+    if (j + 1 < rowTo || !wrapsToFirst) {
       upper = spare;
-      computeRow(j + 1, upper);
+      computeRow((j + 1) % n2, upper);
       rowLinks(upper);
     } else upper = row0;
     for (let gi = 0; gi < G; gi++) {
@@ -369,17 +452,48 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
         sum = s;
         const aF = Math.abs(F);
         if (aF > mx) mx = aF;
-        if (fmap) fmap[j * n1 + i] = F;
+        if (fmap) fmap[(j - rowFrom) * n1 + i] = F;
       }
       sums[gi] = sum;
       comps[gi] = comp;
       maxFlux[gi] = mx;
     }
-    if (j + 1 < n2) {
-      // the upper row becomes the lower row; row 0 is kept for the periodic closure
+    if (j + 1 < rowTo) {
+      // the upper row becomes the lower row; the first row is kept for the periodic closure
       spare = lower === row0 ? newRow() : lower;
       lower = upper;
     }
+  }
+  const part: ChernPartial = {
+    n1, n2, rowFrom, rowTo,
+    sums: Array.from(sums), comps: Array.from(comps), maxFlux: Array.from(maxFlux), minGap: Array.from(minGap),
+    hiddenClosing: hiddenClosing.slice(), minLinkOverlap: out[2]!,
+  };
+  if (fluxMaps) part.flux = fluxMaps;
+  if (energiesOut) part.energies = energiesOut;
+  return part;
+}
+
+function combine(model: BlochModel, options: ChernOptions, setup: ChernSetup, parts: ChernPartial[]): ChernResult {
+  const { n, n1, n2, groups, fluxLimit, gapTol, derived } = setup;
+  const G = groups.length;
+  const sums = new Float64Array(G);
+  const maxFlux = new Float64Array(G);
+  const minGap = new Float64Array(G).fill(Infinity);
+  const hiddenClosing = new Array<boolean>(G).fill(false);
+  let minLinkOverlap = Infinity;
+  const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * n2)) : undefined;
+  const energiesOut = options.energies ? new Float64Array(n1 * n2 * n) : undefined;
+  for (const p of parts) {
+    for (let gi = 0; gi < G; gi++) {
+      sums[gi] = sums[gi]! + (p.sums[gi]! - p.comps[gi]!);
+      maxFlux[gi] = Math.max(maxFlux[gi]!, p.maxFlux[gi]!);
+      minGap[gi] = Math.min(minGap[gi]!, p.minGap[gi]!);
+      hiddenClosing[gi] = hiddenClosing[gi]! || p.hiddenClosing[gi]!;
+      if (fluxMaps && p.flux) fluxMaps[gi]!.set(p.flux[gi]!, p.rowFrom * n1);
+    }
+    minLinkOverlap = Math.min(minLinkOverlap, p.minLinkOverlap);
+    if (energiesOut && p.energies) energiesOut.set(p.energies, p.rowFrom * n1 * n);
   }
   if (derived >= 0) {
     // The other group of the pair shares the boundary gap (same checks) and has opposite fluxes.
@@ -409,7 +523,6 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
     resolved.push(why.length === 0);
     if (why.length) notes.push(`${label}: not resolved on the ${n1} x ${n2} grid: ${why.join("; ")}. Refine the grid (or group the touching bands); a gapless model has no Chern number.`);
   }
-  const minLinkOverlap = out[2]!;
   if (minLinkOverlap < 1e-8) notes.push(`a link overlap nearly vanishes (${minLinkOverlap.toExponential(2)}): states change completely between neighbouring points`);
   const status: ChernResult["status"] = resolved.every(Boolean) ? "ok" : "unresolved";
   if (status === "unresolved" && (options.onUnresolved ?? "throw") === "throw") {
