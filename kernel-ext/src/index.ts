@@ -14,3 +14,4 @@ export { KERNEL_VERSION } from "./version.js";
 export { readVectorFieldFile, type FileReadOptions } from "./io/readFieldFile.js";
 export { parallelSkyrmionNumber, closeChargeWorkers, type ParallelChargeResult } from "./parallel/parallelSkyrmionNumber.js";
 export { runNotebookFile, type RunResult } from "./notebook/runner.js";
+export { parallelChernNumbers, closeChernWorkers, type ParallelChernOptions } from "./parallel/parallelChernNumbers.js";

@@ -190,6 +190,14 @@ export function combineChernStrips(model: BlochModel, options: ChernOptions, par
   return combine(model, options, setup, parts);
 }
 
+/**
+ * The input checks of chernNumbers alone (grid, groups, Hermiticity and periodicity at sample
+ * points): throws the same InputError chernNumbers would, computes nothing else.
+ */
+export function checkChernInput(model: BlochModel, options: ChernOptions = {}): void {
+  chernSetup(model, options);
+}
+
 function chernSetup(model: BlochModel, options: ChernOptions): ChernSetup {
   const n = model.bands;
   const n1 = options.n1 ?? 60;
