@@ -25,10 +25,9 @@
  *  (3) along every link, the gap at both ends exceeds the change of the two band energies across
  *      the link (else the gap may close between the grid points).
  */
-import { compile, type EvalFunction } from "mathjs";
 import { InputError } from "../errors.js";
 import { HermitianEigenSolver, assertHermitian } from "../numeric/eigenHermitian.js";
-import { complexDeterminant, toPlanarMatrix } from "../numeric/complexMatrix.js";
+import { complexDeterminant } from "../numeric/complexMatrix.js";
 import type { BlochModel } from "./blochModel.js";
 
 export interface ChernOptions {
@@ -80,43 +79,6 @@ export interface ChernResult {
   energies?: Float64Array;
   method: string;
   sources: string[];
-}
-
-/** A Bloch model from a function (k1, k2) -> matrix or a mathjs formula in k1, k2. */
-export function blochModelFromFunction(
-  h: ((k1: number, k2: number) => unknown) | string,
-  parameters: Record<string, number> = {},
-): BlochModel {
-  let f: (k1: number, k2: number) => unknown;
-  if (typeof h === "string") {
-    f = compileFormula(h, parameters);
-  } else f = h;
-  const m0 = toPlanarMatrix(f(0.1234, 0.3456), "H");
-  const n = m0.n;
-  return {
-    bands: n,
-    fill(k1, k2, re, im) {
-      const m = toPlanarMatrix(f(k1, k2), "H");
-      if (m.n !== n) throw new InputError("H", `${m.n} x ${m.n} at k = (${k1}, ${k2})`, `${n} x ${n} everywhere`);
-      re.set(m.re);
-      im.set(m.im);
-    },
-  };
-}
-
-const formulaCache = new Map<string, EvalFunction>();
-function compileFormula(h: string, parameters: Record<string, number>): (k1: number, k2: number) => unknown {
-  let code = formulaCache.get(h);
-  if (!code) {
-    try {
-      code = compile(h) as EvalFunction;
-    } catch (err) {
-      throw new InputError("H", h, "a mathjs matrix expression in k1, k2", (err as Error).message);
-    }
-    formulaCache.set(h, code);
-  }
-  const c = code;
-  return (k1, k2) => c.evaluate({ ...parameters, k1, k2 });
 }
 
 /** Validated settings shared by the strips and their combination. */

@@ -11,3 +11,4 @@ export * from "./magnonHoneycomb.js";
 export * from "./dilogarithm.js";
 export * from "./giantSpin.js";
 export * from "./easyPlaneSpin.js";
+export * from "./blochModelFromFunction.js";

@@ -1,6 +1,7 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { closeChernWorkers, parallelChernNumbers } from "../../../kernel-ext/src/parallel/parallelChernNumbers.js";
-import { chernNumbers, blochModelFromFunction } from "../../../lib/src/berry/chernNumbers.js";
+import { chernNumbers } from "../../../lib/src/berry/chernNumbers.js";
+import { blochModelFromFunction } from "../../../lib/src/berry/blochModelFromFunction.js";
 import { haldaneModel, haldaneSpec, haldaneCriticalMass, supercellModel } from "../../../lib/src/berry/blochModel.js";
 import { InputError } from "../../../lib/src/errors.js";
 

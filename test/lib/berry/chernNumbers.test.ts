@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { chernNumbers, blochModelFromFunction, chernStrip, combineChernStrips } from "../../../lib/src/berry/chernNumbers.js";
+import { chernNumbers, chernStrip, combineChernStrips } from "../../../lib/src/berry/chernNumbers.js";
+import { blochModelFromFunction } from "../../../lib/src/berry/blochModelFromFunction.js";
 import { haldaneModel, haldaneSpec, supercellModel, haldaneCriticalMass, tightBindingModel } from "../../../lib/src/berry/blochModel.js";
 import { solidAngle } from "../../../lib/src/topology/solidAngle.js";
 import { InputError } from "../../../lib/src/errors.js";
