@@ -94,6 +94,18 @@ export interface FieldSeriesOptions {
   maxKuRelativeError?: number;
   /** Points of the predicted R(B), w(B) curves (default 40). */
   curvePoints?: number;
+  /**
+   * Profile-likelihood intervals of the free series parameters: true for all of them, or a list
+   * of names ("A", "D", "Ku"). Each is stepped with the others refitted until the chi-square rises
+   * by the threshold of the least-squares engine (solveLeastSquares, options.profile): the chi^2_1
+   * quantile when the errors are known (two-stage: always, the stage-1 covariances; global: when
+   * the profiles carry sigmas), else the F-based rule scaled by the reduced chi-square. Two-stage:
+   * over the stage-2 chi-square of {R_i, w_i} with their full covariance; global: over the
+   * chi-square of all profiles with every local parameter refitted. An open side (a bound of the
+   * parameter, the edge of the energy model's domain, or no crossing) is -Infinity / +Infinity
+   * with a note. A requested "Ku" that the "auto" rule holds gets no interval and a note.
+   */
+  profile?: boolean | string[];
 }
 
 export interface SeriesProfileResult {
@@ -276,6 +288,7 @@ function seriesParameters(film: Film, names: SeriesParameter[], start: Partial<R
 interface Stage2 {
   fit: FitResult;
   names: SeriesParameter[];
+  problem: LeastSquaresProblem;
 }
 
 function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Partial<Record<SeriesParameter, number>>, nonlocal: boolean, options: FitOptions, sens: Sensitivity): Stage2 {
@@ -334,7 +347,7 @@ function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Parti
     );
   }
   const fit = solveLeastSquares(problem, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, ...options });
-  return { fit, names };
+  return { fit, names, problem };
 }
 
 /** Relative-sensitivity condition number and predicted relative Ku error at theta (Ku last). */
@@ -390,6 +403,38 @@ function pick(fit: FitResult, names: SeriesParameter[], film: Film, start: Parti
 }
 
 /**
+ * The series parameters whose profile intervals are asked for, checked before any fitting:
+ * true means every free one; a name must be a series parameter that can be free.
+ */
+function profileRequest(profile: FieldSeriesOptions["profile"], base: SeriesParameter[], fitKu: boolean | "auto", texture: string): string[] {
+  if (profile === undefined || profile === false) return [];
+  const allowed: string[] = fitKu === false ? [...base] : [...base, "Ku"];
+  if (profile === true) return allowed;
+  if (!Array.isArray(profile)) throw new InputError("profile", profile, `true, false or a list of free series parameters (${allowed.join(", ")})`);
+  for (const n of profile) {
+    if (allowed.includes(n)) continue;
+    const why =
+      n === "Ku"
+        ? "Ku is held (fitKu: false)"
+        : n === "D"
+          ? `D is held (texture "${texture}": it does not enter R and w)`
+          : "Ms, t and the DMI symmetry are held, and local profile parameters (x0, offset, contrast ...) are not series parameters";
+    throw new InputError("profile", n, `names of free series parameters: ${allowed.join(", ")}`, why);
+  }
+  return [...new Set(profile)];
+}
+
+/**
+ * Open sides of an engine profile interval made explicit: the engine returns the parameter's bound
+ * (with a note) when the profile stays below the threshold up to it; that side is -Infinity /
+ * +Infinity here, like the engine's other open sides (no crossing, the model's domain ends).
+ */
+function openSides(problem: LeastSquaresProblem, name: string, iv: [number, number]): [number, number] {
+  const p = problem.parameters.find((q) => q.name === name)!;
+  return [p.min !== undefined && iv[0] === p.min ? -Infinity : iv[0], p.max !== undefined && iv[1] === p.max ? Infinity : iv[1]];
+}
+
+/**
  * Fit A, D (and Ku when the data allow or when asked) to skyrmion line profiles at several fields.
  * Never changes the inputs.
  */
@@ -416,6 +461,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   const sens = texture === "skyrmion" ? skyrmionModel : wall360Model;
   const base: SeriesParameter[] = texture === "skyrmion" ? ["A", "D"] : ["A"];
   if (texture === "wall360") notes.push("360-degree walls: the DMI energy of the 1D pair is topological (independent of R and w), so D does not enter R(B), w(B) and is held at the given value; only A (and Ku) are determined");
+  const request = profileRequest(options.profile, base, options.fitKu ?? "auto", texture);
   const s1 = stage1(profiles, pm, film, options, nonlocal, sens);
   const lmOptions: FitOptions = { confidence, signal: options.signal };
   // stage 2 with Ku held
@@ -451,11 +497,21 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   let twoStage: FieldSeriesResult["twoStage"];
   let approach: "two-stage" | "global" = "two-stage";
   notes.push(...two.notes);
+  // profile-likelihood intervals of the requested free series parameters
+  const profiled = request.filter((n) => names.includes(n as SeriesParameter));
+  for (const n of request) if (!names.includes(n as SeriesParameter)) notes.push(`no profile interval of ${n}: ${kuDecision.reason}`);
+  let profiledFit: { fit: FitResult; problem: LeastSquaresProblem } | null = null;
+  if (profiled.length > 0 && options.method !== "global") {
+    // the same stage-2 problem, restarted at its optimum, with the engine's profile intervals
+    profiledFit = stage2(s1, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, { ...lmOptions, profile: profiled }, sens);
+  }
   if (two.chiSquareReduced > 3 && dof > 0) {
     notes.push(`stage-2 reduced chi-square ${two.chiSquareReduced.toPrecision(3)}: the energy model does not describe the measured R(B), w(B) within their errors (check Ms, t, the field calibration, or the ansatz)`);
   }
   if (options.method === "global") {
-    const g = globalFit(profiles, s1, pm, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, options, lmOptions, sens);
+    const gp = globalFit(profiles, s1, pm, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, options, profiled.length > 0 ? { ...lmOptions, profile: profiled } : lmOptions, sens);
+    const g = gp.fit;
+    profiledFit = gp;
     twoStage = { parameters, covariance };
     approach = "global";
     parameters = pick(g, names, film, start, confidence);
@@ -468,6 +524,15 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     finalFree = g.freeNames;
     evaluations += g.evaluations;
     notes.push(...g.notes);
+  }
+  if (profiledFit) {
+    const seen = new Set(notes);
+    for (const nt of profiledFit.fit.notes) if (!seen.has(nt)) notes.push(nt);
+    for (const n of profiled) {
+      const iv = profiledFit.fit.parameters[n]?.profileInterval;
+      parameters[n as SeriesParameter] = { ...parameters[n as SeriesParameter], profileInterval: iv ? openSides(profiledFit.problem, n, iv) : null };
+      if (!iv) notes.push(`no profile interval of ${n}: the fit status is ${profiledFit.fit.status}`);
+    }
   }
   // model curves and pulls
   const fitted = { A: parameters.A.value, D: parameters.D.value, Ku: parameters.Ku.value };
@@ -523,9 +588,12 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     notes,
     assumptions: texture === "skyrmion" ? ASSUMPTIONS : WALL360_ASSUMPTIONS,
     method:
-      approach === "two-stage"
+      (approach === "two-stage"
         ? "two-stage: (1) each profile fitted alone (Levenberg-Marquardt), keeping the full covariance of (R, w); (2) A, D (Ku) fitted to {R_i, w_i} with that covariance, R(B), w(B) at the ansatz energy minimum, Jacobian by implicit differentiation of the minimum"
-        : "global: all profiles at once with shared A, D (Ku) and local profile parameters, R_i, w_i at the ansatz energy minimum (chain rule through the implicit derivatives), started from the two-stage solution",
+        : "global: all profiles at once with shared A, D (Ku) and local profile parameters, R_i, w_i at the ansatz energy minimum (chain rule through the implicit derivatives), started from the two-stage solution") +
+      (profiled.length > 0
+        ? `; profile-likelihood intervals of ${profiled.join(", ")}: each stepped with the others refitted until the ${approach === "two-stage" ? "stage-2" : "global"} chi-square rises by the chi^2_1 quantile (known errors) or by the F-based rule scaled by the reduced chi-square (unknown errors)`
+        : ""),
     sources: SOURCES,
   };
 }
@@ -561,7 +629,7 @@ function globalFit(
   options: FieldSeriesOptions,
   lmOptions: FitOptions,
   sens: Sensitivity,
-): FitResult {
+): { fit: FitResult; problem: LeastSquaresProblem } {
   const shared = seriesParameters(film, names, start);
   const params: FitParameter[] = [...shared];
   const iR = pm.parameters.findIndex((p) => p.name === "R");
@@ -638,5 +706,5 @@ function globalFit(
       }
     },
   };
-  return solveLeastSquares(problem, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, ...lmOptions });
+  return { fit: solveLeastSquares(problem, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, ...lmOptions }), problem };
 }

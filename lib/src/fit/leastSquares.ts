@@ -530,24 +530,28 @@ function profileInterval(
   const threshold = sigmaKnown ? chi2min + q * q : chi2min * (1 + (q * q) / dof);
   const others = free.filter((i) => i !== j);
   const lmOpts: LmOptions = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, signal: options.signal };
-  let warm = Float64Array.from(xhat);
-  const chiAt = (v: number) => {
-    const base = Float64Array.from(warm);
+  // Every refit starts from the refit at the last point found inside the interval (below the
+  // threshold), never from an outer point: a refit outside can end where the model is undefined
+  // for the next, inner trial value (e.g. no metastable texture there), which would stop the
+  // search at the estimate itself.
+  let inside = Float64Array.from(xhat);
+  const chiAt = (v: number): { chi: number; x: Float64Array } => {
+    const base = Float64Array.from(inside);
     base[j] = v;
     if (others.length === 0) {
       const f = new Float64Array(problem.m);
       problem.model(base, f);
       let s = 0;
       for (let i = 0; i < problem.m; i++) s += ((f[i] - problem.y[i]) / (problem.sigma ? problem.sigma[i] : 1)) ** 2;
-      return s;
+      return { chi: s, x: base };
     }
     const r = minimize(problem, base, others, lo, hi, lmOpts);
-    warm = r.x;
-    return r.chiSquare;
+    return { chi: r.chiSquare, x: r.x };
   };
   const step0 = se && se > 0 ? se * q : Math.max(Math.abs(xhat[j]) * 1e-2, 1e-12);
+  const name = problem.parameters[j].name;
   const side = (dir: number): number => {
-    warm = Float64Array.from(xhat);
+    inside = Float64Array.from(xhat);
     let a = xhat[j];
     let step = step0;
     let b = a + dir * step;
@@ -555,10 +559,12 @@ function profileInterval(
     for (let it = 0; it < 40; it++) {
       if (dir > 0 && b >= hi[j]) b = hi[j];
       if (dir < 0 && b <= lo[j]) b = lo[j];
-      fb = chiAt(b);
+      const r = chiAt(b);
+      fb = r.chi;
       if (!(fb < threshold)) break;
+      inside = r.x;
       if (b === hi[j] || b === lo[j]) {
-        notes.push(`profile of ${problem.parameters[j].name} stays below the threshold up to its bound ${b}: interval open on that side`);
+        notes.push(`profile of ${name} stays below the threshold up to its bound ${b}: interval open on that side`);
         return b;
       }
       a = b;
@@ -566,16 +572,26 @@ function profileInterval(
       b = a + dir * step;
     }
     if (fb < threshold) {
-      notes.push(`profile of ${problem.parameters[j].name} did not reach the threshold: interval open on that side`);
+      notes.push(`profile of ${name} did not reach the threshold: interval open on that side`);
       return dir * Infinity;
     }
-    // bisection between a (below) and b (above threshold)
+    // bisection between a (below) and b (above the threshold, or where the model is not finite)
+    let bFinite = Number.isFinite(fb);
     for (let it = 0; it < 50; it++) {
       const mid = 0.5 * (a + b);
-      const fm = chiAt(mid);
-      if (fm < threshold) a = mid;
-      else b = mid;
+      const r = chiAt(mid);
+      if (r.chi < threshold) {
+        a = mid;
+        inside = r.x;
+      } else {
+        b = mid;
+        bFinite = Number.isFinite(r.chi);
+      }
       if (Math.abs(b - a) <= 1e-7 * Math.max(Math.abs(a), Math.abs(step0))) break;
+    }
+    if (!bFinite) {
+      notes.push(`profile of ${name}: the model is not finite just ${dir < 0 ? "below" : "above"} ${name} = ${a.toPrecision(6)} (others refitted) while the chi-square is still below the threshold: interval open on that side (bounded by the model's domain, not by the data)`);
+      return dir * Infinity;
     }
     return 0.5 * (a + b);
   };
