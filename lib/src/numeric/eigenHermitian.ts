@@ -103,8 +103,9 @@ export class HermitianEigenSolver {
     const n = this.n;
     const A = this.a;
     // Copy the lower triangle, complex entries interleaved: the input is never modified. Only the
-    // lower triangle is kept and updated (the upper is its conjugate), which measured ~30 % faster
-    // for 6 x 6 than full planar storage (one array, half the stores; bench: berry.bench.mjs).
+    // lower triangle is kept and updated (the upper is its conjugate): one array and half the stores
+    // of full planar storage. Measured on 40 000 6 x 6 matrices of the Haldane supercell: the
+    // reduction alone ~30 % faster, whole solves with 3 vectors ~5 % faster.
     for (let i = 0; i < n; i++) {
       for (let j = 0; j <= i; j++) {
         const q = 2 * (i * n + j);
