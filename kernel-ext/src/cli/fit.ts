@@ -6,8 +6,11 @@
  *  "chiSquareReduced", "aic", "bic", "correlation": {"names", "matrix"}, "notes"}.
  * Options: --start name=value (SI number or a quantity such as "12 nm"), --fix name[=value],
  * --free name, --drop-nan, --x-unit U, --y-unit U, --profile (profile-likelihood intervals).
+ * `helicoid fit --series FILE[@FIELD] ... --film ...` fits A, D (Ku) to profiles at several fields
+ * (fitSeries.ts).
  */
 import { readFileSync } from "node:fs";
+import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
 import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, InputError, ConvergenceError } from "@helicoid/lib";
 
 export interface FitIo {
@@ -17,9 +20,11 @@ export interface FitIo {
 
 const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value ...] [--fix name[=value] ...] [--free name ...]
                     [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
-       helicoid fit --list [--json]`;
+       helicoid fit --list [--json]
+${seriesUsage}`;
 
 export async function fitCommand(args: string[], io: FitIo): Promise<number> {
+  if (args.includes("--series")) return fitSeriesCommand(args, io);
   let file: string | undefined;
   let modelId: string | undefined;
   let json = false;

@@ -11,6 +11,7 @@
  *   helicoid calc ID name=value ... [--json] any catalogue calculator
  *   helicoid charge FILE [--json]            topological charge of a vector field file
  *   helicoid fit FILE --model ID [--json]    fit a measured line profile
+ *   helicoid fit --series FILE@FIELD ... --film ...   A, D (Ku) from profiles at several fields
  */
 import { KERNEL_VERSION } from "../version.js";
 import { processIO, UsageError, type CommandIO } from "./args.js";
@@ -28,7 +29,7 @@ const commands: Record<string, { load: () => Command; help: string }> = {
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)" },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
-  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)" },
+  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields" },
 };
 
 export function usage(): string {

@@ -1,0 +1,228 @@
+/**
+ * `helicoid fit --series FILE[@FIELD] ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]`: A, D (and Ku
+ * when the data allow) of a thin film from line profiles across isolated skyrmions (or 360-degree
+ * walls) measured at several applied fields, with `fitFieldSeries` of @helicoid/lib.
+ * Each FILE is a CSV profile as `helicoid fit FILE` reads it. Its field (mu0 H along +z) is given as
+ * FILE@<quantity> (`cut.csv@5mT`) or, if absent, by a comment line of the file containing
+ * "field: <quantity>" (up to the next ";" or the line end).
+ * Options: --film (Ms, t and start values of A, D, Ku, with units), --dmi interfacial|bulk,
+ * --fit-ku auto|yes|no, --method two-stage|global, --texture skyrmion|wall360, --model ID (a
+ * profile model with R and w, default wall360-mz), --profile (profile-likelihood intervals),
+ * --confidence P, --drop-nan, --x-unit U, --y-unit U, --json.
+ * JSON: {"mode": "series", "status", "message", "method", "parameters": {name: {"value", "stderr",
+ * "unit", "interval", "profileInterval", "fixed"}}, "kuDecision", "chiSquare", "dof",
+ * "chiSquareReduced", "profiles": [{"file", "B", "R", "w", ..., "pullR", "pullW"}], "film",
+ * "confidence", "assumptions", "notes", "sources"} in SI; an open interval side is null.
+ * Exit codes: 0 success, 1 a fit that failed (the message says why), 2 bad input (the parameter,
+ * the value and what was expected).
+ */
+import { readFileSync } from "node:fs";
+import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+
+export interface FitSeriesIo {
+  stdout: (s: string) => void;
+  stderr: (s: string) => void;
+}
+
+export const seriesUsage = `       helicoid fit --series FILE[@FIELD] ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json] [--dmi interfacial|bulk]
+                    [--fit-ku auto|yes|no] [--method two-stage|global] [--texture skyrmion|wall360] [--model ID]
+                    [--profile] [--confidence P] [--drop-nan] [--x-unit U] [--y-unit U]
+         (FIELD such as 5mT; without it, a header line "# ... field: 5 mT" in the file)`;
+
+const FILM_KEYS = { Ms: "A/m", t: "m", A: "J/m", D: "J/m^2", Ku: "J/m^3" } as const;
+type FilmKey = keyof typeof FILM_KEYS;
+
+/** "Ms=0.6MA/m,t=1.5nm,..." -> SI numbers, every key required. */
+export function parseFilmOption(raw: string): Record<FilmKey, number> {
+  const out: Partial<Record<FilmKey, number>> = {};
+  for (const part of raw.split(",").map((s) => s.trim()).filter((s) => s !== "")) {
+    const k = part.indexOf("=");
+    if (k < 1) throw new InputError("--film", part, "name=value pairs separated by commas, e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
+    const name = part.slice(0, k).trim();
+    if (!(name in FILM_KEYS)) throw new InputError("--film", name, `one of the film parameters ${Object.keys(FILM_KEYS).join(", ")}`);
+    out[name as FilmKey] = parseQuantity(`--film ${name}`, part.slice(k + 1).trim(), FILM_KEYS[name as FilmKey]);
+  }
+  const missing = (Object.keys(FILM_KEYS) as FilmKey[]).filter((n) => out[n] === undefined);
+  if (missing.length > 0) throw new InputError("--film", raw, `all of Ms, t, A, D, Ku (A, D, Ku are start values of the fit); missing: ${missing.join(", ")}`);
+  return out as Record<FilmKey, number>;
+}
+
+/** The field of a profile: FILE@<quantity>, else a "field: <quantity>" comment line in the text. */
+export function fieldOf(file: string, suffix: string | null, text: string): number {
+  if (suffix !== null) return parseQuantity(`field of ${file}`, suffix, "T");
+  for (const line of text.split(/\r?\n/)) {
+    const t = line.trim();
+    if (!t.startsWith("#")) continue;
+    const m = /\bfield\s*:\s*([^;]+)/i.exec(t);
+    if (m) return parseQuantity(`field of ${file} (header)`, m[1].trim().replace(/[.,]$/, ""), "T");
+  }
+  throw new InputError(`field of ${file}`, "(missing)", `an applied field: ${file}@<field> (e.g. ${file}@5mT) or a comment line "# field: 5 mT" in the file`);
+}
+
+function splitFileArg(arg: string): { file: string; suffix: string | null } {
+  const k = arg.lastIndexOf("@");
+  if (k > 0 && k < arg.length - 1) return { file: arg.slice(0, k), suffix: arg.slice(k + 1) };
+  return { file: arg, suffix: null };
+}
+
+const finiteOrNull = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? null : v);
+const pairOrNull = (p: [number, number] | null | undefined) => (p ? [finiteOrNull(p[0]), finiteOrNull(p[1])] : null);
+
+/** The JSON document of a series fit (SI; open interval sides and undefined numbers as null). */
+export function seriesJson(r: FieldSeriesResult, files: string[]) {
+  const parameters: Record<string, unknown> = {};
+  for (const [name, p] of Object.entries(r.parameters)) {
+    parameters[name] = {
+      value: p.value,
+      stderr: finiteOrNull(p.stderr),
+      unit: p.unit,
+      interval: pairOrNull(p.interval),
+      profileInterval: p.profileInterval === undefined ? null : pairOrNull(p.profileInterval),
+      ...(p.fixed ? { fixed: true } : {}),
+    };
+  }
+  return {
+    mode: "series",
+    status: r.status,
+    message: r.message,
+    method: r.approach,
+    parameters,
+    kuDecision: { ...r.kuDecision, conditionNumber: finiteOrNull(r.kuDecision.conditionNumber) },
+    chiSquare: r.chiSquare,
+    dof: r.dof,
+    chiSquareReduced: finiteOrNull(r.chiSquareReduced),
+    profiles: r.profiles.map((p, i) => ({
+      file: files[i],
+      B: p.B,
+      R: p.R,
+      w: p.w,
+      stderrR: p.stderrR,
+      stderrW: p.stderrW,
+      correlationRw: p.correlationRw,
+      modelR: p.modelR,
+      modelW: p.modelW,
+      pullR: finiteOrNull(p.pullR),
+      pullW: finiteOrNull(p.pullW),
+    })),
+    film: r.film,
+    confidence: r.confidence,
+    assumptions: r.assumptions,
+    notes: r.notes,
+    sources: r.sources,
+  };
+}
+
+function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
+  const q = (v: number | null, unit: string) => (v === null || !Number.isFinite(v) ? (v === null ? "n/a" : v > 0 ? "+inf" : "-inf") : formatQuantity(v, unit));
+  io.stdout(`Field series (${r.approach}), ${r.profiles.length} profiles; film Ms = ${formatQuantity(r.film.Ms, "A/m")}, t = ${formatQuantity(r.film.t, "m")}, ${r.film.dmi} DMI\n`);
+  io.stdout(`status: ${r.status} (${r.message})\n`);
+  const pct = `${+(100 * r.confidence).toPrecision(4)} %`;
+  for (const [name, p] of Object.entries(r.parameters)) {
+    const e = p.stderr === null ? (p.fixed ? "held" : "n/a") : `+- ${q(p.stderr, p.unit)}`;
+    let line = `  ${name.padEnd(3)} ${q(p.value, p.unit).padStart(14)}  ${e.padEnd(18)}`;
+    if (p.interval) line += `  ${pct} [${q(p.interval[0], p.unit)}, ${q(p.interval[1], p.unit)}]`;
+    if (p.profileInterval) line += `  profile [${q(p.profileInterval[0], p.unit)}, ${q(p.profileInterval[1], p.unit)}]`;
+    io.stdout(line + "\n");
+  }
+  io.stdout(`Ku: ${r.kuDecision.reason}\n`);
+  io.stdout(`chi-square ${r.chiSquare.toPrecision(4)} for ${r.dof} degrees of freedom (reduced ${Number.isFinite(r.chiSquareReduced) ? r.chiSquareReduced.toPrecision(4) : "n/a"})${r.approach === "two-stage" ? ", energy model against the stage-1 R, w" : ""}\n`);
+  const width = Math.max(4, ...files.map((f) => f.length));
+  io.stdout(`  ${"file".padEnd(width)}  ${"B".padStart(8)}  ${"R".padStart(20)}  ${"w".padStart(20)}  pull R  pull W\n`);
+  r.profiles.forEach((p, i) => {
+    io.stdout(`  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${`${formatQuantity(p.R, "m")} +- ${formatQuantity(p.stderrR, "m")}`.padStart(20)}  ${`${formatQuantity(p.w, "m")} +- ${formatQuantity(p.stderrW, "m")}`.padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`);
+  });
+  for (const a of r.assumptions) io.stdout(`assumption: ${a}\n`);
+  for (const n of r.notes) io.stdout(`note: ${n}\n`);
+}
+
+function oneOf<T extends string>(option: string, v: string, allowed: readonly T[]): T {
+  if (!(allowed as readonly string[]).includes(v)) throw new InputError(option, v, `one of ${allowed.join(", ")}`);
+  return v as T;
+}
+
+/** `helicoid fit --series ...` (args without the command name; "--series" may appear anywhere). */
+export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise<number> {
+  const inputs: string[] = [];
+  let filmRaw: string | undefined;
+  let dmi: "interfacial" | "bulk" = "interfacial";
+  let fitKu: boolean | "auto" = "auto";
+  let method: "two-stage" | "global" = "two-stage";
+  let texture: "skyrmion" | "wall360" = "skyrmion";
+  let model: string | undefined;
+  let json = false;
+  let profile = false;
+  let dropNaN = false;
+  let confidence = 0.95;
+  let xUnit: string | undefined;
+  let yUnit: string | undefined;
+  try {
+    for (let i = 0; i < args.length; i++) {
+      const a = args[i];
+      const next = () => {
+        const v = args[++i];
+        if (v === undefined) throw new InputError(a, "(missing)", "a value after the option");
+        return v;
+      };
+      if (a === "--series") continue;
+      else if (a === "--json") json = true;
+      else if (a === "--profile") profile = true;
+      else if (a === "--drop-nan") dropNaN = true;
+      else if (a === "--film") filmRaw = next();
+      else if (a === "--dmi") dmi = oneOf(a, next(), ["interfacial", "bulk"] as const);
+      else if (a === "--fit-ku") fitKu = { auto: "auto" as const, yes: true, no: false }[oneOf(a, next(), ["auto", "yes", "no"] as const)];
+      else if (a === "--method") method = oneOf(a, next(), ["two-stage", "global"] as const);
+      else if (a === "--texture") texture = oneOf(a, next(), ["skyrmion", "wall360"] as const);
+      else if (a === "--model" || a === "-m") model = next();
+      else if (a === "--confidence") {
+        const v = next();
+        confidence = Number(v);
+        if (!(confidence > 0 && confidence < 1)) throw new InputError(a, v, "a confidence level between 0 and 1, e.g. 0.95");
+      } else if (a === "--x-unit") xUnit = next();
+      else if (a === "--y-unit") yUnit = next();
+      else if (a === "--help" || a === "-h") {
+        io.stdout(`usage:\n${seriesUsage}\n`);
+        return 0;
+      } else if (a.startsWith("-")) throw new InputError("option", a, `one of the options of helicoid fit --series:\n${seriesUsage}`);
+      else inputs.push(a);
+    }
+    if (inputs.length === 0) throw new InputError("FILE", "(missing)", "two or more CSV profiles, each FILE@<field> or with a \"field:\" header line");
+    if (filmRaw === undefined) throw new InputError("--film", "(missing)", "Ms=..,t=..,A=..,D=..,Ku=.. (Ms and t held; A, D, Ku start values), e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
+    const film = makeFilm({ ...parseFilmOption(filmRaw), dmi });
+    const files: string[] = [];
+    const profiles: FieldSeriesProfile[] = [];
+    const readNotes: string[] = [];
+    for (const arg of inputs) {
+      const { file, suffix } = splitFileArg(arg);
+      let text: string;
+      try {
+        text = readFileSync(file, "utf8");
+      } catch (err) {
+        throw new InputError("FILE", file, "a readable file", (err as Error).message);
+      }
+      const B = fieldOf(file, suffix, text);
+      const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
+      readNotes.push(...csv.notes.map((n) => `${file}: ${n}`));
+      files.push(file);
+      profiles.push({ B, data: { x: csv.x, y: csv.y, sigma: csv.sigma } });
+    }
+    const r = fitFieldSeries(profiles, { film, fitKu, method, texture, confidence, ...(model ? { model } : {}), ...(profile ? { profile: true } : {}) });
+    r.notes.unshift(...readNotes);
+    if (json) io.stdout(JSON.stringify(seriesJson(r, files), null, 2) + "\n");
+    else printTable(r, files, io);
+    if (r.status !== "converged") {
+      io.stderr(`helicoid fit --series: the fit did not converge: ${r.message}\n`);
+      return 1;
+    }
+    return 0;
+  } catch (err) {
+    if (err instanceof InputError) {
+      io.stderr(`helicoid fit --series: ${err.message}\n`);
+      return 2;
+    }
+    if (err instanceof ConvergenceError) {
+      io.stderr(`helicoid fit --series: ${err.message}\n`);
+      return 1;
+    }
+    throw err;
+  }
+}
