@@ -8,6 +8,7 @@
  * --free name, --drop-nan, --x-unit U, --y-unit U, --profile (profile-likelihood intervals).
  * `helicoid fit --series FILE[@FIELD] ... --film ...` fits A, D (Ku) to profiles at several fields
  * (fitSeries.ts).
+ * Exit codes (both modes): 0 success, 1 a fit that failed (the message says why), 2 bad input.
  */
 import { readFileSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
@@ -137,9 +138,17 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       io.stdout(`reduced chi-square ${r.chiSquareReduced.toPrecision(4)}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
       for (const n of notes) io.stdout(`note: ${n}\n`);
     }
-    return r.status === "converged" ? 0 : 2;
+    if (r.status !== "converged") {
+      io.stderr(`helicoid fit: the fit failed (status ${r.status}): ${r.message}\n`);
+      return 1;
+    }
+    return 0;
   } catch (err) {
-    if (err instanceof InputError || err instanceof ConvergenceError) {
+    if (err instanceof InputError) {
+      io.stderr(`helicoid fit: ${err.message}\n`);
+      return 2;
+    }
+    if (err instanceof ConvergenceError) {
       io.stderr(`helicoid fit: ${err.message}\n`);
       return 1;
     }

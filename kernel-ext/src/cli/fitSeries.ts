@@ -210,7 +210,7 @@ export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise
     if (json) io.stdout(JSON.stringify(seriesJson(r, files), null, 2) + "\n");
     else printTable(r, files, io);
     if (r.status !== "converged") {
-      io.stderr(`helicoid fit --series: the fit did not converge: ${r.message}\n`);
+      io.stderr(`helicoid fit --series: the fit failed (status ${r.status}): ${r.message}\n`);
       return 1;
     }
     return 0;

@@ -53,12 +53,23 @@ describe("helicoid fit", () => {
     expect(await fitCommand([file, "--model", "wall360-mz", "--fix", "w=10 nm"], c2.io)).toBe(0);
     expect(c2.out.join("")).toMatch(/\n  w\s+10 nm\s+fixed/);
   });
-  it("errors are clear and exit 1", async () => {
+  it("a fit that fails (singular: a flat invented scan with no wall) exits 1 with the reason", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "helicoid-fit-"));
+    const lines = ["# invented flat scan, no wall in it", "x (nm),signal,sigma"];
+    for (let i = 0; i <= 100; i++) lines.push(`${i - 50},${(0.5 + 0.01 * Math.sin(1.7 * i)).toFixed(5)},0.02`);
+    const file = join(dir, "flat.csv");
+    writeFileSync(file, lines.join("\n") + "\n");
     const c = capture();
-    expect(await fitCommand(["nofile.csv", "--model", "wall180-mz"], c.io)).toBe(1);
+    expect(await fitCommand([file, "--model", "wall180-mz", "--json"], c.io)).toBe(1);
+    expect(JSON.parse(c.out.join("")).status).toBe("singular");
+    expect(c.err.join("")).toMatch(/the fit failed \(status singular\): the Jacobian is singular/);
+  });
+  it("bad input is named and exits 2 (as in helicoid fit --series)", async () => {
+    const c = capture();
+    expect(await fitCommand(["nofile.csv", "--model", "wall180-mz"], c.io)).toBe(2);
     expect(c.err.join("")).toMatch(/FILE = "nofile.csv" is not valid: expected a readable file/);
     const c2 = capture();
-    expect(await fitCommand(["x.csv", "--model", "nope"], c2.io)).toBe(1);
+    expect(await fitCommand(["x.csv", "--model", "nope"], c2.io)).toBe(2);
     expect(c2.err.join("")).toMatch(/one of the profile model ids/);
   });
 });
