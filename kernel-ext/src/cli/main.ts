@@ -19,17 +19,17 @@ import { processIO, UsageError, type CommandIO } from "./args.js";
 type Command = (args: string[], io: CommandIO) => Promise<number>;
 
 /** Commands load on demand, so `helicoid calc` does not pay for the kernel's start-up. */
-const commands: Record<string, { load: () => Command; help: string }> = {
+const commands: Record<string, { load: () => Command; help: string; ownHelp?: boolean }> = {
   install: { load: () => require("./install.js").installCommand, help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension" },
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT]             execute a notebook in process, no Jupyter needed" },
-  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live" },
+  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },
   lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)" },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
-  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields" },
+  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields", ownHelp: true },
 };
 
 export function usage(): string {
@@ -52,6 +52,12 @@ export async function main(argv: string[], io: CommandIO = processIO): Promise<n
   if (!cmd) {
     io.stderr(`helicoid: unknown command '${name}'\n\n${usage()}`);
     return 2;
+  }
+  // --help never runs a command (install, lab, start... would act): commands without their own
+  // usage text get their line of the overview.
+  if (!cmd.ownHelp && rest.some((a) => a === "--help" || a === "-h")) {
+    io.stdout(`usage: helicoid ${cmd.help}\n`);
+    return 0;
   }
   try {
     return await cmd.load()(rest, io);
