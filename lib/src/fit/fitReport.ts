@@ -22,11 +22,21 @@ export function formatWithError(value: number, stderr: number | null, siUnit: st
   return `${fix(value / f)} ± ${fix(e)}${unit}`;
 }
 
+function rangeText(lo: number, hi: number, value: number, siUnit: string): string {
+  const [u, f] = customaryUnit(value !== 0 ? value : Number.isFinite(hi) ? hi : lo, siUnit);
+  const unit = u && u !== "1" ? " " + displayUnit(u) : "";
+  const end = (v: number) => (Number.isFinite(v) ? formatNumber(v / f, 4) : v > 0 ? "∞ (open)" : "−∞ (open)");
+  return `[${end(lo)}, ${end(hi)}]${unit}`;
+}
+
 function intervalText(p: ParameterResult): string {
   if (!p.interval) return p.fixed ? "fixed" : p.atBound ? "on its bound" : "—";
-  const [u, f] = customaryUnit(p.value !== 0 ? p.value : p.interval[1], p.unit);
-  const unit = u && u !== "1" ? " " + displayUnit(u) : "";
-  return `[${formatNumber(p.interval[0] / f, 4)}, ${formatNumber(p.interval[1] / f, 4)}]${unit}`;
+  return rangeText(p.interval[0], p.interval[1], p.value, p.unit);
+}
+
+function profileText(p: ParameterResult): string {
+  if (!p.profileInterval) return p.fixed ? "fixed" : "—";
+  return rangeText(p.profileInterval[0], p.profileInterval[1], p.value, p.unit);
 }
 
 function esc(s: string): string {
@@ -40,10 +50,15 @@ function isSeries(r: FitResult | FieldSeriesResult): r is FieldSeriesResult {
 /** Markdown of the parameter table alone. */
 export function fitParameterTable(result: FitResult | FieldSeriesResult, meanings: Record<string, string> = {}): string {
   const conf = Math.round(100 * result.confidence);
-  const lines = [`| parameter | meaning | value ± standard error | ${conf} % interval |`, "|---|---|---|---|"];
+  // A profile-likelihood column appears when some parameter was profiled (option profile).
+  const profiled = Object.values(result.parameters).some((p) => p.profileInterval);
+  const lines = profiled
+    ? [`| parameter | meaning | value ± standard error | ${conf} % interval (linearized) | ${conf} % interval (profile likelihood) |`, "|---|---|---|---|---|"]
+    : [`| parameter | meaning | value ± standard error | ${conf} % interval |`, "|---|---|---|---|"];
   for (const [name, p] of Object.entries(result.parameters)) {
     const status = p.fixed ? " (fixed)" : p.atBound ? " (on bound)" : "";
-    lines.push(`| ${esc(name)}${status} | ${esc(meanings[name] ?? "")} | ${formatWithError(p.value, p.stderr, p.unit)} | ${intervalText(p)} |`);
+    const row = `| ${esc(name)}${status} | ${esc(meanings[name] ?? "")} | ${formatWithError(p.value, p.stderr, p.unit)} | ${intervalText(p)} |`;
+    lines.push(profiled ? `${row} ${profileText(p)} |` : row);
   }
   return lines.join("\n");
 }

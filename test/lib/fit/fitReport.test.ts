@@ -26,4 +26,21 @@ describe("fit reports", () => {
     expect(md).toMatch(/Buettner/);
     expect(fitParameterTable(r).split("\n")).toHaveLength(2 + 5);
   });
+
+  it("adds a profile-likelihood column when parameters were profiled, open sides shown as open", () => {
+    // Common practice, no source: the table shows what the fit result holds (checked against the
+    // result's own numbers, which test/lib/fit/leastSquares tests check against scipy).
+    const d = syntheticProfile("wall360-mz", { R: 30e-9, w: 8e-9, offset: 0.05, contrast: 0.9 }, { seed: 4, noise: 0.03 });
+    const r = fitProfile({ x: d.x, y: d.y, sigma: d.sigma }, "wall360-mz", { start: { R: 25e-9, w: 10e-9 }, profile: ["R"] });
+    const iv = r.parameters.R!.profileInterval!;
+    expect(iv[0]).toBeLessThan(r.parameters.R!.value);
+    const md = fitParameterTable(r);
+    expect(md.split("\n")[0]).toMatch(/interval \(linearized\) \| 95 % interval \(profile likelihood\) \|$/);
+    const row = md.split("\n").find((l) => l.startsWith("| R |"))!;
+    expect(row).toContain(`[${(iv[0] * 1e9).toPrecision(4)}, ${(iv[1] * 1e9).toPrecision(4)}] nm |`);
+    expect(md.split("\n").find((l) => l.startsWith("| w |"))).toMatch(/\| — \|$/);
+    const open = { ...r, parameters: { ...r.parameters, R: { ...r.parameters.R!, profileInterval: [iv[0], Infinity] as [number, number] } } };
+    expect(fitParameterTable(open)).toMatch(/∞ \(open\)\] nm \|/);
+  });
 });
+
