@@ -11,7 +11,11 @@ export interface ChernJob {
   rowTo: number;
 }
 
-export type ChernReply = { id: number; part: ChernPartial } | { id: number; error: { name: string; message: string } };
+/** The reply to a job; a failure is posted as { id, error: { name, message } } (WorkerPool rejects). */
+export interface ChernReply {
+  id: number;
+  part: ChernPartial;
+}
 
 parentPort?.on("message", (job: ChernJob) => {
   try {
@@ -20,6 +24,6 @@ parentPort?.on("message", (job: ChernJob) => {
     parentPort!.postMessage({ id: job.id, part } satisfies ChernReply, transfer);
   } catch (err) {
     const e = err as Error;
-    parentPort!.postMessage({ id: job.id, error: { name: e?.name ?? "Error", message: e?.message ?? String(err) } } satisfies ChernReply);
+    parentPort!.postMessage({ id: job.id, error: { name: e?.name ?? "Error", message: e?.message ?? String(err) } });
   }
 });

@@ -9,57 +9,19 @@
  * Each strip diagonalizes one row more than it owns (the row above its last), a cost of
  * (threads - 1) / n2 of the work.
  */
-import { Worker } from "node:worker_threads";
-import { existsSync } from "node:fs";
-import { join } from "node:path";
 import { cpus } from "node:os";
 import {
   InputError, checkChernInput, chernStrip, combineChernStrips, tightBindingModel,
   type ChernOptions, type ChernPartial, type ChernResult, type TightBindingSpec, type TightBindingModel,
 } from "@helicoid/lib";
 import type { ChernJob, ChernReply } from "./chernWorker.js";
+import { WorkerPool } from "./workerPool.js";
 
-let pool: Worker[] = [];
-let nextId = 1;
-const pending = new Map<number, { resolve: (v: ChernPartial) => void; reject: (e: unknown) => void }>();
-
-function workerScript(): string {
-  const here = join(__dirname, "chernWorker.js");
-  if (existsSync(here)) return here;
-  // running from the TypeScript sources (tests): use the build
-  return join(__dirname, "..", "..", "dist", "parallel", "chernWorker.js");
-}
-
-function ensurePool(n: number): Worker[] {
-  while (pool.length < n) {
-    const w = new Worker(workerScript());
-    w.unref();
-    w.on("message", (msg: ChernReply) => {
-      const p = pending.get(msg.id);
-      if (!p) return;
-      pending.delete(msg.id);
-      if ("part" in msg) p.resolve(msg.part);
-      else {
-        const err = new Error(msg.error.message);
-        err.name = msg.error.name;
-        p.reject(err);
-      }
-    });
-    w.on("error", (err) => {
-      for (const p of pending.values()) p.reject(err);
-      pending.clear();
-      pool = pool.filter((x) => x !== w);
-    });
-    pool.push(w);
-  }
-  return pool;
-}
+const pool = new WorkerPool<ChernJob, ChernReply>("chernWorker.js");
 
 /** Stop the worker threads (they are unref'd, so a process may also just exit). */
 export async function closeChernWorkers(): Promise<void> {
-  const p = pool;
-  pool = [];
-  await Promise.all(p.map((w) => w.terminate()));
+  await pool.close();
 }
 
 export interface ParallelChernOptions extends ChernOptions {
@@ -70,7 +32,7 @@ export interface ParallelChernOptions extends ChernOptions {
 export async function parallelChernNumbers(model: TightBindingSpec | TightBindingModel, options: ParallelChernOptions = {}): Promise<ChernResult & { threads: number }> {
   const spec: TightBindingSpec | undefined = "spec" in model ? model.spec : "hoppings" in model ? model : undefined;
   if (!spec) {
-    throw new InputError("model", typeof model, "a tight-binding spec or a model made by tightBindingModel / supercellModel / haldaneModel (a model given as a function cannot be sent to worker threads: use chernNumbers)");
+    throw new InputError("model", `a model without a tight-binding spec (${(model as { name?: string }).name ?? "unnamed"})`, "a tight-binding spec or a model made by tightBindingModel / supercellModel / haldaneModel (a model given as a function cannot be sent to worker threads: use chernNumbers)");
   }
   const { threads: threadsOpt, ...chernOptions } = options;
   const threads = threadsOpt ?? Math.max(1, cpus().length);
@@ -81,13 +43,10 @@ export async function parallelChernNumbers(model: TightBindingSpec | TightBindin
   const edges = Array.from({ length: blocks + 1 }, (_, b) => Math.round((b * n2) / blocks));
   // Bad input throws here, in the calling thread, before any job is sent.
   checkChernInput(local, chernOptions);
-  const workers = blocks > 1 ? ensurePool(blocks - 1) : [];
+  pool.ensure(blocks - 1);
   const jobs: Promise<ChernPartial>[] = [];
   for (let b = 1; b < blocks; b++) {
-    const id = nextId++;
-    const job: ChernJob = { id, spec, options: chernOptions, rowFrom: edges[b]!, rowTo: edges[b + 1]! };
-    jobs.push(new Promise<ChernPartial>((resolve, reject) => pending.set(id, { resolve, reject })));
-    workers[b - 1]!.postMessage(job);
+    jobs.push(pool.run(b - 1, { spec, options: chernOptions, rowFrom: edges[b]!, rowTo: edges[b + 1]! }).then((r) => r.part));
   }
   let first: ChernPartial;
   try {

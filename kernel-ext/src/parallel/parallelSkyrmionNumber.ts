@@ -5,45 +5,18 @@
  * up to the order of summation (differences ~1e-13). A field not yet in shared memory is copied once
  * (use readVectorFieldFile(path, { shared: true }) or toSharedField to avoid it).
  */
-import { Worker } from "node:worker_threads";
-import { existsSync } from "node:fs";
-import { join } from "node:path";
 import { cpus } from "node:os";
 import {
   InputError, wrapFlags, requireAtLeast, requireSomeMatter, solidAngleSumGeneral, solidAngleSumSquare, type Boundary, type VectorField,
 } from "@helicoid/lib";
 import type { ChargeJob } from "./chargeWorker.js";
+import { WorkerPool } from "./workerPool.js";
 
-let pool: Worker[] = [];
-let nextId = 1;
-const pending = new Map<number, { resolve: (v: number) => void; reject: (e: unknown) => void }>();
-
-function workerScript(): string {
-  const here = join(__dirname, "chargeWorker.js");
-  if (existsSync(here)) return here;
-  // running from the TypeScript sources (tests): use the build
-  return join(__dirname, "..", "..", "dist", "parallel", "chargeWorker.js");
-}
-
-function ensurePool(n: number): Worker[] {
-  while (pool.length < n) {
-    const w = new Worker(workerScript());
-    w.unref();
-    w.on("message", (msg: { id: number; sum: number }) => {
-      const p = pending.get(msg.id);
-      if (p) { pending.delete(msg.id); p.resolve(msg.sum); }
-    });
-    w.on("error", (err) => { for (const p of pending.values()) p.reject(err); pending.clear(); });
-    pool.push(w);
-  }
-  return pool;
-}
+const pool = new WorkerPool<ChargeJob, { id: number; sum: number }>("chargeWorker.js");
 
 /** Stop the worker threads (they are unref'd, so a process may also just exit). */
 export async function closeChargeWorkers(): Promise<void> {
-  const p = pool;
-  pool = [];
-  await Promise.all(p.map((w) => w.terminate()));
+  await pool.close();
 }
 
 /** A copy of the field whose arrays live in shared memory. */
@@ -87,15 +60,12 @@ export async function parallelSkyrmionNumber(
       ? solidAngleSumSquare(f.m, f.nx, f.ny, base, j0, j1, wrapX)
       : solidAngleSumGeneral(f.m, f.vacuum, f.nx, f.ny, base, j0, j1, wrapX, triangular, null, null);
   const edges = Array.from({ length: blocks + 1 }, (_, b) => Math.round((b * rows) / blocks));
-  const workers = ensurePool(blocks - 1);
-  const promises: Promise<number>[] = [];
+  pool.ensure(blocks - 1);
+  const promises: Promise<{ sum: number }>[] = [];
   for (let b = 1; b < blocks; b++) {
-    const id = nextId++;
-    const job: ChargeJob = { id, m: f.m, vacuum: f.vacuum, nx: f.nx, ny: f.ny, base, j0: edges[b]!, j1: edges[b + 1]!, wrapX, triangular };
-    promises.push(new Promise<number>((resolve, reject) => pending.set(id, { resolve, reject })));
-    workers[b - 1]!.postMessage(job);
+    promises.push(pool.run(b - 1, { m: f.m, vacuum: f.vacuum, nx: f.nx, ny: f.ny, base, j0: edges[b]!, j1: edges[b + 1]!, wrapX, triangular }));
   }
   let sum = sumRows(edges[0]!, edges[1]!);
-  for (const s of await Promise.all(promises)) sum += s;
+  for (const r of await Promise.all(promises)) sum += r.sum;
   return { Q: sum / (4 * Math.PI), threads: blocks, copied: !shared };
 }
