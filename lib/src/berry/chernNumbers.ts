@@ -240,10 +240,7 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     for (let i = 0; i < n1; i++) {
       model.fill(i / n1, k2, re, im);
       if (solver) {
-        solver.solveVectorRows(re, im, vFirst, vCount);
-        E.set(solver.values, i * n);
-        Vr.set(solver.vectorsRe, i * nn);
-        Vi.set(solver.vectorsIm, i * nn);
+        solver.solveVectorRowsInto(re, im, vFirst, vCount, E, i * n, Vr, Vi, i * nn);
       } else twoBandEigen(re, im, E, i * 2, Vr, Vi, i * 4);
       if (energiesOut && j >= rowFrom && j < rowTo) energiesOut.set(E.subarray(i * n, i * n + n), ((j - rowFrom) * n1 + i) * n);
     }
@@ -278,7 +275,30 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
       oy = 0;
     }
     const oA = oa + lo * n;
-    for (let a = 0; a < k; a++) {
+    if (k === 3) {
+      // M = A^H Y for three vectors: one pass over the components per row of A, the three
+      // products accumulated together (8 loads per 24 flops instead of 4 per 8).
+      const r0 = oy, r1 = oy + n, r2 = oy + 2 * n;
+      for (let a = 0; a < 3; a++) {
+        const ra = oA + a * n;
+        let s0r = 0, s0i = 0, s1r = 0, s1i = 0, s2r = 0, s2i = 0;
+        for (let s = 0; s < n; s++) {
+          const xr = Ar[ra + s]!, xi = Ai[ra + s]!;
+          const z0r = Yr[r0 + s]!, z0i = Yi[r0 + s]!;
+          const z1r = Yr[r1 + s]!, z1i = Yi[r1 + s]!;
+          const z2r = Yr[r2 + s]!, z2i = Yi[r2 + s]!;
+          s0r += xr * z0r + xi * z0i;
+          s0i += xr * z0i - xi * z0r;
+          s1r += xr * z1r + xi * z1i;
+          s1i += xr * z1i - xi * z1r;
+          s2r += xr * z2r + xi * z2i;
+          s2i += xr * z2i - xi * z2r;
+        }
+        mr[3 * a] = s0r; mi[3 * a] = s0i;
+        mr[3 * a + 1] = s1r; mi[3 * a + 1] = s1i;
+        mr[3 * a + 2] = s2r; mi[3 * a + 2] = s2i;
+      }
+    } else for (let a = 0; a < k; a++) {
       const ra = oA + a * n;
       for (let b = 0; b < k; b++) {
         const rb = oy + b * n;

@@ -99,7 +99,32 @@ export class HermitianEigenSolver {
     this.solveInternal(re, im, true, true, first, first + count);
   }
 
-  private solveInternal(re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean, kFrom = 0, kTo = this.n): void {
+  /**
+   * As `solveVectorRows`, but writes straight into the caller's arrays, without the copy through
+   * the workspace: eigenvalues at values[valuesOffset .. + n - 1], vector row k at
+   * [vectorsOffset + k * n ..] of (vectorsRe, vectorsIm) for k in first .. first + count - 1 (other
+   * rows are left as they were). For grids of k-points stored row after row.
+   */
+  solveVectorRowsInto(
+    re: ArrayLike<number>, im: ArrayLike<number> | null, first: number, count: number,
+    values: Float64Array, valuesOffset: number, vectorsRe: Float64Array, vectorsIm: Float64Array, vectorsOffset: number,
+  ): void {
+    const n = this.n;
+    if (!Number.isInteger(first) || !Number.isInteger(count) || first < 0 || count < 0 || first + count > n) {
+      throw new InputError("first, count", [first, count], `a range of eigenvector indices within 0..${n - 1}`);
+    }
+    if (!(valuesOffset >= 0 && valuesOffset + n <= values.length)) throw new InputError("valuesOffset", valuesOffset, `an offset with room for ${n} values in an array of ${values.length}`);
+    if (!(vectorsOffset >= 0 && vectorsOffset + n * n <= vectorsRe.length && vectorsOffset + n * n <= vectorsIm.length)) {
+      throw new InputError("vectorsOffset", vectorsOffset, `an offset with room for ${n} x ${n} components in arrays of ${vectorsRe.length}`);
+    }
+    this.solveInternal(re, im, true, true, first, first + count, vectorsRe, vectorsIm, vectorsOffset);
+    for (let b = 0; b < n; b++) values[valuesOffset + b] = this.values[b]!;
+  }
+
+  private solveInternal(
+    re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean, kFrom = 0, kTo = this.n,
+    Vr: Float64Array = this.vectorsRe, Vi: Float64Array = this.vectorsIm, vOff = 0,
+  ): void {
     const n = this.n;
     const A = this.a;
     // Copy the lower triangle, complex entries interleaved: the input is never modified. Only the
@@ -246,12 +271,10 @@ export class HermitianEigenSolver {
     for (let i = 0; i < n; i++) Z[i * n + i] = 1;
     tql2Real(n, d, e, Z, "tridiagonal QL (Hermitian eigensolver)");
     sortAscending(n, d, Z, null);
-    const Vr = this.vectorsRe;
-    const Vi = this.vectorsIm;
     for (let k = kFrom; k < kTo; k++) {
-      const o = k * n;
+      const o = vOff + k * n;
       for (let j = 0; j < n; j++) {
-        const z = Z[o + j]!;
+        const z = Z[k * n + j]!;
         Vr[o + j] = z * ph[2 * j]!;
         Vi[o + j] = z * ph[2 * j + 1]!;
       }

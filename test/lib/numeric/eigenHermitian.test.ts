@@ -165,4 +165,28 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
     }
     expect(() => new HermitianEigenSolver(3).solveVectorRows(new Float64Array(9), null, 2, 2)).toThrow(InputError);
   });
+
+  it("solveVectorRowsInto writes the same rows at the caller's offsets and leaves the rest alone", () => {
+    // Common practice, no source: an output-placement variant must not change results.
+    for (const m of mats.filter((x) => x.n >= 2 && x.n <= 12)) {
+      const n = m.n, nn = n * n;
+      const a = new HermitianEigenSolver(n);
+      a.solveVectorRows(m.re, m.im);
+      const rowsRe = Float64Array.from(a.vectorsRe), rowsIm = Float64Array.from(a.vectorsIm), vals = Float64Array.from(a.values);
+      const E = new Float64Array(3 * n).fill(-7), Vr = new Float64Array(3 * nn).fill(-7), Vi = new Float64Array(3 * nn).fill(-7);
+      const first = n > 2 ? 1 : 0, count = n - first - (n > 3 ? 1 : 0);
+      a.solveVectorRowsInto(m.re, m.im, first, count, E, n, Vr, Vi, 2 * nn);
+      expect(Array.from(E.subarray(n, 2 * n))).toEqual(Array.from(vals));
+      expect(E.subarray(0, n).every((x) => x === -7) && E.subarray(2 * n).every((x) => x === -7)).toBe(true);
+      for (let k = 0; k < n; k++) for (let i = 0; i < n; i++) {
+        const inRange = k >= first && k < first + count;
+        expect(Vr[2 * nn + k * n + i]).toBe(inRange ? rowsRe[k * n + i] : -7);
+        expect(Vi[2 * nn + k * n + i]).toBe(inRange ? rowsIm[k * n + i] : -7);
+      }
+      expect(Vr.subarray(0, 2 * nn).every((x) => x === -7)).toBe(true);
+    }
+    const s = new HermitianEigenSolver(3), z = new Float64Array(9);
+    expect(() => s.solveVectorRowsInto(z, null, 0, 3, new Float64Array(3), 1, new Float64Array(9), new Float64Array(9), 0)).toThrow(/valuesOffset/);
+    expect(() => s.solveVectorRowsInto(z, null, 0, 3, new Float64Array(3), 0, new Float64Array(9), new Float64Array(9), 9)).toThrow(/vectorsOffset/);
+  });
 });
