@@ -673,13 +673,18 @@ function blurredContrast(kind: Kind): ProfileModel {
           q[io] = 0;
           q[io + 1] = 1;
           inner.model(q, values);
-          // remove the far-field value so the periodic blur sees a localized signal (180: subtract the ideal step)
-          if (kind === "180") for (let g = 0; g < grid.n; g++) values[g] += Math.sign(gx[g] - p[0]);
+          // Remove the far-field value so the periodic blur sees a localized, smooth signal. 180: subtract
+          // the smooth step -erf(u / (a sqrt 2)) with the wall's slope at its centre (a = Delta sqrt(2/pi)),
+          // whose blur is known in closed form; a sharp sign(u) step would leave a jump on the grid that
+          // pins x0 to grid points and spoils the interpolation.
+          const a = kind === "180" ? p[1] * Math.sqrt(2 / Math.PI) : 0;
+          if (kind === "180") for (let g = 0; g < grid.n; g++) values[g] -= smoothStep(gx[g] - p[0], a);
           else for (let g = 0; g < grid.n; g++) values[g] -= 1;
           const b = blurOnGrid(grid, values, p[nb]);
           interpolateGrid(grid, b, x, out);
+          const aBlurred = Math.sqrt(a * a + (p[nb] > 0 ? p[nb] * p[nb] : 0));
           for (let i = 0; i < x.length; i++) {
-            const far = kind === "180" ? blurredStep(x[i] - p[0], p[nb]) : 1;
+            const far = kind === "180" ? smoothStep(x[i] - p[0], aBlurred) : 1;
             out[i] = p[io] + p[io + 1] * (out[i] + far);
           }
         },
@@ -688,10 +693,14 @@ function blurredContrast(kind: Kind): ProfileModel {
   };
 }
 
-/** The ideal step -sign(u) convolved with a Gaussian of standard deviation s: -erf(u / (s sqrt 2)). */
-function blurredStep(u: number, s: number): number {
-  if (!(s > 0)) return -Math.sign(u);
-  return -erf(u / (s * Math.SQRT2));
+/**
+ * The smooth step -erf(u / (a sqrt 2)), i.e. the ideal step -sign(u) convolved with a Gaussian of
+ * standard deviation a; a Gaussian blur of standard deviation s turns it into the same step with
+ * sqrt(a^2 + s^2) (variances of convolved Gaussians add). Common practice, no source.
+ */
+function smoothStep(u: number, a: number): number {
+  if (!(a > 0)) return -Math.sign(u);
+  return -erf(u / (a * Math.SQRT2));
 }
 
 function erf(z: number): number {

@@ -66,6 +66,19 @@ export function guessStart(model: ProfileModel, x: ArrayLike<number>, y: ArrayLi
     for (let i = 0; i < n; i++) if (Math.abs(y[i] - med) > Math.abs(y[ic] - med)) ic = i;
     out.x0 = x[ic];
   }
+  if (names.has("blur") && model.signalUnit === "") {
+    // Blurred contrast: the observed width is the wall's and the blur's together (Gaussian-equivalent
+    // widths add in quadrature). Start inside that valley, blur = 0.4 of the observed width and the
+    // wall narrowed to match, not at the default blur (a start wider than the data sends a free step
+    // of both widths onto their lower bounds, where the Jacobian vanishes). Common practice, no source.
+    const key = out.Delta !== undefined ? "Delta" : "w";
+    const wObs = out[key];
+    if (wObs !== undefined && wObs > 0) {
+      const gaussEquivalent = Math.sqrt(2 / Math.PI); // tanh(u / W) has the slope of a Gaussian step of width W sqrt(2 / pi)
+      out.blur = 0.4 * wObs * gaussEquivalent;
+      out[key] = wObs * Math.sqrt(1 - 0.16);
+    }
+  }
   for (const key of Object.keys(out)) if (!names.has(key) || !Number.isFinite(out[key])) delete out[key];
   return out;
 }
