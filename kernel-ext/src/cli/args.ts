@@ -1,3 +1,5 @@
+import { accessSync, constants as fsConstants, statSync } from "node:fs";
+import { dirname, resolve } from "node:path";
 import { realStderr, realStdout } from "../display/output.js";
 
 /** A small argument reader for the `helicoid` command: flags, options with values, positionals. */
@@ -43,3 +45,121 @@ export const processIO: CommandIO = {
   stdout: (s) => realStdout(s),
   stderr: (s) => realStderr(s),
 };
+
+/**
+ * A strict reader for commands with a fixed set of options: an unknown option, a repeated option
+ * or an option without its value is a `UsageError` naming it (never ignored, never last-wins).
+ * `valued` maps each option that takes a value to a hint of that value ("a length such as 2nm").
+ * Arguments like `-1.5` are positionals (negative numbers), and everything after `--` is too.
+ */
+export interface StrictSpec {
+  flags: string[];
+  valued: Record<string, string>;
+}
+
+export function parseStrict(args: string[], spec: StrictSpec): ParsedArgs {
+  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map() };
+  const valid = () => [...spec.flags, ...Object.keys(spec.valued)].join(", ");
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i]!;
+    if (a === "--") {
+      out.positional.push(...args.slice(i + 1));
+      break;
+    }
+    if (!a.startsWith("-") || a.length === 1 || /^-\d/.test(a)) {
+      out.positional.push(a);
+      continue;
+    }
+    const eq = a.indexOf("=");
+    const name = eq > 0 ? a.slice(0, eq) : a;
+    const hint = spec.valued[name];
+    if (hint !== undefined) {
+      const value = eq > 0 ? a.slice(eq + 1) : args[i + 1];
+      // The next word is not this option's value when it is another option of ours.
+      const isOption = (s: string) => spec.flags.includes(s) || spec.valued[s.split("=")[0]!] !== undefined;
+      if (value === undefined || value === "" || (eq < 0 && isOption(value))) throw new UsageError(`${name} needs a value (${hint})`);
+      if (eq < 0) i++;
+      if (out.options.has(name)) throw new UsageError(`${name} given twice (${out.options.get(name)}, ${value}): give it once`);
+      out.options.set(name, value);
+    } else if (spec.flags.includes(name)) {
+      if (eq > 0) throw new UsageError(`${name} takes no value (given ${a})`);
+      if (out.flags.has(name)) throw new UsageError(`${name} given twice: give it once`);
+      out.flags.add(name);
+    } else {
+      throw new UsageError(`unknown option ${a}; the options are ${valid()}`);
+    }
+  }
+  return out;
+}
+
+/** Why a file-system call on a user's path failed, in words: "no such file or directory". */
+export function fileReason(err: unknown): string {
+  const code = (err as NodeJS.ErrnoException)?.code;
+  const why: Record<string, string> = {
+    ENOENT: "no such file or directory",
+    EISDIR: "it is a directory, not a file",
+    ENOTDIR: "a part of the path is not a directory",
+    EACCES: "permission denied",
+    EPERM: "operation not permitted",
+    EROFS: "read-only file system",
+    ENOSPC: "no space left on the device",
+    ENAMETOOLONG: "the name is too long",
+  };
+  return (code && why[code]) ?? (err as Error)?.message ?? String(err);
+}
+
+/** One line for a failed file-system call on a user's path: "PATH: no such file or directory". */
+export function fileProblem(path: string, err: unknown): string {
+  return `${path}: ${fileReason(err)}`;
+}
+
+/** Is this an error of a file-system call (it has an errno code such as ENOENT)? */
+export function isFileSystemError(err: unknown): err is NodeJS.ErrnoException {
+  return err instanceof Error && typeof (err as NodeJS.ErrnoException).code === "string" && typeof (err as NodeJS.ErrnoException).syscall === "string";
+}
+
+/** Why `path` cannot be read as an input file ("it is a directory, not a file"), or null when it can. */
+export function inputFileReason(path: string): string | null {
+  try {
+    if (statSync(path).isDirectory()) return "it is a directory, not a file";
+    accessSync(path, fsConstants.R_OK);
+    return null;
+  } catch (err) {
+    return fileReason(err);
+  }
+}
+
+/**
+ * Why `path` cannot be written as an output file, or null when it can: checked before any work is
+ * done, so a long run does not end in a failed write. Nothing is created.
+ */
+export function outputFileProblem(path: string): string | null {
+  const full = resolve(path);
+  try {
+    if (statSync(full).isDirectory()) return `${path}: it is a directory, not a file name`;
+    accessSync(full, fsConstants.W_OK);
+    return null;
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code !== "ENOENT") return fileProblem(path, err);
+  }
+  const dir = dirname(full);
+  try {
+    if (!statSync(dir).isDirectory()) return `${path}: ${dir} is not a directory`;
+    accessSync(dir, fsConstants.W_OK);
+    return null;
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    if (code === "ENOENT" || code === "ENOTDIR") return `${path}: the directory ${dir} does not exist`;
+    if (code === "EACCES" || code === "EPERM" || code === "EROFS") return `${path}: the directory ${dir} is not writable`;
+    return fileProblem(path, err);
+  }
+}
+
+/** The JSON error object of a command's `--json` mode: {id, status: "error", error: {type, message, ...}}. */
+export function errorJson(id: string | undefined, err: Error, extra: Record<string, unknown> = {}): string {
+  const e = err as Error & { parameter?: string; value?: unknown; expected?: string; diagnostics?: Record<string, unknown> };
+  const error: Record<string, unknown> = { type: err.name, message: err.message };
+  if (e.parameter !== undefined) Object.assign(error, { parameter: e.parameter, value: e.value, expected: e.expected });
+  if (e.diagnostics !== undefined) error.diagnostics = e.diagnostics;
+  return JSON.stringify({ id: id ?? null, ...extra, status: "error", error }) + "\n";
+}

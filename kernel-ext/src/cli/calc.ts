@@ -4,16 +4,42 @@
  * `helicoid calc --list [--json]` lists the ids with their inputs and outputs.
  * JSON: {"id", "status", "inputs": {name: {"value", "unit"}}, "outputs": {name: {"value", "unit"}}, ...}
  * with SI values and SI unit strings; a sweep output's value is an array.
+ * Errors: exit 2 for bad input or usage (an unknown option, an input given twice, a --sweep of a
+ * calculator that has none), 1 when a computation failed; with --json the error is also a JSON
+ * object on stdout: {"id", "status": "error", "error": {"type", "message", "parameter", "value", "expected"}}.
  */
 import { catalogue, formatQuantity, getCalculator, InputError, parseQuantity, runCalculator, ConvergenceError, type ComputeOptions } from "@helicoid/lib";
 import { formatEntry } from "../display/table.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 
-export const calcUsage = "helicoid calc ID name=value ... [--json] [--sweep NAME=FROM:TO:POINTS] | helicoid calc --list [--json]";
+export const calcUsage = [
+  "usage: helicoid calc ID name=value ... [--sweep NAME=FROM:TO:POINTS] [--json]",
+  "       helicoid calc --list [--json]",
+  "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once",
+  "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
+  "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
+  "  --list                the calculators with their inputs and outputs",
+  "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
+].join("\n");
+
+const OPTIONS = { flags: ["--json", "--list"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--sweep"]);
-  const json = a.flags.has("--json");
+  const json = args.includes("--json");
+  let id: string | undefined;
+  const fail = (err: Error, status: number): number => {
+    if (json) io.stdout(errorJson(id, err));
+    io.stderr(`helicoid calc: ${err.message}\n`);
+    if (err instanceof UsageError) io.stderr(`${calcUsage}\n`);
+    return status;
+  };
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, OPTIONS);
+  } catch (err) {
+    if (err instanceof UsageError) return fail(err, 2);
+    throw err;
+  }
   if (a.flags.has("--list")) {
     const list = catalogue.map((s) => ({
       id: s.id,
@@ -24,29 +50,39 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       sweep: s.sweep ?? null,
     }));
     if (json) io.stdout(JSON.stringify(list, null, 2) + "\n");
-    else for (const s of list) io.stdout(`${s.id.padEnd(18)} ${s.title}\n${"".padEnd(19)}inputs: ${s.inputs.map((i) => `${i.name} [${i.unit || "-"}]`).join(", ")}\n`);
+    else for (const s of list) io.stdout(`${s.id.padEnd(18)} ${s.title}\n${"".padEnd(19)}inputs: ${s.inputs.map((i) => `${i.name} [${i.unit || "-"}]`).join(", ")}${s.sweep?.over.length ? `; sweepable: ${s.sweep.over.join(", ")}` : ""}\n`);
     return 0;
   }
-  const [id, ...pairs] = a.positional;
-  if (!id) {
-    io.stderr(`usage: ${calcUsage}\n`);
-    return 2;
-  }
+  if (a.positional.length === 0) return fail(new UsageError("no calculator given (helicoid calc --list shows them)"), 2);
+  const [first, ...pairs] = a.positional;
+  id = first;
   try {
-    const spec = getCalculator(id);
+    const spec = getCalculator(first!);
     const raw: Record<string, string> = {};
     for (const p of pairs) {
       const eq = p.indexOf("=");
       if (eq <= 0) throw new InputError("argument", p, "name=value, such as A=15pJ/m");
-      raw[p.slice(0, eq)] = p.slice(eq + 1);
+      const name = p.slice(0, eq);
+      if (Object.prototype.hasOwnProperty.call(raw, name)) {
+        throw new InputError(name, p.slice(eq + 1), `each input once (${name} given twice: ${name}=${raw[name]} and ${p})`);
+      }
+      raw[name] = p.slice(eq + 1);
     }
     const options: ComputeOptions = {};
     const sweep = a.options.get("--sweep");
-    if (sweep) {
+    if (sweep !== undefined) {
+      const sweepable = spec.sweep?.over ?? [];
+      if (sweepable.length === 0) {
+        throw new InputError("--sweep", sweep, `no --sweep: '${id}' has no sweepable input (run it once per value)`);
+      }
       const m = /^([A-Za-z_]\w*)=([^:]+):([^:]+):(\d+)$/.exec(sweep);
-      if (!m) throw new InputError("--sweep", sweep, "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200");
+      if (!m) throw new InputError("--sweep", sweep, `NAME=FROM:TO:POINTS, such as ${sweepable[0]}=FROM:TO:100 (sweepable inputs of '${id}': ${sweepable.join(", ")})`);
       const input = spec.inputs.find((i) => i.name === m[1]);
-      if (!input) throw new InputError("--sweep", sweep, `an input of '${id}': ${spec.inputs.map((i) => i.name).join(", ")}`);
+      if (!input || !sweepable.includes(m[1]!)) {
+        throw new InputError("--sweep", sweep, `a sweepable input of '${id}': ${sweepable.join(", ")}`);
+      }
+      const points = Number(m[4]);
+      if (points < 2 || points > 100000) throw new InputError("--sweep", sweep, "POINTS a whole number from 2 to 100000");
       options.sweep = { over: m[1]!, from: parseQuantity(m[1]!, m[2]!, input.unit), to: parseQuantity(m[1]!, m[3]!, input.unit), points: Number(m[4]) };
     }
     const result = runCalculator(spec, raw, options);
@@ -60,11 +96,9 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     }
     return 0;
   } catch (err) {
-    if (err instanceof InputError || err instanceof ConvergenceError) {
-      if (json) io.stdout(JSON.stringify({ id, status: "error", error: { type: err.name, message: err.message, ...(err instanceof InputError ? { parameter: err.parameter, value: err.value, expected: err.expected } : { diagnostics: err.diagnostics }) } }) + "\n");
-      io.stderr(`helicoid calc: ${err.message}\n`);
-      return 2;
-    }
+    // Bad input exits 2; a solver that did not converge is a computation that failed: 1.
+    if (err instanceof InputError) return fail(err, 2);
+    if (err instanceof ConvergenceError) return fail(err, 1);
     throw err;
   }
 }

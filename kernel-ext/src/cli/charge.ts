@@ -4,80 +4,109 @@
  * Topological charge of a vector field file (.npy, .csv/.tsv/.txt, our .json form): the lattice
  * skyrmion number (Berg-Luescher solid angles) with a continuum estimate beside it, the objects
  * (charge, centre, radius, helicity, vorticity), vacuum cells, and for 3D fields Q per layer and the
- * Bloch points. JSON output (SI units: m, rad):
+ * Bloch points. JSON output (SI units: m, rad; the text summary shows nm and degrees):
  *   {"file", "format", "grid": {...}, "boundary", "skyrmionNumber", "nearestInteger", "closed",
  *    "continuumEstimate", "vacuumCells", "missingCells", "objects": [{"charge", "center", "radius",
  *    "helicity", "vorticity", "kind", "area", "layer"}], "vortices", "layers"?, "blochPoints"?,
  *    "method", "sources", "assumptions", "notes"}
- * Exit codes: 0 done, 1 bad input (the message names what was found and what was expected), 2 usage.
+ * Exit codes: 0 done; 2 bad input or usage (a missing, unreadable or malformed file, a bad option
+ * value, an unknown option: one line naming what was found and what was expected); 1 a
+ * computation that failed. With --json an error is also a JSON object on stdout, the shape of
+ * `helicoid calc --json`'s: {"id": "charge", "file", "status": "error", "error": {"type", "message", ...}}.
  */
 import {
   BOUNDARIES, ConvergenceError, InputError, LATTICE_Q_SOURCES, OBJECT_DEFINITIONS, continuumSkyrmionNumber, findBlochPoints,
   findObjects, findVortices, parseQuantity, skyrmionNumber, type Boundary, type VectorField,
 } from "@helicoid/lib";
 import { readVectorFieldFile } from "../io/readFieldFile.js";
+import { errorJson, fileReason, inputFileReason, isFileSystemError, parseStrict, UsageError, type CommandIO } from "./args.js";
 
-export const chargeUsage =
-  "helicoid charge FILE [--json] [--boundary periodic|open|periodic-x|periodic-y] [--layer K] [--mode cores|density] [--cell LEN | --dx LEN --dy LEN --dz LEN]";
+export const chargeUsage = [
+  "usage: helicoid charge FILE [--json] [--boundary B] [--layer K] [--mode cores|density] [--cell LEN | --dx LEN --dy LEN --dz LEN]",
+  "  FILE                 a vector field: .npy (ny, nx, 3) or (nz, ny, nx, 3), .csv/.tsv/.txt columns x y [z] mx my mz, or .json",
+  `  --json               JSON on stdout, SI units (m, rad); the text summary shows nm and degrees`,
+  `  --boundary B         ${BOUNDARIES.join(", ")} (default: the file's own, else open)`,
+  "  --layer K            the layer of a 3D field for Q (0 to nz-1, default 0)",
+  "  --mode cores|density how objects are found: reversed cores (default) or charge-density clusters",
+  "  --cell LEN           a cubic cell, such as 2nm (a .npy file has no cell size: 1 nm if not given)",
+  "  --dx LEN --dy LEN --dz LEN   the cell edges: give all three, or --cell LEN with any of them to override",
+  "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
+].join("\n");
 
-interface Parsed {
-  file?: string;
-  json: boolean;
-  options: Map<string, string>;
-  unknown: string[];
-}
+const OPTIONS = {
+  flags: ["--json"],
+  valued: {
+    "--boundary": BOUNDARIES.join(", "),
+    "--layer": "a layer number such as 0",
+    "--mode": "cores or density",
+    "--cell": "a length such as 2nm",
+    "--dx": "a length such as 2nm",
+    "--dy": "a length such as 2nm",
+    "--dz": "a length such as 2nm",
+  },
+};
 
-const VALUED = ["--boundary", "--layer", "--mode", "--cell", "--dx", "--dy", "--dz"];
-
-function parse(args: string[]): Parsed {
-  const out: Parsed = { json: false, options: new Map(), unknown: [] };
-  for (let i = 0; i < args.length; i++) {
-    const a = args[i]!;
-    if (a === "--json") { out.json = true; continue; }
-    const eq = a.indexOf("=");
-    const name = a.startsWith("--") && eq > 0 ? a.slice(0, eq) : a;
-    if (VALUED.includes(name)) {
-      const v = eq > 0 && a.startsWith("--") ? a.slice(eq + 1) : args[++i];
-      if (v === undefined) { out.unknown.push(`${name} (needs a value)`); continue; }
-      out.options.set(name, v);
-    } else if (a.startsWith("-") && a.length > 1) out.unknown.push(a);
-    else if (out.file === undefined) out.file = a;
-    else out.unknown.push(a);
+/** The cell size from --cell and --dx/--dy/--dz: never inferred from a partial set. */
+function cellOptions(o: Map<string, string>): { dx?: number; dy?: number; dz?: number } {
+  const out: { dx?: number; dy?: number; dz?: number } = {};
+  const length = (name: string, raw: string) => {
+    const v = parseQuantity(name, raw, "m");
+    if (!(v > 0)) throw new InputError(name, raw, "a positive length such as 2nm");
+    return v;
+  };
+  const cell = o.get("--cell");
+  if (cell !== undefined) out.dx = out.dy = out.dz = length("--cell", cell);
+  const given = (["dx", "dy", "dz"] as const).filter((k) => o.has(`--${k}`));
+  if (cell === undefined && given.length > 0 && given.length < 3) {
+    const missing = (["dx", "dy", "dz"] as const).filter((k) => !o.has(`--${k}`)).map((k) => `--${k}`);
+    throw new UsageError(`${given.map((k) => `--${k}`).join(" and ")} without ${missing.join(" and ")}: give ${missing.join(" and ")} too, or --cell LEN (with --dx/--dy/--dz to override single edges)`);
   }
+  for (const k of given) out[k] = length(`--${k}`, o.get(`--${k}`)!);
   return out;
 }
+
+/** The readers' notes speak of their options (dx, dy, dz); on the command line those are --cell or --dx --dy --dz. */
+const commandLineNote = (n: string) => n.replace(/give dx, dy, dz to change it/g, "give --cell LEN, or --dx --dy --dz, to change it");
 
 const nm = (v: number) => (v * 1e9).toFixed(2);
 const deg = (v: number | null) => (v === null ? "-" : ((v * 180) / Math.PI).toFixed(1));
 
-export async function chargeCommand(args: string[], io: { stdout: (s: string) => void; stderr: (s: string) => void }): Promise<number> {
-  const a = parse(args);
-  if (a.file === undefined || a.unknown.length > 0) {
-    if (a.unknown.length > 0) io.stderr(`helicoid charge: unknown argument ${a.unknown.join(", ")}\n`);
-    io.stderr(`usage: ${chargeUsage}\n`);
-    return 2;
-  }
+export async function chargeCommand(args: string[], io: CommandIO): Promise<number> {
+  const json = args.includes("--json");
+  let file: string | undefined;
+  const fail = (err: Error, status: number): number => {
+    if (json) io.stdout(errorJson("charge", err, { file: file ?? null }));
+    io.stderr(`helicoid charge: ${err.message}\n`);
+    if (err instanceof UsageError) io.stderr(`${chargeUsage}\n`);
+    return status;
+  };
   try {
-    const readOpts: { dx?: number; dy?: number; dz?: number } = {};
-    const cell = a.options.get("--cell");
-    if (cell !== undefined) readOpts.dx = readOpts.dy = readOpts.dz = parseQuantity("--cell", cell, "m");
-    for (const k of ["dx", "dy", "dz"] as const) {
-      const v = a.options.get(`--${k}`);
-      if (v !== undefined) readOpts[k] = parseQuantity(`--${k}`, v, "m");
-    }
-    const { field, info } = readVectorFieldFile(a.file, readOpts);
-    const notes = [...info.notes];
+    const a = parseStrict(args, OPTIONS);
+    if (a.positional.length > 1) throw new UsageError(`one FILE expected, ${a.positional.length} given (${a.positional.join(", ")})`);
+    file = a.positional[0];
+    if (file === undefined) throw new UsageError("no FILE given");
+    const readOpts = cellOptions(a.options);
     const bArg = a.options.get("--boundary");
     if (bArg !== undefined && !BOUNDARIES.includes(bArg as Boundary)) throw new InputError("--boundary", bArg, BOUNDARIES.join(", "));
-    const boundary = (bArg ?? info.boundary ?? "open") as Boundary;
-    const layerArg = a.options.get("--layer");
-    const layer = layerArg === undefined ? 0 : Number(layerArg);
-    if (!Number.isInteger(layer) || layer < 0 || layer >= field.nz) throw new InputError("--layer", layerArg, `a whole number from 0 to ${field.nz - 1}`);
     const mode = (a.options.get("--mode") ?? "cores") as "cores" | "density";
     if (mode !== "cores" && mode !== "density") throw new InputError("--mode", mode, '"cores" or "density"');
+    const layerArg = a.options.get("--layer");
+    const layer = layerArg === undefined ? 0 : Number(layerArg);
+    if (layerArg !== undefined && (!/^\d+$/.test(layerArg.trim()) || !Number.isInteger(layer))) throw new InputError("--layer", layerArg, "a whole number from 0 (the first layer)");
+    const problem = inputFileReason(file);
+    if (problem !== null) throw new InputError("file", file, "an existing, readable vector field file", problem);
+    const { field, info } = readVectorFieldFile(file, readOpts);
+    const notes = info.notes.map(commandLineNote);
+    const boundary = (bArg ?? info.boundary ?? "open") as Boundary;
+    if (layer >= field.nz) throw new InputError("--layer", layerArg, field.nz === 1 ? "0: the field has one layer" : `a whole number from 0 to ${field.nz - 1} (the field has ${field.nz} layers)`);
     const report = analyse(field, boundary, layer, mode);
+    const assumptions = [
+      "|m| = 1 (vectors normalized on reading); zero, tiny or NaN vectors are vacuum",
+      boundary === "periodic" ? "periodic boundaries along x and y" : `${boundary} boundaries (give --boundary periodic for a periodic simulation)`,
+      "Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy; with a +z background a core-down skyrmion of vorticity +1 has Q = -1",
+    ];
     const result = {
-      file: a.file,
+      file,
       format: info.format,
       grid: { nx: field.nx, ny: field.ny, nz: field.nz, dx: field.dx, dy: field.dy, dz: field.dz, lattice: field.lattice, unit: "m" },
       boundary,
@@ -88,22 +117,17 @@ export async function chargeCommand(args: string[], io: { stdout: (s: string) =>
       method: `skyrmion number: ${report.method}; continuum estimate: central differences; objects: ${mode === "cores" ? "reversed-core regions" : "charge-density clusters"} grown to cover the grid`,
       definitions: OBJECT_DEFINITIONS,
       sources: LATTICE_Q_SOURCES,
-      assumptions: [
-        "|m| = 1 (vectors normalized on reading); zero, tiny or NaN vectors are vacuum",
-        boundary === "periodic" ? "periodic boundaries along x and y" : `${boundary} boundaries (give --boundary periodic for a periodic simulation)`,
-        "Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy; with a +z background a core-down skyrmion of vorticity +1 has Q = -1",
-        "lengths in m, angles in rad",
-      ],
+      assumptions: a.flags.has("--json") ? [...assumptions, "lengths in m, angles in rad"] : assumptions,
       notes,
     };
-    if (a.json) io.stdout(JSON.stringify(result, null, 2) + "\n");
+    if (json) io.stdout(JSON.stringify(result, null, 2) + "\n");
     else io.stdout(summary(result));
     return 0;
   } catch (err) {
-    if (err instanceof InputError || err instanceof ConvergenceError) {
-      io.stderr(`helicoid charge: ${err.message}\n`);
-      return 1;
-    }
+    if (err instanceof UsageError || err instanceof InputError) return fail(err, 2);
+    // A file that vanished or could not be read between the check and the read: still the user's path.
+    if (isFileSystemError(err)) return fail(new InputError("file", file, "an existing, readable vector field file", fileReason(err)), 2);
+    if (err instanceof ConvergenceError) return fail(err, 1);
     throw err;
   }
 }
@@ -153,6 +177,7 @@ function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "c
 function summary(r: Record<string, unknown>): string {
   const g = r.grid as { nx: number; ny: number; nz: number; dx: number; dy: number; dz: number; lattice: string };
   const lines: string[] = [];
+  lines.push(`units: lengths in nm, angles in degrees (--json gives SI: m, rad)`);
   lines.push(`file: ${r.file} (${r.format}; ${g.nx} x ${g.ny} x ${g.nz} cells of ${nm(g.dx)} x ${nm(g.dy)} x ${nm(g.dz)} nm, ${g.lattice} lattice)`);
   lines.push(`boundary: ${r.boundary}; vacuum cells: ${r.vacuumCells}${(r.missingCells as number) > 0 ? ` (${r.missingCells} missing rows)` : ""}`);
   const Q = r.skyrmionNumber as number;

@@ -64,4 +64,34 @@ describe("helicoid calc", () => {
     r = calc("nosuch");
     expect(r.stderr).toMatch(/calculator = "nosuch" is not valid: expected one of the catalogue ids/);
   });
+
+  it("refuses a sweep of a calculator without one, and a sweep of an input that is not sweepable", () => {
+    // Common practice, no source: an option the command cannot honour is an error (exit 2), not ignored.
+    let r = calc("wall", "--sweep", "D=0:4mJ/m^2:5");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--sweep = "D=0:4mJ\/m\^2:5" is not valid: expected no --sweep: 'wall' has no sweepable input/);
+    expect(r.stdout).toBe("");
+    r = calc("skyrmion", "--sweep", "D=0:4mJ/m^2:5", "--json");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--sweep = "D=0:4mJ\/m\^2:5" is not valid: expected a sweepable input of 'skyrmion': B/);
+    expect(JSON.parse(r.stdout)).toMatchObject({ id: "skyrmion", status: "error", error: { type: "InputError", parameter: "--sweep", value: "D=0:4mJ/m^2:5" } });
+  });
+
+  it("refuses an unknown option (listing the valid ones), a repeated input and an option without its value", () => {
+    // Common practice, no source: a typo or a doubled argument must not be silently ignored or last-wins.
+    let r = calc("wall", "--bogus");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --sweep/);
+    // The usage shown on an error names every option.
+    for (const o of ["--sweep NAME=FROM:TO:POINTS", "--json", "--list"]) expect(r.stderr).toContain(o);
+    expect(r.stdout).toBe("");
+    r = calc("wall", "A=15pJ/m", "A=20pJ/m", "--json");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/A given twice: A=15pJ\/m and A=20pJ\/m/);
+    expect(JSON.parse(r.stdout)).toMatchObject({ id: "wall", status: "error", error: { type: "InputError", parameter: "A", value: "20pJ/m" } });
+    r = calc("skyrmion", "--sweep");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--sweep needs a value \(NAME=FROM:TO:POINTS/);
+    expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+  });
 });
