@@ -1,102 +1,253 @@
 /**
- * Vortices and antivortices of the in-plane part of a field by plaquette winding: the S1 winding
- * (winding.ts) of the in-plane angle phi = atan2(m_y, m_x) around each plaquette, counterclockwise
- * a -> b -> c -> d (square) or around each triangle (triangular lattice). +1 = vortex, -1 = antivortex,
- * A square plaquette holds |w| <= 1 (four wrapped steps, each below pi), so a defect of winding 2 shows
- * as two unit windings in neighbouring plaquettes; sum `winding` over nearby sites for its order. Source: N. D. Mermin, Rev. Mod. Phys. 51, 591 (1979) (winding of
- * an order parameter around a loop); the plaquette form is common practice, no source.
+ * Vortices and antivortices of the in-plane part of a field, from the S1 winding (winding.ts) of the
+ * in-plane angle phi = atan2(m_y, m_x) around closed loops of lattice sites. Source: N. D. Mermin,
+ * Rev. Mod. Phys. 51, 591 (1979) (winding of an order parameter around a loop); the lattice rules
+ * below are common practice, no source.
+ *
+ * Rule.
+ * 1. A site has an in-plane direction when it is matter and |m_xy| >= minInPlane |m| (default 1e-3,
+ *    i.e. m within about 0.06 degrees of +-z has none). Below that the direction is rounding or
+ *    the far tail of a profile and is not used.
+ * 2. A plaquette (square a -> b -> c -> d counterclockwise, or each triangle of the triangular
+ *    lattice) whose corners all have a direction contributes its own winding. A square plaquette
+ *    holds |w| <= 1 (four wrapped steps, each below pi), so a defect of winding 2 shows as two unit
+ *    windings in neighbouring plaquettes; sum `winding` over nearby sites for its order.
+ * 3. Sites without a direction are grouped into connected sets (8 neighbours on the square lattice,
+ *    6 on the triangular one). The plaquettes touching a set are merged into one region; with this
+ *    connectivity every edge on the border of the region joins two sites that have a direction, so
+ *    the winding around the border is well defined. It equals the sum of the windings the merged
+ *    plaquettes would have for any directions inside, so merging never changes a total.
+ *    - A set that is enclosed (reaches no open edge, no vacuum, and does not wrap around a periodic
+ *      direction) is one core: a zero of m_xy exactly on a site, or a flat core such as a
+ *      skyrmion with sharp walls. Its border winding is reported once (coreSites = size of the set),
+ *      at the centroid of the set; winding 0 is not reported.
+ *    - Any other set is background (a uniform +-z region, the far field of an object, vacuum): its
+ *      plaquettes are skipped and its winding is not a vortex. On a closed (periodic) lattice the
+ *      border windings of the background are summed in `backgroundWinding`, so that
+ *      totalWinding + backgroundWinding = 0 (every edge enters two loops with opposite signs).
+ *      On a torus a single vortex must be balanced somewhere (the indices of a planar field on a
+ *      torus add up to 0); with a periodic single-object texture that balance sits in the
+ *      background tails, where |m_xy| is negligible, and is reported there rather than as vortices.
+ *
+ * Edge differences are taken once per undirected edge (wrapped into [-pi, pi) in the direction of
+ * increasing site index, negated for the other direction), so loop sums cancel exactly.
  */
 import { type Boundary, wrapFlags } from "./boundary.js";
-import { type VectorField, requireAtLeast, requireSomeMatter } from "./field.js";
+import { type VectorField, cellPosition, requireAtLeast, requireSomeMatter } from "./field.js";
 import { wrapAngle } from "./winding.js";
 import { InputError } from "../errors.js";
 
 export interface VortexSite {
-  /** Plaquette indices (lower-left corner). */
+  /** Plaquette indices (lower-left corner), or for a core the site nearest to its centre. */
   i: number;
   j: number;
-  /** Position (m): centre of the plaquette (square) or centroid of the triangle (triangular). */
+  /** Position (m): centre of the plaquette (square), centroid of the triangle, or centroid of the core sites. */
   x: number;
   y: number;
-  /** Winding number: +1 vortex, -1 antivortex. */
+  /** Winding number: > 0 vortex, < 0 antivortex. */
   winding: number;
-  /** Mean m_z of the corners: the sign gives the core polarity. */
+  /** Mean m_z of the corners (plaquette) or of the core sites: the sign gives the core polarity. */
   mz: number;
+  /** 0: the winding of one plaquette; k >= 1: a core of k sites without in-plane direction (rule 3). */
+  coreSites: number;
 }
 
 export interface VortexResult {
   sites: VortexSite[];
   vortices: number;
   antivortices: number;
-  /** Sum of all windings (0 on a closed lattice). */
+  /** Sum of the reported windings. */
   totalWinding: number;
-  /** Plaquettes skipped because a corner is vacuum or has no in-plane direction. */
+  /**
+   * Sum of the border windings of the background regions (rule 3) when both directions are periodic,
+   * else null. On a closed lattice totalWinding + backgroundWinding = 0.
+   */
+  backgroundWinding: number | null;
+  /** Number of background regions (connected sets of sites without in-plane direction that are not cores). */
+  backgroundRegions: number;
+  /** Plaquettes not counted because they touch a background region (vacuum, or no in-plane direction). */
   skipped: number;
+  /** The tolerance used: sites with |m_xy| < minInPlane |m| have no in-plane direction. */
+  minInPlane: number;
 }
 
 export interface VortexOptions {
   boundary?: Boundary;
   layer?: number;
-  /** Corners with in-plane magnitude below this have no direction; their plaquettes are skipped. */
+  /** Sites with |m_xy| < minInPlane |m| have no in-plane direction (default 1e-3; 0 keeps every non-zero m_xy). */
   minInPlane?: number;
 }
 
+/** Default relative in-plane tolerance of findVortices. */
+export const DEFAULT_MIN_IN_PLANE = 1e-3;
+
 const TWO_PI = 2 * Math.PI;
+const SQUARE_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [1, -1], [-1, 1], [-1, -1]];
+// triangles (i,j)(i+1,j)(i,j+1) and (i+1,j)(i+1,j+1)(i,j+1): the six bonds
+const TRIANGULAR_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [[1, 0], [-1, 0], [0, 1], [0, -1], [1, -1], [-1, 1]];
+
+interface SiteSet {
+  sites: number[];
+  /** Sum of unwrapped indices (for the centroid). */
+  si: number;
+  sj: number;
+  reachesEdge: boolean;
+  wraps: boolean;
+  hasVacuum: boolean;
+  plaquettes: number[][];
+}
 
 export function findVortices(field: VectorField, options: VortexOptions = {}): VortexResult {
   const { wrapX, wrapY } = wrapFlags(options.boundary);
   const k = options.layer ?? 0;
   if (!Number.isInteger(k) || k < 0 || k >= field.nz) throw new InputError("layer", options.layer, `a whole number from 0 to ${field.nz - 1}`);
+  const tol = options.minInPlane ?? DEFAULT_MIN_IN_PLANE;
+  if (!(tol >= 0 && tol < 1)) throw new InputError("minInPlane", options.minInPlane, "a tolerance |m_xy| / |m| from 0 up to (not including) 1");
   requireAtLeast(field, 2, 2, "plaquette windings (one plaquette needs 2x2 cells)");
   requireSomeMatter(field, "vortex finding");
-  const minInPlane = options.minInPlane ?? 1e-9;
   const { nx, ny, m, vacuum } = field;
+  const tri = field.lattice === "triangular";
   const base = k * nx * ny;
   const n = nx * ny;
   const phi = new Float64Array(n);
   const ok = new Uint8Array(n);
+  const isVacuum = (c: number) => vacuum !== null && vacuum[base + c] !== 0;
   for (let c = 0; c < n; c++) {
-    const g = base + c;
-    const x = m[3 * g]!, y = m[3 * g + 1]!;
-    if ((vacuum === null || vacuum[g] === 0) && x * x + y * y > minInPlane * minInPlane) {
+    if (isVacuum(c)) continue;
+    const g = 3 * (base + c);
+    const x = m[g]!, y = m[g + 1]!, z = m[g + 2]!;
+    const p2 = x * x + y * y;
+    if (p2 > 0 && p2 >= tol * tol * (p2 + z * z)) {
       phi[c] = Math.atan2(y, x);
       ok[c] = 1;
     }
   }
-  const px = wrapX ? nx : nx - 1, py = wrapY ? ny : ny - 1;
+  const edge = (u: number, v: number): number => (u < v ? wrapAngle(phi[v]! - phi[u]!) : -wrapAngle(phi[u]! - phi[v]!));
+
+  // rule 3: connected sets of sites without direction, with unwrapped indices to see wrapping
+  const setOf = new Int32Array(n).fill(-1);
+  const ui = new Int32Array(n), uj = new Int32Array(n);
+  const sets: SiteSet[] = [];
+  const offsets = tri ? TRIANGULAR_NEIGHBOURS : SQUARE_NEIGHBOURS;
+  for (let c0 = 0; c0 < n; c0++) {
+    if (ok[c0] === 1 || setOf[c0] >= 0) continue;
+    const id = sets.length;
+    const set: SiteSet = { sites: [], si: 0, sj: 0, reachesEdge: false, wraps: false, hasVacuum: false, plaquettes: [] };
+    sets.push(set);
+    setOf[c0] = id;
+    ui[c0] = c0 % nx;
+    uj[c0] = Math.floor(c0 / nx);
+    const stack = [c0];
+    while (stack.length > 0) {
+      const s = stack.pop()!;
+      set.sites.push(s);
+      set.si += ui[s]!;
+      set.sj += uj[s]!;
+      if (isVacuum(s)) set.hasVacuum = true;
+      for (const [di, dj] of offsets) {
+        const a = ui[s]! + di, b = uj[s]! + dj;
+        let ii = a, jj = b;
+        if (ii < 0 || ii >= nx) {
+          if (!wrapX) { set.reachesEdge = true; continue; }
+          ii = ((ii % nx) + nx) % nx;
+        }
+        if (jj < 0 || jj >= ny) {
+          if (!wrapY) { set.reachesEdge = true; continue; }
+          jj = ((jj % ny) + ny) % ny;
+        }
+        const t = jj * nx + ii;
+        if (ok[t] === 1) continue;
+        if (setOf[t] === id) {
+          if (ui[t] !== a || uj[t] !== b) set.wraps = true;
+          continue;
+        }
+        setOf[t] = id;
+        ui[t] = a;
+        uj[t] = b;
+        stack.push(t);
+      }
+    }
+  }
+
   const sites: VortexSite[] = [];
-  let skipped = 0;
-  const tri = field.lattice === "triangular";
-  const loop = (cs: number[], i: number, j: number, x: number, y: number) => {
-    for (const c of cs) if (ok[c] === 0) { skipped++; return; }
+  const plaquette = (cs: number[], i: number, j: number, x: number, y: number) => {
+    for (const c of cs) {
+      if (ok[c] === 0) { sets[setOf[c]!]!.plaquettes.push(cs); return; }
+    }
     let s = 0;
-    for (let q = 0; q < cs.length; q++) s += wrapAngle(phi[cs[(q + 1) % cs.length]!]! - phi[cs[q]!]!);
-    const w = Math.round(s / TWO_PI);
+    for (let q = 0; q < cs.length; q++) s += edge(cs[q]!, cs[(q + 1) % cs.length]!);
+    const w = Math.round(s / TWO_PI) + 0;
     if (w !== 0) {
       let mz = 0;
       for (const c of cs) mz += m[3 * (base + c) + 2]!;
-      sites.push({ i, j, x, y, winding: w, mz: mz / cs.length });
+      sites.push({ i, j, x, y, winding: w, mz: mz / cs.length, coreSites: 0 });
     }
   };
+  const px = wrapX ? nx : nx - 1, py = wrapY ? ny : ny - 1;
   for (let j = 0; j < py; j++) {
     const jn = j + 1 === ny ? 0 : j + 1;
     for (let i = 0; i < px; i++) {
       const inx = i + 1 === nx ? 0 : i + 1;
       const a = j * nx + i, b = j * nx + inx, c = jn * nx + inx, d = jn * nx + i;
       if (!tri) {
-        loop([a, b, c, d], i, j, (i + 0.5) * field.dx, (j + 0.5) * field.dy);
+        plaquette([a, b, c, d], i, j, (i + 0.5) * field.dx, (j + 0.5) * field.dy);
       } else {
         // centroids of the two triangles of the rhombus (see field.ts for site positions)
-        loop([a, b, d], i, j, (i + 1 / 3 + (j + 1 / 3) / 2) * field.dx, (j + 1 / 3) * field.dy);
-        loop([b, c, d], i, j, (i + 2 / 3 + (j + 2 / 3) / 2) * field.dx, (j + 2 / 3) * field.dy);
+        plaquette([a, b, d], i, j, (i + 1 / 3 + (j + 1 / 3) / 2) * field.dx, (j + 1 / 3) * field.dy);
+        plaquette([b, c, d], i, j, (i + 2 / 3 + (j + 2 / 3) / 2) * field.dx, (j + 2 / 3) * field.dy);
       }
     }
   }
+
+  // border winding of a merged region: directed edges met in both directions are interior
+  const borderSum = (plaqs: number[][]): { sum: number; closed: boolean } => {
+    const directed = new Map<number, [number, number]>();
+    for (const cs of plaqs) {
+      for (let q = 0; q < cs.length; q++) {
+        const u = cs[q]!, v = cs[(q + 1) % cs.length]!;
+        const back = v * n + u;
+        if (directed.has(back)) directed.delete(back);
+        else directed.set(u * n + v, [u, v]);
+      }
+    }
+    let sum = 0, closed = true;
+    for (const [u, v] of directed.values()) {
+      if (ok[u] === 0 || ok[v] === 0) { closed = false; continue; }
+      sum += edge(u, v);
+    }
+    return { sum, closed };
+  };
+
+  let skipped = 0, backgroundRegions = 0, background = 0, backgroundClosed = wrapX && wrapY;
+  for (const set of sets) {
+    const { sum, closed } = borderSum(set.plaquettes);
+    const enclosed = !set.reachesEdge && !set.wraps && !set.hasVacuum;
+    if (!enclosed || !closed) {
+      backgroundRegions++;
+      skipped += set.plaquettes.length;
+      if (closed) background += Math.round(sum / TWO_PI);
+      else backgroundClosed = false;
+      continue;
+    }
+    const w = Math.round(sum / TWO_PI) + 0;
+    if (w === 0) continue;
+    const count = set.sites.length;
+    let mz = 0;
+    for (const c of set.sites) mz += m[3 * (base + c) + 2]!;
+    const ci = ((set.si / count) % nx + nx) % nx, cj = ((set.sj / count) % ny + ny) % ny;
+    const [x, y] = cellPosition(field, ci, cj);
+    sites.push({ i: Math.round(ci) % nx, j: Math.round(cj) % ny, x, y, winding: w, mz: mz / count, coreSites: count });
+  }
+
   let vortices = 0, antivortices = 0, total = 0;
   for (const s of sites) {
     if (s.winding > 0) vortices++;
     else antivortices++;
     total += s.winding;
   }
-  return { sites, vortices, antivortices, totalWinding: total, skipped };
+  return {
+    sites, vortices, antivortices, totalWinding: total,
+    backgroundWinding: backgroundClosed ? background + 0 : null,
+    backgroundRegions, skipped, minInPlane: tol,
+  };
 }
