@@ -88,25 +88,35 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     }
     const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
     const unitOf = (name: string) => model.parameters.find((p) => p.name === name)?.unit ?? "";
-    const known = (name: string) => {
-      if (!model.parameters.some((p) => p.name === name)) throw new InputError(name, name, `a parameter of ${model.id}: ${model.parameters.map((p) => p.name).join(", ")}`);
+    const known = (option: string, name: string) => {
+      if (!model.parameters.some((p) => p.name === name)) throw new InputError(option, name, `a parameter of ${model.id}: ${model.parameters.map((p) => p.name).join(", ")}`);
+    };
+    const inputNotes: string[] = [];
+    // A bare number for a dimensional parameter is read in SI units: said in a note, so that
+    // "--start Delta=20" (meant as nm) cannot pass unnoticed.
+    const quantity = (k: string, v: string) => {
+      const unit = unitOf(k);
+      const value = parseQuantity(k, v, unit);
+      if (unit && /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/.test(v)) inputNotes.push(`${k} = ${v.trim()} was given without a unit: read as ${formatQuantity(value, unit)} (SI ${unit})`);
+      return value;
     };
     const start: Record<string, number> = guessStart(model, csv.x, csv.y);
     for (const [k, v] of startRaw) {
-      known(k);
-      start[k] = parseQuantity(k, v, unitOf(k));
+      known("--start", k);
+      start[k] = quantity(k, v);
     }
     const fixed: Record<string, boolean | number> = {};
     for (const [k, v] of fixRaw) {
-      known(k);
-      fixed[k] = v === null ? true : parseQuantity(k, v, unitOf(k));
+      known("--fix", k);
+      fixed[k] = v === null ? true : quantity(k, v);
     }
     for (const k of free) {
-      known(k);
+      known("--free", k);
       fixed[k] = false;
     }
     const r = fitProfile({ x: csv.x, y: csv.y, sigma: csv.sigma }, model, { start, fixed, profile });
-    const notes = [...csv.notes, ...r.notes];
+    const notes = [...inputNotes, ...csv.notes, ...r.notes];
+    if (!r.sigmaKnown) notes.push("no sigma column: the standard errors are scaled by the reduced chi-square, which is then no test of the fit");
     const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; profileInterval?: [number, number] | null }> = {};
     for (const [name, p] of Object.entries(r.parameters)) {
       const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;
@@ -130,13 +140,17 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     if (json) io.stdout(JSON.stringify(out, null, 2) + "\n");
     else {
       io.stdout(`${r.title}\nstatus: ${r.status} (${r.message})\n`);
+      const fmt = (v: number, unit: string, digits = 6) => (!Number.isFinite(v) ? (v > 0 ? "+inf (open)" : "-inf (open)") : unit ? formatQuantity(v, unit) : v.toPrecision(digits));
+      const conf = Math.round(100 * r.confidence);
       for (const [name, p] of Object.entries(parameters)) {
-        const v = p.unit ? formatQuantity(p.value, p.unit) : p.value.toPrecision(6);
-        const e = p.stderr === null ? (p.fixed ? "fixed" : "n/a") : `+- ${p.unit ? formatQuantity(p.stderr, p.unit) : p.stderr.toPrecision(3)}`;
-        io.stdout(`  ${name.padEnd(10)} ${v.padStart(16)}  ${e}\n`);
+        const v = fmt(p.value, p.unit);
+        const e = p.stderr === null ? (p.fixed ? "fixed" : "n/a") : `+- ${fmt(p.stderr, p.unit, 3)}`;
+        const iv = p.profileInterval ? `  ${conf} % profile-likelihood interval [${fmt(p.profileInterval[0], p.unit)}, ${fmt(p.profileInterval[1], p.unit)}]` : "";
+        io.stdout(`  ${name.padEnd(10)} ${v.padStart(16)}  ${e}${iv}\n`);
       }
       io.stdout(`reduced chi-square ${r.chiSquareReduced.toPrecision(4)}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
       for (const n of notes) io.stdout(`note: ${n}\n`);
+      if (r.assumptions.length) io.stdout(`assumptions: ${r.assumptions.join("; ")}\n`);
     }
     if (r.status !== "converged") {
       io.stderr(`helicoid fit: the fit failed (status ${r.status}): ${r.message}\n`);

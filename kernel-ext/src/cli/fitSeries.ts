@@ -40,7 +40,13 @@ export function parseFilmOption(raw: string): Record<FilmKey, number> {
     if (k < 1) throw new InputError("--film", part, "name=value pairs separated by commas, e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
     const name = part.slice(0, k).trim();
     if (!(name in FILM_KEYS)) throw new InputError("--film", name, `one of the film parameters ${Object.keys(FILM_KEYS).join(", ")}`);
-    out[name as FilmKey] = parseQuantity(`--film ${name}`, part.slice(k + 1).trim(), FILM_KEYS[name as FilmKey]);
+    const value = part.slice(k + 1).trim();
+    // Film parameters span many decades in SI (Ms ~ 1e6 A/m, A ~ 1e-11 J/m): a bare number is
+    // almost always a unit left out, so it is refused rather than read as SI.
+    if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(value)) {
+      throw new InputError(`--film ${name}`, value, `a quantity with its unit, e.g. ${name}=${{ Ms: "0.6MA/m", t: "1.5nm", A: "12pJ/m", D: "1.45mJ/m^2", Ku: "0.35MJ/m^3" }[name as FilmKey]} (a bare number would be ${value} ${FILM_KEYS[name as FilmKey]})`);
+    }
+    out[name as FilmKey] = parseQuantity(`--film ${name}`, value, FILM_KEYS[name as FilmKey]);
   }
   const missing = (Object.keys(FILM_KEYS) as FilmKey[]).filter((n) => out[n] === undefined);
   if (missing.length > 0) throw new InputError("--film", raw, `all of Ms, t, A, D, Ku (A, D, Ku are start values of the fit); missing: ${missing.join(", ")}`);
@@ -127,7 +133,7 @@ function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
   io.stdout(`Ku: ${r.kuDecision.reason}\n`);
   io.stdout(`chi-square ${r.chiSquare.toPrecision(4)} for ${r.dof} degrees of freedom (reduced ${Number.isFinite(r.chiSquareReduced) ? r.chiSquareReduced.toPrecision(4) : "n/a"})${r.approach === "two-stage" ? ", energy model against the stage-1 R, w" : ""}\n`);
   const width = Math.max(4, ...files.map((f) => f.length));
-  io.stdout(`  ${"file".padEnd(width)}  ${"B".padStart(8)}  ${"R".padStart(20)}  ${"w".padStart(20)}  pull R  pull W\n`);
+  io.stdout(`  ${"file".padEnd(width)}  ${"B".padStart(8)}  ${"R".padStart(20)}  ${"w".padStart(20)}  pull R  pull w\n`);
   r.profiles.forEach((p, i) => {
     io.stdout(`  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${`${formatQuantity(p.R, "m")} +- ${formatQuantity(p.stderrR, "m")}`.padStart(20)}  ${`${formatQuantity(p.w, "m")} +- ${formatQuantity(p.stderrW, "m")}`.padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`);
   });

@@ -369,7 +369,13 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
         for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c + e * nn]) > 0.05) group.push(params[inner[c]].name);
         if (group.length > 0) degenerate.push(group);
       }
-      if (degenerate.length === 0) degenerate.push(zeroCols.map((j) => params[j].name));
+      if (degenerate.length === 0) {
+        // rank-deficient for the factorization but no eigenvalue below the threshold: name the
+        // parameters of the weakest direction (the eigenvector of the smallest eigenvalue)
+        const weakest: string[] = [];
+        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c]) > 0.05) weakest.push(params[inner[c]].name);
+        degenerate.push(zeroCols.length > 0 ? zeroCols.map((j) => params[j].name) : weakest.length > 0 ? weakest : inner.map((j) => params[j].name));
+      }
       status = "singular";
       reason = "singular-jacobian";
       message =
@@ -422,6 +428,16 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       }
       covariance.push(row);
       correlation.push(crow);
+    }
+  }
+  if (correlation) {
+    // Nearly degenerate pairs: the data hardly tell them apart (their errors are large and
+    // anticorrelated or correlated); fixing one from other knowledge is the usual cure.
+    for (let a = 0; a < nn; a++) {
+      for (let b = a + 1; b < nn; b++) {
+        const r = correlation[a][b];
+        if (Math.abs(r) > 0.99) notes.push(`${params[inner[a]].name} and ${params[inner[b]].name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`);
+      }
     }
   }
   if (sigmaKnown && (red > 2 || red < 0.5)) {

@@ -99,6 +99,14 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     throw new InputError(src, `${names.length} column(s): ${names.join(", ")}`, "at least two columns: position and signal (and optionally sigma)");
   }
   const needed = Math.max(jx, jy, js ?? 0) + 1;
+  const notes: string[] = [];
+  // An option unit that contradicts the header's is an error, not silently ignored.
+  for (const [j, opt, what] of [[jx, options.xUnit, "xUnit"], [jy, options.yUnit, "yUnit"]] as const) {
+    if (opt && units[j] && opt !== units[j]) {
+      throw new InputError(what, opt, `no unit option, or the header's unit "${units[j]}" of column "${names[j]}" (the header wins; give one or the other)`);
+    }
+  }
+  if (!units[jx] && !options.xUnit) notes.push(`the position column "${names[jx]}" has no unit in its header: metres assumed (write e.g. "x (nm)" or give a unit option)`);
   const xUnit = units[jx] || options.xUnit || "m";
   let xScale: number;
   try {
@@ -143,10 +151,9 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     y.push(vy * yScale);
     if (sigma) sigma.push(vs * yScale);
   }
-  const notes: string[] = [];
   if (nanRows.length > 0) {
     if (!options.dropNaN) {
-      throw new InputError(src, `NaN or empty values at ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? ` and ${nanRows.length - 10} more` : ""}`, "finite numbers in every row, or dropNaN to drop those rows");
+      throw new InputError(src, `NaN or empty values at ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? ` and ${nanRows.length - 10} more` : ""}`, "finite numbers in every row, or the drop-NaN option (helicoid fit --drop-nan, readProfileCsv dropNaN) to drop those rows");
     }
     notes.push(`dropped ${nanRows.length} row(s) with NaN or empty values: ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? " ..." : ""}`);
   }

@@ -99,7 +99,7 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
 
 /** Customary display units of the trade for each SI unit, largest first. */
 const customary: Record<string, Array<[string, number]>> = {
-  m: [["mm", 1e-3], ["um", 1e-6], ["nm", 1e-9], ["pm", 1e-12]],
+  m: [["m", 1], ["mm", 1e-3], ["um", 1e-6], ["nm", 1e-9], ["pm", 1e-12]],
   "A/m": [["MA/m", 1e6], ["kA/m", 1e3], ["A/m", 1]],
   "J/m": [["pJ/m", 1e-12]],
   "J/m^2": [["mJ/m^2", 1e-3]],

@@ -72,4 +72,49 @@ describe("helicoid fit", () => {
     expect(await fitCommand(["x.csv", "--model", "nope"], c2.io)).toBe(2);
     expect(c2.err.join("")).toMatch(/one of the profile model ids/);
   });
+
+  it("text output: profile intervals with --profile, assumptions, and notes for unit and sigma assumptions", async () => {
+    // Common practice, no source: the printed table reflects the fit result (checked against
+    // fitProfile on the same data) and states what was assumed.
+    const dir = mkdtempSync(join(tmpdir(), "helicoid-fit-text-"));
+    const rng = seededRandom(31);
+    const rows = (unit: string, sigma: boolean) => {
+      const lines = ["# invented film, synthetic scan", `x${unit},signal${sigma ? ",sigma" : ""}`];
+      for (let i = 0; i <= 200; i++) {
+        const x = -100 + i;
+        const t = Math.sinh(30 / 8) / Math.sinh(Math.abs(x - 4) / 8);
+        const mz = Number.isFinite(t) ? (1 - t * t) / (1 + t * t) : -1;
+        lines.push(`${unit ? x : x * 1e-9},${(0.05 + 0.9 * mz + 0.02 * rng.normal()).toFixed(5)}${sigma ? ",0.02" : ""}`);
+      }
+      return lines.join("\n") + "\n";
+    };
+    const withUnit = join(dir, "cut.csv"), plain = join(dir, "plain.csv"), noSigma = join(dir, "nosigma.csv");
+    writeFileSync(withUnit, rows(" (nm)", true));
+    writeFileSync(plain, rows("", true));
+    writeFileSync(noSigma, rows(" (nm)", false));
+    const before = readFileSync(withUnit, "utf8");
+    let c = capture();
+    expect(await fitCommand([withUnit, "--model", "wall360-mz", "--profile"], c.io)).toBe(0);
+    let text = c.out.join("");
+    expect(text).toMatch(/R\s+[\d.]+ nm\s+\+- [\d.]+ pm\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
+    expect(text).toMatch(/^assumptions: continuum micromagnetics, T = 0/m);
+    c = capture();
+    expect(await fitCommand([withUnit, "--model", "wall360-mz", "--start", "w=8"], c.io)).toBe(1); // 8 m: absurd start, stated
+    expect(c.out.join("")).toMatch(/note: w = 8 was given without a unit: read as 8 m/);
+    c = capture();
+    expect(await fitCommand([plain, "--model", "wall360-mz"], c.io)).toBe(0);
+    expect(c.out.join("")).toMatch(/note: the position column "x" has no unit in its header: metres assumed/);
+    c = capture();
+    expect(await fitCommand([noSigma, "--model", "wall360-mz"], c.io)).toBe(0);
+    expect(c.out.join("")).toMatch(/note: no sigma column: the standard errors are scaled by the reduced chi-square/);
+    // a unit option that contradicts the header is refused; an unknown --start parameter names the option
+    c = capture();
+    expect(await fitCommand([withUnit, "--model", "wall360-mz", "--x-unit", "um"], c.io)).toBe(2);
+    expect(c.err.join("")).toMatch(/xUnit = "um".*header's unit "nm"/);
+    c = capture();
+    expect(await fitCommand([withUnit, "--model", "wall360-mz", "--start", "Q=3"], c.io)).toBe(2);
+    expect(c.err.join("")).toMatch(/--start = "Q" is not valid: expected a parameter of wall360-mz: x0, R, w, offset, contrast/);
+    expect(readFileSync(withUnit, "utf8")).toBe(before);
+  });
 });
+
