@@ -10,6 +10,7 @@
  */
 import { readFileSync, writeFileSync, existsSync } from "node:fs";
 import { dirname, join, resolve, basename } from "node:path";
+import { fileReason, outputFileProblem } from "../cli/args.js";
 
 export interface ExportOptions {
   /** Page title (default: the notebook's first heading, else "Helicoid notebook"). */
@@ -215,48 +216,74 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
   );
 }
 
-const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code]";
+const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code]\nExit status: 0 done, 2 bad input or usage (a missing or malformed notebook, an unwritable output path), 1 a failed export.";
 
 type Out = ((s: string) => unknown) | { write(s: string): unknown };
 
-/** `helicoid export NOTEBOOK -o PAGE.html`: returns the exit status. `io` writers may be functions or streams. */
+/**
+ * `helicoid export NOTEBOOK -o PAGE.html`: returns the exit status (0 done; 2 bad input or usage:
+ * a missing, unreadable or malformed notebook, an output path that cannot be written; 1 a failed
+ * export, such as an unbuilt widget front end). `io` writers may be functions or streams.
+ */
 export async function exportCommand(args: string[], cio: { stdout: Out; stderr: Out }): Promise<number> {
   const w = (o: Out) => ({ write: (s: string) => (typeof o === "function" ? o(s) : o.write(s)) });
   const io = { stdout: w(cio.stdout), stderr: w(cio.stderr) };
+  const usage = (message: string) => { io.stderr.write(`helicoid export: ${message}\n${USAGE}\n`); return 2; };
   let input: string | undefined;
   let output: string | undefined;
   let title: string | undefined;
   let showCode = true;
   for (let i = 0; i < args.length; i++) {
     const a = args[i]!;
-    if (a === "-o" || a === "--output") output = args[++i];
-    else if (a.startsWith("--output=")) output = a.slice(9);
-    else if (a === "--title") title = args[++i];
-    else if (a === "--no-code") showCode = false;
+    if (a === "-o" || a === "--output" || a.startsWith("--output=")) {
+      const v = a.startsWith("--output=") ? a.slice(9) : args[++i];
+      if (v === undefined || v === "") return usage(`${a.replace(/=.*/, "")} needs a file name (such as PAGE.html)`);
+      if (output !== undefined) return usage(`-o given twice (${output}, ${v}): give it once`);
+      output = v;
+    } else if (a === "--title") {
+      const v = args[++i];
+      if (v === undefined) return usage("--title needs a value (the page title)");
+      title = v;
+    } else if (a === "--no-code") showCode = false;
     else if (a === "-h" || a === "--help") { io.stdout.write(USAGE + "\n"); return 0; }
-    else if (a.startsWith("-")) { io.stderr.write(`helicoid export: unknown option ${a}\n${USAGE}\n`); return 2; }
+    else if (a.startsWith("-")) return usage(`unknown option ${a}; the options are -o/--output, --title, --no-code`);
     else if (!input) input = a;
-    else { io.stderr.write(`helicoid export: more than one notebook given (${input}, ${a})\n${USAGE}\n`); return 2; }
+    else return usage(`more than one notebook given (${input}, ${a})`);
   }
-  if (!input) { io.stderr.write(`helicoid export: no notebook given\n${USAGE}\n`); return 2; }
-  if (output === undefined && args.includes("-o")) { io.stderr.write(`helicoid export: -o needs a file name\n${USAGE}\n`); return 2; }
+  if (!input) return usage("no notebook given");
   const out = output ?? input.replace(/\.ipynb$/i, "") + ".html";
   if (resolve(out) === resolve(input)) { io.stderr.write(`helicoid export: the output ${out} would overwrite the notebook\n`); return 2; }
   let raw: string;
   try {
     raw = readFileSync(input, "utf8");
   } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    io.stderr.write(`helicoid export: cannot read ${input}: ${code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a directory" : (err as Error).message}\n`);
-    return 1;
+    io.stderr.write(`helicoid export: cannot read ${input}: ${(err as NodeJS.ErrnoException).code === "ENOENT" ? "no such file" : fileReason(err)}\n`);
+    return 2;
   }
+  // Bad input first (the notebook, the output path), before any page is built.
+  let nb: unknown;
   try {
-    const html = exportNotebook(raw, { title, showCode, sourceName: input });
-    writeFileSync(out, html);
-    io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
-    return 0;
+    nb = JSON.parse(raw);
+    checkNotebook(nb, input);
+  } catch (err) {
+    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : `${input}: not valid JSON (${(err as Error).message})`}\n`);
+    return 2;
+  }
+  const problem = outputFileProblem(out);
+  if (problem !== null) { io.stderr.write(`helicoid export: cannot write ${problem}\n`); return 2; }
+  let html: string;
+  try {
+    html = exportNotebook(nb, { title, showCode, sourceName: input });
   } catch (err) {
     io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : (err as Error).stack ?? String(err)}\n`);
     return 1;
   }
+  try {
+    writeFileSync(out, html);
+  } catch (err) {
+    io.stderr.write(`helicoid export: cannot write ${out}: ${fileReason(err)}\n`);
+    return 2;
+  }
+  io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
+  return 0;
 }

@@ -87,14 +87,14 @@ describe("helicoid export", () => {
     expect(await exportCommand([], c.io)).toBe(2);
     expect(c.err()).toContain("usage");
     c = capture();
-    expect(await exportCommand(["/nonexistent/x.ipynb"], c.io)).toBe(1);
+    expect(await exportCommand(["/nonexistent/x.ipynb"], c.io)).toBe(2); // bad input: exit 2 (Common practice, no source)
     expect(c.err()).toContain("no such file");
     c = capture();
     expect(await exportCommand(["a.ipynb", "--bogus"], c.io)).toBe(2);
     const dir = mkdtempSync(join(tmpdir(), "helicoid-export-"));
     writeFileSync(join(dir, "bad.ipynb"), "{not json");
     c = capture();
-    expect(await exportCommand([join(dir, "bad.ipynb")], { stdout: { write: c.io.stdout }, stderr: { write: c.io.stderr } })).toBe(1);
+    expect(await exportCommand([join(dir, "bad.ipynb")], { stdout: { write: c.io.stdout }, stderr: { write: c.io.stderr } })).toBe(2);
     expect(c.err()).toContain("bad.ipynb: not valid JSON");
   });
 });
