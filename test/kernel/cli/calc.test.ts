@@ -6,6 +6,8 @@
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { helicoidBin } from "../../helpers/paths.js";
+import { ConvergenceError, getCalculator } from "@helicoid/lib";
+import { calcCommand } from "../../../kernel-ext/src/cli/calc.js";
 
 function calc(...args: string[]) {
   const r = spawnSync(process.execPath, [helicoidBin, "calc", ...args], { encoding: "utf8", timeout: 60_000 });
@@ -93,5 +95,21 @@ describe("helicoid calc", () => {
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/--sweep needs a value \(NAME=FROM:TO:POINTS/);
     expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+  });
+
+  it("a computation that failed exits 1 (not 2), with its reason and, with --json, its diagnostics", async () => {
+    // Common practice, no source: 2 is for bad input only. The solver failure is provoked in process.
+    const spec = getCalculator("wall");
+    const compute = spec.compute;
+    spec.compute = () => { throw new ConvergenceError("test solver", "no bracket", { evaluations: 7 }); };
+    let out = "", err = "";
+    try {
+      const code = await calcCommand(["wall", "--json"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+      expect(code).toBe(1);
+    } finally {
+      spec.compute = compute;
+    }
+    expect(err).toBe("helicoid calc: test solver did not converge: no bracket (evaluations: 7)\n");
+    expect(JSON.parse(out)).toEqual({ id: "wall", status: "error", error: { type: "ConvergenceError", message: expect.stringMatching(/no bracket/), diagnostics: { evaluations: 7 } } });
   });
 });
