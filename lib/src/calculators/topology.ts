@@ -85,6 +85,9 @@ function computeTexture(v: InputValues): ComputeOutput {
     lineMz.push(field.m[3 * (j * n + i) + 2]!);
   }
   if (objs.objects.length === 0) notes.push("no reversed core: no objects");
+  if (vort.backgroundWinding !== null && vort.backgroundWinding !== 0) {
+    notes.push(`in-plane winding ${vort.backgroundWinding} sits in the background (|m_xy| < ${vort.minInPlane} |m|): on a periodic grid the windings add up to 0, and this balance is not counted as vortices`);
+  }
   const preview = fieldPreview(field.m, n, field.dx);
   return {
     status: notes.some((s) => s.startsWith("a vortex")) ? "warning" : "ok",
@@ -135,8 +138,8 @@ export const textureSpec: CalculatorSpec = {
     { name: "Qinteger", symbol: "[Q]", unit: "", meaning: "nearest integer of Q" },
     { name: "Qcontinuum", symbol: "Q_{\\mathrm{fd}}", unit: "", meaning: "continuum finite-difference estimate of Q (resolution check)" },
     { name: "objectCount", symbol: "N", unit: "", meaning: "number of objects (reversed-core regions)" },
-    { name: "vortexCount", symbol: "N_v", unit: "", meaning: "plaquettes with in-plane winding +1" },
-    { name: "antivortexCount", symbol: "N_{av}", unit: "", meaning: "plaquettes with in-plane winding -1" },
+    { name: "vortexCount", symbol: "N_v", unit: "", meaning: "in-plane vortices: plaquettes, or cores of sites without in-plane direction, with winding > 0 (rule in topology/vortices.ts)" },
+    { name: "antivortexCount", symbol: "N_{av}", unit: "", meaning: "in-plane antivortices: plaquettes or cores with winding < 0" },
     { name: "objectX", symbol: "x_c", unit: "m", kind: "array", meaning: "charge-weighted centres, x" },
     { name: "objectY", symbol: "y_c", unit: "m", kind: "array", meaning: "charge-weighted centres, y" },
     { name: "objectCharge", symbol: "Q_i", unit: "", kind: "array", meaning: "charge of each object" },
@@ -158,6 +161,7 @@ export const textureSpec: CalculatorSpec = {
     "analytic demo textures (not simulations): wall profile tan(theta/2) = sinh(R/w)/sinh(rho/w), each cell takes its nearest object",
     "|m| = 1; Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy, so a core-down skyrmion of vorticity +1 in a +z background has Q = -1",
     "the lattice Q is an exact integer only on a closed (periodic, vacuum-free) grid",
+    "in-plane vortices: sites with |m_xy| < 1e-3 |m| have no in-plane direction; an enclosed set of them is one core counted by the winding around it, a set reaching the open edge or wrapping around the periodic grid is background and not counted (on a periodic grid its winding balances the vortices and is given in a note)",
     "the outputs carry a preview of the field (every k-th cell, at most 64 x 64 cells, components rounded to 1e-4); the counts use the full n x n grid, and textureFromInputs(inputs) regenerates the full field",
   ],
   sources: [
