@@ -7,7 +7,7 @@
  * compute functions receive them in J. Defaults use invented demo materials.
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
-import { sweepValues } from "./spec.js";
+import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { kB, muB } from "../quantity/constants.js";
 import { coneLoop } from "../berry/loopOnSphere.js";
 import { spinBerryPhase, wrapBerryPhase } from "../berry/spinBerryPhase.js";
@@ -21,7 +21,7 @@ const berrySources = ["M. Berry, Proc. R. Soc. A 392, 45 (1984)", "R. Resta, Rev
 
 // ---------------------------------------------------------------- berry-loop
 function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
-  const S = v.twoS! / 2;
+  const S = requireWholeAtLeast(v, "twoS", 1, "twice the spin: 1 for S = 1/2") / 2;
   const theta = v.theta!;
   const N = v.segments!;
   const loop = coneLoop(theta, N);
@@ -109,7 +109,7 @@ export const berryLoopSpec: CalculatorSpec = {
 
 // ---------------------------------------------------------------- chern (Haldane phase diagram)
 function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
-  const n = v.grid!;
+  const n = requireWholeAtLeast(v, "grid", 3, "grid points per reciprocal direction");
   const model = (M: number) => haldaneModel({ t1: 1, t2: v.t2!, phi: v.phi!, M });
   const r = chernNumbers(model(v.M!), { n1: n, onUnresolved: "report" });
   const Mc = haldaneCriticalMass(v.t2!, v.phi!);
@@ -129,7 +129,7 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
   if (options.sweep) {
     // The phase diagram runs 21+ grids: on its own (coarser) grid; unresolved points near the
     // boundary are reported, never guessed, so a coarse grid costs resolution, not correctness.
-    const ns = v.sweepGrid ?? 24;
+    const ns = v.sweepGrid === undefined ? 24 : requireWholeAtLeast(v, "sweepGrid", 3, "grid points per direction of the phase diagram");
     const Ms = sweepValues(chernSpec, options.sweep);
     const xs: number[] = [], cs: number[] = [], cf: number[] = [], un: number[] = [];
     for (const M of Ms) {
@@ -333,7 +333,7 @@ export const spinTunnelSpec: CalculatorSpec = {
 
 // ---------------------------------------------------------------- easy-plane
 function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
-  const S = v.twoS! / 2;
+  const S = requireWholeAtLeast(v, "twoS", 1, "twice the spin: 1 for S = 1/2") / 2;
   const D = v.D! * kB;
   const gm = 2 * muB;
   const b = gm * v.B!;

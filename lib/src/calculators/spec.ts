@@ -4,7 +4,7 @@
  * the command line (`helicoid calc`). Adding a calculator = one compute function + one spec.
  */
 import { InputError } from "../errors.js";
-import { parseQuantity, type QuantityInput } from "../quantity/units.js";
+import { formatQuantity, parseQuantity, type QuantityInput } from "../quantity/units.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
 export interface InputSpec {
@@ -91,6 +91,11 @@ export interface CalculatorSpec {
   /** Method in a few words. */
   method: string;
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;
+  /**
+   * Names of the compute function's own parameters in terms of the spec's inputs, for error
+   * messages: { n1: "grid" } turns "n1 = 2 is not valid" into "grid = 2 is not valid".
+   */
+  errorNames?: Record<string, string>;
 }
 
 /** A documented result: what `table()` and `helicoid calc --json` show. */
@@ -165,12 +170,8 @@ export function runCalculator(
   try {
     computed = spec.compute(inputs, sweep ? { sweep } : {});
   } catch (err) {
-    // The compute function sees SI numbers; name the value as the user gave it ("-15 pJ/m").
-    const given = err instanceof InputError ? raw[err.parameter] : undefined;
-    if (err instanceof InputError && given !== undefined && given !== err.value) {
-      throw new InputError(err.parameter, given, err.expected, [`(${err.parameter} = ${err.value} in SI)`, err.detail].filter(Boolean).join(" "));
-    }
-    throw err;
+    if (!(err instanceof InputError)) throw err;
+    throw explainComputeError(spec, raw, inputs, err);
   }
   const outputs: CalculatorResult["outputs"] = {};
   for (const o of spec.outputs) {
@@ -187,10 +188,60 @@ export function runCalculator(
     method: spec.method,
     sources: spec.sources,
     assumptions: spec.assumptions,
-    notes: computed.notes ?? [],
+    notes: [...inputNotes(spec, raw, inputs), ...(computed.notes ?? [])],
   };
   if (sweep) result.sweep = sweep;
   return result;
+}
+
+const BARE_NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
+
+/**
+ * Notes on how the given inputs were read: a dimensional input typed as a bare number is read in
+ * SI units (said, since "A=15" meant as pJ/m is a common slip), and a value more than 100 times
+ * outside its slider range is flagged (the calculators accept it, the result may be meaningless).
+ */
+function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | undefined>, inputs: InputValues): string[] {
+  const notes: string[] = [];
+  for (const input of spec.inputs) {
+    const given = raw[input.name];
+    if (given === undefined || input.kind === "choice" || input.kind === "integer") continue;
+    const v = inputs[input.name]!;
+    if (input.unit && typeof given === "string" && BARE_NUMBER.test(given)) {
+      notes.push(`${input.name} = ${given.trim()} was given without a unit: read as ${v} ${input.unit} (SI)`);
+    }
+    const span = Math.max(Math.abs(input.min), Math.abs(input.max));
+    const far = input.scale === "log" && input.min > 0 && v > 0 ? v > 100 * input.max || v < input.min / 100 : span > 0 && Math.abs(v) > 100 * span;
+    if (far) notes.push(`${input.name} = ${formatQuantity(v, input.unit)} is far outside the usual range ${formatQuantity(input.min, input.unit)} to ${formatQuantity(input.max, input.unit)}: check the value and its unit`);
+  }
+  return notes;
+}
+
+/**
+ * An InputError from a compute function, restated for the user: the value as typed ("-15 pJ/m"),
+ * the input's name instead of an internal one (spec.errorNames), and, when the rejected input was
+ * not given, that its default was used together with what was given.
+ */
+function explainComputeError(spec: CalculatorSpec, raw: Record<string, QuantityInput | undefined>, inputs: InputValues, err: InputError): InputError {
+  const name = spec.errorNames?.[err.parameter] ?? err.parameter;
+  const input = spec.inputs.find((i) => i.name === name);
+  const givenList = Object.entries(raw).filter(([, v]) => v !== undefined).map(([k, v]) => `${k} = ${v}`);
+  const extra: string[] = [];
+  let value: unknown = err.value;
+  if (input) {
+    const given = raw[name];
+    if (given !== undefined) {
+      value = given;
+      if (input.unit && String(given).trim() !== String(inputs[name])) extra.push(`(${name} = ${inputs[name]} ${input.unit} in SI)`);
+    } else {
+      value = input.unit ? formatQuantity(inputs[name]!, input.unit) : inputs[name];
+      extra.push(`(${name} was not given: its default was used${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
+    }
+  } else if (name !== err.parameter || !spec.inputs.some((i) => i.name === err.parameter)) {
+    extra.push(`(a quantity computed by '${spec.id}' from its inputs${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
+  }
+  if (err.detail) extra.push(err.detail);
+  return new InputError(name, value, err.expected, extra.join(" ") || undefined);
 }
 
 /** The default sweep of a spec: its first sweepable input over its slider range. */
@@ -199,4 +250,14 @@ export function defaultSweep(spec: CalculatorSpec, _inputs: InputValues): Comput
   const name = spec.sweep.over[0]!;
   const input = spec.inputs.find((i) => i.name === name)!;
   return { over: name, from: input.min, to: input.max, points: spec.sweep.points };
+}
+
+/**
+ * For compute functions: an integer input that the physics needs at least `min` of (a spin 2S >= 1,
+ * a grid of >= 3 points), refused under the input's own name (slider ranges are not enforced).
+ */
+export function requireWholeAtLeast(v: InputValues, name: string, min: number, meaning: string): number {
+  const x = v[name];
+  if (x === undefined || !Number.isInteger(x) || x < min) throw new InputError(name, x, `a whole number >= ${min} (${meaning})`);
+  return x;
 }
