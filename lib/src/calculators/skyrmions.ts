@@ -232,8 +232,8 @@ const profileSpec: CalculatorSpec = {
   inputs: filmInputs(),
   outputs: [
     { name: "rho", symbol: "\\rho", unit: "m", meaning: "Radial positions", kind: "array" },
-    { name: "thetaAnsatz", symbol: "\\theta_a", unit: "", meaning: "Polar angle (rad) of the ansatz", kind: "array" },
-    { name: "thetaExact", symbol: "\\theta_e", unit: "", meaning: "Polar angle (rad) of the exact profile", kind: "array" },
+    { name: "thetaAnsatz", symbol: "\\theta_a", unit: "rad", meaning: "Polar angle (rad) of the ansatz", kind: "array" },
+    { name: "thetaExact", symbol: "\\theta_e", unit: "rad", meaning: "Polar angle (rad) of the exact profile", kind: "array" },
     { name: "mzAnsatz", symbol: "m_z", unit: "", meaning: "m_z of the ansatz", kind: "array" },
     { name: "mzExact", symbol: "m_z", unit: "", meaning: "m_z of the exact profile", kind: "array" },
     { name: "radiusAnsatz", symbol: "R_a", unit: "m", meaning: "Radius (m_z = 0) of the ansatz, local model" },

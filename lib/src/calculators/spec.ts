@@ -127,7 +127,8 @@ export function coerceInputs(spec: CalculatorSpec, raw: Record<string, QuantityI
   const out: InputValues = {};
   for (const input of spec.inputs) {
     const given = raw[input.name];
-    const v = given === undefined ? input.default : parseQuantity(input.name, given, input.unit);
+    const label = input.kind === "choice" && typeof given === "string" ? choiceByLabel(input, given) : undefined;
+    const v = given === undefined ? input.default : label !== undefined ? label : parseQuantity(input.name, given, input.unit);
     if (input.kind === "integer" && !Number.isInteger(v)) {
       throw new InputError(input.name, given, "a whole number");
     }
@@ -137,6 +138,21 @@ export function coerceInputs(spec: CalculatorSpec, raw: Record<string, QuantityI
     out[input.name] = v;
   }
   return out;
+}
+
+/**
+ * A choice given by its label: the whole label (any case, "skyrmion lattice"), or a word the
+ * label starts with when only one label does ("lattice" does not; "antisk" does). Numbers are
+ * left to parseQuantity.
+ */
+function choiceByLabel(input: InputSpec, given: string): number | undefined {
+  const g = given.trim().toLowerCase();
+  if (g === "" || /^[-+.\d]/.test(g) || !input.choices) return undefined;
+  const exact = input.choices.find((c) => c.label.toLowerCase() === g);
+  if (exact) return exact.value;
+  const starts = input.choices.filter((c) => c.label.toLowerCase().startsWith(g));
+  if (starts.length === 1) return starts[0]!.value;
+  throw new InputError(input.name, given, `one of ${input.choices.map((c) => `${c.value} (${c.label})`).join(", ")}${starts.length > 1 ? ` ("${given}" starts ${starts.length} of the labels)` : ""}`);
 }
 
 /** Values of a sweep: linear, or logarithmic when the swept input has a log scale. */
@@ -207,7 +223,8 @@ function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | un
     const given = raw[input.name];
     if (given === undefined || input.kind === "choice" || input.kind === "integer") continue;
     const v = inputs[input.name]!;
-    if (input.unit && typeof given === "string" && BARE_NUMBER.test(given)) {
+    // (angles are commonly typed as bare radians: no note for "rad")
+    if (input.unit && input.unit !== "rad" && typeof given === "string" && BARE_NUMBER.test(given)) {
       notes.push(`${input.name} = ${given.trim()} was given without a unit: read as ${v} ${input.unit} (SI)`);
     }
     const span = Math.max(Math.abs(input.min), Math.abs(input.max));

@@ -47,4 +47,23 @@ describe("calculator input reading", () => {
     const negative = refused("wall", { A: "-15pJ/m" });
     expect(negative.message).toMatch(/A = "-15pJ\/m" is not valid.*\(A = -1\.5e-11 J\/m in SI\)/);
   });
+
+  it("choices by label and angles with units", () => {
+    const texture = getCalculator("texture");
+    expect(runCalculator(texture, { kind: "antiskyrmion" }).inputs.kind!.value).toBe(1);
+    expect(runCalculator(texture, { kind: "Skyrmion Lattice" }).inputs.kind!.value).toBe(3);
+    expect(runCalculator(texture, { kind: "2" }).inputs.kind!.value).toBe(2);
+    expect(() => runCalculator(texture, { kind: "sky" })).toThrow(/"sky" starts 3 of the labels/);
+    expect(() => runCalculator(texture, { kind: "bubble" })).toThrow(/one of 0 \(skyrmion\)/);
+    // Source: 60 degrees = pi/3 rad (definition of the degree)
+    const loop = getCalculator("berry-loop");
+    const deg = runCalculator(loop, { theta: "60deg" });
+    expect(deg.inputs.theta!.value).toBeCloseTo(Math.PI / 3, 15);
+    expect(deg.inputs.theta!.unit).toBe("rad");
+    expect(deg.outputs.solidAngle!.unit).toBe("sr");
+    expect(deg.outputs.gammaTop!.unit).toBe("rad");
+    expect(runCalculator(loop, { theta: "1.0" }).notes.join("\n")).not.toMatch(/without a unit/);
+    expect(() => runCalculator(loop, { theta: "3mT" })).toThrow(/dimension of rad/);
+  });
 });
+
