@@ -89,8 +89,11 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     if (json) io.stdout(JSON.stringify(result) + "\n");
     else {
       io.stdout(`${result.title} (${result.id}): ${result.status}\n`);
-      for (const [n, e] of Object.entries(result.inputs)) io.stdout(`  in   ${n.padEnd(16)} ${formatQuantity(e.value, e.unit)}\n`);
-      for (const [n, e] of Object.entries(result.outputs)) io.stdout(`  out  ${n.padEnd(16)} ${formatEntry(e)}\n`);
+      // each line ends with what the quantity means (from the spec), so a number never stands alone
+      const meaning = (list: Array<{ name: string; meaning: string }>, n: string) => list.find((x) => x.name === n)?.meaning ?? "";
+      const line = (tag: string, n: string, text: string, m: string) => io.stdout(`  ${tag} ${n.padEnd(16)} ${text.padEnd(24)}${m ? `  ${m}` : ""}\n`);
+      for (const [n, e] of Object.entries(result.inputs)) line("in  ", n, formatQuantity(e.value, e.unit), meaning(spec.inputs, n));
+      for (const [n, e] of Object.entries(result.outputs)) line("out ", n, formatEntry(e), meaning(spec.outputs, n));
       for (const note of result.notes) io.stdout(`  note: ${note}\n`);
       for (const s of result.assumptions) io.stdout(`  assumes: ${s}\n`);
     }

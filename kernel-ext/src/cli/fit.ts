@@ -12,7 +12,7 @@
  */
 import { readFileSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, InputError, ConvergenceError } from "@helicoid/lib";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, InputError, ConvergenceError } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -143,10 +143,10 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       const fmt = (v: number, unit: string, digits = 6) => (!Number.isFinite(v) ? (v > 0 ? "+inf (open)" : "-inf (open)") : unit ? formatQuantity(v, unit) : v.toPrecision(digits));
       const conf = Math.round(100 * r.confidence);
       for (const [name, p] of Object.entries(parameters)) {
-        const v = fmt(p.value, p.unit);
-        const e = p.stderr === null ? (p.fixed ? "fixed" : "n/a") : `+- ${fmt(p.stderr, p.unit, 3)}`;
+        // value and error in one unit, the value's digits following the error's (two significant)
+        const ve = p.stderr === null ? `${fmt(p.value, p.unit)}  ${p.fixed ? "fixed" : "(no error)"}` : formatWithError(p.value, p.stderr, p.unit);
         const iv = p.profileInterval ? `  ${conf} % profile-likelihood interval [${fmt(p.profileInterval[0], p.unit)}, ${fmt(p.profileInterval[1], p.unit)}]` : "";
-        io.stdout(`  ${name.padEnd(10)} ${v.padStart(16)}  ${e}${iv}\n`);
+        io.stdout(`  ${name.padEnd(10)} ${ve}${iv}\n`);
       }
       io.stdout(`reduced chi-square ${r.chiSquareReduced.toPrecision(4)}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
       for (const n of notes) io.stdout(`note: ${n}\n`);

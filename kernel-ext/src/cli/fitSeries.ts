@@ -17,7 +17,7 @@
  * the value and what was expected).
  */
 import { readFileSync } from "node:fs";
-import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
 
 export interface FitSeriesIo {
   stdout: (s: string) => void;
@@ -124,8 +124,9 @@ function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
   io.stdout(`status: ${r.status} (${r.message})\n`);
   const pct = `${+(100 * r.confidence).toPrecision(4)} %`;
   for (const [name, p] of Object.entries(r.parameters)) {
-    const e = p.stderr === null ? (p.fixed ? "held" : "n/a") : `+- ${q(p.stderr, p.unit)}`;
-    let line = `  ${name.padEnd(3)} ${q(p.value, p.unit).padStart(14)}  ${e.padEnd(18)}`;
+    // value and error in one unit, the value's digits following the error's
+    const ve = p.stderr === null ? `${q(p.value, p.unit)} ${p.fixed ? "(held)" : "(no error)"}` : formatWithError(p.value, p.stderr, p.unit);
+    let line = `  ${name.padEnd(3)} ${ve.padStart(24)}`;
     if (p.interval) line += `  ${pct} [${q(p.interval[0], p.unit)}, ${q(p.interval[1], p.unit)}]`;
     if (p.profileInterval) line += `  profile [${q(p.profileInterval[0], p.unit)}, ${q(p.profileInterval[1], p.unit)}]`;
     io.stdout(line + "\n");
@@ -135,7 +136,7 @@ function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
   const width = Math.max(4, ...files.map((f) => f.length));
   io.stdout(`  ${"file".padEnd(width)}  ${"B".padStart(8)}  ${"R".padStart(20)}  ${"w".padStart(20)}  pull R  pull w\n`);
   r.profiles.forEach((p, i) => {
-    io.stdout(`  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${`${formatQuantity(p.R, "m")} +- ${formatQuantity(p.stderrR, "m")}`.padStart(20)}  ${`${formatQuantity(p.w, "m")} +- ${formatQuantity(p.stderrW, "m")}`.padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`);
+    io.stdout(`  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${formatWithError(p.R, p.stderrR, "m").padStart(20)}  ${formatWithError(p.w, p.stderrW, "m").padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`);
   });
   for (const a of r.assumptions) io.stdout(`assumption: ${a}\n`);
   for (const n of r.notes) io.stdout(`note: ${n}\n`);

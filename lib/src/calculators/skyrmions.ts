@@ -73,6 +73,9 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
     values.energy = r.energy.total;
     values.helicity = r.helicity;
     values.magnetostaticEnergy = r.energy.magnetostaticSurface + r.energy.magnetostaticVolume;
+    // Continuum limit: a few lattice spacings (~0.3 nm) across the core is where the continuum
+    // energy stops being trustworthy (a lattice model is needed). Common practice, no source.
+    if (r.radius < 3e-9) notes.push(`R = ${(r.radius * 1e9).toPrecision(3)} nm spans only a few atomic spacings: the continuum model is at its limit there (treat R as a rough estimate)`);
   } else {
     notes.push(...r.notes);
   }

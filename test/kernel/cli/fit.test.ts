@@ -96,7 +96,7 @@ describe("helicoid fit", () => {
     let c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--profile"], c.io)).toBe(0);
     let text = c.out.join("");
-    expect(text).toMatch(/R\s+[\d.]+ nm\s+\+- [\d.]+ pm\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
+    expect(text).toMatch(/R\s+[\d.]+ ± [\d.]+ nm\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
     expect(text).toMatch(/^assumptions: continuum micromagnetics, T = 0/m);
     c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--start", "w=8"], c.io)).toBe(1); // 8 m: absurd start, stated

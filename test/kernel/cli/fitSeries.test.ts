@@ -97,8 +97,8 @@ describe("helicoid fit --series", () => {
     const r = helicoid("--series", ...files.slice(0, 3), "--film", filmArg, "--fit-ku", "no");
     expect(r.stderr).toBe("");
     expect(r.status).toBe(0);
-    expect(r.stdout).toMatch(/\n {2}A +[\d.]+ pJ\/m +\+- [\d.]+ pJ\/m/);
-    expect(r.stdout).toMatch(/\n {2}Ku +350 kJ\/m³ +held/);
+    expect(r.stdout).toMatch(/\n {2}A +[\d.]+ ± [\d.]+ pJ\/m/);
+    expect(r.stdout).toMatch(/\n {2}Ku +350 kJ\/m³ \(held\)/);
     expect(r.stdout).toMatch(/\nKu: Ku held at the given value on request/);
     expect(r.stdout).toMatch(/\nchi-square [\d.]+ for 4 degrees of freedom/);
     expect(r.stdout).toMatch(/qf7-skyrmion-cut-020mT\.csv +20 mT/);

@@ -58,6 +58,16 @@ describe("skyrmion calculators", () => {
     expect(r.outputs.radius).toBeUndefined();
     expect(r.outputs.spiralPeriod!.value as number).toBeGreaterThan(0);
   });
+  it("skyrmion: a radius of a few atomic spacings carries a continuum-limit caution", () => {
+    // Common practice, no source: the continuum description needs many lattice spacings (~0.3 nm) per core.
+    const small = runCalculator(getCalculator("skyrmion"), {});
+    expect(small.outputs.radius!.value as number).toBeLessThan(3e-9);
+    expect(small.status).toBe("warning");
+    expect(small.notes.join("\n")).toMatch(/spans only a few atomic spacings: the continuum model is at its limit/);
+    const large = runCalculator(getCalculator("skyrmion"), { D: "3 mJ/m^2", B: "20 mT" });
+    expect(large.outputs.radius!.value as number).toBeGreaterThan(10e-9);
+    expect(large.notes.join("\n")).not.toMatch(/atomic spacings/);
+  });
   it("skyrmion-profile: ansatz and exact side by side", () => {
     // Common practice, no source: variational bound and similar radii.
     const r = runCalculator(getCalculator("skyrmion-profile"), { D: "2 mJ/m^2", B: "20 mT" });
