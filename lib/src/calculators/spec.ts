@@ -91,11 +91,6 @@ export interface CalculatorSpec {
   /** Method in a few words. */
   method: string;
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;
-  /**
-   * Names of the compute function's own parameters in terms of the spec's inputs, for error
-   * messages: { n1: "grid" } turns "n1 = 2 is not valid" into "grid = 2 is not valid".
-   */
-  errorNames?: Record<string, string>;
 }
 
 /** A documented result: what `table()` and `helicoid calc --json` show. */
@@ -236,11 +231,11 @@ function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | un
 
 /**
  * An InputError from a compute function, restated for the user: the value as typed ("-15 pJ/m"),
- * the input's name instead of an internal one (spec.errorNames), and, when the rejected input was
- * not given, that its default was used together with what was given.
+ * and, when the rejected input was not given, that its default was used together with what was
+ * given; a quantity that is not an input is said to be computed from the inputs.
  */
 function explainComputeError(spec: CalculatorSpec, raw: Record<string, QuantityInput | undefined>, inputs: InputValues, err: InputError): InputError {
-  const name = spec.errorNames?.[err.parameter] ?? err.parameter;
+  const name = err.parameter;
   const input = spec.inputs.find((i) => i.name === name);
   const givenList = Object.entries(raw).filter(([, v]) => v !== undefined).map(([k, v]) => `${k} = ${v}`);
   const extra: string[] = [];
@@ -254,7 +249,7 @@ function explainComputeError(spec: CalculatorSpec, raw: Record<string, QuantityI
       value = input.unit ? formatQuantity(inputs[name]!, input.unit) : inputs[name];
       extra.push(`(${name} was not given: its default was used${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
     }
-  } else if (name !== err.parameter || !spec.inputs.some((i) => i.name === err.parameter)) {
+  } else {
     extra.push(`(a quantity computed by '${spec.id}' from its inputs${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
   }
   if (err.detail) extra.push(err.detail);
