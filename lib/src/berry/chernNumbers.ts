@@ -232,16 +232,19 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const stripRows = rowTo - rowFrom;
   const energiesOut = options.energies ? new Float64Array(n1 * stripRows * n) : undefined;
   interface Row { E: Float64Array; Vr: Float64Array; Vi: Float64Array; u1r: Float64Array; u1i: Float64Array }
-  const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * nn), Vi: new Float64Array(n1 * nn), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
+  const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * vStride), Vi: new Float64Array(n1 * vStride), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
   let vFirst = 0, vCount = n;
+  // Vector rows kept per k-point: vStride numbers from band vBase on (only the computed rows; the
+  // closed two-band form writes both vectors).
+  let vStride = nn, vBase = 0;
   const computeRow = (j: number, row: Row) => {
     const k2 = j / n2;
     const { E, Vr, Vi } = row;
     for (let i = 0; i < n1; i++) {
       model.fill(i / n1, k2, re, im);
       if (solver) {
-        solver.solveVectorRowsInto(re, im, vFirst, vCount, E, i * n, Vr, Vi, i * nn);
-      } else twoBandEigen(re, im, E, i * 2, Vr, Vi, i * 4);
+        solver.solveVectorRowsInto(re, im, vFirst, vCount, E, i * n, Vr, Vi, i * vStride);
+      } else twoBandEigen(re, im, E, i * 2, Vr, Vi, i * vStride);
       if (energiesOut && j >= rowFrom && j < rowTo) energiesOut.set(E.subarray(i * n, i * n + n), ((j - rowFrom) * n1 + i) * n);
     }
   };
@@ -259,10 +262,10 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   /** Normalized link of group (lo, k) from vector set A (offset oa) to B (offset ob); sets out[0], out[1]. */
   const link = (lo: number, k: number, Ar: Float64Array, Ai: Float64Array, oa: number, Br: Float64Array, Bi: Float64Array, ob: number, pr: Float64Array, pi: Float64Array, phased: boolean): void => {
     let dr: number, di: number;
-    let Yr = Br, Yi = Bi, oy = ob + lo * n;
+    let Yr = Br, Yi = Bi, oy = ob + (lo - vBase) * n;
     if (phased) {
       for (let b = 0; b < k; b++) {
-        const src = ob + (lo + b) * n;
+        const src = ob + (lo - vBase + b) * n;
         for (let s = 0; s < n; s++) {
           const vr = Br[src + s]!, vi = Bi[src + s]!;
           const fr = pr[s]!, fi = pi[s]!;
@@ -274,7 +277,7 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
       Yi = yi;
       oy = 0;
     }
-    const oA = oa + lo * n;
+    const oA = oa + (lo - vBase) * n;
     if (k === 3) {
       // M = A^H Y for three vectors: one pass over the components per row of A, the three
       // products accumulated together (8 loads per 24 flops instead of 4 per 8).
@@ -380,7 +383,7 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
       const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         const ip = i + 1 === n1 ? 0 : i + 1;
-        link(lo, k, Vr, Vi, i * nn, Vr, Vi, ip * nn, p1r, p1i, phased1);
+        link(lo, k, Vr, Vi, i * vStride, Vr, Vi, ip * vStride, p1r, p1i, phased1);
         u1r[gi * n1 + i] = out[0]!;
         u1i[gi * n1 + i] = out[1]!;
         checkLink(gi, E, i, E, ip);
@@ -399,6 +402,10 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   }
   vFirst = vLo;
   vCount = vHi - vLo + 1;
+  if (solver) {
+    vStride = vCount * n;
+    vBase = vFirst;
+  }
   // Rows rowFrom .. rowTo are diagonalized (row n2 is row 0 again: the whole grid reuses it).
   const row0 = newRow();
   computeRow(rowFrom, row0);
@@ -417,7 +424,7 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
       if (gi === derived) continue;
       const lo = gLo[gi]!, k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
-        link(lo, k, lower.Vr, lower.Vi, i * nn, upper.Vr, upper.Vi, i * nn, p2r, p2i, phased2);
+        link(lo, k, lower.Vr, lower.Vi, i * vStride, upper.Vr, upper.Vi, i * vStride, p2r, p2i, phased2);
         u2r[i] = out[0]!;
         u2i[i] = out[1]!;
         checkLink(gi, lower.E, i, upper.E, i);

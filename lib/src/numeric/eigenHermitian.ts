@@ -101,9 +101,9 @@ export class HermitianEigenSolver {
 
   /**
    * As `solveVectorRows`, but writes straight into the caller's arrays, without the copy through
-   * the workspace: eigenvalues at values[valuesOffset .. + n - 1], vector row k at
-   * [vectorsOffset + k * n ..] of (vectorsRe, vectorsIm) for k in first .. first + count - 1 (other
-   * rows are left as they were). For grids of k-points stored row after row.
+   * the workspace: eigenvalues at values[valuesOffset .. + n - 1], and the vectors first ..
+   * first + count - 1 packed as rows: vector k at [vectorsOffset + (k - first) * n ..] of
+   * (vectorsRe, vectorsIm), count * n numbers in all. For grids of k-points stored one after another.
    */
   solveVectorRowsInto(
     re: ArrayLike<number>, im: ArrayLike<number> | null, first: number, count: number,
@@ -114,10 +114,10 @@ export class HermitianEigenSolver {
       throw new InputError("first, count", [first, count], `a range of eigenvector indices within 0..${n - 1}`);
     }
     if (!(valuesOffset >= 0 && valuesOffset + n <= values.length)) throw new InputError("valuesOffset", valuesOffset, `an offset with room for ${n} values in an array of ${values.length}`);
-    if (!(vectorsOffset >= 0 && vectorsOffset + n * n <= vectorsRe.length && vectorsOffset + n * n <= vectorsIm.length)) {
-      throw new InputError("vectorsOffset", vectorsOffset, `an offset with room for ${n} x ${n} components in arrays of ${vectorsRe.length}`);
+    if (!(vectorsOffset >= 0 && vectorsOffset + count * n <= vectorsRe.length && vectorsOffset + count * n <= vectorsIm.length)) {
+      throw new InputError("vectorsOffset", vectorsOffset, `an offset with room for ${count} x ${n} components in arrays of ${vectorsRe.length}`);
     }
-    this.solveInternal(re, im, true, true, first, first + count, vectorsRe, vectorsIm, vectorsOffset);
+    this.solveInternal(re, im, true, true, first, first + count, vectorsRe, vectorsIm, vectorsOffset - first * n);
     for (let b = 0; b < n; b++) values[valuesOffset + b] = this.values[b]!;
   }
 
