@@ -15,6 +15,7 @@ import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 export const calcUsage = [
   "usage: helicoid calc ID name=value ... [--sweep NAME=FROM:TO:POINTS] [--json]",
   "       helicoid calc --list [--json]",
+  "       helicoid calc ID --help      what ID computes: its inputs (unit, default, range, meaning) and outputs",
   "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once",
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
@@ -22,7 +23,7 @@ export const calcUsage = [
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -52,6 +53,20 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     if (json) io.stdout(JSON.stringify(list, null, 2) + "\n");
     else for (const s of list) io.stdout(`${s.id.padEnd(18)} ${s.title}\n${"".padEnd(19)}inputs: ${s.inputs.map((i) => `${i.name} [${i.unit || "-"}]`).join(", ")}${s.sweep?.over.length ? `; sweepable: ${s.sweep.over.join(", ")}` : ""}\n`);
     return 0;
+  }
+  if (a.flags.has("--help") || a.flags.has("-h")) {
+    if (a.positional.length === 0) {
+      io.stdout(`${calcUsage}\n`);
+      return 0;
+    }
+    id = a.positional[0];
+    try {
+      io.stdout(calculatorHelp(getCalculator(id!)));
+      return 0;
+    } catch (err) {
+      if (err instanceof InputError) return fail(err, 2);
+      throw err;
+    }
   }
   if (a.positional.length === 0) return fail(new UsageError("no calculator given (helicoid calc --list shows them)"), 2);
   const [first, ...pairs] = a.positional;
@@ -104,4 +119,19 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     if (err instanceof ConvergenceError) return fail(err, 1);
     throw err;
   }
+}
+
+/** `helicoid calc ID --help`: what the calculator computes, from its spec. */
+function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
+  const q = (v: number, unit: string) => (unit ? formatQuantity(v, unit) : String(v));
+  const lines = [`${spec.id}: ${spec.title}`, "", spec.summary, "", "inputs (name=value with a unit; defaults in brackets):"];
+  for (const i of spec.inputs) {
+    const range = i.kind === "choice" && i.choices ? `one of ${i.choices.map((c) => `${c.value} (${c.label})`).join(", ")}` : `usual range ${q(i.min, i.unit)} to ${q(i.max, i.unit)}`;
+    lines.push(`  ${i.name.padEnd(12)} [${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
+  }
+  lines.push("", "outputs:");
+  for (const o of spec.outputs) lines.push(`  ${o.name.padEnd(16)} ${o.unit ? `[${o.unit}] ` : ""}${o.kind && o.kind !== "scalar" ? `(${o.kind}) ` : ""}${o.meaning}`);
+  if (spec.sweep?.over.length) lines.push("", `sweepable: ${spec.sweep.over.join(", ")} (--sweep NAME=FROM:TO:POINTS; default ${spec.sweep.points} points over the usual range)`);
+  lines.push("", `method: ${spec.method}`, "assumptions:", ...spec.assumptions.map((x) => `  - ${x}`), "sources:", ...spec.sources.map((x) => `  - ${x}`));
+  return lines.join("\n") + "\n";
 }

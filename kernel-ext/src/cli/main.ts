@@ -27,7 +27,7 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },
   lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
-  calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)" },
+  calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)", ownHelp: true },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
   fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields", ownHelp: true },
 };

@@ -147,6 +147,9 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
       dropped.push(r.line);
       continue;
     }
+    if (js !== null && !(vs > 0 && Number.isFinite(vs))) {
+      throw new InputError(`${src} line ${r.line}, column ${names[js]}`, r.cells[js], "a positive, finite standard deviation (drop the column if the errors are unknown)");
+    }
     x.push(vx * xScale);
     y.push(vy * yScale);
     if (sigma) sigma.push(vs * yScale);

@@ -83,7 +83,7 @@ describe("helicoid calc", () => {
     // Common practice, no source: a typo or a doubled argument must not be silently ignored or last-wins.
     let r = calc("wall", "--bogus");
     expect(r.status).toBe(2);
-    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --sweep/);
+    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --help, -h, --sweep/);
     // The usage shown on an error names every option.
     for (const o of ["--sweep NAME=FROM:TO:POINTS", "--json", "--list"]) expect(r.stderr).toContain(o);
     expect(r.stdout).toBe("");
@@ -112,4 +112,24 @@ describe("helicoid calc", () => {
     expect(err).toBe("helicoid calc: test solver did not converge: no bracket (evaluations: 7)\n");
     expect(JSON.parse(out)).toEqual({ id: "wall", status: "error", error: { type: "ConvergenceError", message: expect.stringMatching(/no bracket/), diagnostics: { evaluations: 7 } } });
   });
+
+  it("calc ID --help explains a calculator from its spec without running it", async () => {
+    // Common practice, no source: help text comes from the spec (the same meanings as the explorer).
+    const wallSpec = getCalculator("wall");
+    const r = spawnSync(process.execPath, [helicoidBin, "calc", "wall", "--help"], { encoding: "utf8" });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/^wall: 180-degree domain wall/);
+    for (const i of wallSpec.inputs) expect(r.stdout).toContain(`  ${i.name.padEnd(12)} [`);
+    for (const o of wallSpec.outputs) expect(r.stdout).toContain(o.meaning);
+    expect(r.stdout).toMatch(/usual range 5 pJ\/m to 30 pJ\/m/);
+    expect(r.stdout).toMatch(/^assumptions:/m);
+    expect(r.stdout).not.toMatch(/^ {2}out /m); // nothing was computed
+    const bad = spawnSync(process.execPath, [helicoidBin, "calc", "nosuch", "--help"], { encoding: "utf8" });
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/one of the catalogue ids: wall/);
+    const plain = spawnSync(process.execPath, [helicoidBin, "calc", "--help"], { encoding: "utf8" });
+    expect(plain.status).toBe(0);
+    expect(plain.stdout).toMatch(/helicoid calc ID --help/);
+  });
 });
+

@@ -41,4 +41,13 @@ describe("readProfileCsv", () => {
     expect(r.x[0]).toBeCloseTo(1e-9, 20);
     expect(r.x[1]).toBeCloseTo(3e-9, 20);
   });
+
+  it("a non-positive or infinite sigma is refused with its line in the file", () => {
+    // Common practice, no source: error reporting names the place in the user's file.
+    const text = "# invented scan\nx (nm),signal,sigma\n-1,0.5,0.1\n2,1.5,0\n3,1.1,0.1\n";
+    expect(() => readProfileCsv(text, { source: "cut.csv" })).toThrow(/cut\.csv line 4, column sigma = "0" is not valid: expected a positive, finite standard deviation/);
+    expect(() => readProfileCsv(text.replace(",0\n", ",-0.2\n"), { source: "cut.csv" })).toThrow(/line 4, column sigma = "-0\.2"/);
+    expect(() => readProfileCsv(text.replace(",0\n", ",Infinity\n"), { source: "cut.csv" })).toThrow(/line 4, column sigma/);
+  });
 });
+
