@@ -119,3 +119,16 @@ describe("helicoid charge: a directory or a missing file is bad input", () => {
     noTrace(r.stderr);
   });
 });
+
+describe("helicoid export of a notebook that was never run", () => {
+  // Common practice, no source: a page of code without results is allowed, and said.
+  it("writes the page, exits 0, and notes on stderr that there are no outputs", () => {
+    const nb = notebook("unrun.ipynb", "console.log(1)");
+    const out = join(dir, "unrun.html");
+    const r = helicoid(["export", nb, "-o", out]);
+    expect(r.status, r.stderr).toBe(0);
+    expect(existsSync(out)).toBe(true);
+    expect(r.stderr).toMatch(/note: .*unrun\.ipynb has no outputs \(it was not run\).*helicoid run/);
+  });
+});
+
