@@ -23,7 +23,7 @@
  */
 import { InputError } from "../errors.js";
 import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
-import { pivotedQr, inverseNormalFromQr, symmetricEigen } from "../numeric/denseLinalg.js";
+import { pivotedQr, inverseNormalFromQr, symmetricEigen, choleskyLower } from "../numeric/denseLinalg.js";
 import { gramMatrix } from "./gramMatrix.js";
 import { studentTQuantile, normalQuantile } from "./distributions.js";
 import { seededRandom } from "./prng.js";
@@ -490,25 +490,8 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
  * null when the smallest Cholesky pivot is below 1e-5 of the largest (condition > ~1e10: use QR).
  */
 function gramInverse(a: Float64Array, m: number, n: number): Float64Array | null {
-  const G = gramMatrix(a, m, n);
-  const L = new Float64Array(n * n);
-  let dmin = Infinity;
-  let dmax = 0;
-  for (let j = 0; j < n; j++) {
-    let d = G[j + j * n];
-    for (let k = 0; k < j; k++) d -= L[j + k * n] ** 2;
-    if (!(d > 0)) return null;
-    const l = Math.sqrt(d);
-    L[j + j * n] = l;
-    dmin = Math.min(dmin, l);
-    dmax = Math.max(dmax, l);
-    for (let i = j + 1; i < n; i++) {
-      let s = G[i + j * n];
-      for (let k = 0; k < j; k++) s -= L[i + k * n] * L[j + k * n];
-      L[i + j * n] = s / l;
-    }
-  }
-  if (dmin < 1e-5 * dmax) return null;
+  const L = choleskyLower(gramMatrix(a, m, n), n, 1e-5);
+  if (!L) return null;
   // inverse: solve L L^T X = I column by column
   const inv = new Float64Array(n * n);
   const y = new Float64Array(n);

@@ -26,7 +26,7 @@
  * Jacobian column, a maximum number of residual evaluations; and an AbortSignal-like stop flag
  * checked between evaluations (status "stopped").
  */
-import { pivotedQr, applyQt, solveDampedTriangular, solveUpperTransposed } from "../numeric/denseLinalg.js";
+import { pivotedQr, applyQt, solveDampedTriangular, solveUpperTransposed, choleskyLower } from "../numeric/denseLinalg.js";
 import { gramMatrix } from "./gramMatrix.js";
 
 export interface LmProblem {
@@ -103,24 +103,8 @@ function fastFactor(jac: Float64Array, m: number, free: number[], g: Float64Arra
   const G = gramMatrix(jac, m, nf, free);
   for (let a = 0; a < nf; a++) for (let b = 0; b <= a; b++) G[a + b * nf] /= cn[free[a]] * cn[free[b]];
   // Cholesky G = L L^T (lower, column-major)
-  const L = new Float64Array(nf * nf);
-  let dmin = Infinity;
-  let dmax = 0;
-  for (let j = 0; j < nf; j++) {
-    let d = G[j + j * nf];
-    for (let k = 0; k < j; k++) d -= L[j + k * nf] * L[j + k * nf];
-    if (!(d > 0)) return null;
-    const ljj = Math.sqrt(d);
-    L[j + j * nf] = ljj;
-    dmin = Math.min(dmin, ljj);
-    dmax = Math.max(dmax, ljj);
-    for (let i = j + 1; i < nf; i++) {
-      let s = G[i + j * nf];
-      for (let k = 0; k < j; k++) s -= L[i + k * nf] * L[j + k * nf];
-      L[i + j * nf] = s / ljj;
-    }
-  }
-  if (dmin < 1e-4 * dmax) return null;
+  const L = choleskyLower(G, nf, 1e-4);
+  if (!L) return null;
   // R = L^T diag(cn): R_ij = L_ji cn_j
   const r = new Float64Array(nf * nf);
   for (let i = 0; i < nf; i++) for (let j = i; j < nf; j++) r[i + j * nf] = L[j + i * nf] * cn[free[j]];

@@ -301,3 +301,31 @@ export function symmetricEigen(a: ArrayLike<number>, n: number): { values: Float
   });
   return { values, vectors };
 }
+
+/**
+ * Cholesky factor L (lower, column-major, G = L L^T) of a symmetric positive definite n x n
+ * column-major G (lower triangle read), or null when a pivot is not positive or the smallest
+ * diagonal of L is below minPivotRatio times the largest (a condition-number guard: cond(G) is
+ * about the square of that ratio's inverse). Common practice, no source.
+ */
+export function choleskyLower(G: ArrayLike<number>, n: number, minPivotRatio: number): Float64Array | null {
+  const L = new Float64Array(n * n);
+  let dmin = Infinity;
+  let dmax = 0;
+  for (let j = 0; j < n; j++) {
+    let d = G[j + j * n]!;
+    for (let k = 0; k < j; k++) d -= L[j + k * n]! * L[j + k * n]!;
+    if (!(d > 0)) return null;
+    const ljj = Math.sqrt(d);
+    L[j + j * n] = ljj;
+    dmin = Math.min(dmin, ljj);
+    dmax = Math.max(dmax, ljj);
+    for (let i = j + 1; i < n; i++) {
+      let s = G[i + j * n]!;
+      for (let k = 0; k < j; k++) s -= L[i + k * n]! * L[j + k * n]!;
+      L[i + j * n] = s / ljj;
+    }
+  }
+  return dmin < minPivotRatio * dmax ? null : L;
+}
+
