@@ -110,7 +110,7 @@ export interface ChernPartial {
   minGap: number[];
   hiddenClosing: boolean[];
   minLinkOverlap: number;
-  /** Fluxes of the strip's plaquettes per computed group, [(j - rowFrom) * n1 + i] (option map). */
+  /** Fluxes of the strip's plaquettes per group, [(j - rowFrom) * n1 + i] (option map; empty for a derived group). */
   flux?: Float64Array[];
   /** Band energies of the strip's rows, [((j - rowFrom) * n1 + i) * bands + b] (option energies). */
   energies?: Float64Array;
@@ -352,7 +352,8 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const maxFlux = new Float64Array(G);
   const minGap = new Float64Array(G).fill(Infinity);
   const hiddenClosing = new Array<boolean>(G).fill(false);
-  const fluxMaps = options.map ? groups.map(() => new Float64Array(n1 * stripRows)) : undefined;
+  // (a derived group's map is filled from its complement when the strips are combined)
+  const fluxMaps = options.map ? groups.map((_, gi) => new Float64Array(gi === derived ? 0 : n1 * stripRows)) : undefined;
   const gLo = Int32Array.from(groups.map((g) => g[0]!));
   const gK = Int32Array.from(groups.map((g) => g.length));
   const gapAt = (gi: number, E: Float64Array, i: number) => {
@@ -487,7 +488,7 @@ function combine(model: BlochModel, options: ChernOptions, setup: ChernSetup, pa
       maxFlux[gi] = Math.max(maxFlux[gi]!, p.maxFlux[gi]!);
       minGap[gi] = Math.min(minGap[gi]!, p.minGap[gi]!);
       hiddenClosing[gi] = hiddenClosing[gi]! || p.hiddenClosing[gi]!;
-      if (fluxMaps && p.flux) fluxMaps[gi]!.set(p.flux[gi]!, p.rowFrom * n1);
+      if (fluxMaps && p.flux && gi !== derived) fluxMaps[gi]!.set(p.flux[gi]!, p.rowFrom * n1);
     }
     minLinkOverlap = Math.min(minLinkOverlap, p.minLinkOverlap);
     if (energiesOut && p.energies) energiesOut.set(p.energies, p.rowFrom * n1 * n);
