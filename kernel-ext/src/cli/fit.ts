@@ -12,7 +12,7 @@
  */
 import { readFileSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, InputError, ConvergenceError } from "@helicoid/lib";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -97,7 +97,7 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     const quantity = (k: string, v: string) => {
       const unit = unitOf(k);
       const value = parseQuantity(k, v, unit);
-      if (unit && /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/.test(v)) inputNotes.push(`${k} = ${v.trim()} was given without a unit: read as ${formatQuantity(value, unit)} (SI ${unit})`);
+      if (unit && isPlainNumber(v)) inputNotes.push(`${k} = ${v.trim()} was given without a unit: read as ${formatQuantity(value, unit)} (SI ${unit})`);
       return value;
     };
     const start: Record<string, number> = guessStart(model, csv.x, csv.y);

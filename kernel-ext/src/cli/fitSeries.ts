@@ -17,7 +17,7 @@
  * the value and what was expected).
  */
 import { readFileSync } from "node:fs";
-import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
 
 export interface FitSeriesIo {
   stdout: (s: string) => void;
@@ -43,7 +43,7 @@ export function parseFilmOption(raw: string): Record<FilmKey, number> {
     const value = part.slice(k + 1).trim();
     // Film parameters span many decades in SI (Ms ~ 1e6 A/m, A ~ 1e-11 J/m): a bare number is
     // almost always a unit left out, so it is refused rather than read as SI.
-    if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(value)) {
+    if (isPlainNumber(value)) {
       throw new InputError(`--film ${name}`, value, `a quantity with its unit, e.g. ${name}=${{ Ms: "0.6MA/m", t: "1.5nm", A: "12pJ/m", D: "1.45mJ/m^2", Ku: "0.35MJ/m^3" }[name as FilmKey]} (a bare number would be ${value} ${FILM_KEYS[name as FilmKey]})`);
     }
     out[name as FilmKey] = parseQuantity(`--film ${name}`, value, FILM_KEYS[name as FilmKey]);

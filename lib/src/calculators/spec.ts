@@ -4,7 +4,7 @@
  * the command line (`helicoid calc`). Adding a calculator = one compute function + one spec.
  */
 import { InputError } from "../errors.js";
-import { formatQuantity, parseQuantity, type QuantityInput } from "../quantity/units.js";
+import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from "../quantity/units.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
 export interface InputSpec {
@@ -128,7 +128,7 @@ export function coerceInputs(spec: CalculatorSpec, raw: Record<string, QuantityI
       throw new InputError(input.name, given, "a whole number");
     }
     if (input.kind === "choice" && input.choices && !input.choices.some((c) => c.value === v)) {
-      throw new InputError(input.name, given, `one of ${input.choices.map((c) => `${c.value} (${c.label})`).join(", ")}`);
+      throw new InputError(input.name, given, choiceList(input));
     }
     out[input.name] = v;
   }
@@ -147,7 +147,12 @@ function choiceByLabel(input: InputSpec, given: string): number | undefined {
   if (exact) return exact.value;
   const starts = input.choices.filter((c) => c.label.toLowerCase().startsWith(g));
   if (starts.length === 1) return starts[0]!.value;
-  throw new InputError(input.name, given, `one of ${input.choices.map((c) => `${c.value} (${c.label})`).join(", ")}${starts.length > 1 ? ` ("${given}" starts ${starts.length} of the labels)` : ""}`);
+  throw new InputError(input.name, given, `${choiceList(input)}${starts.length > 1 ? ` ("${given}" starts ${starts.length} of the labels)` : ""}`);
+}
+
+/** "one of 0 (skyrmion), 1 (antiskyrmion), ..." for error messages. */
+function choiceList(input: InputSpec): string {
+  return `one of ${(input.choices ?? []).map((c) => `${c.value} (${c.label})`).join(", ")}`;
 }
 
 /** Values of a sweep: linear, or logarithmic when the swept input has a log scale. */
@@ -205,8 +210,6 @@ export function runCalculator(
   return result;
 }
 
-const BARE_NUMBER = /^\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*$/;
-
 /**
  * Notes on how the given inputs were read: a dimensional input typed as a bare number is read in
  * SI units (said, since "A=15" meant as pJ/m is a common slip), and a value more than 100 times
@@ -219,7 +222,7 @@ function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | un
     if (given === undefined || input.kind === "choice" || input.kind === "integer") continue;
     const v = inputs[input.name]!;
     // (angles are commonly typed as bare radians: no note for "rad")
-    if (input.unit && input.unit !== "rad" && typeof given === "string" && BARE_NUMBER.test(given)) {
+    if (input.unit && input.unit !== "rad" && typeof given === "string" && isPlainNumber(given)) {
       notes.push(`${input.name} = ${given.trim()} was given without a unit: read as ${v} ${input.unit} (SI)`);
     }
     const span = Math.max(Math.abs(input.min), Math.abs(input.max));

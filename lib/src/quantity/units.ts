@@ -34,6 +34,11 @@ export type QuantityInput = number | string;
 
 const plainNumber = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$/;
 
+/** True when a typed value is a bare number without a unit ("15", " 1.2e-3 "): read in SI units. */
+export function isPlainNumber(raw: string): boolean {
+  return plainNumber.test(raw);
+}
+
 const dimensionCache = new Map<string, Unit>();
 function referenceUnit(siUnit: string): Unit {
   let u = dimensionCache.get(siUnit);
