@@ -38,11 +38,10 @@ export async function parallelChernNumbers(model: TightBindingSpec | TightBindin
   const threads = threadsOpt ?? Math.max(1, cpus().length);
   if (!Number.isInteger(threads) || threads < 1 || threads > 64) throw new InputError("threads", threadsOpt, "a whole number from 1 to 64");
   const local = "spec" in model ? model : tightBindingModel(spec);
-  const n2 = chernOptions.n2 ?? chernOptions.n1 ?? 60;
-  const blocks = Number.isInteger(n2) && n2 >= 3 ? Math.min(threads, n2) : 1;
-  const edges = Array.from({ length: blocks + 1 }, (_, b) => Math.round((b * n2) / blocks));
   // Bad input throws here, in the calling thread, before any job is sent.
-  checkChernInput(local, chernOptions);
+  const { n2 } = checkChernInput(local, chernOptions);
+  const blocks = Math.min(threads, n2);
+  const edges = Array.from({ length: blocks + 1 }, (_, b) => Math.round((b * n2) / blocks));
   pool.ensure(blocks - 1);
   const jobs: Promise<ChernPartial>[] = [];
   for (let b = 1; b < blocks; b++) {

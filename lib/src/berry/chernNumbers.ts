@@ -154,10 +154,11 @@ export function combineChernStrips(model: BlochModel, options: ChernOptions, par
 
 /**
  * The input checks of chernNumbers alone (grid, groups, Hermiticity and periodicity at sample
- * points): throws the same InputError chernNumbers would, computes nothing else.
+ * points): throws the same InputError chernNumbers would, and returns the grid size.
  */
-export function checkChernInput(model: BlochModel, options: ChernOptions = {}): void {
-  chernSetup(model, options);
+export function checkChernInput(model: BlochModel, options: ChernOptions = {}): { n1: number; n2: number } {
+  const { n1, n2 } = chernSetup(model, options);
+  return { n1, n2 };
 }
 
 function chernSetup(model: BlochModel, options: ChernOptions): ChernSetup {
