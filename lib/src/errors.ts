@@ -27,7 +27,7 @@ export class InputError extends Error {
 }
 
 export class ConvergenceError extends Error {
-  override readonly name = "ConvergenceError";
+  override readonly name: string = "ConvergenceError";
   constructor(
     /** Which solver (and for what) failed. */
     readonly solver: string,
@@ -36,6 +36,20 @@ export class ConvergenceError extends Error {
     readonly diagnostics: Record<string, unknown> = {},
   ) {
     super(`${solver} did not converge: ${message}` + formatDiagnostics(diagnostics));
+  }
+}
+
+/**
+ * A computation that ended without a trustworthy answer although its inputs were valid: a result
+ * that is not a finite number, or a request whose estimated work or memory exceeds the budget.
+ * A kind of ConvergenceError, so every caller that treats a failed solver as "the computation
+ * failed" (exit status 1 on the command line) treats this the same way.
+ */
+export class ComputationError extends ConvergenceError {
+  override readonly name: string = "ComputationError";
+  constructor(what: string, message: string, diagnostics: Record<string, unknown> = {}) {
+    super(what, message, diagnostics);
+    this.message = `${what}: ${message}` + formatDiagnostics(diagnostics);
   }
 }
 

@@ -104,6 +104,12 @@ export const berryLoopSpec: CalculatorSpec = {
   ],
   sources: berrySources,
   method: "Van Oosterom-Strackee solid angle of the geodesic polygon; Wigner-D spin-S states and the discrete product of overlaps",
+  cost: (v, o) => {
+    // per vertex a rotated spin-S basis ((2S+1)^2 entries, O(2S) each), per m an overlap chain
+    const d = v.twoS! + 1, N = v.segments!, sweep = o.sweep?.points ?? 0;
+    const driver = N / 4000 > d / 13 ? "segments" : "twoS";
+    return { bytes: 16 * d * d * (N + 2) + 64 * N, steps: 20 * d * d * d * (N + sweep) + 50 * N, parameter: driver, what: `${N} loop vertices with ${d} x ${d} rotated spin states each` };
+  },
   compute: computeBerryLoop,
 };
 
@@ -186,6 +192,11 @@ export const chernSpec: CalculatorSpec = {
   ],
   sources: ["F. D. M. Haldane, PRL 61, 2015 (1988)", "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)"],
   method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux, gap vs band change per step); two-band eigenvectors in closed form",
+  cost: (v, o) => {
+    const g = v.grid!, sg = v.sweepGrid!, sweep = o.sweep?.points ?? 0;
+    const cells = g * g + sweep * sg * sg;
+    return { bytes: 200 * g * g + 80 * sg * sg, steps: 400 * cells, parameter: sweep * sg * sg > g * g ? "sweepGrid" : "grid", what: `${g}^2 k-points, plus ${sweep} sweep points of ${sg}^2` };
+  },
   compute: computeChern,
 };
 
@@ -253,6 +264,11 @@ export const magnonHallSpec: CalculatorSpec = {
     "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)",
   ],
   method: "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum",
+  limits: {
+    J: { above: 0, why: "a ferromagnetic exchange J/k_B" },
+    B: { above: 0, why: "a field that gaps the Goldstone magnon" },
+    T: { above: 0, why: "a temperature" },
+  },
   compute: computeMagnonHall,
 };
 
@@ -328,6 +344,11 @@ export const spinTunnelSpec: CalculatorSpec = {
   ],
   sources: ["A. Garg, EPL 22, 205 (1993)", "W. Wernsdorfer, R. Sessoli, Science 284, 133 (1999)"],
   method: "exact diagonalization of the P-symmetric and antisymmetric blocks (banded solver, double-double Rayleigh quotients), sign changes + Brent",
+  limits: {
+    D: { above: 0, why: "an easy-axis anisotropy D/k_B (the model needs an easy axis)" },
+    E: { above: 0, why: "a rhombic anisotropy E/k_B (with E = 0 the splitting has no quenching fields to find)" },
+    Bmax: { above: 0, why: "the largest field searched" },
+  },
   compute: computeSpinTunnel,
 };
 
@@ -388,6 +409,15 @@ export const easyPlaneSpec: CalculatorSpec = {
   assumptions: ["Single spin, no transverse anisotropy (Sz conserved), g = 2, thermal equilibrium."],
   sources: ["E. T. Whittaker, G. N. Watson, A Course of Modern Analysis (1927), ch. 21"],
   method: "exact Boltzmann sums; Poisson-resummed rotor form x + (pi / 2 beta D) theta'/theta",
+  limits: {
+    D: { above: 0, why: "an easy-plane anisotropy D/k_B" },
+    T: { above: 0, why: "a temperature" },
+  },
+  cost: (v, o) => {
+    // Boltzmann sums over the 2S+1 levels at each field, a few exponentials per level
+    const d = v.twoS! + 1, fields = (o.sweep?.points ?? 0) + 4;
+    return { bytes: 8 * (d + 4 * fields) + 8 * d, steps: 30 * d * fields, parameter: "twoS", what: `${d} levels at ${fields} fields` };
+  },
   compute: computeEasyPlane,
 };
 

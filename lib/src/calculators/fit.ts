@@ -91,6 +91,16 @@ export const wallFitCalculator: CalculatorSpec = {
     "J. More, Lecture Notes in Mathematics 630, 105 (1978): Levenberg-Marquardt",
   ],
   method: "Seeded synthetic data, Levenberg-Marquardt with analytic Jacobian, covariance (J^T W J)^-1 with the known sigma.",
+  limits: {
+    R: { above: 0, why: "a skyrmion radius" },
+    w: { above: 0, why: "a wall width" },
+    noise: { above: 0, why: "a noise standard deviation (it weights the fit)" },
+  },
+  cost: (v) => {
+    // Levenberg-Marquardt: a Jacobian of points x 5 and some tens of iterations over it
+    const n = v.points!;
+    return { bytes: 8 * n * 20, steps: 5 * 200 * 40 * n, parameter: "points", what: `${n} points, 5 parameters, up to ~200 iterations` };
+  },
   compute: computeWallFit,
 };
 

@@ -173,6 +173,11 @@ const skyrmionSpec: CalculatorSpec = {
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (energy functional, D_c)",
   ],
   method: "Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
   compute: computeSkyrmion,
 };
 
@@ -262,6 +267,11 @@ const profileSpec: CalculatorSpec = {
     "H.-B. Braun, PRB 50, 16501 (1994); F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (ansatz)",
   ],
   method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by nested Brent minimization.",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
   compute: computeProfile,
 };
 

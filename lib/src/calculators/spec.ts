@@ -3,7 +3,7 @@
  * One spec drives the kernel (`explore`, `table`), the browser widgets (controls, live plots) and
  * the command line (`helicoid calc`). Adding a calculator = one compute function + one spec.
  */
-import { InputError } from "../errors.js";
+import { ComputationError, InputError } from "../errors.js";
 import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from "../quantity/units.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
@@ -75,6 +75,46 @@ export interface ComputeOutput {
   notes?: string[];
 }
 
+/**
+ * A physical limit of an input, refused outside (unlike the slider range, which only informs):
+ * `{ above: 0, why: "a thickness" }` refuses t <= 0. `min`/`max` are inclusive, `above`/`below`
+ * exclusive.
+ */
+export interface InputLimit {
+  min?: number;
+  max?: number;
+  above?: number;
+  below?: number;
+  /** What the input is, in words, for the message ("a film thickness"). */
+  why: string;
+}
+
+/**
+ * The estimated cost of one request, before any of it is spent: `bytes` of memory at the peak and
+ * `steps` of elementary work (a flop, a cell visit, a matrix entry), with a word on what dominates.
+ */
+export interface ComputeCost {
+  bytes: number;
+  steps: number;
+  /** The input that drives the cost most (named in the refusal). */
+  parameter: string;
+  /** What dominates, in words ("n^2 = 1e18 cells of 3 components"). */
+  what: string;
+}
+
+/**
+ * The budget of one calculator request: about 2 GB of memory and about a minute of work on a
+ * 2-core laptop-class machine (1e10 elementary steps at a few ns each). Requests estimated above it
+ * are refused with the estimate, before any allocation.
+ */
+export const COMPUTE_BUDGET = { bytes: 2e9, steps: 1e10 } as const;
+
+/**
+ * Inputs further than this factor outside their usual (slider) range are refused as physically
+ * meaningless (A = 1e300 J/m, T = 1e-300 K); within it they are accepted, and beyond 100x noted.
+ */
+export const PLAUSIBLE_FACTOR = 1e6;
+
 export interface CalculatorSpec {
   id: string;
   title: string;
@@ -90,6 +130,10 @@ export interface CalculatorSpec {
   sources: string[];
   /** Method in a few words. */
   method: string;
+  /** Physical limits of inputs, by input name: refused outside (see InputLimit). */
+  limits?: Record<string, InputLimit>;
+  /** Estimated memory and work of a request (checked against COMPUTE_BUDGET before computing). */
+  cost?(inputs: InputValues, options: ComputeOptions): ComputeCost;
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;
 }
 
@@ -130,9 +174,95 @@ export function coerceInputs(spec: CalculatorSpec, raw: Record<string, QuantityI
     if (input.kind === "choice" && input.choices && !input.choices.some((c) => c.value === v)) {
       throw new InputError(input.name, given, choiceList(input));
     }
+    checkPhysical(spec, input, given, v);
     out[input.name] = v;
   }
   return out;
+}
+
+/**
+ * Refuse an input that no physics can mean: non-finite (a typed "1e309"), outside a declared
+ * physical limit (a negative thickness), or more than PLAUSIBLE_FACTOR outside its usual range
+ * (A = 1e300 J/m: a unit slip or nonsense; the computation would be meaningless or not finite).
+ */
+function checkPhysical(spec: CalculatorSpec, input: InputSpec, given: unknown, v: number): void {
+  const shown = given === undefined ? v : given;
+  const inUnit = (x: number) => (input.unit ? formatQuantity(x, input.unit) : String(x));
+  if (!Number.isFinite(v)) throw new InputError(input.name, shown, `a finite number${input.unit ? ` in ${input.unit}` : ""}`);
+  const lim = spec.limits?.[input.name];
+  if (lim) {
+    const bad =
+      (lim.min !== undefined && v < lim.min) || (lim.max !== undefined && v > lim.max) ||
+      (lim.above !== undefined && !(v > lim.above)) || (lim.below !== undefined && !(v < lim.below));
+    if (bad) {
+      const parts: string[] = [];
+      if (lim.above !== undefined) parts.push(`> ${inUnit(lim.above)}`);
+      if (lim.min !== undefined) parts.push(`>= ${inUnit(lim.min)}`);
+      if (lim.below !== undefined) parts.push(`< ${inUnit(lim.below)}`);
+      if (lim.max !== undefined) parts.push(`<= ${inUnit(lim.max)}`);
+      throw new InputError(input.name, shown, `${lim.why}: a value ${parts.join(" and ")}`);
+    }
+  }
+  if (input.kind === "choice") return;
+  const f = PLAUSIBLE_FACTOR;
+  const span = Math.max(Math.abs(input.min), Math.abs(input.max));
+  let far = false;
+  const positive = lim !== undefined && (lim.above === 0 || lim.min === 0);
+  if ((input.scale === "log" || positive) && input.min > 0) far = (v > 0 && v < input.min / f) || Math.abs(v) > f * input.max;
+  else far = span > 0 && Math.abs(v) > f * span;
+  if (far) {
+    throw new InputError(
+      input.name, shown,
+      `a value within a factor ${f.toExponential(0)} of the usual range ${inUnit(input.min)} to ${inUnit(input.max)} (outside it the model has no meaning: check the value${input.unit ? " and its unit" : ""})`,
+    );
+  }
+}
+
+/**
+ * Refuse a request whose estimated memory or work exceeds COMPUTE_BUDGET, naming the estimate and
+ * what dominates it, before anything is allocated.
+ */
+export function checkCost(spec: CalculatorSpec, inputs: InputValues, options: ComputeOptions): void {
+  if (!spec.cost) return;
+  const c = spec.cost(inputs, options);
+  const over: string[] = [];
+  if (!(c.bytes <= COMPUTE_BUDGET.bytes)) over.push(`about ${fmtBytes(c.bytes)} of memory (budget ${fmtBytes(COMPUTE_BUDGET.bytes)})`);
+  if (!(c.steps <= COMPUTE_BUDGET.steps)) over.push(`about ${c.steps.toExponential(1)} elementary steps (budget ${COMPUTE_BUDGET.steps.toExponential(0)}, about a minute)`);
+  if (over.length === 0) return;
+  throw new InputError(
+    c.parameter, inputs[c.parameter],
+    `a request within the budget: this one needs ${over.join(" and ")}`,
+    `Estimate: ${c.what}`,
+  );
+}
+
+function fmtBytes(b: number): string {
+  if (!Number.isFinite(b)) return "unbounded";
+  if (b >= 1e12) return `${(b / 1e12).toPrecision(3)} TB`;
+  if (b >= 1e9) return `${(b / 1e9).toPrecision(3)} GB`;
+  return `${(b / 1e6).toPrecision(3)} MB`;
+}
+
+/**
+ * A result must be finite to leave as "ok" or "warning": every scalar output a finite number,
+ * every array output finite numbers. Anything else is a computation that failed.
+ */
+function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): void {
+  for (const o of spec.outputs) {
+    const v = values[o.name];
+    if (v === undefined || typeof v === "string") continue;
+    if (typeof v === "number") {
+      if (!Number.isFinite(v)) throw new ComputationError(spec.id, `output ${o.name} (${o.meaning}) came out ${v}, not a finite number: the inputs are outside what the method can handle`);
+      continue;
+    }
+    if (!Array.isArray(v)) throw new ComputationError(spec.id, `output ${o.name} is neither a number, an array nor a text`);
+    for (let i = 0; i < v.length; i++) {
+      const x = v[i];
+      if (typeof x !== "number" || !Number.isFinite(x)) {
+        throw new ComputationError(spec.id, `output ${o.name}[${i}] (${o.meaning}) came out ${x}, not a finite number: the inputs are outside what the method can handle`);
+      }
+    }
+  }
 }
 
 /**
@@ -153,6 +283,20 @@ function choiceByLabel(input: InputSpec, given: string): number | undefined {
 /** "one of 0 (skyrmion), 1 (antiskyrmion), ..." for error messages. */
 function choiceList(input: InputSpec): string {
   return `one of ${(input.choices ?? []).map((c) => `${c.value} (${c.label})`).join(", ")}`;
+}
+
+/** A sweep's ends and count, checked like inputs (finite, within physical limits and plausible). */
+function checkSweep(spec: CalculatorSpec, sweep: NonNullable<ComputeOptions["sweep"]>): void {
+  const input = spec.inputs.find((i) => i.name === sweep.over);
+  if (!input) return; // sweepValues names the sweepable inputs
+  for (const [end, v] of [["from", sweep.from], ["to", sweep.to]] as const) {
+    try {
+      checkPhysical(spec, input, v, v);
+    } catch (err) {
+      if (err instanceof InputError) throw new InputError(`sweep ${end}`, v, `for ${input.name}, ${err.expected}`);
+      throw err;
+    }
+  }
 }
 
 /** Values of a sweep: linear, or logarithmic when the swept input has a log scale. */
@@ -182,13 +326,16 @@ export function runCalculator(
 ): CalculatorResult {
   const inputs = coerceInputs(spec, raw);
   const sweep = options.sweep ?? defaultSweep(spec, inputs);
+  if (sweep) checkSweep(spec, sweep);
   let computed: ComputeOutput;
   try {
+    checkCost(spec, inputs, sweep ? { sweep } : {});
     computed = spec.compute(inputs, sweep ? { sweep } : {});
   } catch (err) {
     if (!(err instanceof InputError)) throw err;
     throw explainComputeError(spec, raw, inputs, err);
   }
+  checkFinite(spec, computed.values);
   const outputs: CalculatorResult["outputs"] = {};
   for (const o of spec.outputs) {
     const v = computed.values[o.name];

@@ -1,4 +1,4 @@
-import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import type { CalculatorSpec, ComputeCost, ComputeOutput, InputValues } from "./spec.js";
 import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
 import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
@@ -66,6 +66,23 @@ export function fieldPreview(m: Float64Array, n: number, cell: number): { size: 
     }
   }
   return { size, cell: k * cell, m: out };
+}
+
+/**
+ * Cost of a demo texture: the field and its per-cell analyses (charge density, object labels,
+ * vortex plaquettes: a few hundred bytes and steps a cell) plus, for the skyrmion lattice, one
+ * object record per lattice site ((n cell / a)^2 sites: a = 1 pm on 128 nm is 1.9e10 of them).
+ */
+function textureCost(v: InputValues): ComputeCost {
+  const n = v.n!, cells = n * n;
+  const sites = v.kind === 3 ? (2 / Math.sqrt(3)) * ((n * v.cell!) / v.a!) ** 2 : 1;
+  const bytes = 400 * cells + 300 * sites;
+  const steps = 400 * cells + 100 * sites;
+  return {
+    bytes, steps,
+    parameter: sites > cells ? "a" : "n",
+    what: sites > cells ? `a skyrmion lattice of about ${sites.toExponential(1)} sites on ${n} x ${n} cells` : `${n} x ${n} cells with their analyses`,
+  };
 }
 
 function computeTexture(v: InputValues): ComputeOutput {
@@ -170,6 +187,13 @@ export const textureSpec: CalculatorSpec = {
     "N. Nagaosa, Y. Tokura, Nat. Nanotechnol. 8, 899 (2013) (vorticity and helicity)",
   ],
   method: "analytic texture generator; Berg-Luescher solid angles; central differences; reversed-core regions grown over the grid",
+  limits: {
+    cell: { above: 0, why: "a cell size" },
+    R: { above: 0, why: "a radius" },
+    w: { above: 0, why: "a wall width" },
+    a: { above: 0, why: "a lattice constant" },
+  },
+  cost: textureCost,
   compute: computeTexture,
 };
 

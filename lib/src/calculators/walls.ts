@@ -110,6 +110,11 @@ const wallSpec: CalculatorSpec = {
   assumptions: [...commonAssumptions, "Rigid Landau-Lifshitz profile; the Neel volume-charge cost uses that profile (collective coordinates)."],
   sources: wallSources,
   method: "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
   compute: computeWall,
 };
 
@@ -201,6 +206,11 @@ const wall360Spec: CalculatorSpec = {
   ],
   sources: ["H.-B. Braun, PRB 50, 16501 (1994)", ...wallSources.slice(0, 3)],
   method: "Closed-form ansatz energy (our derivation), minimized over (ln R, ln w) by restarted Nelder-Mead; exact 1D pair shown beside it.",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
   compute: computeWall360,
 };
 
@@ -250,6 +260,11 @@ const wallTypeSpec: CalculatorSpec = {
   assumptions: [...commonAssumptions, "Rigid profile of width Delta; only the Neel volume charges differ between Bloch and Neel walls."],
   sources: wallSources,
   method: "Minimize sigma(gamma) = sigma_0 - pi D cos gamma + C cos^2 gamma; C by quadrature of the thin-film kernel.",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
   compute: computeWallType,
 };
 

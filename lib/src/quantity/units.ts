@@ -64,7 +64,11 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
   if (typeof raw !== "string") {
     throw new InputError(name, raw, `a number in ${siUnit || "no unit"} or a string with a unit`);
   }
-  if (plainNumber.test(raw)) return Number(raw);
+  if (plainNumber.test(raw)) {
+    const v = Number(raw);
+    if (!Number.isFinite(v)) throw new InputError(name, raw, `a finite number in ${siUnit || "no unit"}`);
+    return v;
+  }
   const dimensionless = siUnit === "" || siUnit === "1";
   let parsed: Unit;
   try {

@@ -13,10 +13,13 @@ const wall = getCalculator("wall");
 
 describe("calculator input reading", () => {
   it("a bare number for a dimensional input is read as SI and said so; a far-off value is flagged", () => {
-    const bare = runCalculator(wall, { A: "15" });
-    expect(bare.inputs.A!.value).toBe(15);
-    expect(bare.notes.join("\n")).toMatch(/A = 15 was given without a unit: read as 15 J\/m \(SI\)/);
+    // 1e-8 J/m: a bare number, read in SI, 333 times the top of the usual range: accepted with notes
+    const bare = runCalculator(wall, { A: "1e-8" });
+    expect(bare.inputs.A!.value).toBe(1e-8);
+    expect(bare.notes.join("\n")).toMatch(/A = 1e-8 was given without a unit: read as 1e-8 J\/m \(SI\)/);
     expect(bare.notes.join("\n")).toMatch(/A = .* is far outside the usual range 5 pJ\/m to 30 pJ\/m/);
+    // "A=15" meant as pJ/m is 15 J/m in SI: a million times beyond the usual range, refused
+    expect(() => runCalculator(wall, { A: "15" })).toThrow(/A = "15" is not valid: expected a value within a factor 1e\+6 of the usual range 5 pJ\/m to 30 pJ\/m/);
     const typed = runCalculator(wall, { A: "15 pJ/m" });
     expect(typed.inputs.A!.value).toBeCloseTo(15e-12, 24);
     expect(typed.notes.join("\n")).not.toMatch(/without a unit|far outside/);
@@ -45,7 +48,7 @@ describe("calculator input reading", () => {
     expect(spin.parameter).toBe("twoS");
     expect(refused("easy-plane", { twoS: "0" }).parameter).toBe("twoS");
     const negative = refused("wall", { A: "-15pJ/m" });
-    expect(negative.message).toMatch(/A = "-15pJ\/m" is not valid.*\(A = -1\.5e-11 J\/m in SI\)/);
+    expect(negative.message).toMatch(/A = "-15pJ\/m" is not valid: expected an exchange stiffness: a value > 0 pJ\/m/);
   });
 
   it("choices by label and angles with units", () => {

@@ -101,10 +101,10 @@ describe("walls catalogue", () => {
   it("bad input: each error names the parameter, the value and the expectation", () => {
     for (const spec of wallCalculators) {
       const cases: Array<[string, unknown, RegExp]> = [
-        ["A", 0, /positive exchange/],
-        ["A", -15e-12, /positive exchange/],
-        ["Ms", 0, /positive saturation/],
-        ["t", 0, /positive film thickness/],
+        ["A", 0, /exchange stiffness: a value > 0/],
+        ["A", -15e-12, /exchange stiffness: a value > 0/],
+        ["Ms", 0, /saturation magnetization: a value > 0/],
+        ["t", 0, /film thickness: a value > 0/],
         ["A", "50 mT", /dimension of J\/m/],
         ["Ku", 0.3e6, /K_eff/],
       ];
