@@ -4,7 +4,10 @@
  */
 import { unit as mathUnit, createUnit, type Unit } from "mathjs";
 import { InputError } from "../errors.js";
-import { mu0 } from "./constants.js";
+import { mu0, h, kB, e } from "./constants.js";
+
+/** Speed of light in vacuum (exact in the SI), for wavenumbers as energies. */
+const c0 = 299792458;
 
 /**
  * Customary CGS units of the trade, added to mathjs once: oersted (Oe, with short prefixes: kOe),
@@ -64,6 +67,7 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
   if (typeof raw !== "string") {
     throw new InputError(name, raw, `a number in ${siUnit || "no unit"} or a string with a unit`);
   }
+  raw = asTyped(raw);
   if (plainNumber.test(raw)) {
     const v = Number(raw);
     if (!Number.isFinite(v)) throw new InputError(name, raw, `a finite number in ${siUnit || "no unit"}`);
@@ -90,6 +94,15 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
     if (!Number.isFinite(B)) throw new InputError(name, raw, "a finite field");
     return B;
   }
+  const asEnergy = energyScale(siUnit);
+  if (asEnergy !== undefined && parsed.value !== null) {
+    const v = energyInJoules(parsed);
+    if (v !== undefined) {
+      const si = v / asEnergy;
+      if (!Number.isFinite(si)) throw new InputError(name, raw, `a finite quantity in ${siUnit}`);
+      return si;
+    }
+  }
   if (!parsed.equalBase(ref)) {
     throw new InputError(
       name,
@@ -104,6 +117,41 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
   const v = parsed.toNumber(siUnit);
   if (!Number.isFinite(v)) throw new InputError(name, raw, `a finite quantity in ${siUnit}`);
   return v;
+}
+
+/**
+ * What we print, typed back: superscripts ("mJ/m²", "cm⁻¹"), the micro sign and the Greek mu
+ * ("µT", "μm"), the middle dot and the multiplication sign as products ("J·m", "kA/m·T"). mathjs
+ * reads the ASCII forms.
+ */
+function asTyped(raw: string): string {
+  return raw
+    .replace(/⁻/g, "^-").replace(/¹/g, "1").replace(/²/g, "^2").replace(/³/g, "^3")
+    .replace(/\^-\^?/g, "^-").replace(/\^\^/g, "^")
+    .replace(/[µμ]/g, "u").replace(/[·×]/g, " ");
+}
+
+/**
+ * Energies as researchers give them for spins and magnons: an input asked for in kelvin (E / k_B)
+ * or in joules accepts any energy (meV, ueV, J), a frequency (GHz: E = h f), a wavenumber
+ * (cm^-1: E = h c / lambda) or a temperature (K: E = k_B T). Returns joules per unit of `siUnit`.
+ */
+function energyScale(siUnit: string): number | undefined {
+  if (siUnit === "K") return kB;
+  if (siUnit === "J") return 1;
+  return undefined;
+}
+
+function energyInJoules(u: Unit): number | undefined {
+  if (u.equalBase(referenceUnit("J"))) {
+    // mathjs defines eV with a 2010 value; the 2019 SI fixes e exactly
+    const only = u.units.length === 1 && u.units[0]!.power === 1 ? u.units[0]!.unit.name : "";
+    return only === "eV" ? u.toNumber("eV") * e : u.toNumber("J");
+  }
+  if (u.equalBase(referenceUnit("K"))) return u.toNumber("K") * kB;
+  if (u.equalBase(referenceUnit("Hz"))) return u.toNumber("Hz") * h;
+  if (u.equalBase(referenceUnit("m^-1"))) return u.toNumber("m^-1") * h * c0;
+  return undefined;
 }
 
 /** Customary display units of the trade for each SI unit, largest first. */
@@ -126,9 +174,12 @@ const customary: Record<string, Array<[string, number]>> = {
 export function customaryUnit(value: number, siUnit: string): [string, number] {
   const options = customary[siUnit];
   if (!options) return [siUnit, 1];
-  if (options.length === 1) return options[0]!;
   const a = Math.abs(value);
-  if (a === 0 || !Number.isFinite(a)) return options.find(([, f]) => f === 1) ?? options[0]!;
+  // zero (and a non-number) has no size to choose a prefix by: the SI unit
+  if (a === 0 || !Number.isFinite(a)) return options.find(([, f]) => f === 1) ?? [siUnit, 1];
+  if (options.length === 1) return options[0]!;
+  // lengths of the trade: 0.1 nm and more in nm (an atomic spacing is 0.3 nm, not 300 pm)
+  if (siUnit === "m" && a >= 1e-10 * 0.9995 && a < 1e-9) return ["nm", 1e-9];
   for (const opt of options) if (a >= opt[1] * 0.9995) return opt;
   return options[options.length - 1]!;
 }
