@@ -30,6 +30,7 @@ import {
 } from "../dynamics/wallMotion.js";
 import { driftProfileOfFilm, thieleIntegrals, thieleVelocity } from "../dynamics/skyrmionDrift.js";
 import { ansatzProfile } from "../walls/skyrmionAnsatz.js";
+import { dmiHelicity } from "../walls/skyrmionEnergy.js";
 import {
   dropletModel,
   dropletStableRadius,
@@ -297,7 +298,7 @@ const wallTraceSpec: CalculatorSpec = {
 // ---------------------------------------------------------------- skyrmion drift
 
 const skyrmionInputs: InputSpec[] = [
-  ...filmInputs,
+  ...filmInputs.map((i) => (i.name === "D" ? { ...i, default: 2.5e-3 } : i)),
   { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: 0, max: 0.3, scale: "linear", meaning: "field along +z (background direction; the core points along -z)" },
   ...currentInputs.map((i) => (i.name === "j" ? { ...i, default: 1e11, max: 1e12 } : i.name === "thetaSH" ? { ...i, default: 0.1 } : i)).filter((i) => i.name !== "fieldLike"),
   {
@@ -321,46 +322,58 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
   const film = makeFilm({ Ms: v.Ms, A: v.A, Ku: v.Ku, D: v.D, t: v.t, dmi: "interfacial" });
   requirePerpendicular(film, "skyrmion drift");
   if (!(v.alpha! > 0)) throw new InputError("alpha", v.alpha, "a positive Gilbert damping");
+  if (!(v.P! >= 0 && v.P! <= 1)) throw new InputError("P", v.P, "a spin polarization from 0 to 1");
   const kind = v.profile === 1 ? "exact" : "ansatz";
-  const prof = driftProfileOfFilm(film, v.B!, kind);
-  const notes = [...prof.notes];
-  const base = { Ms: film.Ms, t: film.t, alpha: v.alpha!, Q: -1, helicity: prof.helicity, integrals: prof.integrals };
-  const drive = (j: number) => ({ u: spinDriftVelocity(j, v.P!, film.Ms), beta: v.beta!, BDL: spinOrbitField(j, v.thetaSH!, film.Ms, film.t) });
-  const here = thieleVelocity({ ...base, ...drive(v.j!) });
-  const stt = thieleVelocity({ ...base, u: spinDriftVelocity(v.j!, v.P!, film.Ms), beta: v.beta! });
-  const sot = thieleVelocity({ ...base, BDL: spinOrbitField(v.j!, v.thetaSH!, film.Ms, film.t) });
-  const unitForce = thieleVelocity({ ...base, force: [1e-15, 0] });
-  const values: ComputeOutput["values"] = {
-    radius: prof.radius,
-    helicity: prof.helicity,
-    charge: prof.integrals.charge,
-    dissipationIntegral: prof.integrals.dissipation,
-    dmiIntegral: prof.integrals.dmi,
-    gyrocoupling: here.gyrocoupling,
-    dissipation: here.dissipation,
-    vx: here.vx,
-    vy: here.vy,
-    speed: here.speed,
-    hallAngle: here.hallAngle,
-    hallAngleStt: stt.speed > 0 ? stt.hallAngle : 0,
-    hallAngleSot: sot.speed > 0 ? sot.hallAngle : 0,
-    forceHallAngle: unitForce.hallAngle,
-  };
-  // sweep over j
-  const jIn = skyrmionDriftSpec.inputs.find((i) => i.name === "j")!;
-  const sw = options.sweep ?? { over: "j", from: jIn.min, to: jIn.max, points: 60 };
-  const js = sweepValues(skyrmionDriftSpec, sw);
-  const vx: number[] = [], vy: number[] = [];
-  for (const j of js) {
-    const r = thieleVelocity({ ...base, ...drive(j) });
-    vx.push(r.vx);
-    vy.push(r.vy);
+  const notes: string[] = [];
+  let prof: ReturnType<typeof driftProfileOfFilm> | null = null;
+  try {
+    prof = driftProfileOfFilm(film, v.B!, kind);
+    notes.push(...prof.notes);
+  } catch (err) {
+    if (!(err instanceof InputError)) throw err;
+    notes.push(`No equilibrium skyrmion at these inputs (${err.message}); only the radius sweep (ansatz with w = Delta) is given.`);
   }
-  values.currents = js;
-  values.currentVx = vx;
-  values.currentVy = vy;
-  // against radius: the ansatz with the wall width of this film (w = Delta, or the solved w)
-  const w = Number.isFinite(prof.wallWidth) ? prof.wallWidth : wallWidthParameter(film);
+  const helicity = prof ? prof.helicity : dmiHelicity(film);
+  const base = { Ms: film.Ms, t: film.t, alpha: v.alpha!, Q: -1, helicity };
+  const drive = (j: number) => ({ u: spinDriftVelocity(j, v.P!, film.Ms), beta: v.beta!, BDL: spinOrbitField(j, v.thetaSH!, film.Ms, film.t) });
+  const values: ComputeOutput["values"] = { helicity };
+  if (prof) {
+    const integrals = prof.integrals;
+    const here = thieleVelocity({ ...base, integrals, ...drive(v.j!) });
+    const stt = thieleVelocity({ ...base, integrals, u: spinDriftVelocity(v.j!, v.P!, film.Ms), beta: v.beta! });
+    const sot = thieleVelocity({ ...base, integrals, BDL: spinOrbitField(v.j!, v.thetaSH!, film.Ms, film.t) });
+    const unitForce = thieleVelocity({ ...base, integrals, force: [1e-15, 0] });
+    Object.assign(values, {
+      radius: prof.radius,
+      charge: integrals.charge,
+      dissipationIntegral: integrals.dissipation,
+      dmiIntegral: integrals.dmi,
+      gyrocoupling: here.gyrocoupling,
+      dissipation: here.dissipation,
+      vx: here.vx,
+      vy: here.vy,
+      speed: here.speed,
+      hallAngle: here.speed > 0 ? here.hallAngle : 0,
+      hallAngleStt: stt.speed > 0 ? stt.hallAngle : 0,
+      hallAngleSot: sot.speed > 0 ? sot.hallAngle : 0,
+      forceHallAngle: unitForce.hallAngle,
+    });
+    const jIn = skyrmionDriftSpec.inputs.find((i) => i.name === "j")!;
+    const sw = options.sweep ?? { over: "j", from: jIn.min, to: jIn.max, points: 60 };
+    const js = sweepValues(skyrmionDriftSpec, sw);
+    const vx: number[] = [], vy: number[] = [];
+    for (const j of js) {
+      const r = thieleVelocity({ ...base, integrals, ...drive(j) });
+      vx.push(r.vx);
+      vy.push(r.vy);
+    }
+    values.currents = js;
+    values.currentVx = vx;
+    values.currentVy = vy;
+    if (prof.radius < 3e-9) notes.push(`R = ${(prof.radius * 1e9).toPrecision(3)} nm spans only a few atomic spacings: the continuum rigid-profile model is at its limit.`);
+  }
+  // against radius: the ansatz with the wall width of this film (the solved w, or Delta)
+  const w = prof && Number.isFinite(prof.wallWidth) ? prof.wallWidth : wallWidthParameter(film);
   const radii: number[] = [], hallR: number[] = [], forceR: number[] = [], speedR: number[] = [];
   for (let i = 0; i < 60; i++) {
     const R = w * 0.5 * Math.pow(60, i / 59);
@@ -376,7 +389,6 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
   values.radiusHallAngle = hallR;
   values.radiusForceHallAngle = forceR;
   values.radiusSpeed = speedR;
-  if (prof.radius < 3e-9) notes.push(`R = ${(prof.radius * 1e9).toPrecision(3)} nm spans only a few atomic spacings: the continuum rigid-profile model is at its limit.`);
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
@@ -419,7 +431,7 @@ const skyrmionDriftSpec: CalculatorSpec = {
     "Rigid axisymmetric skyrmion (no deformation or breathing), no pinning, T = 0, thin film; Thiele equation F + G (v - u) - D (alpha v - beta u) = 0.",
     "Profile from the 360-degree-wall ansatz (local magnetostatics) or the exact radial profile; the radius sweep keeps the ansatz wall width fixed.",
     "u = g muB P j / (2 e Ms) along +x (electron flow); damping-like spin-orbit field hbar theta_SH j / (2 e Ms t) with spin polarization +y.",
-    "Gyromagnetic ratio of the free electron. Defaults: the invented demo film HX-1 (not a real material).",
+    "Gyromagnetic ratio of the free electron. Defaults: the invented demo film HX-1 with D raised to 2.5 mJ/m^2 (not a real material).",
   ],
   sources: [
     "A. Thiele, PRL 30, 230 (1973)",
@@ -438,7 +450,7 @@ const skyrmionDriftSpec: CalculatorSpec = {
 const contactFilm = { Ms: 0.8e6, A: 13e-12, Ku: 0.65e6, t: 3e-9, alpha: 0.05 };
 
 const precessingInputs: InputSpec[] = [
-  { name: "Ms", symbol: "M_s", unit: "A/m", default: contactFilm.Ms, min: 0.4e6, max: 1.4e6, scale: "linear", meaning: "saturation magnetization (invented default)" },
+  { name: "Ms", symbol: "M_s", unit: "A/m", default: contactFilm.Ms, min: 0.4e6, max: 1.0e6, scale: "linear", meaning: "saturation magnetization (invented default)" },
   { name: "A", symbol: "A", unit: "J/m", default: contactFilm.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "exchange stiffness" },
   { name: "Ku", symbol: "K_u", unit: "J/m^3", default: contactFilm.Ku, min: 0.5e6, max: 2e6, scale: "linear", meaning: "uniaxial perpendicular anisotropy (K_eff > 0 needed)" },
   { name: "t", symbol: "t", unit: "m", default: contactFilm.t, min: 0.5e-9, max: 6e-9, scale: "linear", meaning: "free-layer thickness" },

@@ -268,7 +268,7 @@ export function dropletTrace(m: DropletModel, sigma: number, R0: number, duratio
     dy[0] = (r.dR / m.w) * NS;
     dy[1] = r.dPhi * NS;
   };
-  const tEval = Array.from({ length: points }, (_, i) => (T1 * i) / (points - 1));
+  const tEval = Array.from({ length: points }, (_, i) => (i === points - 1 ? T1 : (T1 * i) / (points - 1)));
   const sol = integrateDormandPrince(rhs, 0, [R0 / m.w, 0], T1, {
     rtol,
     atol: 1e-11,

@@ -390,7 +390,7 @@ export function wallTrace(m: WallMotionModel, drive: WallDrive, options: WallTra
   const phi0 = options.phiStart ?? wallEquilibriumAngle(m, { Bx: drive.Bx, By: drive.By, BFL: drive.BFL });
   const q0 = options.qStart ?? 0;
   const T1 = options.duration / NS;
-  const tEval = Array.from({ length: points }, (_, i) => (T1 * i) / (points - 1));
+  const tEval = Array.from({ length: points }, (_, i) => (i === points - 1 ? T1 : (T1 * i) / (points - 1)));
   const rhs = (_t: number, y: Float64Array, dy: Float64Array): void => {
     dy[0] = (trig2(qDot, y[1]!) / m.Delta) * NS;
     dy[1] = trig2(phiDot, y[1]!) * NS;
