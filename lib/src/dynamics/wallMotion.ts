@@ -68,7 +68,7 @@ import { type Film, requirePerpendicular, wallWidthParameter } from "../material
 import { neelWallChargeEnergy, type NeelChargeModel } from "../walls/wall180.js";
 import { brentRoot } from "../numeric/brentRoot.js";
 import { integrateDormandPrince, type OdeSolution } from "./dormandPrince.js";
-import { type Trig2, trig2, trig2Combine, trig2Extremes } from "./trig2.js";
+import { type Trig2, type Trig2Critical, trig2, trig2Combine, trig2Critical, trig2Extremes } from "./trig2.js";
 
 /** The parameters of the collective-coordinate wall, SI. */
 export interface WallMotionModel {
@@ -262,31 +262,58 @@ function maxAbs(p: Trig2): number {
   return Math.abs(p[0]) + Math.abs(p[1]) + Math.abs(p[2]) + Math.abs(p[3]) + Math.abs(p[4]);
 }
 
-/** Periodic trapezoid of 1/|g| and h/|g| with doubling; returns [Integral 1/|g|, Integral h/|g|, points]. */
-function periodIntegrals(g: Trig2, h: Trig2, relTol = 1e-13, maxPoints = 1 << 21): [number, number, number] {
-  let n = 64;
+/** cos and sin at the angles 2 pi (i + shift) / n, tabulated per (n, shift) up to n = 2^15 (1 MB in all). */
+const angleTables = new Map<number, { c: Float64Array; s: Float64Array }>();
+function angleTable(n: number, shift: number): { c: Float64Array; s: Float64Array } {
+  const key = 2 * n + (shift === 0 ? 0 : 1);
+  let t = angleTables.get(key);
+  if (!t) {
+    const c = new Float64Array(n);
+    const sn = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const phi = (2 * Math.PI * (i + shift)) / n;
+      c[i] = Math.cos(phi);
+      sn[i] = Math.sin(phi);
+    }
+    t = { c, s: sn };
+    if (n <= 1 << 15) angleTables.set(key, t);
+  }
+  return t;
+}
+
+/** Sums of 1/|g| and h/|g| over the tabulated angles of (n, shift). */
+function trapezoidSums(g: Trig2, h: Trig2, n: number, shift: number): [number, number] {
+  const { c, s } = angleTable(n, shift);
   let sT = 0;
   let sQ = 0;
   for (let i = 0; i < n; i++) {
-    const phi = (2 * Math.PI * i) / n;
-    const gi = Math.abs(trig2(g, phi));
+    const ci = c[i]!;
+    const si = s[i]!;
+    const c2 = ci * ci - si * si;
+    const s2 = 2 * si * ci;
+    const gi = Math.abs(g[0] + g[1] * ci + g[2] * si + g[3] * c2 + g[4] * s2);
+    const hi = h[0] + h[1] * ci + h[2] * si + h[3] * c2 + h[4] * s2;
     sT += 1 / gi;
-    sQ += trig2(h, phi) / gi;
+    sQ += hi / gi;
   }
+  return [sT, sQ];
+}
+
+/** Periodic trapezoid of 1/|g| and h/|g| with doubling; returns [Integral 1/|g|, Integral h/|g|, points]. */
+function periodIntegrals(g: Trig2, h: Trig2, relTol = 1e-13, maxPoints = 1 << 21): [number, number, number] {
+  let n = 64;
+  let [sT, sQ] = trapezoidSums(g, h, n, 0);
   let T = (2 * Math.PI * sT) / n;
   let Q = (2 * Math.PI * sQ) / n;
+  const hScale = 1e-12 * maxAbs(h);
   while (n < maxPoints) {
-    // add the midpoints
-    for (let i = 0; i < n; i++) {
-      const phi = (2 * Math.PI * (i + 0.5)) / n;
-      const gi = Math.abs(trig2(g, phi));
-      sT += 1 / gi;
-      sQ += trig2(h, phi) / gi;
-    }
+    const [aT, aQ] = trapezoidSums(g, h, n, 0.5); // the midpoints
+    sT += aT;
+    sQ += aQ;
     n *= 2;
     const Tn = (2 * Math.PI * sT) / n;
     const Qn = (2 * Math.PI * sQ) / n;
-    const done = Math.abs(Tn - T) <= relTol * Tn && Math.abs(Qn - Q) <= relTol * Math.max(Math.abs(Qn), 1e-12 * Math.abs(Tn) * maxAbs(h));
+    const done = Math.abs(Tn - T) <= relTol * Tn && Math.abs(Qn - Q) <= relTol * Math.max(Math.abs(Qn), hScale * Tn);
     T = Tn;
     Q = Qn;
     if (done) break;
@@ -302,39 +329,61 @@ export function wallMotion(m: WallMotionModel, drive: WallDrive, phiStart?: numb
   const { phiDot, qDot } = wallRates(m, drive);
   const phi0 = phiStart ?? wallEquilibriumAngle(m, drive.Bx !== undefined || drive.By !== undefined || drive.BFL !== undefined ? { Bx: drive.Bx, By: drive.By, BFL: drive.BFL } : {});
   if (!Number.isFinite(phi0)) throw new InputError("phiStart", phiStart, "a finite angle in rad");
-  const ex = trig2Extremes(phiDot);
+  const crit = trig2Critical(phiDot);
+  const ex = trig2Extremes(phiDot, crit);
   const steadyExists = ex.min <= 0 && ex.max >= 0;
   if (steadyExists) {
-    const g0 = trig2(phiDot, phi0);
-    let phi = phi0;
-    if (g0 !== 0) {
-      const dir = Math.sign(g0);
-      const n = 256;
-      const step = (2 * Math.PI) / n;
-      let a = phi0;
-      let ga = g0;
-      let found = false;
-      for (let i = 1; i <= n; i++) {
-        const b = phi0 + dir * step * i;
-        const gb = trig2(phiDot, b);
-        if (gb === 0 || Math.sign(gb) !== Math.sign(ga)) {
-          phi = gb === 0 ? b : brentRoot((x) => trig2(phiDot, x), Math.min(a, b), Math.max(a, b), { xtol: 1e-15 }).root;
-          found = true;
-          break;
-        }
-        a = b;
-        ga = gb;
-      }
-      if (!found) {
-        // A double zero (touching) between samples: the extremum itself is the fixed point.
-        phi = Math.abs(ex.min) < Math.abs(ex.max) ? ex.argMin : ex.argMax;
-      }
-    }
+    const phi = firstZeroAlongFlow(phiDot, phi0, crit);
     return { regime: "steady", velocity: trig2(qDot, phi), phi, period: Infinity, meanPhiRate: 0, quadraturePoints: 0 };
   }
   const [T, Q, n] = periodIntegrals(phiDot, qDot);
   const sgn = ex.min > 0 ? 1 : -1;
   return { regime: "precessing", velocity: Q / T, phi: NaN, period: T, meanPhiRate: (sgn * 2 * Math.PI) / T, quadraturePoints: n };
+}
+
+/**
+ * The rest angle the flow dphi/dt = g(phi) reaches from phi0: g is monotonic between consecutive
+ * critical points, so walking from phi0 along the flow through those points brackets the first zero
+ * exactly (Brent's method inside the bracket). Assumes g has a zero.
+ */
+function firstZeroAlongFlow(g: Trig2, phi0: number, crit: Trig2Critical[]): number {
+  const g0 = trig2(g, phi0);
+  if (g0 === 0) return phi0;
+  const dir = Math.sign(g0);
+  // critical angles unrolled to lie strictly after phi0 along dir, within one turn, in walking order
+  const twoPi = 2 * Math.PI;
+  const marks = crit.map((c) => {
+    let d = dir * (c.phi - phi0);
+    d = d - twoPi * Math.floor(d / twoPi);
+    if (d === 0) d = twoPi;
+    return d;
+  });
+  marks.sort((a, b) => a - b);
+  marks.push(twoPi);
+  let a = phi0;
+  let ga = g0;
+  for (const d of marks) {
+    const b = phi0 + dir * d;
+    const gb = trig2(g, b);
+    if (gb === 0) return b;
+    if (Math.sign(gb) !== Math.sign(ga)) {
+      const lo = Math.min(a, b);
+      const hi = Math.max(a, b);
+      return brentRoot((x) => trig2(g, x), lo, hi, { xtol: 1e-15 }).root;
+    }
+    a = b;
+    ga = gb;
+  }
+  // touching zero (a double root at an extremum): the extremum closest to zero is the rest angle
+  let best = phi0;
+  let bv = Infinity;
+  for (const c of crit) {
+    if (Math.abs(c.value) < bv) {
+      bv = Math.abs(c.value);
+      best = c.phi;
+    }
+  }
+  return best;
 }
 
 /** Velocity against B_z (T) for fixed other drives, with the Walker fields. */
@@ -347,8 +396,9 @@ export interface VelocityCurve {
 
 export function velocityFieldCurve(m: WallMotionModel, drive: WallDrive, fields: ArrayLike<number>, phiStart?: number): VelocityCurve {
   const out: VelocityCurve = { drive: [], velocity: [], precessing: [] };
+  const phi0 = phiStart ?? wallEquilibriumAngle(m, { Bx: drive.Bx, By: drive.By, BFL: drive.BFL });
   for (let i = 0; i < fields.length; i++) {
-    const r = wallMotion(m, { ...drive, Bz: fields[i]! }, phiStart);
+    const r = wallMotion(m, { ...drive, Bz: fields[i]! }, phi0);
     out.drive.push(fields[i]!);
     out.velocity.push(r.velocity);
     out.precessing.push(r.regime === "precessing" ? 1 : 0);
