@@ -28,8 +28,8 @@ import {
   type WallDrive,
   type WallMotionModel,
 } from "../dynamics/wallMotion.js";
-import { driftProfileOfFilm, thieleIntegrals, thieleVelocity } from "../dynamics/skyrmionDrift.js";
-import { ansatzProfile } from "../walls/skyrmionAnsatz.js";
+import { driftProfileOfFilm, thieleVelocity } from "../dynamics/skyrmionDrift.js";
+import { ansatzLocalIntegrals } from "../walls/skyrmionAnsatz.js";
 import { dmiHelicity } from "../walls/skyrmionEnergy.js";
 import {
   dropletModel,
@@ -377,7 +377,8 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
   const radii: number[] = [], hallR: number[] = [], forceR: number[] = [], speedR: number[] = [];
   for (let i = 0; i < 60; i++) {
     const R = w * 0.5 * Math.pow(60, i / 59);
-    const I = thieleIntegrals(ansatzProfile(R, w));
+    const L = ansatzLocalIntegrals(R / w); // the ansatz's own integrals: I = I_ex, I_D = w I_D(a)
+    const I = { dissipation: L.ex, dmi: w * L.D };
     const r = thieleVelocity({ ...base, integrals: I, ...drive(v.j!) });
     const rf = thieleVelocity({ ...base, integrals: I, force: [1e-15, 0] });
     radii.push(R);
@@ -504,7 +505,7 @@ function computePrecessing(v: InputValues): ComputeOutput {
   values.radiusFrequency = freq;
   values.thinWallFrequency = thin;
   values.balanceCurrent = balance;
-  const tr = dropletTrace(m, sigma, v.startRadius!, v.duration!, 301);
+  const tr = dropletTrace(m, sigma, v.startRadius!, v.duration!, 301, 1e-8);
   values.time = tr.t;
   values.traceRadius = tr.R;
   values.traceAngle = tr.Phi;

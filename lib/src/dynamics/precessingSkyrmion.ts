@@ -106,25 +106,28 @@ export interface DropletIntegrals {
 
 const GL = 10;
 
-/** The integrals by composite Gauss-Legendre (graded near the axis, panels 0.25 over the wall, a break at x_c). */
+/** The integrals by composite Gauss-Legendre (graded near the axis, unit panels over the wall, a break at x_c). */
 export function dropletIntegrals(a: number, xc: number): DropletIntegrals {
   if (!(a > 0) || !Number.isFinite(a)) throw new InputError("R", a, "a positive radius (in units of w)");
-  const lo = Math.max(0, a - 34);
-  const hi = a + 38;
+  // The integrands vary on the unit scale of x (poles of the sinh ratio at distance pi/2 from the real
+  // axis), so 10-point panels of width 1 are accurate to ~1e-15; beyond |x - a| > 20 they are below
+  // e^-40 of their peak (the saturated core and the far tail contribute nothing).
+  const lo = Math.max(0, a - 20);
+  const hi = a + 22;
   const breaks: number[] = [lo];
   if (lo === 0) {
     let x = Math.min(a, 1) / 256;
     while (x < Math.min(1, hi)) {
       breaks.push(x);
-      x *= 1.5;
+      x *= 2;
     }
   }
   let x = breaks[breaks.length - 1]!;
   while (x < hi) {
-    x = Math.min(hi, x + 0.25);
+    x = Math.min(hi, x + 1);
     breaks.push(x);
   }
-  if (xc > lo && xc < hi) {
+  if (xc > lo && xc < hi && !breaks.some((b) => Math.abs(b - xc) <= 1e-12 * hi)) {
     breaks.push(xc);
     breaks.sort((p, q) => p - q);
   }
@@ -206,7 +209,7 @@ export function dropletThreshold(m: DropletModel): DropletThreshold {
   const xc = m.rhoC / m.w;
   const aLo = 0.1;
   const aHi = Math.max(10, 4 * xc + 10);
-  const n = 120;
+  const n = 60;
   let best = Infinity;
   let bestI = -1;
   const as: number[] = [];
