@@ -99,7 +99,14 @@ export default async () => {
     checkP = Math.abs(lib.wallMotion(m, { Bz: 0.2 }).velocity / pp.v - 1);
   }
   const med = (a) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
+  const calcRows = [];
+  for (const id of ["wall-motion", "wall-current", "wall-trace", "skyrmion-drift", "precessing-skyrmion"]) {
+    const spec = lib.getCalculator(id);
+    const ms = await medianMs(() => lib.runCalculator(spec, {}), { runs: 7, warmup: 1 });
+    calcRows.push({ group: "dynamics", name: `${id} calculator on its defaults (what the explorer recomputes)`, ours_ms: ms, goal: "< 200 ms (slider stays live)" });
+  }
   return [
+    ...calcRows,
     {
       group: "dynamics",
       name: `wall velocity-field curve, 200 points with period integrals (max rel. diff to numpy ${check.toExponential(1)})`,

@@ -198,7 +198,7 @@ function wrapAngle(x: number): number {
 }
 
 /** Thresholds of a steady state along one drive parameter; [lower, upper], +-Infinity when unbounded. */
-export interface Thresholds {
+export interface WallThresholds {
   lower: number;
   upper: number;
 }
@@ -207,7 +207,7 @@ export interface Thresholds {
  * Walker fields: the range of B_z (T) with a steady state for the other drives as given (B_z of the
  * drive is ignored). Exact extremes over phi of the restoring term.
  */
-export function walkerFields(m: WallMotionModel, drive: WallDrive = {}): Thresholds & { phiUpper: number; phiLower: number } {
+export function walkerFields(m: WallMotionModel, drive: WallDrive = {}): WallThresholds & { phiUpper: number; phiLower: number } {
   const { phiDot } = wallRates(m, { ...drive, Bz: 0 });
   // (1 + alpha^2) phiDot = gamma B_z + R(phi)
   const k = 1 + m.alpha * m.alpha;
@@ -220,7 +220,7 @@ export function walkerFields(m: WallMotionModel, drive: WallDrive = {}): Thresho
  * Spin-transfer Walker thresholds: the range of u (m/s) with a steady state, for the drive's beta and
  * other drives (u of the drive ignored). Infinite when beta = alpha and nothing else breaks the balance.
  */
-export function walkerDriftVelocities(m: WallMotionModel, drive: WallDrive = {}): Thresholds {
+export function walkerDriftVelocities(m: WallMotionModel, drive: WallDrive = {}): WallThresholds {
   const beta = drive.beta ?? 0;
   const { phiDot } = wallRates(m, { ...drive, u: 0 });
   const k = 1 + m.alpha * m.alpha;
@@ -235,7 +235,7 @@ export function walkerDriftVelocities(m: WallMotionModel, drive: WallDrive = {})
 }
 
 /** Intrinsic pinning: the drift velocities u_c below which a wall with beta = 0 does not move (no field). */
-export function intrinsicPinningDrift(m: WallMotionModel, drive: WallDrive = {}): Thresholds {
+export function intrinsicPinningDrift(m: WallMotionModel, drive: WallDrive = {}): WallThresholds {
   return walkerDriftVelocities(m, { ...drive, Bz: 0, beta: 0, BDL: 0 });
 }
 
