@@ -90,6 +90,11 @@ export interface WallMotionModel {
   shapeField: number;
   /** Film thickness (m), for the spin-orbit field. */
   t: number;
+  /** Exchange stiffness (J/m) and effective anisotropy K_eff (J/m^3), for the breathing wall. */
+  A: number;
+  Keff: number;
+  /** Neel charge model used for C. */
+  chargeModel: NeelChargeModel;
 }
 
 export interface WallModelOptions {
@@ -111,7 +116,8 @@ export function wallMotionModel(film: Film, options: WallModelOptions = {}): Wal
   const p = options.polarity ?? 1;
   if (p !== 1 && p !== -1) throw new InputError("polarity", options.polarity, "+1 (up|down wall) or -1 (down|up wall)");
   const Delta = wallWidthParameter(film);
-  const C = neelWallChargeEnergy(film, options.chargeModel ?? "thin-film");
+  const chargeModel = options.chargeModel ?? "thin-film";
+  const C = neelWallChargeEnergy(film, chargeModel);
   return {
     Ms: film.Ms,
     Delta,
@@ -123,6 +129,9 @@ export function wallMotionModel(film: Film, options: WallModelOptions = {}): Wal
     dmiField: film.D / (film.Ms * Delta),
     shapeField: C / (film.Ms * Delta),
     t: film.t,
+    A: film.A,
+    Keff: requirePerpendicular(film, "wall dynamics"),
+    chargeModel,
   };
 }
 
@@ -497,4 +506,72 @@ export function wallMotionByIntegration(m: WallMotionModel, drive: WallDrive, ph
     chunk *= 2;
   }
   throw new InputError("drive", drive, "a drive for which phi either turns or comes to rest within the integration bound", "the integration neither found a full turn nor a rest state (at the edge of breakdown?)");
+}
+
+/** A time trace with the wall width as a third coordinate. */
+export interface BreathingWallTrace extends WallTrace {
+  /** Delta(t) (m). */
+  Delta: number[];
+}
+
+/**
+ * The wall with breathing width: q, phi and Delta(t) integrated together (Dormand-Prince 5(4)).
+ * With theta = 2 arctan exp(p (x - q) / Delta), the dissipation gains (alpha Ms / 2 gamma)(pi^2 / 6Delta)
+ * (dDelta/dt)^2 (Integral u^2 sech^2 u du = pi^2 / 6; the q-Delta cross term vanishes by parity), the
+ * gyrotropic term has no Delta, and sigma(Delta) = 2A / Delta + 2 Delta K_eff + C cos^2 phi
+ * - pi Delta Ms (B_x cos phi + B_y sin phi) + ..., so
+ *   dDelta/dt = -(6 gamma Delta / (alpha Ms pi^2)) [-2A / Delta^2 + 2 K_eff - pi Ms (B_x cos phi + B_y sin phi)],
+ * while (1), (2) of the header hold with the instantaneous Delta. C is the thin-film Neel charge
+ * energy (ln2 / pi) mu0 Ms^2 t, independent of Delta (the only model accepted here). Without in-plane
+ * fields Delta stays at sqrt(A / K_eff) and the rigid results are recovered exactly. Source: the
+ * breathing-wall coordinate of A. Thiaville, Y. Nakatani, J. Miltat, Y. Suzuki, EPL 69, 990 (2005)
+ * (from memory), rederived here.
+ */
+export function wallTraceBreathing(m: WallMotionModel, drive: WallDrive, options: WallTraceOptions & { DeltaStart?: number }): BreathingWallTrace {
+  if (m.chargeModel !== "thin-film") throw new InputError("chargeModel", m.chargeModel, "\"thin-film\" (the breathing wall uses the Delta-independent thin-film Neel charge energy)");
+  const d = driveOf(drive);
+  if (!(options.duration > 0) || !Number.isFinite(options.duration)) throw new InputError("duration", options.duration, "a positive finite time in s");
+  const points = options.points ?? 401;
+  if (!Number.isInteger(points) || points < 2 || points > 100000) throw new InputError("points", points, "a whole number from 2 to 100000");
+  const D0 = m.Delta;
+  const Dstart = options.DeltaStart ?? D0;
+  if (!(Dstart > 0)) throw new InputError("DeltaStart", options.DeltaStart, "a positive wall width in m");
+  const phi0 = options.phiStart ?? wallEquilibriumAngle(m, { Bx: drive.Bx, By: drive.By, BFL: drive.BFL });
+  const p = m.polarity;
+  const g = m.gamma;
+  const a = m.alpha;
+  const By = d.By + d.BFL;
+  const T1 = options.duration / NS;
+  const rhs = (_t: number, y: Float64Array, dy: Float64Array): void => {
+    const phi = y[1]!;
+    const De = y[2]! * D0;
+    const c = Math.cos(phi);
+    const sn = Math.sin(phi);
+    const dsig = -p * Math.PI * m.D * sn - m.C * 2 * sn * c + Math.PI * De * m.Ms * (d.Bx * sn - By * c);
+    const A1 = g * d.Bz + (p * d.beta * d.u) / De + (Math.PI / 2) * g * d.BDL * c;
+    const A2 = (p * d.u) / De + (g * dsig) / (2 * m.Ms * De);
+    const phiDot = (A1 - a * A2) / (1 + a * a);
+    const qDot = (p * De * (a * A1 + A2)) / (1 + a * a);
+    const dSdD = (-2 * m.A) / (De * De) + 2 * m.Keff - Math.PI * m.Ms * (d.Bx * c + By * sn);
+    const DDot = -((6 * g * De) / (a * m.Ms * Math.PI * Math.PI)) * dSdD;
+    dy[0] = (qDot / D0) * NS;
+    dy[1] = phiDot * NS;
+    dy[2] = (DDot / D0) * NS;
+  };
+  const tEval = Array.from({ length: points }, (_, i) => (i === points - 1 ? T1 : (T1 * i) / (points - 1)));
+  const sol = integrateDormandPrince(rhs, 0, [(options.qStart ?? 0) / D0, phi0, Dstart / D0], T1, {
+    rtol: options.rtol ?? 1e-10,
+    atol: options.atol ?? 1e-12,
+    tEval,
+    events: [{ g: (_t, y) => Math.sin((y[1]! - phi0) / 2) }],
+  });
+  return {
+    t: sol.t.map((x) => x * NS),
+    q: sol.y.map((y) => y[0]! * D0),
+    phi: sol.y.map((y) => y[1]!),
+    Delta: sol.y.map((y) => y[2]! * D0),
+    turnTimes: sol.tEvents[0]!.map((x) => x * NS),
+    turnPositions: sol.yEvents[0]!.map((y) => y[0]! * D0),
+    solution: { accepted: sol.accepted, rejected: sol.rejected, evaluations: sol.evaluations },
+  };
 }

@@ -11,6 +11,7 @@ import {
   wallMotionModel,
   wallTrace,
   velocityFieldCurve,
+  wallTraceBreathing,
   spinDriftVelocity,
   spinOrbitField,
 } from "../../../lib/src/dynamics/wallMotion.js";
@@ -285,5 +286,33 @@ print(json.dumps(out))
     expect(Math.abs(Bs[iMax]! - BW)).toBeLessThanOrEqual(4 * BW / 199);
     expect(gammaElectron).toBeGreaterThan(0);
     expect(mu0).toBeGreaterThan(0);
+  });
+
+  it("breathing width Delta(t): without in-plane field it stays at sqrt(A / K_eff) and reproduces the rigid trace; with B_x it settles at sqrt(A / (K_eff - pi Ms B_x cos phi / 2))", () => {
+    // Source: our derivation in wallMotion.ts (dsigma/dDelta = 0 at rest), after the breathing-wall
+    // coordinate of A. Thiaville et al., EPL 69, 990 (2005) (from memory). Closed-form rest width against
+    // the time integration.
+    const m = wallMotionModel(film0);
+    const drive = { Bz: 0.02 };
+    const rigid = wallTrace(m, drive, { duration: 2e-9, points: 41 });
+    const br = wallTraceBreathing(m, drive, { duration: 2e-9, points: 41 });
+    for (let i = 0; i < 41; i++) {
+      expect(Math.abs(br.q[i]! - rigid.q[i]!)).toBeLessThan(1e-8 * m.Delta * 100);
+      expect(Math.abs(br.phi[i]! - rigid.phi[i]!)).toBeLessThan(1e-7);
+      expect(Math.abs(br.Delta[i]! / m.Delta - 1)).toBeLessThan(1e-12);
+    }
+    const fD = makeFilm({ Ms: 1.1e6, A: 16e-12, Ku: 1.27e6, D: 1e-3, t: 0.6e-9, alpha: 0.5 });
+    const md = wallMotionModel(fD);
+    const Bx = -0.08;
+    const tr = wallTraceBreathing(md, { Bz: 0.01, Bx }, { duration: 5e-9, points: 11 });
+    const phiEnd = tr.phi[10]!;
+    const DeltaEnd = tr.Delta[10]!;
+    const expected = Math.sqrt(md.A / (md.Keff - (Math.PI * md.Ms * Bx * Math.cos(phiEnd)) / 2));
+    expect(Math.abs(DeltaEnd / expected - 1)).toBeLessThan(1e-8);
+    expect(Math.abs(DeltaEnd / md.Delta - 1)).toBeGreaterThan(1e-3);
+    // steady velocity gamma Delta B_z / alpha with the breathed width
+    const v = (tr.q[10]! - tr.q[9]!) / (tr.t[10]! - tr.t[9]!);
+    expect(Math.abs(v / ((md.gamma * DeltaEnd * 0.01) / md.alpha) - 1)).toBeLessThan(1e-6);
+    expect(() => wallTraceBreathing(wallMotionModel(fD, { chargeModel: "full-kernel" }), {}, { duration: 1e-9 })).toThrow(/chargeModel/);
   });
 });
