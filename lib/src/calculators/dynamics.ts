@@ -25,6 +25,7 @@ import {
   wallMotion,
   wallMotionModel,
   wallTrace,
+  wallTraceBreathing,
   type WallDrive,
   type WallMotionModel,
 } from "../dynamics/wallMotion.js";
@@ -83,7 +84,7 @@ const wallInputs: InputSpec[] = [
 ];
 
 const wallAssumptions = [
-  "Collective coordinates (position q, in-plane angle phi) of a rigid 180-degree wall, width Delta = sqrt(A / K_eff) fixed (no breathing).",
+  "Collective coordinates (position q, in-plane angle phi) of a rigid 180-degree wall, width Delta = sqrt(A / K_eff) fixed (wall-trace can add a breathing width Delta(t); the closed forms keep it fixed).",
   "Thin film, T = 0, no pinning or disorder; magnetostatics local through K_eff plus the Neel wall's shape anisotropy (demagnetizing factor N_x = t ln2 / (pi Delta)).",
   "Spin-transfer torque of Zhang and Li with u = g muB P j / (2 e Ms) along the electron flow; damping-like spin-orbit field mu0 H_DL = hbar theta_SH j / (2 e Ms t), spin polarization +y for theta_SH j > 0.",
   "Gyromagnetic ratio of the free electron, gamma = 1.76e11 rad/(s T). Defaults: the invented demo film HX-1 (not a real material).",
@@ -255,7 +256,9 @@ function computeWallTrace(v: InputValues): ComputeOutput {
   const values = scalarWallOutputs(s, v);
   const duration = v.duration!;
   if (!(duration > 0) || !Number.isFinite(duration)) throw new InputError("duration", duration, "a positive time in s");
-  const tr = wallTrace(s.model, s.drive, { duration, points: 401 });
+  const breathing = v.breathing === 1;
+  const tr = breathing ? wallTraceBreathing(s.model, s.drive, { duration, points: 401 }) : wallTrace(s.model, s.drive, { duration, points: 401 });
+  values.widthTrace = breathing ? (tr as ReturnType<typeof wallTraceBreathing>).Delta : tr.t.map(() => s.model.Delta);
   values.time = tr.t;
   values.position = tr.q;
   values.angle = tr.phi;
@@ -275,12 +278,28 @@ const wallTraceSpec: CalculatorSpec = {
   inputs: [
     ...wallInputs.map((i) => (i.name === "Bz" ? { ...i, default: 0.15 } : i)),
     { name: "duration", symbol: "t_{end}", unit: "s", default: 2e-9, min: 0.1e-9, max: 20e-9, scale: "log", meaning: "length of the time trace" },
+    {
+      name: "breathing",
+      symbol: "",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "rigid" },
+        { value: 1, label: "breathing" },
+      ],
+      meaning: "wall width fixed (rigid) or a third coordinate Delta(t) (breathing; changes only with in-plane fields)",
+    },
   ],
   outputs: [
     ...wallScalarOutputs,
     { name: "time", symbol: "t", unit: "s", kind: "array", meaning: "time" },
     { name: "position", symbol: "q", unit: "m", kind: "array", meaning: "wall position" },
     { name: "angle", symbol: "\\phi", unit: "rad", kind: "array", meaning: "in-plane angle of the wall moment (unwrapped)" },
+    { name: "widthTrace", symbol: "\\Delta(t)", unit: "m", kind: "array", meaning: "wall width against time (constant unless breathing)" },
     { name: "turns", symbol: "n", unit: "", meaning: "number of full turns of phi within the trace" },
     { name: "tracePeriod", symbol: "T", unit: "s", meaning: "time of the first full turn of phi (event)" },
     { name: "traceVelocity", symbol: "\\bar v", unit: "m/s", meaning: "advance over the first turn divided by its time (compare with velocity)" },
@@ -288,6 +307,7 @@ const wallTraceSpec: CalculatorSpec = {
   plots: [
     { id: "q", title: "Wall position q(t)", x: "time", y: ["position"] },
     { id: "phi", title: "Wall angle phi(t)", x: "time", y: ["angle"] },
+    { id: "width", title: "Wall width Delta(t)", x: "time", y: ["widthTrace"] },
   ],
   assumptions: wallAssumptions,
   sources: wallSources,
