@@ -7,6 +7,7 @@ export * from "./quantity/index.js";
 export * from "./material/index.js";
 export * from "./numeric/index.js";
 export * from "./walls/index.js";
+export * from "./dynamics/index.js";
 export * from "./topology/index.js";
 export * from "./berry/index.js";
 export * from "./fit/index.js";
