@@ -5,7 +5,7 @@
  * Magnetostatics enter locally through the thin-film shape anisotropy -mu0 Ms^2 / 2 (surface charges
  * of a uniform perpendicular film); non-local corrections belong to the wall and skyrmion modules.
  *
- * Conventions (see PHYSICS.md "Conventions"):
+ * Conventions (lib/src/README.md):
  * - Interfacial DMI energy density w = D [m_z div m - (m . grad) m_z]; bulk DMI w = D m . (curl m).
  *   For walls D > 0 (interfacial) makes the central moment of every Neel wall point toward the +z
  *   domain (helicity 0, see walls/wall180.ts); the sign is carried, |D| enters energies.
@@ -193,7 +193,7 @@ export function criticalDmi(f: Film): number {
  * Minimizing sigma(psi): pure Neel (|cos psi| = 1) once pi |D| >= 2C, i.e. |D| >= D_N = 2C / pi;
  * below, cos psi = D / D_N (an intermediate wall). Verified numerically (full kernel) in
  * test/lib/material/film.test.ts; the finite-thickness value is in walls/wallType.ts.
- * From memory (PHYSICS.md) and re-derived here.
+ * From memory (lib/src/material/README.md) and re-derived here.
  */
 export function neelThresholdDmi(f: Film): number {
   return (2 * Math.LN2 * mu0 * f.Ms * f.Ms * f.t) / (Math.PI * Math.PI);

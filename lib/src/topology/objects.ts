@@ -29,7 +29,7 @@
  * Closed form for checks: with m = (sin T cos Phi, sin T sin Phi, cos T), T(rho), Phi = v phi + gamma,
  *   m.(d_x m x d_y m) = (1/rho) m.(d_rho m x d_phi m) = (v / rho) T' sin T, so
  *   Q = (v / 2) [cos T(0) - cos T(inf)]   (-v for a core-down object in a +z background).
- * Sources: the definition of Q (PHYSICS.md; A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975));
+ * Sources: the definition of Q (lib/src/README.md; A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975));
  * vorticity and helicity as in N. Nagaosa, Y. Tokura, Nat. Nanotechnol. 8, 899 (2013) (from memory).
  */
 import { InputError } from "../errors.js";

@@ -3,7 +3,7 @@
  * periodic or open boundaries, vacuum masks, square or triangular lattices.
  *
  * Q = (1 / 4 pi) Sum_triangles Omega, with the triangulation and the formula in latticeKernel.ts.
- * Sign convention (PHYSICS.md): Q = (1/4 pi) Int m . (d_x m x d_y m) dx dy, so that with a +z
+ * Sign convention (lib/src/README.md): Q = (1/4 pi) Int m . (d_x m x d_y m) dx dy, so that with a +z
  * background a core-down skyrmion of vorticity +1 has Q = -1.
  * On a closed lattice (periodic both ways, no vacuum) Q is an exact integer up to rounding, because the
  * triangles then tile a closed surface whose image covers the sphere an integer number of times.

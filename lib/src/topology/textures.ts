@@ -1,6 +1,6 @@
 /**
  * Demo texture generators (for notebooks, tests and the `texture` calculator). They build analytic
- * textures on a grid; none is a simulation. Convention (PHYSICS.md): background along `background`
+ * textures on a grid; none is a simulation. Convention (lib/src/README.md): background along `background`
  * (+z by default), object cores opposite to it, in-plane angle Phi = v * phi + gamma around each
  * object centre (v = vorticity, gamma = helicity), polar angle from the background axis theta(rho).
  *

@@ -895,7 +895,7 @@ function profiledEnergy(ctx: Context, lna: number): number {
   return f(lw);
 }
 
-/** Wang-Yuan-Wang zero-field estimate R = pi D Delta / sqrt(16 A K_eff - pi^2 D^2) (m); From memory (PHYSICS.md). */
+/** Wang-Yuan-Wang zero-field estimate R = pi D Delta / sqrt(16 A K_eff - pi^2 D^2) (m); From memory (lib/src/material/README.md). */
 export function zeroFieldRadiusEstimate(film: Film): number {
   const K = requirePerpendicular(film, "the zero-field skyrmion radius estimate");
   const D = Math.abs(film.D);

@@ -1,7 +1,7 @@
 /**
  * Energy of an isolated axisymmetric skyrmion in a thin film, for any radial profile theta(rho).
  *
- * Conventions (PHYSICS.md): m = (sin theta cos(phi + psi), sin theta sin(phi + psi), cos theta),
+ * Conventions (lib/src/README.md): m = (sin theta cos(phi + psi), sin theta sin(phi + psi), cos theta),
  * background theta = 0 (+z), core theta(0) = pi (-z), vorticity +1 (skyrmion number Q = -1), helicity
  * psi; field B = mu0 H along +z (T). Energies are relative to the uniform +z film.
  *

@@ -24,7 +24,7 @@ const nm = 1e-9;
 
 describe("helicoid charge FILE [--json]", () => {
   it("a periodic skyrmion lattice in .npy: Q = -4 and four skyrmions at the generator's centres", async () => {
-    // Source: Q = -1 per core-down v = 1 skyrmion in +z (PHYSICS.md convention); lattice total = sum.
+    // Source: Q = -1 per core-down v = 1 skyrmion in +z (convention of lib/src/README.md); lattice total = sum.
     const f = skyrmionLatticeTexture({ nx: 64, ny: 64, dx: nm }, { a: 32 * nm, R: 7 * nm, w: 2 * nm });
     const path = join(dir, "lattice.npy");
     writeFileSync(path, writeNpyVectorField(f));

@@ -17,7 +17,7 @@ function check(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void 
 
 describe("texture calculator", () => {
   it("is in the catalogue and computes on its defaults: one Neel skyrmion, Q = -1", () => {
-    // Source: PHYSICS.md sign convention (core-down, v = +1, +z background: Q = -1); Berg-Luescher on a periodic grid.
+    // Source: sign convention of lib/src/README.md (core-down, v = +1, +z background: Q = -1); Berg-Luescher on a periodic grid.
     expect(getCalculator("texture")).toBe(textureSpec);
     const r = runCalculator(textureSpec);
     check(textureSpec, r);

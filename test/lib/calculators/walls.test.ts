@@ -59,7 +59,7 @@ describe("walls catalogue", () => {
     const r = runCalculator(spec, { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" });
     const Keff = 1.2e6 - (mu0 * 1.1e6 ** 2) / 2;
     const val = (n: string) => r.outputs[n]!.value as number;
-    // Source: PHYSICS.md "Walls and skyrmions" (Hubert and Schaefer 1998; Thiaville et al. 2012).
+    // Source: lib/src/walls/README.md (Hubert and Schaefer 1998; Thiaville et al. 2012).
     expect(val("width")).toBeCloseTo(Math.sqrt(15e-12 / Keff), 18);
     expect(val("energy")).toBeCloseTo(4 * Math.sqrt(15e-12 * Keff) - Math.PI * 1.5e-3, 12);
     expect(val("criticalDmi")).toBeCloseTo((4 * Math.sqrt(15e-12 * Keff)) / Math.PI, 12);

@@ -43,7 +43,7 @@ describe("CSV/TSV reader", () => {
   });
 
   it("round trip through our CSV writer keeps Q of a skyrmion", () => {
-    // Source: Q = -1 for a core-down v = 1 skyrmion in +z (PHYSICS.md convention).
+    // Source: Q = -1 for a core-down v = 1 skyrmion in +z (convention of lib/src/README.md).
     const f = skyrmionTexture({ nx: 24, ny: 20 }, { R: 5e-9, w: 1.5e-9 });
     const back = readDelimitedVectorField(writeCsvVectorField(f), { file: "sk.csv" }).field;
     expect([back.nx, back.ny]).toEqual([24, 20]);

@@ -25,7 +25,7 @@ describe("JSON vector-field form", () => {
   });
 
   it("round trip keeps the field and its charge", () => {
-    // Source: Q = +1 for a core-down antiskyrmion (v = -1) in +z (PHYSICS.md convention, closed form in objects.ts).
+    // Source: Q = +1 for a core-down antiskyrmion (v = -1) in +z (convention of lib/src/README.md, closed form in objects.ts).
     const f = antiskyrmionTexture({ nx: 20, ny: 20 }, { R: 5e-9, w: 1.5e-9 });
     const back = readJsonVectorField(vectorFieldToJson(f, { boundary: "periodic" }), { file: "rt.json" }).field;
     for (let k = 0; k < f.m.length; k++) expect(Math.abs(back.m[k]! - f.m[k]!)).toBeLessThan(1e-15);

@@ -81,7 +81,7 @@ describe("makeFilm", () => {
 describe("derived quantities", () => {
   const f = makeFilm(raw);
   it("match their closed forms", () => {
-    // Source: PHYSICS.md "Walls and skyrmions" (Hubert and Schaefer 1998; Thiaville et al. 2012).
+    // Source: lib/src/walls/README.md (Hubert and Schaefer 1998; Thiaville et al. 2012).
     const Kd = (mu0 * 1.1e6 ** 2) / 2;
     const Keff = 1.2e6 - Kd;
     expect(effectiveAnisotropy(f)).toBeCloseTo(Keff, 6);
@@ -90,7 +90,7 @@ describe("derived quantities", () => {
     expect(qualityFactor(f)).toBeCloseTo(1.2e6 / Kd, 12);
     expect(wallEnergy(f)).toBeCloseTo(4 * Math.sqrt(15e-12 * Keff), 12);
     expect(criticalDmi(f)).toBeCloseTo((4 * Math.sqrt(15e-12 * Keff)) / Math.PI, 12);
-    // From memory (PHYSICS.md, after Tarasenko et al. 1998): D_N = 2 ln2 mu0 Ms^2 t / pi^2.
+    // From memory (lib/src/material/README.md, after Tarasenko et al. 1998): D_N = 2 ln2 mu0 Ms^2 t / pi^2.
     expect(neelThresholdDmi(f)).toBeCloseTo((2 * Math.LN2 * mu0 * 1.1e6 ** 2 * 1e-9) / Math.PI ** 2, 15);
     // Source: Thiaville et al. (2012): zero-anisotropy spiral period 4 pi A / D.
     expect(spiralPeriod(f)).toBeCloseTo((4 * Math.PI * 15e-12) / 1.5e-3, 18);

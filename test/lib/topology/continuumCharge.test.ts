@@ -7,7 +7,7 @@ import { vectorFieldFromInterleaved } from "../../../lib/src/topology/field.js";
 describe("continuum finite-difference estimate of Q", () => {
   it("converges to the lattice integer at second order as the grid is refined", () => {
     // Source: central differences have O(h^2) truncation error (common practice, no source); the limit is Q = -1
-    // (PHYSICS.md sign convention).
+    // (sign convention of lib/src/README.md).
     const err: number[] = [];
     for (const n of [32, 64, 128]) {
       const h = 64 / n; // same physical texture, finer cells

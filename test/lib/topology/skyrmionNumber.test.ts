@@ -13,7 +13,7 @@ const nm = 1e-9;
 const grid = { nx: 96, ny: 96, dx: nm };
 
 // Closed form used below: Q = (v / 2) [cos T(0) - cos T(inf)] for m = (sin T cos(v phi + g), sin T sin(v phi + g), cos T);
-// derived in lib/src/topology/objects.ts from the definition of Q in PHYSICS.md (sign: core-down v = +1 in a +z
+// derived in lib/src/topology/objects.ts from the definition of Q in lib/src/README.md (sign: core-down v = +1 in a +z
 // background gives Q = -1). Source: N. Nagaosa, Y. Tokura, Nat. Nanotechnol. 8, 899 (2013) (from memory: the same
 // product of polarity and vorticity).
 describe("lattice skyrmion number: known charges of analytic textures (periodic, to 1e-9)", () => {

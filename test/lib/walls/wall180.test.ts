@@ -79,7 +79,7 @@ describe("180-degree wall energy", () => {
     for (const [f, g] of cases) {
       const e = energyFunctional(f, (x) => wallMagnetization(x, Delta, g), 40 * Delta, 4000);
       // Source: our derivation (module comment): interfacial -pi D cos(gamma), bulk -pi D sin(gamma);
-      // here checked against the PHYSICS.md energy densities evaluated numerically.
+      // here checked against the energy densities of lib/src/walls/README.md evaluated numerically.
       expect(e.dmi).toBeCloseTo(dmiWallEnergy(f, g), 12);
     }
     // D > 0, interfacial: the favoured Neel wall's central moment points toward the up domain (x < 0).
@@ -206,7 +206,7 @@ print(json.dumps(out))`,
   });
 
   it("minimizing over the helicity: Neel above D_N, intermediate below, Bloch without DMI or with bulk DMI", () => {
-    const thinDN = (2 * Math.LN2 * mu0 * film.Ms ** 2 * film.t) / Math.PI ** 2; // From memory (PHYSICS.md).
+    const thinDN = (2 * Math.LN2 * mu0 * film.Ms ** 2 * film.t) / Math.PI ** 2; // From memory (lib/src/material/README.md).
     for (const [D, expected] of [[0, "Bloch"], [0.5 * thinDN, "intermediate"], [1.01 * thinDN, "Neel"], [-3 * thinDN, "Neel"]] as const) {
       const f = makeFilm({ ...film, D });
       const w = equilibriumWall(f, "thin-film");

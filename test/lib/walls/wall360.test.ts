@@ -37,7 +37,7 @@ function energyFunctional(f: Film, m: (x: number) => number[], B: number, span: 
     ex += wgt * f.A * (dv[0]! ** 2 + dv[1]! ** 2 + dv[2]! ** 2);
     an += wgt * effectiveAnisotropy(f) * (1 - v[2]! ** 2);
     ze += wgt * f.Ms * B * (1 - v[2]!);
-    // Interfacial DMI density D [m_z d_x m_x - m_x d_x m_z] (PHYSICS.md conventions).
+    // Interfacial DMI density D [m_z d_x m_x - m_x d_x m_z] (conventions of lib/src/README.md).
     dmi += wgt * f.D * (v[2]! * dv[0]! - v[0]! * dv[2]!);
   }
   return { exchange: ex * h, anisotropy: an * h, zeeman: ze * h, dmi: dmi * h };
@@ -63,7 +63,7 @@ describe("360-degree wall ansatz energy", () => {
         const ours = wall360Energy(film, R, w, B, g);
         const num = energyFunctional(film, (x) => wall360Magnetization(x, R, w, g), B, R + 40 * w, 40000);
         // Source: the ansatz of H.-B. Braun, PRB 50, 16501 (1994); closed form derived in wall360.ts,
-        // checked here against direct quadrature of the PHYSICS.md energy densities.
+        // checked here against direct quadrature of the energy densities of lib/src/walls/README.md.
         expect(Math.abs(ours.exchange / num.exchange - 1)).toBeLessThan(1e-6);
         expect(Math.abs(ours.anisotropy / num.anisotropy - 1)).toBeLessThan(1e-6);
         expect(Math.abs(ours.zeeman / num.zeeman - 1)).toBeLessThan(1e-6);

@@ -9,7 +9,7 @@ describe("wall type", () => {
     const ts = [0.01e-9, 0.1e-9, 1e-9, 3e-9, 10e-9];
     const c = neelThresholdCurve(film, ts);
     ts.forEach((t, i) => {
-      // From memory (PHYSICS.md, after Tarasenko et al. 1998): D_N = 2 ln2 mu0 Ms^2 t / pi^2.
+      // From memory (lib/src/material/README.md, after Tarasenko et al. 1998): D_N = 2 ln2 mu0 Ms^2 t / pi^2.
       expect(c.thinFilm[i]).toBeCloseTo((2 * Math.LN2 * mu0 * film.Ms ** 2 * t) / Math.PI ** 2, 15);
       expect(c.fullKernel[i]!).toBeLessThan(c.thinFilm[i]!);
       if (i > 0) expect(c.fullKernel[i]!).toBeGreaterThan(c.fullKernel[i - 1]!);
