@@ -161,7 +161,11 @@ export class ChainSector {
   /** S_r (see header), > 0. */
   readonly stab: Float64Array;
   readonly dim: number;
-  /** Parent index (state, or its S^z rank) -> representative index, -1 if not a kept representative. */
+  /**
+   * Parent index (the state, or its S^z rank) -> code (index 2L + 2l + f) with state = T^l F^f r0 of
+   * the kept representative r0 = reps[index]; -1 for states of orbits not compatible with the sector.
+   * One table read replaces the search over the orbit (no hash table).
+   */
   private readonly lookup: Int32Array;
   private readonly ranker: HalfRanker | null;
   private readonly mask: number;
@@ -216,9 +220,16 @@ export class ChainSector {
     const visit = (s: number): void => {
       const st = this.orbitStabilizer(s);
       if (st > 1e-9) {
-        this.lookup[this.parentIndex(s)] = reps.length;
+        // every member T^l F^f s of the orbit points at (representative, l, f)
+        const index = reps.length;
         reps.push(s);
         stab.push(st);
+        let t = s;
+        for (let l = 0; l < this.L; l++) {
+          this.lookup[this.parentIndex(t)] = index * 2 * this.L + 2 * l;
+          if (this.useFlip) this.lookup[this.parentIndex((~t & this.mask) >>> 0)] = index * 2 * this.L + 2 * l + 1;
+          t = (((t << 1) & this.mask) | (t >>> (this.N - 1))) >>> 0;
+        }
       }
     };
     if (label.nUp === null) {
@@ -264,34 +275,20 @@ export class ChainSector {
   }
 
   /**
-   * Representative of the orbit of b: sets `found.index` (rep index or -1), `found.l`, `found.f`
+   * Representative of the orbit of b (one table read): sets `found.index` (rep index or -1), `found.l`, `found.f`
    * with b = T^l F^f r0.
    */
   find(b: number, found: { index: number; l: number; f: number }): void {
-    let best = b;
-    let bl = 0;
-    let bf = 0;
-    let t = b;
-    for (let l = 0; l < this.L; l++) {
-      if (t < best) {
-        best = t;
-        bl = l;
-        bf = 0;
-      }
-      if (this.useFlip) {
-        const f = (~t & this.mask) >>> 0;
-        if (f < best) {
-          best = f;
-          bl = l;
-          bf = 1;
-        }
-      }
-      t = this.rotateRight(t);
+    const code = this.lookup[this.parentIndex(b)]!;
+    if (code < 0) {
+      found.index = -1;
+      return;
     }
-    const pi = this.parentIndex(best);
-    found.index = pi >= 0 && pi < this.lookup.length ? this.lookup[pi]! : -1;
-    found.l = bl;
-    found.f = bf;
+    const L2 = 2 * this.L;
+    found.index = Math.floor(code / L2);
+    const r = code - found.index * L2;
+    found.l = r >> 1;
+    found.f = r & 1;
   }
 
   /** Character chi(T^l F^f): [re, im] written into out. */

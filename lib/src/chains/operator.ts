@@ -72,39 +72,55 @@ export class ChainHamiltonian implements SectorOperator {
     const found = { index: -1, l: 0, f: 0 };
     const chi = new Float64Array(2);
     const dim = this.dim;
-    if (!this.complex) {
-      for (let a = 0; a < dim; a++) w[a] = this.diag[a]! * v[a]!;
+    const reps = sec.reps;
+    const bonds = this.bonds;
+    const nb = bonds.length;
+    const half = this.model.Jperp / 2;
+    const fx = -this.model.hx / 2;
+    const N = this.model.N;
+    const sq = this.sqrtStab;
+    const cplx = this.complex;
+    if (!cplx) for (let a = 0; a < dim; a++) w[a] = this.diag[a]! * v[a]!;
+    else
       for (let a = 0; a < dim; a++) {
-        const va = v[a]!;
-        if (va === 0) continue;
-        const sa = this.sqrtStab[a]!;
-        this.offDiagonalTerms(sec.reps[a]!, (b, c) => {
-          sec.find(b, found);
-          if (found.index < 0) return;
-          sec.character(found.l, found.f, chi);
-          w[found.index] = w[found.index]! + ((c * chi[0]! * this.sqrtStab[found.index]!) / sa) * va;
-        });
+        w[2 * a] = this.diag[a]! * v[2 * a]!;
+        w[2 * a + 1] = this.diag[a]! * v[2 * a + 1]!;
       }
-      return;
-    }
+    const nTerms = nb + N;
     for (let a = 0; a < dim; a++) {
-      w[2 * a] = this.diag[a]! * v[2 * a]!;
-      w[2 * a + 1] = this.diag[a]! * v[2 * a + 1]!;
-    }
-    for (let a = 0; a < dim; a++) {
-      const vr = v[2 * a]!, vi = v[2 * a + 1]!;
+      const vr = cplx ? v[2 * a]! : v[a]!;
+      const vi = cplx ? v[2 * a + 1]! : 0;
       if (vr === 0 && vi === 0) continue;
-      const sa = this.sqrtStab[a]!;
-      this.offDiagonalTerms(sec.reps[a]!, (b, c) => {
+      const s = reps[a]!;
+      const inv = 1 / sq[a]!;
+      for (let t = 0; t < nTerms; t++) {
+        let b: number;
+        let c: number;
+        if (t < nb) {
+          if (half === 0) continue;
+          const mk = bonds[t]!;
+          const x = s & mk;
+          if (x === 0 || x === mk) continue;
+          b = (s ^ mk) >>> 0;
+          c = half;
+        } else {
+          if (fx === 0) break;
+          b = (s ^ (1 << (t - nb))) >>> 0;
+          c = fx;
+        }
         sec.find(b, found);
-        if (found.index < 0) return;
+        if (found.index < 0) continue;
         sec.character(found.l, found.f, chi);
-        const f = (c * this.sqrtStab[found.index]!) / sa;
-        const cr = f * chi[0]!, ci = f * chi[1]!;
-        const j = 2 * found.index;
-        w[j] = w[j]! + cr * vr - ci * vi;
-        w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
-      });
+        const f = c * sq[found.index]! * inv;
+        if (!cplx) {
+          w[found.index] = w[found.index]! + f * chi[0]! * vr;
+        } else {
+          const cr = f * chi[0]!, ci = f * chi[1]!;
+          const j = 2 * found.index;
+          w[j] = w[j]! + cr * vr - ci * vi;
+          w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
+        }
+      }
     }
   }
 
