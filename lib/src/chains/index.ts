@@ -4,3 +4,4 @@ export * from "./operator.js";
 export * from "./lanczos.js";
 export * from "./spectrum.js";
 export * from "./closedForms.js";
+export * from "./dynamics.js";

@@ -180,6 +180,7 @@ export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {
         re[j * size + i] = re[i * size + j]!;
         im[j * size + i] = -im[i * size + j]!;
       }
+      im[i * size + i] = 0; // <v|A v> is real for Hermitian A; drop the rounding
     }
     const eig = eigenHermitian(size, re, complex ? im : null, { vectors: true, tolerance: 1e-6 });
     const Sre = eig.vectorsRe!, Sim = eig.vectorsIm!;
