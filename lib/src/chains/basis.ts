@@ -166,12 +166,13 @@ export class ChainSector {
    * the kept representative r0 = reps[index]; -1 for states of orbits not compatible with the sector.
    * One table read replaces the search over the orbit (no hash table).
    */
-  private readonly lookup: Int32Array;
-  private readonly ranker: HalfRanker | null;
+  readonly lookup: Int32Array;
+  readonly ranker: HalfRanker | null;
   private readonly mask: number;
-  private readonly cosK: Float64Array;
-  private readonly sinK: Float64Array;
-  private readonly L: number;
+  readonly cosK: Float64Array;
+  readonly sinK: Float64Array;
+  /** Number of translations in the group (N on rings with momentum, else 1). */
+  readonly L: number;
   private readonly useFlip: boolean;
 
   constructor(N: number, label: SectorLabel, budgetBytes = 1.5e9, krylovVectors = 0) {

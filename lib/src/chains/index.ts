@@ -5,3 +5,4 @@ export * from "./lanczos.js";
 export * from "./spectrum.js";
 export * from "./closedForms.js";
 export * from "./dynamics.js";
+export * from "./wallBand.js";

@@ -69,8 +69,11 @@ export class ChainHamiltonian implements SectorOperator {
   apply(v: Float64Array, w: Float64Array): void {
     if (this.plain) return this.applyPlain(v, w);
     const sec = this.sector;
-    const found = { index: -1, l: 0, f: 0 };
-    const chi = new Float64Array(2);
+    const lookup = sec.lookup;
+    const ranker = sec.ranker;
+    const L2 = 2 * sec.L;
+    const cosK = sec.cosK, sinK = sec.sinK;
+    const odd = sec.label.flip === -1;
     const dim = this.dim;
     const reps = sec.reps;
     const bonds = this.bonds;
@@ -108,15 +111,19 @@ export class ChainHamiltonian implements SectorOperator {
           b = (s ^ (1 << (t - nb))) >>> 0;
           c = fx;
         }
-        sec.find(b, found);
-        if (found.index < 0) continue;
-        sec.character(found.l, found.f, chi);
-        const f = c * sq[found.index]! * inv;
+        // representative, translation and flip of b from the symmetry table (basis.ts)
+        const code = lookup[ranker ? ranker.rank(b) : b]!;
+        if (code < 0) continue;
+        const idx = (code / L2) | 0;
+        const rem = code - idx * L2;
+        const l = rem >> 1;
+        const sgn = rem & 1 && odd ? -1 : 1;
+        const f = c * sq[idx]! * inv * sgn;
         if (!cplx) {
-          w[found.index] = w[found.index]! + f * chi[0]! * vr;
+          w[idx] = w[idx]! + f * cosK[l]! * vr;
         } else {
-          const cr = f * chi[0]!, ci = f * chi[1]!;
-          const j = 2 * found.index;
+          const cr = f * cosK[l]!, ci = f * sinK[l]!;
+          const j = 2 * idx;
           w[j] = w[j]! + cr * vr - ci * vi;
           w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
         }
@@ -212,4 +219,21 @@ export function toComplex(v: Float64Array, complex: boolean): Float64Array {
   const out = new Float64Array(2 * v.length);
   for (let i = 0; i < v.length; i++) out[2 * i] = v[i]!;
   return out;
+}
+
+/**
+ * Terms of the total vector chirality kappa^z = sum_l (S^x_l S^y_{l+1} - S^y_l S^x_{l+1})
+ * = sum_l (i/2)(S^+_l S^-_{l+1} - S^-_l S^+_{l+1}) on a ring (translation invariant, q = 0).
+ */
+export function vectorChiralityTerms(N: number): TermGenerator {
+  return (a, emit) => {
+    for (let l = 0; l < N; l++) {
+      const r = (l + 1) % N;
+      const ul = (a >>> l) & 1, ur = (a >>> r) & 1;
+      if (ul === ur) continue;
+      const b = (a ^ (1 << l) ^ (1 << r)) >>> 0;
+      // l down, r up: S^+_l S^-_{l+1} acts, coefficient +i/2; l up, r down: -S^-_l S^+_{l+1}, -i/2
+      emit(b, 0, ul === 0 ? 0.5 : -0.5);
+    }
+  };
 }
