@@ -9,6 +9,7 @@ import { topologyCalculators } from "./topology.js";
 import { berryCalculators } from "./berry.js";
 import { skyrmionCalculators } from "./skyrmions.js";
 import { fitCalculators } from "./fit.js";
+import { chainCalculators } from "./chains.js";
 
 export const catalogue: readonly CalculatorSpec[] = [
   ...wallCalculators,
@@ -16,6 +17,7 @@ export const catalogue: readonly CalculatorSpec[] = [
   ...topologyCalculators,
   ...berryCalculators,
   ...fitCalculators,
+  ...chainCalculators,
 ];
 
 export function getCalculator(id: string): CalculatorSpec {

@@ -134,7 +134,7 @@ export function domainWallBand(p: WallParameters, K: number[]): WallBand {
 export const wallChiralitySign = 1;
 
 /** T = 0 two-wall continuum bounds at total momentum q (AFM; extremes over K and the two bands). */
-export function twoWallContinuum(p: WallParameters, q: number[], samples = 721): { lower: number[]; upper: number[] } {
+export function twoWallContinuum(p: WallParameters, q: number[], samples = 361): { lower: number[]; upper: number[] } {
   check(p);
   const lower: number[] = [], upper: number[] = [];
   for (const Q of q) {
@@ -158,7 +158,7 @@ export function twoWallContinuum(p: WallParameters, q: number[], samples = 721):
 }
 
 /** Villain intraband edge: max over K of |E(K) - E(K - q)| within the lower band (2 Jperp |sin q| at zero field). */
-export function villainEdge(p: WallParameters, q: number[], samples = 1441): number[] {
+export function villainEdge(p: WallParameters, q: number[], samples = 721): number[] {
   check(p);
   return q.map((Q) => {
     if (p.Jz > 0 && p.hx === 0) return 2 * Math.abs(p.Jperp * Math.sin(Q));
