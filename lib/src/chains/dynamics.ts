@@ -353,17 +353,22 @@ function thermalDsf(model: ChainModel, o: DsfOptions, T: number, comps: DsfCompo
   const chiralW: number[] = [];
   let dbWorst = 0;
   const elastic = 1e-9 * Math.max(1, Math.abs(e0));
-  const L = (x: number): number => o.eta / Math.PI / (x * x + o.eta * o.eta);
+  const omega = Float64Array.from(o.omega);
+  const nOmega = omega.length;
+  const etaPi = o.eta / Math.PI, eta2 = o.eta * o.eta;
+  // lines below this weight are dropped (selection rules make most elements vanish)
+  const lineCut = 1e-15;
+  const compA = comps.map((c) => (c === "chiral" ? 1 : "xyz".indexOf(c[0]!)));
+  const compB = comps.map((c) => (c === "chiral" ? 2 : "xyz".indexOf(c[1]!)));
+  const compChiral = comps.map((c) => c === "chiral");
+  const amp = new Float64Array(6), diagEl = new Float64Array(3);
   let done = 0;
   for (const n of qIdx) {
     const q = (2 * Math.PI * n) / N;
     qs.push(q);
-    const acc: Record<string, { re: Float64Array; im: Float64Array; w: number }> = {};
-    for (const c of comps) acc[c] = { re: new Float64Array(o.omega.length), im: new Float64Array(o.omega.length), w: 0 };
+    const acc = comps.map(() => ({ re: new Float64Array(o.omega.length), im: new Float64Array(o.omega.length), w: 0 }));
     let m1 = 0;
-    const neg: Record<string, number> = { xx: 0, yy: 0, zz: 0 };
-    const posB: Record<string, number> = { xx: 0, yy: 0, zz: 0 };
-    const tot: Record<string, number> = { xx: 0, yy: 0, zz: 0 };
+    const neg = new Float64Array(3), posB = new Float64Array(3), tot = new Float64Array(3);
     for (let m = 0; m < N; m++) {
       const src = secs[m]!;
       const dst = secs[(((m - n) % N) + N) % N]!;
@@ -375,55 +380,53 @@ function thermalDsf(model: ChainModel, o: DsfOptions, T: number, comps: DsfCompo
         for (let a = 0; a < 3; a++) applyBetweenSectors(src.sector, dst.sector, ops[a]!, src.vectors[i]!, w[a]!);
         for (let j = 0; j < dst.values.length; j++) {
           const dw = dst.values[j]! - src.values[i]!;
-          const amp: number[] = [];
           for (let a = 0; a < 3; a++) {
             dot(dst.vectors[j]!, w[a]!, true, c2);
-            amp.push(c2[0]!, c2[1]!);
+            amp[2 * a] = c2[0]!;
+            amp[2 * a + 1] = c2[1]!;
           }
-          // element (a, b): p conj(amp_a) amp_b
-          const el = (a: number, b: number): [number, number] => {
-            const ar = amp[2 * a]!, ai = amp[2 * a + 1]!, br = amp[2 * b]!, bi = amp[2 * b + 1]!;
-            return [p * (ar * br + ai * bi), p * (ar * bi - ai * br)];
-          };
-          const zz = el(2, 2)[0];
-          m1 += dw * zz;
-          for (const c of ["xx", "yy", "zz"] as const) {
-            const ix = "xyz".indexOf(c[0]!);
-            const v = el(ix, ix)[0];
-            tot[c]! += v;
+          // element (a, b) = p conj(amp_a) amp_b
+          for (let a = 0; a < 3; a++) {
+            const v = p * (amp[2 * a]! * amp[2 * a]! + amp[2 * a + 1]! * amp[2 * a + 1]!);
+            diagEl[a] = v;
+            tot[a] = tot[a]! + v;
             // lines between degenerate levels (|dw| at rounding level) are elastic: on neither side
-            if (dw < -elastic) neg[c]! += v;
-            else if (dw > elastic) posB[c]! += v * Math.exp(-dw / T);
+            if (dw < -elastic) neg[a] = neg[a]! + v;
+            else if (dw > elastic) posB[a] = posB[a]! + v * Math.exp(-dw / T);
           }
-          for (const c of comps) {
-            let re: number, im = 0;
-            if (c === "chiral") re = -2 * el(1, 2)[1];
-            else {
-              const [x, y] = c.split("").map((ch) => "xyz".indexOf(ch)) as [number, number];
-              [re, im] = el(x, y);
+          m1 += dw * diagEl[2]!;
+          for (let ci = 0; ci < comps.length; ci++) {
+            const x = compA[ci]!, y = compB[ci]!;
+            const ar = amp[2 * x]!, ai = amp[2 * x + 1]!, br = amp[2 * y]!, bi = amp[2 * y + 1]!;
+            let re = p * (ar * br + ai * bi);
+            let im = p * (ar * bi - ai * br);
+            if (compChiral[ci]) {
+              re = -2 * im;
+              im = 0;
             }
-            if (Math.abs(re) < 1e-300 && Math.abs(im) < 1e-300) continue;
-            const A = acc[c]!;
+            if (Math.abs(re) < lineCut && Math.abs(im) < lineCut) continue;
+            const A = acc[ci]!;
             A.w += re;
-            for (let t = 0; t < o.omega.length; t++) {
-              const l = L(o.omega[t]! - dw);
+            for (let t = 0; t < nOmega; t++) {
+              const x2 = omega[t]! - dw;
+              const l = etaPi / (x2 * x2 + eta2);
               A.re[t] = A.re[t]! + re * l;
-              if (im) A.im[t] = A.im[t]! + im * l;
+              if (im !== 0) A.im[t] = A.im[t]! + im * l;
             }
           }
         }
       }
     }
-    for (const c of comps) {
+    comps.forEach((c, ci) => {
       const ch = channels[c]!;
-      ch.re.push(acc[c]!.re);
-      if (ch.im) ch.im.push(acc[c]!.im);
-      ch.weight.push(acc[c]!.w);
-      if (c === "chiral") chiralW.push(acc[c]!.w);
-    }
+      ch.re.push(acc[ci]!.re);
+      if (ch.im) ch.im.push(acc[ci]!.im);
+      ch.weight.push(acc[ci]!.w);
+      if (c === "chiral") chiralW.push(acc[ci]!.w);
+    });
     exactM1.push(m1);
     formulaM1.push(-model.Jperp * (1 - Math.cos(q)) * bond + (model.hx / 2) * mx);
-    for (const c of ["xx", "yy", "zz"]) if (tot[c]! > 0) dbWorst = Math.max(dbWorst, Math.abs(neg[c]! - posB[c]!) / tot[c]!);
+    for (let a = 0; a < 3; a++) if (tot[a]! > 0) dbWorst = Math.max(dbWorst, Math.abs(neg[a]! - posB[a]!) / tot[a]!);
     done++;
     o.onProgress?.(done, qIdx.length);
   }
