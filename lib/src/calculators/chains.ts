@@ -23,6 +23,7 @@ import {
   wallDensity,
   wallTransverseMagnetization,
   wallValidityNotes,
+  wallChiralitySign,
 } from "../chains/wallBand.js";
 
 const chainSources = [
@@ -273,6 +274,7 @@ function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeO
     bandLower: band.lower,
     bandUpper: band.upper,
     chirality: band.chiralityLower,
+    chiralityUpUpWall: K.map((k) => (p.Jz > 0 ? Math.sin(2 * k) * wallChiralitySign : 0)),
     spinCurrent: band.spinCurrentLower,
     q,
   };
@@ -343,6 +345,7 @@ export const wallBandSpec: CalculatorSpec = {
     { name: "bandLower", symbol: "E_-(K)", unit: "K", kind: "array", meaning: "lower wall band" },
     { name: "bandUpper", symbol: "E_+(K)", unit: "K", kind: "array", meaning: "upper wall band" },
     { name: "chirality", symbol: "\\langle\\kappa^z\\rangle", unit: "", kind: "array", meaning: "vector chirality of the lower-band state" },
+    { name: "chiralityUpUpWall", symbol: "\\langle\\kappa^z\\rangle_{\\uparrow\\uparrow}", unit: "", kind: "array", meaning: "vector chirality of a pure up-up wall at K (the down-down wall carries the opposite; a transverse field mixes them)" },
     { name: "spinCurrent", symbol: "j^z", unit: "K", kind: "array", meaning: "spin current of the lower-band state (Jperp kappa^z)" },
     { name: "q", symbol: "q", unit: "rad", kind: "array", meaning: "momentum transfer" },
     { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "two-wall continuum, lower bound" },
@@ -355,7 +358,8 @@ export const wallBandSpec: CalculatorSpec = {
     { name: "sweepWallDensity", symbol: "n_w", unit: "", kind: "array", meaning: "wall density over the sweep" },
   ],
   plots: [
-    { id: "band", title: "Wall band and chirality", x: "K", y: ["bandLower", "bandUpper", "spinCurrent"] },
+    { id: "band", title: "Wall band", x: "K", y: ["bandLower", "bandUpper"] },
+    { id: "chirality", title: "Chirality and spin current of band states", x: "K", y: ["chiralityUpUpWall", "chirality", "spinCurrent"] },
     { id: "continuum", title: "Two-wall continuum and Villain edge", x: "q", y: ["continuumLower", "continuumUpper", "villainEdge"] },
     { id: "villain", title: "Villain line shape at q", x: "villainOmega", y: ["villainShape"] },
     { id: "sweep", title: "Chiral weight and wall density over the sweep", x: "sweepValues", y: ["sweepChiralWeight", "sweepWallDensity"] },
