@@ -83,7 +83,9 @@ export function energyInKelvin(name: string, raw: QuantityInput): number {
   const text = String(raw);
   for (const [unit, toKelvin] of [
     ["K", 1],
-    ["J", 1 / kB],
+    // energies go through eV so that the CODATA 2018 elementary charge is used (mathjs's own eV
+    // constant is an older value, 3e-8 relative off)
+    ["eV", eCharge / kB],
     ["Hz", planck / kB],
   ] as const) {
     try {
