@@ -8,7 +8,9 @@
  * vectors and the residual direction are kept, and the iteration continues from there
  * (K. Wu, H. Simon, SIAM J. Matrix Anal. Appl. 22, 602 (2000)). A Ritz pair (theta, y) has the
  * residual |A y - theta y| = beta_m |s_m|, which is the convergence test, so every reported level
- * comes with its residual.
+ * comes with its residual. A single start vector sees one copy of an exactly degenerate level
+ * inside a sector (copies appear only through rounding): use symmetry sectors, or `sectorDense` for
+ * small sectors, when multiplicities matter.
  *
  * `lanczosTridiagonal`: the plain three-term recursion from a start vector, without
  * re-orthogonalization, returning the coefficients a_n, b_n of the continued fraction
