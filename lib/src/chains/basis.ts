@@ -90,8 +90,8 @@ export class HalfRanker {
   readonly lowBits: number;
   readonly lowMask: number;
   readonly size: number;
-  private readonly base: Float64Array;
-  private readonly lowRank: Int32Array;
+  readonly base: Float64Array;
+  readonly lowRank: Int32Array;
   constructor(N: number, n: number) {
     this.N = N;
     this.n = n;

@@ -41,7 +41,7 @@ export interface LanczosProgress {
 export interface LanczosOptions {
   /** Number of lowest levels wanted (default 1). */
   levels?: number;
-  /** Krylov basis size before a restart (default min(dim, max(2 levels + 20, 40))). */
+  /** Krylov basis size before a restart (default 24 for one level, max(2 levels + 20, 40) for more). */
   krylov?: number;
   /** Relative residual tolerance |A y - theta y| <= tol max(1, |theta|) (default 1e-10). */
   tol?: number;
@@ -118,7 +118,7 @@ export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {
   const complex = op.complex;
   const len = complex ? 2 * dim : dim;
   const nev = Math.min(options.levels ?? 1, dim);
-  const m = Math.min(dim, options.krylov ?? Math.max(2 * nev + 20, 40));
+  const m = Math.min(dim, options.krylov ?? (nev === 1 ? 24 : Math.max(2 * nev + 20, 40)));
   const tol = options.tol ?? 1e-10;
   const maxMatvecs = options.maxMatvecs ?? 20000;
   const wantVectors = options.vectors ?? true;
@@ -149,7 +149,11 @@ export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {
       const w = new Float64Array(len);
       op.apply(V[j]!, w);
       matvecs++;
+      // classical Gram-Schmidt, repeated only when it removed most of w (the DGKS criterion:
+      // J. Daniel, W. Gragg, L. Kaufman, G. W. Stewart, Math. Comp. 30, 772 (1976))
+      const before = norm(w);
       for (let pass = 0; pass < 2; pass++) {
+        if (pass === 1 && norm(w) > 0.7071 * before) break;
         for (let i = 0; i <= j; i++) {
           dot(V[i]!, w, complex, c);
           axpy(-c[0]!, -c[1]!, V[i]!, w, complex);

@@ -141,8 +141,15 @@ export class ChainHamiltonian implements SectorOperator {
     const half = this.model.Jperp / 2;
     const fx = -this.model.hx / 2;
     const N = this.model.N;
-    const found = { index: -1, l: 0, f: 0 };
-    for (let a = 0; a < dim; a++) w[a] = this.diag[a]! * v[a]!;
+    const lookup = sec.lookup;
+    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] / 2 (no translations here)
+    const ranker = sec.ranker;
+    const base = ranker ? ranker.base : null;
+    const lowRank = ranker ? ranker.lowRank : null;
+    const lowBits = ranker ? ranker.lowBits : 0;
+    const lowMask = ranker ? ranker.lowMask : 0;
+    const diag = this.diag;
+    for (let a = 0; a < dim; a++) w[a] = diag[a]! * v[a]!;
     for (let a = 0; a < dim; a++) {
       const va = v[a]!;
       if (va === 0) continue;
@@ -153,16 +160,19 @@ export class ChainHamiltonian implements SectorOperator {
           const mk = bonds[i]!;
           const x = s & mk;
           if (x !== 0 && x !== mk) {
-            sec.find((s ^ mk) >>> 0, found);
-            w[found.index] = w[found.index]! + hv;
+            const b = (s ^ mk) >>> 0;
+            const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
+            const j = lookup[r]! >> 1;
+            w[j] = w[j]! + hv;
           }
         }
       }
       if (fx !== 0) {
         const fv = fx * va;
         for (let i = 0; i < N; i++) {
-          sec.find((s ^ (1 << i)) >>> 0, found);
-          if (found.index >= 0) w[found.index] = w[found.index]! + fv;
+          const b = (s ^ (1 << i)) >>> 0;
+          const code = lookup[base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b]!;
+          if (code >= 0) w[code >> 1] = w[code >> 1]! + fv;
         }
       }
     }

@@ -48,7 +48,7 @@ export function sectorLevels(
 ): SectorLevels {
   checkLabel(model, label);
   const levels = options.levels ?? 1;
-  const krylov = options.krylov ?? Math.max(2 * levels + 20, 40);
+  const krylov = options.krylov ?? (levels === 1 ? 24 : Math.max(2 * levels + 20, 40));
   const budget = options.memoryBudget ?? defaultMemoryBudget;
   const sector = new ChainSector(model.N, label, budget, krylov);
   const H = new ChainHamiltonian(model, sector);
