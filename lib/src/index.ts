@@ -13,3 +13,4 @@ export * from "./berry/index.js";
 export * from "./fit/index.js";
 export * from "./io/index.js";
 export * from "./calculators/index.js";
+export * from "./chains/index.js";

@@ -10,6 +10,7 @@ import { berryCalculators } from "./berry.js";
 import { skyrmionCalculators } from "./skyrmions.js";
 import { fitCalculators } from "./fit.js";
 import { dynamicsCalculators } from "./dynamics.js";
+import { chainCalculators } from "./chains.js";
 
 export const catalogue: readonly CalculatorSpec[] = [
   ...wallCalculators,
@@ -18,6 +19,7 @@ export const catalogue: readonly CalculatorSpec[] = [
   ...berryCalculators,
   ...fitCalculators,
   ...dynamicsCalculators,
+  ...chainCalculators,
 ];
 
 export function getCalculator(id: string): CalculatorSpec {

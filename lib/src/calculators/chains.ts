@@ -1,0 +1,377 @@
+/**
+ * Calculators of the quantum spin-chain domain (lib/src/chains): `chain-spectrum` (ED levels per
+ * momentum against the Bethe-ansatz values and the first-order wall picture), `chain-dynamics`
+ * (S(q, w) in the xx, yy, zz and chiral channels with its sum rules and the wall-continuum bounds)
+ * and `wall-band` (the first-order domain-wall band, chirality, Villain scattering and the chiral
+ * weight against T and hx; instant). Energies are E / k_B in kelvin (the chains library also reads
+ * meV and GHz with `energyInKelvin`); outputs repeat the headline energies in meV and GHz.
+ * The plot spec draws lines and markers only (no heatmap), so the S(q, w) map is returned as
+ * flattened arrays (row-major: q index, then w) next to cuts at q = pi and the bounds against q.
+ */
+import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import { requireWholeAtLeast, sweepValues } from "./spec.js";
+import { InputError } from "../errors.js";
+import { chainModel, kelvinToGHz, kelvinToMeV, ringLabel, type ChainModel } from "../chains/model.js";
+import { sectorLevels } from "../chains/spectrum.js";
+import { xxzGap, xxzGroundEnergyPerSite, transverseIsingRing } from "../chains/closedForms.js";
+import { dynamicStructureFactor } from "../chains/dynamics.js";
+import {
+  domainWallBand,
+  twoWallContinuum,
+  villainEdge,
+  villainLineShape,
+  wallDensity,
+  wallTransverseMagnetization,
+  wallValidityNotes,
+  wallChiralitySign,
+} from "../chains/wallBand.js";
+
+const chainSources = [
+  "R. Orbach, Phys. Rev. 112, 309 (1958)",
+  "J. des Cloizeaux, M. Gaudin, J. Math. Phys. 7, 1384 (1966)",
+  "J. Johnson, S. Krinsky, B. McCoy, Phys. Rev. A 8, 2526 (1973)",
+  "L. Hulthen, Ark. Mat. Astron. Fys. 26A, 1 (1938)",
+  "P. Pfeuty, Ann. Phys. 57, 79 (1970)",
+  "K. Wu, H. Simon, SIAM J. Matrix Anal. Appl. 22, 602 (2000) (thick-restart Lanczos)",
+];
+const wallSources = ["J. Villain, Physica B 79, 1 (1975)", "S. Ishimura, H. Shiba, Prog. Theor. Phys. 63, 743 (1980)"];
+
+const energyInput = (name: string, symbol: string, def: number, min: number, max: number, meaning: string) =>
+  ({ name, symbol, unit: "K", default: def, min, max, scale: "linear" as const, meaning: `${meaning} (E / k_B)` });
+
+const modelInputs = [
+  energyInput("Jz", "J_z", 10, -20, 20, "Ising exchange; > 0 antiferromagnet"),
+  energyInput("Jperp", "J_\\perp", 2, 0, 20, "transverse exchange"),
+  energyInput("hx", "h_x", 0, -10, 10, "transverse field, Zeeman energy g muB Bx"),
+  energyInput("hz", "h_z", 0, -10, 10, "longitudinal field, Zeeman energy g muB Bz"),
+];
+
+function modelFrom(v: InputValues, N: number, boundary: "periodic" | "open" = "periodic"): ChainModel {
+  return chainModel({ N, Jz: v.Jz!, Jperp: v.Jperp!, hx: v.hx!, hz: v.hz!, boundary });
+}
+
+function unitsText(label: string, eK: number): string {
+  return `${label} = ${eK.toPrecision(6)} K = ${(eK * kelvinToMeV).toPrecision(6)} meV = ${(eK * kelvinToGHz).toPrecision(6)} GHz`;
+}
+
+// ---------------------------------------------------------------- chain-spectrum
+function computeChainSpectrum(v: InputValues): ComputeOutput {
+  const N = requireWholeAtLeast(v, "N", 3, "sites");
+  if (N > 24) throw new InputError("N", N, "at most 24 sites in the calculator (the library takes larger N within its memory budget)");
+  const boundary = v.boundary === 1 ? "open" : "periodic";
+  const model = modelFrom(v, N, boundary);
+  const notes: string[] = [ringLabel(model)];
+  const levels = requireWholeAtLeast(v, "levels", 1, "levels per sector");
+  const periodic = boundary === "periodic";
+  const ms = periodic ? Array.from({ length: Math.floor(N / 2) + 1 }, (_, i) => i) : [null];
+  // S^z sectors: the lowest |S^z| and the next one when S^z is conserved; else the full space
+  const ups: Array<number | null> = model.hx === 0 ? [Math.ceil(N / 2), Math.ceil(N / 2) + 1].filter((u) => u <= N) : [null];
+  const kValues: number[] = [];
+  const lowest: number[] = [];
+  const second: number[] = [];
+  let e0 = Infinity;
+  const all: number[] = [];
+  for (const m of ms) {
+    let best = Infinity, next = Infinity;
+    for (const nUp of ups) {
+      const r = sectorLevels(model, { nUp, m, flip: 0 }, { levels, tol: 1e-10 });
+      all.push(...r.values);
+      for (const e of r.values) {
+        if (e < best) {
+          next = best;
+          best = e;
+        } else if (e < next) next = e;
+      }
+    }
+    kValues.push(m === null ? 0 : (2 * Math.PI * m) / N);
+    lowest.push(best);
+    second.push(Number.isFinite(next) ? next : best);
+    e0 = Math.min(e0, best);
+  }
+  all.sort((a, b) => a - b);
+  const gap = all.find((e) => e > e0 + 1e-9 * Math.max(1, Math.abs(e0))) ?? e0;
+  const values: ComputeOutput["values"] = {
+    groundEnergy: e0,
+    groundEnergyPerSite: e0 / N,
+    gapED: gap - e0,
+    summary: `${unitsText("E0", e0)}; lowest excitation in the computed sectors ${unitsText("dE", gap - e0)}`,
+    kValues,
+    levelLowest: lowest.map((e) => e - e0),
+    levelSecond: second.map((e) => e - e0),
+  };
+  if (model.hx !== 0) notes.push("hx != 0: S^z is not conserved; each momentum sector holds all S^z");
+  else notes.push(`S^z sectors computed: ${ups.map((u) => (u! - N / 2).toString()).join(", ")} (the lowest |S^z| and the next)`);
+  const Delta = model.Jperp > 0 ? model.Jz / model.Jperp : Infinity;
+  if (model.Jz > 0 && model.Jperp > 0 && Delta >= 1 && model.hx === 0 && model.hz === 0) {
+    values.e0BethePerSite = model.Jperp * xxzGroundEnergyPerSite(Delta);
+    if (Delta > 1) values.gapBethe = model.Jperp * xxzGap(Delta);
+    notes.push("Bethe-ansatz values are for the infinite chain; a ring of N sites approaches them exponentially fast in the gapped regime (Delta > 1), slowly (1/N^2) at Delta = 1");
+  }
+  if (model.Jperp === 0 && model.hz === 0 && periodic) {
+    values.e0TransverseIsing = transverseIsingRing(N, model.Jz, model.hx).E0;
+  }
+  if (model.Jz > 0 && periodic) {
+    const wp = { Jz: model.Jz, Jperp: model.Jperp, hx: model.hx, hz: model.hz };
+    if (N % 2 === 1) {
+      // one wall: first-order band on the ED scale (Neel reference and second-order background)
+      const ref = (-N * model.Jz) / 4 - (N * (model.Jperp ** 2 + model.hx ** 2)) / (4 * model.Jz) - e0;
+      values.wallBandFirstOrder = domainWallBand(wp, kValues).lower.map((e) => e + ref);
+      notes.push("odd ring: the lowest level at each k is the one-wall band; first-order band shifted by the Neel and second-order background energies");
+    } else {
+      const c = twoWallContinuum(wp, kValues);
+      values.continuumLower = c.lower;
+      values.continuumUpper = c.upper;
+      notes.push("even ring: the two-wall continuum bounds (first order) are drawn against k measured from the ground-state momentum");
+    }
+    notes.push(...wallValidityNotes(wp));
+  }
+  return { values, status: "ok", notes };
+}
+
+export const chainSpectrumSpec: CalculatorSpec = {
+  id: "chain-spectrum",
+  title: "Spin-1/2 XXZ chain: levels per momentum by exact diagonalization",
+  summary:
+    "Lowest levels of H = sum [Jz S^z S^z + Jperp (S^x S^x + S^y S^y)] - hx sum S^x - hz sum S^z on a ring or open chain of N spins 1/2, per momentum (and S^z when hx = 0), by Lanczos in symmetry sectors; against the Bethe-ansatz ground energy and gap, the transverse-field Ising closed form, and the first-order domain-wall band (odd rings) or two-wall continuum (even rings).",
+  inputs: [
+    { name: "N", symbol: "N", unit: "", default: 12, min: 4, max: 24, scale: "linear", kind: "integer", meaning: "number of sites (odd rings hold one domain wall)" },
+    ...modelInputs,
+    { name: "boundary", symbol: "\\text{bc}", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "ring" }, { value: 1, label: "open" }], meaning: "periodic ring or open chain" },
+    { name: "levels", symbol: "n_\\text{lev}", unit: "", default: 2, min: 1, max: 8, scale: "linear", kind: "integer", meaning: "Lanczos levels per sector" },
+  ],
+  outputs: [
+    { name: "groundEnergy", symbol: "E_0", unit: "K", meaning: "ground-state energy (E / k_B)" },
+    { name: "groundEnergyPerSite", symbol: "E_0/N", unit: "K", meaning: "ground-state energy per site" },
+    { name: "gapED", symbol: "\\Delta E", unit: "K", meaning: "lowest excitation among the computed sectors" },
+    { name: "e0BethePerSite", symbol: "e_0^{BA}", unit: "K", meaning: "Bethe-ansatz ground energy per site, infinite chain (Jz >= Jperp > 0, no field)" },
+    { name: "gapBethe", symbol: "\\Delta^{BA}", unit: "K", meaning: "Bethe-ansatz gap (two spinons), infinite chain" },
+    { name: "e0TransverseIsing", symbol: "E_0^{TFIM}", unit: "K", meaning: "closed-form ground energy of the transverse-field Ising ring (Jperp = 0)" },
+    { name: "summary", symbol: "", unit: "", kind: "text", meaning: "headline energies in K, meV and GHz" },
+    { name: "kValues", symbol: "k", unit: "rad", kind: "array", meaning: "momenta (rad per site)" },
+    { name: "levelLowest", symbol: "E_1(k) - E_0", unit: "K", kind: "array", meaning: "lowest level at each k above the ground state" },
+    { name: "levelSecond", symbol: "E_2(k) - E_0", unit: "K", kind: "array", meaning: "second level at each k" },
+    { name: "wallBandFirstOrder", symbol: "E_w(k)", unit: "K", kind: "array", meaning: "first-order one-wall band on the same scale (odd antiferromagnetic rings)" },
+    { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, lower bound (even rings)" },
+    { name: "continuumUpper", symbol: "\\omega_+(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, upper bound (even rings)" },
+  ],
+  plots: [
+    { id: "levels", title: "Levels per momentum", x: "kValues", y: ["levelLowest", "levelSecond", "wallBandFirstOrder", "continuumLower", "continuumUpper"], mode: "markers" },
+  ],
+  assumptions: [
+    "Spin-1/2 XXZ chain with nearest-neighbour exchange only; fields are Zeeman energies g muB B along x and z.",
+    "Levels are Lanczos Ritz values with residual below 1e-10 relative; sectors: momentum on rings, S^z when hx = 0.",
+    "Bethe-ansatz and wall-band values are for the infinite chain (thermodynamic limit) and first order in Jperp, hx respectively.",
+  ],
+  sources: chainSources,
+  method: "exact diagonalization in symmetry sectors (combinatorial ranking, matrix-free H, thick-restart Lanczos)",
+  compute: computeChainSpectrum,
+};
+
+// ---------------------------------------------------------------- chain-dynamics
+function computeChainDynamics(v: InputValues): ComputeOutput {
+  const N = requireWholeAtLeast(v, "N", 4, "sites");
+  if (N > 16) throw new InputError("N", N, "at most 16 sites for S(q, w) in the calculator (use the wall-band calculator beyond)");
+  const model = modelFrom(v, N);
+  const T = v.T!;
+  if (T > 0 && N > 12) throw new InputError("N", N, "at most 12 sites at T > 0 (full spectrum)");
+  const points = requireWholeAtLeast(v, "points", 8, "energy points");
+  if (points > 2000) throw new InputError("points", points, "at most 2000 energy points");
+  if (!(v.omegaMax! > 0)) throw new InputError("omegaMax", v.omegaMax, "a positive largest energy transfer");
+  // T = 0: 0..omegaMax; T > 0 also negative transfers (detailed balance)
+  const lo = T > 0 ? -v.omegaMax! : 0;
+  const omega = Array.from({ length: points }, (_, i) => lo + ((v.omegaMax! - lo) * i) / (points - 1));
+  const r = dynamicStructureFactor(model, { T, eta: v.eta!, omega, components: ["xx", "yy", "zz", "chiral"] });
+  const iPi = r.qIndex.length - 1;
+  const flat = (rows: Float64Array[]) => rows.flatMap((row) => Array.from(row));
+  const notes = [ringLabel(model), ...r.notes, "the S(q, w) maps are flattened row-major (q index, then w): the plot spec has no heatmap, so cuts at q = pi are plotted"];
+  const values: ComputeOutput["values"] = {
+    qValues: r.q,
+    omega,
+    mapZZ: flat(r.channels.zz!.re),
+    mapXX: flat(r.channels.xx!.re),
+    mapYY: flat(r.channels.yy!.re),
+    mapChiral: flat(r.channels.chiral!.re),
+    cutZZ: Array.from(r.channels.zz!.re[iPi]!),
+    cutXX: Array.from(r.channels.xx!.re[iPi]!),
+    cutChiral: Array.from(r.channels.chiral!.re[iPi]!),
+    totalWeightZZ: r.sumRules.totalWeight.zz ?? 0,
+    magnetizationX: r.mx,
+    chiralWeight: r.sumRules.chiralWeight!.exact[0]!,
+    fSumDeviation: Math.max(...r.sumRules.firstMomentZZ!.exact.map((e, i) => Math.abs(e - r.sumRules.firstMomentZZ!.formula[i]!))),
+  };
+  if (r.sumRules.detailedBalance !== undefined) values.detailedBalance = r.sumRules.detailedBalance;
+  if (model.Jz > 0) {
+    const wp = { Jz: model.Jz, Jperp: model.Jperp, hx: model.hx, hz: model.hz };
+    const c = twoWallContinuum(wp, r.q);
+    values.continuumLower = c.lower;
+    values.continuumUpper = c.upper;
+    values.villainEdge = villainEdge(wp, r.q);
+    notes.push(...wallValidityNotes(wp));
+  }
+  return { values, status: "ok", notes };
+}
+
+export const chainDynamicsSpec: CalculatorSpec = {
+  id: "chain-dynamics",
+  title: "Dynamic structure factor S(q, w) of a spin-1/2 ring, with the chiral channel",
+  summary:
+    "S^{ab}(q, w) for a ring of N spins 1/2 in the xx, yy, zz channels and the chiral part C = i(S^yz - S^zy) seen by polarized neutrons; T = 0 by Lanczos continued fractions, T > 0 by sums over the full spectrum; Lorentzian broadening eta; sum rules (total weight, f-sum, chiral weight = -<S^x>, detailed balance) reported; first-order two-wall continuum and Villain edge for comparison.",
+  inputs: [
+    { name: "N", symbol: "N", unit: "", default: 10, min: 4, max: 16, scale: "linear", kind: "integer", meaning: "number of sites (ring)" },
+    ...modelInputs.map((i) => (i.name === "hx" ? { ...i, default: 1 } : i)),
+    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 needs N <= 12)" },
+    { name: "eta", symbol: "\\eta", unit: "K", default: 0.3, min: 0.01, max: 3, scale: "log", meaning: "Lorentzian half width (E / k_B)" },
+    { name: "omegaMax", symbol: "\\omega_{max}", unit: "K", default: 20, min: 1, max: 100, scale: "linear", meaning: "largest energy transfer shown (E / k_B)" },
+    { name: "points", symbol: "n_\\omega", unit: "", default: 201, min: 20, max: 2000, scale: "log", kind: "integer", meaning: "energy points" },
+  ],
+  outputs: [
+    { name: "totalWeightZZ", symbol: "\\frac1N\\sum_q\\int S^{zz}", unit: "", meaning: "total zz weight (sum rule: 1/4)" },
+    { name: "magnetizationX", symbol: "\\langle S^x\\rangle", unit: "", meaning: "transverse magnetization per site" },
+    { name: "chiralWeight", symbol: "\\int C\\,d\\omega", unit: "", meaning: "frequency-integrated chiral weight (sum rule: -<S^x>)" },
+    { name: "fSumDeviation", symbol: "\\delta_{f}", unit: "K", meaning: "largest deviation of the zz first moment from the f-sum formula" },
+    { name: "detailedBalance", symbol: "\\delta_{db}", unit: "", meaning: "largest relative violation of detailed balance (T > 0)" },
+    { name: "qValues", symbol: "q", unit: "rad", kind: "array", meaning: "momentum transfers 0..pi" },
+    { name: "omega", symbol: "\\omega", unit: "K", kind: "array", meaning: "energy transfers (E / k_B)" },
+    { name: "mapZZ", symbol: "S^{zz}(q,\\omega)", unit: "1/K", kind: "array", meaning: "zz map, flattened (q, then w)" },
+    { name: "mapXX", symbol: "S^{xx}(q,\\omega)", unit: "1/K", kind: "array", meaning: "xx map, flattened" },
+    { name: "mapYY", symbol: "S^{yy}(q,\\omega)", unit: "1/K", kind: "array", meaning: "yy map, flattened" },
+    { name: "mapChiral", symbol: "C(q,\\omega)", unit: "1/K", kind: "array", meaning: "chiral map, flattened" },
+    { name: "cutZZ", symbol: "S^{zz}(\\pi,\\omega)", unit: "1/K", kind: "array", meaning: "zz at q = pi" },
+    { name: "cutXX", symbol: "S^{xx}(\\pi,\\omega)", unit: "1/K", kind: "array", meaning: "xx at q = pi" },
+    { name: "cutChiral", symbol: "C(\\pi,\\omega)", unit: "1/K", kind: "array", meaning: "chiral part at q = pi" },
+    { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, lower bound" },
+    { name: "continuumUpper", symbol: "\\omega_+(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, upper bound" },
+    { name: "villainEdge", symbol: "2J_\\perp|\\sin q|", unit: "K", kind: "array", meaning: "first-order edge of the intraband (Villain) scattering" },
+  ],
+  plots: [
+    { id: "cut-pi", title: "S(q = pi, w)", x: "omega", y: ["cutZZ", "cutXX", "cutChiral"] },
+    { id: "bounds", title: "Wall continuum and Villain edge", x: "qValues", y: ["continuumLower", "continuumUpper", "villainEdge"] },
+  ],
+  assumptions: [
+    "Ring of N spins 1/2 (finite-size spectrum: discrete lines broadened into Lorentzians of half width eta).",
+    "S^{ab}(q, w) = sum p_m conj(<n|S^a_-q|m>) <n|S^b_-q|m> delta(w - E_n + E_m), S^a_q = N^-1/2 sum_j e^{-iqj} S^a_j; q from 0 to pi (S(-q) = S(q) by reflection).",
+    "Maps at T = 0 refer to one ground state; a (nearly) degenerate ground state is said in the notes.",
+  ],
+  sources: [
+    "E. Gagliano, C. Balseiro, PRL 59, 2999 (1987)",
+    "P. Hohenberg, W. Brinkman, PRB 10, 128 (1974)",
+    ...wallSources,
+  ],
+  method: "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors",
+  compute: computeChainDynamics,
+};
+
+// ---------------------------------------------------------------- wall-band
+function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const p = { Jz: v.Jz!, Jperp: v.Jperp!, hx: v.hx!, hz: v.hz! };
+  if (p.Jz === 0) throw new InputError("Jz", 0, "a non-zero Ising exchange");
+  const K = Array.from({ length: 121 }, (_, i) => -Math.PI + (2 * Math.PI * i) / 120);
+  const q = Array.from({ length: 61 }, (_, i) => (Math.PI * i) / 60);
+  const band = domainWallBand(p, K);
+  const notes = [...band.notes];
+  const values: ComputeOutput["values"] = {
+    K,
+    bandLower: band.lower,
+    bandUpper: band.upper,
+    chirality: band.chiralityLower,
+    chiralityUpUpWall: K.map((k) => (p.Jz > 0 ? Math.sin(2 * k) * wallChiralitySign : 0)),
+    spinCurrent: band.spinCurrentLower,
+    q,
+  };
+  if (p.Jz > 0) {
+    const c = twoWallContinuum(p, q);
+    values.continuumLower = c.lower;
+    values.continuumUpper = c.upper;
+    values.villainEdge = villainEdge(p, q);
+    values.wallGap = Math.min(...band.lower);
+    const T = v.T!;
+    if (T > 0) {
+      values.wallDensity = wallDensity(p, T);
+      const mx = wallTransverseMagnetization(p, T);
+      values.magnetizationX = mx;
+      values.chiralWeight = -mx;
+      const edge = villainEdge({ ...p, hx: 0, hz: 0 }, [v.q!])[0]!;
+      const w = Array.from({ length: 201 }, (_, i) => -1.2 * edge + (2.4 * edge * i) / 200);
+      values.villainOmega = w;
+      values.villainShape = v.q! > 0 && v.q! < Math.PI && p.Jperp > 0 ? villainLineShape(p, v.q!, w, T) : w.map(() => 0);
+      if (p.hx !== 0 || p.hz !== 0) notes.push("the Villain line shape is drawn at zero field (first order)");
+    } else {
+      const mx = wallTransverseMagnetization(p, 0);
+      values.magnetizationX = mx;
+      values.chiralWeight = -mx;
+      values.wallDensity = 0;
+    }
+    values.summary = `wall gap ${Number(values.wallGap).toPrecision(4)} K = ${(Number(values.wallGap) * kelvinToMeV).toPrecision(4)} meV; chiral weight int C dw = ${Number(values.chiralWeight).toPrecision(4)} per site`;
+    if (options.sweep) {
+      const xs = sweepValues(wallBandSpec, options.sweep);
+      values.sweepValues = xs;
+      values.sweepChiralWeight = xs.map((x) => {
+        const pp = options.sweep!.over === "hx" ? { ...p, hx: x } : p;
+        const TT = options.sweep!.over === "T" ? x : v.T!;
+        return -wallTransverseMagnetization(pp, Math.max(TT, 0));
+      });
+      values.sweepWallDensity = xs.map((x) => {
+        const TT = options.sweep!.over === "T" ? x : v.T!;
+        const pp = options.sweep!.over === "hx" ? { ...p, hx: x } : p;
+        return TT > 0 ? wallDensity(pp, TT) : 0;
+      });
+    }
+  } else {
+    values.summary = "ferromagnet: walls move only through hx in first order, E(K) = |Jz|/2 - |hx| cos K, no chirality";
+  }
+  return { values, status: "ok", notes };
+}
+
+export const wallBandSpec: CalculatorSpec = {
+  id: "wall-band",
+  title: "Domain-wall band of an Ising-like chain (first order)",
+  summary:
+    "One domain wall's band E(K) = Jz/2 + Jperp cos 2K split by a transverse field into Jz/2 + Jperp cos 2K -+ sqrt(hz^2/4 + hx^2 cos^2 K), the chirality and spin current of each band state, the T = 0 two-wall continuum, the Villain intraband edge 2 Jperp |sin q| with its line shape and the wall density at T, and the chiral weight -<S^x> against hx and T.",
+  inputs: [
+    energyInput("Jz", "J_z", 10, -20, 20, "Ising exchange; > 0 antiferromagnet"),
+    energyInput("Jperp", "J_\\perp", 1, 0, 10, "transverse exchange"),
+    energyInput("hx", "h_x", 0.5, -5, 5, "transverse field, Zeeman energy"),
+    energyInput("hz", "h_z", 0, -5, 5, "longitudinal field, Zeeman energy"),
+    { name: "T", symbol: "T", unit: "K", default: 3, min: 0, max: 20, scale: "linear", meaning: "temperature" },
+    { name: "q", symbol: "q", unit: "rad", default: 1.2, min: 0.05, max: 3.09, scale: "linear", meaning: "momentum transfer of the Villain line shape (rad per site)" },
+  ],
+  outputs: [
+    { name: "wallGap", symbol: "E_w^{min}", unit: "K", meaning: "bottom of the one-wall band (E / k_B)" },
+    { name: "wallDensity", symbol: "n_w", unit: "", meaning: "thermal walls per bond (dilute gas)" },
+    { name: "magnetizationX", symbol: "\\langle S^x\\rangle", unit: "", meaning: "transverse magnetization per site (first order)" },
+    { name: "chiralWeight", symbol: "\\int C\\,d\\omega", unit: "", meaning: "frequency-integrated chiral weight per site, -<S^x>" },
+    { name: "summary", symbol: "", unit: "", kind: "text", meaning: "headline numbers" },
+    { name: "K", symbol: "K", unit: "rad", kind: "array", meaning: "wall momentum" },
+    { name: "bandLower", symbol: "E_-(K)", unit: "K", kind: "array", meaning: "lower wall band" },
+    { name: "bandUpper", symbol: "E_+(K)", unit: "K", kind: "array", meaning: "upper wall band" },
+    { name: "chirality", symbol: "\\langle\\kappa^z\\rangle", unit: "", kind: "array", meaning: "vector chirality of the lower-band state" },
+    { name: "chiralityUpUpWall", symbol: "\\langle\\kappa^z\\rangle_{\\uparrow\\uparrow}", unit: "", kind: "array", meaning: "vector chirality of a pure up-up wall at K (the down-down wall carries the opposite; a transverse field mixes them)" },
+    { name: "spinCurrent", symbol: "j^z", unit: "K", kind: "array", meaning: "spin current of the lower-band state (Jperp kappa^z)" },
+    { name: "q", symbol: "q", unit: "rad", kind: "array", meaning: "momentum transfer" },
+    { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "two-wall continuum, lower bound" },
+    { name: "continuumUpper", symbol: "\\omega_+(q)", unit: "K", kind: "array", meaning: "two-wall continuum, upper bound" },
+    { name: "villainEdge", symbol: "\\omega_V(q)", unit: "K", kind: "array", meaning: "edge of the intraband scattering" },
+    { name: "villainOmega", symbol: "\\omega", unit: "K", kind: "array", meaning: "energy transfer of the line shape" },
+    { name: "villainShape", symbol: "S_V(q,\\omega)", unit: "1/K", kind: "array", meaning: "Villain intraband S^zz per site at q (zero field)" },
+    { name: "sweepValues", symbol: "x", unit: "", kind: "array", meaning: "swept hx or T (K)" },
+    { name: "sweepChiralWeight", symbol: "\\int C", unit: "", kind: "array", meaning: "chiral weight over the sweep" },
+    { name: "sweepWallDensity", symbol: "n_w", unit: "", kind: "array", meaning: "wall density over the sweep" },
+  ],
+  plots: [
+    { id: "band", title: "Wall band", x: "K", y: ["bandLower", "bandUpper"] },
+    { id: "chirality", title: "Chirality and spin current of band states", x: "K", y: ["chiralityUpUpWall", "chirality", "spinCurrent"] },
+    { id: "continuum", title: "Two-wall continuum and Villain edge", x: "q", y: ["continuumLower", "continuumUpper", "villainEdge"] },
+    { id: "villain", title: "Villain line shape at q", x: "villainOmega", y: ["villainShape"] },
+    { id: "sweep", title: "Chiral weight and wall density over the sweep", x: "sweepValues", y: ["sweepChiralWeight", "sweepWallDensity"] },
+  ],
+  sweep: { over: ["hx", "T"], points: 41 },
+  assumptions: [
+    "First order in Jperp and hx against |Jz| (notes say when they are not small); infinite chain; dilute thermal walls (n_w << 1).",
+    "Wall momentum K is the crystal momentum of the one-wall state; the Villain line shape uses the zero-field band and |q - pi| larger than the wall density.",
+  ],
+  sources: wallSources,
+  method: "degenerate first-order perturbation theory in the one-wall manifold (2 x 2 Bloch Hamiltonian), derived in lib/src/chains/wallBand.ts and checked against exact diagonalization",
+  compute: computeWallBand,
+};
+
+export const chainCalculators: CalculatorSpec[] = [chainSpectrumSpec, chainDynamicsSpec, wallBandSpec];

@@ -1,0 +1,331 @@
+/**
+ * Bases of spin-1/2 chains as bit patterns (bit i set = spin i up) and their symmetry sectors.
+ *
+ * Ranking without a hash table. The states with a fixed number n of up spins (fixed total S^z),
+ * listed in increasing integer order, are the n-subsets of {0..N-1} in colexicographic order, whose
+ * rank is the combinatorial number system: rank(s) = sum_{t=1..n} C(c_t, t) for the set bits
+ * c_1 < c_2 < ... < c_n (D. H. Lehmer's combinadic; D. E. Knuth, TAOCP 4A, 7.2.1.3, eq. (20)).
+ * For speed the same rank is read from two tables ("lookup by halves"): with s = (hi, lo) split
+ * into high and low bits, rank(s) = base[hi] + lowRank[lo], where lowRank[lo] is the rank of lo
+ * among the low patterns with its own number of bits and base[hi] counts the states whose high
+ * part is smaller. Both tables have 2^(N/2) entries; the two ranks agree (checked in the tests).
+ *
+ * Symmetry sectors. The group G = {T^l F^f} of translations T (site j -> j + 1, rings only) and,
+ * where it commutes with H, the global spin flip F = prod_j sigma^x_j (spin inversion at h = 0 in
+ * the S^z = 0 sector; with hx != 0 and hz = 0 it is the pi rotation about x). A sector is labelled
+ * by the momentum k = 2 pi m / N (character chi(T^l) = e^{i k l}, so T has eigenvalue e^{ik}) and
+ * the flip parity p = +-1 (chi(F) = p). Its basis states are the normalized projections
+ *   |r> = (|G| S_r)^{-1/2} sum_g chi(g)^* g |r0>,  S_r = sum_{s in Stab(r0)} chi(s)^*,
+ * of one representative r0 per orbit (the smallest integer of the orbit); orbits with S_r = 0 are
+ * not compatible with (k, p) and dropped. For b = h r'0 (h in G), sum_g chi(g)^* g |b> = chi(h) |r'~>,
+ * so an operator term c |b> from |r0> gives the matrix element c chi(h) sqrt(S_r' / S_r)
+ * (A. W. Sandvik, AIP Conf. Proc. 1297, 135 (2010), section 4, in our own notation).
+ */
+import { InputError } from "../errors.js";
+import type { ChainModel } from "./model.js";
+
+/** Binomial coefficients C(n, k) for n, k <= 32 as doubles (exact below 2^53). */
+const binomialTable: Float64Array = (() => {
+  const t = new Float64Array(33 * 33);
+  for (let n = 0; n <= 32; n++) {
+    t[n * 33] = 1;
+    for (let k = 1; k <= n; k++) t[n * 33 + k] = t[(n - 1) * 33 + k - 1]! + (k <= n - 1 ? t[(n - 1) * 33 + k]! : 0);
+  }
+  return t;
+})();
+
+export function binomial(n: number, k: number): number {
+  if (k < 0 || n < 0 || k > n) return 0;
+  return binomialTable[n * 33 + k]!;
+}
+
+/** Number of set bits of a 32-bit word. */
+export function popcount(x: number): number {
+  x = x - ((x >>> 1) & 0x55555555);
+  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+  return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+}
+
+/** Combinatorial-number-system rank of a state among those with the same number of set bits. */
+export function combinadicRank(state: number): number {
+  let r = 0;
+  let t = 0;
+  for (let c = 0; state !== 0 && c < 32; c++) {
+    if (state & 1) {
+      t++;
+      r += binomial(c, t);
+    }
+    state >>>= 1;
+  }
+  return r;
+}
+
+/** The state of rank `rank` among N-bit states with n set bits (inverse of combinadicRank). */
+export function combinadicUnrank(rank: number, n: number, N: number): number {
+  let s = 0;
+  let c = N - 1;
+  for (let t = n; t >= 1; t--) {
+    while (binomial(c, t) > rank) c--;
+    rank -= binomial(c, t);
+    s |= 1 << c;
+    c--;
+  }
+  return s >>> 0;
+}
+
+/** Next larger integer with the same number of set bits (Gosper's hack), for N < 32. */
+export function nextSamePopcount(v: number): number {
+  const t = (v | (v - 1)) >>> 0;
+  const low = (t + 1) >>> 0;
+  return (low | ((((~t & -~t) >>> 0) - 1) >>> (ctz(v) + 1))) >>> 0;
+}
+function ctz(v: number): number {
+  return 31 - Math.clz32(v & -v);
+}
+
+/** Rank tables "by halves" for the N-bit states with n up spins. */
+export class HalfRanker {
+  readonly N: number;
+  readonly n: number;
+  readonly lowBits: number;
+  readonly lowMask: number;
+  readonly size: number;
+  readonly base: Float64Array;
+  readonly lowRank: Int32Array;
+  constructor(N: number, n: number) {
+    this.N = N;
+    this.n = n;
+    this.lowBits = N >> 1;
+    this.lowMask = (1 << this.lowBits) - 1;
+    const highBits = N - this.lowBits;
+    this.lowRank = new Int32Array(1 << this.lowBits);
+    const counter = new Int32Array(this.lowBits + 1);
+    for (let lo = 0; lo < 1 << this.lowBits; lo++) this.lowRank[lo] = counter[popcount(lo)]!++;
+    this.base = new Float64Array(1 << highBits);
+    let acc = 0;
+    for (let hi = 0; hi < 1 << highBits; hi++) {
+      this.base[hi] = acc;
+      const need = n - popcount(hi);
+      acc += binomial(this.lowBits, need);
+    }
+    this.size = acc;
+  }
+  rank(state: number): number {
+    return this.base[state >>> this.lowBits]! + this.lowRank[state & this.lowMask]!;
+  }
+}
+
+export interface SectorLabel {
+  /** Number of up spins (total S^z = nUp - N/2), or null when S^z is not conserved (hx != 0). */
+  nUp: number | null;
+  /** Momentum index m (k = 2 pi m / N) on rings, or null for no translation symmetry. */
+  m: number | null;
+  /** Flip parity +1 or -1, or 0 when the flip is not used. */
+  flip: 0 | 1 | -1;
+}
+
+/** Which symmetries a model allows (see the file header). */
+export function allowedSymmetries(model: ChainModel): { Sz: boolean; translation: boolean; flipInSz0: boolean; flip: boolean } {
+  const Sz = model.hx === 0;
+  const translation = model.boundary === "periodic";
+  // Spin inversion (h = 0, S^z = 0 only) or the pi rotation about x (hx != 0): both need hz = 0.
+  return { Sz, translation, flipInSz0: Sz && model.hz === 0 && model.N % 2 === 0, flip: !Sz && model.hz === 0 };
+}
+
+/** Bytes per basis state of a sector (representative word, norm, lookup slot) plus per vector entry. */
+export function sectorMemoryEstimate(N: number, label: SectorLabel, krylovVectors: number): { dimension: number; bytes: number; complex: boolean } {
+  const parent = label.nUp === null ? 2 ** N : binomial(N, label.nUp);
+  const groupOrder = (label.m === null ? 1 : N) * (label.flip === 0 ? 1 : 2);
+  const dimension = Math.ceil(parent / groupOrder);
+  const complex = isComplexSector(N, label);
+  const lookup = 4 * (label.nUp === null ? 2 ** N : parent);
+  const halves = label.nUp === null ? 0 : 12 * 2 ** Math.ceil(N / 2);
+  const bytes = lookup + halves + 12 * dimension + (krylovVectors + 3) * dimension * 8 * (complex ? 2 : 1);
+  return { dimension, bytes, complex };
+}
+
+/** Characters are real for k = 0 and k = pi (and without translation). */
+export function isComplexSector(N: number, label: SectorLabel): boolean {
+  if (label.m === null) return false;
+  const m = ((label.m % N) + N) % N;
+  return !(m === 0 || 2 * m === N);
+}
+
+/** The basis of one symmetry sector. */
+export class ChainSector {
+  readonly N: number;
+  readonly label: SectorLabel;
+  readonly complex: boolean;
+  /** Representatives (smallest integer of each orbit). */
+  readonly reps: Uint32Array;
+  /** S_r (see header), > 0. */
+  readonly stab: Float64Array;
+  readonly dim: number;
+  /**
+   * Parent index (the state, or its S^z rank) -> code (index 2L + 2l + f) with state = T^l F^f r0 of
+   * the kept representative r0 = reps[index]; -1 for states of orbits not compatible with the sector.
+   * One table read replaces the search over the orbit (no hash table).
+   */
+  readonly lookup: Int32Array;
+  readonly ranker: HalfRanker | null;
+  private readonly mask: number;
+  readonly cosK: Float64Array;
+  readonly sinK: Float64Array;
+  /** Number of translations in the group (N on rings with momentum, else 1). */
+  readonly L: number;
+  private readonly useFlip: boolean;
+
+  constructor(N: number, label: SectorLabel, budgetBytes = 1.5e9, krylovVectors = 0) {
+    if (label.nUp !== null && (!Number.isInteger(label.nUp) || label.nUp < 0 || label.nUp > N)) {
+      throw new InputError("Sz", label.nUp - N / 2, `a total S^z from ${-N / 2} to ${N / 2} in steps of 1`);
+    }
+    if (label.m !== null && (!Number.isInteger(label.m) || label.m < 0 || label.m >= N)) {
+      throw new InputError("m", label.m, `a momentum index 0..${N - 1} (k = 2 pi m / N)`);
+    }
+    if (label.flip !== 0 && label.nUp !== null && 2 * label.nUp !== N) {
+      throw new InputError("flip", label.flip, "0 (no spin inversion) outside the S^z = 0 sector");
+    }
+    const est = sectorMemoryEstimate(N, label, krylovVectors);
+    if (est.bytes > budgetBytes) {
+      throw new InputError(
+        "N",
+        N,
+        `a sector that fits the memory budget of ${(budgetBytes / 1e9).toFixed(2)} GB`,
+        `the sector (S^z ${label.nUp === null ? "not conserved" : "= " + (label.nUp - N / 2)}, ${label.m === null ? "no momentum" : "k index " + label.m}) has about ${est.dimension} states and needs about ${(est.bytes / 1e9).toFixed(2)} GB with ${krylovVectors} Krylov vectors`,
+      );
+    }
+    this.N = N;
+    this.label = label;
+    this.complex = isComplexSector(N, label);
+    this.mask = N === 32 ? 0xffffffff : (1 << N) - 1;
+    this.L = label.m === null ? 1 : N;
+    this.useFlip = label.flip !== 0;
+    this.cosK = new Float64Array(this.L);
+    this.sinK = new Float64Array(this.L);
+    for (let l = 0; l < this.L; l++) {
+      const k = label.m === null ? 0 : (2 * Math.PI * label.m) / N;
+      this.cosK[l] = Math.cos(k * l);
+      this.sinK[l] = Math.sin(k * l);
+    }
+    if (label.m !== null && (label.m === 0 || 2 * label.m === N)) {
+      for (let l = 0; l < this.L; l++) {
+        this.cosK[l] = label.m === 0 || l % 2 === 0 ? 1 : -1;
+        this.sinK[l] = 0;
+      }
+    }
+    this.ranker = label.nUp === null ? null : new HalfRanker(N, label.nUp);
+    const parentSize = label.nUp === null ? 2 ** N : this.ranker!.size;
+    this.lookup = new Int32Array(parentSize).fill(-1);
+    const reps: number[] = [];
+    const stab: number[] = [];
+    const visit = (s: number): void => {
+      const st = this.orbitStabilizer(s);
+      if (st > 1e-9) {
+        // every member T^l F^f s of the orbit points at (representative, l, f)
+        const index = reps.length;
+        reps.push(s);
+        stab.push(st);
+        let t = s;
+        for (let l = 0; l < this.L; l++) {
+          this.lookup[this.parentIndex(t)] = index * 2 * this.L + 2 * l;
+          if (this.useFlip) this.lookup[this.parentIndex((~t & this.mask) >>> 0)] = index * 2 * this.L + 2 * l + 1;
+          t = (((t << 1) & this.mask) | (t >>> (this.N - 1))) >>> 0;
+        }
+      }
+    };
+    if (label.nUp === null) {
+      for (let s = 0; s < parentSize; s++) visit(s);
+    } else if (label.nUp === 0) {
+      visit(0);
+    } else {
+      let s = 2 ** label.nUp - 1;
+      for (let i = 0; i < parentSize; i++) {
+        visit(s);
+        if (i + 1 < parentSize) s = nextSamePopcount(s);
+      }
+    }
+    this.reps = Uint32Array.from(reps);
+    this.stab = Float64Array.from(stab);
+    this.dim = reps.length;
+  }
+
+  private parentIndex(s: number): number {
+    return this.ranker ? this.ranker.rank(s) : s;
+  }
+
+  /** Rotate the N-bit word right by one: T^{-1} on states. */
+  rotateRight(s: number): number {
+    return ((s >>> 1) | ((s & 1) << (this.N - 1))) >>> 0;
+  }
+
+  /** S_r if s is the smallest element of its orbit, else 0. */
+  private orbitStabilizer(s: number): number {
+    let re = 0;
+    let t = s;
+    for (let l = 0; l < this.L; l++) {
+      if (t < s) return 0;
+      if (t === s) re += this.cosK[l]!; // chi(T^l)^* summed; imaginary parts cancel over the stabilizer
+      if (this.useFlip) {
+        const f = (~t & this.mask) >>> 0;
+        if (f < s) return 0;
+        if (f === s) re += this.cosK[l]! * this.label.flip;
+      }
+      t = this.rotateRight(t);
+    }
+    return re;
+  }
+
+  /**
+   * Representative of the orbit of b (one table read): sets `found.index` (rep index or -1), `found.l`, `found.f`
+   * with b = T^l F^f r0.
+   */
+  find(b: number, found: { index: number; l: number; f: number }): void {
+    const code = this.lookup[this.parentIndex(b)]!;
+    if (code < 0) {
+      found.index = -1;
+      return;
+    }
+    const L2 = 2 * this.L;
+    found.index = Math.floor(code / L2);
+    const r = code - found.index * L2;
+    found.l = r >> 1;
+    found.f = r & 1;
+  }
+
+  /** Character chi(T^l F^f): [re, im] written into out. */
+  character(l: number, f: number, out: Float64Array): void {
+    const p = f && this.label.flip === -1 ? -1 : 1;
+    out[0] = this.cosK[l]! * p;
+    out[1] = this.sinK[l]! * p;
+  }
+
+  /** Momentum k of the sector (0 without translation). */
+  get k(): number {
+    return this.label.m === null ? 0 : (2 * Math.PI * this.label.m) / this.N;
+  }
+
+  /**
+   * Amplitudes of this sector's basis state `index` on plain basis states: calls visit(state, re, im)
+   * for every state of the orbit (used to expand eigenvectors; normalized).
+   */
+  expand(index: number, visit: (state: number, re: number, im: number) => void): void {
+    const r0 = this.reps[index]!;
+    const G = this.L * (this.useFlip ? 2 : 1);
+    const norm = 1 / Math.sqrt(G * this.stab[index]!);
+    const acc = new Map<number, [number, number]>();
+    let t = r0;
+    for (let l = 0; l < this.L; l++) {
+      // chi(g)^* g|r0> with g = T^l (t = T^l r0: rotate left l times)
+      for (let f = 0; f < (this.useFlip ? 2 : 1); f++) {
+        const s = f ? (~t & this.mask) >>> 0 : t;
+        const p = f && this.label.flip === -1 ? -1 : 1;
+        const cur = acc.get(s) ?? [0, 0];
+        cur[0] += this.cosK[l]! * p * norm;
+        cur[1] -= this.sinK[l]! * p * norm;
+        acc.set(s, cur);
+      }
+      t = (((t << 1) & this.mask) | (t >>> (this.N - 1))) >>> 0;
+    }
+    for (const [s, [re, im]] of acc) if (Math.abs(re) > 1e-14 || Math.abs(im) > 1e-14) visit(s, re, im);
+  }
+}

@@ -1,0 +1,249 @@
+/**
+ * Matrix-free operators on chain sectors: H v and the Fourier-transformed spin operators, on
+ * typed arrays. Real sectors hold vectors as Float64Array(dim); complex sectors as interleaved
+ * Float64Array(2 dim) (re at 2i, im at 2i + 1).
+ *
+ * Terms of H on a basis word a (bit i set = spin i up, S^z_i = +-1/2):
+ *   diagonal  sum_bonds Jz s_i s_{i+1} - hz sum_i s_i,
+ *   exchange  (Jperp / 2)(S^+_i S^-_{i+1} + h.c.): flips an antiparallel pair, amplitude Jperp / 2,
+ *   field     -hx S^x_i: flips spin i, amplitude -hx / 2.
+ * In a symmetry sector the term c |b> of |r0> contributes c chi(h) sqrt(S_r'/S_r) to row r'
+ * (basis.ts header).
+ */
+import type { ChainModel } from "./model.js";
+import { bondCount } from "./model.js";
+import { ChainSector } from "./basis.js";
+
+/** A linear operator on a sector's vectors (what Lanczos needs). */
+export interface SectorOperator {
+  dim: number;
+  complex: boolean;
+  /** w = A v (w is overwritten). */
+  apply(v: Float64Array, w: Float64Array): void;
+}
+
+/** Emits the plain-basis terms c |b> of an operator acting on the word a. */
+export type TermGenerator = (a: number, emit: (b: number, re: number, im: number) => void) => void;
+
+/** The Hamiltonian restricted to one sector, applied matrix-free. */
+export class ChainHamiltonian implements SectorOperator {
+  readonly model: ChainModel;
+  readonly sector: ChainSector;
+  readonly dim: number;
+  readonly complex: boolean;
+  /** Diagonal energies of the representatives. */
+  readonly diag: Float64Array;
+  private readonly bonds: Uint32Array;
+  private readonly sqrtStab: Float64Array;
+  private readonly plain: boolean;
+
+  constructor(model: ChainModel, sector: ChainSector) {
+    this.model = model;
+    this.sector = sector;
+    this.dim = sector.dim;
+    this.complex = sector.complex;
+    const N = model.N;
+    const nb = bondCount(model);
+    this.bonds = new Uint32Array(nb);
+    for (let i = 0; i < nb; i++) this.bonds[i] = ((1 << i) | (1 << ((i + 1) % N))) >>> 0;
+    this.diag = new Float64Array(this.dim);
+    for (let a = 0; a < this.dim; a++) this.diag[a] = diagonalEnergy(model, sector.reps[a]!, this.bonds);
+    this.sqrtStab = sector.stab.map(Math.sqrt);
+    this.plain = sector.label.m === null && sector.label.flip === 0;
+  }
+
+  /** Plain-basis terms of H (off-diagonal only) on the word a. */
+  offDiagonalTerms(a: number, emit: (b: number, re: number, im: number) => void): void {
+    const half = this.model.Jperp / 2;
+    if (half !== 0) {
+      for (let i = 0; i < this.bonds.length; i++) {
+        const mk = this.bonds[i]!;
+        const x = a & mk;
+        if (x !== 0 && x !== mk) emit((a ^ mk) >>> 0, half, 0);
+      }
+    }
+    const fx = -this.model.hx / 2;
+    if (fx !== 0) for (let i = 0; i < this.model.N; i++) emit((a ^ (1 << i)) >>> 0, fx, 0);
+  }
+
+  apply(v: Float64Array, w: Float64Array): void {
+    if (this.plain) return this.applyPlain(v, w);
+    const sec = this.sector;
+    const lookup = sec.lookup;
+    const ranker = sec.ranker;
+    const L2 = 2 * sec.L;
+    const cosK = sec.cosK, sinK = sec.sinK;
+    const odd = sec.label.flip === -1;
+    const dim = this.dim;
+    const reps = sec.reps;
+    const bonds = this.bonds;
+    const nb = bonds.length;
+    const half = this.model.Jperp / 2;
+    const fx = -this.model.hx / 2;
+    const N = this.model.N;
+    const sq = this.sqrtStab;
+    const cplx = this.complex;
+    if (!cplx) for (let a = 0; a < dim; a++) w[a] = this.diag[a]! * v[a]!;
+    else
+      for (let a = 0; a < dim; a++) {
+        w[2 * a] = this.diag[a]! * v[2 * a]!;
+        w[2 * a + 1] = this.diag[a]! * v[2 * a + 1]!;
+      }
+    const nTerms = nb + N;
+    for (let a = 0; a < dim; a++) {
+      const vr = cplx ? v[2 * a]! : v[a]!;
+      const vi = cplx ? v[2 * a + 1]! : 0;
+      if (vr === 0 && vi === 0) continue;
+      const s = reps[a]!;
+      const inv = 1 / sq[a]!;
+      for (let t = 0; t < nTerms; t++) {
+        let b: number;
+        let c: number;
+        if (t < nb) {
+          if (half === 0) continue;
+          const mk = bonds[t]!;
+          const x = s & mk;
+          if (x === 0 || x === mk) continue;
+          b = (s ^ mk) >>> 0;
+          c = half;
+        } else {
+          if (fx === 0) break;
+          b = (s ^ (1 << (t - nb))) >>> 0;
+          c = fx;
+        }
+        // representative, translation and flip of b from the symmetry table (basis.ts)
+        const code = lookup[ranker ? ranker.rank(b) : b]!;
+        if (code < 0) continue;
+        const idx = (code / L2) | 0;
+        const rem = code - idx * L2;
+        const l = rem >> 1;
+        const sgn = rem & 1 && odd ? -1 : 1;
+        const f = c * sq[idx]! * inv * sgn;
+        if (!cplx) {
+          w[idx] = w[idx]! + f * cosK[l]! * vr;
+        } else {
+          const cr = f * cosK[l]!, ci = f * sinK[l]!;
+          const j = 2 * idx;
+          w[j] = w[j]! + cr * vr - ci * vi;
+          w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
+        }
+      }
+    }
+  }
+
+  /** No symmetry beyond S^z: ranks by halves, real arithmetic, no closures in the hot loop. */
+  private applyPlain(v: Float64Array, w: Float64Array): void {
+    const sec = this.sector;
+    const reps = sec.reps;
+    const dim = this.dim;
+    const bonds = this.bonds;
+    const nb = bonds.length;
+    const half = this.model.Jperp / 2;
+    const fx = -this.model.hx / 2;
+    const N = this.model.N;
+    const lookup = sec.lookup;
+    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] / 2 (no translations here)
+    const ranker = sec.ranker;
+    const base = ranker ? ranker.base : null;
+    const lowRank = ranker ? ranker.lowRank : null;
+    const lowBits = ranker ? ranker.lowBits : 0;
+    const lowMask = ranker ? ranker.lowMask : 0;
+    const diag = this.diag;
+    for (let a = 0; a < dim; a++) w[a] = diag[a]! * v[a]!;
+    for (let a = 0; a < dim; a++) {
+      const va = v[a]!;
+      if (va === 0) continue;
+      const s = reps[a]!;
+      if (half !== 0) {
+        const hv = half * va;
+        for (let i = 0; i < nb; i++) {
+          const mk = bonds[i]!;
+          const x = s & mk;
+          if (x !== 0 && x !== mk) {
+            const b = (s ^ mk) >>> 0;
+            const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
+            const j = lookup[r]! >> 1;
+            w[j] = w[j]! + hv;
+          }
+        }
+      }
+      if (fx !== 0) {
+        const fv = fx * va;
+        for (let i = 0; i < N; i++) {
+          const b = (s ^ (1 << i)) >>> 0;
+          const code = lookup[base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b]!;
+          if (code >= 0) w[code >> 1] = w[code >> 1]! + fv;
+        }
+      }
+    }
+  }
+}
+
+/** Diagonal energy of a word: Ising bonds and the longitudinal Zeeman term. */
+export function diagonalEnergy(model: ChainModel, s: number, bonds?: Uint32Array): number {
+  const N = model.N;
+  const nb = bondCount(model);
+  let aligned = 0;
+  for (let i = 0; i < nb; i++) {
+    const mk = bonds ? bonds[i]! : ((1 << i) | (1 << ((i + 1) % N))) >>> 0;
+    const x = s & mk;
+    if (x === 0 || x === mk) aligned++;
+  }
+  let up = 0;
+  for (let i = 0; i < N; i++) if (s & (1 << i)) up++;
+  return (model.Jz / 4) * (2 * aligned - nb) - model.hz * (up - N / 2);
+}
+
+/**
+ * Apply an operator given by its plain-basis terms from sector `src` to sector `dst` (both with
+ * the same translation structure, no flip): w = O v. For an operator with T O T^-1 = e^{-iq} O
+ * (such as S^a_{-q} = N^{-1/2} sum_j e^{iqj} S^a_j), dst must have momentum k_src - q; the matrix
+ * element of the term c |b>, b = T^l r'0, is c chi_dst(T^l) sqrt(S_r' / S_r).
+ * Vectors are interleaved complex (both sectors treated as complex).
+ */
+export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: TermGenerator, v: Float64Array, w: Float64Array): void {
+  w.fill(0);
+  const found = { index: -1, l: 0, f: 0 };
+  const chi = new Float64Array(2);
+  for (let a = 0; a < src.dim; a++) {
+    const vr = v[2 * a]!, vi = v[2 * a + 1]!;
+    if (vr === 0 && vi === 0) continue;
+    const sa = Math.sqrt(src.stab[a]!);
+    terms(src.reps[a]!, (b, cr0, ci0) => {
+      dst.find(b, found);
+      if (found.index < 0) return;
+      dst.character(found.l, found.f, chi);
+      const f = Math.sqrt(dst.stab[found.index]!) / sa;
+      const cr = f * (cr0 * chi[0]! - ci0 * chi[1]!);
+      const ci = f * (cr0 * chi[1]! + ci0 * chi[0]!);
+      const j = 2 * found.index;
+      w[j] = w[j]! + cr * vr - ci * vi;
+      w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
+    });
+  }
+}
+
+/** A real sector vector as interleaved complex. */
+export function toComplex(v: Float64Array, complex: boolean): Float64Array {
+  if (complex) return v;
+  const out = new Float64Array(2 * v.length);
+  for (let i = 0; i < v.length; i++) out[2 * i] = v[i]!;
+  return out;
+}
+
+/**
+ * Terms of the total vector chirality kappa^z = sum_l (S^x_l S^y_{l+1} - S^y_l S^x_{l+1})
+ * = sum_l (i/2)(S^+_l S^-_{l+1} - S^-_l S^+_{l+1}) on a ring (translation invariant, q = 0).
+ */
+export function vectorChiralityTerms(N: number): TermGenerator {
+  return (a, emit) => {
+    for (let l = 0; l < N; l++) {
+      const r = (l + 1) % N;
+      const ul = (a >>> l) & 1, ur = (a >>> r) & 1;
+      if (ul === ur) continue;
+      const b = (a ^ (1 << l) ^ (1 << r)) >>> 0;
+      // l down, r up: S^+_l S^-_{l+1} acts, coefficient +i/2; l up, r down: -S^-_l S^+_{l+1}, -i/2
+      emit(b, 0, ul === 0 ? 0.5 : -0.5);
+    }
+  };
+}
