@@ -48,7 +48,7 @@ describe("calculator input reading", () => {
     expect(spin.parameter).toBe("twoS");
     expect(refused("easy-plane", { twoS: "0" }).parameter).toBe("twoS");
     const negative = refused("wall", { A: "-15pJ/m" });
-    expect(negative.message).toMatch(/A = "-15pJ\/m" is not valid: expected an exchange stiffness: a value > 0 pJ\/m/);
+    expect(negative.message).toMatch(/A = "-15pJ\/m" is not valid: expected an exchange stiffness: a value > 0 J\/m/);
   });
 
   it("choices by label and angles with units", () => {
