@@ -27,6 +27,16 @@ const tilde = {
   },
 };
 
+/** SVG icons imported by JupyterLab's code are SVG text (LabIcon); those referenced by CSS are files. */
+const svgText = {
+  name: "svg-text",
+  setup(build) {
+    build.onResolve({ filter: /\.svg$/ }, (a) => (a.kind === "import-statement" || a.kind === "require-call" || a.kind === "dynamic-import")
+      ? { path: require.resolve(a.path, { paths: [a.resolveDir] }), namespace: "svg-text" } : undefined);
+    build.onLoad({ filter: /.*/, namespace: "svg-text" }, (a) => ({ contents: readFileSync(a.path, "utf8"), loader: "text" }));
+  },
+};
+
 const requireEnsure = {
   name: "require-ensure",
   setup(build) {
@@ -58,7 +68,7 @@ await esbuild.build({
   loader: { ".svg": "file", ".png": "file", ".gif": "file", ".woff": "file", ".woff2": "file", ".ttf": "file", ".eot": "file", ".otf": "file", ".md": "text" },
   assetNames: "assets/[name]-[hash]",
   chunkNames: "chunks/[name]-[hash]",
-  plugins: [tilde, requireEnsure],
+  plugins: [tilde, svgText, requireEnsure],
 });
 const own = JSON.parse(readFileSync(join(here, "package.json"), "utf8"));
 writeFileSync(join(dist, "build.json"), JSON.stringify({ name: own.name, version: own.version, built: new Date().toISOString() }, null, 2) + "\n");

@@ -60,6 +60,15 @@ import * as jlabCoreutils from "@jupyterlab/coreutils";
 import * as jlabRendermime from "@jupyterlab/rendermime";
 import * as jlabApplication from "@jupyterlab/application";
 import * as jlabNotebook from "@jupyterlab/notebook";
+import applicationPackage from "@jupyterlab/application/package.json";
+import basePackage from "@jupyter-widgets/base/package.json";
+import servicesPackage from "@jupyterlab/services/package.json";
+import coreutilsPackage from "@jupyterlab/coreutils/package.json";
+import rendermimePackage from "@jupyterlab/rendermime/package.json";
+import notebookPackage from "@jupyterlab/notebook/package.json";
+import luminoWidgetsPackage from "@lumino/widgets/package.json";
+import luminoCoreutilsPackage from "@lumino/coreutils/package.json";
+import luminoSignalingPackage from "@lumino/signaling/package.json";
 
 interface FederatedExtension { name: string; load: string; extension?: string; style?: string }
 type ShareScope = Record<string, Record<string, { get: () => Promise<() => unknown>; from: string; eager: boolean; loaded: number }>>;
@@ -75,21 +84,22 @@ const withWidgetManager = config.helicoidWidgetManager !== false && query.get("w
 PageConfig.setOption("baseUrl", String(config.baseUrl ?? "/"));
 PageConfig.setOption("token", query.get("token") ?? "");
 PageConfig.setOption("appName", "Helicoid lab front end");
+PageConfig.setOption("appVersion", applicationPackage.version);
 
 /** The packages this page shares with federated extensions, one version each (singletons). */
 function shareScope(): ShareScope {
   const offer: Record<string, [string, unknown]> = {
-    "@lumino/widgets": ["2.8.0", luminoWidgets],
-    "@lumino/coreutils": ["2.2.2", luminoCoreutils],
-    "@lumino/signaling": ["2.1.5", luminoSignaling],
-    "@jupyterlab/services": ["7.6.6", jlabServices],
-    "@jupyterlab/coreutils": ["6.6.6", jlabCoreutils],
-    "@jupyterlab/rendermime": ["4.6.6", jlabRendermime],
-    "@jupyterlab/application": ["4.6.6", jlabApplication],
-    "@jupyterlab/notebook": ["4.6.6", jlabNotebook],
+    "@lumino/widgets": [luminoWidgetsPackage.version, luminoWidgets],
+    "@lumino/coreutils": [luminoCoreutilsPackage.version, luminoCoreutils],
+    "@lumino/signaling": [luminoSignalingPackage.version, luminoSignaling],
+    "@jupyterlab/services": [servicesPackage.version, jlabServices],
+    "@jupyterlab/coreutils": [coreutilsPackage.version, jlabCoreutils],
+    "@jupyterlab/rendermime": [rendermimePackage.version, jlabRendermime],
+    "@jupyterlab/application": [applicationPackage.version, jlabApplication],
+    "@jupyterlab/notebook": [notebookPackage.version, jlabNotebook],
   };
   // jupyterlab_widgets (the widget manager) is what offers @jupyter-widgets/base in JupyterLab.
-  if (withWidgetManager) offer["@jupyter-widgets/base"] = [jupyterWidgetsBase.JUPYTER_WIDGETS_VERSION ?? "6.0.12", jupyterWidgetsBase];
+  if (withWidgetManager) offer["@jupyter-widgets/base"] = [basePackage.version, jupyterWidgetsBase];
   const scope: ShareScope = {};
   for (const [name, [version, mod]] of Object.entries(offer)) {
     scope[name] = { [version]: { get: () => Promise.resolve(() => mod), from: "@helicoid/lab-frontend", eager: true, loaded: 1 } };
@@ -173,6 +183,7 @@ const pageApi: {
   runAll?: () => Promise<boolean>;
   errors?: () => { cell: number; text: string }[];
   save?: () => Promise<void>;
+  execute?: (code: string) => Promise<{ status: string; text: string }>;
 } = { ready: Promise.resolve() };
 (window as unknown as { helicoidLab: typeof pageApi }).helicoidLab = pageApi;
 
@@ -233,6 +244,21 @@ const notebookPlugin: JupyterFrontEndPlugin<void> = {
     };
     pageApi.errors = () => errorsOf(panel);
     pageApi.save = () => panel.context.save();
+    // Run code in the notebook's kernel outside the cells (scripts, tests): its status and printed/result text.
+    pageApi.execute = async (code: string) => {
+      const kernel = panel.sessionContext.session?.kernel;
+      if (!kernel) throw new Error("no kernel");
+      let text = "";
+      const future = kernel.requestExecute({ code, store_history: false });
+      future.onIOPub = (msg) => {
+        const c = msg.content as { text?: string; data?: Record<string, unknown>; ename?: string; evalue?: string };
+        if (msg.header.msg_type === "stream") text += c.text ?? "";
+        else if (msg.header.msg_type === "execute_result" || msg.header.msg_type === "display_data") text += String(c.data?.["text/plain"] ?? "");
+        else if (msg.header.msg_type === "error") text += `${c.ename}: ${c.evalue}`;
+      };
+      const reply = await future.done;
+      return { status: String((reply.content as { status: string }).status), text };
+    };
   },
 };
 
