@@ -241,7 +241,17 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
       expect(text).toContain("jupyterlab_widgets");
       expect(text).toContain("helicoid doctor");
       expect(await notice.isVisible()).toBe(true);
-      // And indeed no widget view renders: the saved/displayed widgets stay text.
+      // Run the first cell: its widget shows as text (the widget-view output has no renderer), no view renders.
+      await page.evaluate(async () => {
+        const lab = (window as any).helicoidLab;
+        await lab.panel.sessionContext.ready;
+        lab.panel.content.activeCellIndex = 0;
+        return lab.execute("1");
+      });
+      await page.locator(".jp-Cell").first().click();
+      await page.keyboard.press("Shift+Enter");
+      await expect.poll(() => page.locator(".jp-Cell").first().locator(".jp-OutputArea-output").count(), { timeout: 60_000 }).toBeGreaterThan(0);
+      expect(await page.locator(".jp-Cell").first().locator(".jp-OutputArea-output").first().textContent()).toMatch(/Box|Widget/i);
       expect(await page.locator(".jupyter-widgets").count()).toBe(0);
       await screenshot(page, "jupyterlab-no-widget-manager");
       await page.screenshot({ path: join(tmpdir(), "helicoid-jupyterlab-no-widget-manager.png") });
