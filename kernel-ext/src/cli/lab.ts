@@ -9,6 +9,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { createServer } from "node:net";
+import { rmSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { install } from "./install.js";
 import { parseArgs, UsageError, type CommandIO } from "./args.js";
@@ -126,7 +127,8 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
       `--ServerApp.token=${token}`,
       "--ServerApp.open_browser=False",
       `--ServerApp.root_dir=${dir}`,
-      `--ServerApp.extra_static_paths=${JSON.stringify(site.staticPaths)}`,
+      ...site.staticPaths.map((d) => `--ServerApp.extra_static_paths=${d}`),
+      ...(process.getuid?.() === 0 ? ["--allow-root"] : []),
       ...a.positional,
     ],
     { stdio: "inherit" },
@@ -139,6 +141,7 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   return new Promise((res) => server.on("exit", (code) => {
     process.off("SIGINT", stop);
     process.off("SIGTERM", stop);
+    rmSync(site.siteDir, { recursive: true, force: true });
     res(code ?? 0);
   }));
 }
