@@ -65,7 +65,7 @@ export function chooseFrontEnd(): LabChoice {
       reason: `${older || "no JupyterLab 4 or Notebook 7 found"}; serving Helicoid's JupyterLab-based front end instead, on jupyter-server ${server.version}`,
     };
   }
-  return { kind: "none", tool: null, reason: `${older ? older + "; " : ""}no jupyter-server to serve Helicoid's own front end either` };
+  return { kind: "none", tool: null, reason: older ? `${older}; no jupyter-server to serve Helicoid's own front end either` : "no Jupyter found (looked for jupyter-lab, jupyter-notebook, jupyter-server and the jupyter command)" };
 }
 
 function freePort(): Promise<number> {

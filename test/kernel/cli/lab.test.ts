@@ -53,7 +53,7 @@ describe("helicoid lab --dry-run", () => {
       };
       const env = { ...process.env, PATH: bin };
       expect(lab(["--dry-run"], env)).toMatchObject({ status: 1 });
-      expect(lab(["--dry-run"], env).stdout).toContain("no jupyter-server to serve Helicoid's own front end either");
+      expect(lab(["--dry-run"], env).stdout).toContain("no Jupyter found");
       tool("jupyter-server", "2.14.2");
       expect(lab(["--dry-run"], env).stdout).toContain("no JupyterLab 4 or Notebook 7 found; serving Helicoid's JupyterLab-based front end instead, on jupyter-server 2.14.2");
       tool("jupyter-notebook", "6.4.12");
