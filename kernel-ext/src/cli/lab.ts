@@ -112,7 +112,14 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
     return new Promise((res) => child.on("exit", (code) => res(code ?? 0)));
   }
 
-  ensureLabFrontend((s) => io.stdout(s));
+  try {
+    ensureLabFrontend((s) => io.stdout(s));
+  } catch (err) {
+    io.stderr(`helicoid lab: cannot prepare Helicoid's front end: ${(err as Error).message}\n` +
+      "It ships with the Helicoid repository (lab-frontend/). Alternatively install JupyterLab 4 with the widget manager\n" +
+      "(for example `pipx install jupyterlab` and `pipx inject jupyterlab jupyterlab_widgets`) and run `helicoid lab` again.\n");
+    return 1;
+  }
   if (!r.labExtensionDir) io.stderr("helicoid lab: Helicoid's JupyterLab extension is not built (run npm run build): widgets will show as text\n");
   const site = prepareLabSite({ labextensionsDir: join(r.dataDir, "labextensions") });
   const port = portOpt ? Number(portOpt) : await freePort();
