@@ -5,12 +5,12 @@
  *   2. dist/export.js          the standalone bootstrap of exported pages (html-manager, standard
  *                              controls, our module, plotly, CSS injected), one IIFE script
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
- *   4. lib/plugin.js           our module + JupyterLab plugin as one ESM file, shared packages external
+ *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
  * `node build.mjs --no-lab` skips step 5.
  */
 import * as esbuild from "esbuild";
-import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync } from "node:fs";
+import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, readdirSync } from "node:fs";
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";
@@ -93,16 +93,22 @@ await esbuild.build({ ...common, alias: {}, entryPoints: [join(here, "src/node/m
 
 // 4. the plugin as one ESM module for the JupyterLab builder
 const shared = ["@jupyter-widgets/base", "@jupyterlab/*", "@lumino/*"];
+// Split: plugin.js loads first and imports the views (and @jupyter-widgets/base) on activation, so a
+// JupyterLab without the widget manager still runs the plugin, which says what is missing.
+rmSync(join(here, "lib"), { recursive: true, force: true });
 mkdirSync(join(here, "lib"), { recursive: true });
 await esbuild.build({
   ...common,
-  entryPoints: [join(here, "src/plugin.ts")],
+  entryPoints: { plugin: join(here, "src/plugin.ts") },
   format: "esm",
-  outfile: join(here, "lib", "plugin.js"),
+  splitting: true,
+  outdir: join(here, "lib"),
+  chunkNames: "[name]-[hash]",
   external: shared,
   plugins: [cssInject, workerSource],
 });
-log(`lib/plugin.js ${(statSync(join(here, "lib", "plugin.js")).size / 1e6).toFixed(2)} MB`);
+const libFiles = readdirSync(join(here, "lib")).filter((f) => f.endsWith(".js"));
+log(`lib/ ${libFiles.join(", ")} ${(libFiles.reduce((n, f) => n + statSync(join(here, "lib", f)).size, 0) / 1e6).toFixed(2)} MB`);
 
 // 5. prebuilt JupyterLab extension
 if (!args.has("--no-lab")) {
@@ -110,7 +116,7 @@ if (!args.has("--no-lab")) {
   rmSync(stage, { recursive: true, force: true });
   mkdirSync(stage, { recursive: true });
   const own = JSON.parse(readFileSync(join(here, "package.json"), "utf8"));
-  writeFileSync(join(stage, "plugin.js"), readFileSync(join(here, "lib", "plugin.js")));
+  for (const f of libFiles) writeFileSync(join(stage, f), readFileSync(join(here, "lib", f)));
   writeFileSync(
     join(stage, "package.json"),
     JSON.stringify({

@@ -92,7 +92,7 @@ export interface JupyterServer {
  * Start Debian's jupyter-server. `dataDir` (a Jupyter data directory holding kernels/ and
  * labextensions/) goes first on JUPYTER_PATH so its kernelspecs are found.
  */
-export async function startJupyterServer(options: { dataDir?: string; cwd?: string; env?: Record<string, string>; staticDir?: string } = {}): Promise<JupyterServer> {
+export async function startJupyterServer(options: { dataDir?: string; cwd?: string; env?: Record<string, string>; staticDir?: string; staticPaths?: string[] } = {}): Promise<JupyterServer> {
   const port = await freePort();
   const token = randomBytes(16).toString("hex");
   const runtime = mkdtempSync(join(tmpdir(), "helicoid-jupyter-runtime-"));
@@ -112,7 +112,7 @@ export async function startJupyterServer(options: { dataDir?: string; cwd?: stri
     "--ServerApp.open_browser=False",
     ...(options.cwd ? [`--ServerApp.root_dir=${options.cwd}`] : []),
     // Test pages served at /static/<file> from the server's own origin (no sandboxing, unlike /files/).
-    ...(options.staticDir ? [`--ServerApp.extra_static_paths=${JSON.stringify([options.staticDir])}`] : []),
+    ...(options.staticDir || options.staticPaths ? [`--ServerApp.extra_static_paths=${JSON.stringify([...(options.staticDir ? [options.staticDir] : []), ...(options.staticPaths ?? [])])}`] : []),
   ];
   const proc = spawn("/usr/bin/jupyter-server", args, { env, cwd: options.cwd ?? repoRoot, stdio: ["ignore", "pipe", "pipe"] });
   let log = "";

@@ -6,7 +6,7 @@
  *   helicoid kernel --connection-file FILE   (started by Jupyter)
  *   helicoid run NOTEBOOK [-o OUT]           execute a notebook in process
  *   helicoid export NOTEBOOK -o PAGE.html    one self-contained page, live catalogue explorers
- *   helicoid lab                             Jupyter on notebooks/ with the kernel installed
+ *   helicoid lab [--dry-run]                 JupyterLab 4, Notebook 7 or our front end on jupyter-server
  *   helicoid start                           run the examples and serve the gallery (npm start)
  *   helicoid calc ID name=value ... [--json] any catalogue calculator
  *   helicoid charge FILE [--json]            topological charge of a vector field file
@@ -25,7 +25,7 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT]             execute a notebook in process, no Jupyter needed" },
   export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },
-  lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
+  lab: { load: () => require("./lab.js").labCommand, help: "lab [--dry-run] [--notebook-dir DIR] [--port N]\n                                    open notebooks in JupyterLab 4, Notebook 7, or our JupyterLab-based\n                                    front end on jupyter-server; --dry-run says which and why" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)", ownHelp: true },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },

@@ -34,7 +34,7 @@ describe("helicoid install", () => {
     const r = spawnSync(process.execPath, [helicoidBin, "lab"], { encoding: "utf8", env: { ...process.env, PATH: "/nonexistent" } });
     expect(r.status).toBe(1);
     expect(r.stderr).toMatch(/no Jupyter found/);
-    expect(r.stderr).toMatch(/apt-get install jupyter-notebook/);
+    expect(r.stderr).toMatch(/apt-get install jupyter-server/);
   });
 
   it("prints usage for no command and refuses an unknown one", () => {
