@@ -29,7 +29,12 @@ async function run(code: string): Promise<{ status: string; text: string; widget
   return r;
 }
 
-describe.skipIf(!built)("widgets with a live helicoid kernel", () => {
+describe("widgets with a live helicoid kernel", () => {
+  it("has the build it tests (npm run build; npm test builds first)", () => {
+    // a missing build fails here, by name, instead of skipping the browser checks below
+    expect(built, "kernel-ext/dist and widgets/dist: run npm run build").toBe(true);
+  });
+
   beforeAll(async () => {
     prefix = mkdtempSync(join(tmpdir(), "helicoid-live-"));
     const inst = spawnSync(process.execPath, [bin, "install", "--prefix", prefix], { encoding: "utf8" });

@@ -20,7 +20,12 @@ let page: Page;
 
 const code = (source: string) => ({ cell_type: "code", metadata: {}, execution_count: null, outputs: [], source });
 
-describe.skipIf(!built)("helicoid run + helicoid export + browser", () => {
+describe("helicoid run + helicoid export + browser", () => {
+  it("has the build it tests (npm run build; npm test builds first)", () => {
+    // a missing build fails here, by name, instead of skipping the browser checks below
+    expect(built, "kernel-ext/dist and widgets/dist: run npm run build").toBe(true);
+  });
+
   beforeAll(async () => {
     mkdirSync(dir, { recursive: true });
     const nb = {

@@ -13,7 +13,6 @@ print(json.dumps({
   "kB": s.k, "e": s.e, "gElectron": p["electron g factor"][0], "gammaElectron": p["electron gyromag. ratio"][0],
 }))`);
     for (const [k, v] of Object.entries(ref)) {
-      expect((c as Record<string, number>)[k], k).toBeCloseTo(v, 15);
       expect(Math.abs((c as Record<string, number>)[k]! / v - 1), k).toBeLessThan(1e-12);
     }
   });
