@@ -106,8 +106,14 @@ export class ExplorerView extends DOMWidgetView {
   private stalePlots = new Map<number, PlotFigure>();
   private exactTimer: ReturnType<typeof setTimeout> | null = null;
 
+  /** The inputs and sweep the explorer was opened with (`explore(id, {...})`): what Reset returns to. */
+  private openedWith: { inputs: Record<string, number>; sweep: SweepRequest | null } | null = null;
+
   override render(): void {
     this.el.classList.add("hx-explorer");
+    if (!this.openedWith) {
+      this.openedWith = { inputs: { ...((this.model.get("inputs") as Record<string, number> | null) ?? {}) }, sweep: (this.model.get("sweep") as SweepRequest | null) ?? null };
+    }
     const calculator = this.model.get("calculator") as string;
     const resolved = resolveSpec(calculator, this.model.get("spec") as SpecData | null);
     this.spec = resolved.spec;
@@ -272,7 +278,6 @@ export class ExplorerView extends DOMWidgetView {
       entry.addEventListener("change", commit);
       entry.addEventListener("keydown", (e) => { if (e.key === "Enter") commit(); if (e.key === "Escape") { message.hidden = true; row.classList.remove("hx-refused"); this.syncControls(); } });
       row.append(slider, entry);
-      row.append(el("span", { class: "hx-unit", text: unit ? `SI: ${displayUnit(unit)}` : "" }));
     }
     row.append(message);
     this.rows.set(input.name, { input, row, slider, select, entry, message });
@@ -296,12 +301,14 @@ export class ExplorerView extends DOMWidgetView {
       label.append(this.sweepSelect);
       bar.append(label);
     }
-    const reset = el("button", { class: "hx-button hx-reset", text: "Reset", title: "Reset every input to its default" });
+    const reset = el("button", { class: "hx-button hx-reset", text: "Reset", title: "Reset every input to the value the explorer was opened with (the calculator's default where none was given)" });
     reset.addEventListener("click", () => {
       const defaults = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
       for (const r of this.rows.values()) { r.message.hidden = true; r.row.classList.remove("hx-refused"); }
-      this.model.set("inputs", defaults);
-      if (spec.sweep && spec.sweep.over.length) {
+      this.model.set("inputs", { ...defaults, ...(this.openedWith?.inputs ?? {}) });
+      if (this.openedWith?.sweep) {
+        this.model.set("sweep", { ...this.openedWith.sweep });
+      } else if (spec.sweep && spec.sweep.over.length) {
         const name = spec.sweep.over[0]!;
         const input = spec.inputs.find((i) => i.name === name)!;
         this.model.set("sweep", { over: name, from: input.min, to: input.max, points: spec.sweep.points });

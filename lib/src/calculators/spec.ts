@@ -37,6 +37,12 @@ export interface OutputSpec {
   meaning: string;
   /** "scalar" (default), "array" (e.g. a sweep or profile), or "text" (a statement). */
   kind?: "scalar" | "array" | "text";
+  /**
+   * An array output whose points may have no value (a sweep crossing a region where the state does
+   * not exist): NaN marks such a point and is drawn as a gap. The result then says how many (status
+   * "warning" with a note). Never Infinity; without this flag every entry must be finite.
+   */
+  gaps?: boolean;
 }
 
 /** A plot the widgets draw from outputs: y outputs against an x output (array outputs). */
@@ -247,7 +253,8 @@ function fmtBytes(b: number): string {
  * A result must be finite to leave as "ok" or "warning": every scalar output a finite number,
  * every array output finite numbers. Anything else is a computation that failed.
  */
-function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): void {
+function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): string[] {
+  const gapNotes: string[] = [];
   for (const o of spec.outputs) {
     const v = values[o.name];
     if (v === undefined || typeof v === "string") continue;
@@ -256,13 +263,20 @@ function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): voi
       continue;
     }
     if (!Array.isArray(v)) throw new ComputationError(spec.id, `output ${o.name} is neither a number, an array nor a text`);
+    let gaps = 0;
     for (let i = 0; i < v.length; i++) {
       const x = v[i];
+      if (o.gaps && typeof x === "number" && Number.isNaN(x)) {
+        gaps++;
+        continue;
+      }
       if (typeof x !== "number" || !Number.isFinite(x)) {
         throw new ComputationError(spec.id, `output ${o.name}[${i}] (${o.meaning}) came out ${x}, not a finite number: the inputs are outside what the method can handle`);
       }
     }
+    if (gaps > 0) gapNotes.push(`${o.name}: ${gaps} of ${v.length} points have no value (no state there; drawn as gaps)`);
   }
+  return gapNotes;
 }
 
 /**
@@ -335,7 +349,7 @@ export function runCalculator(
     if (!(err instanceof InputError)) throw err;
     throw explainComputeError(spec, raw, inputs, err);
   }
-  checkFinite(spec, computed.values);
+  const gapNotes = checkFinite(spec, computed.values);
   const outputs: CalculatorResult["outputs"] = {};
   for (const o of spec.outputs) {
     const v = computed.values[o.name];
@@ -345,13 +359,13 @@ export function runCalculator(
   const result: CalculatorResult = {
     id: spec.id,
     title: spec.title,
-    status: computed.status ?? "ok",
+    status: gapNotes.length ? "warning" : computed.status ?? "ok",
     inputs: Object.fromEntries(spec.inputs.map((i) => [i.name, { value: inputs[i.name]!, unit: i.unit }])),
     outputs,
     method: spec.method,
     sources: spec.sources,
     assumptions: spec.assumptions,
-    notes: [...inputNotes(spec, raw, inputs), ...(computed.notes ?? [])],
+    notes: [...inputNotes(spec, raw, inputs), ...(computed.notes ?? []), ...gapNotes],
   };
   if (sweep) result.sweep = sweep;
   return result;

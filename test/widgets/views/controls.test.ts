@@ -5,6 +5,7 @@
 import { describe, it, expect } from "vitest";
 import { toPosition, fromPosition, STEPS } from "../../../widgets/src/views/sliderScale";
 import { validateEntry, entryText } from "../../../widgets/src/views/quantityEntry";
+import { getCalculator } from "@helicoid/lib";
 import { codeSnippet, quantityLiteral } from "../../../widgets/src/views/codeSnippet";
 import { plotFigure } from "../../../widgets/src/views/explorerPlots";
 import { runCalculator, defaultSweep } from "../../../lib/src/index";
@@ -62,6 +63,18 @@ describe("copy as code", () => {
     const a = runCalculator(testWallSpec, raw).outputs.Delta!.value as number;
     const b = runCalculator(testWallSpec, values).outputs.Delta!.value as number;
     expect(Math.abs(a - b) / b).toBeLessThan(1e-11);
+  });
+});
+
+describe("copy as code: choices", () => {
+  it("writes a choice by its label, which runCalculator reads back to the same value", () => {
+    const texture = getCalculator("texture");
+    const values = Object.fromEntries(texture.inputs.map((i) => [i.name, i.default]));
+    values.kind = 3;
+    const code = codeSnippet({ calculator: "texture", inputs: texture.inputs, values, sweep: null });
+    expect(code).toContain('kind: "skyrmion lattice",');
+    expect(code).not.toMatch(/kind: 3/);
+    expect(runCalculator(texture, { kind: "skyrmion lattice", n: 32 }).inputs.kind!.value).toBe(3);
   });
 });
 

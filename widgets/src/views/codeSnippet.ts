@@ -20,8 +20,13 @@ export function codeSnippet(options: {
   sweep: SweepRequest | null;
 }): string {
   const { calculator, inputs, values, sweep } = options;
+  // a choice is written by its label ("skyrmion lattice"), which the calculators accept, not its number
+  const literal = (i: InputSpec, v: number) => {
+    const choice = i.kind === "choice" ? i.choices?.find((c) => c.value === v) : undefined;
+    return choice ? JSON.stringify(choice.label) : quantityLiteral(v, i.unit);
+  };
   const body = inputs
-    .map((i) => `  ${/^[A-Za-z_$][\w$]*$/.test(i.name) ? i.name : JSON.stringify(i.name)}: ${quantityLiteral(values[i.name] ?? i.default, i.unit)},`)
+    .map((i) => `  ${/^[A-Za-z_$][\w$]*$/.test(i.name) ? i.name : JSON.stringify(i.name)}: ${literal(i, values[i.name] ?? i.default)},`)
     .join("\n");
   const unitOf = (name: string) => inputs.find((i) => i.name === name)?.unit ?? "";
   const sweepText = sweep
