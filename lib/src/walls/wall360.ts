@@ -27,6 +27,18 @@
  * R -> arsinh(1) Delta / sqrt(h) -> 0 (collapse only as B -> infinity in this 1D continuum model).
  * Stability against rotating the in-plane moment out of the common plane (unwinding through the
  * sphere) is not analysed here; the ansatz is planar.
+ *
+ * Energy of the exact pair (our derivation from the first integral A theta'^2 = K_eff [sin^2 theta +
+ * 2 h (1 - cos theta)] of the 1D equation, substituting c = cos(theta / 2)):
+ *   E_pair(h) = 8 sqrt(A K_eff) [ sqrt(1 + h) + h asinh(1 / sqrt h) ] - 2 pi |D|,
+ * which tends to two free walls, 2 (4 sqrt(A K_eff) - pi |D|), as h -> 0. The bracket grows
+ * monotonically from 1, so for |D| > D_c = 4 sqrt(A K_eff) / pi the pair energy is negative below and
+ * positive above the saturation field B_sat = 2 K_eff h_s / Ms, where sqrt(1 + h_s) + h_s asinh(1 /
+ * sqrt h_s) = |D| / D_c. Below B_sat inserting 360-degree walls lowers the energy (a spiral or
+ * strip-domain state is lower than the uniform one); above it the uniform state is lower than any
+ * dilute array of such walls. Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (the saturation
+ * field of the spiral as the field where an isolated 360-degree wall costs no energy); the closed
+ * form above is ours, checked against scipy in test/lib/walls/wall360.test.ts.
  */
 import { InputError } from "../errors.js";
 import { minimize2d } from "../numeric/minimize2d.js";
@@ -136,6 +148,40 @@ export function wall360ExactPair(f: Film, B: number): { radius: number; width: n
   const h = (f.Ms * B) / (2 * K);
   const width = Delta / Math.sqrt(1 + h);
   return { radius: width * Math.asinh(Math.sqrt((1 + h) / h)), width };
+}
+
+/** The bracket sqrt(1 + h) + h asinh(1 / sqrt h) of the exact pair energy (1 at h = 0, increasing). */
+function pairBracket(h: number): number {
+  if (h === 0) return 1;
+  return Math.sqrt(1 + h) + h * Math.asinh(1 / Math.sqrt(h));
+}
+
+/** Energy per unit area (J/m^2) of the exact 360-degree pair at B > 0 (local model), DMI-favoured helicity. */
+export function wall360ExactPairEnergy(f: Film, B: number): number {
+  if (!(B > 0) || !Number.isFinite(B)) throw new InputError("B", B, "a positive finite field in T (a bound pair)");
+  const K = requirePerpendicular(f, "the 360-degree wall");
+  const h = (f.Ms * B) / (2 * K);
+  return 8 * Math.sqrt(f.A * K) * pairBracket(h) - 2 * Math.PI * Math.abs(f.D);
+}
+
+/**
+ * Saturation field B_sat (T) for |D| > D_c: the field where the exact 360-degree pair energy vanishes
+ * (see the file header); 0 for |D| <= D_c (the pair energy is positive at every B > 0). Bisection on
+ * h to a relative 1e-14.
+ */
+export function saturationField(f: Film): number {
+  const K = requirePerpendicular(f, "the saturation field");
+  const ratio = (Math.PI * Math.abs(f.D)) / (4 * Math.sqrt(f.A * K));
+  if (!(ratio > 1)) return 0;
+  let lo = 0;
+  let hi = 1;
+  while (pairBracket(hi) < ratio) hi *= 2;
+  for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (pairBracket(mid) < ratio) lo = mid;
+    else hi = mid;
+  }
+  return (2 * K * 0.5 * (lo + hi)) / f.Ms;
 }
 
 /** Field above which R < w (the two walls have merged into one compressed 2-pi soliton), T. */
