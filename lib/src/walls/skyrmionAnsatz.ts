@@ -1043,12 +1043,19 @@ function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
       su *= 0.05 / len;
       sv *= 0.05 / len;
     }
-    u += su;
-    v += sv;
-    if (Math.abs(su) < 1e-11 && Math.abs(sv) < 1e-11) break;
+    // stay where the tables and the verification stencils reach (a point held here fails the margin)
+    const uc = Math.min(Math.max(u + su, U_CLAMP[0]), U_CLAMP[1]);
+    const lnD = Math.log(ctx.Delta);
+    const vc = Math.min(Math.max(v + sv, lnD + W_LO + 0.011), lnD + W_HI - 0.011);
+    const moved = Math.abs(uc - u) + Math.abs(vc - v);
+    u = uc;
+    v = vc;
+    if (moved < 1e-11) break;
   }
   return [u, v];
 }
+
+const U_CLAMP: readonly [number, number] = [Math.log(ANSATZ_A_MIN) + 0.011, Math.log(ANSATZ_A_MAX) - 0.011];
 
 /** Energies on the 3 x 3 stencil of step d around (u = ln a, v = ln w), E[3 p + q]. */
 function stencil(ctx: Context, u: number, v: number, d: number, E: Float64Array): void {
@@ -1203,7 +1210,7 @@ export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions &
   const ctx = makeContext(film, B, options);
   const uMin = Math.log(ANSATZ_A_MIN);
   const uMax = Math.log(ANSATZ_A_MAX);
-  const candidates: Array<{ u: number; lw: number }> = [];
+  const candidates: Array<{ u: number; lw: number; probe?: boolean }> = [];
   const rejected: string[] = [];
   let small = false;
   let large = false;
@@ -1232,6 +1239,16 @@ export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions &
     large = es[n]! < es[n - 1]!;
     eSmall = es[0]!;
     eLarge = es[n]!;
+    // a minimum between the last two scan points and the window edge is still reportable when it
+    // keeps the margin: probe those intervals (a failed probe only confirms the trend)
+    if (small) {
+      const o = refine(ctx, us[0]!, us[1]!, lws[0]!);
+      if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
+    }
+    if (large) {
+      const o = refine(ctx, us[n - 1]!, us[n]!, lws[n]!);
+      if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
+    }
     for (let i = 1; i < n; i++) {
       if (edge[i] || !(es[i]! <= es[i - 1]! && es[i]! <= es[i + 1]!)) continue;
       const o = refine(ctx, us[i - 1]!, us[i + 1]!, lws[i]!);
@@ -1261,6 +1278,7 @@ export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions &
         if (c.u > 0.5 * (uMin + uMax)) large = true;
         else small = true;
       }
+      if (c.probe) continue;
       rejected.push(
         `R = ${fmtLen(st.radius)}, w = ${fmtLen(st.wallWidth)} not reported: ${[
           ver.stationary ? "" : `gradient ${ver.relativeGradient.toExponential(1)} (relative) is not ~0`,
@@ -1374,7 +1392,7 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
   if (search.minima.length > 1) {
     notes.push(`${search.minima.length} local minima at this field (R = ${search.minima.map((m) => fmtLen(m.radius)).join(", ")}); the one reported is ${options.startRadius ? "the one continued from the start radius" : "the lowest in energy"}.`);
   }
-  return {
+  const okOut: AnsatzSkyrmion = {
     status: "ok",
     radius: chosen.radius,
     wallWidth: chosen.wallWidth,
@@ -1387,6 +1405,8 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
     energyOverBelavinPolyakov: chosen.energyOverBelavinPolyakov,
     phase,
   };
+  if (spiral) okOut.spiralPeriod = spiralState(film).period;
+  return okOut;
 }
 
 /** A field sweep of the ansatz skyrmion: one solve per field, warm-started from the last state. */
