@@ -42,7 +42,7 @@
  */
 import { InputError } from "../errors.js";
 import { minimize2d } from "../numeric/minimize2d.js";
-import { type Film, requirePerpendicular, wallWidthParameter } from "../material/film.js";
+import { type Film, criticalDmi, requirePerpendicular, wallWidthParameter } from "../material/film.js";
 
 /** J(p) = Integral_0^inf du / (sinh^2 u + p) and its derivative dJ/dp, for p > 0. */
 export function pairIntegral(p: number): { J: number; dJ: number } {
@@ -215,6 +215,17 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
   const K = requirePerpendicular(f, "the 360-degree wall");
   const helicity = wall360Helicity(f);
   const sigmaPair = 8 * Math.sqrt(f.A * K) + wall360DmiEnergy(f, helicity);
+  const aboveDc = f.dmi === "interfacial" || f.dmi === "bulk" ? Math.abs(f.D) > criticalDmi(f) : false;
+  const dcNote = (): string[] => {
+    if (!aboveDc) return [];
+    const Bsat = saturationField(f);
+    const head = `|D| = ${(Math.abs(f.D) * 1e3).toPrecision(4)} mJ/m^2 > D_c = ${(criticalDmi(f) * 1e3).toPrecision(4)} mJ/m^2, saturation field B_sat = ${(Bsat * 1e3).toPrecision(4)} mT`;
+    return [
+      B > Bsat
+        ? `${head}: B > B_sat, the pair energy is positive and the uniform film is lower than a spiral or strips; the pair is an excitation of it.`
+        : `${head}: B <= B_sat, the pair energy is negative (each 360-degree wall lowers the energy), so a spiral or strip state is lower than the uniform film; the pair is not a metastable excitation of a uniform ground state.`,
+    ];
+  };
   if (!(B > 0)) {
     return {
       status: "unbound",
@@ -229,6 +240,7 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
         B === 0
           ? "B = 0: the two walls repel and separate; the energy tends to that of two free walls, 2 sigma."
           : "B < 0 favours the core: the reversed domain grows without bound (no pair).",
+        ...dcNote(),
       ],
     };
   }
@@ -241,6 +253,7 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
   const notes: string[] = [];
   if (!r.success) notes.push(`minimizer: ${r.message}`);
   if (radius < width) notes.push("R < w: the pair is compressed into a single 2-pi soliton (field above the merge field).");
+  notes.push(...dcNote());
   return {
     status: "bound",
     radius,
