@@ -3,12 +3,14 @@
  * thin-film magnetostatics, R(B) and w(B) sweeps) and `skyrmion-profile` (ansatz against the exact
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
-import { InputError } from "../errors.js";
+import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
+import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
 import { findAnsatzMinima, skyrmionBranches, solveSkyrmionAnsatz, type AnsatzSkyrmion, type BranchEnd } from "../walls/skyrmionAnsatz.js";
 import { solveSkyrmionExact } from "../walls/skyrmionExact.js";
+import { skyrmionStability, stripOutField, type SkyrmionStability } from "../walls/skyrmionStability.js";
+import { saturationField } from "../walls/wall360.js";
 
 const demo = demoFilmHX1.film;
 
@@ -260,6 +262,11 @@ function computeProfile(v: InputValues): ComputeOutput {
     return { values, status: "warning", notes: an.notes };
   }
   const ex = solveSkyrmionExact(film, B);
+  if (ex.status !== "ok") {
+    values.regime = ex.notes.join(" ");
+    if (ex.spiralPeriod !== undefined) values.spiralPeriod = ex.spiralPeriod;
+    return { values, status: "warning", notes: ex.notes };
+  }
   const full = solveSkyrmionAnsatz(film, B, { startRadius: an.radius });
   const Delta = wallWidthParameter(film);
   const rhoMax = Math.max(ex.radius, an.radius) + 8 * Delta;
@@ -296,15 +303,145 @@ function computeProfile(v: InputValues): ComputeOutput {
   });
   if (full.status === "ok") values.radiusAnsatzNonlocal = full.radius;
   else notes.push(`With non-local magnetostatics the ansatz reports '${full.status}'.`);
+  // stability of the exact profile against angular modes, and continuum validity
+  const st = skyrmionStability(film, B, { skyrmion: ex });
+  Object.assign(values, stabilityValues(st));
+  if (!st.stable) notes.push(values.stability as string);
+  notes.push(...st.notes);
+  const lattice = v.a ?? DEFAULT_LATTICE;
+  values.validity = validityText(ex.radius, lattice, ex.energy / (8 * Math.PI * film.A * film.t));
+  if (ex.radius < VALIDITY_SPACINGS * lattice) notes.push(values.validity as string);
+  values.branch = `${ex.radius / Delta < 4 ? "compact skyrmion" : "bubble"}, continued from the minimum of the local ansatz (R = ${fmtM(an.radius)})`;
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
+
+function validityText(R: number, lattice: number, eBP: number): string {
+  const Rv = VALIDITY_SPACINGS * lattice;
+  return R >= Rv
+    ? `R = ${fmtM(R)} >= ${VALIDITY_SPACINGS} a = ${fmtM(Rv)}: inside the continuum model's validity (energy ${eBP.toPrecision(4)} x 8 pi A t).`
+    : `R = ${fmtM(R)} < ${VALIDITY_SPACINGS} a = ${fmtM(Rv)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy at this size; its energy ${eBP.toPrecision(4)} x 8 pi A t approaches the Belavin-Polyakov value 1 as R -> 0.`;
+}
+
+/** Outputs of a stability analysis: lowest eigenvalue per mode and the verdict. */
+function stabilityValues(st: SkyrmionStability): ComputeOutput["values"] {
+  const lowest = st.modes.map((m) => (m.m === 1 ? m.eigenvalues[1] : m.eigenvalues[0]));
+  const parts = st.modes.map((m) =>
+    m.m === 1
+      ? `m = 1: ${m.eigenvalues[0].toExponential(1)} (translation zero mode), next ${m.eigenvalues[1].toPrecision(4)}`
+      : `m = ${m.m}: ${m.eigenvalues[0].toPrecision(4)}`,
+  );
+  return {
+    modeNumber: st.modes.map((m) => m.m),
+    modeEigenvalue: lowest,
+    translationEigenvalue: st.modes[1]!.eigenvalues[0],
+    continuumEdge: st.continuumEdge,
+    stability: st.stable
+      ? `Stable against small deformations with m = 0..4 (lowest eigenvalues in units of K_eff: ${parts.join("; ")}; continuum from ${st.continuumEdge.toPrecision(4)}).`
+      : `Unstable: mode m = ${st.unstableMode} has a negative eigenvalue (${parts.join("; ")}); ${st.unstableMode === 2 ? "elliptic (strip-out) deformation" : "the state deforms"}.`,
+  };
+}
+
+const stabilityOutputs: OutputSpec[] = [
+  { name: "stability", symbol: "", unit: "", kind: "text", meaning: "Stable or unstable against angular deformations m = 0..4 of the exact profile, with the eigenvalues" },
+  { name: "modeNumber", symbol: "m", unit: "", kind: "array", meaning: "Angular mode numbers 0..4" },
+  { name: "modeEigenvalue", symbol: "\\lambda_m", unit: "", kind: "array", meaning: "Lowest eigenvalue of each mode in units of K_eff (m = 1: the one above the translation zero mode)" },
+  { name: "translationEigenvalue", symbol: "\\lambda_T", unit: "", meaning: "m = 1 translation mode (zero up to discretization: a check)" },
+  { name: "continuumEdge", symbol: "\\lambda_c", unit: "", meaning: "Edge of the spin-wave continuum 1 + Ms B / (2 K_eff), units of K_eff" },
+  { name: "validity", symbol: "", unit: "", kind: "text", meaning: "Radius against 5 lattice constants; energy in units of 8 pi A t" },
+  { name: "branch", symbol: "", unit: "", kind: "text", meaning: "Which state was analysed" },
+];
+
+function computeStability(v: InputValues): ComputeOutput {
+  const film = filmOf(v);
+  const B = v.B!;
+  const notes: string[] = [];
+  const values: ComputeOutput["values"] = {};
+  let ex: ReturnType<typeof solveSkyrmionExact>;
+  try {
+    ex = solveSkyrmionExact(film, B);
+  } catch (e) {
+    if (!(e instanceof ConvergenceError)) throw e;
+    values.regime = `No exact skyrmion of the local model at this field: ${e.message}`;
+    return { values, status: "warning", notes: [values.regime as string] };
+  }
+  if (ex.status !== "ok") {
+    values.regime = ex.notes.join(" ");
+    return { values, status: "warning", notes: ex.notes };
+  }
+  const st = skyrmionStability(film, B, { skyrmion: ex });
+  Object.assign(values, stabilityValues(st));
+  notes.push(...st.notes);
+  if (!st.stable) notes.push(values.stability as string);
+  values.radiusExact = ex.radius;
+  values.energyExact = ex.energy;
+  const Delta = wallWidthParameter(film);
+  values.branch = `${ex.radius / Delta < 4 ? "compact skyrmion" : "bubble"} (exact profile of the local model, started from the local ansatz minimum)`;
+  const lattice = v.a ?? DEFAULT_LATTICE;
+  values.validity = validityText(ex.radius, lattice, ex.energy / (8 * Math.PI * film.A * film.t));
+  if (ex.radius < VALIDITY_SPACINGS * lattice) notes.push(values.validity as string);
+  if (Math.abs(film.D) > criticalDmi(film)) values.saturationField = saturationField(film);
+  if ((v.search ?? 0) >= 0.5) {
+    const Bmin = v.Bmin ?? -0.05;
+    if (!(Bmin < B)) throw new InputError("Bmin", Bmin, `a field below B = ${B} T (the strip-out search goes down in field)`);
+    const so = stripOutField(film, B, Bmin, 1e-5);
+    values.stripOutKind =
+      so.kind === "softens"
+        ? `The m = 2 (elliptic) eigenvalue crosses zero at ${fmtT(so.field)} (+- ${(so.resolution * 1e6).toPrecision(2)} uT): below it the skyrmion strips out.`
+        : so.kind === "ends"
+          ? `The exact skyrmion stops existing at ${fmtT(so.field)} (+- ${(so.resolution * 1e6).toPrecision(2)} uT) before the m = 2 mode crosses zero; its eigenvalue there is ${so.lastEigenvalue.toPrecision(3)} K_eff${Math.abs(film.D) > criticalDmi(film) ? ` (|D| > D_c: this is B_sat = ${fmtT(saturationField(film))}, where the radius diverges and the elliptic mode softens towards zero)` : ""}.`
+          : `Neither softening nor the end of existence down to ${fmtT(so.field)}.`;
+    if (so.kind !== "none") {
+      values.stripOutField = so.field;
+      values.stripOutResolution = so.resolution;
+    }
+  }
+  return { values, status: notes.length ? "warning" : "ok", notes };
+}
+
+const stabilitySpec: CalculatorSpec = {
+  id: "skyrmion-stability",
+  title: "Skyrmion stability against elliptic and other angular deformations",
+  summary:
+    "Lowest eigenvalues of the linearized energy (radial fluctuation operator, derived in lib/src/walls/skyrmionStability.ts) of the exact skyrmion profile of the local model for angular modes m = 0..4: stable when all are positive (besides the m = 1 translation zero mode, reported as a check). Optionally searches down in field for the strip-out field where the m = 2 (elliptic) mode softens, or where the skyrmion stops existing first.",
+  inputs: [
+    // defaults: the demo film with a stronger DMI, where the skyrmion is several nm across
+    ...filmInputs().map((i) => (i.name === "D" ? { ...i, default: 2.9e-3 } : i.name === "B" ? { ...i, default: 0.02 } : i)),
+    latticeInput,
+    { name: "search", symbol: "", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "skip" }, { value: 1, label: "strip-out search" }], meaning: "Search down in field for the strip-out field (a few seconds)" },
+    { name: "Bmin", symbol: "B_{min}", unit: "T", default: -0.05, min: -0.3, max: 0.3, scale: "linear", meaning: "Lowest field of the strip-out search" },
+  ],
+  outputs: [
+    ...stabilityOutputs,
+    { name: "radiusExact", symbol: "R", unit: "m", meaning: "Radius of the exact profile (m_z = 0)" },
+    { name: "energyExact", symbol: "E", unit: "J", meaning: "Energy of the exact profile relative to the uniform film" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips" },
+    { name: "stripOutField", symbol: "B_{so}", unit: "T", meaning: "Field where m = 2 softens (or where the skyrmion stops existing first)" },
+    { name: "stripOutResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the strip-out bracket" },
+    { name: "stripOutKind", symbol: "", unit: "", kind: "text", meaning: "What ends the skyrmion going down in field" },
+    { name: "regime", symbol: "", unit: "", kind: "text", meaning: "Why there is no skyrmion, when there is none" },
+  ],
+  plots: [{ id: "mode-eigenvalues", title: "Lowest eigenvalue per angular mode", x: "modeNumber", y: ["modeEigenvalue"], mode: "markers" }],
+  assumptions: [
+    ...commonAssumptions,
+    "Local magnetostatics (K_eff only): the non-local dipolar terms, which drive the strip-out of large bubbles in thicker films, are not in this operator.",
+    "Small deformations of the exact axisymmetric profile; eigenvalues in units of K_eff, per unit norm Int |delta m|^2 dA.",
+    "Continuum validity: a radius below 5 lattice constants (input a) is flagged. Common practice, no source.",
+  ],
+  sources: [
+    "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability of isolated skyrmions, strip-out; saturation field above D_c)",
+    "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
+  ],
+  method: "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
+  compute: computeStability,
+};
+
 
 const profileSpec: CalculatorSpec = {
   id: "skyrmion-profile",
   title: "Skyrmion profile: 360-degree-wall ansatz against the exact radial solution",
   summary:
-    "Solves the radial Euler-Lagrange equation of an isolated skyrmion (local magnetostatics through K_eff) by Newton relaxation with Richardson extrapolation, and compares it with the minimized 360-degree-wall ansatz of the same energy functional: profiles theta(rho) and m_z(rho), radii (m_z = 0) and energies. The exact energy lies below the ansatz energy (variational bound).",
-  inputs: filmInputs(),
+    "Solves the radial Euler-Lagrange equation of an isolated skyrmion (local magnetostatics through K_eff) by Newton relaxation with Richardson extrapolation, and compares it with the minimized 360-degree-wall ansatz of the same energy functional: profiles theta(rho) and m_z(rho), radii (m_z = 0) and energies. The exact energy lies below the ansatz energy (variational bound). Reports the stability of the exact profile against angular deformations m = 0..4 and whether its radius is inside the continuum model's validity for the lattice constant a.",
+  inputs: [...filmInputs(), latticeInput],
   outputs: [
     { name: "rho", symbol: "\\rho", unit: "m", meaning: "Radial positions", kind: "array" },
     { name: "thetaAnsatz", symbol: "\\theta_a", unit: "rad", meaning: "Polar angle (rad) of the ansatz", kind: "array" },
@@ -319,6 +456,7 @@ const profileSpec: CalculatorSpec = {
     { name: "energyExact", symbol: "E_e", unit: "J", meaning: "Exact energy, local model (below E_a)" },
     { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| >= D_c)" },
     { name: "regime", symbol: "", unit: "", meaning: "What the film does at this field", kind: "text" },
+    ...stabilityOutputs,
   ],
   plots: [
     { id: "theta-profiles", title: "theta(rho): ansatz and exact", x: "rho", y: ["thetaAnsatz", "thetaExact"] },
@@ -327,15 +465,17 @@ const profileSpec: CalculatorSpec = {
   assumptions: [
     ...commonAssumptions,
     "Exact profile and its comparison use local magnetostatics (K_eff only); radiusAnsatzNonlocal adds the thin-film non-local terms.",
-    "The exact solution is a stationary point of the radial functional; its stability against non-axisymmetric modes is not checked.",
+    "Stability of the exact solution: lowest eigenvalues of the linearized energy for angular modes m = 0..4 (local magnetostatics); see skyrmion-stability for the strip-out search.",
+    "Continuum validity: a radius below 5 lattice constants (input a) is flagged. Common practice, no source.",
   ],
   sources: [
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
     "H.-B. Braun, PRB 50, 16501 (1994); F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (ansatz)",
+    "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability against angular modes)",
   ],
-  method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by nested Brent minimization.",
+  method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
   compute: computeProfile,
 };
 
 /** Calculator specs of isolated skyrmions. */
-export const skyrmionCalculators: CalculatorSpec[] = [skyrmionSpec, profileSpec];
+export const skyrmionCalculators: CalculatorSpec[] = [skyrmionSpec, profileSpec, stabilitySpec];
