@@ -26,14 +26,27 @@
  * route as the independent reference (agreement to about 2e-6, the direct route's own k-grid error).
  * Accuracy of the interpolated energy terms: about 1e-6 relative (Phi) and 1e-7 (I_*), checked in
  * test/lib/walls/magnetostatics.test.ts and skyrmionAnsatz.test.ts.
- * Minimization: for fixed a the energy is minimized over w by Newton's method in ln w with the
- * analytic w-dependence of each term and the table's derivatives in ln tau (Brent's method as the
- * fallback), from the last inner minimum (with the interfacial helicity in closed form: cos psi =
- * clamp(-X / 2Y), X the DMI term, Y the volume-charge term); the outer minimization over ln a walks
- * downhill from a start (a warm start in sweeps) to a bracket, then Brent, then Newton steps on a
- * central-difference stencil in (ln a, ln w) fix the minimum far below the tolerances (results do
- * not depend on last-ulp differences between engines). A run to the table edge a < 0.3 (R < 0.3 w)
- * is reported as collapse, a run to a > 100 as run-away expansion.
+ * Search (findAnsatzMinima). Window: 0.3 <= a <= 100 (the tables), Delta / 40 <= w <= 40 Delta.
+ *  1. Global scan: at 74 points of ln a (step 0.08) the energy is minimized over w on the whole
+ *     window (coarse scan of ln w, step 0.3, then Brent); every discrete minimum of this w-minimized
+ *     curve is a candidate, and so is the last interval at a window edge the curve falls towards.
+ *  2. Local search from each candidate and from each warm start (a state of a neighbouring field):
+ *     Brent over ln a with the inner minimum over w followed from the last one (Newton with the
+ *     analytic w-dependence of each term and the table's derivatives in ln tau, Brent as fallback;
+ *     the interfacial helicity in closed form, cos psi = clamp(-X / 2Y)), then Newton steps on a
+ *     central-difference stencil in (ln a, ln w) (results do not depend on last-ulp differences
+ *     between JavaScript engines).
+ *  3. Verification of each candidate before it is reported: relative gradient below 1e-6, Hessian in
+ *     (ln a, ln w) positive definite at stencils 1e-3 and 1e-2, and at least 0.03 (in ln) away from
+ *     every window edge. A point on an edge is never reported; the trend towards an edge is
+ *     (status "below-window": the minimum, if any, is smaller than the window, where the continuum
+ *     energy tends to the Belavin-Polyakov value 8 pi A t, not a collapse; "expanded": run-away
+ *     expansion or a bubble larger than the window).
+ * Branches over a field sweep (skyrmionBranches): minima at neighbouring fields are linked by
+ * continuation with step control, up and down in field; each end of a branch inside the range is
+ * located by halving the continuation step to a stated tolerance. Above D_c the ground state at each
+ * field follows from the saturation field B_sat of wall360.ts (Bogdanov and Hubert 1994) and the sign
+ * of the skyrmion energy (fieldPhase).
  */
 import { ConvergenceError, InputError } from "../errors.js";
 import { mu0 } from "../quantity/constants.js";
