@@ -3,12 +3,14 @@
  * thin-film magnetostatics, R(B) and w(B) sweeps) and `skyrmion-profile` (ansatz against the exact
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
-import { InputError } from "../errors.js";
-import { makeFilm, requirePerpendicular, wallWidthParameter, type Film } from "../material/film.js";
+import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
+import { ConvergenceError, InputError } from "../errors.js";
+import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
-import { solveSkyrmionAnsatz, type AnsatzSkyrmion } from "../walls/skyrmionAnsatz.js";
+import { findAnsatzMinima, skyrmionBranches, solveSkyrmionAnsatz, type AnsatzSkyrmion, type BranchEnd } from "../walls/skyrmionAnsatz.js";
 import { solveSkyrmionExact } from "../walls/skyrmionExact.js";
+import { skyrmionStability, stripOutField, type SkyrmionStability } from "../walls/skyrmionStability.js";
+import { saturationField } from "../walls/wall360.js";
 
 const demo = demoFilmHX1.film;
 
@@ -36,36 +38,62 @@ const commonAssumptions = [
 ];
 
 function describe(r: AnsatzSkyrmion): string {
-  if (r.status === "ok") return "Metastable isolated skyrmion.";
+  if (r.status === "ok") {
+    const g = r.phase.groundState;
+    return g === "uniform"
+      ? "Metastable isolated skyrmion (verified local minimum of the ansatz energy) in a uniform ground state."
+      : `Verified local minimum of the ansatz energy; ${r.phase.text}`;
+  }
   return r.notes.join(" ");
 }
 
-/** Refine the boundary between an existing (okField) and a non-existing (badField) skyrmion by bisection. */
-function refineBoundary(film: Film, okField: number, badField: number, startRadius: number, tol = 1e-4): number {
-  let ok = okField;
-  let bad = badField;
-  let start = startRadius;
-  for (let i = 0; i < 40 && Math.abs(bad - ok) > tol; i++) {
-    const mid = 0.5 * (ok + bad);
-    const r = solveSkyrmionAnsatz(film, mid, { startRadius: start });
-    if (r.status === "ok") {
-      ok = mid;
-      start = r.radius;
-    } else bad = mid;
-  }
-  return ok;
+/** Default lattice constant (m) and the validity radius in lattice constants (common practice, no source). */
+const DEFAULT_LATTICE = 0.3e-9;
+const VALIDITY_SPACINGS = 5;
+
+const latticeInput: InputSpec = {
+  name: "a",
+  symbol: "a",
+  unit: "m",
+  default: DEFAULT_LATTICE,
+  min: 0.2e-9,
+  max: 0.5e-9,
+  scale: "linear",
+  meaning: `Lattice constant of the film: a radius below ${VALIDITY_SPACINGS} a is outside what the continuum model describes`,
+};
+
+function fmtT(B: number): string {
+  return `${(B * 1e3).toPrecision(5)} mT`;
+}
+
+function fmtM(x: number): string {
+  return x >= 1e-6 ? `${(x * 1e6).toPrecision(4)} um` : `${(x * 1e9).toPrecision(4)} nm`;
+}
+
+function endText(e: BranchEnd, side: "lower" | "upper"): string {
+  const where = `${fmtT(e.field)} (+- ${(e.resolution * 1e6).toPrecision(2)} uT)`;
+  const beyond = side === "lower" ? "below" : "above";
+  if (e.kind === "expansion") return `${beyond} ${where} the energy falls towards R = 100 w (run-away expansion, strip-out side; or a bubble larger than the ansatz window)`;
+  if (e.kind === "below-window") return `${beyond} ${where} the minimum shrinks below R = 0.3 w, the ansatz window (not a continuum collapse: the continuum energy approaches 8 pi A t as R -> 0)`;
+  return `${beyond} ${where} the minimum merges with a saddle and disappears`;
 }
 
 function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
   const film = filmOf(v);
+  const lattice = v.a ?? DEFAULT_LATTICE;
+  if (!(lattice > 0)) throw new InputError("a", lattice, "a positive lattice constant in m");
+  const Rvalid = VALIDITY_SPACINGS * lattice;
   const notes: string[] = [];
   const values: ComputeOutput["values"] = {};
   const r = solveSkyrmionAnsatz(film, v.B!);
   values.regime = describe(r);
   values.deltaParameter = wallWidthParameter(film);
-  if (r.status === "spiral") {
-    values.spiralPeriod = r.spiralPeriod!;
-    return { values, status: "warning", notes: r.notes };
+  values.validityRadius = Rvalid;
+  values.groundState = r.phase.text;
+  values.belavinPolyakovEnergy = 8 * Math.PI * film.A * film.t;
+  if (Math.abs(film.D) > criticalDmi(film)) {
+    values.saturationField = r.phase.saturationField;
+    values.spiralPeriod = r.spiralPeriod ?? spiralState(film).period;
   }
   if (r.status === "ok") {
     values.radius = r.radius;
@@ -73,9 +101,19 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
     values.energy = r.energy.total;
     values.helicity = r.helicity;
     values.magnetostaticEnergy = r.energy.magnetostaticSurface + r.energy.magnetostaticVolume;
-    // Continuum limit: a few lattice spacings (~0.3 nm) across the core is where the continuum
-    // energy stops being trustworthy (a lattice model is needed). Common practice, no source.
-    if (r.radius < 3e-9) notes.push(`R = ${(r.radius * 1e9).toPrecision(3)} nm spans only a few atomic spacings: the continuum model is at its limit there (treat R as a rough estimate)`);
+    values.energyOverBelavinPolyakov = r.energyOverBelavinPolyakov!;
+    values.minimaCount = r.minima.length;
+    values.states = r.minima
+      .map(
+        (m, k) =>
+          `${k + 1}: R = ${fmtM(m.radius)}, w = ${fmtM(m.wallWidth)}, E = ${(m.energy.total / (8 * Math.PI * film.A * film.t)).toPrecision(4)} x 8 pi A t; ` +
+          `verified minimum (relative gradient ${m.verification.relativeGradient.toExponential(1)}, Hessian eigenvalues ${m.verification.hessianEigenvalues.map((x) => x.toPrecision(3)).join(", ")} of the energy scale); ` +
+          (m.radius >= Rvalid ? `valid (R >= ${VALIDITY_SPACINGS} a)` : `outside the continuum model's validity (R < ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)})`),
+      )
+      .join("\n");
+    if (r.radius < Rvalid) notes.push(`R = ${fmtM(r.radius)} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy there; the energy is ${r.energyOverBelavinPolyakov!.toPrecision(4)} x 8 pi A t (Belavin-Polyakov limit 1 as R -> 0).`);
+    if (r.phase.groundState !== "uniform") notes.push(r.phase.text);
+    if (r.minima.length > 1) notes.push(`${r.minima.length} local minima at this field: see 'states'; the one reported is the lowest in energy.`);
   } else {
     notes.push(...r.notes);
   }
@@ -83,53 +121,70 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
   if (sweep) {
     if (sweep.over !== "B") throw new InputError("sweep", sweep.over, "B (the only sweepable input of 'skyrmion')");
     const n = sweep.points;
-    const fs: number[] = [];
-    const rs: number[] = [];
-    const ws: number[] = [];
-    const es: number[] = [];
-    let start: number | undefined;
-    let lastOk: { B: number; R: number } | undefined;
-    let collapse: number | undefined;
+    const grid = Array.from({ length: n }, (_, i) => sweep.from + ((sweep.to - sweep.from) * i) / (n - 1));
+    const br = skyrmionBranches(film, grid);
+    // principal branch: the one holding the reported state, else the one with the most fields
+    let principal = br.branches.find((b) => r.status === "ok" && b.states.some((s) => Math.abs(Math.log(s.radius / r.radius)) < 1e-6));
+    if (!principal && br.branches.length) principal = br.branches.reduce((p, q) => (q.fields.length > p.fields.length ? q : p));
+    values.fieldSweep = principal ? principal.fields : [];
+    values.radiusSweep = principal ? principal.states.map((s) => s.radius) : [];
+    values.wallWidthSweep = principal ? principal.states.map((s) => s.wallWidth) : [];
+    values.energySweep = principal ? principal.states.map((s) => s.energy.total) : [];
+    values.branchCount = br.branches.length;
+    if (principal) values.principalBranch = principal.id;
+    values.allFieldSweep = br.perField.flatMap((list, i) => list.map(() => br.fields[i]!));
+    values.allRadiusSweep = br.perField.flatMap((list) => list.map((x) => x.state.radius));
+    values.allBranchSweep = br.perField.flatMap((list) => list.map((x) => x.branch));
+    const lines: string[] = [];
     let expansion: number | undefined;
-    let prevStatus: string | undefined;
-    let prevB = NaN;
-    for (let i = 0; i < n; i++) {
-      const B = sweep.from + ((sweep.to - sweep.from) * i) / (n - 1);
-      const s = solveSkyrmionAnsatz(film, B, start !== undefined ? { startRadius: start } : {});
-      if (s.status === "ok") {
-        fs.push(B);
-        rs.push(s.radius);
-        ws.push(s.wallWidth);
-        es.push(s.energy.total);
-        if (prevStatus !== undefined && prevStatus !== "ok" && expansion === undefined && collapse === undefined) {
-          // entering the metastable range (from the expanded side when sweeping upwards)
-          const edge = refineBoundary(film, B, prevB, s.radius);
-          if (prevStatus === "expanded") expansion = edge;
-          else if (prevStatus === "collapsed") collapse = edge;
+    let windowEnd: number | undefined;
+    let res = 0;
+    for (const b of br.branches) {
+      const parts = [`branch ${b.id} (${b.label}): ${b.fields.length} fields from ${fmtT(b.fields[0]!)} to ${fmtT(b.fields[b.fields.length - 1]!)}, R ${fmtM(b.states[0]!.radius)} .. ${fmtM(b.states[b.states.length - 1]!.radius)}`];
+      if (b.lowerEnd) {
+        parts.push(endText(b.lowerEnd, "lower"));
+        if (b.lowerEnd.kind === "expansion" && (expansion === undefined || b.lowerEnd.field < expansion)) {
+          expansion = b.lowerEnd.field;
+          res = Math.max(res, b.lowerEnd.resolution);
         }
-        start = s.radius;
-        lastOk = { B, R: s.radius };
-      } else if (lastOk && prevStatus === "ok") {
-        const edge = refineBoundary(film, lastOk.B, B, lastOk.R);
-        if (s.status === "collapsed") collapse = edge;
-        else if (s.status === "expanded") expansion = edge;
       }
-      prevStatus = s.status;
-      prevB = B;
+      if (b.upperEnd) {
+        parts.push(endText(b.upperEnd, "upper"));
+        if (b.upperEnd.kind === "below-window" && (windowEnd === undefined || b.upperEnd.field > windowEnd)) {
+          windowEnd = b.upperEnd.field;
+          res = Math.max(res, b.upperEnd.resolution);
+        }
+      }
+      lines.push(parts.join("; "));
     }
-    values.fieldSweep = fs;
-    values.radiusSweep = rs;
-    values.wallWidthSweep = ws;
-    values.energySweep = es;
-    if (collapse !== undefined) values.collapseField = collapse;
+    values.branches = lines.length ? lines.join("\n") : "No verified minimum anywhere in the sweep.";
     if (expansion !== undefined) values.expansionField = expansion;
-    if (fs.length < n) {
-      notes.push(
-        `The sweep over B from ${(sweep.from * 1e3).toPrecision(4)} to ${(sweep.to * 1e3).toPrecision(4)} mT has a metastable skyrmion at ${fs.length} of ${n} fields; the sweep arrays hold those fields only.`,
-      );
+    if (windowEnd !== undefined) values.windowEndField = windowEnd;
+    values.boundaryResolution = Math.max(res, br.boundaryTolerance);
+    // continuum validity along the principal branch: bisection of R(B) = 5 a between sweep points
+    if (principal) {
+      const k = principal.states.findIndex((s) => s.radius < Rvalid);
+      if (k > 0) {
+        let lo = principal.fields[k - 1]!;
+        let hi = principal.fields[k]!;
+        let st = principal.states[k - 1]!;
+        for (let it = 0; it < 60 && hi - lo > br.boundaryTolerance; it++) {
+          const mid = 0.5 * (lo + hi);
+          const sr = findAnsatzMinima(film, mid, { starts: [st], scan: false });
+          const c = sr.minima.find((m) => Math.abs(Math.log(m.radius / st.radius)) < 0.25);
+          if (!c) break;
+          if (c.radius >= Rvalid) {
+            lo = mid;
+            st = c;
+          } else hi = mid;
+        }
+        values.continuumLimitField = 0.5 * (lo + hi);
+        notes.push(`Above B = ${fmtT(0.5 * (lo + hi))} the radius of branch ${principal.id} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)}: the continuum model is not trustworthy there (a lattice model is needed).`);
+      }
     }
-    if (collapse !== undefined) notes.push(`Collapse: above B = ${(collapse * 1e3).toPrecision(4)} mT the ansatz minimum shrinks below R = 0.3 w (the skyrmion collapses).`);
-    if (expansion !== undefined) notes.push(`Run-away expansion below B = ${(expansion * 1e3).toPrecision(4)} mT (the minimum runs to R > 100 w: stripe or reversed domain).`);
+    const nFields = br.perField.filter((l) => l.length > 0).length;
+    if (nFields < n) notes.push(`The sweep from ${fmtT(sweep.from)} to ${fmtT(sweep.to)} has a verified minimum at ${nFields} of ${n} fields; the sweep arrays hold the principal branch only (all states: allFieldSweep, allRadiusSweep, allBranchSweep).`);
+    if (br.branches.length > 1) notes.push(`${br.branches.length} branches of minima in the sweep (see 'branches').`);
   }
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
 }
@@ -138,23 +193,38 @@ const skyrmionSpec: CalculatorSpec = {
   id: "skyrmion",
   title: "Isolated skyrmion: radius, wall width and energy (360-degree-wall ansatz)",
   summary:
-    "Minimizes the energy of an isolated Neel skyrmion with the ansatz tan(theta/2) = sinh(R/w)/sinh(rho/w) over R, w and the helicity, with exchange, anisotropy, interfacial DMI, Zeeman and thin-film magnetostatics (surface and volume charges, beyond the local K_eff term). Gives R(B), w(B) and the energy over a field sweep with warm starts, and the field range of metastability (collapse, run-away expansion). For |D| >= D_c no isolated skyrmion exists: the spin spiral period is reported.",
-  inputs: filmInputs(),
+    "Finds every local minimum of the energy of an isolated Neel skyrmion with the ansatz tan(theta/2) = sinh(R/w)/sinh(rho/w) (R, w and the helicity), with exchange, anisotropy, interfacial DMI, Zeeman and thin-film magnetostatics (surface and volume charges): a global scan over R/w with w minimized, local searches, and a finite-difference check that each reported state is a minimum inside the searched window. Over a field sweep the minima are followed in both directions as labelled branches, and each branch end (expansion, leaving the window, or a fold) is located by halving the continuation step. Says which state is the ground state (uniform film, spiral or strips below B_sat when |D| > D_c, or a dense skyrmion array when the skyrmion energy is negative) and where the radius falls below what a continuum model describes for the lattice constant a.",
+  inputs: [...filmInputs(), latticeInput],
   outputs: [
-    { name: "radius", symbol: "R", unit: "m", meaning: "Radius where m_z = 0" },
+    { name: "radius", symbol: "R", unit: "m", meaning: "Radius where m_z = 0 (the lowest-energy verified minimum at this field)" },
     { name: "wallWidth", symbol: "w", unit: "m", meaning: "Wall width parameter of the ansatz" },
     { name: "energy", symbol: "E", unit: "J", meaning: "Energy relative to the uniform film" },
+    { name: "energyOverBelavinPolyakov", symbol: "E/8\\pi A t", unit: "", meaning: "Energy in units of the Belavin-Polyakov energy 8 pi A t, its limit as R -> 0" },
     { name: "helicity", symbol: "\\psi", unit: "", meaning: "Helicity in rad (0: outward Neel; pi: inward; intermediate when volume charges compete)" },
     { name: "magnetostaticEnergy", symbol: "E_{nl}", unit: "J", meaning: "Non-local magnetostatic part of the energy (surface + volume charges)" },
+    { name: "minimaCount", symbol: "n", unit: "", meaning: "Number of verified local minima at this field" },
+    { name: "states", symbol: "", unit: "", kind: "text", meaning: "Every verified minimum at this field: R, w, energy, verification, validity" },
     { name: "deltaParameter", symbol: "\\Delta", unit: "m", meaning: "Wall width parameter sqrt(A / K_eff) of the film" },
-    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| >= D_c)" },
-    { name: "collapseField", symbol: "B_c", unit: "T", meaning: "Field above which the skyrmion collapses (within the sweep range)" },
-    { name: "expansionField", symbol: "B_e", unit: "T", meaning: "Field below which the skyrmion runs away in size (within the sweep range)" },
+    { name: "validityRadius", symbol: "R_{min}", unit: "m", meaning: "5 a: below this radius the continuum model is not trustworthy" },
+    { name: "belavinPolyakovEnergy", symbol: "8\\pi A t", unit: "J", meaning: "Belavin-Polyakov energy, the continuum limit of the skyrmion energy as R -> 0" },
+    { name: "groundState", symbol: "", unit: "", kind: "text", meaning: "Ground state at this field and the place of the skyrmion" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips (360-degree wall energy zero)" },
+    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| > D_c)" },
+    { name: "expansionField", symbol: "B_e", unit: "T", meaning: "Lowest field of the sweep range down to which a branch exists before it expands beyond R = 100 w" },
+    { name: "windowEndField", symbol: "B_w", unit: "T", meaning: "Field above which the smallest branch shrinks below R = 0.3 w (the ansatz window; not a collapse)" },
+    { name: "continuumLimitField", symbol: "B_a", unit: "T", meaning: "Field above which the principal branch's radius is below 5 a" },
+    { name: "boundaryResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the brackets of the branch ends" },
+    { name: "branchCount", symbol: "", unit: "", meaning: "Number of branches of minima in the sweep" },
+    { name: "principalBranch", symbol: "", unit: "", meaning: "Branch shown in the sweep arrays" },
+    { name: "branches", symbol: "", unit: "", kind: "text", meaning: "Every branch: label, field range, radii, ends" },
     { name: "regime", symbol: "", unit: "", meaning: "What the film does at this field", kind: "text" },
-    { name: "fieldSweep", symbol: "\\mu_0 H", unit: "T", meaning: "Fields of the sweep with a metastable skyrmion", kind: "array" },
-    { name: "radiusSweep", symbol: "R", unit: "m", meaning: "Radius over the sweep", kind: "array" },
-    { name: "wallWidthSweep", symbol: "w", unit: "m", meaning: "Wall width over the sweep", kind: "array" },
-    { name: "energySweep", symbol: "E", unit: "J", meaning: "Energy over the sweep", kind: "array" },
+    { name: "fieldSweep", symbol: "\\mu_0 H", unit: "T", meaning: "Fields of the principal branch", kind: "array" },
+    { name: "radiusSweep", symbol: "R", unit: "m", meaning: "Radius along the principal branch", kind: "array" },
+    { name: "wallWidthSweep", symbol: "w", unit: "m", meaning: "Wall width along the principal branch", kind: "array" },
+    { name: "energySweep", symbol: "E", unit: "J", meaning: "Energy along the principal branch", kind: "array" },
+    { name: "allFieldSweep", symbol: "\\mu_0 H", unit: "T", meaning: "Field of every verified minimum of the sweep", kind: "array" },
+    { name: "allRadiusSweep", symbol: "R", unit: "m", meaning: "Radius of every verified minimum of the sweep", kind: "array" },
+    { name: "allBranchSweep", symbol: "", unit: "", meaning: "Branch of every verified minimum of the sweep", kind: "array" },
   ],
   plots: [
     { id: "radius-vs-field", title: "Radius and wall width against field", x: "fieldSweep", y: ["radiusSweep", "wallWidthSweep"] },
@@ -164,15 +234,19 @@ const skyrmionSpec: CalculatorSpec = {
   assumptions: [
     ...commonAssumptions,
     "Profile restricted to the 360-degree-wall ansatz (an upper bound on the energy; compare skyrmion-profile).",
-    "Metastability is judged within the axisymmetric ansatz: collapse when the minimum shrinks below R = 0.3 w, run-away expansion beyond R = 100 w; elliptic (strip-out) deformations are not evaluated.",
+    "A reported state is a verified local minimum of the ansatz energy inside the window 0.3 <= R/w <= 100, Delta/40 <= w <= 40 Delta (relative gradient below 1e-6, Hessian in ln R/w, ln w positive definite at stencils 1e-3 and 1e-2); a point on a window edge is never reported. Non-axisymmetric (elliptic, strip-out) stability is evaluated for the exact profile of the local model in skyrmion-profile.",
+    "Continuum validity: a radius below 5 lattice constants (input a, default 0.3 nm) is flagged. Common practice, no source.",
+    "Ground state for |D| > D_c from the 360-degree wall energy of the local model (B_sat); a negative isolated-skyrmion energy means a dense skyrmion array (not computed) is lower than the uniform film.",
     "Non-local magnetostatics from thin-film Hankel transforms, verified against an FFT grid computation.",
   ],
   sources: [
     "H.-B. Braun, PRB 50, 16501 (1994) (360-degree-wall ansatz)",
     "F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (skyrmion ansatz and thin-film magnetostatics)",
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (energy functional, D_c)",
+    "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (saturation field above D_c; isolated skyrmions above it)",
+    "A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975) (8 pi A t limit)",
   ],
-  method: "Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
+  method: "Global scan of the w-minimized ansatz energy over ln(R/w) (step 0.08), local searches and Newton polish, finite-difference verification; branches by continuation with step control up and down in field, ends by step halving. Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
   limits: {
     Ms: { above: 0, why: "a saturation magnetization" },
     A: { above: 0, why: "an exchange stiffness" },
@@ -193,6 +267,11 @@ function computeProfile(v: InputValues): ComputeOutput {
     return { values, status: "warning", notes: an.notes };
   }
   const ex = solveSkyrmionExact(film, B);
+  if (ex.status !== "ok") {
+    values.regime = ex.notes.join(" ");
+    if (ex.spiralPeriod !== undefined) values.spiralPeriod = ex.spiralPeriod;
+    return { values, status: "warning", notes: ex.notes };
+  }
   const full = solveSkyrmionAnsatz(film, B, { startRadius: an.radius });
   const Delta = wallWidthParameter(film);
   const rhoMax = Math.max(ex.radius, an.radius) + 8 * Delta;
@@ -229,15 +308,150 @@ function computeProfile(v: InputValues): ComputeOutput {
   });
   if (full.status === "ok") values.radiusAnsatzNonlocal = full.radius;
   else notes.push(`With non-local magnetostatics the ansatz reports '${full.status}'.`);
+  // stability of the exact profile against angular modes, and continuum validity
+  const st = skyrmionStability(film, B, { skyrmion: ex });
+  Object.assign(values, stabilityValues(st));
+  if (!st.stable) notes.push(values.stability as string);
+  notes.push(...st.notes);
+  const lattice = v.a ?? DEFAULT_LATTICE;
+  values.validity = validityText(ex.radius, lattice, ex.energy / (8 * Math.PI * film.A * film.t));
+  if (ex.radius < VALIDITY_SPACINGS * lattice) notes.push(values.validity as string);
+  values.branch = `${ex.radius / Delta < 4 ? "compact skyrmion" : "bubble"}, continued from the minimum of the local ansatz (R = ${fmtM(an.radius)})`;
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
+
+function validityText(R: number, lattice: number, eBP: number): string {
+  const Rv = VALIDITY_SPACINGS * lattice;
+  return R >= Rv
+    ? `R = ${fmtM(R)} >= ${VALIDITY_SPACINGS} a = ${fmtM(Rv)}: inside the continuum model's validity (energy ${eBP.toPrecision(4)} x 8 pi A t).`
+    : `R = ${fmtM(R)} < ${VALIDITY_SPACINGS} a = ${fmtM(Rv)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy at this size; its energy ${eBP.toPrecision(4)} x 8 pi A t approaches the Belavin-Polyakov value 1 as R -> 0.`;
+}
+
+/** Outputs of a stability analysis: lowest eigenvalue per mode and the verdict. */
+function stabilityValues(st: SkyrmionStability): ComputeOutput["values"] {
+  const lowest = st.modes.map((m) => (m.m === 1 ? m.eigenvalues[1] : m.eigenvalues[0]));
+  const parts = st.modes.map((m) =>
+    m.m === 1
+      ? `m = 1: ${m.eigenvalues[0].toExponential(1)} (translation zero mode), next ${m.eigenvalues[1].toPrecision(4)}`
+      : `m = ${m.m}: ${m.eigenvalues[0].toPrecision(4)}`,
+  );
+  return {
+    modeNumber: st.modes.map((m) => m.m),
+    modeEigenvalue: lowest,
+    translationEigenvalue: st.modes[1]!.eigenvalues[0],
+    continuumEdge: st.continuumEdge,
+    stability: st.stable
+      ? `Stable against small deformations with m = 0..4 (lowest eigenvalues in units of K_eff: ${parts.join("; ")}; continuum from ${st.continuumEdge.toPrecision(4)}).`
+      : `Unstable: mode m = ${st.unstableMode} has a negative eigenvalue (${parts.join("; ")}); ${st.unstableMode === 2 ? "elliptic (strip-out) deformation" : "the state deforms"}.`,
+  };
+}
+
+const stabilityOutputs: OutputSpec[] = [
+  { name: "stability", symbol: "", unit: "", kind: "text", meaning: "Stable or unstable against angular deformations m = 0..4 of the exact profile, with the eigenvalues" },
+  { name: "modeNumber", symbol: "m", unit: "", kind: "array", meaning: "Angular mode numbers 0..4" },
+  { name: "modeEigenvalue", symbol: "\\lambda_m", unit: "", kind: "array", meaning: "Lowest eigenvalue of each mode in units of K_eff (m = 1: the one above the translation zero mode)" },
+  { name: "translationEigenvalue", symbol: "\\lambda_T", unit: "", meaning: "m = 1 translation mode (zero up to discretization: a check)" },
+  { name: "continuumEdge", symbol: "\\lambda_c", unit: "", meaning: "Edge of the spin-wave continuum 1 + Ms B / (2 K_eff), units of K_eff" },
+  { name: "validity", symbol: "", unit: "", kind: "text", meaning: "Radius against 5 lattice constants; energy in units of 8 pi A t" },
+  { name: "branch", symbol: "", unit: "", kind: "text", meaning: "Which state was analysed" },
+];
+
+function computeStability(v: InputValues): ComputeOutput {
+  const film = filmOf(v);
+  const B = v.B!;
+  const notes: string[] = [];
+  const values: ComputeOutput["values"] = {};
+  let ex: ReturnType<typeof solveSkyrmionExact>;
+  try {
+    ex = solveSkyrmionExact(film, B);
+  } catch (e) {
+    if (!(e instanceof ConvergenceError)) throw e;
+    values.regime = `No exact skyrmion of the local model at this field: ${e.message}`;
+    return { values, status: "warning", notes: [values.regime as string] };
+  }
+  if (ex.status !== "ok") {
+    values.regime = ex.notes.join(" ");
+    return { values, status: "warning", notes: ex.notes };
+  }
+  const st = skyrmionStability(film, B, { skyrmion: ex });
+  Object.assign(values, stabilityValues(st));
+  notes.push(...st.notes);
+  if (!st.stable) notes.push(values.stability as string);
+  values.radiusExact = ex.radius;
+  values.energyExact = ex.energy;
+  const Delta = wallWidthParameter(film);
+  values.branch = `${ex.radius / Delta < 4 ? "compact skyrmion" : "bubble"} (exact profile of the local model, started from the local ansatz minimum)`;
+  const lattice = v.a ?? DEFAULT_LATTICE;
+  values.validity = validityText(ex.radius, lattice, ex.energy / (8 * Math.PI * film.A * film.t));
+  if (ex.radius < VALIDITY_SPACINGS * lattice) notes.push(values.validity as string);
+  if (Math.abs(film.D) > criticalDmi(film)) values.saturationField = saturationField(film);
+  if ((v.search ?? 0) >= 0.5) {
+    const Bmin = v.Bmin ?? -0.05;
+    if (!(Bmin < B)) throw new InputError("Bmin", Bmin, `a field below B = ${B} T (the strip-out search goes down in field)`);
+    const so = stripOutField(film, B, Bmin, 1e-5);
+    values.stripOutKind =
+      so.kind === "softens"
+        ? `The m = 2 (elliptic) eigenvalue crosses zero at ${fmtT(so.field)} (+- ${(so.resolution * 1e6).toPrecision(2)} uT): below it the skyrmion strips out.`
+        : so.kind === "ends"
+          ? `The exact skyrmion stops existing at ${fmtT(so.field)} (+- ${(so.resolution * 1e6).toPrecision(2)} uT) before the m = 2 mode crosses zero; its eigenvalue there is ${so.lastEigenvalue.toPrecision(3)} K_eff${Math.abs(film.D) > criticalDmi(film) ? ` (|D| > D_c: this is B_sat = ${fmtT(saturationField(film))}, where the radius diverges and the elliptic mode softens towards zero)` : ""}.`
+          : `Neither softening nor the end of existence down to ${fmtT(so.field)}.`;
+    if (so.kind !== "none") {
+      values.stripOutField = so.field;
+      values.stripOutResolution = so.resolution;
+    }
+  }
+  return { values, status: notes.length ? "warning" : "ok", notes };
+}
+
+const stabilitySpec: CalculatorSpec = {
+  id: "skyrmion-stability",
+  title: "Skyrmion stability against elliptic and other angular deformations",
+  summary:
+    "Lowest eigenvalues of the linearized energy (radial fluctuation operator, derived in lib/src/walls/skyrmionStability.ts) of the exact skyrmion profile of the local model for angular modes m = 0..4: stable when all are positive (besides the m = 1 translation zero mode, reported as a check). Optionally searches down in field for the strip-out field where the m = 2 (elliptic) mode softens, or where the skyrmion stops existing first.",
+  inputs: [
+    // defaults: the demo film with a stronger DMI, where the skyrmion is several nm across
+    ...filmInputs().map((i) => (i.name === "D" ? { ...i, default: 2.9e-3 } : i.name === "B" ? { ...i, default: 0.02 } : i)),
+    latticeInput,
+    { name: "search", symbol: "", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "skip" }, { value: 1, label: "strip-out search" }], meaning: "Search down in field for the strip-out field (a few seconds)" },
+    { name: "Bmin", symbol: "B_{min}", unit: "T", default: -0.05, min: -0.3, max: 0.3, scale: "linear", meaning: "Lowest field of the strip-out search" },
+  ],
+  outputs: [
+    ...stabilityOutputs,
+    { name: "radiusExact", symbol: "R", unit: "m", meaning: "Radius of the exact profile (m_z = 0)" },
+    { name: "energyExact", symbol: "E", unit: "J", meaning: "Energy of the exact profile relative to the uniform film" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips" },
+    { name: "stripOutField", symbol: "B_{so}", unit: "T", meaning: "Field where m = 2 softens (or where the skyrmion stops existing first)" },
+    { name: "stripOutResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the strip-out bracket" },
+    { name: "stripOutKind", symbol: "", unit: "", kind: "text", meaning: "What ends the skyrmion going down in field" },
+    { name: "regime", symbol: "", unit: "", kind: "text", meaning: "Why there is no skyrmion, when there is none" },
+  ],
+  plots: [{ id: "mode-eigenvalues", title: "Lowest eigenvalue per angular mode", x: "modeNumber", y: ["modeEigenvalue"], mode: "markers" }],
+  assumptions: [
+    ...commonAssumptions,
+    "Local magnetostatics (K_eff only): the non-local dipolar terms, which drive the strip-out of large bubbles in thicker films, are not in this operator.",
+    "Small deformations of the exact axisymmetric profile; eigenvalues in units of K_eff, per unit norm Int |delta m|^2 dA.",
+    "Continuum validity: a radius below 5 lattice constants (input a) is flagged. Common practice, no source.",
+  ],
+  sources: [
+    "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability of isolated skyrmions, strip-out; saturation field above D_c)",
+    "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
+  ],
+  method: "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
+  limits: {
+    Ms: { above: 0, why: "a saturation magnetization" },
+    A: { above: 0, why: "an exchange stiffness" },
+    t: { above: 0, why: "a film thickness" },
+  },
+  compute: computeStability,
+};
+
 
 const profileSpec: CalculatorSpec = {
   id: "skyrmion-profile",
   title: "Skyrmion profile: 360-degree-wall ansatz against the exact radial solution",
   summary:
-    "Solves the radial Euler-Lagrange equation of an isolated skyrmion (local magnetostatics through K_eff) by Newton relaxation with Richardson extrapolation, and compares it with the minimized 360-degree-wall ansatz of the same energy functional: profiles theta(rho) and m_z(rho), radii (m_z = 0) and energies. The exact energy lies below the ansatz energy (variational bound).",
-  inputs: filmInputs(),
+    "Solves the radial Euler-Lagrange equation of an isolated skyrmion (local magnetostatics through K_eff) by Newton relaxation with Richardson extrapolation, and compares it with the minimized 360-degree-wall ansatz of the same energy functional: profiles theta(rho) and m_z(rho), radii (m_z = 0) and energies. The exact energy lies below the ansatz energy (variational bound). Reports the stability of the exact profile against angular deformations m = 0..4 and whether its radius is inside the continuum model's validity for the lattice constant a.",
+  inputs: [...filmInputs(), latticeInput],
   outputs: [
     { name: "rho", symbol: "\\rho", unit: "m", meaning: "Radial positions", kind: "array" },
     { name: "thetaAnsatz", symbol: "\\theta_a", unit: "rad", meaning: "Polar angle (rad) of the ansatz", kind: "array" },
@@ -252,6 +466,7 @@ const profileSpec: CalculatorSpec = {
     { name: "energyExact", symbol: "E_e", unit: "J", meaning: "Exact energy, local model (below E_a)" },
     { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| >= D_c)" },
     { name: "regime", symbol: "", unit: "", meaning: "What the film does at this field", kind: "text" },
+    ...stabilityOutputs,
   ],
   plots: [
     { id: "theta-profiles", title: "theta(rho): ansatz and exact", x: "rho", y: ["thetaAnsatz", "thetaExact"] },
@@ -260,13 +475,15 @@ const profileSpec: CalculatorSpec = {
   assumptions: [
     ...commonAssumptions,
     "Exact profile and its comparison use local magnetostatics (K_eff only); radiusAnsatzNonlocal adds the thin-film non-local terms.",
-    "The exact solution is a stationary point of the radial functional; its stability against non-axisymmetric modes is not checked.",
+    "Stability of the exact solution: lowest eigenvalues of the linearized energy for angular modes m = 0..4 (local magnetostatics); see skyrmion-stability for the strip-out search.",
+    "Continuum validity: a radius below 5 lattice constants (input a) is flagged. Common practice, no source.",
   ],
   sources: [
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
     "H.-B. Braun, PRB 50, 16501 (1994); F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (ansatz)",
+    "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability against angular modes)",
   ],
-  method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by nested Brent minimization.",
+  method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
   limits: {
     Ms: { above: 0, why: "a saturation magnetization" },
     A: { above: 0, why: "an exchange stiffness" },
@@ -276,4 +493,4 @@ const profileSpec: CalculatorSpec = {
 };
 
 /** Calculator specs of isolated skyrmions. */
-export const skyrmionCalculators: CalculatorSpec[] = [skyrmionSpec, profileSpec];
+export const skyrmionCalculators: CalculatorSpec[] = [skyrmionSpec, profileSpec, stabilitySpec];

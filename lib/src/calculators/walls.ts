@@ -9,7 +9,7 @@ import { sweepValues } from "./spec.js";
 import { type Film, makeFilm, effectiveAnisotropy, exchangeLength, qualityFactor, criticalDmi, neelThresholdDmi, spiralPeriod, spiralState, filmRegime, requirePerpendicular } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
 import { chiralWallEnergy, equilibriumWall, wallWidths, wallProfile } from "../walls/wall180.js";
-import { wall360Equilibrium, wall360MergeField, wall360Profile } from "../walls/wall360.js";
+import { saturationField, wall360Equilibrium, wall360MergeField, wall360Profile } from "../walls/wall360.js";
 import { wallType, neelThresholdCurve } from "../walls/wallType.js";
 
 const demo = demoFilmHX1.film;
@@ -123,11 +123,21 @@ function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOu
   const eq = wall360Equilibrium(f, v.B!);
   const notes = [...eq.notes];
   const Delta = wallWidths(f).Delta;
+  const Dc = criticalDmi(f);
+  const aboveDc = Math.abs(f.D) > Dc;
   const values: ComputeOutput["values"] = {
-    pairState: eq.status === "bound" ? "bound pair" : "no bound pair (walls separate)",
+    pairState:
+      eq.status !== "bound"
+        ? "no bound pair (walls separate)"
+        : aboveDc && eq.energy <= 0
+          ? "bound pair with negative energy (|D| > D_c, B <= B_sat): not a metastable excitation; spiral or strips are lower than the uniform film"
+          : aboveDc
+            ? "bound pair (|D| > D_c but B > B_sat: positive energy, an excitation of the uniform film)"
+            : "bound pair",
     mergeField: wall360MergeField(f),
     helicity: eq.helicity,
   };
+  if (aboveDc) values.saturationField = saturationField(f);
   if (eq.status === "bound") {
     values.radius = eq.radius;
     values.width = eq.width;
@@ -183,7 +193,8 @@ const wall360Spec: CalculatorSpec = {
     { name: "exactWidth", symbol: "w^*", unit: "m", meaning: "w of the exact 1D pair, Delta / sqrt(1+h)" },
     { name: "mergeField", symbol: "B_m", unit: "T", meaning: "field above which R < w (the walls merge into one compressed 2-pi soliton)" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of both walls (DMI-favoured)" },
-    { name: "pairState", symbol: "", unit: "", kind: "text", meaning: "bound pair or not" },
+    { name: "pairState", symbol: "", unit: "", kind: "text", meaning: "bound pair or not; for |D| > D_c whether it is an excitation of the uniform film" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "for |D| > D_c: field where the pair energy vanishes (8 sqrt(A K_eff) [sqrt(1+h) + h asinh(1/sqrt h)] = 2 pi |D|); below it a spiral or strips are lower than the uniform film" },
     { name: "x", symbol: "x", unit: "m", kind: "array", meaning: "position" },
     { name: "mz", symbol: "m_z", unit: "", kind: "array", meaning: "out-of-plane component" },
     { name: "mInPlane", symbol: "m_\\parallel", unit: "", kind: "array", meaning: "in-plane component along the helicity direction (signed)" },
@@ -203,8 +214,9 @@ const wall360Spec: CalculatorSpec = {
     "1D pair (walls straight and infinite along y); planar ansatz with one helicity for both walls.",
     "The DMI energy of the pair is -2 pi |D| whatever R and w (topological in 1D), so D does not change R and w.",
     "A bound pair needs B > 0 (the walls repel); stability against unwinding out of the plane is not analysed.",
+    "For |D| > D_c the pair energy is negative below B_sat: there the pair is not an excitation of a uniform ground state (said in pairState and notes, status warning).",
   ],
-  sources: ["H.-B. Braun, PRB 50, 16501 (1994)", ...wallSources.slice(0, 3)],
+  sources: ["H.-B. Braun, PRB 50, 16501 (1994)", "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (saturation field above D_c)", ...wallSources.slice(0, 3)],
   method: "Closed-form ansatz energy (our derivation), minimized over (ln R, ln w) by restarted Nelder-Mead; exact 1D pair shown beside it.",
   limits: {
     Ms: { above: 0, why: "a saturation magnetization" },
@@ -233,10 +245,20 @@ function computeWallType(v: InputValues): ComputeOutput {
       curveT: curve.t,
       curveFullKernel: curve.fullKernel,
       curveThinFilm: curve.thinFilm,
+      ...(Math.abs(f.D) > criticalDmi(f) ? { saturationField: saturationField(f) } : {}),
     },
-    status: "ok",
-    notes: [],
+    status: Math.abs(f.D) > criticalDmi(f) ? "warning" : "ok",
+    notes: aboveCriticalNote(f),
   };
+}
+
+/** For |D| > D_c: walls have negative energy at zero field; the saturation field above which the uniform film is lower. */
+function aboveCriticalNote(f: Film): string[] {
+  const Dc = criticalDmi(f);
+  if (!(Math.abs(f.D) > Dc)) return [];
+  return [
+    `|D| = ${(Math.abs(f.D) * 1e3).toPrecision(4)} mJ/m^2 > D_c = 4 sqrt(A K_eff) / pi = ${(Dc * 1e3).toPrecision(4)} mJ/m^2: an isolated 180-degree wall has negative energy at zero field, so a spiral or strip-domain state is lower than uniform domains; the wall type above describes the walls of that texture. A field along the background restores the uniform film above B_sat = ${(saturationField(f) * 1e3).toPrecision(4)} mT (where a 360-degree wall costs no energy).`,
+  ];
 }
 
 const wallTypeSpec: CalculatorSpec = {
@@ -252,6 +274,7 @@ const wallTypeSpec: CalculatorSpec = {
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of the wall" },
     { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel" },
     { name: "neelThresholdThinFilm", symbol: "D_N^{(0)}", unit: "J/m^2", meaning: "Neel threshold in the thin-film limit, 2 ln2 mu0 Ms^2 t / pi^2" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "for |D| > D_c: field above which the uniform film is lower than a spiral or strips" },
     { name: "curveT", symbol: "t", unit: "m", kind: "array", meaning: "thicknesses of the phase boundary" },
     { name: "curveFullKernel", symbol: "D_N(t)", unit: "J/m^2", kind: "array", meaning: "phase boundary, full kernel" },
     { name: "curveThinFilm", symbol: "D_N^{(0)}(t)", unit: "J/m^2", kind: "array", meaning: "phase boundary, thin-film limit" },

@@ -7,3 +7,4 @@ export * from "./demagFft.js";
 export * from "./skyrmionEnergy.js";
 export * from "./skyrmionAnsatz.js";
 export * from "./skyrmionExact.js";
+export * from "./skyrmionStability.js";

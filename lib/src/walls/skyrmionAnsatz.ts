@@ -26,20 +26,34 @@
  * route as the independent reference (agreement to about 2e-6, the direct route's own k-grid error).
  * Accuracy of the interpolated energy terms: about 1e-6 relative (Phi) and 1e-7 (I_*), checked in
  * test/lib/walls/magnetostatics.test.ts and skyrmionAnsatz.test.ts.
- * Minimization: for fixed a the energy is minimized over w by Newton's method in ln w with the
- * analytic w-dependence of each term and the table's derivatives in ln tau (Brent's method as the
- * fallback), from the last inner minimum (with the interfacial helicity in closed form: cos psi =
- * clamp(-X / 2Y), X the DMI term, Y the volume-charge term); the outer minimization over ln a walks
- * downhill from a start (a warm start in sweeps) to a bracket, then Brent, then Newton steps on a
- * central-difference stencil in (ln a, ln w) fix the minimum far below the tolerances (results do
- * not depend on last-ulp differences between engines). A run to the table edge a < 0.3 (R < 0.3 w)
- * is reported as collapse, a run to a > 100 as run-away expansion.
+ * Search (findAnsatzMinima). Window: 0.3 <= a <= 100 (the tables), Delta / 40 <= w <= 40 Delta.
+ *  1. Global scan: at 74 points of ln a (step 0.08) the energy is minimized over w on the whole
+ *     window (coarse scan of ln w, step 0.3, then Brent); every discrete minimum of this w-minimized
+ *     curve is a candidate, and so is the last interval at a window edge the curve falls towards.
+ *  2. Local search from each candidate and from each warm start (a state of a neighbouring field):
+ *     Brent over ln a with the inner minimum over w followed from the last one (Newton with the
+ *     analytic w-dependence of each term and the table's derivatives in ln tau, Brent as fallback;
+ *     the interfacial helicity in closed form, cos psi = clamp(-X / 2Y)), then Newton steps on a
+ *     central-difference stencil in (ln a, ln w) (results do not depend on last-ulp differences
+ *     between JavaScript engines).
+ *  3. Verification of each candidate before it is reported: relative gradient below 1e-6, Hessian in
+ *     (ln a, ln w) positive definite at stencils 1e-3 and 1e-2, and at least 0.03 (in ln) away from
+ *     every window edge. A point on an edge is never reported; the trend towards an edge is
+ *     (status "below-window": the minimum, if any, is smaller than the window, where the continuum
+ *     energy tends to the Belavin-Polyakov value 8 pi A t, not a collapse; "expanded": run-away
+ *     expansion or a bubble larger than the window).
+ * Branches over a field sweep (skyrmionBranches): minima at neighbouring fields are linked by
+ * continuation with step control, up and down in field; each end of a branch inside the range is
+ * located by halving the continuation step to a stated tolerance. Above D_c the ground state at each
+ * field follows from the saturation field B_sat of wall360.ts (Bogdanov and Hubert 1994) and the sign
+ * of the skyrmion energy (fieldPhase).
  */
 import { ConvergenceError, InputError } from "../errors.js";
 import { mu0 } from "../quantity/constants.js";
 import { criticalDmi, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { gaussLegendre, compositeGaussLegendre } from "../numeric/gaussLegendre.js";
 import { brentMinimize } from "../numeric/brentMinimize.js";
+import { saturationField } from "./wall360.js";
 import { nonlocalFromTransforms, radialTransforms, wavenumberNodes, type RadialTransforms } from "./magnetostatics.js";
 import { latticeHankel0 } from "../numeric/latticeHankelTransform.js";
 import type { RadialProfile, SkyrmionEnergyParts } from "./skyrmionEnergy.js";
@@ -622,18 +636,23 @@ export interface AnsatzOptions {
   nonlocal?: boolean;
   /** Fix the helicity psi (rad); default: optimized (interfacial) or DMI-favoured (bulk). */
   helicity?: number;
-  /** Start radius (m) for the downhill search (warm start). */
+  /** Start radius (m) for a local search besides the global scan (warm start); picks the minimum reported. */
   startRadius?: number;
+  /** Start wall width (m) with startRadius (default Delta). */
+  startWidth?: number;
 }
 
 /** Result of an ansatz skyrmion solve. */
 export interface AnsatzSkyrmion {
   /**
-   * "ok": a metastable skyrmion (local minimum); "collapsed": the minimum runs to R < 0.3 w (no
-   * metastable skyrmion, it shrinks and collapses); "expanded": it runs to R > 100 w (run-away
-   * expansion towards a stripe or domain); "spiral": |D| >= D_c, a spin spiral is the ground state.
+   * "ok": a verified local minimum (stationary, Hessian positive definite, inside the window);
+   * "below-window": no minimum, the energy decreases towards R < 0.3 w (the continuum minimum, if
+   * any, is smaller than the ansatz window; not a collapse of the continuum model);
+   * "expanded": the energy decreases towards R > 100 w (run-away expansion, strip or domain);
+   * "spiral": |D| > D_c at B <= B_sat and no minimum found (spiral or strips are lower);
+   * "none": no verified minimum and no trend towards an edge.
    */
-  status: "ok" | "collapsed" | "expanded" | "spiral";
+  status: "ok" | "below-window" | "expanded" | "spiral" | "none";
   /** Radius R (m), m_z = 0 at rho = R; NaN unless status is "ok" (check status). */
   radius: number;
   /** Wall width w (m). */
@@ -642,11 +661,19 @@ export interface AnsatzSkyrmion {
   helicity: number;
   /** Energy relative to the uniform film (J), with parts. */
   energy: SkyrmionEnergyParts;
-  /** Spiral period with anisotropy (m) when status is "spiral". */
+  /** Spiral period with anisotropy (m) when |D| > D_c. */
   spiralPeriod?: number;
   /** Number of energy evaluations. */
   evaluations: number;
   notes: string[];
+  /** Every verified minimum at this field, sorted by radius. */
+  minima: AnsatzState[];
+  /** Verification of the reported state. */
+  verification?: AnsatzVerification;
+  /** E / (8 pi A t) of the reported state. */
+  energyOverBelavinPolyakov?: number;
+  /** Ground state at this field and the place of the skyrmion. */
+  phase: FieldPhase;
 }
 
 interface Context {
@@ -845,57 +872,7 @@ function innerNewton(ctx: Context, a: number, l0: number, lo: number, hi: number
 const W_LO = Math.log(1 / 40);
 const W_HI = Math.log(40);
 
-/** Energy at a, minimized over w (sets ctx.I and ctx.w). */
-function profiledEnergy(ctx: Context, lna: number): number {
-  const a = Math.exp(lna);
-  ansatzLocalIntegralsTabulated(a, ctx.I);
-  ctx.evals++;
-  const { Delta } = ctx;
-  // local-model start: w minimizing (K I_K + Ms B I_Z) w^2 - |D I_D| w
-  const gam = ctx.Keff * ctx.I.K + ctx.film.Ms * ctx.B * ctx.I.Z;
-  const bet = Math.abs(ctx.film.D * ctx.I.D);
-  let w0 = gam > 0 ? Math.max(bet / (2 * gam), 1e-3 * Delta) : Delta;
-  w0 = Math.min(Math.max(w0, Delta * Math.exp(W_LO + 0.5)), Delta * Math.exp(W_HI - 0.5));
-  const f = (lw: number) => energyAt(ctx, a, Delta * Math.exp(lw));
-  let lo: number;
-  let hi: number;
-  if (!ctx.nonlocal && gam > 0 && bet > 0) {
-    // exact quadratic minimum in w
-    const e = f(Math.log(w0 / Delta));
-    ctx.w = w0;
-    return e;
-  }
-  // bracket: around the last inner minimum (neighbouring a have similar w), else around the
-  // local-model estimate; widened when the minimum lands at an edge
-  // (clipped to the window around the estimate, which decides which minimum is meant)
-  const l0 = Math.log(w0 / Delta);
-  const wlo = Math.max(W_LO, l0 - 0.7);
-  const whi = Math.min(W_HI, l0 + 0.7);
-  let lw = NaN;
-  if (ctx.nonlocal) {
-    // Newton with the analytic w-dependence (a few steps), from the last minimum or the estimate
-    const start = ctx.lwLast > wlo + 0.01 && ctx.lwLast < whi - 0.01 ? ctx.lwLast : l0;
-    lw = innerNewton(ctx, a, start, wlo, whi);
-  }
-  if (Number.isNaN(lw) && ctx.lwLast > wlo + 0.01 && ctx.lwLast < whi - 0.01) {
-    lo = Math.max(wlo, ctx.lwLast - 0.15);
-    hi = Math.min(whi, ctx.lwLast + 0.15);
-    const r = brentMinimize(f, lo, hi, 1e-6, 60);
-    if (r.x - lo >= 1e-3 && hi - r.x >= 1e-3) lw = r.x;
-  }
-  if (Number.isNaN(lw)) {
-    lo = wlo;
-    hi = whi;
-    const r = brentMinimize(f, lo, hi, 1e-6, 80);
-    lw = r.x;
-    if (lw - lo < 1e-3 || hi - lw < 1e-3) lw = brentMinimize(f, W_LO, W_HI, 1e-6, 120).x;
-  }
-  ctx.lwLast = lw;
-  ctx.w = Delta * Math.exp(lw);
-  return f(lw);
-}
-
-/** Wang-Yuan-Wang zero-field estimate R = pi D Delta / sqrt(16 A K_eff - pi^2 D^2) (m); From memory (lib/src/material/README.md). */
+/** Wang-Yuan-Wang zero-field estimate R = pi D Delta / sqrt(16 A K_eff - pi^2 D^2) (m); From memory (lib/src/walls/README.md). */
 export function zeroFieldRadiusEstimate(film: Film): number {
   const K = requirePerpendicular(film, "the zero-field skyrmion radius estimate");
   const D = Math.abs(film.D);
@@ -904,26 +881,61 @@ export function zeroFieldRadiusEstimate(film: Film): number {
   return (Math.PI * D * Math.sqrt(film.A / K)) / Math.sqrt(q);
 }
 
-/**
- * Minimize the ansatz energy for a film at field B (T, along +z, the background direction).
- * Throws InputError for a non-perpendicular film; returns a status for collapse, expansion and the
- * spiral regime; ConvergenceError if the minimization fails to converge.
- */
-export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOptions = {}): AnsatzSkyrmion {
-  if (!Number.isFinite(B)) throw new InputError("B", B, "a finite field in T");
+// ---- global search, verification, branches ----
+
+/** Step of the global scan in ln(R / w) and of the coarse scan in ln w. */
+const SCAN_DU = 0.08;
+const SCAN_DW = 0.3;
+
+/** Verification of a reported minimum (finite differences of the ansatz energy in ln(R/w), ln w). */
+export interface AnsatzVerification {
+  /** |grad E| in (ln(R/w), ln w), relative to the energy scale (sum of the magnitudes of the terms). */
+  relativeGradient: number;
+  /** Eigenvalues of the Hessian in (ln(R/w), ln w) relative to the energy scale, stencil 1e-3. */
+  hessianEigenvalues: [number, number];
+  /** The same with a stencil of 1e-2 (a minimum must be positive definite at both scales). */
+  hessianEigenvaluesCoarse: [number, number];
+  /** Energy scale (J): the sum of the magnitudes of the energy terms. */
+  energyScale: number;
+  /** Distance (in ln) of R / w and w from the edges of the searched window. */
+  marginA: number;
+  marginW: number;
+  stationary: boolean;
+  positiveDefinite: boolean;
+  interior: boolean;
+}
+
+/** One verified local minimum of the ansatz energy at one field. */
+export interface AnsatzState {
+  radius: number;
+  wallWidth: number;
+  helicity: number;
+  energy: SkyrmionEnergyParts;
+  /** E / (8 pi A t): 1 is the Belavin-Polyakov limit approached as R -> 0 (local model). */
+  energyOverBelavinPolyakov: number;
+  verification: AnsatzVerification;
+}
+
+/** What the global search saw at one field. */
+export interface AnsatzSearch {
+  /** Verified minima, sorted by radius. */
+  minima: AnsatzState[];
+  /** The w-minimized energy decreases towards the small end of the window (R / w -> 0.3). */
+  decreasesToSmallEdge: boolean;
+  /** It decreases towards the large end (R / w -> 100). */
+  decreasesToLargeEdge: boolean;
+  /** The w-minimized energies (J) at the two ends of the scan (NaN without a scan). */
+  smallEdgeEnergy: number;
+  largeEdgeEnergy: number;
+  /** Candidates that failed verification, in words. */
+  rejected: string[];
+  evaluations: number;
+}
+
+function makeContext(film: Film, B: number, options: AnsatzOptions): Context {
   const Keff = requirePerpendicular(film, "an isolated skyrmion");
   const Delta = wallWidthParameter(film);
-  const notes: string[] = [];
-  const emptyParts = (): SkyrmionEnergyParts => ({ exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 });
-  const Dc = criticalDmi(film);
-  if (Math.abs(film.D) >= Dc) {
-    const sp = spiralState(film);
-    notes.push(
-      `|D| = ${(Math.abs(film.D) * 1e3).toPrecision(4)} mJ/m^2 >= D_c = 4 sqrt(A K_eff) / pi = ${(Dc * 1e3).toPrecision(4)} mJ/m^2: walls have negative energy, a chiral spin spiral is the ground state (period ${Number.isFinite(sp.period) ? (sp.period * 1e9).toPrecision(4) + " nm" : "diverging at D_c"}); no isolated skyrmion.`,
-    );
-    return { status: "spiral", radius: NaN, wallWidth: NaN, helicity: NaN, energy: emptyParts(), spiralPeriod: sp.period, evaluations: 0, notes };
-  }
-  const ctx: Context = {
+  return {
     film,
     B,
     Keff,
@@ -938,84 +950,97 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
     h: 1,
     vf: 1,
   };
-  const uMin = Math.log(ANSATZ_A_MIN);
-  const uMax = Math.log(ANSATZ_A_MAX);
-  let R0 = options.startRadius;
-  if (!(R0 !== undefined && R0 > 0)) {
-    const Rw = zeroFieldRadiusEstimate(film);
-    R0 = Number.isFinite(Rw) ? Rw : 10 * Delta;
-    if (B > 0) R0 = R0 / (1 + (film.Ms * B) / (2 * Keff));
-  }
-  let u = Math.log(Math.min(Math.max(R0 / Delta, 1.2 * ANSATZ_A_MIN), 0.8 * ANSATZ_A_MAX));
-  const E = (uu: number) => profiledEnergy(ctx, uu);
-  // downhill walk to a bracket
-  let step = 0.05;
-  let fu = E(u);
-  let up = Math.min(u + step, uMax);
-  let fup = E(up);
-  let dir = 1;
-  let prev = u;
-  let fprev = fu;
-  let cur = up;
-  let fcur = fup;
-  if (fup > fu) {
-    const um = Math.max(u - step, uMin);
-    const fum = E(um);
-    if (fum >= fu) {
-      return finish(ctx, um, up, notes);
+}
+
+interface Inner {
+  e: number;
+  /** ln(w / Delta) of the minimum over w. */
+  lw: number;
+  /** The minimum over w lies on an edge of the w window (no interior minimum in w). */
+  edge: boolean;
+}
+
+/** Energy at u = ln(R / w) minimized over the whole w window: coarse scan in ln w, then Brent. */
+function innerGlobal(ctx: Context, u: number): Inner {
+  const a = Math.exp(u);
+  ansatzLocalIntegralsTabulated(a, ctx.I);
+  ctx.evals++;
+  const { Delta } = ctx;
+  const f = (lw: number) => energyAt(ctx, a, Delta * Math.exp(lw));
+  if (!ctx.nonlocal) {
+    const gam = ctx.Keff * ctx.I.K + ctx.film.Ms * ctx.B * ctx.I.Z;
+    const bet = Math.abs(ctx.film.D * ctx.I.D);
+    if (gam > 0 && bet > 0) {
+      const l = Math.log(bet / (2 * gam) / Delta);
+      if (l > W_LO && l < W_HI) return { e: f(l), lw: l, edge: false };
+      const lc = Math.min(Math.max(l, W_LO), W_HI);
+      return { e: f(lc), lw: lc, edge: true };
     }
-    dir = -1;
-    prev = u;
-    fprev = fu;
-    cur = um;
-    fcur = fum;
+    const lc = gam <= 0 ? W_HI : W_LO;
+    return { e: f(lc), lw: lc, edge: true };
   }
-  for (let it = 0; it < 200; it++) {
-    step *= 1.6;
-    const next = Math.min(uMax, Math.max(uMin, cur + dir * step));
-    const fnext = E(next);
-    if (fnext >= fcur) {
-      return finish(ctx, Math.min(prev, next), Math.max(prev, next), notes);
+  const nk = Math.ceil((W_HI - W_LO) / SCAN_DW);
+  let best = 0;
+  let eBest = Infinity;
+  for (let k = 0; k <= nk; k++) {
+    const e = f(W_LO + ((W_HI - W_LO) * k) / nk);
+    if (e < eBest) {
+      eBest = e;
+      best = k;
     }
-    if (next === uMin || next === uMax) {
-      const status = next === uMin ? "collapsed" : "expanded";
-      energyAt(ctx, Math.exp(next), ctx.w);
-      notes.push(
-        status === "collapsed"
-          ? `No metastable skyrmion at B = ${(B * 1e3).toPrecision(4)} mT: the energy decreases as the radius shrinks below 0.3 w (collapse).`
-          : `No metastable skyrmion at B = ${(B * 1e3).toPrecision(4)} mT: the energy decreases as the radius grows beyond 100 w (run-away expansion to a stripe or reversed domain).`,
-      );
-      return { status, radius: NaN, wallWidth: NaN, helicity: NaN, energy: emptyParts(), evaluations: ctx.evals, notes };
-    }
-    prev = cur;
-    fprev = fcur;
-    cur = next;
-    fcur = fnext;
   }
-  throw new ConvergenceError("skyrmion ansatz search", "no bracket of a minimum within 200 steps", { B, lastLnA: cur, evaluations: ctx.evals });
-  void fprev;
+  const lk = (k: number) => W_LO + ((W_HI - W_LO) * k) / nk;
+  if (best === 0 || best === nk) return { e: eBest, lw: lk(best), edge: true };
+  const r = brentMinimize(f, lk(best - 1), lk(best + 1), 1e-7, 80);
+  return { e: r.f, lw: r.x, edge: false };
+}
+
+/**
+ * Energy at u minimized over w near the last inner minimum ctx.lwLast (Newton, then Brent on
+ * +-0.35 in ln w); the whole window (innerGlobal) when that local minimum sits on its bracket edge.
+ * Sets ctx.lwLast and ctx.w.
+ */
+function innerLocal(ctx: Context, u: number): number {
+  if (!ctx.nonlocal || !(ctx.lwLast === ctx.lwLast)) {
+    const g = innerGlobal(ctx, u);
+    ctx.lwLast = g.lw;
+    ctx.w = ctx.Delta * Math.exp(g.lw);
+    return g.e;
+  }
+  const a = Math.exp(u);
+  ansatzLocalIntegralsTabulated(a, ctx.I);
+  ctx.evals++;
+  const { Delta } = ctx;
+  const f = (lw: number) => energyAt(ctx, a, Delta * Math.exp(lw));
+  const lo = Math.max(W_LO, ctx.lwLast - 0.35);
+  const hi = Math.min(W_HI, ctx.lwLast + 0.35);
+  let lw = innerNewton(ctx, a, ctx.lwLast, lo, hi);
+  if (!(lw === lw)) {
+    const r = brentMinimize(f, lo, hi, 1e-7, 80);
+    lw = r.x;
+    if (lw - lo < 1e-3 || hi - lw < 1e-3) {
+      const g = innerGlobal(ctx, u);
+      lw = g.lw;
+    }
+  }
+  ctx.lwLast = lw;
+  ctx.w = Delta * Math.exp(lw);
+  return f(lw);
 }
 
 /**
  * Newton steps on E(ln a, ln w) with a central-difference gradient and Hessian (stencil 1e-3) from
- * the nested-Brent minimum (located to about 1e-6). Brent's path (and so its last digits) can change
- * with last-ulp differences of Math functions between JavaScript engines (the browser recomputes
- * what Node computes); the stencil's stationary point cannot: a 1-ulp change of D moves R(B) by about
- * 1e-11 (measured), against about 3e-7 without these steps. The stencil's own bias, about 2e-7 (third over
- * second derivative times delta^2 / 6), is below the table accuracy. Stops (keeping the last point)
- * when the Hessian is not positive definite or a step exceeds 0.02 (flat landscapes).
+ * a minimum located by Brent (to about 1e-7): the stencil's stationary point does not depend on
+ * Brent's path (so not on last-ulp differences between JavaScript engines). Up to 12 steps, each
+ * at most 0.05 long; stops when the Hessian is not positive definite.
  */
 function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
   const d = 1e-3;
   let u = u0;
   let v = v0;
   const E = new Float64Array(9);
-  for (let it = 0; it < 3; it++) {
-    for (let p = 0; p < 3; p++) {
-      const a = Math.exp(u + (p - 1) * d);
-      ansatzLocalIntegralsTabulated(a, ctx.I);
-      for (let q = 0; q < 3; q++) E[3 * p + q] = energyAt(ctx, a, Math.exp(v + (q - 1) * d));
-    }
+  for (let it = 0; it < 12; it++) {
+    stencil(ctx, u, v, d, E);
     const e0 = E[4]!;
     const gu = (E[7]! - E[1]!) / (2 * d);
     const gv = (E[5]! - E[3]!) / (2 * d);
@@ -1024,67 +1049,595 @@ function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
     const huv = (E[8]! - E[6]! - E[2]! + E[0]!) / (4 * d * d);
     const det = huu * hvv - huv * huv;
     if (!(huu > 0 && det > 0)) break;
-    const su = -(hvv * gu - huv * gv) / det;
-    const sv = -(huu * gv - huv * gu) / det;
-    if (!(Math.abs(su) < 0.02 && Math.abs(sv) < 0.02)) break;
-    u += su;
-    v += sv;
-    if (Math.abs(su) < 1e-10 && Math.abs(sv) < 1e-10) break;
+    let su = -(hvv * gu - huv * gv) / det;
+    let sv = -(huu * gv - huv * gu) / det;
+    const len = Math.hypot(su, sv);
+    if (len > 0.05) {
+      su *= 0.05 / len;
+      sv *= 0.05 / len;
+    }
+    // stay where the tables and the verification stencils reach (a point held here fails the margin)
+    const uc = Math.min(Math.max(u + su, U_CLAMP[0]), U_CLAMP[1]);
+    const lnD = Math.log(ctx.Delta);
+    const vc = Math.min(Math.max(v + sv, lnD + W_LO + 0.011), lnD + W_HI - 0.011);
+    const moved = Math.abs(uc - u) + Math.abs(vc - v);
+    u = uc;
+    v = vc;
+    if (moved < 1e-11) break;
   }
   return [u, v];
 }
 
-function finish(ctx: Context, lo: number, hi: number, notes: string[]): AnsatzSkyrmion {
-  // The tables interpolate the local integrals to about 1e-7 and Phi to about 1e-6 (6-point
-  // Lagrange): the minimum is located on the tabulated energy (Brent over ln a, then Newton polish).
-  const r = brentMinimize((uu) => profiledEnergy(ctx, uu), lo, hi, 1e-6, 100);
-  if (!r.converged) {
-    throw new ConvergenceError("skyrmion ansatz minimization", "Brent's method did not converge inside its bracket", {
-      B: ctx.B,
-      lnA: r.x,
-      bracket: [lo, hi],
-      evaluations: ctx.evals,
-    });
+const U_CLAMP: readonly [number, number] = [Math.log(ANSATZ_A_MIN) + 0.011, Math.log(ANSATZ_A_MAX) - 0.011];
+
+/** Energies on the 3 x 3 stencil of step d around (u = ln a, v = ln w), E[3 p + q]. */
+function stencil(ctx: Context, u: number, v: number, d: number, E: Float64Array): void {
+  for (let p = 0; p < 3; p++) {
+    const a = Math.exp(u + (p - 1) * d);
+    ansatzLocalIntegralsTabulated(a, ctx.I);
+    for (let q = 0; q < 3; q++) E[3 * p + q] = energyAt(ctx, a, Math.exp(v + (q - 1) * d));
   }
-  profiledEnergy(ctx, r.x);
-  const [lnA, lnW] = newtonPolish(ctx, r.x, Math.log(ctx.w));
-  const a = Math.exp(lnA);
-  const w = Math.exp(lnW);
+}
+
+function sym2Eigen(a: number, b: number, c: number): [number, number] {
+  const m = 0.5 * (a + c);
+  const r = Math.hypot(0.5 * (a - c), b);
+  return [m - r, m + r];
+}
+
+/** Relative gradient below which a point counts as stationary. */
+export const ANSATZ_STATIONARY_TOLERANCE = 1e-6;
+
+/** Finite-difference verification at (u = ln a, v = ln w); see AnsatzVerification. */
+function verify(ctx: Context, u: number, v: number): AnsatzVerification {
+  const E = new Float64Array(9);
+  const parts: SkyrmionEnergyParts = { exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 };
+  ansatzLocalIntegralsTabulated(Math.exp(u), ctx.I);
+  energyAt(ctx, Math.exp(u), Math.exp(v), parts);
+  const scale =
+    Math.abs(parts.exchange) + Math.abs(parts.anisotropy) + Math.abs(parts.dmi) + Math.abs(parts.zeeman) + Math.abs(parts.magnetostaticSurface) + Math.abs(parts.magnetostaticVolume);
+  const hess = (d: number): { g: number; ev: [number, number] } => {
+    stencil(ctx, u, v, d, E);
+    const e0 = E[4]!;
+    const gu = (E[7]! - E[1]!) / (2 * d);
+    const gv = (E[5]! - E[3]!) / (2 * d);
+    const huu = (E[7]! - 2 * e0 + E[1]!) / (d * d);
+    const hvv = (E[5]! - 2 * e0 + E[3]!) / (d * d);
+    const huv = (E[8]! - E[6]! - E[2]! + E[0]!) / (4 * d * d);
+    const ev = sym2Eigen(huu, huv, hvv);
+    return { g: Math.hypot(gu, gv) / scale, ev: [ev[0] / scale, ev[1] / scale] };
+  };
+  const fine = hess(1e-3);
+  const coarse = hess(1e-2);
+  const lw = v - Math.log(ctx.Delta);
+  const marginA = Math.min(u - Math.log(ANSATZ_A_MIN), Math.log(ANSATZ_A_MAX) - u);
+  const marginW = Math.min(lw - W_LO, W_HI - lw);
+  const stationary = fine.g < ANSATZ_STATIONARY_TOLERANCE;
+  const positiveDefinite = fine.ev[0] > 1e-9 && coarse.ev[0] > 1e-9;
+  const interior = marginA > 0.03 && marginW > 0.03;
+  return {
+    relativeGradient: fine.g,
+    hessianEigenvalues: fine.ev,
+    hessianEigenvaluesCoarse: coarse.ev,
+    energyScale: scale,
+    marginA,
+    marginW,
+    stationary,
+    positiveDefinite,
+    interior,
+  };
+}
+
+/** The state at (u, v) with its energy parts and verification. */
+function stateAt(ctx: Context, u: number, v: number): AnsatzState {
+  const verification = verify(ctx, u, v);
+  const a = Math.exp(u);
+  const w = Math.exp(v);
   ansatzLocalIntegralsTabulated(a, ctx.I);
   const parts: SkyrmionEnergyParts = { exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 };
   energyAt(ctx, a, w, parts);
   const film = ctx.film;
   let psi: number;
-  if (film.dmi === "interfacial") psi = Math.acos(Math.max(-1, Math.min(1, ctx.h)));
-  else psi = ctx.h > 0 ? Math.PI / 2 : -Math.PI / 2;
   if (ctx.fixedPsi !== undefined) psi = ctx.fixedPsi;
-  if (w / ctx.Delta < Math.exp(W_LO + 0.01) || w / ctx.Delta > Math.exp(W_HI - 0.01)) {
-    notes.push("The wall width is at the edge of the searched range (Delta / 40 ... 40 Delta): treat the result with caution.");
-  }
-  return { status: "ok", radius: a * w, wallWidth: w, helicity: psi, energy: parts, evaluations: ctx.evals, notes };
+  else if (film.dmi === "interfacial") psi = Math.acos(Math.max(-1, Math.min(1, ctx.h)));
+  else psi = ctx.h > 0 ? Math.PI / 2 : -Math.PI / 2;
+  return {
+    radius: a * w,
+    wallWidth: w,
+    helicity: psi,
+    energy: parts,
+    energyOverBelavinPolyakov: parts.total / (8 * Math.PI * film.A * film.t),
+    verification,
+  };
 }
 
-/** A field sweep of the ansatz skyrmion with continuation (warm starts). */
+type LocalOutcome = { kind: "min"; u: number; lw: number } | { kind: "small-edge" | "large-edge" };
+
+/**
+ * Downhill walk in u from u0 (inner w warm-started at lw0) to a bracket, then Brent and the Newton
+ * polish; or the window edge the energy runs to.
+ */
+function localSearch(ctx: Context, u0: number, lw0: number): LocalOutcome {
+  const uMin = Math.log(ANSATZ_A_MIN);
+  const uMax = Math.log(ANSATZ_A_MAX);
+  ctx.lwLast = lw0;
+  const E = (uu: number) => innerLocal(ctx, uu);
+  let u = Math.min(Math.max(u0, uMin), uMax);
+  let step = 0.02;
+  const f0 = E(u);
+  const lwAt0 = ctx.lwLast;
+  let up = Math.min(u + step, uMax);
+  let fup = E(up);
+  let dir = 1;
+  let prev = u;
+  let cur = up;
+  let fcur = fup;
+  if (!(fup < f0)) {
+    ctx.lwLast = lwAt0;
+    const um = Math.max(u - step, uMin);
+    const fum = E(um);
+    if (fum >= f0) return refine(ctx, um, up, lwAt0);
+    dir = -1;
+    cur = um;
+    fcur = fum;
+  }
+  for (let it = 0; it < 400; it++) {
+    step = Math.min(step * 1.5, 0.3);
+    const next = Math.min(uMax, Math.max(uMin, cur + dir * step));
+    const lwCur = ctx.lwLast;
+    const fnext = E(next);
+    if (fnext >= fcur) return refine(ctx, Math.min(prev, next), Math.max(prev, next), lwCur);
+    if (next === uMin) return { kind: "small-edge" };
+    if (next === uMax) return { kind: "large-edge" };
+    prev = cur;
+    cur = next;
+    fcur = fnext;
+  }
+  throw new ConvergenceError("skyrmion ansatz search", "no bracket of a minimum within 400 steps", { B: ctx.B, lnA: cur, evaluations: ctx.evals });
+}
+
+/** Brent over u in [lo, hi] (inner w from lw0), then the Newton polish in (ln a, ln w). */
+function refine(ctx: Context, lo: number, hi: number, lw0: number): LocalOutcome {
+  ctx.lwLast = lw0;
+  const r = brentMinimize((uu) => innerLocal(ctx, uu), lo, hi, 1e-7, 100);
+  innerLocal(ctx, r.x);
+  const [u, v] = newtonPolish(ctx, r.x, Math.log(ctx.w));
+  return { kind: "min", u, lw: v - Math.log(ctx.Delta) };
+}
+
+/** Warm start for the global search (a state of a neighbouring field). */
+export interface AnsatzStart {
+  radius: number;
+  wallWidth: number;
+}
+
+/**
+ * All verified local minima of the ansatz energy at field B inside the window 0.3 <= R / w <= 100,
+ * Delta / 40 <= w <= 40 Delta: a global scan of the w-minimized energy over ln(R / w) (step 0.08; at
+ * each point a coarse scan of ln w, step 0.3, then Brent), a local search from each discrete minimum
+ * of the scan and from each warm start, the Newton polish, and the verification of each candidate
+ * (stationary, Hessian positive definite at two finite-difference steps, not on a window edge).
+ */
+export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions & { starts?: readonly AnsatzStart[]; scan?: boolean } = {}): AnsatzSearch {
+  if (!Number.isFinite(B)) throw new InputError("B", B, "a finite field in T");
+  const ctx = makeContext(film, B, options);
+  const uMin = Math.log(ANSATZ_A_MIN);
+  const uMax = Math.log(ANSATZ_A_MAX);
+  const candidates: Array<{ u: number; lw: number; probe?: boolean }> = [];
+  const rejected: string[] = [];
+  let small = false;
+  let large = false;
+  let eSmall = NaN;
+  let eLarge = NaN;
+  const outcome = (o: LocalOutcome) => {
+    if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw });
+    else if (o.kind === "small-edge") small = true;
+    else large = true;
+  };
+  if (options.scan !== false) {
+    const n = Math.ceil((uMax - uMin) / SCAN_DU);
+    const us: number[] = [];
+    const es: number[] = [];
+    const lws: number[] = [];
+    const edge: boolean[] = [];
+    for (let i = 0; i <= n; i++) {
+      const u = uMin + ((uMax - uMin) * i) / n;
+      const g = innerGlobal(ctx, u);
+      us.push(u);
+      es.push(g.e);
+      lws.push(g.lw);
+      edge.push(g.edge);
+    }
+    small = es[0]! < es[1]!;
+    large = es[n]! < es[n - 1]!;
+    eSmall = es[0]!;
+    eLarge = es[n]!;
+    // a minimum between the last two scan points and the window edge is still reportable when it
+    // keeps the margin: probe those intervals (a failed probe only confirms the trend)
+    if (small) {
+      const o = refine(ctx, us[0]!, us[1]!, lws[0]!);
+      if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
+    }
+    if (large) {
+      const o = refine(ctx, us[n - 1]!, us[n]!, lws[n]!);
+      if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
+    }
+    for (let i = 1; i < n; i++) {
+      if (edge[i] || !(es[i]! <= es[i - 1]! && es[i]! <= es[i + 1]!)) continue;
+      const o = refine(ctx, us[i - 1]!, us[i + 1]!, lws[i]!);
+      if (o.kind === "min" && (Math.abs(o.u - us[i]!) > 2 * SCAN_DU)) {
+        // the polish left the scan bracket: a local search from the scan point decides
+        outcome(localSearch(ctx, us[i]!, lws[i]!));
+      } else outcome(o);
+    }
+  }
+  for (const s of options.starts ?? []) {
+    if (!(s.radius > 0 && s.wallWidth > 0)) continue;
+    const lw = Math.min(Math.max(Math.log(s.wallWidth / ctx.Delta), W_LO + 0.01), W_HI - 0.01);
+    outcome(localSearch(ctx, Math.log(s.radius / s.wallWidth), lw));
+  }
+  const minima: AnsatzState[] = [];
+  const seen: Array<[number, number]> = [];
+  for (const c of candidates) {
+    const v = c.lw + Math.log(ctx.Delta);
+    if (seen.some(([u, vv]) => Math.abs(u - c.u) < 1e-4 && Math.abs(vv - v) < 1e-4)) continue;
+    seen.push([c.u, v]);
+    const st = stateAt(ctx, c.u, v);
+    const ver = st.verification;
+    if (ver.stationary && ver.positiveDefinite && ver.interior) {
+      if (!minima.some((m) => Math.abs(Math.log(m.radius / st.radius)) < 1e-4)) minima.push(st);
+    } else {
+      if (!ver.interior && ver.stationary) {
+        if (c.u > 0.5 * (uMin + uMax)) large = true;
+        else small = true;
+      }
+      if (c.probe) continue;
+      rejected.push(
+        `R = ${fmtLen(st.radius)}, w = ${fmtLen(st.wallWidth)} not reported: ${[
+          ver.stationary ? "" : `gradient ${ver.relativeGradient.toExponential(1)} (relative) is not ~0`,
+          ver.positiveDefinite ? "" : "the Hessian is not positive definite",
+          ver.interior ? "" : "it lies on an edge of the searched window (0.3 <= R/w <= 100, Delta/40 <= w <= 40 Delta)",
+        ]
+          .filter((x) => x)
+          .join("; ")}.`,
+      );
+    }
+  }
+  minima.sort((p, q) => p.radius - q.radius);
+  return { minima, decreasesToSmallEdge: small, decreasesToLargeEdge: large, smallEdgeEnergy: eSmall, largeEdgeEnergy: eLarge, rejected, evaluations: ctx.evals };
+}
+
+function fmtLen(x: number): string {
+  if (x >= 1e-6) return `${(x * 1e6).toPrecision(4)} um`;
+  return `${(x * 1e9).toPrecision(4)} nm`;
+}
+
+/**
+ * Ground state and the place of an isolated skyrmion at field B, in words, from the sign of the
+ * 360-degree pair energy (B_sat, local model) and of the skyrmion energy (when one is given).
+ */
+export interface FieldPhase {
+  /** Lowest of the states compared: the uniform film, a spiral or strip domains, or a dense skyrmion array. */
+  groundState: "uniform" | "spiral-or-strips" | "skyrmion-array" | "reversed-uniform";
+  /** Saturation field B_sat (T) when |D| > D_c, else 0. */
+  saturationField: number;
+  text: string;
+}
+
+/** See FieldPhase. `skyrmionEnergy` (J) is the energy of an isolated skyrmion relative to the uniform film. */
+export function fieldPhase(film: Film, B: number, skyrmionEnergy?: number): FieldPhase {
+  const Dc = criticalDmi(film);
+  const Bsat = Math.abs(film.D) > Dc ? saturationField(film) : 0;
+  const mT = (x: number) => `${(x * 1e3).toPrecision(4)} mT`;
+  if (B < 0) {
+    return {
+      groundState: "reversed-uniform",
+      saturationField: Bsat,
+      text: `B = ${mT(B)} < 0 points against the +z background: the reversed uniform state is lower; the +z background and any skyrmion in it are metastable.`,
+    };
+  }
+  if (Math.abs(film.D) > Dc && B <= Bsat) {
+    return {
+      groundState: "spiral-or-strips",
+      saturationField: Bsat,
+      text: `|D| > D_c and B <= B_sat = ${mT(Bsat)}: a 360-degree wall has negative energy, so a spiral or strip-domain state is lower than the uniform film; the uniform film and isolated skyrmions in it are at best metastable.`,
+    };
+  }
+  const above = Math.abs(film.D) > Dc ? `|D| > D_c but B > B_sat = ${mT(Bsat)}: ` : "";
+  if (skyrmionEnergy !== undefined && skyrmionEnergy < 0) {
+    return {
+      groundState: "skyrmion-array",
+      saturationField: Bsat,
+      text: `${above}the isolated skyrmion has negative energy relative to the uniform film, so a dense array of skyrmions (not computed here) is lower than the uniform film; the isolated skyrmion is not an excitation of the ground state.`,
+    };
+  }
+  return {
+    groundState: "uniform",
+    saturationField: Bsat,
+    text: `${above}the uniform film is the ground state${skyrmionEnergy !== undefined ? "; the isolated skyrmion (positive energy) is a metastable excitation of it" : ""}.`,
+  };
+}
+
+/**
+ * Minimize the ansatz energy for a film at field B (T, along +z, the background direction): all
+ * verified minima (findAnsatzMinima); the one reported is the one nearest in ln R to
+ * options.startRadius when given, else the lowest in energy; the others are in `minima`.
+ * Throws InputError for a non-perpendicular film; ConvergenceError if a search fails.
+ */
+export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOptions & { starts?: readonly AnsatzStart[] } = {}): AnsatzSkyrmion {
+  if (!Number.isFinite(B)) throw new InputError("B", B, "a finite field in T");
+  requirePerpendicular(film, "an isolated skyrmion");
+  const Delta = wallWidthParameter(film);
+  const notes: string[] = [];
+  const emptyParts = (): SkyrmionEnergyParts => ({ exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 });
+  const starts: AnsatzStart[] = [...(options.starts ?? [])];
+  if (options.startRadius !== undefined && options.startRadius > 0) {
+    starts.push({ radius: options.startRadius, wallWidth: options.startWidth ?? Delta });
+  }
+  const search = findAnsatzMinima(film, B, { ...options, starts });
+  const mT = (x: number) => `${(x * 1e3).toPrecision(4)} mT`;
+  notes.push(...search.rejected);
+  const Dc = criticalDmi(film);
+  const spiral = Math.abs(film.D) > Dc;
+  let chosen: AnsatzState | undefined;
+  if (search.minima.length > 0) {
+    if (options.startRadius !== undefined && options.startRadius > 0) {
+      const l = Math.log(options.startRadius);
+      chosen = search.minima.reduce((p, q) => (Math.abs(Math.log(q.radius) - l) < Math.abs(Math.log(p.radius) - l) ? q : p));
+    } else chosen = search.minima.reduce((p, q) => (q.energy.total < p.energy.total ? q : p));
+  }
+  const phase = fieldPhase(film, B, chosen?.energy.total);
+  if (spiral) notes.push(phase.text);
+  if (!chosen) {
+    const edgeNotes: string[] = [];
+    if (search.decreasesToSmallEdge)
+      edgeNotes.push(
+        "the energy decreases as R shrinks below 0.3 w, the edge of the ansatz window: the continuum minimum (if any) lies at smaller radius, where the energy approaches the Belavin-Polyakov value 8 pi A t; such a radius is below what a continuum model describes for lattice constants of a few tenths of a nm",
+      );
+    if (search.decreasesToLargeEdge) edgeNotes.push("the energy decreases as R grows towards 100 w, the edge of the ansatz window: run-away expansion towards a strip or reversed domain, or a larger bubble than the window holds");
+    const toLarge = search.decreasesToLargeEdge && (!search.decreasesToSmallEdge || search.largeEdgeEnergy < search.smallEdgeEnergy);
+    const status: AnsatzSkyrmion["status"] = spiral && B <= phase.saturationField ? "spiral" : toLarge ? "expanded" : search.decreasesToSmallEdge ? "below-window" : "none";
+    notes.push(`No verified local minimum of the ansatz energy at B = ${mT(B)} inside the window${edgeNotes.length ? ": " + edgeNotes.join("; ") : ""}.`);
+    const out: AnsatzSkyrmion = { status, radius: NaN, wallWidth: NaN, helicity: NaN, energy: emptyParts(), evaluations: search.evaluations, notes, minima: [], phase };
+    if (spiral) out.spiralPeriod = spiralState(film).period;
+    return out;
+  }
+  if (search.minima.length > 1) {
+    notes.push(`${search.minima.length} local minima at this field (R = ${search.minima.map((m) => fmtLen(m.radius)).join(", ")}); the one reported is ${options.startRadius ? "the one continued from the start radius" : "the lowest in energy"}.`);
+  }
+  const okOut: AnsatzSkyrmion = {
+    status: "ok",
+    radius: chosen.radius,
+    wallWidth: chosen.wallWidth,
+    helicity: chosen.helicity,
+    energy: chosen.energy,
+    evaluations: search.evaluations,
+    notes,
+    minima: search.minima,
+    verification: chosen.verification,
+    energyOverBelavinPolyakov: chosen.energyOverBelavinPolyakov,
+    phase,
+  };
+  if (spiral) okOut.spiralPeriod = spiralState(film).period;
+  return okOut;
+}
+
+/** A field sweep of the ansatz skyrmion: one solve per field, warm-started from the last state. */
 export interface AnsatzSweep {
   fields: number[];
   results: AnsatzSkyrmion[];
 }
 
 /**
- * Solve at each field of `fields` (T) in the order given, warm-starting from the last metastable
- * solution. Points without a metastable skyrmion carry their status.
+ * Solve at each field of `fields` (T) in the order given: every field gets the global search; the
+ * state reported is the one continued from the previous field's state (nearest in ln R) when there
+ * is one, else the lowest in energy. Points without a minimum carry their status.
  */
-export function skyrmionFieldSweep(film: Film, fields: ArrayLike<number>, options: Omit<AnsatzOptions, "startRadius"> = {}): AnsatzSweep {
+export function skyrmionFieldSweep(film: Film, fields: ArrayLike<number>, options: Omit<AnsatzOptions, "startRadius" | "startWidth"> = {}): AnsatzSweep {
   const results: AnsatzSkyrmion[] = [];
   const fs: number[] = [];
-  let start: number | undefined;
+  let start: AnsatzStart | undefined;
   for (let i = 0; i < fields.length; i++) {
     const B = fields[i]!;
     if (!Number.isFinite(B)) throw new InputError(`fields[${i}]`, B, "a finite field in T");
-    const r = solveSkyrmionAnsatz(film, B, start !== undefined ? { ...options, startRadius: start } : options);
-    if (r.status === "ok") start = r.radius;
+    const r = solveSkyrmionAnsatz(film, B, start ? { ...options, startRadius: start.radius, startWidth: start.wallWidth } : options);
+    if (r.status === "ok") start = { radius: r.radius, wallWidth: r.wallWidth };
     results.push(r);
     fs.push(B);
   }
   return { fields: fs, results };
+}
+
+/** One end of a branch inside the swept range. */
+export interface BranchEnd {
+  /** Boundary field (T): the middle of the final bracket between a field with and one without the state. */
+  field: number;
+  /** Half-width of the final bracket (T): the boundary lies within field +- resolution. */
+  resolution: number;
+  /** Last field (T) at which the state was verified. */
+  lastField: number;
+  /**
+   * "expansion": beyond it the energy decreases towards R / w = 100 (run-away expansion or a bubble
+   * larger than the window); "below-window": towards R / w = 0.3 (a smaller continuum minimum or none
+   * the ansatz can hold); "fold": the minimum merges with a saddle and disappears (the state goes to
+   * another minimum).
+   */
+  kind: "expansion" | "below-window" | "fold";
+}
+
+/** A branch of minima followed through the field sweep by continuation. */
+export interface SkyrmionBranch {
+  /** 1, 2, ... in order of increasing radius at the branch's middle field. */
+  id: number;
+  /** "compact skyrmion" (R / w < 4 throughout), "bubble" (R / w > 4 throughout) or "skyrmion-bubble". */
+  label: string;
+  fields: number[];
+  states: AnsatzState[];
+  /** End of the branch towards lower field (undefined when it reaches the first field of the sweep). */
+  lowerEnd?: BranchEnd;
+  /** End towards higher field (undefined when it reaches the last field). */
+  upperEnd?: BranchEnd;
+}
+
+export interface SkyrmionBranchSweep {
+  /** Fields (T), ascending. */
+  fields: number[];
+  branches: SkyrmionBranch[];
+  /** Branch id of each verified minimum at each field (parallel to `fields`). */
+  perField: Array<Array<{ branch: number; state: AnsatzState }>>;
+  /** Absolute tolerance (T) of the boundary bisections. */
+  boundaryTolerance: number;
+  evaluations: number;
+}
+
+/** Largest |ln R| or |ln w| change accepted as one continuation step. */
+const CONTINUATION_JUMP = 0.25;
+
+/**
+ * Follow a minimum from field Bfrom to Bto by continuation with step control: each step is accepted
+ * when the local search from the current state finds a verified minimum within CONTINUATION_JUMP in
+ * ln R and ln w; otherwise the step is halved. When the step falls below `tol` the state ends there.
+ */
+function followState(
+  film: Film,
+  opts: AnsatzOptions,
+  state: AnsatzState,
+  Bfrom: number,
+  Bto: number,
+  tol: number,
+  count: { evals: number },
+): { reached: AnsatzState } | { end: BranchEnd } {
+  let cur = state;
+  let B = Bfrom;
+  let step = Bto - Bfrom;
+  const full = Math.abs(step);
+  for (let guard = 0; guard < 400; guard++) {
+    if (B === Bto) return { reached: cur };
+    const target = Math.abs(step) >= Math.abs(Bto - B) ? Bto : B + step;
+    const sr = findAnsatzMinima(film, target, { ...opts, starts: [cur], scan: false });
+    count.evals += sr.evaluations;
+    let cand: AnsatzState | undefined;
+    for (const m of sr.minima) {
+      const dr = Math.abs(Math.log(m.radius / cur.radius));
+      const dw = Math.abs(Math.log(m.wallWidth / cur.wallWidth));
+      if (dr < CONTINUATION_JUMP && dw < CONTINUATION_JUMP && (!cand || dr < Math.abs(Math.log(cand.radius / cur.radius)))) cand = m;
+    }
+    if (cand) {
+      cur = cand;
+      B = target;
+      step = Math.sign(step) * Math.min(full, 1.5 * Math.abs(step));
+      continue;
+    }
+    if (Math.abs(step) <= 2 * tol) {
+      const kind: BranchEnd["kind"] = sr.decreasesToLargeEdge ? "expansion" : sr.decreasesToSmallEdge ? "below-window" : "fold";
+      return { end: { field: B + step / 2, resolution: Math.abs(step) / 2, lastField: B, kind } };
+    }
+    step /= 2;
+  }
+  throw new ConvergenceError("skyrmion branch continuation", "no end and no arrival within 400 steps", { Bfrom, Bto, B });
+}
+
+/**
+ * Follow every verified minimum of the ansatz energy over a field sweep. At each field (ascending) a
+ * global search (findAnsatzMinima) lists the minima; each branch alive at the previous field is
+ * continued to this one with step control (followState) and matched to the listed minimum it lands
+ * on (or adds it); a listed minimum no branch reaches starts a new branch, which is continued
+ * downwards the same way until it ends. So every branch is followed both up and down in field, and
+ * each end inside the range is located by halving the continuation step down to `boundaryTolerance`
+ * (default 1e-6 of the sweep span, at least 1 nT): the ends do not depend on the sweep direction.
+ */
+export function skyrmionBranches(film: Film, fields: ArrayLike<number>, options: AnsatzOptions & { boundaryTolerance?: number } = {}): SkyrmionBranchSweep {
+  const fs = Array.from(fields);
+  fs.forEach((B, i) => {
+    if (!Number.isFinite(B)) throw new InputError(`fields[${i}]`, B, "a finite field in T");
+  });
+  fs.sort((x, y) => x - y);
+  for (let i = fs.length - 1; i > 0; i--) if (fs[i] === fs[i - 1]) fs.splice(i, 1);
+  const n = fs.length;
+  if (n < 2) throw new InputError("fields", n, "at least two different fields");
+  const span = fs[n - 1]! - fs[0]!;
+  const tol = options.boundaryTolerance ?? Math.max(1e-9, 1e-6 * span);
+  const count = { evals: 0 };
+  const opts: AnsatzOptions = { nonlocal: options.nonlocal, helicity: options.helicity };
+  interface Raw {
+    idx: number[];
+    states: AnsatzState[];
+    lowerEnd?: BranchEnd;
+    upperEnd?: BranchEnd;
+    alive: boolean;
+  }
+  const raws: Raw[] = [];
+  const per: AnsatzState[][] = [];
+  const owner: Array<Map<AnsatzState, Raw>> = [];
+  const matchOrAdd = (i: number, st: AnsatzState): AnsatzState => {
+    const hit = per[i]!.find((m) => Math.abs(Math.log(m.radius / st.radius)) < 1e-3 && Math.abs(Math.log(m.wallWidth / st.wallWidth)) < 1e-3);
+    if (hit) return hit;
+    per[i]!.push(st);
+    per[i]!.sort((p, q) => p.radius - q.radius);
+    return st;
+  };
+  for (let i = 0; i < n; i++) {
+    const prevStates = i > 0 ? per[i - 1]! : [];
+    const sr = findAnsatzMinima(film, fs[i]!, { ...opts, starts: prevStates });
+    count.evals += sr.evaluations;
+    per.push([...sr.minima]);
+    owner.push(new Map());
+    for (const r of raws) {
+      if (!r.alive) continue;
+      const res = followState(film, opts, r.states[r.states.length - 1]!, fs[i - 1]!, fs[i]!, tol, count);
+      if ("end" in res) {
+        r.upperEnd = res.end;
+        r.alive = false;
+        continue;
+      }
+      const st = matchOrAdd(i, res.reached);
+      if (owner[i]!.has(st)) {
+        // two branches land on the same minimum: the later one ends (merges) here
+        r.upperEnd = { field: fs[i]!, resolution: fs[i]! - fs[i - 1]!, lastField: fs[i - 1]!, kind: "fold" };
+        r.alive = false;
+        continue;
+      }
+      owner[i]!.set(st, r);
+      r.idx.push(i);
+      r.states.push(st);
+    }
+    for (const st of [...per[i]!]) {
+      if (owner[i]!.has(st)) continue;
+      const r: Raw = { idx: [i], states: [st], alive: true };
+      raws.push(r);
+      owner[i]!.set(st, r);
+      // continue downwards
+      let j = i;
+      while (j > 0) {
+        const res = followState(film, opts, r.states[0]!, fs[j]!, fs[j - 1]!, tol, count);
+        if ("end" in res) {
+          r.lowerEnd = res.end;
+          break;
+        }
+        const sj = matchOrAdd(j - 1, res.reached);
+        if (owner[j - 1]!.has(sj)) {
+          r.lowerEnd = { field: fs[j - 1]!, resolution: fs[j]! - fs[j - 1]!, lastField: fs[j]!, kind: "fold" };
+          break;
+        }
+        owner[j - 1]!.set(sj, r);
+        r.idx.unshift(j - 1);
+        r.states.unshift(sj);
+        j--;
+      }
+    }
+  }
+  const mid = (r: Raw) => r.states[Math.floor(r.states.length / 2)]!.radius;
+  raws.sort((p, q) => mid(p) - mid(q));
+  const branches: SkyrmionBranch[] = raws.map((r, k) => {
+    const ratios = r.states.map((s) => s.radius / s.wallWidth);
+    const label = Math.max(...ratios) < 4 ? "compact skyrmion" : Math.min(...ratios) > 4 ? "bubble" : "skyrmion-bubble";
+    const b: SkyrmionBranch = { id: k + 1, label, fields: r.idx.map((i) => fs[i]!), states: r.states };
+    if (r.lowerEnd) b.lowerEnd = r.lowerEnd;
+    if (r.upperEnd) b.upperEnd = r.upperEnd;
+    return b;
+  });
+  const idOf = new Map<Raw, number>();
+  raws.forEach((r, k) => idOf.set(r, k + 1));
+  const perField = per.map((list, i) => list.map((state) => ({ state, branch: idOf.get(owner[i]!.get(state)!)! })));
+  return { fields: fs, branches, perField, boundaryTolerance: tol, evaluations: count.evals };
 }

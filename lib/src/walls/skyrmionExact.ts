@@ -19,11 +19,12 @@
 import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { solveSkyrmionAnsatz } from "./skyrmionAnsatz.js";
+import { saturationField } from "./wall360.js";
 import { dmiHelicity, type RadialProfile } from "./skyrmionEnergy.js";
 
 /** Result of the exact profile solve. */
 export interface ExactSkyrmion {
-  /** "ok", or "spiral" when |D| >= D_c (no isolated skyrmion; spiralPeriod given). */
+  /** "ok", or "spiral" when |D| > D_c and B <= B_sat (spiral or strips lower; spiralPeriod given). */
   status: "ok" | "spiral";
   /** Radius (m) where m_z = 0 (theta = pi/2), Richardson-extrapolated. */
   radius: number;
@@ -180,7 +181,7 @@ function gridEnergy(th: Float64Array, h: number, d: number, b: number): number {
 
 /**
  * Exact skyrmion profile for a film at field B (T): radius, energy (local model) and the profile.
- * InputError for a non-perpendicular film; status "spiral" for |D| >= D_c; ConvergenceError if the
+ * InputError for a non-perpendicular film; status "spiral" for |D| > D_c at B <= B_sat (saturationField); ConvergenceError if the
  * Newton relaxation fails or the solution collapses (no metastable skyrmion at this field).
  */
 export function solveSkyrmionExact(film: Film, B: number, options: ExactOptions = {}): ExactSkyrmion {
@@ -192,9 +193,15 @@ export function solveSkyrmionExact(film: Film, B: number, options: ExactOptions 
   const b = (film.Ms * B) / (2 * K);
   const notes: string[] = [];
   const Dc = criticalDmi(film);
-  if (Math.abs(film.D) >= Dc) {
+  const Bsat = Math.abs(film.D) > Dc ? saturationField(film) : 0;
+  if (Math.abs(film.D) > Dc && B > Bsat) {
+    notes.push(
+      `|D| > D_c = ${(Dc * 1e3).toPrecision(4)} mJ/m^2 but B > B_sat = ${(Bsat * 1e3).toPrecision(4)} mT: the uniform film is lower than spiral or strips; the isolated skyrmion is an excitation of it when its energy is positive.`,
+    );
+  }
+  if (Math.abs(film.D) > Dc && !(B > Bsat)) {
     const sp = spiralState(film);
-    notes.push(`|D| >= D_c = ${(Dc * 1e3).toPrecision(4)} mJ/m^2: a spin spiral is the ground state; no isolated skyrmion.`);
+    notes.push(`|D| > D_c = ${(Dc * 1e3).toPrecision(4)} mJ/m^2 and B <= B_sat = ${(Bsat * 1e3).toPrecision(4)} mT: a 360-degree wall has negative energy, a spiral or strip state is the ground state; no isolated skyrmion is solved for.`);
     const empty = new Float64Array(0);
     return {
       status: "spiral", radius: NaN, energy: NaN, helicity, rho: empty, theta: empty,

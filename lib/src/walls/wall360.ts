@@ -27,10 +27,22 @@
  * R -> arsinh(1) Delta / sqrt(h) -> 0 (collapse only as B -> infinity in this 1D continuum model).
  * Stability against rotating the in-plane moment out of the common plane (unwinding through the
  * sphere) is not analysed here; the ansatz is planar.
+ *
+ * Energy of the exact pair (our derivation from the first integral A theta'^2 = K_eff [sin^2 theta +
+ * 2 h (1 - cos theta)] of the 1D equation, substituting c = cos(theta / 2)):
+ *   E_pair(h) = 8 sqrt(A K_eff) [ sqrt(1 + h) + h asinh(1 / sqrt h) ] - 2 pi |D|,
+ * which tends to two free walls, 2 (4 sqrt(A K_eff) - pi |D|), as h -> 0. The bracket grows
+ * monotonically from 1, so for |D| > D_c = 4 sqrt(A K_eff) / pi the pair energy is negative below and
+ * positive above the saturation field B_sat = 2 K_eff h_s / Ms, where sqrt(1 + h_s) + h_s asinh(1 /
+ * sqrt h_s) = |D| / D_c. Below B_sat inserting 360-degree walls lowers the energy (a spiral or
+ * strip-domain state is lower than the uniform one); above it the uniform state is lower than any
+ * dilute array of such walls. Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (the saturation
+ * field of the spiral as the field where an isolated 360-degree wall costs no energy); the closed
+ * form above is ours, checked against scipy in test/lib/walls/wall360.test.ts.
  */
 import { InputError } from "../errors.js";
 import { minimize2d } from "../numeric/minimize2d.js";
-import { type Film, requirePerpendicular, wallWidthParameter } from "../material/film.js";
+import { type Film, criticalDmi, requirePerpendicular, wallWidthParameter } from "../material/film.js";
 
 /** J(p) = Integral_0^inf du / (sinh^2 u + p) and its derivative dJ/dp, for p > 0. */
 export function pairIntegral(p: number): { J: number; dJ: number } {
@@ -138,6 +150,40 @@ export function wall360ExactPair(f: Film, B: number): { radius: number; width: n
   return { radius: width * Math.asinh(Math.sqrt((1 + h) / h)), width };
 }
 
+/** The bracket sqrt(1 + h) + h asinh(1 / sqrt h) of the exact pair energy (1 at h = 0, increasing). */
+function pairBracket(h: number): number {
+  if (h === 0) return 1;
+  return Math.sqrt(1 + h) + h * Math.asinh(1 / Math.sqrt(h));
+}
+
+/** Energy per unit area (J/m^2) of the exact 360-degree pair at B > 0 (local model), DMI-favoured helicity. */
+export function wall360ExactPairEnergy(f: Film, B: number): number {
+  if (!(B > 0) || !Number.isFinite(B)) throw new InputError("B", B, "a positive finite field in T (a bound pair)");
+  const K = requirePerpendicular(f, "the 360-degree wall");
+  const h = (f.Ms * B) / (2 * K);
+  return 8 * Math.sqrt(f.A * K) * pairBracket(h) - 2 * Math.PI * Math.abs(f.D);
+}
+
+/**
+ * Saturation field B_sat (T) for |D| > D_c: the field where the exact 360-degree pair energy vanishes
+ * (see the file header); 0 for |D| <= D_c (the pair energy is positive at every B > 0). Bisection on
+ * h to a relative 1e-14.
+ */
+export function saturationField(f: Film): number {
+  const K = requirePerpendicular(f, "the saturation field");
+  const ratio = (Math.PI * Math.abs(f.D)) / (4 * Math.sqrt(f.A * K));
+  if (!(ratio > 1)) return 0;
+  let lo = 0;
+  let hi = 1;
+  while (pairBracket(hi) < ratio) hi *= 2;
+  for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (pairBracket(mid) < ratio) lo = mid;
+    else hi = mid;
+  }
+  return (2 * K * 0.5 * (lo + hi)) / f.Ms;
+}
+
 /** Field above which R < w (the two walls have merged into one compressed 2-pi soliton), T. */
 export function wall360MergeField(f: Film): number {
   const K = requirePerpendicular(f, "the 360-degree wall");
@@ -169,6 +215,17 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
   const K = requirePerpendicular(f, "the 360-degree wall");
   const helicity = wall360Helicity(f);
   const sigmaPair = 8 * Math.sqrt(f.A * K) + wall360DmiEnergy(f, helicity);
+  const aboveDc = f.dmi === "interfacial" || f.dmi === "bulk" ? Math.abs(f.D) > criticalDmi(f) : false;
+  const dcNote = (): string[] => {
+    if (!aboveDc) return [];
+    const Bsat = saturationField(f);
+    const head = `|D| = ${(Math.abs(f.D) * 1e3).toPrecision(4)} mJ/m^2 > D_c = ${(criticalDmi(f) * 1e3).toPrecision(4)} mJ/m^2, saturation field B_sat = ${(Bsat * 1e3).toPrecision(4)} mT`;
+    return [
+      B > Bsat
+        ? `${head}: B > B_sat, the pair energy is positive and the uniform film is lower than a spiral or strips; the pair is an excitation of it.`
+        : `${head}: B <= B_sat, the pair energy is negative (each 360-degree wall lowers the energy), so a spiral or strip state is lower than the uniform film; the pair is not a metastable excitation of a uniform ground state.`,
+    ];
+  };
   if (!(B > 0)) {
     return {
       status: "unbound",
@@ -183,6 +240,7 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
         B === 0
           ? "B = 0: the two walls repel and separate; the energy tends to that of two free walls, 2 sigma."
           : "B < 0 favours the core: the reversed domain grows without bound (no pair).",
+        ...dcNote(),
       ],
     };
   }
@@ -195,6 +253,7 @@ export function wall360Equilibrium(f: Film, B: number): Wall360Equilibrium {
   const notes: string[] = [];
   if (!r.success) notes.push(`minimizer: ${r.message}`);
   if (radius < width) notes.push("R < w: the pair is compressed into a single 2-pi soliton (field above the merge field).");
+  notes.push(...dcNote());
   return {
     status: "bound",
     radius,

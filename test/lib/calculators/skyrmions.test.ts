@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { runCalculator, getCalculator, InputError } from "@helicoid/lib";
+import { runCalculator, getCalculator, InputError, mu0 } from "@helicoid/lib";
+import { runPython } from "../../helpers/python.js";
 import { skyrmionCalculators } from "../../../lib/src/calculators/skyrmions.js";
 
 describe("skyrmion calculators", () => {
@@ -38,7 +39,12 @@ describe("skyrmion calculators", () => {
     expect(f.length).toBeGreaterThan(50);
     for (let i = 1; i < R.length; i++) expect(R[i]!).toBeLessThan(R[i - 1]!);
     expect(spec.plots.some((p) => p.x === "fieldSweep" && p.y.includes("radiusSweep"))).toBe(true);
-    expect(r.outputs.collapseField!.value as number).toBeGreaterThan(0);
+    // the small branch leaves the ansatz window (R < 0.3 w) at high field: said, not called a collapse
+    expect(r.outputs.windowEndField!.value as number).toBeGreaterThan(0.1);
+    expect(r.outputs.collapseField).toBeUndefined();
+    expect(r.outputs.branches!.value as string).toMatch(/branch 1 \(compact skyrmion\)/);
+    expect(r.outputs.branches!.value as string).toMatch(/not a continuum collapse/);
+    expect(r.outputs.boundaryResolution!.value as number).toBeLessThan(1e-5);
   });
   it("skyrmion: R(B) is insensitive to last-ulp changes of the inputs (the browser recomputes what Node computes)", () => {
     // Common practice, no source: a 1-ulp change of D changes R(B) by about 1e-16 in exact arithmetic;
@@ -51,22 +57,61 @@ describe("skyrmion calculators", () => {
       for (let i = 0; i < a.length; i++) expect(Math.abs(b[i]! / a[i]! - 1), `D=${D} point ${i}`).toBeLessThan(1e-9);
     }
   });
-  it("skyrmion: above D_c reports the spiral and its period instead of a radius", () => {
-    // Source: S. Rohart, A. Thiaville, PRB 88, 184422 (2013).
-    const r = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2" });
-    expect(r.status).toBe("warning");
-    expect(r.outputs.radius).toBeUndefined();
-    expect(r.outputs.spiralPeriod!.value as number).toBeGreaterThan(0);
+  it("skyrmion: above D_c, spiral or strips below B_sat (scipy), an isolated skyrmion as a metastable excitation above it", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994); oracle: scipy quad + brentq of the exact
+    // 360-degree pair energy 2 Int_0^pi 2 sqrt(A (K_eff sin^2 + Ms B (1 - cos))) d theta - 2 pi |D| = 0.
+    const film = { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 3.9e-3, t: 1e-9 };
+    const Bsat = runPython<number>(
+      `
+import json, sys, numpy as np
+from scipy.integrate import quad
+from scipy.optimize import brentq
+f = json.load(sys.stdin)
+K = f["Ku"] - 0.5 * f["mu0"] * f["Ms"]**2
+E = lambda B: 2 * quad(lambda th: 2 * np.sqrt(f["A"] * (K * np.sin(th)**2 + f["Ms"] * B * (1 - np.cos(th)))), 0, np.pi, epsrel=1e-13)[0] - 2 * np.pi * f["D"]
+print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
+`,
+      { ...film, mu0 },
+    );
+    const below = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2", B: 0.5 * Bsat });
+    expect(below.status).toBe("warning");
+    expect(Math.abs((below.outputs.saturationField!.value as number) / Bsat - 1)).toBeLessThan(1e-8);
+    expect(below.outputs.groundState!.value as string).toMatch(/spiral or strip-domain state is lower/);
+    expect(below.outputs.spiralPeriod!.value as number).toBeGreaterThan(0);
+    const above = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2", B: "0.3 T" });
+    expect(above.outputs.radius!.value as number).toBeGreaterThan(1e-9);
+    expect(above.outputs.energy!.value as number).toBeGreaterThan(0);
+    expect(above.outputs.groundState!.value as string).toMatch(/metastable excitation/);
   });
-  it("skyrmion: a radius of a few atomic spacings carries a continuum-limit caution", () => {
-    // Common practice, no source: the continuum description needs many lattice spacings (~0.3 nm) per core.
-    const small = runCalculator(getCalculator("skyrmion"), {});
-    expect(small.outputs.radius!.value as number).toBeLessThan(3e-9);
-    expect(small.status).toBe("warning");
-    expect(small.notes.join("\n")).toMatch(/spans only a few atomic spacings: the continuum model is at its limit/);
-    const large = runCalculator(getCalculator("skyrmion"), { D: "3 mJ/m^2", B: "20 mT" });
-    expect(large.outputs.radius!.value as number).toBeGreaterThan(10e-9);
-    expect(large.notes.join("\n")).not.toMatch(/atomic spacings/);
+  it("skyrmion: finds the audit bubble at 9 mT and its expansion field does not depend on the sweep direction", () => {
+    // Source: independent audit (R = 416.55 nm, w = 8.879 nm at 9 mT; checked against a numpy/scipy
+    // quadrature of the ansatz energy in test/lib/walls/skyrmionAnsatz.test.ts).
+    const p = { Ms: "1.3 MA/m", A: "15 pJ/m", Ku: "1.12 MJ/m^3", D: "0.2 mJ/m^2", t: "4 nm" };
+    const spec = getCalculator("skyrmion");
+    const r = runCalculator(spec, { ...p, B: "9 mT" });
+    expect((r.outputs.radius!.value as number) * 1e9).toBeCloseTo(416.55, 1);
+    expect((r.outputs.wallWidth!.value as number) * 1e9).toBeCloseTo(8.879, 2);
+    expect(r.outputs.states!.value as string).toMatch(/verified minimum/);
+    const up = runCalculator(spec, { ...p, B: "9 mT" }, { sweep: { over: "B", from: 0, to: 0.03, points: 16 } });
+    const down = runCalculator(spec, { ...p, B: "9 mT" }, { sweep: { over: "B", from: 0.03, to: 0, points: 16 } });
+    const eu = up.outputs.expansionField!.value as number;
+    const ed = down.outputs.expansionField!.value as number;
+    const res = up.outputs.boundaryResolution!.value as number;
+    expect(Math.abs(eu - ed)).toBeLessThanOrEqual(2 * res);
+    expect(eu).toBeGreaterThan(0.004);
+    expect(eu).toBeLessThan(0.009);
+  });
+  it("skyrmion-stability: stable with the translation zero mode; strip-out search above D_c ends at B_sat", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994); translation invariance gives the m = 1 zero
+    // mode (common practice); B_sat against scipy in test/lib/walls/wall360.test.ts.
+    const spec = getCalculator("skyrmion-stability");
+    const d = runCalculator(spec, { D: "2.9 mJ/m^2", B: "20 mT" });
+    expect(d.outputs.stability!.value as string).toMatch(/^Stable/);
+    expect(Math.abs(d.outputs.translationEigenvalue!.value as number)).toBeLessThan(1e-4);
+    expect((d.outputs.modeEigenvalue!.value as number[]).length).toBe(5);
+    const s = runCalculator(spec, { D: "3.6 mJ/m^2", B: "0.1 T", search: "strip-out search", Bmin: 0 });
+    expect((s.outputs.stripOutField!.value as number) * 1e3).toBeCloseTo(28.09, 1);
+    expect(s.outputs.stripOutKind!.value as string).toMatch(/B_sat/);
   });
   it("skyrmion-profile: ansatz and exact side by side", () => {
     // Common practice, no source: variational bound and similar radii.

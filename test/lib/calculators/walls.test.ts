@@ -125,4 +125,23 @@ describe("walls catalogue", () => {
       expect(inputError(() => runCalculator(spec, { Aex: 1e-11 } as never)).parameter).toBe("Aex");
     }
   });
+  it("wall360 and wall-type say so when |D| > D_c (no bound pair with negative energy and status ok)", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994): below B_sat a 360-degree wall has negative
+    // energy and a spiral or strips are lower than the uniform film; S. Rohart, A. Thiaville, PRB 88,
+    // 184422 (2013) for D_c = 4 sqrt(A K_eff) / pi.
+    const p = { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "3.6 mJ/m^2", t: "1 nm" };
+    const lo = runCalculator(getCalculator("wall360"), { ...p, B: "20 mT" });
+    expect(lo.status).toBe("warning");
+    expect(lo.outputs.energy!.value as number).toBeLessThan(0);
+    expect(lo.outputs.pairState!.value as string).toMatch(/negative energy/);
+    expect((lo.outputs.saturationField!.value as number) * 1e3).toBeCloseTo(28.09, 2);
+    const hi = runCalculator(getCalculator("wall360"), { ...p, B: "50 mT" });
+    expect(hi.outputs.pairState!.value as string).toMatch(/B > B_sat/);
+    const wt = runCalculator(getCalculator("wall-type"), p);
+    expect(wt.status).toBe("warning");
+    expect(wt.notes.join(" ")).toMatch(/negative energy/);
+    expect(wt.outputs.saturationField!.value as number).toBeGreaterThan(0);
+    const sub = runCalculator(getCalculator("wall-type"), { ...p, D: "1.5 mJ/m^2" });
+    expect(sub.outputs.saturationField).toBeUndefined();
+  });
 });

@@ -114,7 +114,9 @@ describe("fitFieldSeries", () => {
       expect(() => fitFieldSeries([...one, ...one], { film: start })).toThrow(/two or more different fields/);
     });
     it("start values with no skyrmion at the fields", () => {
-      expect(() => fitFieldSeries(series(17), { film: filmWith(film, { D: 1.9e-3 }) })).toThrow(/metastable skyrmion/);
+      // (D = 1.9 mJ/m^2 is above D_c for this film: the global search finds skyrmions there, with the
+      // ground state said; a weak D leaves none inside the ansatz window at these fields)
+      expect(() => fitFieldSeries(series(17), { film: filmWith(film, { D: 0.3e-3 }) })).toThrow(/metastable skyrmion/);
     });
     it("too few points in a profile", () => {
       const data = series(18);

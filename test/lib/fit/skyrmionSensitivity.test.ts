@@ -60,8 +60,10 @@ describe("skyrmionSensitivity", () => {
   });
 
   it("no skyrmion: a status and NaN derivatives, never a silent number", () => {
-    const s = skyrmionSensitivity(film, 1, ["A", "D"]);
-    expect(s.status).toBe("collapsed");
+    // (at 1 T the global search finds a verified minimum at R = 1.13 nm, R / w = 0.318; at 2 T none is left
+    // inside the ansatz window)
+    const s = skyrmionSensitivity(film, 2, ["A", "D"]);
+    expect(s.status).toBe("below-window");
     expect(s.dR.every(Number.isNaN)).toBe(true);
     expect(() => skyrmionSensitivity(film, 0.02, ["Ms" as SeriesParameter])).toThrow(/"A", "D" or "Ku"/);
   });

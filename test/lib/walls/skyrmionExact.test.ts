@@ -70,10 +70,34 @@ describe("exact radial skyrmion profile", () => {
       expect(Math.abs(an.radius / s.radius - 1)).toBeLessThan(0.05);
     });
   });
+  it("above D_c: solves the isolated skyrmion above B_sat (R = 5.35 nm at D = 1.10 D_c, 0.3 T, as scipy's solve_bvp), reports the spiral below", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (isolated skyrmions above the saturation
+    // field for D > D_c); oracle: scipy.integrate.solve_bvp of the same radial equation (SCIPY_BVP above),
+    // and the independent audit value R = 5.35 nm for this film (the demo film with D = 3.6 mJ/m^2).
+    const f = makeFilm({ ...base, D: 3.6e-3 });
+    expect(f.D / criticalDmi(f)).toBeCloseTo(1.1009, 4);
+    const s = solveSkyrmionExact(f, 0.3);
+    expect(s.status).toBe("ok");
+    expect(s.radius * 1e9).toBeCloseTo(5.35, 2);
+    expect(s.notes.join(" ")).toMatch(/B > B_sat/);
+    const Delta = s.rho[1]! / s.step;
+    const x: number[] = [];
+    const theta: number[] = [];
+    for (let i = 0; i < s.theta.length; i += 10) {
+      x.push(s.rho[i]! / Delta);
+      theta.push(s.theta[i]!);
+    }
+    const ref = runPython<Array<{ status: number; radius: number }>>(SCIPY_BVP, [{ d: s.d, b: s.b, L: s.length, x, theta, tol: 1e-8 }]);
+    expect(ref[0]!.status).toBe(0);
+    expect(Math.abs(s.radius / (ref[0]!.radius * Delta) - 1)).toBeLessThan(1e-4);
+    const below = solveSkyrmionExact(f, 0.02);
+    expect(below.status).toBe("spiral");
+    expect(below.notes.join(" ")).toMatch(/B_sat = 28\.09 mT/);
+  });
   it("reports the spiral at D >= D_c, a ConvergenceError with diagnostics on collapse, InputError for in-plane films", () => {
     // Source: S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (D_c).
     const f = makeFilm({ ...base });
-    const sp = solveSkyrmionExact(makeFilm({ ...base, D: 1.01 * criticalDmi(f) }), 0);
+    const sp = solveSkyrmionExact(makeFilm({ ...base, D: 1.01 * criticalDmi(f) }), 0); // B = 0 < B_sat
     expect(sp.status).toBe("spiral");
     expect(sp.spiralPeriod!).toBeGreaterThan(0);
     const weak = makeFilm({ ...base, D: 0.5e-3 });

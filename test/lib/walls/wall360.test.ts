@@ -12,6 +12,10 @@ import {
   wall360ExactPair,
   wall360MergeField,
   wall360Profile,
+  wall360ExactPairEnergy,
+  mu0,
+  saturationField,
+  criticalDmi,
   integrateHalfLine,
   InputError,
   type Film,
@@ -159,5 +163,61 @@ print(json.dumps([float(Dl*np.exp(r.x[0])), float(Dl*np.exp(r.x[1]))]))`,
     const p = wall360Profile(2 * Delta, Delta, 0, 10 * Delta, 101);
     expect(p.mz[50]).toBeCloseTo(-1, 12);
     expect(p.mz[0]).toBeGreaterThan(0.99);
+  });
+});
+
+describe("saturation field above D_c", () => {
+  it("B_sat: the exact pair energy vanishes there; scipy (quad of the 1D energy, brentq) agrees; 28.09 mT at D = 1.10 D_c", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994): above D_c the uniform state returns above
+    // the field where an isolated 360-degree wall costs no energy. Oracle: scipy.integrate.quad of the
+    // 1D energy along the exact pair (first integral A theta'^2 = K_eff sin^2 theta + Ms B (1 - cos theta),
+    // E = 2 Int_0^pi 2 sqrt(A (K_eff sin^2 theta + Ms B (1 - cos theta))) d theta - 2 pi |D|) and
+    // scipy.optimize.brentq; and the independent audit value 28.09 mT for the demo film at D = 3.6 mJ/m^2.
+    const films = [
+      { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 3.6e-3, t: 1e-9 },
+      { Ms: 0.8e6, A: 10e-12, Ku: 1.0e6, D: -4.5e-3, t: 1e-9 },
+      { Ms: 1.3e6, A: 20e-12, Ku: 1.5e6, D: 7e-3, t: 1e-9 },
+    ].map((p) => makeFilm(p));
+    const ref = runPython<number[]>(
+      `
+import json, sys, numpy as np
+from scipy.integrate import quad
+from scipy.optimize import brentq
+inp = json.load(sys.stdin)
+mu0 = inp["mu0"]  # CODATA 2018, as the library
+out = []
+for f in inp["films"]:
+    K = f["Ku"] - 0.5 * mu0 * f["Ms"]**2
+    def E(B):
+        g = lambda th: 2 * np.sqrt(f["A"] * (K * np.sin(th)**2 + f["Ms"] * B * (1 - np.cos(th))))
+        return 2 * quad(g, 0, np.pi, epsabs=0, epsrel=1e-13, limit=200)[0] - 2 * np.pi * abs(f["D"])
+    out.append(brentq(E, 1e-12, 20.0, xtol=1e-15, rtol=1e-14))
+print(json.dumps(out))
+`,
+      { mu0, films: films.map((f) => ({ Ms: f.Ms, A: f.A, Ku: f.Ku, D: f.D })) },
+    );
+    films.forEach((f, i) => {
+      expect(Math.abs(f.D)).toBeGreaterThan(criticalDmi(f));
+      const Bs = saturationField(f);
+      expect(Math.abs(Bs / ref[i]! - 1), `film ${i}`).toBeLessThan(1e-9);
+      expect(wall360ExactPairEnergy(f, 0.999 * Bs)).toBeLessThan(0);
+      expect(wall360ExactPairEnergy(f, 1.001 * Bs)).toBeGreaterThan(0);
+      // the minimized ansatz (which contains the exact pair) changes sign there too
+      expect(wall360Equilibrium(f, 0.99 * Bs).energy).toBeLessThan(0);
+      expect(wall360Equilibrium(f, 1.01 * Bs).energy).toBeGreaterThan(0);
+    });
+    expect(saturationField(films[0]!) * 1e3).toBeCloseTo(28.09, 2);
+    expect(saturationField(film)).toBe(0); // |D| < D_c
+  });
+  it("wall360 says when |D| > D_c whether the pair is an excitation of the uniform film", () => {
+    // Source: A. Bogdanov, A. Hubert, JMMM 138, 255 (1994).
+    const f = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 3.6e-3, t: 1e-9 });
+    const lo = wall360Equilibrium(f, 0.02);
+    expect(lo.energy).toBeLessThan(0);
+    expect(lo.notes.join(" ")).toMatch(/not a metastable excitation/);
+    const hi = wall360Equilibrium(f, 0.05);
+    expect(hi.energy).toBeGreaterThan(0);
+    expect(hi.notes.join(" ")).toMatch(/B > B_sat/);
+    expect(wall360Equilibrium(film, 0.05).notes.join(" ")).not.toMatch(/D_c/);
   });
 });
