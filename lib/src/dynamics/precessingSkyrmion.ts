@@ -109,6 +109,7 @@ const GL = 10;
 /** The integrals by composite Gauss-Legendre (graded near the axis, unit panels over the wall, a break at x_c). */
 export function dropletIntegrals(a: number, xc: number): DropletIntegrals {
   if (!(a > 0) || !Number.isFinite(a)) throw new InputError("R", a, "a positive radius (in units of w)");
+  if (a > 300) throw new InputError("R", a, "a radius below 300 w (sinh(R / w)^2 overflows beyond; the disc is then a large domain, outside this model)");
   // The integrands vary on the unit scale of x (poles of the sinh ratio at distance pi/2 from the real
   // axis), so 10-point panels of width 1 are accurate to ~1e-15; beyond |x - a| > 20 they are below
   // e^-40 of their peak (the saturated core and the far tail contribute nothing).
@@ -139,8 +140,17 @@ export function dropletIntegrals(a: number, xc: number): DropletIntegrals {
   for (let i = 0; i < nodes.length; i++) {
     const xi = nodes[i]!;
     const wt = w[i]!;
-    const sx = Math.sinh(xi);
-    const cx = Math.cosh(xi);
+    let sx: number;
+    let cx: number;
+    if (xi > 0.1) {
+      const ep = Math.exp(xi);
+      const em = 1 / ep;
+      sx = 0.5 * (ep - em);
+      cx = 0.5 * (ep + em);
+    } else {
+      sx = Math.sinh(xi);
+      cx = Math.cosh(xi);
+    }
     const d = sx * sx + S;
     const sn = (2 * sa * sx) / d; // sin theta
     const cs = (sx * sx - S) / d; // cos theta
@@ -170,11 +180,16 @@ export interface DropletState {
   reversedSpins: number;
 }
 
+/** omega(R) and the balance torque only (no energy): what the threshold and radius searches need. */
+function omegaAndBalance(m: DropletModel, R: number): { omega: number; balanceTorque: number } {
+  const I = dropletIntegrals(R / m.w, m.rhoC / m.w);
+  const omega = m.gamma * m.B + (m.gamma * ((m.A * I.dEx) / (m.w * m.w) + m.Keff * I.dK)) / (m.Ms * I.dZ);
+  return { omega, balanceTorque: I.c > 0 ? (m.alpha * omega * I.K) / I.c : Infinity };
+}
+
 export function dropletState(m: DropletModel, R: number): DropletState {
   const a = R / m.w;
-  const I = dropletIntegrals(a, m.rhoC / m.w);
-  const omega = m.gamma * m.B + (m.gamma * ((m.A * I.dEx) / (m.w * m.w) + m.Keff * I.dK)) / (m.Ms * I.dZ);
-  const balanceTorque = I.c > 0 ? (m.alpha * omega * I.K) / I.c : Infinity;
+  const { omega, balanceTorque } = omegaAndBalance(m, R);
   const L = ansatzLocalIntegrals(a);
   const energy = 2 * Math.PI * m.t * (m.A * L.ex + (m.Keff * L.K + m.Ms * m.B * L.Z) * m.w * m.w);
   const reversedArea = 2 * Math.PI * m.w * m.w * L.Z;
@@ -216,7 +231,7 @@ export function dropletThreshold(m: DropletModel): DropletThreshold {
   for (let i = 0; i < n; i++) {
     const a = aLo * Math.pow(aHi / aLo, i / (n - 1));
     as.push(a);
-    const s = dropletState(m, a * m.w);
+    const s = omegaAndBalance(m, a * m.w);
     const v = s.omega > 0 ? s.balanceTorque : Infinity;
     if (v < best) {
       best = v;
@@ -227,7 +242,7 @@ export function dropletThreshold(m: DropletModel): DropletThreshold {
   const l = as[Math.max(0, bestI - 1)]!;
   const r = as[Math.min(n - 1, bestI + 1)]!;
   const f = (la: number): number => {
-    const s = dropletState(m, Math.exp(la) * m.w);
+    const s = omegaAndBalance(m, Math.exp(la) * m.w);
     return s.omega > 0 ? s.balanceTorque : Infinity;
   };
   const min = brentMinimize(f, Math.log(l), Math.log(r), 1e-10);
@@ -237,7 +252,7 @@ export function dropletThreshold(m: DropletModel): DropletThreshold {
 /** The stable precessing radius under torque sigma (on the rising branch of sigma_b), or NaN below threshold. */
 export function dropletStableRadius(m: DropletModel, sigma: number, threshold = dropletThreshold(m)): number {
   if (threshold.status !== "ok" || !(sigma >= threshold.torque)) return NaN;
-  const g = (R: number): number => dropletState(m, R).balanceTorque - sigma;
+  const g = (R: number): number => omegaAndBalance(m, R).balanceTorque - sigma;
   let lo = threshold.radius;
   let hi = lo * 1.2 + m.w;
   let it = 0;

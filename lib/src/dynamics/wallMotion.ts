@@ -11,7 +11,8 @@
  * theta(x) = 2 arctan exp(p (x - q) / Delta) with the wall polarity p: p = +1 is the up|down wall
  * of walls/wall180.ts (+z domain at x < q), p = -1 the down|up wall. phi is the azimuth of the
  * wall's central moment measured from +x, so a p = +1 wall of helicity gamma (wall180.ts) has
- * phi = gamma + pi. Delta = sqrt(A / K_eff) is kept fixed (rigid profile; no breathing Delta(t)).
+ * phi = gamma + pi. Delta = sqrt(A / K_eff) is kept fixed (rigid profile) in the closed forms and in
+ * wallTrace; wallTraceBreathing (end of file) adds Delta(t) as a third coordinate.
  *
  * Derivation (ours, the usual route of Schryer and Walker; Malozemoff and Slonczewski; Thiaville
  * et al.). LLG dm/dt = -gamma m x B_eff + alpha m x dm/dt in spherical angles is the Euler-Lagrange

@@ -71,6 +71,19 @@ describe("Thiele velocities", () => {
     expect(rel(s.vy / s.vx, (0.2 * 6) / (4 * -1))).toBeLessThan(1e-12);
   });
 
+  it("spin-transfer drift follows v_par = u (G^2 + alpha beta D^2) / (G^2 + alpha^2 D^2), v_perp = (alpha - beta) G D u / (G^2 + alpha^2 D^2)", () => {
+    // Source: the current-driven Thiele solution as usually quoted, e.g. K. Everschor-Sitte, M. Sitte,
+    // J. Appl. Phys. 115, 172602 (2014) (from memory; signs with our G = 4 pi Q Ms t / gamma).
+    for (const beta of [0, 0.05, 0.4]) {
+      const r = thieleVelocity({ ...base, u: 20, beta });
+      const G = r.gyrocoupling;
+      const D = r.dissipation;
+      const den = G * G + 0.04 * D * D;
+      expect(rel(r.vx, (20 * (G * G + 0.2 * beta * D * D)) / den)).toBeLessThan(1e-13);
+      if (beta !== 0.2) expect(rel(r.vy, ((0.2 - beta) * G * D * 20) / den)).toBeLessThan(1e-12);
+    }
+  });
+
   it("the solution satisfies the Thiele force balance (residual check), for Q = -1 and +1", () => {
     // Common practice, no source: plug v back into F + G (v - u) - D (alpha v - beta u) = 0.
     for (const Q of [-1, 1]) {
