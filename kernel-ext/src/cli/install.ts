@@ -3,17 +3,27 @@
  * "TypeScript (Helicoid)") and copy the prebuilt JupyterLab extension of @helicoid/widgets into the
  * Jupyter data directory (no Python packaging). `helicoid uninstall` removes both.
  */
-import { cpSync, existsSync, mkdirSync, rmSync, writeFileSync } from "node:fs";
+import { cpSync, existsSync, mkdirSync, realpathSync, rmSync, writeFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
 import { parseArgs, type CommandIO } from "./args.js";
 import { candidateDataDirs, dataDirFor } from "./jupyterPaths.js";
+import { widgetsDir } from "../notebook/export.js";
+
+function realpathOrSelf(p: string): string {
+  try {
+    return realpathSync(p);
+  } catch {
+    return p;
+  }
+}
 
 export const KERNEL_NAME = "helicoid";
 export const DISPLAY_NAME = "TypeScript (Helicoid)";
-const repoRoot = resolve(__dirname, "..", "..", "..");
-export const binPath = join(repoRoot, "kernel-ext", "bin", "helicoid.js");
-export const labExtensionSource = join(repoRoot, "widgets", "labextension");
+/** This package's own command (dist/cli -> bin), as installed: the kernelspec must point at a file that exists. */
+export const binPath = realpathOrSelf(resolve(__dirname, "..", "..", "bin", "helicoid.js"));
+/** The prebuilt JupyterLab extension shipped by @helicoid/widgets (resolved from this package). */
+export const labExtensionSource = join(widgetsDir(), "labextension");
 export const LAB_EXTENSION_NAME = "@helicoid/widgets";
 
 export function kernelSpec(): Record<string, unknown> {

@@ -6,6 +6,7 @@ import { spawn, spawnSync } from "node:child_process";
 import { join, resolve } from "node:path";
 import { install } from "./install.js";
 import { parseArgs, type CommandIO } from "./args.js";
+import { checkoutRoot } from "./places.js";
 
 export function findJupyter(): { cmd: string; args: string[]; kind: "lab" | "notebook" } | null {
   const has = (c: string, a: string[] = ["--version"]) => {
@@ -32,7 +33,8 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   }
   const r = install({ user: true });
   io.stdout(`kernelspec installed in ${r.kernelDir}${r.labExtensionDir ? `; extension in ${r.labExtensionDir}` : ""}\n`);
-  const dir = resolve(a.options.get("--notebook-dir") ?? join(__dirname, "..", "..", "..", "notebooks"));
+  // A checkout opens its example notebooks; an installed package opens the folder you are in.
+  const dir = resolve(a.options.get("--notebook-dir") ?? (checkoutRoot() ? join(checkoutRoot()!, "notebooks") : process.cwd()));
   const child = spawn(jupyter.cmd, [...jupyter.args, `--notebook-dir=${dir}`, "--ServerApp.ip=127.0.0.1", ...a.positional], { stdio: "inherit" });
   return new Promise((res) => child.on("exit", (code) => res(code ?? 0)));
 }

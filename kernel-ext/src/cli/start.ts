@@ -12,8 +12,8 @@ import { exportNotebook } from "../notebook/export.js";
 import { parseArgs, type CommandIO } from "./args.js";
 import { binPath, install } from "./install.js";
 import { findJupyter } from "./lab.js";
+import { defaultGalleryDir, exampleNotebooksDir } from "./places.js";
 
-const repoRoot = resolve(__dirname, "..", "..", "..");
 
 export interface GalleryEntry {
   name: string;
@@ -127,8 +127,14 @@ export function serveDirectory(dir: string, port: number): Promise<Server> {
 
 export async function startCommand(args: string[], io: CommandIO): Promise<number> {
   const a = parseArgs(args, ["--port", "--out", "--notebooks"]);
-  const notebooks = resolve(a.options.get("--notebooks") ?? join(repoRoot, "notebooks"));
-  const out = resolve(a.options.get("--out") ?? join(repoRoot, ".gallery"));
+  const given = a.options.get("--notebooks");
+  const examples = exampleNotebooksDir();
+  if (given === undefined && examples === null) {
+    io.stderr("helicoid start: no example notebooks in this install; give a folder of notebooks with --notebooks DIR\n");
+    return 2;
+  }
+  const notebooks = resolve(given ?? examples!);
+  const out = resolve(a.options.get("--out") ?? defaultGalleryDir());
   const entries = await buildGallery(notebooks, out, io.stderr);
   const failed = entries.filter((e) => e.error);
   const jupyter = findJupyter();
