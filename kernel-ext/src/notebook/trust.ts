@@ -11,19 +11,9 @@
  */
 import { spawnSync } from "node:child_process";
 import { closeSync, openSync, readSync } from "node:fs";
+import { jupyterCommand, which } from "../cli/jupyterEnv.js";
 
 const SIGN = "import sys, nbformat\nfrom nbformat.sign import NotebookNotary\nnb = nbformat.read(sys.argv[1], as_version=4)\nNotebookNotary().sign(nb)\nprint('signed')";
-
-/** The full path of a command on PATH, or null. */
-function which(cmd: string): string | null {
-  if (cmd.includes("/")) return cmd;
-  for (const d of (process.env.PATH ?? "").split(":").filter(Boolean)) {
-    const p = `${d}/${cmd}`;
-    const r = spawnSync("test", ["-x", p]);
-    if (r.status === 0) return p;
-  }
-  return null;
-}
 
 /** The interpreter named on the first line of a script (`#!/usr/bin/python3`), or null. */
 export function shebangInterpreter(path: string): string | null {
@@ -47,22 +37,15 @@ export interface TrustOutcome {
   message: string;
 }
 
-/** The `jupyter` command to use (HELICOID_JUPYTER overrides; else the first on PATH). */
-export function jupyterCommand(): string {
-  return process.env.HELICOID_JUPYTER || "jupyter";
-}
-
 export function trustNotebook(path: string): TrustOutcome {
-  const r = spawnSync(jupyterCommand(), ["trust", path], { encoding: "utf8", timeout: 60_000 });
-  if (r.error) {
-    const missing = (r.error as NodeJS.ErrnoException).code === "ENOENT";
-    return { signed: false, message: missing ? "not signed: no `jupyter` command found (Jupyter signs notebooks; none is installed here)" : `not signed: ${r.error.message}` };
-  }
+  const jupyter = jupyterCommand();
+  if (!jupyter) return { signed: false, message: "not signed: no `jupyter` command found (Jupyter signs notebooks; none is installed here)" };
+  const r = spawnSync(jupyter, ["trust", path], { encoding: "utf8", timeout: 60_000 });
+  if (r.error) return { signed: false, message: `not signed: ${r.error.message}` };
   if (r.status === 0) return { signed: true, message: "signed for this user (jupyter trust)" };
   // No `jupyter trust` subcommand: the notary of the Python that runs this `jupyter`.
-  const jupyterPath = which(jupyterCommand());
-  const python = jupyterPath ? shebangInterpreter(jupyterPath) : null;
-  if (!python) return { signed: false, message: `not signed: jupyter trust failed (status ${r.status}) and the Python of ${jupyterPath ?? jupyterCommand()} was not found` };
+  const python = shebangInterpreter(jupyter);
+  if (!python) return { signed: false, message: `not signed: jupyter trust failed (status ${r.status}) and the Python of ${jupyter} was not found` };
   const p = spawnSync(python, ["-c", SIGN, path], { encoding: "utf8", timeout: 60_000 });
   if (!p.error && p.status === 0 && p.stdout.trim() === "signed") return { signed: true, message: `signed for this user (Jupyter's notary, ${python} nbformat.sign)` };
   return { signed: false, message: `not signed: neither \`jupyter trust\` nor ${python}'s nbformat.sign worked: ${(p.error?.message ?? p.stderr ?? "").trim().split("\n").pop()}` };
