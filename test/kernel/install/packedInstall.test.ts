@@ -14,7 +14,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { spawnSync, type SpawnSyncReturns } from "node:child_process";
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { homedir, tmpdir } from "node:os";
 import { join, relative } from "node:path";
 import { repoRoot } from "../../helpers/paths.js";
 import { chromiumPath, launchBrowser, type Browser } from "../../e2e/harness.js";
@@ -22,11 +22,19 @@ import { chromiumPath, launchBrowser, type Browser } from "../../e2e/harness.js"
 const JUPYTER = "/usr/bin/jupyter";
 const SLOW = 900_000;
 
-/** The environment of a user's shell: no npm_* variables inherited from `npm test`, no NODE_PATH. */
+const work = mkdtempSync(join(tmpdir(), "helicoid-packed-"));
+const home = join(work, "home");
+mkdirSync(home);
+
+/**
+ * The environment of a user's shell: no npm_* variables inherited from `npm test`, no NODE_PATH, no
+ * JUPYTER_* settings; a fresh HOME (so the machine's own Jupyter folders do not count), with npm's
+ * default cache kept (packages come from the npm registry).
+ */
 function userEnv(extra: Record<string, string> = {}): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = {};
-  for (const [k, v] of Object.entries(process.env)) if (!/^npm_/i.test(k) && k !== "NODE_PATH" && k !== "INIT_CWD") env[k] = v;
-  return { ...env, ...extra };
+  for (const [k, v] of Object.entries(process.env)) if (!/^(npm_|JUPYTER_|XDG_)/i.test(k) && k !== "NODE_PATH" && k !== "INIT_CWD") env[k] = v;
+  return { ...env, HOME: home, npm_config_cache: join(homedir(), ".npm"), ...extra };
 }
 
 function sh(cmd: string, args: string[], opts: { cwd: string; env?: NodeJS.ProcessEnv; timeout?: number }): SpawnSyncReturns<string> {
@@ -50,7 +58,6 @@ function requirePrerequisites(): void {
   if (missing.length) throw new Error(`packed-install test: prerequisites missing:\n  ${missing.join("\n  ")}`);
 }
 
-const work = mkdtempSync(join(tmpdir(), "helicoid-packed-"));
 const tarballs: string[] = [];
 let browser: Browser | undefined;
 
@@ -103,6 +110,8 @@ async function installedWorks(helicoid: string, installRoot: string, label: stri
   const prefix = join(work, `jupyter-${label}`);
   const inst = sh(helicoid, ["install", "--prefix", prefix], { cwd: installRoot });
   expect(inst.stdout).toMatch(/installed kernelspec 'helicoid'/);
+  // No widget manager in this fresh user's Jupyter: the one shipped in @helicoid/widgets is put in place.
+  expect(inst.stdout).toMatch(/installed the one Helicoid built from the npm package @jupyter-widgets\/jupyterlab-manager 5\./);
   const data = join(prefix, "share", "jupyter");
   const spec = JSON.parse(readFileSync(join(data, "kernels", "helicoid", "kernel.json"), "utf8"));
   // The kernelspec points at the installed command, which exists, inside the install (not a checkout).
@@ -110,6 +119,11 @@ async function installedWorks(helicoid: string, installRoot: string, label: stri
   expect(relative(realpathSync(installRoot), spec.argv[1]).startsWith("..")).toBe(false);
   expect(spec.argv[1]).not.toContain(repoRoot);
   expect(existsSync(join(data, "labextensions", "@helicoid", "widgets", "package.json"))).toBe(true);
+  // The installed doctor agrees: kernelspec (this install), kernel_info, extension, widget manager.
+  const doc = spawnSync(helicoid, ["doctor", "--json", "--start-kernel", "--prefix", prefix], { encoding: "utf8", cwd: installRoot, env: userEnv(), timeout: 300_000 });
+  const report = JSON.parse(doc.stdout) as { checks: Array<{ name: string; status: string; found: string }> };
+  const status = Object.fromEntries(report.checks.map((c) => [c.name, c.status]));
+  expect(status, doc.stdout).toMatchObject({ kernelspec: "ok", kernel: "ok", extension: "ok", "widget manager": "ok" });
 
   const dir = notebookFolder(`notebooks-${label}`);
   const jenv = userEnv({ JUPYTER_PATH: data, JUPYTER_DATA_DIR: data });
