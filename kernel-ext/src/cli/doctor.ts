@@ -13,7 +13,7 @@ import { existsSync, readFileSync, realpathSync } from "node:fs";
 import { join } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
 import { parseArgs, type CommandIO } from "./args.js";
-import { binPath, KERNEL_NAME, LAB_EXTENSION_NAME } from "./install.js";
+import { binPath, KERNEL_NAME, LAB_EXTENSION_NAME, labExtensionSource } from "./install.js";
 import {
   findLabExtensions,
   JUPYTERLAB_MAJOR,
@@ -46,6 +46,15 @@ export interface DoctorReport {
 }
 
 const INSTALL = "run `npx helicoid install` (add --user or --prefix DIR as you installed Jupyter)";
+
+/** The version of the extension this install ships (@helicoid/widgets' labextension/), or null. */
+function shippedExtensionVersion(): string | null {
+  try {
+    return (JSON.parse(readFileSync(join(labExtensionSource, "package.json"), "utf8")) as { version?: string }).version ?? null;
+  } catch {
+    return null;
+  }
+}
 
 function realOr(p: string): string {
   try {
@@ -164,7 +173,13 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
   } else if (!ours[0]!.loadable) {
     checks.push({ name: "extension", status: "problem", found: `${ours[0]!.dir} has no built remoteEntry`, advice: INSTALL });
   } else {
-    checks.push({ name: "extension", status: "ok", found: `${LAB_EXTENSION_NAME} ${ours[0]!.version} in ${ours[0]!.dir}`, advice: "" });
+    const shipped = shippedExtensionVersion();
+    const stale = shipped !== null && ours[0]!.version !== shipped;
+    checks.push({
+      name: "extension", status: stale ? "warning" : "ok",
+      found: `${LAB_EXTENSION_NAME} ${ours[0]!.version} in ${ours[0]!.dir}${stale ? ` (this install ships ${shipped})` : ""}`,
+      advice: stale ? INSTALL : "",
+    });
   }
   const managers = findLabExtensions(WIDGET_MANAGER, data.dirs);
   const used = managers[0];

@@ -167,6 +167,12 @@ describe("packed packages, installed as a user does", () => {
     // npx finds the installed command, as a user types it.
     const help = sh("npx", ["--no", "helicoid", "help"], { cwd: project });
     expect(help.stdout).toMatch(/usage: helicoid COMMAND/);
+    // Installed, the command knows it is not in a checkout: `helicoid lab` opens the current folder and
+    // `helicoid start` runs the example notebooks shipped in the package (no node_modules/@helicoid/notebooks).
+    const kernelDir = join(project, "node_modules", "@helicoid", "kernel");
+    const places = sh(process.execPath, ["-e", `const p = require(${JSON.stringify(join(kernelDir, "dist", "cli", "places.js"))}); console.log(JSON.stringify({ checkout: p.checkoutRoot(), examples: p.exampleNotebooksDir() }))`], { cwd: project });
+    expect(JSON.parse(places.stdout)).toEqual({ checkout: null, examples: join(kernelDir, "examples") });
+    expect(readdirSync(join(kernelDir, "examples")).filter((f) => f.endsWith(".ipynb")).sort()).toEqual(readdirSync(join(repoRoot, "notebooks")).filter((f) => f.endsWith(".ipynb")).sort());
     await installedWorks(join(project, "node_modules", ".bin", "helicoid"), project, "project");
   }, SLOW);
 
