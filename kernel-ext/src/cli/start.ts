@@ -141,6 +141,7 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   if (jupyter) {
     const r = install({ user: true });
     io.stdout(`Jupyter found (${jupyter.cmd}${jupyter.args.length ? " " + jupyter.args.join(" ") : ""}): kernelspec installed in ${r.kernelDir}.\n`);
+    if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
     io.stdout(`To work in notebooks with live kernel widgets: npx helicoid lab\n`);
   } else {
     io.stdout("No Jupyter found: the gallery below needs none. For notebooks with a live kernel, install Jupyter, then run: npx helicoid lab\n");
