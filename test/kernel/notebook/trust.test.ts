@@ -45,6 +45,16 @@ describe("notebooks written by helicoid run are trusted", () => {
     expect(check(changed)).toBe("untrusted");
   });
 
+  it("a notebook whose cells have no ids (nbformat 4.5 readers invent random ones) is trusted too", () => {
+    const bare = join(dir, "bare.ipynb");
+    writeFileSync(bare, JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: "6 * 7" }, { cell_type: "markdown", metadata: {}, source: "# t" }] }));
+    const out = join(dir, "bare.out.ipynb");
+    const r = spawnSync(process.execPath, [helicoidBin, "run", bare, "-o", out], { encoding: "utf8", env, timeout: 120_000 });
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(readFileSync(out, "utf8")).cells.map((c: { id: string }) => c.id)).toEqual(["cell-1", "cell-2"]);
+    expect(check(out)).toBe("trusted");
+  });
+
   it("says so when no Jupyter is there to sign", () => {
     const out = join(dir, "nojupyter.ipynb");
     const r = spawnSync(process.execPath, [helicoidBin, "run", input, "-o", out], { encoding: "utf8", env: { ...env, HELICOID_JUPYTER: join(dir, "no-such-jupyter") }, timeout: 120_000 });
