@@ -7,10 +7,15 @@
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
  *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
- * `node build.mjs --no-lab` skips step 5.
+ *   6. widget-manager/         the widget manager (npm @jupyter-widgets/jupyterlab-manager) as a
+ *                              prebuilt extension, by @jupyterlab/builder, for `helicoid install` to
+ *                              put in place when the user's Jupyter has none; rebuilt only when the
+ *                              manager's version changes (or with --manager)
+ * `node build.mjs --no-lab` skips steps 5 and 6.
  */
 import * as esbuild from "esbuild";
-import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, readdirSync } from "node:fs";
+import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, readdirSync, cpSync } from "node:fs";
+import { createRequire } from "node:module";
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";
@@ -126,7 +131,7 @@ if (!args.has("--no-lab")) {
       license: "MIT",
       main: "plugin.js",
       keywords: ["jupyter", "jupyterlab", "jupyterlab-extension", "widgets"],
-      dependencies: { "@jupyter-widgets/base": own.dependencies["@jupyter-widgets/base"] },
+      dependencies: { "@jupyter-widgets/base": (own.dependencies ?? own.devDependencies)["@jupyter-widgets/base"] },
       jupyterlab: {
         extension: true,
         outputDir: relative(stage, join(here, "labextension")),
@@ -145,5 +150,45 @@ if (!args.has("--no-lab")) {
   }
   const meta = JSON.parse(readFileSync(join(here, "labextension", "package.json"), "utf8"));
   log(`labextension ${meta.jupyterlab._build.load}`);
+}
+// 6. the widget manager as a prebuilt extension (what the Python package jupyterlab_widgets ships)
+if (!args.has("--no-lab")) {
+  const require = createRequire(import.meta.url);
+  const src = dirname(require.resolve("@jupyter-widgets/jupyterlab-manager/package.json"));
+  const pkg = JSON.parse(readFileSync(join(src, "package.json"), "utf8"));
+  const outDir = join(here, "widget-manager");
+  const builtFor = existsSync(join(outDir, "package.json")) ? JSON.parse(readFileSync(join(outDir, "package.json"), "utf8")).version : null;
+  if (builtFor === pkg.version && !args.has("--manager")) {
+    log(`widget-manager ${pkg.version} up to date`);
+  } else {
+    const stage = join(here, "build", "manager");
+    rmSync(stage, { recursive: true, force: true });
+    rmSync(outDir, { recursive: true, force: true });
+    mkdirSync(stage, { recursive: true });
+    for (const d of ["lib", "schema"]) cpSync(join(src, d), join(stage, d), { recursive: true });
+    writeFileSync(join(stage, "package.json"), JSON.stringify({
+      name: pkg.name, version: pkg.version, description: pkg.description, license: pkg.license,
+      main: pkg.main, dependencies: pkg.dependencies,
+      jupyterlab: {
+        extension: true,
+        schemaDir: "./schema",
+        outputDir: relative(stage, outDir),
+        // The widget packages are provided once, for every widget extension (ours asks for base as a singleton).
+        sharedPackages: {
+          "@jupyter-widgets/base": { bundled: true, singleton: true },
+          "@jupyter-widgets/controls": { bundled: true, singleton: true },
+          "@jupyter-widgets/output": { bundled: true, singleton: true },
+        },
+      },
+    }, null, 2));
+    const builder = join(here, "..", "node_modules", "@jupyterlab", "builder", "lib", "build-labextension.js");
+    const r = spawnSync(process.execPath, [builder, "--core-path", join(here, "lab-core"), stage], { cwd: stage, encoding: "utf8" });
+    if (r.status !== 0) {
+      process.stderr.write(r.stdout + r.stderr);
+      throw new Error(`build-labextension (widget manager) failed with status ${r.status}`);
+    }
+    const meta = JSON.parse(readFileSync(join(outDir, "package.json"), "utf8"));
+    log(`widget-manager ${meta.version} ${meta.jupyterlab._build.load}`);
+  }
 }
 log("done");

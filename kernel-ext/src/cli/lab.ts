@@ -14,6 +14,7 @@ import { join, resolve } from "node:path";
 import { install } from "./install.js";
 import { parseArgs, UsageError, type CommandIO } from "./args.js";
 import { ensureLabFrontend, labFrontendState, prepareLabSite } from "./labFrontend.js";
+import { checkoutRoot } from "./places.js";
 
 export interface Tool { cmd: string; args: string[]; version: string }
 export interface LabChoice {
@@ -82,7 +83,9 @@ function freePort(): Promise<number> {
 export async function labCommand(args: string[], io: CommandIO): Promise<number> {
   const a = parseArgs(args, ["--notebook-dir", "--port"]);
   const choice = chooseFrontEnd();
-  const dir = resolve(a.options.get("--notebook-dir") ?? join(__dirname, "..", "..", "..", "notebooks"));
+  // A checkout opens its example notebooks; an installed package opens the folder you are in.
+  const root = checkoutRoot();
+  const dir = resolve(a.options.get("--notebook-dir") ?? (root ? join(root, "notebooks") : process.cwd()));
   if (a.flags.has("--dry-run")) {
     io.stdout(`helicoid lab would use: ${choice.kind === "none" ? "nothing" : choice.kind === "frontend" ? "Helicoid's JupyterLab-based front end" : choice.kind === "lab" ? "JupyterLab" : "Notebook"}\n${choice.reason}\n`);
     if (choice.kind === "frontend") {
@@ -104,6 +107,7 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   io.stdout(`helicoid lab: ${choice.reason}.\n`);
   const r = install({ user: true });
   io.stdout(`kernelspec installed in ${r.kernelDir}${r.labExtensionDir ? `; extension in ${r.labExtensionDir}` : ""}\n`);
+  if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
   const portOpt = a.options.get("--port");
   if (portOpt !== undefined && !/^\d+$/.test(portOpt)) throw new UsageError(`--port expects a port number, got '${portOpt}'`);
 

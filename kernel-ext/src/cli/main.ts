@@ -3,6 +3,7 @@
  *
  *   helicoid install [--user|--prefix DIR]   kernelspec "helicoid" + JupyterLab extension
  *   helicoid uninstall [--prefix DIR]
+ *   helicoid doctor [--json] [--start-kernel] what Helicoid finds of your Jupyter, and what to do
  *   helicoid kernel --connection-file FILE   (started by Jupyter)
  *   helicoid run NOTEBOOK [-o OUT]           execute a notebook in process
  *   helicoid export NOTEBOOK -o PAGE.html    one self-contained page, live catalogue explorers
@@ -20,8 +21,9 @@ type Command = (args: string[], io: CommandIO) => Promise<number>;
 
 /** Commands load on demand, so `helicoid calc` does not pay for the kernel's start-up. */
 const commands: Record<string, { load: () => Command; help: string; ownHelp?: boolean }> = {
-  install: { load: () => require("./install.js").installCommand, help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension" },
+  install: { load: () => require("./install.js").installCommand, help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension (and a widget manager if none)" },
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
+  doctor: { load: () => require("./doctor.js").doctorCommand, help: "doctor [--json] [--start-kernel]  check Jupyter, the kernelspec, the extension and the widget manager" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT]             execute a notebook in process, no Jupyter needed" },
   export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },

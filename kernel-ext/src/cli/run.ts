@@ -1,11 +1,12 @@
 import { resolve } from "node:path";
 import { NotebookError } from "../notebook/nbformat.js";
 import { runNotebookFile } from "../notebook/runner.js";
+import { trustNotebook } from "../notebook/trust.js";
 import { fileReason, inputFileReason, isFileSystemError, outputFileProblem, parseStrict, UsageError, type CommandIO } from "./args.js";
 
-export const runUsage = "helicoid run NOTEBOOK [-o OUT.ipynb] [--quiet]   execute a notebook in process (no Jupyter needed)";
+export const runUsage = "helicoid run NOTEBOOK [-o OUT.ipynb] [--quiet] [--no-trust]   execute a notebook in process (no Jupyter needed); OUT is signed as trusted for you";
 
-const OPTIONS = { flags: ["--quiet"], valued: { "-o": "a file name such as OUT.ipynb", "--output": "a file name such as OUT.ipynb" } };
+const OPTIONS = { flags: ["--quiet", "--no-trust"], valued: { "-o": "a file name such as OUT.ipynb", "--output": "a file name such as OUT.ipynb" } };
 
 /**
  * `helicoid run NOTEBOOK [-o OUT]`. Exit 0 when every cell ran, 1 when a cell failed, 2 on bad input
@@ -46,6 +47,11 @@ export async function runCommand(args: string[], io: CommandIO): Promise<number>
       out,
       onCell: quiet ? undefined : (i, n) => io.stderr(`  cell ${i + 1}/${n}\n`),
     });
+    // The notebook this user just ran is trusted for them, as Jupyter does when it saves one.
+    if (out !== undefined && !a.flags.has("--no-trust")) {
+      const t = trustNotebook(out);
+      if (!quiet || !t.signed) io.stderr(`${given}: ${t.message}\n`);
+    }
     if (r.failure) {
       io.stderr(`${input}: cell ${r.failure.cell} failed: ${r.failure.ename}: ${r.failure.evalue}\n`);
       if (given) io.stderr(`partial output written to ${given}\n`);

@@ -12,8 +12,8 @@ import { exportNotebook } from "../notebook/export.js";
 import { parseArgs, type CommandIO } from "./args.js";
 import { binPath, install } from "./install.js";
 import { findJupyter } from "./lab.js";
+import { defaultGalleryDir, exampleNotebooksDir } from "./places.js";
 
-const repoRoot = resolve(__dirname, "..", "..", "..");
 
 export interface GalleryEntry {
   name: string;
@@ -127,14 +127,21 @@ export function serveDirectory(dir: string, port: number): Promise<Server> {
 
 export async function startCommand(args: string[], io: CommandIO): Promise<number> {
   const a = parseArgs(args, ["--port", "--out", "--notebooks"]);
-  const notebooks = resolve(a.options.get("--notebooks") ?? join(repoRoot, "notebooks"));
-  const out = resolve(a.options.get("--out") ?? join(repoRoot, ".gallery"));
+  const given = a.options.get("--notebooks");
+  const examples = exampleNotebooksDir();
+  if (given === undefined && examples === null) {
+    io.stderr("helicoid start: no example notebooks in this install; give a folder of notebooks with --notebooks DIR\n");
+    return 2;
+  }
+  const notebooks = resolve(given ?? examples!);
+  const out = resolve(a.options.get("--out") ?? defaultGalleryDir());
   const entries = await buildGallery(notebooks, out, io.stderr);
   const failed = entries.filter((e) => e.error);
   const jupyter = findJupyter();
   if (jupyter) {
     const r = install({ user: true });
     io.stdout(`Jupyter found (${jupyter.cmd}${jupyter.args.length ? " " + jupyter.args.join(" ") : ""}): kernelspec installed in ${r.kernelDir}.\n`);
+    if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
     io.stdout(`To work in notebooks with live kernel widgets: npx helicoid lab\n`);
   } else {
     io.stdout("No Jupyter found: the gallery below needs none. For notebooks with a live kernel, install Jupyter, then run: npx helicoid lab\n");

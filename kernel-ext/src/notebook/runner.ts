@@ -114,4 +114,25 @@ function markExecuted(nb: Notebook): void {
   nb.metadata.kernelspec ??= helicoidKernelspec;
   nb.metadata.language_info = { ...typescriptLanguageInfo, ...((nb.metadata.language_info as object) ?? {}) };
   for (const c of nb.cells as NotebookCell[]) if (c.cell_type !== "code") delete c.outputs;
+  addCellIds(nb);
+}
+
+/**
+ * nbformat 4.5 requires an id on every cell; readers (nbformat 5.x, so Jupyter) invent random ids for
+ * cells without one, so such a notebook's signature never checks (the trust check reads different
+ * ids each time). Cells without an id get `cell-<number>` (unique in the notebook), as saving in
+ * Jupyter would give them one; older minor versions have no ids and stay as they are.
+ */
+export function addCellIds(nb: Notebook): void {
+  if (nb.nbformat !== 4 || nb.nbformat_minor < 5) return;
+  const used = new Set(nb.cells.map((c) => c.id).filter((id): id is string => typeof id === "string"));
+  let n = 0;
+  for (const c of nb.cells) {
+    if (typeof c.id === "string" && /^[a-zA-Z0-9-_]{1,64}$/.test(c.id)) continue;
+    let id: string;
+    do id = `cell-${++n}`;
+    while (used.has(id));
+    used.add(id);
+    c.id = id;
+  }
 }

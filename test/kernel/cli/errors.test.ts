@@ -89,7 +89,7 @@ describe("helicoid run: the output path is checked before any cell runs", () => 
     expect(r.stderr).toMatch(/^helicoid run: -o needs a value \(a file name such as OUT\.ipynb\)\nusage: helicoid run /);
     r = helicoid(["run", nb, "--bogus"]);
     expect(r.status).toBe(2);
-    expect(r.stderr).toMatch(/unknown option --bogus; the options are --quiet, -o, --output/);
+    expect(r.stderr).toMatch(/unknown option --bogus; the options are --quiet, --no-trust, -o, --output/);
     expect(r.stderr).not.toMatch(/code cells ran/);
   });
 

@@ -1,7 +1,7 @@
 /** `helicoid install/uninstall` write and remove the kernelspec and the JupyterLab extension; Jupyter sees them. */
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
@@ -28,6 +28,29 @@ describe("helicoid install", () => {
     expect(u.status).toBe(0);
     expect(existsSync(join(data, "kernels", "helicoid"))).toBe(false);
     expect(existsSync(join(data, "labextensions", "@helicoid", "widgets"))).toBe(false);
+  });
+
+  it("puts in the widget manager when the user's Jupyter has none, and uninstall removes only that one", () => {
+    const home = mkdtempSync(join(tmpdir(), "helicoid-install-home-"));
+    const env = { ...process.env, HOME: home, JUPYTER_DATA_DIR: join(home, "data") };
+    delete env.JUPYTER_PATH;
+    const prefix = join(home, "prefix");
+    const r = spawnSync(process.execPath, [helicoidBin, "install", "--prefix", prefix], { encoding: "utf8", env });
+    expect(r.status, r.stderr).toBe(0);
+    const manager = join(prefix, "share", "jupyter", "labextensions", "@jupyter-widgets", "jupyterlab-manager");
+    expect(r.stdout).toContain(`installed the one Helicoid built from the npm package @jupyter-widgets/jupyterlab-manager`);
+    const pkg = JSON.parse(readFileSync(join(manager, "package.json"), "utf8"));
+    expect(pkg.version).toMatch(/^5\./);
+    expect(existsSync(join(manager, pkg.jupyterlab._build.load))).toBe(true);
+    const u = spawnSync(process.execPath, [helicoidBin, "uninstall", "--prefix", prefix], { encoding: "utf8", env });
+    expect(u.stdout).toContain(`removed ${manager}`);
+    expect(existsSync(manager)).toBe(false);
+    // One we did not install stays.
+    mkdirSync(manager, { recursive: true });
+    writeFileSync(join(manager, "package.json"), JSON.stringify({ name: "@jupyter-widgets/jupyterlab-manager", version: "5.0.0" }));
+    mkdirSync(join(prefix, "share", "jupyter", "kernels", "helicoid"), { recursive: true });
+    spawnSync(process.execPath, [helicoidBin, "uninstall", "--prefix", prefix], { encoding: "utf8", env });
+    expect(existsSync(join(manager, "package.json"))).toBe(true);
   });
 
   it("says how to get Jupyter when none is found", () => {

@@ -9,6 +9,7 @@ import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
+import { systemPython } from "../../helpers/python.js";
 
 const nb = (source: string, title: string) =>
   JSON.stringify({
@@ -48,6 +49,9 @@ describe("helicoid start", () => {
     expect(page.status).toBe(200);
     expect(await page.text()).toMatch(/application\/vnd\.jupyter\.widget-state\+json/);
     expect((await fetch(url + "..%2f..%2f..%2fetc%2fpasswd")).status).toBe(404); // encoded traversal stays inside
+    // The executed notebook it wrote is trusted for this user, by Jupyter's own notary (Debian's nbformat).
+    const trust = spawnSync(systemPython, ["-c", "import nbformat, sys\nfrom nbformat.sign import NotebookNotary\nprint(NotebookNotary().check_signature(nbformat.read(sys.argv[1], as_version=4)))", join(dir, "out", "a.ipynb")], { encoding: "utf8" });
+    expect(trust.stdout.trim(), trust.stderr).toBe("True");
     child.kill("SIGINT");
     const code = await new Promise<number | null>((res) => child.on("exit", res));
     expect(code).toBe(0);
