@@ -30,6 +30,8 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
   const disc: number[] = [];
   const exact: number[] = [];
   let omega = 0;
+  const shifted: number[] = [];
+  let residual = 0, minFactor = Infinity;
   for (let k = 0; k <= v.twoS!; k++) {
     const m = S - k;
     const r = spinBerryPhase(loop, S, m);
@@ -38,7 +40,17 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
     geo.push(r.geometric);
     disc.push(r.discrete);
     exact.push(wrapBerryPhase(-m * 2 * Math.PI * (1 - Math.cos(theta))));
+    if (r.edgeSign < 0) shifted.push(m);
+    minFactor = Math.min(minFactor, r.minEdgeFactor);
+    // the identity gamma_disc = -m Omega + pi [prod d^S_mm(alpha) < 0] checked on the computed overlaps
+    residual = Math.max(residual, Math.abs(wrapBerryPhase(r.discrete - r.geometric - (r.edgeSign < 0 ? Math.PI : 0))));
   }
+  const alpha = 2 * Math.asin(Math.min(1, Math.sin(theta) * Math.sin(Math.PI / N)));
+  const loopNotes: string[] = [];
+  if (shifted.length) {
+    loopNotes.push(`The discrete phase of m = ${shifted.join(", ")} is off by exactly pi: for edges of arc ${alpha.toFixed(4)} rad the product of the diagonal Wigner elements d^S_mm(alpha) over the ${N} edges is negative (a loop too coarse for these states, not a numerical error). More edges (or an even number) remove it.`);
+  }
+  if (minFactor < 1e-8) loopNotes.push(`An edge factor d^S_mm(alpha) is ${minFactor.toExponential(1)}: neighbouring states are nearly orthogonal and the discrete phase of that m is ill-defined; use more edges.`);
   const values: ComputeOutput["values"] = {
     solidAngle: omega,
     capSolidAngle: 2 * Math.PI * (1 - Math.cos(theta)),
@@ -46,6 +58,9 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
     gammaTopDiscrete: disc[0]!,
     gammaTopExact: exact[0]!,
     maxDifference: Math.max(...geo.map((g, i) => Math.abs(wrapBerryPhase(g - disc[i]!)))),
+    piShiftedCount: shifted.length,
+    identityResidual: residual,
+    edgeArc: alpha,
     mValues,
     gammaGeometric: geo,
     gammaDiscrete: disc,
@@ -65,7 +80,14 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
     values.gammaTopDiscreteSweep = g2;
     values.gammaTopCircleSweep = g3;
   }
-  return { values, status: "ok", notes: [`The loop is a geodesic ${N}-gon inscribed in the circle; its solid angle differs from the cap's by O(1/N^2).`] };
+  return {
+    values,
+    status: loopNotes.length ? "warning" : "ok",
+    notes: [
+      ...loopNotes,
+      `The loop is a geodesic ${N}-gon inscribed in the circle; its solid angle differs from the cap's by O(1/N^2). The discrete phase is -m Omega of the polygon exactly (or off by exactly pi, flagged); it has no discretization error of its own.`,
+    ],
+  };
 }
 
 export const berryLoopSpec: CalculatorSpec = {
@@ -83,7 +105,10 @@ export const berryLoopSpec: CalculatorSpec = {
     { name: "gammaTop", symbol: "\\gamma_S", unit: "rad", meaning: "Berry phase of m = S, geometric (rad, in (-pi, pi])" },
     { name: "gammaTopDiscrete", symbol: "\\gamma_S^{disc}", unit: "rad", meaning: "Berry phase of m = S from overlaps (rad)" },
     { name: "gammaTopExact", symbol: "-S\\,2\\pi(1-\\cos\\theta)", unit: "rad", meaning: "closed form for the circle (rad)" },
-    { name: "maxDifference", symbol: "\\max|\\Delta\\gamma|", unit: "rad", meaning: "largest difference of the two methods over m (rad)" },
+    { name: "maxDifference", symbol: "\\max|\\Delta\\gamma|", unit: "rad", meaning: "largest difference of the two methods over m (rad): 0 or pi (see piShiftedCount)" },
+    { name: "piShiftedCount", symbol: "n_\\pi", unit: "", meaning: "number of m whose discrete phase is off by pi (product of d^S_mm(alpha) over the edges negative)" },
+    { name: "identityResidual", symbol: "\\epsilon", unit: "rad", meaning: "largest |gamma_disc + m Omega - pi [sign]| over m: rounding only" },
+    { name: "edgeArc", symbol: "\\alpha", unit: "rad", meaning: "arc of each geodesic edge (rad)" },
     { name: "mValues", symbol: "m", unit: "", kind: "array", meaning: "spin projections" },
     { name: "gammaGeometric", symbol: "\\gamma_m", unit: "rad", kind: "array", meaning: "-m Omega (rad)" },
     { name: "gammaDiscrete", symbol: "\\gamma_m^{disc}", unit: "rad", kind: "array", meaning: "-Im ln prod <u_i|u_i+1> (rad)" },
@@ -101,6 +126,7 @@ export const berryLoopSpec: CalculatorSpec = {
   assumptions: [
     "Adiabatic transport of the state |S, m> quantized along the moving axis; phases modulo 2 pi in (-pi, pi].",
     "Sign convention: gamma = -Im ln prod <u_i|u_i+1> = i oint <u|du>; Omega > 0 for counterclockwise loops seen from outside, so gamma = -m Omega.",
+    "Derived (spinBerryPhase.ts): prod <u_i|u_i+1> = exp(i m Omega) prod_i d^S_mm(alpha_i) for a geodesic polygon, so the discrete phase is -m Omega exactly, or off by exactly pi when that product is negative (possible for |m| < S on coarse loops).",
   ],
   sources: berrySources,
   method: "Van Oosterom-Strackee solid angle of the geodesic polygon; Wigner-D spin-S states and the discrete product of overlaps",
