@@ -15,7 +15,7 @@ import { chernNumbers, chernNumbersRefined } from "../berry/chernNumbers.js";
 import { InputError } from "../errors.js";
 import { haldaneModel, haldaneCriticalMass } from "../berry/blochModel.js";
 import { honeycombMagnonHall } from "../berry/magnonHoneycomb.js";
-import { hardAxisQuenchingFields, hardAxisTunnelSplitting, gargQuenchingPeriod, giantSpinLevels } from "../berry/giantSpin.js";
+import { hardAxisQuenchingFields, hardAxisTunnelSplitting, gargQuenchingPeriod, giantSpinLevels, splittingMinima, tunnelSplittingAnyField } from "../berry/giantSpin.js";
 import { easyPlaneCrossings, easyPlaneGroundM, easyPlaneMagnetization, rotorMagnetization, rotorTruncation } from "../berry/easyPlaneSpin.js";
 
 const berrySources = ["M. Berry, Proc. R. Soc. A 392, 45 (1984)", "R. Resta, Rev. Mod. Phys. 66, 899 (1994)", "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)"];
@@ -296,29 +296,49 @@ export const magnonHallSpec: CalculatorSpec = {
 
 // ---------------------------------------------------------------- spin-tunnel
 function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
-  const p = { S: v.S!, D: v.D! * kB, E: v.E! * kB, g: 2 };
-  const q = hardAxisQuenchingFields(p, v.Bmax!, 6);
-  const d0 = hardAxisTunnelSplitting(p, 0);
+  const p = { S: v.S!, D: v.D! * kB, E: v.E! * kB, C: (v.C ?? 0) * kB, g: 2 };
+  const phiB = v.misalignment ?? 0;
+  if (!Number.isFinite(phiB) || Math.abs(phiB) > Math.PI / 2) throw new InputError("misalignment", phiB, "a field azimuth from the hard axis x within [-pi/2, pi/2] rad");
+  const aligned = phiB === 0;
+  const dir: [number, number, number] = [Math.cos(phiB), Math.sin(phiB), 0];
+  const half = Math.round(2 * p.S) % 2 === 1;
   const notes: string[] = [];
-  const values: ComputeOutput["values"] = {
-    gargPeriod: gargQuenchingPeriod(p),
-    zeros: q.zeros,
-    zeroCount: q.zeros.length,
-    splittingZeroField: d0.splitting / kB,
-  };
-  if (q.spacings.length) {
-    values.meanPeriod = q.meanPeriod;
-    values.deviation = q.deviation;
-  } else notes.push("fewer than two quenching fields below Bmax: raise Bmax to measure the period");
+  const values: ComputeOutput["values"] = { gargPeriod: gargQuenchingPeriod(p) };
+  if (aligned) {
+    const q = hardAxisQuenchingFields(p, v.Bmax!, 6);
+    values.zeros = q.zeros;
+    values.zeroCount = q.zeros.length;
+    if (q.spacings.length) {
+      values.meanPeriod = q.meanPeriod;
+      values.deviation = q.deviation;
+      if (p.C === 0) notes.push("For C = 0 the zeros are exact and equally spaced with exactly Garg's period (Kececioglu and Garg, PRB 63, 064422 (2001)): `deviation` is rounding of the numerics, not a physical correction.");
+      else notes.push(`C != 0: Garg's period is that of the quadratic Hamiltonian; the deviation ${(q.deviation * 100).toPrecision(3)} % is the effect of the fourth-order term (spacings from ${Math.min(...q.spacings).toPrecision(5)} to ${Math.max(...q.spacings).toPrecision(5)} T).`);
+    } else notes.push("fewer than two quenching fields below Bmax: raise Bmax to measure the period");
+  } else {
+    const mins = splittingMinima(p, v.Bmax!, dir, 120);
+    values.zeros = [];
+    values.zeroCount = 0;
+    values.minimumFields = mins.fields;
+    values.minimumSplittings = mins.splittings.map((x) => x / kB);
+    notes.push(`The field is ${phiB.toPrecision(3)} rad off the hard axis: the parity symmetry is broken, so the splitting has minima of finite depth instead of zeros (minimumFields, minimumSplittings).`);
+    if (mins.splittings.some((x, i) => x < 10 * mins.resolution[i]!)) notes.push("Some minima are within 10x the double-precision resolution of the splitting and cannot be told from zero.");
+    if (mins.fields.length >= 2) {
+      values.meanPeriod = (mins.fields.at(-1)! - mins.fields[0]!) / (mins.fields.length - 1);
+      values.deviation = values.meanPeriod / (values.gargPeriod as number) - 1;
+    }
+  }
+  // At B = 0 a half-integer spin is a Kramers doublet (time reversal, any C): exactly degenerate.
+  values.splittingZeroField = half ? 0 : hardAxisTunnelSplitting(p, 0).splitting / kB;
+  if (half) notes.push("Half-integer S: the zero-field splitting is exactly 0 (Kramers degeneracy), not computed.");
   {
     // Always over [0, Bmax] (the field range of this calculator), 60 points.
     void options;
     const Bs = Array.from({ length: 60 }, (_, i) => (v.Bmax! * i) / 59);
     const logSplit: number[] = [];
     const l0: number[] = [], l1: number[] = [], l2: number[] = [];
-    const levels = giantSpinLevels(p, Bs, [1, 0, 0]);
+    const levels = giantSpinLevels(p, Bs, dir);
     for (let i = 0; i < Bs.length; i++) {
-      const t = hardAxisTunnelSplitting(p, Bs[i]!);
+      const t = aligned ? hardAxisTunnelSplitting(p, Bs[i]!) : tunnelSplittingAnyField(p, [Bs[i]! * dir[0], Bs[i]! * dir[1], 0]);
       logSplit.push(Math.log10(Math.max(t.splitting, t.resolution) / kB));
       l0.push(levels[i]![0]! / kB);
       l1.push(levels[i]![1]! / kB);
@@ -330,26 +350,31 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
     values.level1 = l1;
     values.level2 = l2;
   }
-  return { values, status: notes.length ? "warning" : "ok", notes };
+  const warn = notes.some((t) => /raise Bmax|cannot be told/.test(t));
+  return { values, status: warn ? "warning" : "ok", notes };
 }
 
 export const spinTunnelSpec: CalculatorSpec = {
   id: "spin-tunnel",
   title: "Quenching of spin tunnelling by a hard-axis field",
-  summary: "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) - g muB Bx Sx by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
+  summary: "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B.S (B at azimuth phi_B from the hard axis x in the hard plane) by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
   inputs: [
     { name: "S", symbol: "S", unit: "", default: 10, min: 4, max: 12, scale: "linear", kind: "choice", choices: [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })), meaning: "spin of the molecule" },
     { name: "D", symbol: "D/k_B", unit: "K", default: 0.29, min: 0.05, max: 1, scale: "linear", meaning: "axial (easy-axis) anisotropy" },
     { name: "E", symbol: "E/k_B", unit: "K", default: 0.047, min: 0.005, max: 0.2, scale: "linear", meaning: "rhombic anisotropy (x hard axis)" },
     { name: "Bmax", symbol: "B_{max}", unit: "T", default: 1.5, min: 0.2, max: 3, scale: "linear", meaning: "largest hard-axis field searched" },
+    { name: "C", symbol: "C/k_B", unit: "K", default: 0, min: -2e-4, max: 2e-4, scale: "linear", meaning: "fourth-order transverse anisotropy C (S+^4 + S-^4)" },
+    { name: "misalignment", symbol: "\\varphi_B", unit: "rad", default: 0, min: 0, max: 0.3, scale: "linear", meaning: "field azimuth from the hard axis x toward the medium axis y (rad)" },
   ],
   outputs: [
     { name: "gargPeriod", symbol: "\\Delta B_{Garg}", unit: "T", meaning: "semiclassical quenching period" },
-    { name: "meanPeriod", symbol: "\\Delta B", unit: "T", meaning: "mean spacing of the exact zeros" },
-    { name: "deviation", symbol: "\\Delta B/\\Delta B_{Garg} - 1", unit: "", meaning: "relative deviation from Garg" },
+    { name: "meanPeriod", symbol: "\\Delta B", unit: "T", meaning: "mean spacing of the zeros (of the minima for a misaligned field)" },
+    { name: "deviation", symbol: "\\Delta B/\\Delta B_{Garg} - 1", unit: "", meaning: "relative deviation from Garg: rounding for C = 0 (the zeros are exact), the effect of C otherwise" },
     { name: "zeroCount", symbol: "n_0", unit: "", meaning: "number of zeros in (0, Bmax]" },
     { name: "zeros", symbol: "B_k", unit: "T", kind: "array", meaning: "quenching fields" },
-    { name: "splittingZeroField", symbol: "\\Delta_0/k_B", unit: "K", meaning: "ground tunnel splitting at B = 0" },
+    { name: "splittingZeroField", symbol: "\\Delta_0/k_B", unit: "K", meaning: "ground tunnel splitting at B = 0 (exactly 0 for half-integer S: Kramers)" },
+    { name: "minimumFields", symbol: "B_k^{min}", unit: "T", kind: "array", meaning: "fields of the splitting minima (misaligned field only)" },
+    { name: "minimumSplittings", symbol: "\\Delta_k^{min}/k_B", unit: "K", kind: "array", meaning: "splitting at each minimum (misaligned field only)" },
     { name: "BSweep", symbol: "B_x", unit: "T", kind: "array", meaning: "hard-axis fields of the sweep" },
     { name: "log10Splitting", symbol: "\\log_{10}(\\Delta/k_B\\,[K])", unit: "", kind: "array", meaning: "log10 of the splitting in K (floored at the resolution)" },
     { name: "level0", symbol: "E_0/k_B", unit: "K", kind: "array", meaning: "lowest level" },
@@ -362,9 +387,10 @@ export const spinTunnelSpec: CalculatorSpec = {
   ],
   assumptions: [
     "Single-spin (giant spin) Hamiltonian, no hyperfine or intermolecular couplings, T = 0; g = 2.",
-    "Field exactly along the hard axis x; splittings resolved down to ~1e-29 D S^2: lowest level of each parity block as the double-double Rayleigh quotient of its double-precision eigenvector (error ~ residual^2 / gap, bounded a posteriori).",
+    "For C = 0 and the field along x the zeros are exact with Garg's period (E. Kececioglu, A. Garg, PRB 63, 064422 (2001)); C changes the period; a misaligned field (phi_B != 0) breaks the parity symmetry and leaves minima, computed in double precision.",
+    "Field along the hard axis x (phi_B = 0): splittings resolved down to ~1e-29 D S^2: lowest level of each parity block as the double-double Rayleigh quotient of its double-precision eigenvector (error ~ residual^2 / gap, bounded a posteriori).",
   ],
-  sources: ["A. Garg, EPL 22, 205 (1993)", "W. Wernsdorfer, R. Sessoli, Science 284, 133 (1999)"],
+  sources: ["A. Garg, EPL 22, 205 (1993)", "W. Wernsdorfer, R. Sessoli, Science 284, 133 (1999)", "E. Kececioglu, A. Garg, PRB 63, 064422 (2001)"],
   method: "exact diagonalization of the P-symmetric and antisymmetric blocks (banded solver, double-double Rayleigh quotients), sign changes + Brent",
   compute: computeSpinTunnel,
 };
