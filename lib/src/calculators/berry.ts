@@ -14,7 +14,7 @@ import { spinBerryPhase, wrapBerryPhase } from "../berry/spinBerryPhase.js";
 import { chernNumbers, chernNumbersRefined } from "../berry/chernNumbers.js";
 import { InputError } from "../errors.js";
 import { haldaneModel, haldaneCriticalMass } from "../berry/blochModel.js";
-import { honeycombMagnonHall } from "../berry/magnonHoneycomb.js";
+import { honeycombMagnonHallConverged } from "../berry/magnonHoneycomb.js";
 import { hardAxisQuenchingFields, hardAxisTunnelSplitting, gargQuenchingPeriod, giantSpinLevels, splittingMinima, tunnelSplittingAnyField } from "../berry/giantSpin.js";
 import { easyPlaneCrossings, easyPlaneGroundM, easyPlaneMagnetization, rotorMagnetization, rotorTruncation } from "../berry/easyPlaneSpin.js";
 
@@ -232,25 +232,51 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
   const S = v.S!;
   const p = { J: v.J! * kB, D: v.D! * kB, S, zeeman: (v.g ?? 2) * muB * v.B! };
   const Ts = options.sweep ? sweepValues(magnonHallSpec, options.sweep) : [];
-  const r = honeycombMagnonHall(p, [v.T!, ...Ts], 40);
+  const rtol = 1e-3;
+  const c = honeycombMagnonHallConverged(p, [v.T!, ...Ts], { n0: 24, maxN: 384, rtol });
+  const r = c.last;
+  const notes = [...r.notes];
   const values: ComputeOutput["values"] = {
-    kappaXY: r.kappaXY[0]!,
-    kappaXYReduced: r.kappaXYReduced[0]!,
     gapAtK: r.gapAtK / kB,
     bandBottom: r.bandBottom / kB,
     bandTop: r.bandTop / kB,
     chernText: r.chern ? `C = (${r.chern[0]}, ${r.chern[1]}) for the (lower, upper) band` : r.status === "gapless" ? "undefined: the bands touch at K and K' (D = 0)" : "not resolved on the grid",
+    zoneGrid: c.grids.at(-1)!,
+    magnonDepletion: c.depletion[0]!,
   };
+  if (c.kappaXY[0] !== null) {
+    values.kappaXY = c.kappaXY[0]!;
+    values.kappaXYReduced = c.kappaXYReduced[0]!;
+    values.kappaXYReducedError = c.errorReduced[0]!;
+  } else if (r.status === "unresolved") {
+    notes.push(`kappa_xy is not given: the Berry curvature is not resolved on the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (gap too small), so the weighted zone sum cannot be trusted.`);
+  } else {
+    notes.push(`kappa_xy is not given: it did not converge to the relative tolerance ${rtol} by the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (last change ${c.errorReduced[0]!.toExponential(2)} in units of k_B^2 T / hbar); the integrand is concentrated near the band bottom at this temperature.`);
+  }
   if (r.chern) {
     values.chernLower = r.chern[0];
     values.chernUpper = r.chern[1];
   }
+  const width = (r.bandTop - r.bandBottom) / kB;
+  if (kB * v.T! > 0.1 * (r.bandTop - r.bandBottom)) {
+    notes.push(`k_B T = ${v.T!.toPrecision(3)} K is not small against the magnon band width ${width.toPrecision(3)} K: linear spin waves (non-interacting magnons) are not reliable here.`);
+  }
+  if (c.depletion[0]! > 0.1) notes.push(`The thermal magnon population reduces the ordered moment by ${(100 * c.depletion[0]!).toPrecision(3)} % (delta S / S in LSWT): the spin-wave description of the ordered state is failing.`);
+  notes.push(
+    "A single 2D layer: with isotropic exchange there is no long-range order at T > 0 (Mermin-Wagner); the ordered state assumed here is held by the magnon gap g muB B (or an anisotropy gap, or interlayer coupling in a crystal), and the magnon depletion grows like ln(k_B T / gap) as that gap closes.",
+  );
   if (options.sweep) {
     values.TSweep = Ts;
-    values.kappaXYSweep = r.kappaXY.slice(1);
-    values.kappaXYReducedSweep = r.kappaXYReduced.slice(1);
+    // unconverged points are left out (never guessed); TSweepConverged lists those that are given
+    const keep = Ts.map((_, i) => c.kappaXY[i + 1] !== null);
+    values.TSweepConverged = Ts.filter((_, i) => keep[i]);
+    values.kappaXYSweep = Ts.flatMap((_, i) => (keep[i] ? [c.kappaXY[i + 1]!] : []));
+    values.kappaXYReducedSweep = Ts.flatMap((_, i) => (keep[i] ? [c.kappaXYReduced[i + 1]!] : []));
+    const left = keep.filter((k) => !k).length;
+    if (left) notes.push(`${left} sweep temperatures did not converge to the tolerance by the ${c.grids.at(-1)} x ${c.grids.at(-1)} grid and are left out of the kappa sweep.`);
   }
-  return { values, status: r.status === "ok" ? "ok" : "warning", notes: r.notes };
+  const warn = c.kappaXY[0] === null || r.status !== "ok" || notes.some((t) => /not reliable|failing|left out/.test(t));
+  return { values, status: warn ? "warning" : "ok", notes };
 }
 
 export const magnonHallSpec: CalculatorSpec = {
@@ -273,15 +299,20 @@ export const magnonHallSpec: CalculatorSpec = {
     { name: "bandTop", symbol: "E_{max}/k_B", unit: "K", meaning: "highest magnon energy" },
     { name: "kappaXY", symbol: "\\kappa_{xy}^{2D}", unit: "W/K", meaning: "thermal Hall conductivity per layer at T" },
     { name: "kappaXYReduced", symbol: "\\kappa_{xy}^{2D} \\hbar / (k_B^2 T)", unit: "", meaning: "the same in units of k_B^2 T / hbar" },
+    { name: "kappaXYReducedError", symbol: "\\delta(\\kappa_{xy} \\hbar / k_B^2 T)", unit: "", meaning: "error estimate of the reduced value (change between the last two Richardson values)" },
+    { name: "zoneGrid", symbol: "n_k", unit: "", meaning: "finest zone grid used (points per direction)" },
+    { name: "magnonDepletion", symbol: "\\delta S / S", unit: "", meaning: "thermal reduction of the ordered moment in LSWT at T (small for the theory to hold)" },
     { name: "TSweep", symbol: "T", unit: "K", kind: "array", meaning: "temperatures of the sweep" },
+    { name: "TSweepConverged", symbol: "T", unit: "K", kind: "array", meaning: "sweep temperatures where kappa_xy converged" },
     { name: "kappaXYSweep", symbol: "\\kappa_{xy}(T)", unit: "W/K", kind: "array", meaning: "kappa_xy per layer over the sweep" },
     { name: "kappaXYReducedSweep", symbol: "\\kappa_{xy} \\hbar/(k_B^2 T)", unit: "", kind: "array", meaning: "reduced kappa_xy over the sweep" },
   ],
-  plots: [{ id: "kappa-vs-T", title: "Magnon thermal Hall conductivity per layer", x: "TSweep", y: ["kappaXYSweep"], xLog: true }],
-  sweep: { over: ["T"], points: 30 },
+  plots: [{ id: "kappa-vs-T", title: "Magnon thermal Hall conductivity per layer", x: "TSweepConverged", y: ["kappaXYSweep"], xLog: true }],
+  sweep: { over: ["T"], points: 16 },
   assumptions: [
     "Linear spin-wave theory about the fully polarized state (no magnon interactions); valid for k_B T well below the band width ~6 J S.",
-    "2D conductivity per layer in W/K (divide by the layer spacing for W/(K m)); g = 2; Berry curvature on a 40 x 40 zone grid.",
+    "2D conductivity per layer in W/K (divide by the layer spacing for W/(K m)); g = 2; zone grids 24, 48, 96, 192, 384 per direction, Richardson-extrapolated in pairs until two successive values agree to 1e-3 relative (not given otherwise).",
+    "Strictly 2D layer: long-range order at T > 0 only through a gap (field, anisotropy) or interlayer coupling (Mermin-Wagner).",
     "kappa_xy = -(k_B^2 T / hbar) sum_n int d^2k/(2pi)^2 c2(rho_n) Omega_n (Matsumoto-Murakami).",
   ],
   sources: [
@@ -290,7 +321,7 @@ export const magnonHallSpec: CalculatorSpec = {
     "S. K. Kim, H. Ochoa, R. Zarzuela, Y. Tserkovnyak, PRL 117, 227201 (2016)",
     "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)",
   ],
-  method: "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum",
+  method: "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum on doubling grids with Richardson extrapolation to a stated tolerance",
   compute: computeMagnonHall,
 };
 
