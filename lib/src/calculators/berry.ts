@@ -233,7 +233,7 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
   const p = { J: v.J! * kB, D: v.D! * kB, S, zeeman: (v.g ?? 2) * muB * v.B! };
   const Ts = options.sweep ? sweepValues(magnonHallSpec, options.sweep) : [];
   const rtol = 1e-3;
-  const c = honeycombMagnonHallConverged(p, [v.T!, ...Ts], { n0: 24, maxN: 384, rtol });
+  const c = honeycombMagnonHallConverged(p, [v.T!, ...Ts], { n0: 24, maxN: 192, rtol });
   const r = c.last;
   const notes = [...r.notes];
   const values: ComputeOutput["values"] = {
@@ -308,10 +308,10 @@ export const magnonHallSpec: CalculatorSpec = {
     { name: "kappaXYReducedSweep", symbol: "\\kappa_{xy} \\hbar/(k_B^2 T)", unit: "", kind: "array", meaning: "reduced kappa_xy over the sweep" },
   ],
   plots: [{ id: "kappa-vs-T", title: "Magnon thermal Hall conductivity per layer", x: "TSweepConverged", y: ["kappaXYSweep"], xLog: true }],
-  sweep: { over: ["T"], points: 16 },
+  sweep: { over: ["T"], points: 12 },
   assumptions: [
     "Linear spin-wave theory about the fully polarized state (no magnon interactions); valid for k_B T well below the band width ~6 J S.",
-    "2D conductivity per layer in W/K (divide by the layer spacing for W/(K m)); g = 2; zone grids 24, 48, 96, 192, 384 per direction, Richardson-extrapolated in pairs until two successive values agree to 1e-3 relative (not given otherwise).",
+    "2D conductivity per layer in W/K (divide by the layer spacing for W/(K m)); g = 2; zone grids 24, 48, 96, 192 per direction (the work bound), Richardson-extrapolated in pairs until two successive values agree to 1e-3 relative (not given otherwise).",
     "Strictly 2D layer: long-range order at T > 0 only through a gap (field, anisotropy) or interlayer coupling (Mermin-Wagner).",
     "kappa_xy = -(k_B^2 T / hbar) sum_n int d^2k/(2pi)^2 c2(rho_n) Omega_n (Matsumoto-Murakami).",
   ],
