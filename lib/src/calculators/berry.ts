@@ -135,12 +135,13 @@ export const berryLoopSpec: CalculatorSpec = {
 };
 
 // ---------------------------------------------------------------- chern (Haldane phase diagram)
+/** Largest grid the chern calculator refines to (the work bound). */
+const CHERN_MAX_GRID = 1024;
 function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
   const n = requireWholeAtLeast(v, "grid", 3, "grid points per reciprocal direction");
   const model = (M: number) => haldaneModel({ t1: 1, t2: v.t2!, phi: v.phi!, M });
-  const maxN = v.maxGrid === undefined ? 1024 : requireWholeAtLeast(v, "maxGrid", 3, "the largest grid the refinement may use");
-  if (maxN < n) throw new InputError("maxGrid", maxN, `a grid at least the starting grid (${n})`);
-  if (maxN > 4096) throw new InputError("maxGrid", maxN, "at most 4096 points per direction (the work bound)");
+  // work bound: grids up to 1024 x 1024 (about 1e6 two-band diagonalizations, a few seconds)
+  const maxN = CHERN_MAX_GRID;
   const r = chernNumbersRefined(model(v.M!), { n, maxN });
   const Mc = haldaneCriticalMass(v.t2!, v.phi!);
   const closed = (M: number) => (Math.abs(M) < Mc ? -Math.sign(v.t2! * Math.sin(v.phi!)) : 0) + 0;
@@ -153,7 +154,7 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
         ? `resolved on the ${r.n1} x ${r.n2} grid (grids tried: ${r.gridsTried.join(", ")})`
         : r.stop === "gapless"
           ? "not resolved: the gap closes on the grid (no Chern number at a gap closing)"
-          : `not resolved up to the ${maxN} x ${maxN} grid (the work bound maxGrid): the gap is too small`,
+          : `not resolved up to the ${maxN} x ${maxN} grid (the work bound): the gap is too small`,
     gridUsed: r.n1,
     gapK: 2 * Math.abs(v.M! - 3 * Math.sqrt(3) * v.t2! * Math.sin(v.phi!)),
     gapKprime: 2 * Math.abs(v.M! + 3 * Math.sqrt(3) * v.t2! * Math.sin(v.phi!)),
@@ -195,7 +196,6 @@ export const chernSpec: CalculatorSpec = {
     { name: "phi", symbol: "\\phi", unit: "rad", default: Math.PI / 2, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "phase of the NNN hopping (rad)" },
     { name: "M", symbol: "M", unit: "", default: 0.2, min: -1.5, max: 1.5, scale: "linear", meaning: "sublattice (Semenoff) mass (units of t1)" },
     { name: "grid", symbol: "n", unit: "", default: 30, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "first grid (points per reciprocal direction) for the Chern numbers at M; refined until resolved" },
-    { name: "maxGrid", symbol: "n_{max}", unit: "", default: 1024, min: 120, max: 4096, scale: "log", kind: "integer", meaning: "largest grid the refinement may use (work bound: ~n_max^2 diagonalizations)" },
     { name: "sweepGrid", symbol: "n_{sweep}", unit: "", default: 24, min: 12, max: 72, scale: "linear", kind: "integer", meaning: "grid points per direction for the phase diagram against M (refine to resolve points near the boundary)" },
   ],
   outputs: [
@@ -223,7 +223,7 @@ export const chernSpec: CalculatorSpec = {
     "Chern number in the (k1, k2) orientation of the right-handed basis a1 = (sqrt3/2, 3/2), a2 = (-sqrt3/2, 3/2); C = (1/2pi) int Omega with Omega = -2 Im <d1u|d2u>.",
   ],
   sources: ["F. D. M. Haldane, PRL 61, 2015 (1988)", "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)"],
-  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux below 1 rad, gap vs band change per step), the grid refined until they hold (up to maxGrid); two-band eigenvectors in closed form",
+  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux below 1 rad, gap vs band change per step), the grid refined until they hold (up to 1024 x 1024, the work bound); two-band eigenvectors in closed form",
   compute: computeChern,
 };
 
