@@ -80,7 +80,9 @@ export function c2Weight(x: number): number {
   const rho = q / oneMinusQ;
   const l1q = Math.log1p(-q); // ln(1 - q)
   // (1 + rho) x^2 - ln^2 rho = x^2 q / (1 - q) - 2 x ln(1 - q) - ln^2(1 - q)
-  return x * x * rho - 2 * x * l1q - l1q * l1q - 2 * dilogarithm(-rho);
+  // small rho: Li2(-rho) = -rho + rho^2/4 - rho^3/9 + O(rho^4) (relative error < 1e-16 of c2 for rho < 1e-4)
+  const li2 = rho < 1e-4 ? rho * (-1 + rho * (0.25 - rho / 9)) : dilogarithm(-rho);
+  return x * x * rho - 2 * x * l1q - l1q * l1q - 2 * li2;
 }
 
 export interface HoneycombMagnonResult {
