@@ -211,14 +211,17 @@ print(json.dumps([field(c["kind"], c["p"], c["x"]) for c in json.load(sys.stdin)
     { kind: "180", p: { x0: 4 * nm, Delta: 10 * nm, neel: 0.3, h: 5 * nm, t: 2 * nm, Ms: 8e5 } },
     { kind: "180", p: { x0: 4 * nm, Delta: 5 * nm, neel: -1, h: 60 * nm, t: 15 * nm, Ms: 8e5 } },
     { kind: "360", p: { x0: -3 * nm, R: 35 * nm, w: 8 * nm, neel: 1, h: 30 * nm, t: 2 * nm, Ms: 8e5 } },
+    // a sensor closer than the wall width over a 360-degree wall: the remaining box error is ~4e-6 here
+    { kind: "360", p: { x0: -3 * nm, R: 35 * nm, w: 8 * nm, neel: 0.5, h: 5 * nm, t: 2 * nm, Ms: 8e5 }, tol: 5e-6 },
   ];
   const ref = runPython<{ bz: number[]; bx: number[] }[]>(oracle, cases.map((c) => ({ ...c, x: xs })));
   for (const [k, c] of cases.entries()) {
-    it(`${c.kind}-degree wall, h = ${(c.p.h / nm).toFixed(0)} nm, t = ${(c.p.t / nm).toFixed(0)} nm, neel = ${c.p.neel}: B_z and B_x within 1e-6 of the peak`, () => {
+    const tol = "tol" in c ? (c.tol as number) : 1e-6;
+    it(`${c.kind}-degree wall, h = ${(c.p.h / nm).toFixed(0)} nm, t = ${(c.p.t / nm).toFixed(0)} nm, neel = ${c.p.neel}: B_z and B_x within ${tol} of the peak`, () => {
       const p = c.kind === "180" ? [c.p.x0, c.p.Delta!, c.p.neel, c.p.h, c.p.t, c.p.Ms, 0, 0] : [c.p.x0, c.p.R!, c.p.w!, c.p.neel, c.p.h, c.p.t, c.p.Ms, 0, 0];
       for (const comp of ["bz", "bx"] as const) {
         const r = ref[k]![comp];
-        expect(maxRel(ours(`wall${c.kind}-${comp}`, xs, p), r), comp).toBeLessThan(1e-6);
+        expect(maxRel(ours(`wall${c.kind}-${comp}`, xs, p), r), comp).toBeLessThan(tol);
       }
     });
   }
