@@ -409,6 +409,7 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   const fineRe = new Float64Array(UPSAMPLE * n), fineIm = new Float64Array(UPSAMPLE * n);
   const Wm = Array.from({ length: 4 }, () => new Float64Array(m));
   const [Zz, Zzh, Zzt, Zx, Zxh, Zxt] = Array.from({ length: 6 }, () => new Float64Array(m));
+  const [ZG, ZGh, ZGt, Fr, Fi, Fhr, Fhi, Ftr, Fti] = Array.from({ length: 9 }, () => new Float64Array(n));
 
   /** Fill the grid fields (and their shape derivatives when d is true). */
   function gridFields(p: Float64Array, d: boolean) {
@@ -578,7 +579,9 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     const cg = p[iNeel];
     const stepInFft = is180 && blur > 0;
     gridFields(p, jac !== null);
-    const zeroModes = blur === 0;
+    const zeroModes = true;
+    const blurred = blur > 0;
+    const zWhich = component === "bz" ? "z" : "x";
     if (zeroModes) removeZeroModes(jac !== null);
     kernels(p);
     fftPair(mzL, mx1, Ar, Ai, Br, Bi);
@@ -604,6 +607,20 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       }
       Or[j] = r;
       Oi[j] = i;
+    }
+    // Blurred: the closed-form field Q F of the net charge is added at the points unblurred, and its
+    // blur as the spectrum Q (G - 1) F: G - 1 ~ -k^2 s^2 / 2 removes the |k| kink of F at k = 0, so the
+    // periodic box errs only at third order there.
+    const Qeff = component === "bz" ? Qz : cg * Qx;
+    if (blurred) {
+      zeroModeField(gx, p, zWhich, ZG, jac ? ZGh : null, jac ? ZGt : null);
+      fftPair(ZG, jac ? ZGh : null, Fr, Fi, jac ? Fhr : null, jac ? Fhi : null);
+      if (jac) fftPair(ZGt, null, Ftr, Fti, null, null);
+      for (let j = 0; j < n; j++) {
+        const g1 = G[j] - 1;
+        Or[j] += Qeff * g1 * Fr[j]!;
+        Oi[j] += Qeff * g1 * Fi[j]!;
+      }
     }
     // base values
     spectrumToPoints(grid, Or, Oi, x, gridOut, null, UPSAMPLE, fineRe, fineIm);
@@ -710,10 +727,30 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         Rm[j] = Or[j] / Ms;
         Im[j] = Oi[j] / Ms;
         const f = -kk[j] * kk[j] * blur;
-        Rb[j] = f * Or[j];
-        Ib[j] = f * Oi[j];
+        // d/ds of Q (G - 1) F is f Q G F; f Or holds f Q (G - 1) F of it, so add f Q F
+        Rb[j] = f * Or[j] + (blurred ? f * Qeff * Fr[j]! : 0);
+        Ib[j] = f * Oi[j] + (blurred ? f * Qeff * Fi[j]! : 0);
       }
       cols.push(iMs, iBlur);
+    }
+    if (blurred) {
+      // the blurred net-charge field's derivatives: shape (dQ), neel (m_x charge), h and t
+      for (let j = 0; j < n; j++) {
+        const g1 = G[j] - 1;
+        for (let s2 = 0; s2 < nShape; s2++) {
+          const dq = component === "bz" ? dQz[s2]! : cg * dQx[s2]!;
+          colR[s2][j] += dq * g1 * Fr[j]!;
+          colI[s2][j] += dq * g1 * Fi[j]!;
+        }
+        if (component === "bx") {
+          colR[iNeel][j] += Qx * g1 * Fr[j]!;
+          colI[iNeel][j] += Qx * g1 * Fi[j]!;
+        }
+        colR[iH][j] += Qeff * g1 * Fhr[j]!;
+        colI[iH][j] += Qeff * g1 * Fhi[j]!;
+        colR[iT][j] += Qeff * g1 * Ftr[j]!;
+        colI[iT][j] += Qeff * g1 * Fti[j]!;
+      }
     }
     // invert two columns per complex transform (both spectra are Hermitian); each is scaled to
     // unit peak first, since columns differ by up to 1e16 (units) and the round-off of the larger

@@ -34,8 +34,10 @@
  * tails cancelled); (2) the kernel's |k| at k = 0 is not smooth, so a net charge in the periodic box
  * errs by ~Q h / L^2 (now the net charge is moved onto a Lorentzian pair whose field is closed form,
  * and the box is 4x wider); (3) cubic interpolation from a grid of width/3 (now band-limited 4x
- * upsampling first). With blur > 0 the net-charge correction is not applied (the blurred closed form
- * is not available): expect ~1e-5 to 1e-4 of the peak there.
+ * upsampling first). With blur > 0 the net charge's closed-form field is added unblurred at the points
+ * and its blur as the spectrum (G - 1) F (G - 1 vanishes like k^2 at k = 0, so the kink is gone there
+ * too); the three-term step reference of the 180-degree wall is blurred through the FFT, its 1/u
+ * field tail still cut by the box (checked only to 1e-3 of the peak with blur).
  *
  * Assumptions: continuum, magnetization uniform through the thickness, straight wall (1D), sensor
  * a point at height h (finite sensor size only through the Gaussian blur), T = 0.
