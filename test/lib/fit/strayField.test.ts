@@ -215,6 +215,27 @@ print(json.dumps([field(c["kind"], c["p"], c["x"]) for c in json.load(sys.stdin)
     { kind: "360", p: { x0: -3 * nm, R: 35 * nm, w: 8 * nm, neel: 0.5, h: 5 * nm, t: 2 * nm, Ms: 8e5 }, tol: 5e-6 },
   ];
   const ref = runPython<{ bz: number[]; bx: number[] }[]>(oracle, cases.map((c) => ({ ...c, x: xs })));
+  it("with a 15 nm Gaussian blur (360-degree wall, B_z and B_x): within 1e-6 of the peak of the blurred quadrature", () => {
+    // Common practice, no source: blur of the quadrature field by a trapezoid sum on a 2 nm grid (+-180 nm, i.e. beyond 6 s).
+    const s = 15 * nm;
+    const fine = Array.from({ length: 181 }, (_, i) => (-180 + 2 * i) * nm);
+    const c = cases[3]!;
+    const rf = runPython<{ bz: number[]; bx: number[] }[]>(oracle, [{ ...c, x: fine }])[0]!;
+    const targets = Array.from({ length: 9 }, (_, i) => (-60 + 15 * i) * nm);
+    const p = [c.p.x0, c.p.R!, c.p.w!, c.p.neel, c.p.h, c.p.t, c.p.Ms, s, 0];
+    for (const comp of ["bz", "bx"] as const) {
+      const blurred = targets.map((xt) => {
+        let num = 0, den = 0;
+        fine.forEach((xf, i) => {
+          const g = Math.exp(-0.5 * ((xf - xt) / s) ** 2);
+          num += g * rf[comp][i]!;
+          den += g;
+        });
+        return num / den;
+      });
+      expect(maxRel(ours(`wall360-${comp}`, targets, p), blurred), comp).toBeLessThan(1e-6);
+    }
+  });
   for (const [k, c] of cases.entries()) {
     const tol = "tol" in c ? (c.tol as number) : 1e-6;
     it(`${c.kind}-degree wall, h = ${(c.p.h / nm).toFixed(0)} nm, t = ${(c.p.t / nm).toFixed(0)} nm, neel = ${c.p.neel}: B_z and B_x within ${tol} of the peak`, () => {
