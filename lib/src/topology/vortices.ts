@@ -100,6 +100,8 @@ export interface VortexOptions {
   minInPlane?: number;
   /** Noise level of m: "auto" (default) estimates it (rule 4), a number gives it, 0 switches the scaling off. */
   noise?: "auto" | number;
+  /** Rule 5: both ends of an edge turning by more than this angle (rad) lose their direction (default 2 pi / 3; pi switches it off). */
+  zeroLineAngle?: number;
 }
 
 /**
@@ -161,6 +163,8 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   if (noiseOpt !== "auto" && !(typeof noiseOpt === "number" && noiseOpt >= 0 && Number.isFinite(noiseOpt))) throw new InputError("noise", options.noise, '"auto" or a noise level >= 0 of the components of m');
   requireAtLeast(field, 2, 2, "plaquette windings (one plaquette needs 2x2 cells)");
   requireSomeMatter(field, "vortex finding");
+  const zeroLineAngle = options.zeroLineAngle ?? (2 * Math.PI) / 3;
+  if (!(zeroLineAngle > 0 && zeroLineAngle <= Math.PI)) throw new InputError("zeroLineAngle", options.zeroLineAngle, "an angle in (0, pi] rad (pi switches the zero-line rule off)");
   const noiseLevel = noiseOpt === "auto" ? estimateNoiseLevel(field, k) : noiseOpt;
   const tol = Math.max(tol0, Math.min(MAX_NOISE_TOLERANCE, 4 * noiseLevel));
   const { nx, ny, m, vacuum } = field;
@@ -183,7 +187,7 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   // rule 5: both ends of an edge whose directions differ by more than 120 degrees lose their direction
   {
     const flip = new Uint8Array(n);
-    const cosMax = Math.cos((2 * Math.PI) / 3);
+    const cosMax = Math.cos(zeroLineAngle);
     const pairs: Array<[number, number]> = tri ? [[1, 0], [0, 1], [-1, 1]] : [[1, 0], [0, 1]];
     for (let j = 0; j < ny; j++) {
       for (let i = 0; i < nx; i++) {
