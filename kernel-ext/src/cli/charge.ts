@@ -161,7 +161,7 @@ function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "c
     closed: q.closed,
     continuumEstimate: continuum,
     objects,
-    vortices: { vortices: v.vortices, antivortices: v.antivortices, totalWinding: v.totalWinding },
+    vortices: { vortices: v.vortices, antivortices: v.antivortices, totalWinding: v.totalWinding, zeroLines: v.zeroLines, noiseLevel: v.noiseLevel, minInPlane: v.minInPlane },
     method: q.method,
   };
   if (field.nz > 1) {

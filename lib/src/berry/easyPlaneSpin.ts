@@ -83,57 +83,102 @@ export function easyPlaneMagnetization(S: number, D: number, b: number, T: numbe
 
 export interface RotorMagnetization {
   value: number;
-  /** Number of theta-series terms used. */
+  /** Number of series terms used. */
   terms: number;
+  /** Which of the two equal series was summed: the direct sum over m (beta D >= pi) or its Poisson dual (beta D < pi). */
+  series: "direct" | "dual";
 }
 
-/** Rotor (theta-function) form of <Sz> for the unrestricted model, integer (nu = 0) or half-integer. */
+/**
+ * beta D at which the two series are switched. The direct sum has terms exp(-beta D j^2) about its
+ * largest term, the dual one q^(k^2) with q = exp(-pi^2 / beta D); at beta D = pi both ratios are
+ * exp(-pi), and on each side the chosen one converges at least that fast. The dual form is never
+ * used at large beta D, where q -> 1 and theta (exponentially small between its peaks) is the
+ * difference of O(1) terms (the cancellation that ruins it in double precision).
+ */
+export const ROTOR_SERIES_SWITCH = Math.PI;
+
+/**
+ * Rotor form of <Sz> for the unrestricted model m in Z + nu, integer (nu = 0) or half-integer S.
+ * The theta-function identity (header) gives one value from two series; we sum the one that converges
+ * fast and without cancellation for this beta D, so the result is accurate to ~1e-15 (1 + |x|) for
+ * every beta D > 0.
+ */
 export function rotorMagnetization(D: number, b: number, T: number, halfInteger: boolean): RotorMagnetization {
   checkDT(D, T);
   const bD = D / (kB * T); // beta D
   const x = b / (2 * D);
-  const q = -Math.PI * Math.PI / bD; // ln q
+  if (bD >= ROTOR_SERIES_SWITCH) {
+    const r = rotorDirectSum(bD, x, halfInteger ? 0.5 : 0);
+    return { value: r.value, terms: r.terms, series: "direct" };
+  }
+  // Dual series: q = exp(-pi^2 / beta D) <= exp(-pi), theta >= 1 - 2 q / (1 - q) > 0.9, no cancellation.
+  const lnq = -Math.PI * Math.PI / bD;
   const z = Math.PI * x;
   let th = 1, dth = 0, k = 1;
-  for (; k < 100000; k++) {
-    const w = Math.exp(q * k * k);
-    if (w < 1e-18 * Math.abs(th) && k > 1) break;
+  for (; k < 1000; k++) {
+    const w = Math.exp(lnq * k * k);
+    if (k * w < 1e-19) break;
     const s = halfInteger && k % 2 === 1 ? -1 : 1;
     th += 2 * s * w * Math.cos(2 * k * z);
     dth += -4 * s * k * w * Math.sin(2 * k * z);
   }
-  return { value: x + (Math.PI / (2 * bD)) * (dth / th), terms: k };
+  return { value: x + (Math.PI / (2 * bD)) * (dth / th), terms: k, series: "dual" };
 }
 
-/** The unrestricted sum over m in Z + nu done directly (the rotor model without the dual form). */
+/**
+ * Direct sum over m in Z + nu of (m - x) exp(-beta D ((m - x)^2 - (m0 - x)^2)), outward from the
+ * term m0 nearest to x (weight 1); every weight is positive, so the denominator has no cancellation
+ * and the numerator's error is ~1e-16 of its largest term.
+ */
+function rotorDirectSum(bD: number, x: number, nu: number): { value: number; terms: number } {
+  const m0 = Math.round(x - nu) + nu;
+  const d0 = m0 - x;
+  let z = 1, zm = d0, j = 1;
+  for (; j < 1_000_000; j++) {
+    const dp = d0 + j, dm = d0 - j;
+    const wp = Math.exp(-bD * (dp * dp - d0 * d0));
+    const wm = Math.exp(-bD * (dm * dm - d0 * d0));
+    z += wp + wm;
+    zm += dp * wp + dm * wm;
+    if (j * (wp + wm) < 1e-19 * z && j > 1) break;
+  }
+  return { value: x + zm / z, terms: 2 * j + 1 };
+}
+
+/** The unrestricted sum over m in Z + nu done directly at every beta D (a check on the dual form). */
 export function rotorMagnetizationDirect(D: number, b: number, T: number, halfInteger: boolean): number {
   checkDT(D, T);
-  const beta = 1 / (kB * T);
-  const nu = halfInteger ? 0.5 : 0;
-  const x = b / (2 * D);
-  const m0 = Math.round(x - nu) + nu;
-  let z = 0, zm = 0;
-  for (let j = 0; j < 100000; j++) {
-    let any = false;
-    for (const m of j === 0 ? [m0] : [m0 + j, m0 - j]) {
-      const w = Math.exp(-beta * D * ((m - x) ** 2 - (m0 - x) ** 2));
-      z += w;
-      zm += m * w;
-      if (w > 1e-20) any = true;
-    }
-    if (!any && j > 2) break;
-  }
-  return zm / z;
+  return rotorDirectSum(D / (kB * T), b / (2 * D), halfInteger ? 0.5 : 0).value;
 }
 
-/** Weight of the levels beyond |m| = S relative to the ground level (0 means the rotor limit is exact). */
+/**
+ * Boltzmann weight of the levels beyond |m| = S in the unrestricted (rotor) model:
+ *   w = sum_{|m| > S} exp(-beta E_m) / sum_{m in Z + nu} exp(-beta E_m),  E_m = D m^2 - b m.
+ * This is the fraction of the rotor's partition function that the finite spin does not have (0 in the
+ * rotor limit, where the two forms of <Sz> agree). Both sums are done term by term (the tails outward
+ * from m = +-(S + 1)), so small weights keep their relative accuracy.
+ */
 export function rotorTruncation(S: number, D: number, b: number, T: number): number {
-  checkSpin(S);
+  const twoS = checkSpin(S);
   checkDT(D, T);
   const x = b / (2 * D);
-  const beta = 1 / (kB * T);
-  const m0 = Math.max(-S, Math.min(S, easyPlaneGroundM(S, D, b)));
-  const e = (m: number) => beta * D * ((m - x) ** 2 - (m0 - x) ** 2);
-  // nearest excluded levels S + 1 and -S - 1 dominate; the geometric tail is bounded by 2x them
-  return 2 * (Math.exp(-e(S + 1)) + Math.exp(-e(-S - 1)));
+  const bD = D / (kB * T);
+  // reference energy: the level of the rotor nearest x (the largest weight of the whole sum)
+  const nu = twoS % 2 === 1 ? 0.5 : 0;
+  const d0 = Math.round(x - nu) + nu - x;
+  const w = (m: number) => Math.exp(-bD * ((m - x) ** 2 - d0 * d0));
+  let inside = 0;
+  for (let i = 0; i <= twoS; i++) inside += w(S - i);
+  let outside = 0;
+  for (const dir of [1, -1]) {
+    for (let j = 1; j < 1_000_000; j++) {
+      const m = dir * (S + j);
+      const wm = w(m);
+      outside += wm;
+      // past the parabola's minimum the terms fall at least geometrically
+      if ((wm < 1e-20 * (inside + outside) || wm === 0) && dir * (m - x) > 0) break;
+    }
+  }
+  return outside / (inside + outside);
 }

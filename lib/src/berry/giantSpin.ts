@@ -1,6 +1,7 @@
 /**
  * A single large spin (molecular-magnet "giant spin") by exact diagonalization in the 2S+1 basis:
- *   H = -D_ax Sz^2 + E (Sx^2 - Sy^2) - g muB B . S     (D_ax > 0 easy axis z, E >= 0: x hard, y medium)
+ *   H = -D_ax Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B . S
+ *   (D_ax > 0 easy axis z, E >= 0: x hard, y medium; C the fourth-order transverse term, default 0)
  * Energies in J, B in T, basis m = S..-S (spinOperators.ts).
  *
  * Tunnel splitting of the ground doublet (m ~ +-S) with the field along the hard axis x:
@@ -24,6 +25,15 @@
  * Semiclassical quenching period along the hard axis (two interfering instanton paths):
  *   Delta B = (2 / (g muB)) sqrt(2 E (E + D_ax))   [= (2 k_B / g muB) sqrt(2 E (E + D)) with D, E in K].
  * Source: A. Garg, EPL 22, 205 (1993); observed by W. Wernsdorfer, R. Sessoli, Science 284, 133 (1999).
+ * For the quadratic Hamiltonian (C = 0) these zeros are not only semiclassical: they are exact, equally
+ * spaced with exactly Garg's period, for every S (E. Kececioglu, A. Garg, PRB 63, 064422 (2001)). The
+ * deviation of the computed period from Garg's is then rounding (~1e-13 and below), a check of the
+ * numerics, not physics. The C (S+^4 + S-^4) term keeps the P symmetry (it connects m to m +- 4 with
+ * the same elements for m and -m), so the zeros stay true crossings found by root finding, but their
+ * spacing is no longer Garg's (and no longer uniform in general).
+ * A field off the hard axis (azimuth phi in the hard xy plane, toward the medium axis y) breaks P: the
+ * zeros become minima of the splitting of finite depth, found here by minimization of the splitting
+ * by the (double-precision) Hermitian solver.
  */
 import { InputError } from "../errors.js";
 import { muB } from "../quantity/constants.js";
@@ -31,6 +41,7 @@ import { HermitianEigenSolver } from "../numeric/eigenHermitian.js";
 import { SymmetricBandEigenSolver, matrixBandwidth } from "../numeric/eigenSymmetricBand.js";
 import { rayleighQuotientDD, ddSub, ddToNumber, type DD } from "../numeric/doubleDouble.js";
 import { rootsOnGrid } from "../numeric/brentRoot.js";
+import { brentMinimize } from "../numeric/brentMinimize.js";
 import { checkSpin, raisingElement, spinMatrices } from "./spinOperators.js";
 
 export interface GiantSpinParams {
@@ -41,6 +52,8 @@ export interface GiantSpinParams {
   E: number;
   /** g factor (default 2). */
   g?: number;
+  /** Fourth-order transverse anisotropy C (J) of C (S+^4 + S-^4) (default 0). */
+  C?: number;
 }
 
 function check(p: GiantSpinParams): number {
@@ -49,6 +62,7 @@ function check(p: GiantSpinParams): number {
   if (!(p.E >= 0) || !Number.isFinite(p.E)) throw new InputError("E", p.E, "a rhombic anisotropy E >= 0 in J (x is the hard axis)");
   const g = p.g ?? 2;
   if (!(g > 0)) throw new InputError("g", g, "a positive g factor");
+  if (p.C !== undefined && !Number.isFinite(p.C)) throw new InputError("C", p.C, "a finite fourth-order anisotropy energy in J");
   return twoS + 1;
 }
 
@@ -69,6 +83,12 @@ export function giantSpinMatrix(p: GiantSpinParams, B: readonly [number, number,
       const v = (p.E / 2) * raisingElement(S, m - 1) * raisingElement(S, m - 2);
       re[i * dim + i + 2] = v;
       re[(i + 2) * dim + i] = v;
+    }
+    if (p.C && i + 4 < dim) {
+      // <m|S+^4|m-4> = prod_{j=1..4} <m-j+1|S+|m-j>
+      const v = p.C * raisingElement(S, m - 1) * raisingElement(S, m - 2) * raisingElement(S, m - 3) * raisingElement(S, m - 4);
+      re[i * dim + i + 4] = v;
+      re[(i + 4) * dim + i] = v;
     }
     if (i + 1 < dim) {
       re[i * dim + i + 1] = -z * B[0] * sxRe[i * dim + i + 1]!;
@@ -153,7 +173,7 @@ export function hardAxisTunnelSplitting(p: GiantSpinParams, Bx: number): TunnelS
   const e0 = Math.min(ls.value[0], la.value[0]);
   const e1 = Math.max(ls.value[0], la.value[0]);
   const next = Math.min(ls.next, la.next);
-  const norm = Math.abs(p.D) * p.S * p.S + Math.abs(p.E) * p.S * p.S + (p.g ?? 2) * muB * Math.abs(Bx) * p.S;
+  const norm = Math.abs(p.D) * p.S * p.S + Math.abs(p.E) * p.S * p.S + Math.abs(p.C ?? 0) * p.S ** 4 + (p.g ?? 2) * muB * Math.abs(Bx) * p.S;
   return {
     signed: signed + 0,
     splitting: Math.abs(signed),
@@ -194,7 +214,7 @@ export function tunnelSplittingAnyField(p: GiantSpinParams, B: readonly [number,
   const H = giantSpinMatrix(p, B);
   const s = new HermitianEigenSolver(H.dim);
   s.solve(H.re, H.im, false);
-  const norm = Math.abs(p.D) * p.S * p.S + Math.abs(p.E) * p.S * p.S + (p.g ?? 2) * muB * Math.hypot(...B) * p.S;
+  const norm = Math.abs(p.D) * p.S * p.S + Math.abs(p.E) * p.S * p.S + Math.abs(p.C ?? 0) * p.S ** 4 + (p.g ?? 2) * muB * Math.hypot(...B) * p.S;
   return { splitting: s.values[1]! - s.values[0]!, resolution: 1e-14 * norm };
 }
 
@@ -229,4 +249,40 @@ export function hardAxisQuenchingFields(p: GiantSpinParams, Bmax: number, points
   const spacings = zeros.slice(1).map((z, i) => z - zeros[i]!);
   const meanPeriod = spacings.length ? spacings.reduce((a, b) => a + b, 0) / spacings.length : NaN;
   return { zeros, spacings, meanPeriod, gargPeriod: garg, deviation: spacings.length ? meanPeriod / garg - 1 : NaN };
+}
+
+export interface SplittingMinima {
+  /** Fields (T) of the local minima of the ground splitting along the direction, ascending. */
+  fields: number[];
+  /** The splitting at each minimum (J). */
+  splittings: number[];
+  /** The double-precision resolution of the splitting there (J): a minimum below it is indistinguishable from 0. */
+  resolution: number[];
+}
+
+/**
+ * Local minima of the ground splitting E1 - E0 on (0, Bmax] for a field along the unit direction u
+ * (any direction; complex Hermitian solver in double precision): a grid of `points` fields, then
+ * Brent minimization in each bracketing cell. For a field off the hard axis these replace the zeros.
+ */
+export function splittingMinima(p: GiantSpinParams, Bmax: number, direction: readonly [number, number, number], points = 120): SplittingMinima {
+  check(p);
+  if (!(Bmax > 0)) throw new InputError("Bmax", Bmax, "a positive field in T");
+  const r = Math.hypot(...direction);
+  if (!(r > 0)) throw new InputError("direction", direction, "a non-zero field direction");
+  const u = direction.map((x) => x / r);
+  const at = (b: number) => tunnelSplittingAnyField(p, [b * u[0]!, b * u[1]!, b * u[2]!]);
+  const bs = Array.from({ length: points }, (_, i) => (Bmax * (i + 1)) / points);
+  const ls = bs.map((b) => Math.log(Math.max(at(b).splitting, 1e-300)));
+  const out: SplittingMinima = { fields: [], splittings: [], resolution: [] };
+  for (let i = 1; i + 1 < points; i++) {
+    if (ls[i]! <= ls[i - 1]! && ls[i]! < ls[i + 1]!) {
+      const m = brentMinimize((b) => Math.log(Math.max(at(b).splitting, 1e-300)), bs[i - 1]!, bs[i + 1]!, 1e-9 * Bmax);
+      const s = at(m.x);
+      out.fields.push(m.x);
+      out.splittings.push(s.splitting);
+      out.resolution.push(s.resolution);
+    }
+  }
+  return out;
 }

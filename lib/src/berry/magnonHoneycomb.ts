@@ -80,7 +80,9 @@ export function c2Weight(x: number): number {
   const rho = q / oneMinusQ;
   const l1q = Math.log1p(-q); // ln(1 - q)
   // (1 + rho) x^2 - ln^2 rho = x^2 q / (1 - q) - 2 x ln(1 - q) - ln^2(1 - q)
-  return x * x * rho - 2 * x * l1q - l1q * l1q - 2 * dilogarithm(-rho);
+  // small rho: Li2(-rho) = -rho + rho^2/4 - rho^3/9 + O(rho^4) (relative error < 1e-16 of c2 for rho < 1e-4)
+  const li2 = rho < 1e-4 ? rho * (-1 + rho * (0.25 - rho / 9)) : dilogarithm(-rho);
+  return x * x * rho - 2 * x * l1q - l1q * l1q - 2 * li2;
 }
 
 export interface HoneycombMagnonResult {
@@ -149,15 +151,113 @@ export function honeycombMagnonHall(p: HoneycombMagnonParams, temperatures: numb
     }
   }
   for (const T of temperatures) {
-    let sum = 0;
-    const kT = kB * T;
-    for (let q = 0; q < G.length; q++) {
-      const g = G[q]!;
-      if (g !== 0) sum += c2Weight(Math.max(E[q]!, 0) / kT) * g;
-    }
-    const red = -sum / (4 * Math.PI * Math.PI);
+    const red = kappaReducedOnGrid(G, E, T);
     kappaXYReduced.push(red + 0);
     kappaXY.push(((red * kB * kB * T) / hbar) + 0);
   }
-  return { chern, status, notes, temperatures: temperatures.slice(), kappaXY, kappaXYReduced, gapAtK, bandBottom: lo, bandTop: hi, chernResult: res };
+  const out: HoneycombMagnonResult = { chern, status, notes, temperatures: temperatures.slice(), kappaXY, kappaXYReduced, gapAtK, bandBottom: lo, bandTop: hi, chernResult: res };
+  gridWeights.set(out, G);
+  return out;
+}
+
+/** The corner-weighted fluxes G of each result (kept for evaluating further temperatures on the same grid). */
+const gridWeights = new WeakMap<HoneycombMagnonResult, Float64Array>();
+
+function kappaReducedOnGrid(G: Float64Array, E: Float64Array, T: number): number {
+  let sum = 0;
+  const kT = kB * T;
+  for (let q = 0; q < G.length; q++) {
+    const g = G[q]!;
+    if (g !== 0) sum += c2Weight(Math.max(E[q]!, 0) / kT) * g;
+  }
+  return -sum / (4 * Math.PI * Math.PI);
+}
+
+export interface ConvergedMagnonHall {
+  /** The last grid's result (Chern numbers, band range, status). */
+  last: HoneycombMagnonResult;
+  /** Richardson-extrapolated kappa_xy / (k_B^2 T / hbar) per temperature (null where not converged). */
+  kappaXYReduced: Array<number | null>;
+  /** kappa_xy per layer (W/K) per temperature (null where not converged). */
+  kappaXY: Array<number | null>;
+  /** Error estimate of each reduced value: the change of the extrapolation between the last two grid pairs. */
+  errorReduced: number[];
+  /** Whether each temperature met the tolerance. */
+  converged: boolean[];
+  /** Grids used, in order. */
+  grids: number[];
+  /** Thermal magnon depletion delta S / S = (1 / 2 N S) sum_k,n rho_n(k) per temperature, on the last grid (LSWT reliability). */
+  depletion: number[];
+}
+
+/**
+ * kappa_xy converged in the zone grid: n0, 2 n0, 4 n0, ... up to maxN (the work bound: the largest grid
+ * costs ~maxN^2 two-band diagonalizations and ~2 maxN^2 c2 evaluations per temperature). The grid sum
+ * (plaquette fluxes with corner-averaged c2) has an O(1/n^2) error, so each pair of grids (n, 2n) gives
+ * the Richardson value (4 k_2n - k_n) / 3; a temperature is converged when two successive Richardson
+ * values differ by at most rtol |value| + atol (atol in units of k_B^2 T / hbar). Low temperatures, whose
+ * integrand sits in a small pocket around the band bottom, need the finest grids. The Chern numbers
+ * come from the last grid (its link-variable checks must pass, else no kappa is given).
+ */
+export function honeycombMagnonHallConverged(
+  p: HoneycombMagnonParams,
+  temperatures: number[],
+  options: { n0?: number; maxN?: number; rtol?: number; atol?: number } = {},
+): ConvergedMagnonHall {
+  check(p);
+  const n0 = options.n0 ?? 40, maxN = options.maxN ?? 640, rtol = options.rtol ?? 1e-3, atol = options.atol ?? 1e-9;
+  if (!Number.isInteger(n0) || n0 < 6) throw new InputError("n0", n0, "a whole number of grid points >= 6");
+  if (!Number.isInteger(maxN) || maxN < 4 * n0 || maxN > 2048) throw new InputError("maxN", maxN, `a whole number from 4 n0 = ${4 * n0} to 2048 (the work bound)`);
+  if (!(rtol > 0) || !(atol >= 0)) throw new InputError("rtol, atol", [rtol, atol], "a positive relative and a non-negative absolute tolerance");
+  const nT = temperatures.length;
+  const grids: number[] = [];
+  const runs: HoneycombMagnonResult[] = [];
+  let prevR: number[] | null = null;
+  let R: number[] = [];
+  let err: number[] = new Array(nT).fill(Infinity);
+  let done = new Array<boolean>(nT).fill(false);
+  // values[g][i]: reduced kappa of temperature i on grid g (computed only while i is not converged)
+  const values: number[][] = [];
+  R = new Array(nT).fill(NaN);
+  prevR = new Array(nT).fill(NaN);
+  for (let n = n0; n <= maxN; n *= 2) {
+    const r = honeycombMagnonHall(p, [], n);
+    const G = gridWeights.get(r)!, E = r.chernResult.energies!;
+    grids.push(n);
+    runs.push(r);
+    const g = values.length;
+    values.push(temperatures.map((T, i) => (done[i] ? NaN : kappaReducedOnGrid(G, E, T))));
+    if (g >= 1) {
+      for (let i = 0; i < nT; i++) {
+        if (done[i]) continue;
+        const Ri = (4 * values[g]![i]! - values[g - 1]![i]!) / 3;
+        if (g >= 2) {
+          err[i] = Math.abs(Ri - R[i]!);
+          done[i] = err[i]! <= rtol * Math.abs(Ri) + atol;
+        }
+        R[i] = Ri;
+      }
+    }
+    if (done.every(Boolean) && r.status !== "unresolved") break;
+  }
+  void prevR;
+  const last = runs[runs.length - 1]!;
+  const resolved = last.status !== "unresolved";
+  // magnon depletion per site from the last grid's energies (two sites per cell)
+  const E = last.chernResult.energies!;
+  const depletion = temperatures.map((T) => {
+    let s = 0;
+    for (let q = 0; q < E.length; q++) s += 1 / Math.expm1(Math.max(E[q]!, 1e-300) / (kB * T));
+    return s / E.length / p.S;
+  });
+  const ok = done.map((d) => d && resolved);
+  return {
+    last,
+    kappaXYReduced: R.map((x, i) => (ok[i] ? x + 0 : null)),
+    kappaXY: R.map((x, i) => (ok[i] ? (x * kB * kB * temperatures[i]!) / hbar + 0 : null)),
+    errorReduced: err,
+    converged: ok,
+    grids,
+    depletion,
+  };
 }

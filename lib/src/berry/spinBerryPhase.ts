@@ -13,8 +13,25 @@
  * adiabatic transport, with gamma = i oint <u | grad u> . dn = -Im ln prod <u_i|u_i+1>. For a spin
  * whose state m is along n and a loop counterclockwise about +z (seen from outside) gamma = -m Omega:
  * negative for m > 0. gamma is defined modulo 2 pi; both methods are reported in (-pi, pi].
- * For m = +-S the discrete product equals -m Omega of the geodesic polygon exactly (Bargmann
- * invariant); for |m| < S it converges to -m Omega with errors O(1/N^2) in the number of edges N.
+ * Discrete phase, exactly (derived here). Between neighbouring vertices n_i, n_i+1 (arc alpha_i of
+ * the great circle, unit normal e_i = n_i x n_i+1 / |...|) write |m; n_i+1> = exp(-i alpha_i S.e_i)
+ * |m; n_i> up to a phase: rotating about e_i carries n_i to n_i+1 and is parallel transport along
+ * the geodesic edge. With that transported frame the overlap is <m; n_i| exp(-i alpha_i S.e_i)
+ * |m; n_i> = d^S_mm(alpha_i), the diagonal Wigner small-d element (e_i is perpendicular to n_i, so
+ * the matrix element is that of exp(-i alpha S_y) in n_i's frame: real). Around the closed polygon
+ * the transported frame comes back turned by the enclosed solid angle Omega (the holonomy of
+ * parallel transport on the unit sphere), which multiplies the state by exp(i m Omega). Hence
+ *   prod_i <u_i|u_i+1> = exp(i m Omega) prod_i d^S_mm(alpha_i),
+ *   gamma_discrete = -m Omega + pi [prod_i d^S_mm(alpha_i) < 0]   (mod 2 pi)
+ * for every N: the discrete phase equals -m Omega of the geodesic polygon exactly, or is off by
+ * exactly pi when the product of the diagonal small-d elements is negative. For m = +-S,
+ * d^S_SS(alpha) = cos^(2S)(alpha / 2) > 0 (alpha < pi): always exact (the Bargmann invariant). For
+ * |m| < S, d^S_mm(alpha) has zeros at finite alpha: edges longer than its first zero flip signs.
+ * Nothing here converges as O(1/N^2); only the polygon's Omega differs from an inscribed circle's
+ * cap by O(1/N^2). `edgeSign` is that product's sign (computed from the d^S_mm(alpha_i), not from
+ * the overlaps), `minEdgeFactor` its smallest |d^S_mm(alpha_i)| (near 0 the phase is ill-defined).
+ * Sources for the pieces: D. M. Brink, G. R. Satchler, Angular Momentum (Oxford, 1968), ch. 2
+ * (rotation matrices); the holonomy of a geodesic polygon (Gauss-Bonnet).
  */
 import { InputError } from "../errors.js";
 import { checkSpin, spinBasis } from "./spinOperators.js";
@@ -35,6 +52,10 @@ export interface SpinBerryPhaseResult {
   overlapMagnitude: number;
   /** Wrapped difference discrete - geometric. */
   difference: number;
+  /** Sign of prod_i d^S_mm(alpha_i) over the edges (arcs alpha_i): +1 the discrete phase is -m Omega exactly, -1 it is off by pi. */
+  edgeSign: 1 | -1;
+  /** Smallest |d^S_mm(alpha_i)| over the edges (0 would leave the discrete phase undefined); for short edges its lower bound 1 - alpha^2 (S(S+1) - m^2) / 4. */
+  minEdgeFactor: number;
   edges: number;
   method: string;
   sources: string[];
@@ -173,6 +194,32 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     curRe = tr;
     curIm = ti;
   }
+  // sign of prod d^S_mm(alpha_i), alpha_i the arcs of the geodesic edges (see header)
+  let edgeSign: 1 | -1 = 1;
+  let minEdgeFactor = Infinity;
+  {
+    const dd = new Float64Array(dim);
+    const col = Math.round(S - m);
+    let lastAlpha = NaN, lastF = NaN;
+    for (let i = 0; i < n; i++) {
+      const j = (i + 1) % n;
+      const ax = v[3 * i]!, ay = v[3 * i + 1]!, az = v[3 * i + 2]!;
+      const bx = v[3 * j]!, by = v[3 * j + 1]!, bz = v[3 * j + 2]!;
+      const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
+      const alpha = Math.atan2(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz);
+      // short edges: d^S_mm(alpha) >= 1 - alpha^2 <Sy^2> / 2 = 1 - alpha^2 (S(S+1) - m^2) / 4 (cos x >= 1 - x^2/2
+      // on the spectral decomposition of Sy), so it is positive and the bound serves as its size
+      const bound = 1 - (alpha * alpha * (S * (S + 1) - m * m)) / 4;
+      if (bound > 0.5) lastF = bound;
+      else if (alpha !== lastAlpha) {
+        wignerSmallDColumn(S, m, alpha, dd);
+        lastAlpha = alpha;
+        lastF = dd[col]!;
+      }
+      if (lastF < 0) edgeSign = edgeSign === 1 ? -1 : 1;
+      minEdgeFactor = Math.min(minEdgeFactor, Math.abs(lastF));
+    }
+  }
   const geometric = wrapBerryPhase(-m * omega);
   logMag += Math.log(magProd);
   const discrete = wrapBerryPhase(-Math.atan2(zi, zr));
@@ -184,6 +231,8 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     discrete,
     overlapMagnitude: Math.exp(logMag),
     difference: wrapBerryPhase(discrete - geometric),
+    edgeSign,
+    minEdgeFactor,
     edges: n,
     method: "geometric -m Omega (Van Oosterom-Strackee fan) and discrete product of overlaps of rotated spin-S states",
     sources: [

@@ -46,13 +46,18 @@ function computeWall(v: InputValues): ComputeOutput {
   const widths = wallWidths(f);
   const eq = equilibriumWall(f, "full-kernel");
   const type = wallType(f, "full-kernel");
-  const regime = filmRegime(f);
+  // one threshold for both texts: the full thin-film kernel's (the thin-film limit is an output for reference)
+  const regime = filmRegime(f, { neelThreshold: type.wall.neelThreshold, neelThresholdModel: "full kernel" });
   const spiral = spiralState(f);
   const profile = wallProfile(widths.Delta, eq.helicity, 161, 5);
   const notes: string[] = [];
   const energy = chiralWallEnergy(f);
   if (energy <= 0) notes.push("|D| >= D_c: the wall energy is negative and a chiral spiral is the ground state; the isolated wall is not stable.");
-  if (!regime.thinFilm) notes.push("t is not below Delta: the thin-film results are rough estimates.");
+  if (!regime.thinFilm) {
+    notes.push(
+      `t is not below Delta: the thin-film results are rough estimates (magnetization taken uniform through the thickness; a twist of the wall across the thickness is not modelled). The verdict uses the full-kernel Neel threshold D_N = ${(type.wall.neelThreshold * 1e3).toPrecision(3)} mJ/m^2; the thin-film limit ${(neelThresholdDmi(f) * 1e3).toPrecision(3)} mJ/m^2 (output neelThreshold) overestimates it here.`,
+    );
+  }
   const values: ComputeOutput["values"] = {
     width: widths.Delta,
     energy,
@@ -94,8 +99,8 @@ const wallSpec: CalculatorSpec = {
     { name: "lilleyWidth", symbol: "\\pi\\Delta", unit: "m", meaning: "Lilley width pi Delta (tangent of theta at the centre)" },
     { name: "mzSlopeWidth", symbol: "2\\Delta", unit: "m", meaning: "slope width of m_z, 2 Delta" },
     { name: "inPlaneFwhm", symbol: "w_{FWHM}", unit: "m", meaning: "full width at half maximum of the in-plane component, 2 arccosh(2) Delta" },
-    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "DMI above which walls are Neel, thin-film limit 2 ln2 mu0 Ms^2 t / pi^2" },
-    { name: "neelThresholdFullKernel", symbol: "D_N'", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta)" },
+    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "thin-film limit 2 ln2 mu0 Ms^2 t / pi^2 of the Neel threshold (for reference; the verdict uses neelThresholdFullKernel)" },
+    { name: "neelThresholdFullKernel", symbol: "D_N'", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta): the one wallType and regime use" },
     { name: "wallType", symbol: "", unit: "", kind: "text", meaning: "Bloch, intermediate or Neel, in words" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "in-plane angle of the wall moment from the direction toward the up domain" },
     { name: "energyWithVolumeCharges", symbol: "\\sigma'", unit: "J/m^2", meaning: "equilibrium wall energy including the Neel volume-charge cost (full kernel)" },

@@ -11,7 +11,7 @@ import type { FitParameter } from "./leastSquares.js";
 import { InputError } from "../errors.js";
 import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from "./wallProfiles.js";
 import { erfc as erfcLocal } from "./distributions.js";
-import { gridFor, interpolateGrid, blurOnGrid, type UniformGrid } from "./strayField.js";
+import { gridFor, interpolateGrid, blurOnGrid, spectrumToPoints, type UniformGrid } from "./strayField.js";
 import { fft, ifft } from "../numeric/fft.js";
 import { mu0 } from "../quantity/constants.js";
 
@@ -267,6 +267,18 @@ function bindGrid(x: Float64Array, lengths: number[], padLengths: number[]): Uni
 
 type Kind = "180" | "360";
 
+/**
+ * Weights c_i of the reference steps -(2/pi) atan(u / i), i = 1, 2, 3 (u = (x - x0) / Delta), removed from
+ * the 180-degree wall before the FFT: sum c_i = 1 (the unit step), sum c_i i = sum c_i i^3 = 0, so the
+ * remainder -tanh(u) + (2/pi) sum c_i atan(u / i) has no u^-1 and no u^-3 tail (it falls as u^-5). A
+ * single atan reference leaves a -2 / (pi u) tail, which the periodic FFT box cuts off with a jump at its
+ * edge: that jump's field was the 1e-4 error of the model against a real-space quadrature.
+ */
+const REF_C = [2.5, -2, 0.5];
+
+/** Band-limited upsampling of the FFT fields before the cubic interpolation to the data points. */
+const UPSAMPLE = 4;
+
 function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
   const shape = kind === "180" ? [P.x0(), P.Delta()] : [P.x0(), P.R(), P.w()];
   const params = [...shape, P.neel(), P.h(), P.t(), P.Ms(), P.blur(true), P.offset("T")];
@@ -284,8 +296,10 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
       const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];
       const blur0 = start[ix("blur")];
       const h0 = start[ix("h")];
-      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [50 * (h0 + start[ix("t")]), 20 * Math.max(...widths), 6 * blur0, kind === "360" ? 4 * start[ix("R")] : 0]);
-      return strayBound(kind, component, grid, x, ix);
+      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 : widths[0], blur0 > 0 ? blur0 : Infinity], [200 * (h0 + start[ix("t")]), 80 * Math.max(...widths), 6 * blur0, kind === "360" ? 60 * start[ix("R")] : 0]);
+      // zero-mode reference: centred at the start position, 2 start widths wide (its spectrum e^{-|k| a}
+      // must vanish well before the grid's Nyquist wavenumber 3 pi / width)
+      return strayBound(kind, component, grid, x, ix, start[0]!, 2 * Math.min(...widths.filter((v) => v > 0)));
     },
   };
 }
@@ -302,9 +316,56 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
  * fields share one complex FFT (forward and inverse). Checked against central differences in
  * test/lib/fit/strayFieldJacobian.test.ts.
  */
-function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Float64Array, ix: (name: string) => number): BoundModel {
+function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Float64Array, ix: (name: string) => number, refCenter: number, refWidth: number): BoundModel {
   const n = grid.n;
   const m = x.length;
+  // Zero-mode reference ell = 2 P_a - P_2a (P_a the Lorentzian (a/pi)/(u^2 + a^2)), normalized to unit
+  // grid sum; its u^-2 tails cancel (u^-4 left). The net charges Qz = sum m_z,local dx and
+  // Qx = sum m_x dx are carried by Q ell and their fields added in closed form at the data points
+  // (Poisson semigroup: P_a seen from height H is a line seen from H + a). Reason: the kernel's |k| at
+  // k = 0 is not smooth, so a periodic box with a net charge errs by ~Q h / L^2 (1e-4 of the peak for
+  // the Neel wall's m_x and the 360-degree wall's m_z); without net charge the box error vanishes.
+  const ell = new Float64Array(n);
+  {
+    const a = refWidth;
+    let sum = 0;
+    for (let g = 0; g < n; g++) {
+      const u = grid.x0 + g * grid.dx - refCenter;
+      ell[g] = (2 * a) / (Math.PI * (u * u + a * a)) - (2 * a) / (Math.PI * (u * u + 4 * a * a));
+      sum += ell[g]! * grid.dx;
+    }
+    for (let g = 0; g < n; g++) ell[g] = ell[g]! / sum;
+  }
+  /**
+   * Field component per unit net charge of m_z (kind "z") or m_x ("x") spread as ell, at points xs, and
+   * its derivatives in h and t; scaled by mu0 Ms / (2 pi).
+   */
+  function zeroModeField(xs: ArrayLike<number>, p: Float64Array, which: "z" | "x", val: Float64Array, dh: Float64Array | null, dt: Float64Array | null) {
+    const h = p[iH], t = p[iT], c = (mu0 * p[iMs]) / (2 * Math.PI);
+    // P(u, H) = H / (u^2 + H^2), Qk(u, H) = u / (u^2 + H^2) and their H-derivatives
+    const P = (u: number, H: number) => H / (u * u + H * H);
+    const Qk = (u: number, H: number) => u / (u * u + H * H);
+    const dP = (u: number, H: number) => (u * u - H * H) / (u * u + H * H) ** 2;
+    const dQ = (u: number, H: number) => (-2 * u * H) / (u * u + H * H) ** 2;
+    // kz1 = P(H1) - P(H2), kz2 = Qk(H1) - Qk(H2), H1 = h + b, H2 = h + t + b, for b = a (weight 2) and 2a (weight -1)
+    // bz: from m_z +kz1, from m_x +kz2; bx: from m_z +kz2, from m_x -kz1
+    const useP = (component === "bz") === (which === "z");
+    const sgn = component === "bx" && which === "x" ? -1 : 1;
+    const F = useP ? P : Qk, dF = useP ? dP : dQ;
+    for (let i = 0; i < xs.length; i++) {
+      const u = xs[i]! - refCenter;
+      let v = 0, vh = 0, vt = 0;
+      for (const [w, b] of [[2, refWidth], [-1, 2 * refWidth]] as const) {
+        const H1 = h + b, H2 = h + t + b;
+        v += w * (F(u, H1) - F(u, H2));
+        vh += w * (dF(u, H1) - dF(u, H2));
+        vt += w * -dF(u, H2);
+      }
+      val[i] = sgn * c * v;
+      if (dh) dh[i] = sgn * c * vh;
+      if (dt) dt[i] = sgn * c * vt;
+    }
+  }
   const is180 = kind === "180";
   const nShape = is180 ? 2 : 3; // x0 + (Delta | R, w)
   const iNeel = ix("neel");
@@ -344,7 +405,11 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   const scratch = new Float64Array(m);
   // scratch grid (W) and data-point (Wm) arrays, allocated once per bind
   const W = Array.from({ length: 14 }, () => new Float64Array(n));
-  const Wm = Array.from({ length: 3 }, () => new Float64Array(m));
+  const WD = new Float64Array(n), SDr = new Float64Array(n), SDi = new Float64Array(n);
+  const fineRe = new Float64Array(UPSAMPLE * n), fineIm = new Float64Array(UPSAMPLE * n);
+  const Wm = Array.from({ length: 4 }, () => new Float64Array(m));
+  const [Zz, Zzh, Zzt, Zx, Zxh, Zxt] = Array.from({ length: 6 }, () => new Float64Array(m));
+  const [ZG, ZGh, ZGt, Fr, Fi, Fhr, Fhi, Ftr, Fti] = Array.from({ length: 9 }, () => new Float64Array(n));
 
   /** Fill the grid fields (and their shape derivatives when d is true). */
   function gridFields(p: Float64Array, d: boolean) {
@@ -355,11 +420,18 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         const u = (gx[g] - x0) / Delta;
         const th = Math.tanh(u);
         const sech = 1 / Math.cosh(u);
-        mzL[g] = -th + (2 / Math.PI) * Math.atan(u);
+        // remove the reference sum_i c_i (-(2/pi) atan(u / i)) (see REF_C): the remainder decays as u^-5
+        let ref = 0, dref = 0;
+        for (let r = 0; r < REF_C.length; r++) {
+          const a = r + 1;
+          ref += REF_C[r]! * Math.atan(u / a);
+          dref += (REF_C[r]! * a) / (a * a + u * u);
+        }
+        mzL[g] = -th + (2 / Math.PI) * ref;
         mx1[g] = -sech;
         if (d) {
           // d/du of mzL and mx1, then du/dx0 = -1/Delta, du/dDelta = -u/Delta
-          const dzu = -sech * sech + 2 / (Math.PI * (1 + u * u));
+          const dzu = -sech * sech + (2 / Math.PI) * dref;
           const dxu = sech * th;
           dmz[0][g] = -dzu / Delta;
           dmx1[0][g] = -dxu / Delta;
@@ -383,6 +455,35 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
           dmx1[1][g] = f * q.dR;
           dmx1[2][g] = f * q.dw;
         }
+      }
+    }
+  }
+
+  /** Net charges of the grid fields (and of their shape derivatives), moved onto ell (blur 0 only). */
+  const dQz = new Float64Array(3), dQx = new Float64Array(3);
+  let Qz = 0, Qx = 0;
+  function removeZeroModes(d: boolean) {
+    const sumOf = (f: Float64Array) => {
+      let v = 0;
+      for (let g = 0; g < n; g++) v += f[g]!;
+      return v * grid.dx;
+    };
+    const take = (f: Float64Array, q: number) => {
+      for (let g = 0; g < n; g++) f[g] = f[g]! - q * ell[g]!;
+    };
+    // Only the charge whose kernel has the |k| kink needs it: m_z for B_z (kernel K), m_x for B_x
+    // (kernel -K); the cross terms carry -i sgn(k) K ~ -i k t, smooth at k = 0.
+    const bz = component === "bz";
+    Qz = bz ? sumOf(mzL) : 0;
+    Qx = bz ? 0 : sumOf(mx1);
+    if (bz) take(mzL, Qz);
+    else take(mx1, Qx);
+    if (d) {
+      for (let s2 = 0; s2 < nShape; s2++) {
+        dQz[s2] = bz ? sumOf(dmz[s2]!) : 0;
+        dQx[s2] = bz ? 0 : sumOf(dmx1[s2]!);
+        if (bz) take(dmz[s2]!, dQz[s2]!);
+        else take(dmx1[s2]!, dQx[s2]!);
       }
     }
   }
@@ -421,30 +522,48 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     }
   }
 
-  /** Closed-form step field component and its derivatives (u, H, t) on the grid or at points. */
-  function stepValues(xs: ArrayLike<number>, p: Float64Array, val: Float64Array, du: Float64Array | null, dH: Float64Array | null, dt: Float64Array | null) {
+  /**
+   * Closed-form field of the reference magnetization sum_i c_i (-(2/pi) atan((x - x0) / (i Delta))) and
+   * its derivatives (u, h, t, Delta) on the grid or at points: each term is the ideal step seen from
+   * h + i Delta (Poisson semigroup, strayField.ts).
+   */
+  function stepValues(xs: ArrayLike<number>, p: Float64Array, val: Float64Array, du: Float64Array | null, dH: Float64Array | null, dt: Float64Array | null, dD: Float64Array | null = null) {
     const x0 = p[0];
-    const H = p[iH] + p[1];
     const t = p[iT];
     const Ms = p[iMs];
-    const Ht = H + t;
     for (let i = 0; i < xs.length; i++) {
       const u = xs[i] - x0;
-      const a2 = Ht * Ht + u * u;
-      const b2 = H * H + u * u;
-      if (component === "bz") {
-        const c = (mu0 * Ms) / Math.PI;
-        val[i] = c * (Math.atan(u / Ht) - Math.atan(u / H));
-        if (du) du[i] = c * (Ht / a2 - H / b2);
-        if (dH) dH[i] = c * (-u / a2 + u / b2);
-        if (dt) dt[i] = c * (-u / a2);
-      } else {
-        const c = (mu0 * Ms) / (2 * Math.PI);
-        val[i] = c * Math.log(a2 / b2);
-        if (du) du[i] = c * (2 * u / a2 - 2 * u / b2);
-        if (dH) dH[i] = c * (2 * Ht / a2 - 2 * H / b2);
-        if (dt) dt[i] = c * (2 * Ht / a2);
+      let v = 0, vu = 0, vH = 0, vt = 0, vD = 0;
+      for (let r = 0; r < REF_C.length; r++) {
+        const cr = REF_C[r]!;
+        const H = p[iH] + (r + 1) * p[1];
+        const Ht = H + t;
+        const a2 = Ht * Ht + u * u;
+        const b2 = H * H + u * u;
+        let fv: number, fu: number, fH: number, ft: number;
+        if (component === "bz") {
+          fv = Math.atan(u / Ht) - Math.atan(u / H);
+          fu = Ht / a2 - H / b2;
+          fH = -u / a2 + u / b2;
+          ft = -u / a2;
+        } else {
+          fv = Math.log(a2 / b2);
+          fu = 2 * u / a2 - 2 * u / b2;
+          fH = 2 * Ht / a2 - 2 * H / b2;
+          ft = 2 * Ht / a2;
+        }
+        v += cr * fv;
+        vu += cr * fu;
+        vH += cr * fH;
+        vt += cr * ft;
+        vD += cr * (r + 1) * fH;
       }
+      const c = component === "bz" ? (mu0 * Ms) / Math.PI : (mu0 * Ms) / (2 * Math.PI);
+      val[i] = c * v;
+      if (du) du[i] = c * vu;
+      if (dH) dH[i] = c * vH;
+      if (dt) dt[i] = c * vt;
+      if (dD) dD[i] = c * vD;
     }
   }
 
@@ -460,10 +579,14 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     const cg = p[iNeel];
     const stepInFft = is180 && blur > 0;
     gridFields(p, jac !== null);
+    const zeroModes = true;
+    const blurred = blur > 0;
+    const zWhich = component === "bz" ? "z" : "x";
+    if (zeroModes) removeZeroModes(jac !== null);
     kernels(p);
     fftPair(mzL, mx1, Ar, Ai, Br, Bi);
     if (stepInFft) {
-      stepValues(gx, p, W[0], jac ? W[1] : null, jac ? W[2] : null, jac ? W[3] : null);
+      stepValues(gx, p, W[0], jac ? W[1] : null, jac ? W[2] : null, jac ? W[3] : null, jac ? WD : null);
       fftPair(W[0], null, Sr, Si, null, null);
     }
     // base output spectrum O = C (K L + G S), L = A - i sg cg B
@@ -485,14 +608,30 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       Or[j] = r;
       Oi[j] = i;
     }
+    // Blurred: the closed-form field Q F of the net charge is added at the points unblurred, and its
+    // blur as the spectrum Q (G - 1) F: G - 1 ~ -k^2 s^2 / 2 removes the |k| kink of F at k = 0, so the
+    // periodic box errs only at third order there.
+    const Qeff = component === "bz" ? Qz : cg * Qx;
+    if (blurred) {
+      zeroModeField(gx, p, zWhich, ZG, jac ? ZGh : null, jac ? ZGt : null);
+      fftPair(ZG, jac ? ZGh : null, Fr, Fi, jac ? Fhr : null, jac ? Fhi : null);
+      if (jac) fftPair(ZGt, null, Ftr, Fti, null, null);
+      for (let j = 0; j < n; j++) {
+        const g1 = G[j] - 1;
+        Or[j] += Qeff * g1 * Fr[j]!;
+        Oi[j] += Qeff * g1 * Fi[j]!;
+      }
+    }
     // base values
-    re.set(Or);
-    im.set(Oi);
-    ifft(re, im);
-    interpolateGrid(grid, re, x, gridOut);
+    spectrumToPoints(grid, Or, Oi, x, gridOut, null, UPSAMPLE, fineRe, fineIm);
     const off = p[iOff];
     if (is180 && !stepInFft) stepValues(x, p, stepAt, null, null, null);
     for (let i = 0; i < m; i++) out[i] = gridOut[i] + off + (is180 && !stepInFft ? stepAt[i] : 0);
+    if (zeroModes) {
+      zeroModeField(x, p, "z", Zz, jac ? Zzh : null, jac ? Zzt : null);
+      zeroModeField(x, p, "x", Zx, jac ? Zxh : null, jac ? Zxt : null);
+      for (let i = 0; i < m; i++) out[i] += Qz * Zz[i]! + cg * Qx * Zx[i]!;
+    }
     if (!jac) return;
 
     // ---- Jacobian columns (spectra) ----
@@ -525,12 +664,12 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     if (stepInFft) {
       [SdR, SdI, SHr, SHi, Str, Sti] = [W[8], W[9], W[10], W[11], W[12], W[13]];
       fftPair(W[1], W[2], SdR, SdI, SHr, SHi);
-      fftPair(W[3], null, Str, Sti, null, null);
+      fftPair(W[3], WD, Str, Sti, SDr, SDi);
       for (let j = 0; j < n; j++) {
         colR[0][j] -= G[j] * SdR[j];
         colI[0][j] -= G[j] * SdI[j];
-        colR[1][j] += G[j] * SHr[j];
-        colI[1][j] += G[j] * SHi[j];
+        colR[1][j] += G[j] * SDr[j];
+        colI[1][j] += G[j] * SDi[j];
       }
     }
     // neel: C K (-i sg B)
@@ -588,10 +727,30 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         Rm[j] = Or[j] / Ms;
         Im[j] = Oi[j] / Ms;
         const f = -kk[j] * kk[j] * blur;
-        Rb[j] = f * Or[j];
-        Ib[j] = f * Oi[j];
+        // d/ds of Q (G - 1) F is f Q G F; f Or holds f Q (G - 1) F of it, so add f Q F
+        Rb[j] = f * Or[j] + (blurred ? f * Qeff * Fr[j]! : 0);
+        Ib[j] = f * Oi[j] + (blurred ? f * Qeff * Fi[j]! : 0);
       }
       cols.push(iMs, iBlur);
+    }
+    if (blurred) {
+      // the blurred net-charge field's derivatives: shape (dQ), neel (m_x charge), h and t
+      for (let j = 0; j < n; j++) {
+        const g1 = G[j] - 1;
+        for (let s2 = 0; s2 < nShape; s2++) {
+          const dq = component === "bz" ? dQz[s2]! : cg * dQx[s2]!;
+          colR[s2][j] += dq * g1 * Fr[j]!;
+          colI[s2][j] += dq * g1 * Fi[j]!;
+        }
+        if (component === "bx") {
+          colR[iNeel][j] += Qx * g1 * Fr[j]!;
+          colI[iNeel][j] += Qx * g1 * Fi[j]!;
+        }
+        colR[iH][j] += Qeff * g1 * Fhr[j]!;
+        colI[iH][j] += Qeff * g1 * Fhi[j]!;
+        colR[iT][j] += Qeff * g1 * Ftr[j]!;
+        colI[iT][j] += Qeff * g1 * Fti[j]!;
+      }
     }
     // invert two columns per complex transform (both spectra are Hermitian); each is scaled to
     // unit peak first, since columns differ by up to 1e16 (units) and the round-off of the larger
@@ -613,24 +772,34 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         re[j] = colR[a][j] * ia - (b >= 0 ? colI[b][j] * ib : 0);
         im[j] = colI[a][j] * ia + (b >= 0 ? colR[b][j] * ib : 0);
       }
-      ifft(re, im);
-      for (let j = 0; j < n; j++) {
-        re[j] *= pa;
-        im[j] *= pb;
-      }
-      interpolateGrid(grid, re, x, jac.subarray(a * m, a * m + m));
-      if (b >= 0) interpolateGrid(grid, im, x, jac.subarray(b * m, b * m + m));
+      const ja = jac.subarray(a * m, a * m + m);
+      const jb = b >= 0 ? jac.subarray(b * m, b * m + m) : null;
+      spectrumToPoints(grid, re, im, x, ja, jb, UPSAMPLE, fineRe, fineIm);
+      for (let i = 0; i < m; i++) ja[i] *= pa;
+      if (jb) for (let i = 0; i < m; i++) jb[i] *= pb;
     }
     // closed-form step at the data points (unblurred 180 wall)
     if (is180 && !stepInFft) {
-      const [du, dH, dt] = [Wm[0], Wm[1], Wm[2]];
-      stepValues(x, p, stepAt, du, dH, dt);
+      const [du, dH, dt, dD] = [Wm[0], Wm[1], Wm[2], Wm[3]];
+      stepValues(x, p, stepAt, du, dH, dt, dD);
       for (let i = 0; i < m; i++) {
         jac[i] -= du[i];
-        jac[m + i] += dH[i];
+        jac[m + i] += dD[i];
         jac[iH * m + i] += dH[i];
         jac[iT * m + i] += dt[i];
         jac[iMs * m + i] += stepAt[i] / p[iMs];
+      }
+    }
+    if (zeroModes) {
+      for (let s2 = 0; s2 < nShape; s2++) {
+        const col = jac.subarray(s2 * m, s2 * m + m);
+        for (let i = 0; i < m; i++) col[i] += dQz[s2]! * Zz[i]! + cg * dQx[s2]! * Zx[i]!;
+      }
+      for (let i = 0; i < m; i++) {
+        jac[iNeel * m + i] += Qx * Zx[i]!;
+        jac[iH * m + i] += Qz * Zzh[i]! + cg * Qx * Zxh[i]!;
+        jac[iT * m + i] += Qz * Zzt[i]! + cg * Qx * Zxt[i]!;
+        jac[iMs * m + i] += (Qz * Zz[i]! + cg * Qx * Zx[i]!) / p[iMs];
       }
     }
     jac.fill(1, iOff * m, iOff * m + m);

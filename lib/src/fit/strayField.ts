@@ -27,6 +27,18 @@
  * point-spread of standard deviation s). Checked against a direct real-space sum of 2D dipole
  * fields in test/lib/fit/strayField.test.ts.
  *
+ * Accuracy (the bound models of profileModels.ts, against a scipy real-space quadrature in
+ * test/lib/fit/strayField.test.ts): about 1e-7 to 1e-6 of the peak field without blur. Three error
+ * sources were found and removed: (1) a single atan reference for the 180-degree wall leaves a
+ * -2 / (pi u) tail that the periodic box cuts with a jump (now three references with u^-1 and u^-3
+ * tails cancelled); (2) the kernel's |k| at k = 0 is not smooth, so a net charge in the periodic box
+ * errs by ~Q h / L^2 (now the net charge is moved onto a Lorentzian pair whose field is closed form,
+ * and the box is 4x wider); (3) cubic interpolation from a grid of width/3 (now band-limited 4x
+ * upsampling first). With blur > 0 the net charge's closed-form field is added unblurred at the points
+ * and its blur as the spectrum (G - 1) F (G - 1 vanishes like k^2 at k = 0, so the kink is gone there
+ * too); the three-term step reference of the 180-degree wall is blurred through the FFT. Measured with a
+ * 15 nm blur against the quadrature blurred numerically: 3e-8 to 3e-7 of the peak (180 and 360).
+ *
  * Assumptions: continuum, magnetization uniform through the thickness, straight wall (1D), sensor
  * a point at height h (finite sensor size only through the Gaussian blur), T = 0.
  */
@@ -158,6 +170,51 @@ export function strayFieldOnGrid(input: StrayFieldInput): { bz: Float64Array; bx
   }
   ifft(ore, oim);
   return { bz: ore, bx: oim };
+}
+
+/**
+ * Values at positions x of the two real signals a + i b whose DFT (length n, packed) is (specRe, specIm):
+ * band-limited (trigonometric) upsampling by `up` through a zero-padded inverse FFT of length up n, then
+ * Catmull-Rom on the fine grid. For fields whose spectra decay fast this removes the cubic-interpolation
+ * error (O((dx / up)^3) instead of O(dx^3)). fineRe and fineIm are work arrays of length up n.
+ */
+export function spectrumToPoints(
+  grid: UniformGrid,
+  specRe: Float64Array,
+  specIm: Float64Array,
+  x: ArrayLike<number>,
+  outA: Float64Array,
+  outB: Float64Array | null,
+  up: number,
+  fineRe: Float64Array,
+  fineIm: Float64Array,
+): void {
+  const n = grid.n;
+  const N = up * n;
+  fineRe.fill(0);
+  fineIm.fill(0);
+  const half = n >> 1;
+  for (let j = 0; j < half; j++) {
+    fineRe[j] = specRe[j]!;
+    fineIm[j] = specIm[j]!;
+  }
+  for (let j = half + 1; j < n; j++) {
+    fineRe[N - (n - j)] = specRe[j]!;
+    fineIm[N - (n - j)] = specIm[j]!;
+  }
+  // the Nyquist bin is shared between +n/2 and -n/2 (keeps real signals real)
+  fineRe[half] = 0.5 * specRe[half]!;
+  fineIm[half] = 0.5 * specIm[half]!;
+  fineRe[N - half] = 0.5 * specRe[half]!;
+  fineIm[N - half] = 0.5 * specIm[half]!;
+  ifft(fineRe, fineIm);
+  for (let i = 0; i < N; i++) {
+    fineRe[i] = fineRe[i]! * up;
+    fineIm[i] = fineIm[i]! * up;
+  }
+  const fine: UniformGrid = { x0: grid.x0, dx: grid.dx / up, n: N };
+  interpolateGrid(fine, fineRe, x, outA);
+  if (outB) interpolateGrid(fine, fineIm, x, outB);
 }
 
 /** Gaussian blur of a real grid signal (periodic; pad the grid beyond the data). */

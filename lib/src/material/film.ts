@@ -295,7 +295,7 @@ export interface FilmRegime {
 }
 
 /** Perpendicular or in-plane, walls stable or spiral ground state, Bloch or Neel walls, in words. */
-export function filmRegime(f: Film): FilmRegime {
+export function filmRegime(f: Film, options: { neelThreshold?: number; neelThresholdModel?: string } = {}): FilmRegime {
   const Keff = effectiveAnisotropy(f);
   const anisotropy = Keff > 0 ? "perpendicular" : Keff < 0 ? "in-plane" : "isotropic";
   const Dc = (4 * Math.sqrt(f.A * Math.abs(Keff))) / Math.PI;
@@ -310,7 +310,9 @@ export function filmRegime(f: Film): FilmRegime {
     thinFilm = f.t < Delta;
     parts.push(`Perpendicular film (K_eff = ${Keff.toPrecision(3)} J/m^3 > 0, quality factor ${qualityFactor(f).toPrecision(3)}).`);
     if (groundState === "uniform") {
-      const DN = neelThresholdDmi(f);
+      // the caller may pass the threshold of its own (full-kernel) wall model, so that one film gets one verdict
+      const DN = options.neelThreshold ?? neelThresholdDmi(f);
+      const DNname = options.neelThresholdModel ? `D_N (${options.neelThresholdModel})` : "D_N";
       wallCharacter = absD === 0 ? "Bloch" : absD >= DN ? "Neel" : "intermediate";
       parts.push(
         `|D| = ${(absD * 1e3).toPrecision(3)} mJ/m^2 is below D_c = ${(Dc * 1e3).toPrecision(3)} mJ/m^2: uniform domains with walls of positive energy are stable.`,
@@ -318,10 +320,10 @@ export function filmRegime(f: Film): FilmRegime {
       if (f.dmi === "interfacial") {
         parts.push(
           wallCharacter === "Neel"
-            ? `|D| >= D_N = ${(DN * 1e3).toPrecision(3)} mJ/m^2: walls are chiral Neel walls.`
+            ? `|D| >= ${DNname} = ${(DN * 1e3).toPrecision(3)} mJ/m^2: walls are chiral Neel walls.`
             : wallCharacter === "Bloch"
               ? "No DMI: walls are Bloch walls of either chirality."
-              : `|D| < D_N = ${(DN * 1e3).toPrecision(3)} mJ/m^2: walls are intermediate between Bloch and Neel (cos psi = D / D_N).`,
+              : `|D| < ${DNname} = ${(DN * 1e3).toPrecision(3)} mJ/m^2: walls are intermediate between Bloch and Neel (cos psi = D / D_N).`,
         );
       } else {
         wallCharacter = "Bloch";

@@ -386,5 +386,17 @@ export function loopWinding(
   }
   let gamma = Math.atan2(s, c);
   if (gamma <= -Math.PI + 1e-12) gamma = Math.PI;
+  // one helicity describes the object only if Phi - v phi is nearly constant on the circle: the
+  // weighted mean resultant length (1 for a rotationally symmetric object) must be high
+  let wsum = 0;
+  for (let k = 0; k < N; k++) wsum += weight[k]!;
+  const coherence = Math.hypot(c, s) / wsum;
+  if (coherence < 0.9) {
+    return {
+      vorticity: v === 0 ? 0 : v,
+      helicity: null,
+      note: `one helicity does not describe this object: Phi - v phi varies along the measuring circle (mean resultant length ${coherence.toFixed(2)} < 0.9), e.g. several cores or a distorted object; see the vortex cores (findVortices) inside it`,
+    };
+  }
   return { vorticity: v === 0 ? 0 : v, helicity: gamma };
 }

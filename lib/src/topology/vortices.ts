@@ -29,6 +29,24 @@
  *      torus add up to 0); with a periodic single-object texture that balance sits in the
  *      background tails, where |m_xy| is negligible, and is reported there rather than as vortices.
  *
+ * 4. Noise. With `noise: "auto"` (default) the level sigma of uncorrelated noise on m is estimated
+ *    robustly from the second differences of m_x and m_y along x and y (median |m(i+1) - 2 m(i) + m(i-1)| /
+ *    (0.6745 sqrt 6), sqrt 6 being the standard deviation of a second difference of white noise; a
+ *    smooth texture resolved by several cells contributes little, and the median ignores walls), and
+ *    the in-plane tolerance becomes max(minInPlane, 4 sigma), capped at 0.5. Noise of 0.1 on a
+ *    saturated film then leaves the random in-plane directions of the background without direction
+ *    (rule 1) instead of reporting thousands of vortices. Pass a number to give sigma yourself, 0 to
+ *    switch this off.
+ * 5. Zero lines of m_xy. Where m_xy passes through zero along a line (the middle ring of a
+ *    skyrmionium, a 360-degree wall seen in-plane) neighbouring sites point in nearly opposite in-plane
+ *    directions, and the wrap of that edge (about pi) decides plaquette windings at random. Both ends
+ *    of every edge whose in-plane directions differ by more than 120 degrees lose their direction, so a
+ *    zero line becomes a connected set of sites without direction. A set that is a line or a ring (it
+ *    encloses sites with direction, or its extent squared is at least 4 times its size and it spans 4
+ *    or more cells) is not a core: like the background its plaquettes are skipped, its border winding
+ *    is booked with the background, and it is counted in `zeroLines`. A point zero (a vortex core
+ *    between sites) stays a compact set and counts once (rule 3).
+ *
  * Edge differences are taken once per undirected edge (wrapped into [-pi, pi) in the direction of
  * increasing site index, negated for the other direction), so loop sums cancel exactly.
  */
@@ -67,8 +85,12 @@ export interface VortexResult {
   backgroundRegions: number;
   /** Plaquettes not counted because they touch a background region (vacuum, or no in-plane direction). */
   skipped: number;
-  /** The tolerance used: sites with |m_xy| < minInPlane |m| have no in-plane direction. */
+  /** The tolerance used: sites with |m_xy| < minInPlane |m| have no in-plane direction (after the noise scaling of rule 4). */
   minInPlane: number;
+  /** The noise level sigma of m used (estimated, given, or 0). */
+  noiseLevel: number;
+  /** Sets of sites without direction that form lines or rings (zero lines of m_xy, rule 5): not cores, not counted as vortices. */
+  zeroLines: number;
 }
 
 export interface VortexOptions {
@@ -76,7 +98,41 @@ export interface VortexOptions {
   layer?: number;
   /** Sites with |m_xy| < minInPlane |m| have no in-plane direction (default 1e-3; 0 keeps every non-zero m_xy). */
   minInPlane?: number;
+  /** Noise level of m: "auto" (default) estimates it (rule 4), a number gives it, 0 switches the scaling off. */
+  noise?: "auto" | number;
+  /** Rule 5: both ends of an edge turning by more than this angle (rad) lose their direction (default 2 pi / 3; pi switches it off). */
+  zeroLineAngle?: number;
 }
+
+/**
+ * Robust estimate of the standard deviation of uncorrelated noise on the in-plane components of m, from
+ * the median absolute second difference of m_x and m_y along x and y (matter sites only):
+ * sigma = median / (0.6745 sqrt 6). (m_z is left out: near +-z its noise is of second order.)
+ */
+export function estimateNoiseLevel(field: VectorField, layer = 0): number {
+  const { nx, ny, m, vacuum } = field;
+  const base = layer * nx * ny;
+  const d = new Float64Array(4 * nx * ny);
+  let nd = 0;
+  const isVac = (c: number) => vacuum !== null && vacuum[base + c] !== 0;
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const c = j * nx + i;
+      if (isVac(c)) continue;
+      for (const [a, b] of [[i > 0 && i + 1 < nx ? c - 1 : -1, i > 0 && i + 1 < nx ? c + 1 : -1], [j > 0 && j + 1 < ny ? c - nx : -1, j > 0 && j + 1 < ny ? c + nx : -1]] as const) {
+        if (a < 0 || b < 0 || isVac(a) || isVac(b)) continue;
+        for (let q = 0; q < 2; q++) d[nd++] = Math.abs(m[3 * (base + a) + q]! - 2 * m[3 * (base + c) + q]! + m[3 * (base + b) + q]!);
+      }
+    }
+  }
+  if (nd === 0) return 0;
+  const used = d.subarray(0, nd).sort();
+  const med = used[Math.floor(nd / 2)]!;
+  return med / (0.6745 * Math.sqrt(6));
+}
+
+/** Largest in-plane tolerance the noise scaling may set. */
+const MAX_NOISE_TOLERANCE = 0.5;
 
 /** Default relative in-plane tolerance of findVortices. */
 export const DEFAULT_MIN_IN_PLANE = 1e-3;
@@ -101,10 +157,16 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   const { wrapX, wrapY } = wrapFlags(options.boundary);
   const k = options.layer ?? 0;
   if (!Number.isInteger(k) || k < 0 || k >= field.nz) throw new InputError("layer", options.layer, `a whole number from 0 to ${field.nz - 1}`);
-  const tol = options.minInPlane ?? DEFAULT_MIN_IN_PLANE;
-  if (!(tol >= 0 && tol < 1)) throw new InputError("minInPlane", options.minInPlane, "a tolerance |m_xy| / |m| from 0 up to (not including) 1");
+  const tol0 = options.minInPlane ?? DEFAULT_MIN_IN_PLANE;
+  if (!(tol0 >= 0 && tol0 < 1)) throw new InputError("minInPlane", options.minInPlane, "a tolerance |m_xy| / |m| from 0 up to (not including) 1");
+  const noiseOpt = options.noise ?? "auto";
+  if (noiseOpt !== "auto" && !(typeof noiseOpt === "number" && noiseOpt >= 0 && Number.isFinite(noiseOpt))) throw new InputError("noise", options.noise, '"auto" or a noise level >= 0 of the components of m');
   requireAtLeast(field, 2, 2, "plaquette windings (one plaquette needs 2x2 cells)");
   requireSomeMatter(field, "vortex finding");
+  const zeroLineAngle = options.zeroLineAngle ?? (2 * Math.PI) / 3;
+  if (!(zeroLineAngle > 0 && zeroLineAngle <= Math.PI)) throw new InputError("zeroLineAngle", options.zeroLineAngle, "an angle in (0, pi] rad (pi switches the zero-line rule off)");
+  const noiseLevel = noiseOpt === "auto" ? estimateNoiseLevel(field, k) : noiseOpt;
+  const tol = Math.max(tol0, Math.min(MAX_NOISE_TOLERANCE, 4 * noiseLevel));
   const { nx, ny, m, vacuum } = field;
   const tri = field.lattice === "triangular";
   const base = k * nx * ny;
@@ -121,6 +183,27 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
       phi[c] = Math.atan2(y, x);
       ok[c] = 1;
     }
+  }
+  // rule 5: both ends of an edge whose directions differ by more than 120 degrees lose their direction
+  {
+    const flip = new Uint8Array(n);
+    const cosMax = Math.cos(zeroLineAngle);
+    const pairs: Array<[number, number]> = tri ? [[1, 0], [0, 1], [-1, 1]] : [[1, 0], [0, 1]];
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        const c = j * nx + i;
+        if (ok[c] !== 1) continue;
+        for (const [di, dj] of pairs) {
+          let ii = i + di, jj = j + dj;
+          if (ii < 0 || ii >= nx) { if (!wrapX) continue; ii = (ii + nx) % nx; }
+          if (jj >= ny) { if (!wrapY) continue; jj -= ny; }
+          const t = jj * nx + ii;
+          if (ok[t] !== 1) continue;
+          if (Math.cos(phi[t]! - phi[c]!) < cosMax) flip[c] = flip[t] = 1;
+        }
+      }
+    }
+    for (let c = 0; c < n; c++) if (flip[c]) ok[c] = 0;
   }
   const edge = (u: number, v: number): number => (u < v ? wrapAngle(phi[v]! - phi[u]!) : -wrapAngle(phi[u]! - phi[v]!));
 
@@ -218,12 +301,47 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
     return { sum, closed };
   };
 
-  let skipped = 0, backgroundRegions = 0, background = 0, backgroundClosed = wrapX && wrapY;
+  // rule 5: is a set a line or a ring (not a point)?
+  const isLine = (set: SiteSet): boolean => {
+    let i0 = Infinity, i1 = -Infinity, j0 = Infinity, j1 = -Infinity;
+    for (const c of set.sites) {
+      i0 = Math.min(i0, ui[c]!); i1 = Math.max(i1, ui[c]!);
+      j0 = Math.min(j0, uj[c]!); j1 = Math.max(j1, uj[c]!);
+    }
+    const extent = Math.max(i1 - i0 + 1, j1 - j0 + 1);
+    if (extent >= 4 && extent * extent >= 4 * set.sites.length) return true;
+    // a hole: cells of the box (one cell margin) not in the set and not reachable from its border
+    const bw = i1 - i0 + 3, bh = j1 - j0 + 3;
+    if (bw * bh > 4_000_000) return false;
+    const mark = new Uint8Array(bw * bh);
+    for (const c of set.sites) mark[(uj[c]! - j0 + 1) * bw + (ui[c]! - i0 + 1)] = 1;
+    const stack: number[] = [0];
+    mark[0] = 2;
+    let reached = 1;
+    while (stack.length) {
+      const q = stack.pop()!;
+      const qi = q % bw, qj = (q - qi) / bw;
+      for (const [di, dj] of [[1, 0], [-1, 0], [0, 1], [0, -1]] as const) {
+        const a = qi + di, b = qj + dj;
+        if (a < 0 || b < 0 || a >= bw || b >= bh) continue;
+        const r = b * bw + a;
+        if (mark[r] !== 0) continue;
+        mark[r] = 2;
+        reached++;
+        stack.push(r);
+      }
+    }
+    return reached + set.sites.length < bw * bh;
+  };
+
+  let skipped = 0, backgroundRegions = 0, background = 0, backgroundClosed = wrapX && wrapY, zeroLines = 0;
   for (const set of sets) {
     const { sum, closed } = borderSum(set.plaquettes);
     const enclosed = !set.reachesEdge && !set.wraps && !set.hasVacuum;
-    if (!enclosed || !closed) {
-      backgroundRegions++;
+    const line = enclosed && closed && isLine(set);
+    if (line) zeroLines++;
+    if (!enclosed || !closed || line) {
+      if (!line) backgroundRegions++;
       skipped += set.plaquettes.length;
       if (closed) background += Math.round(sum / TWO_PI);
       else backgroundClosed = false;
@@ -248,6 +366,6 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   return {
     sites, vortices, antivortices, totalWinding: total,
     backgroundWinding: backgroundClosed ? background + 0 : null,
-    backgroundRegions, skipped, minInPlane: tol,
+    backgroundRegions, skipped, minInPlane: tol, noiseLevel, zeroLines,
   };
 }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { chernNumbers, chernStrip, combineChernStrips } from "../../../lib/src/berry/chernNumbers.js";
+import { chernNumbers, chernNumbersRefined, chernStrip, combineChernStrips } from "../../../lib/src/berry/chernNumbers.js";
+import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
 import { blochModelFromFunction } from "../../../lib/src/berry/blochModelFromFunction.js";
 import { haldaneModel, haldaneSpec, supercellModel, haldaneCriticalMass, tightBindingModel } from "../../../lib/src/berry/blochModel.js";
 import { solidAngle } from "../../../lib/src/topology/solidAngle.js";
@@ -215,5 +216,73 @@ print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
     expect(() => combineChernStrips(sc, opts, [parts[0]!, parts[2]!])).toThrow(/row 0 missing/);
     expect(() => chernStrip(sc, opts, 5, 5)).toThrow(InputError);
     expect(() => chernStrip(sc, opts, 0, 25)).toThrow(/rowFrom, rowTo/);
+  });
+});
+
+describe("Chern numbers on a grid refined until the link-variable conditions hold", () => {
+  // Source: F. D. M. Haldane, PRL 61, 2015 (1988) (C = -sgn(t2 sin phi) for |M| < 3 sqrt3 |t2 sin phi|, 0
+  // outside, with the H(k) of blochModel.ts); oracle: an independent numpy implementation of the
+  // Fukui-Hatsugai-Suzuki link variables (J. Phys. Soc. Jpn. 74, 1674 (2005)) on a fixed fine grid.
+  const cases: [number, number, number, number][] = [[0.1, 0, 0.1, 120], [0.1, Math.PI / 2, 0.51, 600]];
+  const ref = runPython<[number, number, number][]>(`
+import json, sys
+import numpy as np
+def chern(t2, phi, M, n):
+    # honeycomb, NN distance 1; a1, a2 lattice vectors; b1, b2 reciprocal (a_i . b_j = 2 pi delta_ij)
+    a1 = np.array([np.sqrt(3) / 2, 1.5]); a2 = np.array([-np.sqrt(3) / 2, 1.5])
+    d = [np.array([0, 1.0]), np.array([np.sqrt(3) / 2, -0.5]), np.array([-np.sqrt(3) / 2, -0.5])]
+    nnn = [a1, -a2, a2 - a1]  # NNN vectors, 120 degrees apart
+    A = np.array([a1, a2]); B = 2 * np.pi * np.linalg.inv(A).T
+    s = np.arange(n) / n
+    k1, k2 = np.meshgrid(s, s, indexing="ij")
+    K = k1[..., None] * B[0] + k2[..., None] * B[1]
+    dx = sum(np.cos(K @ v) for v in d); dy = sum(np.sin(K @ v) for v in d)
+    dz = M - 2 * t2 * np.sin(phi) * sum(np.sin(K @ v) for v in nnn)
+    H = np.zeros(K.shape[:2] + (2, 2), complex)
+    H[..., 0, 0] = dz; H[..., 1, 1] = -dz; H[..., 0, 1] = dx + 1j * dy; H[..., 1, 0] = dx - 1j * dy
+    H += (-2 * t2 * np.cos(phi) * sum(np.cos(K @ v) for v in nnn))[..., None, None] * np.eye(2)
+    w, V = np.linalg.eigh(H)
+    u = V[..., :, 0]
+    # the Bloch basis with orbital positions is periodic in k only up to a diagonal phase; this periodic-gauge
+    # form (no positions) has H(k + b) = H(k), and the Chern number does not depend on the choice
+    U1 = np.sum(u.conj() * np.roll(u, -1, 0), -1); U2 = np.sum(u.conj() * np.roll(u, -1, 1), -1)
+    U1 /= abs(U1); U2 /= abs(U2)
+    F = -np.angle(U1 * np.roll(U2, -1, 0) * np.conj(np.roll(U1, -1, 1)) * np.conj(U2))
+    return float(F.sum() / (2 * np.pi)), float(abs(F).max()), float((w[..., 1] - w[..., 0]).min())
+print(json.dumps([chern(*c) for c in json.load(sys.stdin)]))
+`, cases);
+
+  it("phi = 0, M = 0.1 gives C = 0 and the gap-0.019 point C = -1 (no longer declined), as numpy says", () => {
+    // numpy's own integers on its fine grids
+    expect(Math.round(ref[0]![0]) + 0).toBe(0);
+    expect(Math.round(ref[1]![0])).toBe(-1);
+    expect(ref[1]![2]).toBeCloseTo(0.0192, 4);
+    const triv = chernNumbersRefined(haldaneModel({ t2: 0.1, phi: 0, M: 0.1 }), { n: 30 });
+    expect(triv.status).toBe("ok");
+    expect(triv.chern[0]).toBe(Math.round(ref[0]![0]) + 0);
+    const small = chernNumbersRefined(haldaneModel({ t2: 0.1, phi: Math.PI / 2, M: 0.51 }), { n: 120, maxN: 1024 });
+    expect(small.status).toBe("ok");
+    expect(small.stop).toBe("resolved");
+    expect(small.chern[0]).toBe(Math.round(ref[1]![0]));
+    expect(small.gridsTried[0]).toBe(120);
+    expect(small.n1).toBeGreaterThan(120);
+    expect(Math.max(...small.maxFlux)).toBeLessThan(1);
+    // the calculator on the same points answers
+    const c0 = runCalculator(getCalculator("chern"), { phi: 0, M: 0.1 });
+    expect(c0.outputs.chernLower!.value).toBe(0);
+    const c1 = runCalculator(getCalculator("chern"), { M: 0.51, grid: 120 });
+    expect(c1.outputs.chernLower!.value).toBe(-1);
+    expect(c1.outputs.gridUsed!.value as number).toBe(small.n1);
+  });
+
+  it("work bound: a gap below what maxN resolves is reported unresolved, never guessed; a closed gap stops at once", () => {
+    const r = chernNumbersRefined(haldaneModel({ t2: 0.1, phi: Math.PI / 2, M: 0.5196 }), { n: 30, maxN: 90 });
+    expect(r.status).toBe("unresolved");
+    expect(r.stop).toBe("work-bound");
+    expect(r.gridsTried.at(-1)).toBe(90);
+    const closed = chernNumbersRefined(haldaneModel({ t2: 0.1, phi: Math.PI / 2, M: haldaneCriticalMass(0.1, Math.PI / 2) }), { n: 30, maxN: 4096 });
+    expect(closed.stop).toBe("gapless");
+    expect(closed.gridsTried).toEqual([30]);
+    expect(() => chernNumbersRefined(haldaneModel({ t2: 0.1, phi: 0, M: 0.1 }), { n: 50, maxN: 40 })).toThrow(/maxN = 40/);
   });
 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { honeycombMagnonHall, honeycombMagnonBands, honeycombMagnonModel, c2Weight } from "../../../lib/src/berry/magnonHoneycomb.js";
+import { honeycombMagnonHall, honeycombMagnonHallConverged, honeycombMagnonBands, honeycombMagnonModel, c2Weight } from "../../../lib/src/berry/magnonHoneycomb.js";
+import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
 import { dilogarithm } from "../../../lib/src/berry/dilogarithm.js";
 import { chernNumbers } from "../../../lib/src/berry/chernNumbers.js";
 import { kB } from "../../../lib/src/quantity/constants.js";
@@ -126,5 +127,55 @@ print(json.dumps(out))`, { J, D: p.D, S, h: p.zeeman, Ts });
     expect(() => honeycombMagnonModel({ J: -1, D: 0.1, S: 1 })).toThrow(InputError);
     expect(() => honeycombMagnonModel({ J: 1, D: 0.1, S: 1, zeeman: -1 })).toThrow(/Zeeman/);
     expect(() => honeycombMagnonModel({ J: 1, D: 0.1, S: 0.8 })).toThrow(/multiple of 1\/2/);
+  });
+});
+
+const ORACLE = 'import json, sys, numpy as np\nfrom scipy.special import spence\nJ, D, S, h, Ts, N = d["J"], d["D"], d["S"], d["h"], d["Ts"], d["N"]\nkB = 1.380649e-23\ns3 = np.sqrt(3.0)\ndl = np.array([[0, 1], [-s3 / 2, -0.5], [s3 / 2, -0.5]])\nbb = np.array([[-s3, 0], [s3 / 2, -1.5], [s3 / 2, 1.5]])\na1 = np.array([s3 / 2, 1.5]); a2 = np.array([-s3 / 2, 1.5])\nA = np.array([a1, a2]); B = 2 * np.pi * np.linalg.inv(A).T\nu = (np.arange(N) + 0.5) / N\nU, V = np.meshgrid(u, u, indexing="ij")\nK = U[..., None] * B[0] + V[..., None] * B[1]\nkd = K @ dl.T; kb = K @ bb.T\nf = np.exp(1j * kd).sum(-1); dfx = (1j * dl[:, 0] * np.exp(1j * kd)).sum(-1); dfy = (1j * dl[:, 1] * np.exp(1j * kd)).sum(-1)\nss = np.sin(kb).sum(-1); dsx = (bb[:, 0] * np.cos(kb)).sum(-1); dsy = (bb[:, 1] * np.cos(kb)).sum(-1)\ne0 = 3 * J * S + h\nH = np.zeros(K.shape[:2] + (2, 2), complex)\nH[..., 0, 0] = e0 - 2 * D * S * ss; H[..., 1, 1] = e0 + 2 * D * S * ss\nH[..., 0, 1] = -J * S * f; H[..., 1, 0] = np.conj(-J * S * f)\ndef dH(df, ds):\n    M = np.zeros(K.shape[:2] + (2, 2), complex)\n    M[..., 0, 0] = -2 * D * S * ds; M[..., 1, 1] = 2 * D * S * ds\n    M[..., 0, 1] = -J * S * df; M[..., 1, 0] = np.conj(-J * S * df)\n    return M\nHx = dH(dfx, dsx); Hy = dH(dfy, dsy)\nE, W = np.linalg.eigh(H)\nWh = np.conj(np.swapaxes(W, -1, -2))\nX = Wh @ Hx @ W; Y = Wh @ Hy @ W\nOm = np.zeros(E.shape)\nfor n in range(2):\n    m = 1 - n\n    Om[..., n] = -2 * np.imag(X[..., n, m] * Y[..., m, n]) / (E[..., n] - E[..., m]) ** 2\narea = abs(np.linalg.det(B)) / N ** 2\nout = []\nfor T in Ts:\n    x = E / (kB * T); r = 1 / np.expm1(x)\n    c2 = (1 + r) * np.log((1 + r) / r) ** 2 - np.log(r) ** 2 - 2 * spence(1 + r)\n    out.append(float(-(c2 * Om).sum() * area / (4 * np.pi ** 2)))\nprint(json.dumps(out))';
+
+describe("kappa_xy converged to a stated tolerance (numpy Kubo-formula oracle, itself checked for convergence)", () => {
+  // Source: Matsumoto & Murakami, PRL 106, 197202 (2011) formula; oracle: numpy/scipy midpoint sum of
+  // c2(rho) Omega with the Kubo Berry curvature (D. Xiao et al., RMP 82, 1959 (2010)) on N = 400 and 800,
+  // spectrally accurate for this smooth periodic integrand (the two must agree first).
+  const kubo = `
+import json, sys
+results = []
+for d in json.load(sys.stdin):
+    exec(compile(${JSON.stringify(ORACLE.replace("print(json.dumps(out))", "res = out"))}, "oracle", "exec"), globals())
+    results.append(res)
+print(json.dumps(results))`;
+  const gmuB = 2 * 9.2740100783e-24;
+  // calculator inputs (K, T) -> model in J
+  const films = [
+    { J: 20, D: 3, S: 1.5, B: 0.5, T: 10 },
+    { J: 20, D: 3, S: 1.5, B: 0.5, T: 0.5 },
+    { J: 20, D: -3, S: 1.5, B: 0.01, T: 2 },
+  ];
+  const jobs = films.flatMap((f) => [400, 800].map((N) => ({ J: f.J * kB, D: f.D * kB, S: f.S, h: gmuB * f.B, Ts: [f.T], N })));
+  const ref = runPython<number[][]>(kubo, jobs, 300_000);
+
+  it("the calculator's kappa_xy (Richardson, doubling grids) agrees with the converged numpy value to the stated 1e-3", () => {
+    films.forEach((f, k) => {
+      const a = ref[2 * k]![0]!, b = ref[2 * k + 1]![0]!;
+      expect(Math.abs(a / b - 1), `oracle converged for ${JSON.stringify(f)}`).toBeLessThan(1e-5);
+      const r = runCalculator(getCalculator("magnon-hall"), f);
+      const red = r.outputs.kappaXYReduced!.value as number;
+      expect(Math.abs(red / b - 1), JSON.stringify(f)).toBeLessThan(2e-3);
+      expect(r.outputs.kappaXYReducedError!.value as number).toBeLessThan(1e-3 * Math.abs(red) + 1e-9);
+      expect(r.notes.join(" ")).toMatch(/Mermin-Wagner/);
+    });
+  });
+
+  it("no kappa when not converged or unresolved; a warning when k_B T is comparable to the band width", () => {
+    const p = { J: 20 * kB, D: 3 * kB, S: 1.5, zeeman: gmuB * 0.5 };
+    const c = honeycombMagnonHallConverged(p, [0.5], { n0: 12, maxN: 48, rtol: 1e-9, atol: 0 });
+    expect(c.converged[0]).toBe(false);
+    expect(c.kappaXYReduced[0]).toBeNull();
+    // a tiny DMI gap: the Berry curvature is not resolved on the last grid, so no kappa
+    const u = honeycombMagnonHallConverged({ ...p, D: 1e-4 * kB }, [10], { n0: 12, maxN: 48 });
+    expect(u.last.status).toBe("unresolved");
+    expect(u.kappaXY[0]).toBeNull();
+    const hot = runCalculator(getCalculator("magnon-hall"), { T: 100 });
+    expect(hot.status).toBe("warning");
+    expect(hot.notes.join(" ")).toMatch(/band width/);
   });
 });

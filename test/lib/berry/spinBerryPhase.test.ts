@@ -5,6 +5,8 @@ import { loopSolidAngle } from "../../../lib/src/berry/loopSolidAngle.js";
 import { wignerSmallD, spinCoherentState } from "../../../lib/src/berry/spinCoherentState.js";
 import { spinMatrices, checkSpin } from "../../../lib/src/berry/spinOperators.js";
 import { InputError } from "../../../lib/src/errors.js";
+import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
+import { runPython } from "../../helpers/python.js";
 
 describe("solid angle of a loop on the sphere", () => {
   it("octant triangle is pi/2; equator is 2 pi; cone is 2 pi (1 - cos theta) mod 4 pi", () => {
@@ -106,5 +108,82 @@ describe("Berry phase of a spin S in state m around a cone", () => {
     expect(() => checkSpin(0.7)).toThrow(InputError);
     expect(() => checkSpin(0.7)).toThrow(/multiple of 1\/2/);
     expect(() => spinBerryPhase(coneLoop(1, 10), 1, 0.5)).toThrow(/m = 0.5/);
+  });
+});
+
+describe("discrete phase of |m| < S: exact or off by exactly pi", () => {
+  // Source: the identity prod <u_i|u_i+1> = exp(i m Omega) prod d^S_mm(alpha_i) derived in
+  // spinBerryPhase.ts, checked against an independent construction: scipy.linalg.expm of the spin
+  // matrices (Debian python3-scipy) for the states and the product, and the polygon's solid angle from
+  // the spherical excess of its fan triangles (l'Huilier's theorem).
+  const cases: [number, number, number][] = [];
+  for (const N of [3, 4, 5, 7, 12]) cases.push([3.5, 1.4, N]);
+  cases.push([2, 2.2, 5], [1.5, 0.9, 3], [3, 2.9, 7]);
+  const ref = runPython<{ phases: number[]; dmm: number[]; omega: number }[]>(`
+import json, sys
+import numpy as np
+from scipy.linalg import expm
+out = []
+for S, th, N in json.load(sys.stdin):
+    dim = int(round(2 * S + 1)); ks = S - np.arange(dim)
+    sp = np.zeros((dim, dim))
+    for i in range(1, dim):
+        sp[i - 1, i] = np.sqrt(S * (S + 1) - ks[i] * (ks[i] + 1))
+    Sx = (sp + sp.T) / 2; Sy = (sp - sp.T) / 2j; Sz = np.diag(ks)
+    ph = 2 * np.pi * np.arange(N) / N
+    phases = []; dmm = []
+    a = 2 * np.arcsin(np.sin(th) * np.sin(np.pi / N))
+    for j, m in enumerate(ks):
+        # |m; n> = exp(-i phi Sz) exp(-i theta Sy) exp(+i phi Sz) |m> (a smooth gauge; the product is gauge free)
+        U = [expm(-1j * p * Sz) @ expm(-1j * th * Sy) @ expm(1j * p * Sz) for p in ph]
+        e = np.zeros(dim); e[j] = 1
+        u = [Ui @ e for Ui in U]
+        prod = np.prod([np.vdot(u[i], u[(i + 1) % N]) for i in range(N)])
+        phases.append(float(-np.angle(prod)))
+        dmm.append(float(expm(-1j * a * Sy)[j, j].real))
+    v = np.stack([np.sin(th) * np.cos(ph), np.sin(th) * np.sin(ph), np.cos(th) * np.ones(N)], 1)
+    def excess(A, B, C):
+        a_ = np.arccos(np.clip(B @ C, -1, 1)); b_ = np.arccos(np.clip(A @ C, -1, 1)); c_ = np.arccos(np.clip(A @ B, -1, 1))
+        s_ = (a_ + b_ + c_) / 2
+        return 4 * np.arctan(np.sqrt(max(0.0, np.tan(s_ / 2) * np.tan((s_ - a_) / 2) * np.tan((s_ - b_) / 2) * np.tan((s_ - c_) / 2))))
+    c = np.array([0, 0, 1.0]) if th < np.pi / 2 else np.array([0, 0, -1.0])
+    om = sum(excess(c, v[i], v[(i + 1) % N]) for i in range(N))
+    if th >= np.pi / 2: om = 4 * np.pi - om
+    out.append({"phases": phases, "dmm": dmm, "omega": float(om)})
+print(json.dumps(out))
+`, cases);
+
+  it("matches scipy, and the pi shift is predicted by the sign of prod d^S_mm(alpha) (S = 7/2, theta = 1.4, N = 3 and 5 among them)", () => {
+    let flips = 0;
+    cases.forEach(([S, theta, N], c) => {
+      const loop = coneLoop(theta, N);
+      for (let k = 0; k <= 2 * S; k++) {
+        const m = S - k;
+        const r = spinBerryPhase(loop, S, m);
+        const o = ref[c]!;
+        expect(Math.abs(wrapBerryPhase(r.discrete - o.phases[k]!)), `S=${S} N=${N} m=${m}`).toBeLessThan(1e-10);
+        expect(Math.abs(wrapBerryPhase(r.geometric + m * o.omega))).toBeLessThan(1e-10);
+        const predicted = Math.sign(o.dmm[k]!) ** N;
+        expect(r.edgeSign).toBe(predicted);
+        expect(Math.abs(wrapBerryPhase(o.phases[k]! + m * o.omega - (predicted < 0 ? Math.PI : 0)))).toBeLessThan(1e-10);
+        if (predicted < 0) flips++;
+        if (Math.abs(m) === S) expect(r.edgeSign).toBe(1);
+      }
+    });
+    expect(flips).toBeGreaterThan(4);
+  });
+
+  it("berry-loop flags the pi shift (warning, not ok) and its identity residual is rounding", () => {
+    for (const N of [3, 5]) {
+      const r = runCalculator(getCalculator("berry-loop"), { twoS: 7, theta: 1.4, segments: N });
+      expect(r.outputs.maxDifference!.value as number).toBeCloseTo(Math.PI, 10);
+      expect(r.outputs.piShiftedCount!.value as number).toBeGreaterThan(0);
+      expect(r.outputs.identityResidual!.value as number).toBeLessThan(1e-10);
+      expect(r.status).toBe("warning");
+      expect(r.notes.join(" ")).toMatch(/off by exactly pi/);
+    }
+    const fine = runCalculator(getCalculator("berry-loop"), { twoS: 7, theta: 1.4, segments: 200 });
+    expect(fine.status).toBe("ok");
+    expect(fine.outputs.maxDifference!.value as number).toBeLessThan(1e-10);
   });
 });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { getCalculator, runCalculator, InputError, mu0, type CalculatorSpec } from "@helicoid/lib";
 import { wallCalculators } from "../../../lib/src/calculators/walls.js";
+import { runPython } from "../../helpers/python.js";
 
 function corners(spec: CalculatorSpec): Array<Record<string, number>> {
   const out: Array<Record<string, number>> = [];
@@ -73,6 +74,40 @@ describe("walls catalogue", () => {
     const s = runCalculator(spec, { D: "3 mJ/m^2", A: "5 pJ/m" });
     expect(s.status).toBe("warning");
     expect(s.outputs.equilibriumSpiralPeriod!.value as number).toBeGreaterThan(s.outputs.spiralPeriod!.value as number);
+  });
+
+  it("wall: a thick film gets one Neel threshold and one verdict (wallType and regime agree), checked by scipy quadrature", () => {
+    // Source: C = mu0 Ms^2 Delta int_0^inf sech^2(u) (1 - (1 - e^-z)/z) du, z = 2 t u / (pi Delta) (Neel volume
+    // charges with the thin-film kernel, Beardsley 1989 form), D_N = 2 C / pi (Thiaville et al., EPL 100, 57002
+    // (2012)); integrated independently by scipy.integrate.quad.
+    const film = { Ms: "0.6 MA/m", A: "20 pJ/m", Ku: "1.5 MJ/m^3", D: "0.5 mJ/m^2", t: "15 nm" };
+    const ref = runPython<{ DN: number; DNthin: number }>(`
+import json, numpy as np
+from scipy.integrate import quad
+mu0 = 1.25663706212e-6; Ms = 0.6e6; A = 20e-12; Ku = 1.5e6; t = 15e-9
+Keff = Ku - mu0 * Ms**2 / 2; Delta = np.sqrt(A / Keff)
+def f(u):
+    z = 2 * t * u / (np.pi * Delta)
+    return (1 / np.cosh(u))**2 * (1 - (-np.expm1(-z)) / z if z > 1e-12 else z / 2)
+C = mu0 * Ms**2 * Delta * quad(f, 0, np.inf, epsabs=0, epsrel=1e-13, limit=400)[0]
+print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t / np.pi**2}))
+`);
+    const r = runCalculator(getCalculator("wall"), film);
+    const val = (n: string) => r.outputs[n]!.value as number;
+    expect(Math.abs(val("neelThresholdFullKernel") / ref.DN - 1)).toBeLessThan(1e-9);
+    expect(Math.abs(val("neelThreshold") / ref.DNthin - 1)).toBeLessThan(1e-12);
+    const shown = (ref.DN * 1e3).toPrecision(3);
+    expect(shown).toBe("0.494");
+    const wt = r.outputs.wallType!.value as string, rg = r.outputs.regime!.value as string;
+    for (const text of [wt, rg]) {
+      expect(text).toContain(`${shown} mJ/m^2`);
+      expect(text).not.toContain("0.953");
+    }
+    // D = 0.5 > D_N = 0.494: Neel in both texts, never "intermediate"
+    expect(wt).toMatch(/Neel wall/);
+    expect(rg).toMatch(/chiral Neel walls/);
+    expect(rg).not.toMatch(/intermediate/);
+    expect(r.notes.join(" ")).toMatch(/not below Delta/);
   });
 
   it("wall360: exact pair beside the minimization; a B sweep gives R(B), w(B)", () => {

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { findVortices } from "../../../lib/src/topology/vortices.js";
 import fc from "fast-check";
 import { findObjects } from "../../../lib/src/topology/objects.js";
 import { skyrmionNumber } from "../../../lib/src/topology/skyrmionNumber.js";
@@ -100,5 +101,23 @@ describe("objects: charge, centre, radius, vorticity, helicity of analytic textu
     expect(() => findObjects(f, { densityThreshold: 2 })).toThrow(/densityThreshold/);
     expect(() => findObjects(f, { background: 0 as never })).toThrow(/background/);
     expect(() => findObjects(vectorFieldFromInterleaved(new Float64Array(12), { nx: 2, ny: 2 }))).toThrow(/all vacuum/);
+  });
+});
+
+describe("an object that one helicity does not describe", () => {
+  it("two overlapping skyrmion cores: helicity null with the reason; the vortex finder gives the two cores at the constructed centres", () => {
+    // Common practice, no source: the generator puts a core (m_xy = 0, winding +1) at each centre; Phi - v phi
+    // on one circle around the pair is not constant, so no single helicity exists.
+    const nm = 1e-9;
+    const centres: Array<[number, number]> = [[49 * nm, 64 * nm], [79 * nm, 64 * nm]];
+    const f = textureOfObjects({ nx: 128, ny: 128, dx: nm, periodic: false }, centres.map(([x, y]) => ({ x, y, R: 20 * nm, w: 4 * nm, helicity: 0 })));
+    const o = findObjects(f, { boundary: "open" });
+    expect(o.objects.length).toBe(1);
+    expect(o.objects[0]!.helicity).toBeNull();
+    expect(o.objects[0]!.note).toMatch(/one helicity does not describe/);
+    const v = findVortices(f, { boundary: "open" });
+    expect(v.vortices).toBe(2);
+    expect(v.antivortices).toBe(0);
+    for (const [cx, cy] of centres) expect(v.sites.some((s) => Math.hypot(s.x - cx, s.y - cy) < 1.5 * nm)).toBe(true);
   });
 });
