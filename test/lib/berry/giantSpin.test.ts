@@ -6,7 +6,8 @@ import { runPython } from "../../helpers/python.js";
 import { symmetricEigenvaluesDD, ddSub, ddToNumber } from "../../../lib/src/numeric/doubleDouble.js";
 import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
 
-// Invented molecular magnet "Ferrowheel-10" (S = 10, D = 0.29 K, E = 0.047 K, g = 2): demo values.
+// Test values, not a demo: S = 10, D = 0.29 K, E = 0.047 K, g = 2. From memory: the giant-spin parameters
+// usually quoted for the Fe8 molecular cluster (a realistic, well-resolved test case; the demos use invented values).
 const mol = { S: 10, D: 0.29 * kB, E: 0.047 * kB, g: 2 };
 
 describe("single large spin: levels and tunnel splitting", () => {

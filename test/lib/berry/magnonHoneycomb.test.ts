@@ -7,7 +7,7 @@ import { kB } from "../../../lib/src/quantity/constants.js";
 import { InputError } from "../../../lib/src/errors.js";
 import { runPython } from "../../helpers/python.js";
 
-// Invented honeycomb ferromagnet "Hexaferrite-H" (demo values): J = 2 meV-ish in K, D/J = 0.15, S = 3/2.
+// Test values of our own (no material): J/k_B = 20 K, D/J = 0.15, S = 3/2.
 const J = 20 * kB, S = 1.5;
 const p = { J, D: 0.15 * J, S, zeeman: 0.02 * J * S };
 
