@@ -131,6 +131,9 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
   if (sweep) {
     if (sweep.over !== "B") throw new InputError("sweep", sweep.over, "B (the only sweepable input of 'skyrmion')");
     const n = sweep.points;
+    // each field gets a global search (a few ms): bound the work before spending it
+    if (n > 2000) throw new InputError("sweep.points", n, "at most 2000 points for 'skyrmion' (every field gets a global search of the minima)");
+    if (!(sweep.to !== sweep.from)) throw new InputError("sweep", `${sweep.from} .. ${sweep.to} T`, "a sweep over two different fields");
     const grid = Array.from({ length: n }, (_, i) => sweep.from + ((sweep.to - sweep.from) * i) / (n - 1));
     const br = skyrmionBranches(film, grid);
     // principal branch: the one holding the reported state, else the one with the most fields
