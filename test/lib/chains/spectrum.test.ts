@@ -130,6 +130,27 @@ describe("exact diagonalization against scipy (eigsh on a matrix built in Python
   });
 });
 
+describe("Lanczos without re-orthogonalization (lowest level)", () => {
+  it("agrees with the thick-restart result and gives an eigenvector with a small residual", () => {
+    // Common practice, no source: both solvers on one operator; the residual is computed here.
+    const m = model({ N: 14, Jz: 1.5, Jperp: 1, hz: 0.1 });
+    const label = { nUp: 7, m: null, flip: 0 as const };
+    const full = sectorLevels(m, label, { tol: 1e-11 });
+    const plain = sectorLevels(m, label, { tol: 1e-11, reorthogonalization: "none" });
+    expect(plain.values[0]).toBeCloseTo(full.values[0]!, 11);
+    const y = plain.vectors[0]!;
+    const w = new Float64Array(y.length);
+    plain.hamiltonian.apply(y, w);
+    let r = 0, n = 0;
+    for (let i = 0; i < y.length; i++) {
+      r += (w[i]! - plain.values[0]! * y[i]!) ** 2;
+      n += y[i]! ** 2;
+    }
+    expect(Math.sqrt(n)).toBeCloseTo(1, 12);
+    expect(Math.sqrt(r)).toBeLessThan(1e-8);
+  });
+});
+
 describe("memory budget, bad input, stopping", () => {
   it("refuses a sector over the budget before allocating, with the estimate", () => {
     const m = model({ N: 30, Jz: 1, Jperp: 1 });
