@@ -106,13 +106,23 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
     values.states = r.minima
       .map(
         (m, k) =>
-          `${k + 1}: R = ${fmtM(m.radius)}, w = ${fmtM(m.wallWidth)}, E = ${(m.energy.total / (8 * Math.PI * film.A * film.t)).toPrecision(4)} x 8 pi A t; ` +
+          `${k + 1} (${m.radius / m.wallWidth < 4 ? "compact skyrmion" : "bubble"}): R = ${fmtM(m.radius)}, w = ${fmtM(m.wallWidth)}, E = ${(m.energy.total / (8 * Math.PI * film.A * film.t)).toPrecision(4)} x 8 pi A t; ` +
           `verified minimum (relative gradient ${m.verification.relativeGradient.toExponential(1)}, Hessian eigenvalues ${m.verification.hessianEigenvalues.map((x) => x.toPrecision(3)).join(", ")} of the energy scale); ` +
           (m.radius >= Rvalid ? `valid (R >= ${VALIDITY_SPACINGS} a)` : `outside the continuum model's validity (R < ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)})`),
       )
       .join("\n");
     if (r.radius < Rvalid) notes.push(`R = ${fmtM(r.radius)} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy there; the energy is ${r.energyOverBelavinPolyakov!.toPrecision(4)} x 8 pi A t (Belavin-Polyakov limit 1 as R -> 0).`);
     if (r.phase.groundState !== "uniform") notes.push(r.phase.text);
+    // angular stability: the exact profile of the local model at this field (the ansatz Hessian above
+    // covers only R and w)
+    try {
+      const st = skyrmionStability(film, v.B!);
+      values.stability = `${(stabilityValues(st).stability as string)} (exact profile of the local model, R = ${fmtM(st.skyrmion.radius)}; non-local magnetostatics not in this analysis)`;
+      if (!st.stable) notes.push(values.stability as string);
+    } catch (e) {
+      if (!(e instanceof ConvergenceError)) throw e;
+      values.stability = `Not analysed: the local model (K_eff only) has no exact skyrmion at this field (${e.message}); within the ansatz the state is a verified minimum in R and w.`;
+    }
     if (r.minima.length > 1) notes.push(`${r.minima.length} local minima at this field: see 'states'; the one reported is the lowest in energy.`);
   } else {
     notes.push(...r.notes);
@@ -121,6 +131,9 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
   if (sweep) {
     if (sweep.over !== "B") throw new InputError("sweep", sweep.over, "B (the only sweepable input of 'skyrmion')");
     const n = sweep.points;
+    // each field gets a global search (a few ms): bound the work before spending it
+    if (n > 2000) throw new InputError("sweep.points", n, "at most 2000 points for 'skyrmion' (every field gets a global search of the minima)");
+    if (!(sweep.to !== sweep.from)) throw new InputError("sweep", `${sweep.from} .. ${sweep.to} T`, "a sweep over two different fields");
     const grid = Array.from({ length: n }, (_, i) => sweep.from + ((sweep.to - sweep.from) * i) / (n - 1));
     const br = skyrmionBranches(film, grid);
     // principal branch: the one holding the reported state, else the one with the most fields
@@ -203,6 +216,7 @@ const skyrmionSpec: CalculatorSpec = {
     { name: "helicity", symbol: "\\psi", unit: "", meaning: "Helicity in rad (0: outward Neel; pi: inward; intermediate when volume charges compete)" },
     { name: "magnetostaticEnergy", symbol: "E_{nl}", unit: "J", meaning: "Non-local magnetostatic part of the energy (surface + volume charges)" },
     { name: "minimaCount", symbol: "n", unit: "", meaning: "Number of verified local minima at this field" },
+    { name: "stability", symbol: "", unit: "", kind: "text", meaning: "Stability against angular deformations m = 0..4 of the exact profile of the local model at this field" },
     { name: "states", symbol: "", unit: "", kind: "text", meaning: "Every verified minimum at this field: R, w, energy, verification, validity" },
     { name: "deltaParameter", symbol: "\\Delta", unit: "m", meaning: "Wall width parameter sqrt(A / K_eff) of the film" },
     { name: "validityRadius", symbol: "R_{min}", unit: "m", meaning: "5 a: below this radius the continuum model is not trustworthy" },

@@ -21,6 +21,7 @@
  */
 import { ConvergenceError } from "../errors.js";
 import { eigenHermitian } from "../numeric/eigenHermitian.js";
+import { tql2Real } from "../numeric/eigenSymmetricQL.js";
 import type { SectorOperator } from "./operator.js";
 
 /** Thrown when a long computation is stopped through its `shouldStop` callback. */
@@ -54,6 +55,13 @@ export interface LanczosOptions {
   onProgress?: (p: LanczosProgress) => void;
   /** Polled once per step; returning true stops with ComputationStopped. */
   shouldStop?: () => boolean;
+  /**
+   * "full" (default): thick-restart Lanczos with every new vector orthogonalized against the basis.
+   * "none": for the lowest level only, the plain three-term recursion (two vectors), watched through
+   * the tridiagonal's lowest eigenvalue, with a second pass to build the vector. Loss of orthogonality
+   * only duplicates converged levels, which does not disturb the lowest one; cheaper per step.
+   */
+  reorthogonalization?: "full" | "none";
 }
 
 export interface LanczosResult {
@@ -114,6 +122,7 @@ export function norm(x: Float64Array): number {
 }
 
 export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {}): LanczosResult {
+  if (options.reorthogonalization === "none" && (options.levels ?? 1) === 1 && op.dim > 2) return lowestByRecursion(op, options);
   const dim = op.dim;
   const complex = op.complex;
   const len = complex ? 2 * dim : dim;
@@ -298,4 +307,114 @@ export function continuedFractionSpectrum(t: TridiagonalResult, omega: number, e
     gi = -di / d;
   }
   return (-t.norm2 * gi) / Math.PI;
+}
+
+/** Lowest eigenpair by the plain recursion (see LanczosOptions.reorthogonalization). */
+function lowestByRecursion(op: SectorOperator, options: LanczosOptions): LanczosResult {
+  const dim = op.dim;
+  const complex = op.complex;
+  const len = complex ? 2 * dim : dim;
+  const tol = options.tol ?? 1e-10;
+  const maxSteps = Math.min(options.maxMatvecs ?? 20000, 100000);
+  let start: Float64Array;
+  if (options.start) start = Float64Array.from(options.start);
+  else {
+    const rnd = pseudoRandom();
+    start = new Float64Array(len);
+    for (let i = 0; i < len; i++) start[i] = rnd();
+  }
+  const n0 = norm(start);
+  for (let i = 0; i < len; i++) start[i] = start[i]! / n0;
+  const a: number[] = [];
+  const b: number[] = [];
+  const c = new Float64Array(2);
+  const lowest = (j: number, wantVector: boolean): { theta: number; z: Float64Array | null } => {
+    const d = Float64Array.from(a.slice(0, j));
+    const e = new Float64Array(j);
+    for (let i = 0; i + 1 < j; i++) e[i] = b[i]!;
+    if (!wantVector) {
+      tql2Real(j, d, e, null, "Lanczos tridiagonal");
+      return { theta: Math.min(...d), z: null };
+    }
+    const V = new Float64Array(j * j);
+    for (let i = 0; i < j; i++) V[i * j + i] = 1;
+    tql2Real(j, d, e, V, "Lanczos tridiagonal");
+    let k = 0;
+    for (let i = 1; i < j; i++) if (d[i]! < d[k]!) k = i;
+    // the eigenvector is a row or a column of V: take the one that satisfies T z = theta z
+    const row = Float64Array.from({ length: j }, (_, i) => V[k * j + i]!);
+    const col = Float64Array.from({ length: j }, (_, i) => V[i * j + k]!);
+    const res = (z: Float64Array) => {
+      let r = 0;
+      for (let i = 0; i < j; i++) {
+        const t = a[i]! * z[i]! + (i > 0 ? b[i - 1]! * z[i - 1]! : 0) + (i + 1 < j ? b[i]! * z[i + 1]! : 0) - d[k]! * z[i]!;
+        r += t * t;
+      }
+      return r;
+    };
+    return { theta: d[k]!, z: res(row) <= res(col) ? row : col };
+  };
+  let prev = new Float64Array(len);
+  let cur = Float64Array.from(start);
+  const w = new Float64Array(len);
+  let beta = 0;
+  let matvecs = 0;
+  let lastTheta = Infinity;
+  let steps = 0;
+  let final: { theta: number; z: Float64Array; residual: number } | null = null;
+  for (let j = 0; j < maxSteps; j++) {
+    if (options.shouldStop?.()) throw new ComputationStopped("Lanczos", { matvecs, restarts: 0 });
+    op.apply(cur, w);
+    matvecs++;
+    dot(cur, w, complex, c);
+    const alpha = c[0]!;
+    a.push(alpha);
+    for (let i = 0; i < len; i++) w[i] = w[i]! - alpha * cur[i]! - beta * prev[i]!;
+    beta = norm(w);
+    steps = j + 1;
+    const exhausted = beta < 1e-13 * Math.max(1, Math.abs(alpha)) || steps >= dim;
+    if (steps % 10 === 0 || exhausted) {
+      const { theta } = lowest(steps, false);
+      options.onProgress?.({ matvecs, restarts: 0, lowest: theta, residual: NaN });
+      if (exhausted || Math.abs(theta - lastTheta) <= 1e-3 * tol * Math.max(1, Math.abs(theta))) {
+        const r = lowest(steps, true);
+        const residual = exhausted ? 0 : beta * Math.abs(r.z![steps - 1]!);
+        if (residual <= tol * Math.max(1, Math.abs(r.theta)) || exhausted) {
+          final = { theta: r.theta, z: r.z!, residual };
+          break;
+        }
+      }
+      lastTheta = theta;
+    }
+    b.push(beta);
+    const t = prev;
+    prev = cur;
+    cur = t;
+    for (let i = 0; i < len; i++) cur[i] = w[i]! / beta;
+  }
+  if (!final) throw new ConvergenceError("Lanczos", `no convergence in ${maxSteps} steps`, { matvecs });
+  const vectors: Float64Array[] = [];
+  if (options.vectors ?? true) {
+    // second pass: the same recursion from the same start, accumulating y = sum z_i v_i
+    const y = new Float64Array(len);
+    prev = new Float64Array(len);
+    cur = Float64Array.from(start);
+    let bt = 0;
+    for (let j = 0; j < steps; j++) {
+      axpy(final.z[j]!, 0, cur, y, complex);
+      if (j + 1 === steps) break;
+      op.apply(cur, w);
+      matvecs++;
+      for (let i = 0; i < len; i++) w[i] = w[i]! - a[j]! * cur[i]! - bt * prev[i]!;
+      bt = b[j]!;
+      const t = prev;
+      prev = cur;
+      cur = t;
+      for (let i = 0; i < len; i++) cur[i] = w[i]! / bt;
+    }
+    const ny = norm(y);
+    for (let i = 0; i < len; i++) y[i] = y[i]! / ny;
+    vectors.push(y);
+  }
+  return { values: [final.theta], vectors, residuals: [final.residual], matvecs, restarts: 0 };
 }

@@ -149,6 +149,8 @@ export class ChainHamiltonian implements SectorOperator {
     const lowBits = ranker ? ranker.lowBits : 0;
     const lowMask = ranker ? ranker.lowMask : 0;
     const diag = this.diag;
+    const fullMask = N === 32 ? 0xffffffff : (2 ** N - 1) >>> 0;
+    const bondMask = nb === 32 ? 0xffffffff : (2 ** nb - 1) >>> 0; // open chains: no bond N-1
     for (let a = 0; a < dim; a++) w[a] = diag[a]! * v[a]!;
     for (let a = 0; a < dim; a++) {
       const va = v[a]!;
@@ -156,15 +158,15 @@ export class ChainHamiltonian implements SectorOperator {
       const s = reps[a]!;
       if (half !== 0) {
         const hv = half * va;
-        for (let i = 0; i < nb; i++) {
-          const mk = bonds[i]!;
-          const x = s & mk;
-          if (x !== 0 && x !== mk) {
-            const b = (s ^ mk) >>> 0;
-            const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
-            const j = lookup[r]! >> 1;
-            w[j] = w[j]! + hv;
-          }
+        // bit i of anti: spins i and i+1 antiparallel (bond i flippable); visit the set bits only
+        let anti = (s ^ ((((s >>> 1) | (s << (N - 1))) & fullMask) >>> 0)) & bondMask;
+        while (anti !== 0) {
+          const low = anti & -anti;
+          anti ^= low;
+          const b = (s ^ bonds[31 - Math.clz32(low)]!) >>> 0;
+          const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
+          const j = lookup[r]! >> 1;
+          w[j] = w[j]! + hv;
         }
       }
       if (fx !== 0) {

@@ -28,7 +28,7 @@
  * test/lib/walls/magnetostatics.test.ts and skyrmionAnsatz.test.ts.
  * Search (findAnsatzMinima). Window: 0.3 <= a <= 100 (the tables), Delta / 40 <= w <= 40 Delta.
  *  1. Global scan: at 74 points of ln a (step 0.08) the energy is minimized over w on the whole
- *     window (coarse scan of ln w, step 0.3, then Brent); every discrete minimum of this w-minimized
+ *     window (coarse scan of ln w, step 0.5, then Brent); every discrete minimum of this w-minimized
  *     curve is a candidate, and so is the last interval at a window edge the curve falls towards.
  *  2. Local search from each candidate and from each warm start (a state of a neighbouring field):
  *     Brent over ln a with the inner minimum over w followed from the last one (Newton with the
@@ -885,7 +885,7 @@ export function zeroFieldRadiusEstimate(film: Film): number {
 
 /** Step of the global scan in ln(R / w) and of the coarse scan in ln w. */
 const SCAN_DU = 0.08;
-const SCAN_DW = 0.3;
+const SCAN_DW = 0.5;
 
 /** Verification of a reported minimum (finite differences of the ansatz energy in ln(R/w), ln w). */
 export interface AnsatzVerification {
@@ -991,7 +991,7 @@ function innerGlobal(ctx: Context, u: number): Inner {
   }
   const lk = (k: number) => W_LO + ((W_HI - W_LO) * k) / nk;
   if (best === 0 || best === nk) return { e: eBest, lw: lk(best), edge: true };
-  const r = brentMinimize(f, lk(best - 1), lk(best + 1), 1e-7, 80);
+  const r = brentMinimize(f, lk(best - 1), lk(best + 1), 1e-5, 60);
   return { e: r.f, lw: r.x, edge: false };
 }
 
@@ -1214,7 +1214,7 @@ export interface AnsatzStart {
 /**
  * All verified local minima of the ansatz energy at field B inside the window 0.3 <= R / w <= 100,
  * Delta / 40 <= w <= 40 Delta: a global scan of the w-minimized energy over ln(R / w) (step 0.08; at
- * each point a coarse scan of ln w, step 0.3, then Brent), a local search from each discrete minimum
+ * each point a coarse scan of ln w, step 0.5, then Brent), a local search from each discrete minimum
  * of the scan and from each warm start, the Newton polish, and the verification of each candidate
  * (stationary, Hessian positive definite at two finite-difference steps, not on a window edge).
  */

@@ -113,6 +113,26 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     expect((s.outputs.stripOutField!.value as number) * 1e3).toBeCloseTo(28.09, 1);
     expect(s.outputs.stripOutKind!.value as string).toMatch(/B_sat/);
   });
+  it("skyrmion: a radius below 5 lattice constants carries a validity note with the approach to 8 pi A t", () => {
+    // Common practice, no source: the continuum description needs several lattice spacings per core;
+    // Source: A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975) for the 8 pi A t limit.
+    const small = runCalculator(getCalculator("skyrmion"), {});
+    const R = small.outputs.radius!.value as number;
+    expect(R).toBeLessThan(1.5e-9);
+    expect(small.status).toBe("warning");
+    expect(small.notes.join("\n")).toMatch(/R = .* is below 5 a = 1\.500 nm .*not trustworthy/);
+    expect(small.outputs.continuumLimitField!.value as number).toBeLessThan(0.05);
+    expect((small.outputs.belavinPolyakovEnergy!.value as number) / (8 * Math.PI * 15e-12 * 1e-9)).toBeCloseTo(1, 12);
+    expect(small.outputs.energyOverBelavinPolyakov!.value as number).toBeGreaterThan(0.5);
+    const fine = runCalculator(getCalculator("skyrmion"), { a: "0.2 nm" });
+    expect(fine.notes.join("\n")).not.toMatch(/R = .* is below 5 a/);
+    const large = runCalculator(getCalculator("skyrmion"), { D: "3 mJ/m^2", B: "20 mT" });
+    expect(large.outputs.radius!.value as number).toBeGreaterThan(10e-9);
+    expect(large.notes.join("\n")).not.toMatch(/R = .* is below 5 a/);
+    // every state says its kind, verification and validity; the stability of the exact local-model profile
+    expect(large.outputs.states!.value as string).toMatch(/^1 \((compact skyrmion|bubble)\): R = .*verified minimum .*valid/);
+    expect(large.outputs.stability!.value as string).toMatch(/^Stable against small deformations/);
+  });
   it("skyrmion-profile: ansatz and exact side by side", () => {
     // Common practice, no source: variational bound and similar radii.
     const r = runCalculator(getCalculator("skyrmion-profile"), { D: "2 mJ/m^2", B: "20 mT" });
@@ -130,5 +150,7 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     expect(() => runCalculator(spec, { Ku: "0.5 MJ/m^3" })).toThrow(InputError);
     expect(() => runCalculator(spec, { A: "50 mT" })).toThrow(/A = "50 mT"/);
     expect(() => runCalculator(spec, { A: 0 })).toThrow(InputError);
+    expect(() => runCalculator(spec, {}, { sweep: { over: "B", from: 0.01, to: 0.01, points: 5 } })).toThrow(/two different fields/);
+    expect(() => runCalculator(spec, {}, { sweep: { over: "B", from: 0, to: 0.1, points: 5000 } })).toThrow(/at most 2000/);
   });
 });

@@ -28,7 +28,7 @@ describe("Bethe-ansatz closed forms, Delta > 1", () => {
     expect(() => xxzGap(0.5)).toThrow(InputError);
   });
 
-  it("agree with mpmath: series for e0, elliptic modulus from K'/K = gamma/pi, product form of the gap", () => {
+  it("agree with mpmath: series for e0, elliptic modulus from K'/K = gamma/pi, gap and spinon band", () => {
     // Source: the same formulas evaluated independently with mpmath (ellipk, findroot on the modulus,
     // the modulus found by bisection rather than from theta functions).
     const Ds = [1.2, 2, 3.5, 7];
