@@ -12,14 +12,14 @@
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { Worker } from "node:worker_threads";
+import { fork, type ChildProcess } from "node:child_process";
 import { JupyterHandlerImpl, ZmqServer } from "tslab/dist/jupyter";
 import { printQuickInfo } from "tslab/dist/inspect";
 import { versions as tslabVersions } from "tslab";
 import * as zmq from "zeromq";
 import { comms, type Buffers, type CommMsgType } from "./comms.js";
 import { makeHeader, parseMessage, ReplayGuard, serializeMessage, WireError, type Header, type Message } from "./wire.js";
-import type { ControlThreadData, FromControl, ToControl } from "./controlThread.js";
+import type { ControlProcessData, FromControl, ToControl } from "./controlProcess.js";
 import {
   cancelAllWork,
   currentContext,
@@ -92,7 +92,7 @@ export class HelicoidServer extends ZmqServer {
   private lastParent: Header | null = null;
   private readonly replay = new ReplayGuard();
   readonly history = new SessionHistory();
-  private controlThread: Worker | null = null;
+  private controlProcess: ChildProcess | null = null;
   private pendingStream: PendingStream | null = null;
   private streamFlushScheduled = false;
   closing = false;
@@ -167,13 +167,13 @@ export class HelicoidServer extends ZmqServer {
     }
   }
 
-  /** Stands for the control socket (served by the control thread) in replies. */
-  private readonly controlProxy = { send: async (frames: Buffer[]) => this.controlThread?.postMessage({ kind: "send", frames } satisfies ToControl) } as unknown as zmq.Router;
+  /** Stands for the control socket (served by the control process) in replies. */
+  private readonly controlProxy = { send: async (frames: Buffer[]) => this.controlProcess?.send({ kind: "send", frames } satisfies ToControl) } as unknown as zmq.Router;
 
   /**
-   * Bind the sockets to exactly the connection file's addresses. Shell, iopub and stdin live on
-   * the main thread (as in tslab); control and heartbeat on a worker thread (`controlThread.ts`)
-   * that answers while the main thread is busy and turns `interrupt_request` into SIGINT.
+   * Bind the sockets to exactly the connection file's addresses. Shell, iopub and stdin live in
+   * the kernel's thread (as in tslab); control and heartbeat in a helper process
+   * (`controlProcess.ts`) that answers while the kernel is busy and turns `interrupt_request` into SIGINT.
    */
   override async init(): Promise<void> {
     const cinfo = JSON.parse(readFileSync(this.configPath, "utf8"));
@@ -182,10 +182,14 @@ export class HelicoidServer extends ZmqServer {
     this.iopub = new zmq.Publisher();
     this.shell = new zmq.Router();
     this.stdin = new zmq.Router();
-    const data: ControlThreadData = { controlUrl: url(cinfo.control_port), hbUrl: url(cinfo.hb_port), key: cinfo.key };
-    const worker = new Worker(join(__dirname, "controlThread.js"), { workerData: data });
-    this.controlThread = worker;
-    worker.unref();
+    const data: ControlProcessData = { controlUrl: url(cinfo.control_port), hbUrl: url(cinfo.hb_port), key: cinfo.key };
+    const worker = fork(join(__dirname, "controlProcess.js"), [], {
+      env: { ...process.env, HELICOID_CONTROL: JSON.stringify(data) },
+      serialization: "advanced",
+      stdio: ["ignore", "inherit", "inherit", "ipc"],
+      execArgv: [],
+    });
+    this.controlProcess = worker;
     const ready = new Promise<void>((resolve, reject) => {
       worker.on("message", (m: FromControl) => {
         if (m.kind === "ready") resolve();
@@ -196,8 +200,11 @@ export class HelicoidServer extends ZmqServer {
         }
       });
       worker.on("error", (err) => {
-        this.log(`control thread failed: ${err?.stack ?? String(err)}`);
+        this.log(`control process failed: ${err?.stack ?? String(err)}`);
         reject(err);
+      });
+      worker.on("exit", (code, signal) => {
+        if (!this.closing) this.log(`control process ended (${code ?? signal}); control and heartbeat no longer answer`);
       });
     });
     void (async () => {
@@ -211,7 +218,21 @@ export class HelicoidServer extends ZmqServer {
     this.iopub.close();
     this.shell.close();
     this.stdin.close();
-    void this.controlThread?.terminate();
+  }
+
+  /** Ask the control process to close its sockets and wait (at most a second) until it has ended. */
+  private stopControlThread(): Promise<void> {
+    const w = this.controlProcess;
+    if (!w) return Promise.resolve();
+    return new Promise<void>((resolve) => {
+      const t = realTimers.setTimeout(resolve, 1000);
+      w.once("exit", () => {
+        realTimers.clearTimeout(t);
+        resolve();
+      });
+      if (w.exitCode !== null || w.signalCode !== null) return resolve();
+      w.send({ kind: "close" } satisfies ToControl);
+    });
   }
 
   kernelInfo(): Record<string, unknown> {
@@ -446,7 +467,8 @@ export class HelicoidServer extends ZmqServer {
     this.publish("status", { execution_state: "idle" }, msg.header);
     this.closing = true;
     await Promise.all([...this.sendQueues.values()]);
-    setTimeout(() => {
+    await this.stopControlThread();
+    realTimers.setTimeout(() => {
       try {
         comms.reset();
         this.close();

@@ -1,33 +1,41 @@
 /**
- * The kernel's control and heartbeat sockets, served from a worker thread so that they answer
- * while the main thread is busy (a cell or a widget callback in a tight loop), as ipykernel
- * serves them from threads of their own.
+ * The kernel's control and heartbeat sockets, served by a small helper process (forked by the
+ * kernel, with an IPC channel) so that they answer while the kernel's thread is busy (a cell or a
+ * widget callback in a tight loop), as ipykernel serves them from threads of their own. (A worker
+ * thread would do, but zeromq.js does not shut down cleanly inside one: the process can abort on exit.)
  *
  * - heartbeat: every ping is echoed at once;
- * - control `interrupt_request`: the thread sends SIGINT to its own process (which stops the
- *   synchronous code running under `breakOnSigint`, or, when the main thread is idle, reaches the
- *   kernel's SIGINT handler that interrupts the cell's asynchronous work) and replies itself;
- * - every other control message (shutdown, kernel_info, ...) is handed to the main thread, whose
- *   replies come back here to be sent. Signatures are checked here too; replays are dropped.
+ * - control `interrupt_request`: the helper sends SIGINT to the kernel (which stops synchronous
+ *   code running under `breakOnSigint`, or, when the kernel is idle, reaches its SIGINT handler that
+ *   interrupts the cell's asynchronous work) and replies itself;
+ * - every other control message (shutdown, kernel_info, ...) is handed to the kernel, whose replies
+ *   come back here to be sent. Signatures are checked here too; replays are dropped.
+ * The helper ignores SIGINT (Jupyter signals the whole process group) and ends with the kernel.
  */
-import { parentPort, workerData } from "node:worker_threads";
 import * as zmq from "zeromq";
 import { makeHeader, parseMessage, ReplayGuard, serializeMessage, WireError } from "./wire.js";
 
-export interface ControlThreadData {
+export interface ControlProcessData {
   controlUrl: string;
   hbUrl: string;
   key: string;
 }
 
-/** Messages from the control thread to the main thread. */
+/** Messages from the control process to the kernel. */
 export type FromControl = { kind: "ready" } | { kind: "message"; frames: Uint8Array[] } | { kind: "log"; text: string } | { kind: "bind-error"; text: string };
-/** Messages from the main thread to the control thread. */
-export type ToControl = { kind: "send"; frames: Uint8Array[] };
+/** Messages from the kernel to the control process. */
+export type ToControl = { kind: "send"; frames: Uint8Array[] } | { kind: "close" };
 
 async function main(): Promise<void> {
-  const data = workerData as ControlThreadData;
-  const port = parentPort!;
+  const data = JSON.parse(process.env.HELICOID_CONTROL ?? "{}") as ControlProcessData;
+  const kernelPid = process.ppid;
+  process.on("SIGINT", () => {});
+  process.on("disconnect", () => process.exit(0));
+  const port = {
+    postMessage: (m: FromControl) => process.send?.(m),
+    on: (_: "message", h: (m: ToControl) => void) => process.on("message", h as (m: unknown) => void),
+    close: () => process.disconnect?.(),
+  };
   const control = new zmq.Router();
   const hb = new zmq.Reply();
   const replay = new ReplayGuard();
@@ -38,6 +46,15 @@ async function main(): Promise<void> {
   };
   port.on("message", (m: ToControl) => {
     if (m.kind === "send") send(m.frames.map((f) => Buffer.from(f.buffer, f.byteOffset, f.byteLength)));
+    else if (m.kind === "close") {
+      // Let the last replies go, then close the sockets before the thread ends (the process exits next).
+      void sending.finally(() => {
+        control.linger = 200;
+        control.close();
+        hb.close();
+        setTimeout(() => process.exit(0), 0);
+      });
+    }
   });
   try {
     await Promise.all([control.bind(data.controlUrl), hb.bind(data.hbUrl)]);
@@ -49,7 +66,8 @@ async function main(): Promise<void> {
   void (async () => {
     for await (const frames of hb) await hb.send(frames);
   })().catch(() => {});
-  for await (const frames of control) {
+  try {
+    for await (const frames of control) {
     let msg;
     try {
       msg = parseMessage(data.key, frames as Buffer[]);
@@ -62,7 +80,7 @@ async function main(): Promise<void> {
       continue;
     }
     if (msg.header.msg_type === "interrupt_request") {
-      process.kill(process.pid, "SIGINT");
+      process.kill(kernelPid, "SIGINT");
       send(
         serializeMessage(data.key, {
           identities: msg.identities,
@@ -74,6 +92,9 @@ async function main(): Promise<void> {
       continue;
     }
     post({ kind: "message", frames: frames as Buffer[] });
+    }
+  } catch {
+    // the socket was closed: the kernel is shutting down
   }
 }
 
