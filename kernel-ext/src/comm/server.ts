@@ -24,6 +24,7 @@ import {
   cancelAllWork,
   currentContext,
   describeError,
+  hookConsole,
   hookProcessStreams,
   hookTimers,
   interruptibly,
@@ -110,6 +111,7 @@ export class HelicoidServer extends ZmqServer {
     registerWidgetTargets();
     registerVersionTarget((t) => this.log(t));
     hookProcessStreams();
+    hookConsole();
     hookTimers();
     resetPlotlyEmbedding();
   }
@@ -179,7 +181,10 @@ export class HelicoidServer extends ZmqServer {
     const cinfo = JSON.parse(readFileSync(this.configPath, "utf8"));
     this.connInfo = cinfo;
     const url = (port: number) => `${cinfo.transport}://${cinfo.ip}:${port}`;
-    this.iopub = new zmq.Publisher();
+    // A publisher drops messages for a subscriber whose queue is full (zeromq's default: 1000
+    // messages). Bursts (thousands of widget echoes, many streams) must not be lost: a larger, still
+    // bounded queue.
+    this.iopub = new zmq.Publisher({ sendHighWaterMark: 100_000 });
     this.shell = new zmq.Router();
     this.stdin = new zmq.Router();
     const data: ControlProcessData = { controlUrl: url(cinfo.control_port), hbUrl: url(cinfo.hb_port), key: cinfo.key };

@@ -8,7 +8,7 @@
  * widget's `outputs` state.
  */
 import { AsyncLocalStorage } from "node:async_hooks";
-import { promisify } from "node:util";
+import { formatWithOptions, promisify } from "node:util";
 import * as vm from "node:vm";
 
 export type MimeBundle = Record<string, unknown>;
@@ -258,4 +258,36 @@ function safeString(v: unknown): string {
   } catch {
     return String(v);
   }
+}
+
+let consoleHooked = false;
+/**
+ * Faster `console.log/info/debug/warn/error` for the kernel: the text is formatted as Node's console
+ * formats it for a pipe (no colours), indented by `console.group`, and handed straight to the
+ * current output context. Node's own console adds an error listener and a write callback per call,
+ * which costs more than the output itself when a cell prints many lines. Other console methods
+ * (table, dir, time, count, trace) keep Node's implementation and reach the same context.
+ */
+export function hookConsole(): void {
+  if (consoleHooked) return;
+  const c = console as unknown as Record<string | symbol, unknown>;
+  const kGroupIndent = Object.getOwnPropertySymbols(console).find((s) => s.description === "kGroupIndent");
+  if (!kGroupIndent) return; // a Node whose console we do not know: keep it as it is
+  consoleHooked = true;
+  const make = (name: "stdout" | "stderr", orig: (s: string) => void) =>
+    function (...args: unknown[]): void {
+      let text = args.length === 1 && typeof args[0] === "string" ? args[0] : formatWithOptions({}, ...args);
+      const indent = c[kGroupIndent];
+      if (typeof indent === "string" && indent.length > 0) text = indent + (text.includes("\n") ? text.replace(/\n/g, `\n${indent}`) : text);
+      const ctx = currentContext();
+      if (ctx) ctx.sink.stream(name, text + "\n");
+      else orig(text + "\n");
+    };
+  const out = make("stdout", realStdout);
+  const err = make("stderr", realStderr);
+  c.log = out;
+  c.info = out;
+  c.debug = out;
+  c.warn = err;
+  c.error = err;
 }
