@@ -41,12 +41,31 @@ type TimerHandle = { ref?: () => unknown } | number;
  */
 export class Work {
   readonly timers = new Set<TimerHandle>();
+  private cancelHooks = new Set<() => void>();
   cancelled = false;
+
+  /** Run `fn` if this work is cancelled (e.g. stop a worker thread it started). Returns a remover. */
+  onCancel(fn: () => void): () => void {
+    this.cancelHooks.add(fn);
+    liveWork.add(this);
+    return () => {
+      this.cancelHooks.delete(fn);
+      if (this.timers.size === 0 && this.cancelHooks.size === 0) liveWork.delete(this);
+    };
+  }
 
   cancel(): void {
     this.cancelled = true;
     for (const t of this.timers) clearAny(t);
     this.timers.clear();
+    for (const fn of this.cancelHooks) {
+      try {
+        fn();
+      } catch {
+        // a hook that fails does not keep the others from running
+      }
+    }
+    this.cancelHooks.clear();
     liveWork.delete(this);
   }
 }
@@ -144,9 +163,13 @@ export function isInterruption(err: unknown): boolean {
   return err instanceof Error && /interrupted by `?SIGINT`?|Interrupted asynchronously/.test(err.message);
 }
 
+function liveWorkCheck(work: Work): void {
+  if ((work as unknown as { cancelHooks: Set<unknown> }).cancelHooks.size === 0) liveWork.delete(work);
+}
+
 function forget(work: Work, handle: TimerHandle): void {
   work.timers.delete(handle);
-  if (work.timers.size === 0) liveWork.delete(work);
+  if (work.timers.size === 0 && !work.cancelled) liveWorkCheck(work);
 }
 
 let timersHooked = false;
