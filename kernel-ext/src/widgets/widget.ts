@@ -202,7 +202,8 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
    * Check one key of a front-end update against the model's declared attributes: the key must be
    * one of the state's own keys (not `_model_*`/`_view_*`), and the value of the kind the state
    * holds (a finite number for a number, a string, a boolean, a list, an object, binary data, a
-   * widget reference). Returns the reason for refusing it, or null. Subclasses add ranges.
+   * widget reference; null for a structured value). Returns the reason for refusing it, or null.
+   * Subclasses add ranges.
    */
   protected checkIncoming(key: string, value: unknown): string | null {
     if (!safeKey(key) || !Object.prototype.hasOwnProperty.call(this.state, key)) return `'${key}' is not an attribute of ${String(this.state._model_name)}`;
@@ -214,7 +215,8 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
       if (got === "number" && !Number.isFinite(value as number)) return `${key} = ${String(value)}: expected a finite number`;
       return null;
     }
-    if (kind === "widget" && got === "null") return null;
+    // Structured values may be cleared (a result, a sweep, a layout); numbers, text and flags may not.
+    if (got === "null" && (kind === "widget" || kind === "object" || kind === "list" || kind === "binary")) return null;
     return `${key} = ${short(value)}: expected ${kind === "widget" ? "a widget reference" : `a ${kind}`}`;
   }
 
