@@ -166,6 +166,8 @@ describe("every request gets a reply", () => {
     ["is_complete_request", { code: ["1"] }, "unknown"],
     ["history_request", { hist_access_type: "nonsense" }, "error"],
     ["history_request", { hist_access_type: "tail", n: -3 }, "error"],
+    ["execute_request", { code: { not: "text" } }, "error"],
+    ["execute_request", { silent: false }, "error"],
   ];
   for (const [type, content, status] of cases) {
     it(`${type} ${JSON.stringify(content)} -> ${status}`, async () => {

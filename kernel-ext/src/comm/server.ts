@@ -332,6 +332,13 @@ export class HelicoidServer extends ZmqServer {
         this.reply(sock, msg, "execute_reply", { status: "aborted", execution_count: this.executionCount });
         return;
       }
+      if (typeof content.code !== "string") {
+        // A request without code text is answered, not run (ipykernel answers it with an error too).
+        const error = { ename: "RangeError", evalue: `code = ${shortJson(content.code)}: expected the code as text`, traceback: [] as string[] };
+        this.publish("error", error, msg.header);
+        this.reply(sock, msg, "execute_reply", { status: "error", execution_count: this.executionCount, ...error });
+        return;
+      }
       const silent = content.silent === true;
       if (!silent && content.store_history !== false) this.executionCount++;
       const count = this.executionCount;
