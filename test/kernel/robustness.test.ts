@@ -138,6 +138,28 @@ describe("widget state from the front end is validated", () => {
     await alive();
   });
 
+  it("refuses a dropdown index outside its options and a text value that is not text", async () => {
+    const from = k.client.iopubMessages.length;
+    await value('import { dropdown, textBox } from "@helicoid/kernel";\nconst dd = dropdown({ options: ["Bloch", "Neel", "mixed"], value: "Neel" });\nconst tb = textBox({ value: "film" });\n[dd.id, tb.id]');
+    const opens = since(from, "comm_open");
+    const ddId = opens.find((m) => m.content.data.state._model_name === "DropdownModel")!.content.comm_id;
+    const tbId = opens.find((m) => m.content.data.state._model_name === "TextModel")!.content.comm_id;
+    for (const bad of [3, -1, 1.5, "1"]) {
+      const msgs = await update(ddId, { index: bad });
+      expect(msgs.find((m) => m.header.msg_type === "comm_msg" && m.content.data.method === "update")?.content.data.state, JSON.stringify(bad)).toEqual({ index: 1 });
+    }
+    await update(ddId, { index: 2 });
+    expect(await value("dd.value")).toBe("'mixed'");
+    for (const bad of [5, null, { a: 1 }]) {
+      const msgs = await update(tbId, { value: bad });
+      expect(msgs.find((m) => m.header.msg_type === "comm_msg" && m.content.data.method === "update")?.content.data.state, JSON.stringify(bad)).toEqual({ value: "film" });
+    }
+    // A key the model does not have is refused, not added.
+    await update(tbId, { not_an_attribute: 1 });
+    expect(await value("'not_an_attribute' in tb.getState()")).toBe("false");
+    await alive();
+  });
+
   it("never follows a buffer path through __proto__, constructor or prototype", async () => {
     for (const path of [["__proto__", "toString"], ["constructor", "prototype", "polluted"], ["__proto__"], ["value", "__proto__", "x"]]) {
       const msgs = await update(cid, {}, { buffer_paths: [path], buffers: [Buffer.from([1, 2, 3])] });
