@@ -5,7 +5,7 @@
  * Frames: [identities..., "<IDS|MSG>", hmac, header, parent_header, metadata, content, ...buffers].
  * The HMAC (hmac-sha256 with the connection key) covers the four JSON frames only.
  */
-import { createHmac, randomUUID, timingSafeEqual } from "node:crypto";
+import { createHmac, createSecretKey, randomUUID, timingSafeEqual, type KeyObject } from "node:crypto";
 
 export const DELIMITER = Buffer.from("<IDS|MSG>");
 export const PROTOCOL_VERSION = "5.3";
@@ -36,9 +36,16 @@ export class WireError extends Error {
   override readonly name = "WireError";
 }
 
+/** The connection key as a key object, made once per key (not once per message). */
+let cachedKey: { text: string; key: KeyObject } | null = null;
+function keyObject(key: string): KeyObject {
+  if (cachedKey?.text !== key) cachedKey = { text: key, key: createSecretKey(Buffer.from(key, "utf8")) };
+  return cachedKey.key;
+}
+
 export function sign(key: string, frames: Array<Buffer | string>): string {
   if (!key) return "";
-  const h = createHmac("sha256", key);
+  const h = createHmac("sha256", keyObject(key));
   for (const f of frames) h.update(f);
   return h.digest("hex");
 }
