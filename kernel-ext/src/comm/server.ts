@@ -34,6 +34,7 @@ import {
   reportError,
   runInContext,
   setFallbackContext,
+  setInterruptHandler,
   Work,
   type MimeBundle,
   type OutputContext,
@@ -113,6 +114,7 @@ export class HelicoidServer extends ZmqServer {
     hookProcessStreams();
     hookConsole();
     hookTimers();
+    setInterruptHandler(() => session.interrupt());
     resetPlotlyEmbedding();
   }
 
@@ -460,7 +462,7 @@ export class HelicoidServer extends ZmqServer {
           else comms.handleClose(msg.content, incoming);
         });
       } catch (err) {
-        if (isInterruption(err)) cancelAllWork();
+        if (isInterruption(err)) this.session.interrupt();
         reportError(err, ctx.sink);
       }
     });

@@ -158,6 +158,19 @@ export function interruptibly<T>(fn: () => T): T {
   }
 }
 
+let interruptAll: () => void = () => void cancelAllWork();
+/**
+ * What an interrupt does (the kernel sets it: interrupt the running cell and cancel pending work).
+ * Called also when SIGINT stopped a callback or timer: the signal is then consumed by that code, and
+ * the cell that may be awaiting must be interrupted as well.
+ */
+export function setInterruptHandler(fn: () => void): void {
+  interruptAll = fn;
+}
+export function interruptEverything(): void {
+  interruptAll();
+}
+
 /** Is `err` the error of code stopped by SIGINT (tslab's cells, `interruptibly`)? */
 export function isInterruption(err: unknown): boolean {
   return err instanceof Error && /interrupted by `?SIGINT`?|Interrupted asynchronously/.test(err.message);
@@ -196,7 +209,7 @@ export function hookTimers(): void {
         try {
           interruptibly(() => (cb as (...a: unknown[]) => unknown).apply(this, args));
         } catch (err) {
-          if (isInterruption(err)) cancelAllWork();
+          if (isInterruption(err)) interruptEverything();
           reportError(err, ctx.sink);
         }
       };
