@@ -15,3 +15,4 @@ export { readVectorFieldFile, type FileReadOptions } from "./io/readFieldFile.js
 export { parallelSkyrmionNumber, closeChargeWorkers, type ParallelChargeResult } from "./parallel/parallelSkyrmionNumber.js";
 export { runNotebookFile, type RunResult } from "./notebook/runner.js";
 export { parallelChernNumbers, closeChernWorkers, type ParallelChernOptions } from "./parallel/parallelChernNumbers.js";
+export { computeInWorker, type WorkerComputeOptions } from "./parallel/computeInWorker.js";

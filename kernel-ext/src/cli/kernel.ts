@@ -3,7 +3,7 @@
  * by `helicoid install`). Assembles tslab's executor and our server directly.
  */
 import { HelicoidServer } from "../comm/server.js";
-import { realStderr } from "../display/output.js";
+import { currentContext, realStderr, reportError } from "../display/output.js";
 import { ExecutionSession } from "../notebook/session.js";
 import { parseArgs, type CommandIO } from "./args.js";
 
@@ -18,8 +18,20 @@ export async function kernelCommand(args: string[], io: CommandIO): Promise<numb
   session.warm();
   const server = new HelicoidServer(session, file);
   process.on("SIGINT", () => session.interrupt());
-  process.on("uncaughtException", (err) => realStderr(`[helicoid] uncaught exception: ${err?.stack ?? String(err)}\n`));
-  process.on("unhandledRejection", (reason) => realStderr(`[helicoid] unhandled rejection: ${(reason as Error)?.stack ?? String(reason)}\n`));
+  // Errors thrown later by a cell's code (a rejected promise, an event handler) are shown as an error
+  // output under the current cell; the kernel goes on. (Timer errors are caught in their own cell.)
+  process.on("uncaughtException", (err) => showLateError(err, "uncaught exception"));
+  process.on("unhandledRejection", (reason) => showLateError(reason, "unhandled promise rejection"));
   await server.init();
   return new Promise<number>(() => {}); // runs until shutdown_request or a signal ends the process
+}
+
+function showLateError(err: unknown, what: string): void {
+  try {
+    const ctx = currentContext();
+    if (ctx) reportError(err, ctx.sink);
+    else realStderr(`[helicoid] ${what}: ${(err as Error)?.stack ?? String(err)}\n`);
+  } catch (e) {
+    realStderr(`[helicoid] ${what} (could not be shown: ${String(e)})\n`);
+  }
 }

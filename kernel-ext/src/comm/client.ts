@@ -84,6 +84,8 @@ export class KernelClient {
     const url = (p: number) => `tcp://${this.conn.ip}:${p}`;
     this.shell.connect(url(this.conn.shell_port));
     this.control.connect(url(this.conn.control_port));
+    // Keep every iopub message (a benchmark sends thousands quickly; the default high-water mark drops).
+    this.iopub.receiveHighWaterMark = 0;
     this.iopub.connect(url(this.conn.iopub_port));
     this.iopub.subscribe();
     void this.pump(this.shell, (m) => this.replies.get(m.parent_header.msg_id)?.(m));

@@ -5,7 +5,7 @@
  * Frames: [identities..., "<IDS|MSG>", hmac, header, parent_header, metadata, content, ...buffers].
  * The HMAC (hmac-sha256 with the connection key) covers the four JSON frames only.
  */
-import { createHmac, randomUUID, timingSafeEqual } from "node:crypto";
+import { createHmac, createSecretKey, randomUUID, timingSafeEqual, type KeyObject } from "node:crypto";
 
 export const DELIMITER = Buffer.from("<IDS|MSG>");
 export const PROTOCOL_VERSION = "5.3";
@@ -27,6 +27,8 @@ export interface Message<C = Record<string, unknown>> {
   metadata: Record<string, unknown>;
   content: C;
   buffers: Buffer[];
+  /** The HMAC signature it arrived with (received messages only). */
+  signature?: string;
 }
 
 /** A message that could not be read: bad framing, bad JSON or a bad signature. */
@@ -34,9 +36,16 @@ export class WireError extends Error {
   override readonly name = "WireError";
 }
 
+/** The connection key as a key object, made once per key (not once per message). */
+let cachedKey: { text: string; key: KeyObject } | null = null;
+function keyObject(key: string): KeyObject {
+  if (cachedKey?.text !== key) cachedKey = { text: key, key: createSecretKey(Buffer.from(key, "utf8")) };
+  return cachedKey.key;
+}
+
 export function sign(key: string, frames: Array<Buffer | string>): string {
   if (!key) return "";
-  const h = createHmac("sha256", key);
+  const h = createHmac("sha256", keyObject(key));
   for (const f of frames) h.update(f);
   return h.digest("hex");
 }
@@ -71,7 +80,36 @@ export function parseMessage(key: string, frames: Buffer[]): Message {
     metadata: metadata && typeof metadata === "object" ? metadata : {},
     content: content && typeof content === "object" ? content : {},
     buffers: frames.slice(d + 6),
+    signature,
   };
+}
+
+/**
+ * Replay protection, as ipykernel does it: the signatures of the last `capacity` messages are
+ * remembered and a message whose signature was already seen is dropped. A signed message copied
+ * off the wire and sent again therefore runs once. Bounded: the oldest signature is forgotten first.
+ */
+export class ReplayGuard {
+  private seen = new Set<string>();
+  constructor(readonly capacity = 4096) {}
+
+  /** True the first time a signature is seen; false for a replay. Empty signatures (no key) always pass. */
+  admit(signature: string): boolean {
+    if (!signature) return true;
+    if (this.seen.has(signature)) return false;
+    this.seen.add(signature);
+    if (this.seen.size > this.capacity) {
+      const oldest = this.seen.values().next().value as string;
+      this.seen.delete(oldest);
+    }
+    return true;
+  }
+}
+
+/** The signature frame of raw frames (empty when there is none). */
+export function signatureOf(frames: Buffer[]): string {
+  const d = frames.findIndex((f) => f.equals(DELIMITER));
+  return d >= 0 && frames.length > d + 1 ? frames[d + 1]!.toString("ascii") : "";
 }
 
 /** The session id of this kernel process, used in the headers of the messages it sends. */

@@ -6,11 +6,12 @@
  * - compile diagnostics and uncaught exceptions -> one `error` output (ename, evalue, traceback).
  */
 import { format } from "node:util";
-import { createConverter, type Converter } from "tslab/dist/converter";
+import type { Converter } from "tslab/dist/converter";
 import { createExecutor, type ConverterSet, type Executor } from "tslab/dist/executor";
 import { bundleOf } from "../display/display.js";
-import { currentContext, describeError, runInContext, type OutputContext } from "../display/output.js";
+import { cancelAllWork, currentContext, describeError, isInterruption, runInContext, type OutputContext } from "../display/output.js";
 import { exposeOwnPackages } from "./ownPackages.js";
+import { loadConverterModule } from "./patchedConverter.js";
 
 export interface CellError {
   ename: string;
@@ -27,10 +28,10 @@ class Converters implements ConverterSet {
   private _node?: Converter;
   private _browser?: Converter;
   get node(): Converter {
-    return (this._node ??= createConverter({ isJS: false, isBrowser: false }));
+    return (this._node ??= loadConverterModule().createConverter({ isJS: false, isBrowser: false }));
   }
   get browser(): Converter {
-    return (this._browser ??= createConverter({ isJS: false, isBrowser: true }));
+    return (this._browser ??= loadConverterModule().createConverter({ isJS: false, isBrowser: true }));
   }
   close(): void {
     this._node?.close();
@@ -78,6 +79,8 @@ export class ExecutionSession {
       this.exception = { value: err };
     }
     if (ok) return { ok: true };
+    // An interrupted cell also stops the timers and intervals that cells and callbacks started.
+    if (this.exception && isInterruption(this.exception.value)) cancelAllWork();
     const error = this.exception
       ? describeError(this.exception.value)
       : { ename: "CompileError", evalue: this.diagnostics.join("; ") || "the cell did not compile", traceback: this.diagnostics };
@@ -85,8 +88,10 @@ export class ExecutionSession {
     return { ok: false, error };
   }
 
+  /** Interrupt the running cell (its awaited promise) and cancel pending timers of all requests. */
   interrupt(): void {
     this.executor.interrupt();
+    cancelAllWork();
   }
 
   close(): void {

@@ -42,18 +42,37 @@ export function removeBuffers(state: Record<string, unknown>): {
   return { state: out, buffer_paths, buffers };
 }
 
-/** Put buffers back into a received state at their paths (mutates `state`, which is ours). */
-export function putBuffers(state: Record<string, unknown>, paths: unknown, buffers: Buffer[]): void {
-  if (!Array.isArray(paths)) return;
+/** Path segments never followed or written: they reach prototypes instead of the state's own data. */
+const FORBIDDEN = new Set(["__proto__", "constructor", "prototype"]);
+
+/** Is `seg` a key we may follow in a received state (an own-data key, not a prototype route)? */
+export function safeKey(seg: unknown): seg is string | number {
+  if (typeof seg === "number") return Number.isInteger(seg) && seg >= 0;
+  return typeof seg === "string" && !FORBIDDEN.has(seg);
+}
+
+/**
+ * Put buffers back into a received state at their paths (mutates `state`, which is ours).
+ * Only own properties are followed, never `__proto__`, `constructor` or `prototype`; a path that
+ * does not lead to an own object of the state is skipped and listed in the returned problems.
+ */
+export function putBuffers(state: Record<string, unknown>, paths: unknown, buffers: Buffer[]): string[] {
+  const problems: string[] = [];
+  if (paths === undefined || paths === null) return problems;
+  if (!Array.isArray(paths)) return ["buffer_paths is not a list"];
   paths.forEach((path, i) => {
-    if (!Array.isArray(path) || path.length === 0 || i >= buffers.length) return;
+    if (!Array.isArray(path) || path.length === 0) return void problems.push(`buffer path ${i} is not a non-empty list`);
+    if (i >= buffers.length) return void problems.push(`buffer path ${JSON.stringify(path)} has no buffer`);
+    if (!path.every(safeKey)) return void problems.push(`buffer path ${JSON.stringify(path)} refused (only own keys and list indices are followed)`);
     let obj: Record<string | number, unknown> = state;
     for (let j = 0; j < path.length - 1; j++) {
-      const next = obj[path[j] as string];
-      if (!next || typeof next !== "object") return;
+      const seg = path[j] as string | number;
+      const next = Object.prototype.hasOwnProperty.call(obj, seg) ? obj[seg] : undefined;
+      if (!next || typeof next !== "object" || ArrayBuffer.isView(next)) return void problems.push(`buffer path ${JSON.stringify(path)} does not lead into the state`);
       obj = next as Record<string | number, unknown>;
     }
     const b = buffers[i]!;
-    obj[path[path.length - 1] as string] = new DataView(b.buffer, b.byteOffset, b.byteLength);
+    Object.defineProperty(obj, path[path.length - 1] as string, { value: new DataView(b.buffer, b.byteOffset, b.byteLength), enumerable: true, writable: true, configurable: true });
   });
+  return problems;
 }

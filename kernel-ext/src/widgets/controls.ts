@@ -77,7 +77,18 @@ export interface SliderOptions {
 
 type SliderState = DescriptionState & { value: number; min: number; max: number; step: number };
 
+/** min <= max and, for a control that steps, step > 0: the checks of a front-end update. */
+function checkBounds(next: WidgetState, steps: boolean): string | null {
+  const { min, max, step } = next as { min: number; max: number; step: number };
+  if (min > max) return `min = ${min} > max = ${max}: expected min <= max`;
+  if (steps && !(step > 0)) return `step = ${step}: expected a number > 0`;
+  return null;
+}
+
 abstract class BoundedNumber extends ValueWidget<number, SliderState> {
+  protected override checkCombined(next: WidgetState): string | null {
+    return checkBounds(next, this.get("step") > 0);
+  }
   protected override coerce(key: string, value: unknown): unknown {
     if (key === "value" && typeof value === "number") {
       const min = this.get("min");
@@ -162,6 +173,11 @@ export class FloatLogSlider extends ValueWidget<number, SliderState & { base: nu
       ...sliderLook(o, ".3g"),
     });
   }
+  protected override checkCombined(next: WidgetState): string | null {
+    const base = next.base as number;
+    if (!(base > 0 && base !== 1)) return `base = ${base}: expected a number > 0 other than 1`;
+    return checkBounds(next, true);
+  }
   protected override coerce(key: string, value: unknown): unknown {
     if (key === "value" && typeof value === "number") {
       const b = this.get("base");
@@ -223,6 +239,14 @@ export class Dropdown<T = string> extends DomWidget<DescriptionState & { _option
     const i = this.options.findIndex((x) => x.value === v);
     if (i < 0) throw new RangeError(`dropdown: value ${JSON.stringify(v)} is not one of the options`);
     this.set({ index: i });
+  }
+  protected override checkIncoming(key: string, value: unknown): string | null {
+    if (key === "index" && value !== null && !(Number.isInteger(value) && (value as number) >= 0 && (value as number) < this.options.length)) {
+      return `index = ${JSON.stringify(value) ?? String(value)}: expected a whole number from 0 to ${this.options.length - 1}`;
+    }
+    if (key === "index" && value === null) return null;
+    if (key === "_options_labels") return "'_options_labels' is fixed by the kernel";
+    return super.checkIncoming(key, value);
   }
   protected override coerce(key: string, value: unknown): unknown {
     if (key === "index" && typeof value === "number") return Math.max(0, Math.min(this.options.length - 1, Math.round(value)));

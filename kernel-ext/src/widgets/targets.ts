@@ -6,7 +6,7 @@
  *   can be closed) and answer `request_state` with the state it was opened with.
  */
 import { comms } from "../comm/comms.js";
-import { removeBuffers, type Path } from "./buffers.js";
+import { removeBuffers, safeKey, type Path } from "./buffers.js";
 import { openWidgets } from "./widget.js";
 
 export const CONTROL_TARGET = "jupyter.widget.control";
@@ -38,9 +38,15 @@ export function registerWidgetTargets(): void {
     });
   });
   comms.registerTarget("jupyter.widget", (comm, open) => {
-    const state = (open.data.state && typeof open.data.state === "object" ? open.data.state : {}) as Record<string, unknown>;
+    // Own keys only, into a prototype-free object: a "__proto__" key is data, never a prototype.
+    const state: Record<string, unknown> = Object.create(null);
+    const take = (src: unknown) => {
+      if (!src || typeof src !== "object" || Array.isArray(src)) return;
+      for (const k of Object.keys(src)) if (safeKey(k)) state[k] = (src as Record<string, unknown>)[k];
+    };
+    take(open.data.state);
     comm.onMessage((msg) => {
-      if (msg.data.method === "update" && msg.data.state && typeof msg.data.state === "object") Object.assign(state, msg.data.state);
+      if (msg.data.method === "update") take(msg.data.state);
       if (msg.data.method === "request_state") {
         const s = removeBuffers(state);
         comm.send({ method: "update", state: s.state, buffer_paths: s.buffer_paths }, {}, s.buffers);

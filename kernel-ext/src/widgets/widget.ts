@@ -15,7 +15,7 @@
 import { comms, type Comm, type IncomingComm } from "../comm/comms.js";
 import { mimeBundle, type Displayable } from "../display/bundle.js";
 import { currentContext, reportError, runInContext, type MimeBundle, type OutputSink } from "../display/output.js";
-import { putBuffers, removeBuffers } from "./buffers.js";
+import { putBuffers, removeBuffers, safeKey } from "./buffers.js";
 
 export const WIDGET_PROTOCOL_VERSION = "2.1.0";
 export const WIDGET_TARGET = "jupyter.widget";
@@ -112,6 +112,11 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
     return this.comm.closed;
   }
 
+  /** Values (widgets, binary) in the protocol's form. */
+  private serializedFrom(values: WidgetState): ReturnType<typeof removeBuffers> {
+    return removeBuffers(serializeValue(values) as WidgetState);
+  }
+
   /** The state as the protocol carries it: JSON part, buffer paths and buffers. */
   serializedState(keys?: string[]): ReturnType<typeof removeBuffers> {
     const picked: WidgetState = {};
@@ -193,25 +198,80 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
     else run();
   }
 
+  /**
+   * Check one key of a front-end update against the model's declared attributes: the key must be
+   * one of the state's own keys (not `_model_*`/`_view_*`), and the value of the kind the state
+   * holds (a finite number for a number, a string, a boolean, a list, an object, binary data, a
+   * widget reference; null for a structured value). Returns the reason for refusing it, or null.
+   * Subclasses add ranges.
+   */
+  protected checkIncoming(key: string, value: unknown): string | null {
+    if (!safeKey(key) || !Object.prototype.hasOwnProperty.call(this.state, key)) return `'${key}' is not an attribute of ${String(this.state._model_name)}`;
+    if (/^_(model|view)_/.test(key)) return `'${key}' is fixed by the kernel`;
+    const cur = this.state[key];
+    const kind = kindOf(cur);
+    const got = kindOf(value);
+    if (kind === "null" || kind === got) {
+      if (got === "number" && !Number.isFinite(value as number)) return `${key} = ${String(value)}: expected a finite number`;
+      return null;
+    }
+    // Structured values may be cleared (a result, a sweep, a layout); numbers, text and flags may not.
+    if (got === "null" && (kind === "widget" || kind === "object" || kind === "list" || kind === "binary")) return null;
+    return `${key} = ${short(value)}: expected ${kind === "widget" ? "a widget reference" : `a ${kind}`}`;
+  }
+
+  /** Cross-attribute checks of the state an update would give (e.g. min <= max). Null when fine. */
+  protected checkCombined(_next: WidgetState): string | null {
+    return null;
+  }
+
   private handleMessage(msg: IncomingComm): void {
     const data = msg.data;
     const method = data.method;
     if (method === "update") {
-      const incoming = (data.state && typeof data.state === "object" ? { ...(data.state as WidgetState) } : null);
-      if (!incoming) {
+      const raw = data.state && typeof data.state === "object" && !Array.isArray(data.state) ? (data.state as WidgetState) : null;
+      if (!raw) {
         reportError(new Error(`widget ${this.id}: update without a state object ignored`));
         return;
       }
-      putBuffers(incoming, data.buffer_paths, msg.buffers);
-      // Protocol 2.1: echo what we received, at once, to every front end.
-      const echo = removeBuffers(incoming);
-      this.comm.send({ method: "echo_update", state: echo.state, buffer_paths: echo.buffer_paths }, {}, echo.buffers);
-      const decoded: WidgetState = {};
-      for (const [k, v] of Object.entries(incoming)) decoded[k] = deserializeValue(v);
+      // Own keys only, copied into a prototype-free object (a "__proto__" key stays a plain key).
+      const incoming: WidgetState = Object.create(null);
+      for (const k of Object.keys(raw)) incoming[k] = raw[k];
+      const problems = putBuffers(incoming, data.buffer_paths, msg.buffers);
+      const accepted: WidgetState = {};
+      const rejected: string[] = [];
+      for (const k of Object.keys(incoming)) {
+        const v = deserializeValue(incoming[k]);
+        const why = this.checkIncoming(k, v);
+        if (why) {
+          problems.push(why);
+          if (safeKey(k) && Object.prototype.hasOwnProperty.call(this.state, k)) rejected.push(k);
+        } else accepted[k] = v;
+      }
+      if (Object.keys(accepted).length > 0) {
+        const why = this.checkCombined({ ...this.state, ...accepted });
+        if (why) {
+          problems.push(why);
+          for (const k of Object.keys(accepted)) rejected.push(k);
+          for (const k of Object.keys(accepted)) delete accepted[k];
+        }
+      }
+      // Protocol 2.1: echo what we accepted, at once, to every front end.
+      if (Object.keys(accepted).length > 0) {
+        const echo = this.serializedFrom(accepted);
+        this.comm.send({ method: "echo_update", state: echo.state, buffer_paths: echo.buffer_paths }, {}, echo.buffers);
+      }
+      // A refused value is answered with the kernel's state of those keys, as ipywidgets does.
+      if (rejected.length > 0) {
+        const { state, buffer_paths, buffers } = this.serializedState([...new Set(rejected)]);
+        this.comm.send({ method: "update", state, buffer_paths }, {}, buffers);
+      }
+      if (problems.length > 0) reportError(new WidgetStateError(`widget ${this.id} (${String(this.state._model_name)}): refused from the front end: ${problems.join("; ")}`));
+      if (Object.keys(accepted).length === 0) return;
       // A received value is not sent back; if coercion or an observer changes it, the change is sent.
-      this.lockedValues = Object.fromEntries(Object.keys(decoded).map((k) => [k, fingerprint(decoded[k])]));
+      this.lockedValues = Object.fromEntries(Object.keys(accepted).map((k) => [k, fingerprint(accepted[k])]));
       try {
-        this.applyChanges(decoded);
+        this.applyChanges(accepted);
       } finally {
         this.lockedValues = null;
       }
@@ -225,6 +285,34 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
       reportError(new Error(`widget ${this.id}: unknown method ${JSON.stringify(method)} ignored`));
     }
   }
+}
+
+/** A widget state update from the front end was refused (wrong kind, out of range, bad buffer path). */
+export class WidgetStateError extends Error {
+  override readonly name = "WidgetStateError";
+}
+
+type Kind = "null" | "number" | "string" | "boolean" | "list" | "object" | "binary" | "widget" | "other";
+function kindOf(v: unknown): Kind {
+  if (v === null || v === undefined) return "null";
+  if (typeof v === "number") return "number";
+  if (typeof v === "string") return "string";
+  if (typeof v === "boolean") return "boolean";
+  if (Array.isArray(v)) return "list";
+  if (v instanceof Widget) return "widget";
+  if (ArrayBuffer.isView(v) || v instanceof ArrayBuffer) return "binary";
+  if (typeof v === "object") return "object";
+  return "other";
+}
+
+function short(v: unknown): string {
+  let t: string;
+  try {
+    t = typeof v === "string" ? JSON.stringify(v) : (JSON.stringify(v) ?? String(v));
+  } catch {
+    t = String(v);
+  }
+  return t.length > 80 ? `${t.slice(0, 77)}...` : t;
 }
 
 function teeSink(a: OutputSink, b: OutputSink): OutputSink {

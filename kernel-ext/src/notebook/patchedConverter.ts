@@ -1,0 +1,43 @@
+/**
+ * tslab's TypeScript-to-JavaScript cell converter, loaded with one fix applied to its source.
+ *
+ * TypeScript keeps identifiers that begin with two underscores in an escaped form inside symbol
+ * tables (`__k` is stored as `___k`). tslab 1.0.22 collects a cell's declarations from those tables
+ * and writes the escaped names back into source (`export { ___k }`, `let ___k: any;`), so
+ * `const __k = 1; __k + 1` fails with "Cannot find name '___k'". Here the names are unescaped with
+ * `ts.unescapeLeadingUnderscores` where tslab turns them into text. The converter module is compiled
+ * from tslab's own file (same folder, same dependencies); each edit must match exactly once, so a
+ * different tslab release fails loudly here instead of silently running unpatched.
+ */
+import Module from "node:module";
+import { readFileSync } from "node:fs";
+import { dirname } from "node:path";
+import type * as converterModule from "tslab/dist/converter";
+
+const edits: Array<[string, string]> = [
+  // The names of a cell's locals, exported so the next cell sees them.
+  ["keys.add(key);", "keys.add(ts.unescapeLeadingUnderscores(key));"],
+  // Declarations of values whose type was redeclared.
+  ["anyVarsDecls.push(`let ${name}: any;\\n`);", "anyVarsDecls.push(`let ${ts.unescapeLeadingUnderscores(name)}: any;\\n`);"],
+];
+
+let cached: typeof converterModule | null = null;
+
+export function loadConverterModule(): typeof converterModule {
+  if (cached) return cached;
+  const file = require.resolve("tslab/dist/converter");
+  let source = readFileSync(file, "utf8");
+  for (const [from, to] of edits) {
+    const n = source.split(from).length - 1;
+    if (n !== 1) throw new Error(`tslab converter patch: expected one '${from}' in ${file}, found ${n} (tslab changed?)`);
+    source = source.replace(from, () => to);
+  }
+  type InternalModule = Module & { _compile(code: string, filename: string): void; paths: string[] };
+  const Ctor = Module as unknown as { new (id: string, parent?: unknown): InternalModule; _nodeModulePaths(dir: string): string[] };
+  const mod = new Ctor(file, module);
+  mod.filename = file;
+  mod.paths = Ctor._nodeModulePaths(dirname(file));
+  mod._compile(source, file);
+  cached = mod.exports as typeof converterModule;
+  return cached;
+}
