@@ -120,7 +120,7 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
     ensureLabFrontend((s) => io.stdout(s));
   } catch (err) {
     io.stderr(`helicoid lab: cannot prepare Helicoid's front end: ${(err as Error).message}\n` +
-      "It ships with the Helicoid repository (lab-frontend/). Alternatively install JupyterLab 4 with the widget manager\n" +
+      "It ships with the Helicoid repository (lab-frontend/) and inside @helicoid/kernel. Alternatively install JupyterLab 4 with the widget manager\n" +
       "(for example `pipx install jupyterlab` and `pipx inject jupyterlab jupyterlab_widgets`) and run `helicoid lab` again.\n");
     return 1;
   }

@@ -12,10 +12,31 @@
  */
 import { spawnSync } from "node:child_process";
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, statSync, symlinkSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { homedir, tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 
-export const labFrontendDir = resolve(__dirname, "..", "..", "..", "lab-frontend");
+/**
+ * Where the front end is built and served from: lab-frontend/ of a checkout; in an installed
+ * package, a copy of the sources it ships (lab-frontend/, written at prepack) in the user's cache
+ * folder, since a global install's folder may not be writable and the build needs ~360 MB.
+ */
+export const labFrontendDir = ((): string => {
+  const inCheckout = resolve(__dirname, "..", "..", "..", "lab-frontend");
+  if (existsSync(join(inCheckout, "package.json"))) return inCheckout;
+  const cache = process.env.XDG_CACHE_HOME || join(homedir(), ".cache");
+  return join(cache, "helicoid", `lab-frontend-${packageVersion()}`);
+})();
+
+/** The front end's sources shipped inside an installed @helicoid/kernel (absent in a checkout). */
+const shippedSources = resolve(__dirname, "..", "..", "lab-frontend");
+
+function packageVersion(): string {
+  try {
+    return (JSON.parse(readFileSync(resolve(__dirname, "..", "..", "package.json"), "utf8")) as { version?: string }).version ?? "0";
+  } catch {
+    return "0";
+  }
+}
 
 export interface FederatedExtension { name: string; load: string; extension: string; style?: string }
 
@@ -43,6 +64,11 @@ export function labFrontendState(dir = labFrontendDir): { present: boolean; inst
  * build it when its bundle is missing or older than its sources. Says what it does on `log`.
  */
 export function ensureLabFrontend(log: (s: string) => void, dir = labFrontendDir): void {
+  if (!existsSync(join(dir, "package.json")) && dir === labFrontendDir && existsSync(join(shippedSources, "package.json"))) {
+    log(`copying the front end's sources to ${dir}\n`);
+    mkdirSync(dir, { recursive: true });
+    cpSync(shippedSources, dir, { recursive: true });
+  }
   const s = labFrontendState(dir);
   if (!s.present) throw new Error(`the front end's sources are missing: ${dir} has no package.json/package-lock.json`);
   if (!s.installed) {
