@@ -1,4 +1,4 @@
-import { accessSync, constants as fsConstants, statSync } from "node:fs";
+import { accessSync, closeSync, constants as fsConstants, openSync, statSync, unlinkSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { realStderr, realStdout } from "../display/output.js";
 
@@ -135,9 +135,11 @@ export function inputFileReason(path: string): string | null {
  */
 export function outputFileProblem(path: string): string | null {
   const full = resolve(path);
+  // The test is a real open for writing (access() says yes to root for any file): an existing file
+  // is opened without truncating it, a new one is created and removed again.
   try {
     if (statSync(full).isDirectory()) return `${path}: it is a directory, not a file name`;
-    accessSync(full, fsConstants.W_OK);
+    closeSync(openSync(full, "r+"));
     return null;
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code !== "ENOENT") return fileProblem(path, err);
@@ -145,13 +147,31 @@ export function outputFileProblem(path: string): string | null {
   const dir = dirname(full);
   try {
     if (!statSync(dir).isDirectory()) return `${path}: ${dir} is not a directory`;
-    accessSync(dir, fsConstants.W_OK);
+    closeSync(openSync(full, "wx"));
+    unlinkSync(full);
     return null;
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return `${path}: the directory ${dir} does not exist`;
     if (code === "EACCES" || code === "EPERM" || code === "EROFS") return `${path}: the directory ${dir} is not writable`;
     return fileProblem(path, err);
+  }
+}
+
+/** A long value for one line of a message: over 200 characters, its first 80 and last 20 with the length. */
+export function shorten(text: unknown, max = 200): string {
+  const oneLine = String(text).replace(/\s*\n\s*/g, " ");
+  return oneLine.length <= max ? oneLine : `${oneLine.slice(0, 80)}…${oneLine.slice(-20)} (${oneLine.length} characters)`;
+}
+
+/** Is the output path `out` the input file `input` itself (same device and inode: links count)? */
+export function isSameFile(out: string, input: string): boolean {
+  try {
+    const a = statSync(out);
+    const b = statSync(input);
+    return a.dev === b.dev && a.ino === b.ino;
+  } catch {
+    return false;
   }
 }
 

@@ -14,7 +14,8 @@
  *   helicoid fit --series FILE@FIELD ... --film ...   A, D (Ku) from profiles at several fields
  */
 import { KERNEL_VERSION } from "../version.js";
-import { processIO, UsageError, type CommandIO } from "./args.js";
+import { describeError } from "../display/output.js";
+import { processIO, shorten, UsageError, type CommandIO } from "./args.js";
 
 type Command = (args: string[], io: CommandIO) => Promise<number>;
 
@@ -66,7 +67,10 @@ export async function main(argv: string[], io: CommandIO = processIO): Promise<n
       io.stderr(`helicoid ${name}: ${err.message}\n`);
       return 2;
     }
-    io.stderr(`helicoid ${name}: ${(err as Error)?.stack ?? String(err)}\n`);
+    // One line, never a stack trace (HELICOID_DEBUG=1 shows it).
+    const { ename, evalue, traceback } = describeError(err);
+    io.stderr(`helicoid ${name}: ${ename}: ${shorten(evalue)}\n`);
+    if (process.env.HELICOID_DEBUG) io.stderr(traceback.join("\n") + "\n");
     return 1;
   }
 }

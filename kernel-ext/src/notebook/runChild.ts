@@ -1,0 +1,56 @@
+/**
+ * The process that executes a notebook for `helicoid run` (started by cli/run.ts with an IPC
+ * channel). It tells its parent when each cell starts and what each cell printed, so the parent
+ * can stop a cell that runs past its time limit (SIGINT, then SIGKILL) and still write everything
+ * the run produced. Messages: {t: "cell", index, count}, {t: "outputs", index, outputs},
+ * {t: "done", notebook, failure, cellsRun, seconds}, {t: "fatal", message}.
+ */
+import { readFileSync } from "node:fs";
+import { dirname, resolve } from "node:path";
+import { parseNotebook } from "./nbformat.js";
+import { runNotebook, type Output } from "./runner.js";
+
+const realExit = process.exit.bind(process);
+const send = (m: unknown): Promise<void> => new Promise((r) => (process.send ? process.send(m, undefined, {}, () => r()) : r()));
+
+async function main(): Promise<void> {
+  const [input, timeout, settle] = process.argv.slice(2);
+  const file = resolve(input!);
+  const nb = parseNotebook(readFileSync(file, "utf8"), input!);
+  const dir = dirname(file);
+  process.chdir(dir);
+  // What a cell printed goes to the parent at most every 100 ms (and in full when the cell ends).
+  let pending: { index: number; outputs: Output[] } | null = null;
+  let lastSent = 0;
+  let timer: NodeJS.Timeout | null = null;
+  const flush = () => {
+    timer = null;
+    if (!pending) return;
+    lastSent = performance.now();
+    void send({ t: "outputs", index: pending.index, outputs: pending.outputs });
+    pending = null;
+  };
+  const r = await runNotebook(nb, dir, {
+    timeoutSeconds: Number(timeout) || 0,
+    settleMs: Number(settle) || 0,
+    cellStarted: (index, count) => {
+      flush();
+      void send({ t: "cell", index, count });
+    },
+    outputsChanged: (index, outputs) => {
+      if (pending && pending.index !== index) flush();
+      pending = { index, outputs };
+      if (performance.now() - lastSent > 100) flush();
+      else timer ??= setTimeout(flush, 100);
+    },
+  });
+  if (timer) clearTimeout(timer);
+  flush();
+  await send({ t: "done", notebook: r.notebook, failure: r.failure, cellsRun: r.cellsRun, seconds: r.seconds });
+  realExit(0);
+}
+
+main().catch(async (err) => {
+  await send({ t: "fatal", message: String((err as Error)?.message ?? "the notebook could not be run").slice(0, 2000) });
+  realExit(2);
+});
