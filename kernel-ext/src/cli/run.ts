@@ -2,8 +2,8 @@ import { fork } from "node:child_process";
 import { readFileSync, writeFileSync } from "node:fs";
 import { dirname, join, resolve } from "node:path";
 import { NotebookError, parseNotebook, type Notebook } from "../notebook/nbformat.js";
-import { sameFile, type Output, type RunFailure } from "../notebook/runner.js";
-import { fileReason, inputFileReason, outputFileProblem, parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
+import type { Output, RunFailure } from "../notebook/runner.js";
+import { fileReason, inputFileReason, isSameFile as sameFile, outputFileProblem, parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
 
 export const runUsage =
   "helicoid run NOTEBOOK [-o OUT.ipynb] [--timeout SECONDS] [--quiet]   execute a notebook in process (no Jupyter needed)\n" +
