@@ -7,6 +7,8 @@ export interface ParsedArgs {
   positional: string[];
   flags: Set<string>;
   options: Map<string, string>;
+  /** Every value of each repeatable option, in order (`--start a=1 --start b=2`). */
+  lists: Map<string, string[]>;
 }
 
 export class UsageError extends Error {
@@ -15,7 +17,7 @@ export class UsageError extends Error {
 
 /** `valued` lists options that take a value (`-o OUT`, `--prefix DIR`, `--port=8000`). */
 export function parseArgs(args: string[], valued: string[] = []): ParsedArgs {
-  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map() };
+  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map(), lists: new Map() };
   for (let i = 0; i < args.length; i++) {
     const a = args[i]!;
     if (a === "--") {
@@ -55,10 +57,16 @@ export const processIO: CommandIO = {
 export interface StrictSpec {
   flags: string[];
   valued: Record<string, string>;
+  /** Valued options that may be given more than once (their values are in `lists`). */
+  repeatable?: string[];
+  /** Groups of names of one option (`["-m", "--model"]`): giving two of a group counts as repeating it. */
+  aliases?: string[][];
 }
 
 export function parseStrict(args: string[], spec: StrictSpec): ParsedArgs {
-  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map() };
+  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map(), lists: new Map() };
+  const canonical = (n: string) => spec.aliases?.find((g) => g.includes(n))?.[0] ?? n;
+  const seen = new Map<string, string>();
   const valid = () => [...spec.flags, ...Object.keys(spec.valued)].join(", ");
   for (let i = 0; i < args.length; i++) {
     const a = args[i]!;
@@ -79,14 +87,21 @@ export function parseStrict(args: string[], spec: StrictSpec): ParsedArgs {
       const isOption = (s: string) => spec.flags.includes(s) || spec.valued[s.split("=")[0]!] !== undefined;
       if (value === undefined || value === "" || (eq < 0 && isOption(value))) throw new UsageError(`${name} needs a value (${hint})`);
       if (eq < 0) i++;
-      if (out.options.has(name)) throw new UsageError(`${name} given twice (${out.options.get(name)}, ${value}): give it once`);
+      if (spec.repeatable?.includes(name)) {
+        out.lists.set(name, [...(out.lists.get(name) ?? []), value]);
+        continue;
+      }
+      const key = canonical(name);
+      if (seen.has(key)) throw new UsageError(`${name} given twice (${shortText(seen.get(key)!)}, ${shortText(value)}): give it once`);
+      seen.set(key, value);
       out.options.set(name, value);
     } else if (spec.flags.includes(name)) {
       if (eq > 0) throw new UsageError(`${name} takes no value (given ${a})`);
-      if (out.flags.has(name)) throw new UsageError(`${name} given twice: give it once`);
+      if (out.flags.has(name) || seen.has(canonical(name))) throw new UsageError(`${name} given twice: give it once`);
+      seen.set(canonical(name), name);
       out.flags.add(name);
     } else {
-      throw new UsageError(`unknown option ${a}; the options are ${valid()}`);
+      throw new UsageError(`unknown option ${shortText(a)}; the options are ${valid()}`);
     }
   }
   return out;
@@ -158,10 +173,14 @@ export function outputFileProblem(path: string): string | null {
   }
 }
 
+/** Over `max` characters: the first 80 and last 20 with the length (as @helicoid/lib's shortText; no import, to start fast). */
+function shortText(text: string, max = 200): string {
+  return text.length <= max ? text : `${text.slice(0, 80)}…${text.slice(-20)} (${text.length} characters)`;
+}
+
 /** A long value for one line of a message: over 200 characters, its first 80 and last 20 with the length. */
 export function shorten(text: unknown, max = 200): string {
-  const oneLine = String(text).replace(/\s*\n\s*/g, " ");
-  return oneLine.length <= max ? oneLine : `${oneLine.slice(0, 80)}…${oneLine.slice(-20)} (${oneLine.length} characters)`;
+  return shortText(String(text).replace(/\s*\n\s*/g, " "), max);
 }
 
 /** Is the output path `out` the input file `input` itself (same device and inode: links count)? */

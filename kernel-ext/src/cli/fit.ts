@@ -12,7 +12,8 @@
  */
 import { readFileSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError } from "@helicoid/lib";
+import { parseStrict, UsageError, type StrictSpec } from "./args.js";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -23,6 +24,16 @@ const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value 
                     [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
        helicoid fit --list [--json]
 ${seriesUsage}`;
+
+const FIT_OPTIONS: StrictSpec = {
+  flags: ["--json", "--list", "--drop-nan", "--profile", "--help", "-h"],
+  valued: {
+    "--model": "a model id (helicoid fit --list)", "-m": "a model id (helicoid fit --list)", "--x-unit": "a length unit such as nm", "--y-unit": "a unit of the signal",
+    "--start": "name=value", "--fix": "name or name=value", "--free": "a parameter name",
+  },
+  repeatable: ["--start", "--fix", "--free"],
+  aliases: [["--model", "-m"]],
+};
 
 export async function fitCommand(args: string[], io: FitIo): Promise<number> {
   if (args.includes("--series")) return fitSeriesCommand(args, io);
@@ -38,37 +49,39 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
   const fixRaw: Array<[string, string | null]> = [];
   const free: string[] = [];
   try {
-    for (let i = 0; i < args.length; i++) {
-      const a = args[i];
-      const next = () => {
-        const v = args[++i];
-        if (v === undefined) throw new InputError(a, "(missing)", "a value after the option");
-        return v;
-      };
-      if (a === "--json") json = true;
-      else if (a === "--list") list = true;
-      else if (a === "--drop-nan") dropNaN = true;
-      else if (a === "--profile") profile = true;
-      else if (a === "--model" || a === "-m") modelId = next();
-      else if (a === "--x-unit") xUnit = next();
-      else if (a === "--y-unit") yUnit = next();
-      else if (a === "--start") {
-        const v = next();
-        const k = v.indexOf("=");
-        if (k < 1) throw new InputError("--start", v, "name=value");
-        startRaw.push([v.slice(0, k), v.slice(k + 1)]);
-      } else if (a === "--fix") {
-        const v = next();
-        const k = v.indexOf("=");
-        fixRaw.push(k < 0 ? [v, null] : [v.slice(0, k), v.slice(k + 1)]);
-      } else if (a === "--free") free.push(next());
-      else if (a === "--help" || a === "-h") {
-        io.stdout(usage + "\n");
-        return 0;
-      } else if (a.startsWith("-")) throw new InputError("option", a, `one of the options of helicoid fit (${usage.split("\n")[0]})`);
-      else if (file === undefined) file = a;
-      else throw new InputError("FILE", a, "a single input file");
+    let a: ReturnType<typeof parseStrict>;
+    try {
+      a = parseStrict(args, FIT_OPTIONS);
+    } catch (err) {
+      if (err instanceof UsageError) {
+        io.stderr(`helicoid fit: ${err.message}\n${usage.split("\n")[0]}\n`);
+        return 2;
+      }
+      throw err;
     }
+    if (a.flags.has("--help") || a.flags.has("-h")) {
+      io.stdout(usage + "\n");
+      return 0;
+    }
+    json = a.flags.has("--json");
+    list = a.flags.has("--list");
+    dropNaN = a.flags.has("--drop-nan");
+    profile = a.flags.has("--profile");
+    modelId = a.options.get("--model") ?? a.options.get("-m");
+    xUnit = a.options.get("--x-unit");
+    yUnit = a.options.get("--y-unit");
+    for (const v of a.lists.get("--start") ?? []) {
+      const k = v.indexOf("=");
+      if (k < 1) throw new InputError("--start", v, "name=value");
+      startRaw.push([v.slice(0, k), v.slice(k + 1)]);
+    }
+    for (const v of a.lists.get("--fix") ?? []) {
+      const k = v.indexOf("=");
+      fixRaw.push(k < 0 ? [v, null] : [v.slice(0, k), v.slice(k + 1)]);
+    }
+    free.push(...(a.lists.get("--free") ?? []));
+    if (a.positional.length > 1) throw new InputError("FILE", a.positional.join(", "), "a single input file");
+    file = a.positional[0];
     if (list) {
       if (json) io.stdout(JSON.stringify(profileModels.map((m) => ({ id: m.id, title: m.title, signalUnit: m.signalUnit, parameters: m.parameters.map((p) => ({ name: p.name, unit: p.unit ?? "", default: p.value, fixed: !!p.fixed })) })), null, 2) + "\n");
       else {
