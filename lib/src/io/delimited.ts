@@ -122,7 +122,10 @@ export function readDelimitedVectorField(input: Uint8Array | string, options: Re
     for (const [n, k] of numCols) {
       const s = unquote(f[k]!);
       let v: number;
-      if (numberRe.test(s)) v = Number(s);
+      if (numberRe.test(s)) {
+        v = Number(s);
+        if (!Number.isFinite(v)) throw new InputError(`${file}: row ${r + 1}, column ${k + 1} (${n})`, s, "a finite number (this one is beyond the range of double precision)");
+      }
       else if (nanRe.test(s) && n.startsWith("m")) v = NaN;
       else {
         throw new InputError(`${file}: row ${r + 1}, column ${k + 1} (${n})`, s, n.startsWith("m") ? 'a number (or "nan" for a vacuum cell)' : "a number");
