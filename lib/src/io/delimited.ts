@@ -13,6 +13,7 @@
  *   (counted as missing); two rows for the same cell are an error.
  */
 import { InputError } from "../errors.js";
+import { checkFieldBudget } from "./budget.js";
 import { parseQuantity } from "../quantity/units.js";
 import { adoptInterleaved } from "../topology/field.js";
 import type { ReadOptions, ReadResult } from "./readResult.js";
@@ -142,7 +143,7 @@ export function readDelimitedVectorField(input: Uint8Array | string, options: Re
   const az = gridAxis(Float64Array.from(zs), file, "z");
   const nx = ax.n, ny = ay.n, nz = az.n;
   const n = nx * ny * nz;
-  if (n > 2 ** 28) throw new InputError(file, `${nx}x${ny}x${nz} cells`, "at most 2^28 cells");
+  checkFieldBudget(file, nx, ny, nz);
   const m = new Float64Array(3 * n);
   const owner = new Int32Array(n).fill(-1);
   const present = new Uint8Array(n);
