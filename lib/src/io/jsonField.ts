@@ -64,9 +64,11 @@ export function readJsonVectorField(input: Uint8Array | string | object, options
   // The declared size is checked before anything is allocated: against the budget, and against
   // the data actually present.
   checkFieldBudget(file, nx, ny, nz);
-  const present = Array.isArray(d.m) ? d.m.length : Array.isArray(d.mx) ? d.mx.length : null;
-  if (present !== null && present !== n && present !== 3 * n) {
-    throw new InputError(`${file}: ${Array.isArray(d.m) ? "m" : "mx"}`, `${present} entries`, `${Array.isArray(d.m) ? `${3 * n} numbers (interleaved) or ${n} triples` : `${n} numbers`} for nx*ny*nz = ${nx}*${ny}*${nz} cells`);
+  if (Array.isArray(d.m) && d.m.length !== n && d.m.length !== 3 * n) {
+    throw new InputError(`${file}: m`, d.m, `${3 * n} numbers (interleaved) or ${n} triples for nx*ny*nz = ${nx}*${ny}*${nz} cells`, `found ${d.m.length} entries`);
+  }
+  if (d.m === undefined && Array.isArray(d.mx) && d.mx.length !== n) {
+    throw new InputError(`${file}: mx`, d.mx, `an array of ${n} numbers (nx*ny*nz = ${nx}*${ny}*${nz})`);
   }
   const m = new Float64Array(3 * n);
   const notes: string[] = [];
