@@ -355,8 +355,8 @@ export async function exportCommand(args: string[], cio: { stdout: Out; stderr: 
   io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
   // A page of a notebook that was never run has code and no results: say so (not an error).
   const cells = (nb as { cells?: Array<{ cell_type?: string; outputs?: unknown[] }> }).cells ?? [];
-  const code = cells.filter((c) => c.cell_type === "code");
-  if (code.length > 0 && code.every((c) => !c.outputs || c.outputs.length === 0)) {
+  const code = cells.filter((c) => c && typeof c === "object" && c.cell_type === "code");
+  if (code.length > 0 && code.every((c) => !Array.isArray(c.outputs) || c.outputs.length === 0)) {
     io.stderr.write(`helicoid export: note: ${input} has no outputs (it was not run): the page shows code only; run it first with helicoid run ${input} -o RUN.ipynb\n`);
   }
   return 0;
