@@ -10,9 +10,9 @@
  * (fitSeries.ts).
  * Exit codes (both modes): 0 success, 1 a fit that failed (the message says why), 2 bad input.
  */
-import { readFileSync } from "node:fs";
+import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
-import { parseStrict, UsageError, type StrictSpec } from "./args.js";
+import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
 
 export interface FitIo {
@@ -24,6 +24,18 @@ const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value 
                     [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
        helicoid fit --list [--json]
 ${seriesUsage}`;
+
+/** Largest profile CSV read (bytes): a line profile of a million points is about 40 MB. */
+export const PROFILE_FILE_LIMIT = 256e6;
+
+/** The text of a profile CSV, refused before reading when it is larger than PROFILE_FILE_LIMIT. */
+export function readProfileText(file: string): string {
+  const size = statSync(file).size;
+  if (size > PROFILE_FILE_LIMIT) {
+    throw new InputError("FILE", file, `a profile CSV of at most ${PROFILE_FILE_LIMIT / 1e6} MB`, `This file has ${(size / 1e6).toFixed(0)} MB; reading it as text would need about ${((6 * size) / 1e9).toFixed(1)} GB of memory (budget 2 GB)`);
+  }
+  return readFileSync(file, "utf8");
+}
 
 const FIT_OPTIONS: StrictSpec = {
   flags: ["--json", "--list", "--drop-nan", "--profile", "--help", "-h"],
@@ -95,9 +107,10 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     const model = getProfileModel(modelId);
     let text: string;
     try {
-      text = readFileSync(file, "utf8");
+      text = readProfileText(file);
     } catch (err) {
-      throw new InputError("FILE", file, "a readable file", (err as Error).message);
+      if (err instanceof InputError) throw err;
+      throw new InputError("FILE", file, "a readable file", fileReason(err));
     }
     const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
     const unitOf = (name: string) => model.parameters.find((p) => p.name === name)?.unit ?? "";

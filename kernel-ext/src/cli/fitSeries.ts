@@ -16,9 +16,10 @@
  * Exit codes: 0 success, 1 a fit that failed (the message says why), 2 bad input (the parameter,
  * the value and what was expected).
  */
-import { readFileSync } from "node:fs";
+import { readFileSync, statSync } from "node:fs";
 import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
-import { parseStrict, UsageError, type StrictSpec } from "./args.js";
+import { readProfileText } from "./fit.js";
+import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 
 export interface FitSeriesIo {
   stdout: (s: string) => void;
@@ -216,9 +217,10 @@ export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise
       const { file, suffix } = splitFileArg(arg);
       let text: string;
       try {
-        text = readFileSync(file, "utf8");
+        text = readProfileText(file);
       } catch (err) {
-        throw new InputError("FILE", file, "a readable file", (err as Error).message);
+        if (err instanceof InputError) throw err;
+        throw new InputError("FILE", file, "a readable file", fileReason(err));
       }
       const B = fieldOf(file, suffix, text);
       const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
