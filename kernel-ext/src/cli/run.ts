@@ -174,7 +174,7 @@ export async function runCommand(args: string[], io: CommandIO): Promise<number>
   }
   if (out !== undefined) {
     if (sameFile(out, input)) {
-      io.stderr(`helicoid run: the output path ${given} is the input notebook (the same file, or a link to it); choose another -o path (the input is never modified; nothing was run)\n`);
+      io.stderr(`helicoid run: -o ${given}: the output path is the input notebook (the same file, or a link to it); choose another -o path (the input is never modified; nothing was run)\n`);
       return 2;
     }
     const problem = outputFileProblem(given!);
