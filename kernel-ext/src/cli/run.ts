@@ -28,6 +28,7 @@ export function parseTimeout(text: string): number {
 }
 
 interface ChildOutcome {
+  pendingTimers?: number;
   notebook: Notebook | null;
   failure: RunFailure | null;
   cellsRun: number;
@@ -90,7 +91,7 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
       else if (m.t === "done") {
         disarm();
         if (grace) clearTimeout(grace);
-        done = { notebook: m.notebook as Notebook, failure: m.failure as RunFailure | null, cellsRun: m.cellsRun as number, seconds: m.seconds as number };
+        done = { notebook: m.notebook as Notebook, failure: m.failure as RunFailure | null, cellsRun: m.cellsRun as number, seconds: m.seconds as number, pendingTimers: m.pendingTimers as number | undefined };
       } else if (m.t === "fatal") done = { notebook: null, failure: null, cellsRun: 0, seconds: 0, fatal: m.message as string };
     });
     // Ctrl-C reaches the child too (same process group): it interrupts its cell and writes; a
@@ -203,6 +204,7 @@ export async function runCommand(args: string[], io: CommandIO): Promise<number>
     if (given) io.stderr(`partial output written to ${given}\n`);
     return 1;
   }
+  if (r.pendingTimers) io.stderr(`${input}: note: ${r.pendingTimers} timer(s) the cells started were still pending ${SETTLE_MS / 1000} s after the last cell and were stopped (await them in a cell to keep their work)\n`);
   if (!quiet) io.stderr(`${input}: ${r.cellsRun} code cells ran in ${r.seconds.toFixed(1)} s${given ? `; wrote ${given}` : ""}\n`);
   return 0;
 }

@@ -8,7 +8,7 @@
 import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { parseNotebook } from "./nbformat.js";
-import { runNotebook, type Output } from "./runner.js";
+import { pendingTimers, runNotebook, type Output } from "./runner.js";
 
 const realExit = process.exit.bind(process);
 const send = (m: unknown): Promise<void> => new Promise((r) => (process.send ? process.send(m, undefined, {}, () => r()) : r()));
@@ -19,7 +19,8 @@ async function main(): Promise<void> {
   const nb = parseNotebook(readFileSync(file, "utf8"), input!);
   const dir = dirname(file);
   process.chdir(dir);
-  // What a cell printed goes to the parent at most every 100 ms (and in full when the cell ends).
+  // What a cell printed goes to the parent at once, then at most once a second while the cell runs
+  // (a cell printing a lot does not pay for copies), and in full when the cell ends.
   let pending: { index: number; outputs: Output[] } | null = null;
   let lastSent = 0;
   let timer: NodeJS.Timeout | null = null;
@@ -40,13 +41,14 @@ async function main(): Promise<void> {
     outputsChanged: (index, outputs) => {
       if (pending && pending.index !== index) flush();
       pending = { index, outputs };
-      if (performance.now() - lastSent > 100) flush();
-      else timer ??= setTimeout(flush, 100);
+      if (performance.now() - lastSent > 1000) flush();
+      else timer ??= setTimeout(flush, 1000);
     },
   });
   if (timer) clearTimeout(timer);
   flush();
-  await send({ t: "done", notebook: r.notebook, failure: r.failure, cellsRun: r.cellsRun, seconds: r.seconds });
+  const pending = pendingTimers();
+  await send({ t: "done", notebook: r.notebook, failure: r.failure, cellsRun: r.cellsRun, seconds: r.seconds, pendingTimers: pending });
   realExit(0);
 }
 

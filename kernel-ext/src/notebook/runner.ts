@@ -27,6 +27,8 @@ export interface RunResult {
   failure: RunFailure | null;
   cellsRun: number;
   seconds: number;
+  /** Timers the cells started that were still pending when the run ended (they were stopped). */
+  pendingTimers?: number;
 }
 
 export type Output = Record<string, unknown>;
@@ -110,7 +112,7 @@ export class ProcessExitCalled extends Error {
   }
 }
 
-function pendingTimers(): number {
+export function pendingTimers(): number {
   const info = (process as unknown as { getActiveResourcesInfo?: () => string[] }).getActiveResourcesInfo?.() ?? [];
   return info.filter((r) => r === "Timeout" || r === "Immediate").length;
 }
@@ -213,7 +215,7 @@ export async function runNotebook(nb: Notebook, dir: string, hooksOrOnCell?: Run
   else delete nb.metadata.widgets;
   if (failure) nb.metadata.helicoid_run = { status: "stopped", cell: failure.cell, reason: `${failure.ename}: ${failure.evalue}` };
   else delete nb.metadata.helicoid_run;
-  return { notebook: nb, failure, cellsRun: count, seconds: (performance.now() - t0) / 1000 };
+  return { notebook: nb, failure, cellsRun: count, seconds: (performance.now() - t0) / 1000, pendingTimers: pendingTimers() };
 }
 
 function markExecuted(nb: Notebook): void {
