@@ -47,8 +47,8 @@ async function main(): Promise<void> {
   });
   if (timer) clearTimeout(timer);
   flush();
-  const pending = pendingTimers();
-  await send({ t: "done", notebook: r.notebook, failure: r.failure, cellsRun: r.cellsRun, seconds: r.seconds, pendingTimers: pending });
+  const stillPending = pendingTimers();
+  await send({ t: "done", notebook: r.notebook, failure: r.failure, cellsRun: r.cellsRun, seconds: r.seconds, pendingTimers: stillPending });
   realExit(0);
 }
 
