@@ -60,11 +60,30 @@ describe("large files end in a result or exit 2 with one line and the estimate",
     expect(lines(r.stderr)).toEqual([expect.stringMatching(/huge\.json: size = "100000 x 100000 x 1 cells".*about 480 GB/)]);
   });
 
-  it("a 1 GB CSV is refused with the memory it would need, not a string-length crash", () => {
+  it("a 1 GB CSV is streamed line by line: a file of zeros after its header is refused at its first long line, not a string-length crash", () => {
     const f = sparse("huge.csv", Buffer.from("x,y,mx,my,mz\n"), 1e9);
     const r = helicoid(["charge", f]);
     expect(r.status).toBe(2);
-    expect(lines(r.stderr)).toEqual([expect.stringMatching(/huge\.csv: size = "1\.00 GB".*at most 256 MB.*\.npy/)]);
+    expect(lines(r.stderr)).toEqual([expect.stringMatching(/huge\.csv: line 2 = "a line longer than 1\.05 MB".*a table of short lines/)]);
+  });
+
+  it("a 1 GB JSON field is refused with the memory parsing it would need", () => {
+    const f = sparse("huge-text.json", Buffer.from("{"), 1e9);
+    const r = helicoid(["charge", f]);
+    expect(r.status).toBe(2);
+    expect(lines(r.stderr)).toEqual([expect.stringMatching(/huge-text\.json: size = "1\.00 GB".*at most 256 MB.*\.npy/)]);
+  });
+
+  it("a streamed CSV table gives the same charge as the .npy of the same field", () => {
+    // Source: Q = -1 per skyrmion of the generator's lattice (four in this box).
+    const f = skyrmionLatticeTexture({ nx: 64, ny: 64, dx: 1e-9 }, { a: 32e-9, R: 7e-9, w: 2e-9 });
+    const rows = ["x (nm)\ty (nm)\tmx\tmy\tmz"];
+    for (let j = 0; j < 64; j++) for (let i = 0; i < 64; i++) { const c = 3 * (j * 64 + i); rows.push(`${i}\t${j}\t${f.m[c]}\t${f.m[c + 1]}\t${f.m[c + 2]}`); }
+    const p = join(dir, "lattice.tsv");
+    writeFileSync(p, rows.join("\r\n") + "\r\n");
+    const r = helicoid(["charge", p, "--json", "--boundary", "periodic"]);
+    expect(r.status).toBe(0);
+    expect(Math.abs(JSON.parse(r.stdout).skyrmionNumber + 4)).toBeLessThan(1e-9);
   });
 
   it("a .npy in any byte order, width and memory order (written by numpy) gives the same charge, read in chunks", () => {

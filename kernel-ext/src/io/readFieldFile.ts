@@ -5,14 +5,15 @@
  * Large files: the size a file declares (a .npy header) is checked against the memory budget
  * (@helicoid/lib checkFieldBudget) before anything is allocated; .npy data are read in chunks
  * straight into the field's own buffer, in any byte order, width and memory order (no copy of the
- * whole file, so a file over 2 GiB is no problem for the reader itself). Text formats (CSV, TSV,
- * JSON) are parsed as text, which costs several bytes of memory per byte of file: a text file over
+ * whole file, so a file over 2 GiB is no problem for the reader itself). Tables (CSV, TSV,
+ * whitespace) are streamed line by line into typed arrays, the budget checked as rows arrive.
+ * JSON is parsed as text, which costs several bytes of memory per byte of file: a JSON file over
  * TEXT_FILE_LIMIT is refused with that estimate and a pointer to .npy.
  */
 import { closeSync, openSync, readSync, fstatSync } from "node:fs";
 import { basename } from "node:path";
 import {
-  InputError, adoptInterleaved, checkFieldBudget, formatBytes, parseNpyHeader, readNpyVectorField, readVectorField, isNpy,
+  DelimitedFieldParser, InputError, adoptInterleaved, checkFieldBudget, formatBytes, parseNpyHeader, readNpyVectorField, readVectorField, isNpy,
   FIELD_MEMORY_BUDGET, type ReadOptions, type ReadResult,
 } from "@helicoid/lib";
 
@@ -66,27 +67,65 @@ export function readVectorFieldFile(path: string, options: FileReadOptions = {})
       }
       return readNpyChunked(fd, size, head, name, options);
     }
+    const ext = /\.([a-z0-9]+)$/i.exec(name)?.[1]?.toLowerCase();
+    const json = ext === "json" || ((ext === undefined || !["csv", "tsv", "txt", "dat", "tab"].includes(ext)) && new TextDecoder().decode(head.subarray(0, 64)).trimStart().startsWith("{"));
+    if (!json) return sharedIfAsked(readDelimitedStreaming(fd, size, name, options), options);
     if (size > TEXT_FILE_LIMIT) {
       throw new InputError(
         `${name}: size`,
         formatBytes(size),
-        `a text field file of at most ${formatBytes(TEXT_FILE_LIMIT)}`,
+        `a JSON field file of at most ${formatBytes(TEXT_FILE_LIMIT)}`,
         `Parsing text needs about ${formatBytes(size * TEXT_BYTES_PER_BYTE)} of memory (budget ${formatBytes(FIELD_MEMORY_BUDGET)}); save large fields as .npy (float64 or float32, shape (ny, nx, 3)), which is read in chunks`,
       );
     }
     const bytes = new Uint8Array(size);
     const got = readFully(fd, bytes, 0);
-    const result = readVectorField(bytes.subarray(0, got), { ...options, file: name });
-    if (options.shared) {
-      const sab = new SharedArrayBuffer(result.field.m.byteLength);
-      const m = new Float64Array(sab);
-      m.set(result.field.m);
-      result.field.m = m;
-    }
-    return result;
+    return sharedIfAsked(readVectorField(bytes.subarray(0, got), { ...options, file: name }), options);
   } finally {
     closeSync(fd);
   }
+}
+
+function sharedIfAsked(result: ReadResult, options: FileReadOptions): ReadResult {
+  if (options.shared) {
+    const sab = new SharedArrayBuffer(result.field.m.byteLength);
+    const m = new Float64Array(sab);
+    m.set(result.field.m);
+    result.field.m = m;
+  }
+  return result;
+}
+
+/** Longest line of a table (bytes): a row of six numbers is under 200. */
+const MAX_LINE = 1 << 20;
+
+/**
+ * A CSV/TSV/whitespace table read line by line from the file (16 MB at a time, decoded as UTF-8
+ * in stream mode) into @helicoid/lib's DelimitedFieldParser: no string of the whole file, values
+ * straight into typed arrays, the memory budget checked as rows arrive.
+ */
+function readDelimitedStreaming(fd: number, size: number, name: string, options: FileReadOptions): ReadResult {
+  const parser = new DelimitedFieldParser({ ...options, file: name });
+  const decoder = new TextDecoder("utf-8");
+  const chunk = new Uint8Array(Math.min(CHUNK, Math.max(size, 1)));
+  let carry = "";
+  let lineNumber = 0;
+  const feed = (text: string, last: boolean) => {
+    const parts = (carry + text).split("\n");
+    carry = last ? "" : parts.pop()!;
+    for (const p of parts) parser.line(p.endsWith("\r") ? p.slice(0, -1) : p, ++lineNumber);
+    if (carry.length > MAX_LINE) {
+      throw new InputError(`${name}: line ${lineNumber + 1}`, `a line longer than ${formatBytes(MAX_LINE)}`, "a table of short lines (one row per cell)", "This does not look like a text table");
+    }
+  };
+  for (let pos = 0; pos < size; ) {
+    const n = readSync(fd, chunk, 0, Math.min(chunk.length, size - pos), pos);
+    if (n <= 0) break;
+    pos += n;
+    feed(decoder.decode(chunk.subarray(0, n), { stream: true }), false);
+  }
+  feed(decoder.decode(), true);
+  return parser.finish();
 }
 
 /**
