@@ -25,7 +25,7 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT] [--timeout S] execute a notebook in process, no Jupyter needed" },
-  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },
+  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html [--trusted]  a self-contained page; catalogue explorers stay live", ownHelp: true },
   lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve] [--timeout S]  run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)", ownHelp: true },

@@ -74,6 +74,7 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
         if (timeout > 0) {
           // SIGINT again every second (one that lands between two pieces of work is lost), then SIGKILL.
           timer = setTimeout(() => {
+            if (child.connected) child.send({ t: "timeout", index: current });
             let tries = 0;
             const nudge = () => {
               if (++tries * 1000 > GRACE_MS) {
@@ -101,6 +102,10 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
       if (++interrupts > 1) child.kill("SIGKILL");
     };
     process.on("SIGINT", onSigint);
+    // A failed send (the child already gone) or spawn is reported by its exit, or here.
+    child.on("error", (err) => {
+      if (child.exitCode === null && child.signalCode === null && !child.pid) res({ notebook: null, failure: null, cellsRun: 0, seconds: 0, fatal: `the notebook process could not start: ${err.message}` });
+    });
     child.on("exit", (code, signal) => {
       disarm();
       if (grace) clearTimeout(grace);
@@ -110,7 +115,7 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
       const index = last >= 0 ? last : (nb.cells.findIndex((c) => c.cell_type === "code") ?? 0);
       const how = killedForTime
         ? `cell ${index + 1} did not finish within ${timeout} s (--timeout ${timeout}) and could not be interrupted (a loop outside the cell's own code, such as in a timer); its process was stopped`
-        : `the notebook process ended during cell ${index + 1} (${signal ? `signal ${signal}` : `exit code ${code}`}${signal === "SIGKILL" || signal === "SIGABRT" || code === 134 ? ", out of memory?" : ""}); the run stopped`;
+        : `the notebook process ended ${last >= 0 ? `during cell ${index + 1}` : "before the first cell ran"} (${signal ? `signal ${signal}` : `exit code ${code}`}${signal === "SIGKILL" || signal === "SIGABRT" || code === 134 ? ", out of memory?" : ""}); the run stopped`;
       const ename = killedForTime ? "TimeoutError" : "RunStopped";
       let count = 0;
       nb.cells.forEach((c, i) => {

@@ -31,8 +31,17 @@ async function main(): Promise<void> {
     void send({ t: "outputs", index: pending.index, outputs: pending.outputs });
     pending = null;
   };
+  // The parent says "timeout" before its SIGINT, so an interrupt can be told from a Ctrl-C.
+  const timedOut = new Set<number>();
+  process.on("message", (m: { t?: string; index?: number }) => {
+    if (m?.t === "timeout" && typeof m.index === "number") timedOut.add(m.index);
+  });
   const r = await runNotebook(nb, dir, {
     timeoutSeconds: Number(timeout) || 0,
+    wasTimedOut: async (index) => {
+      for (let k = 0; k < 50 && !timedOut.has(index); k++) await new Promise((res) => setTimeout(res, 10));
+      return timedOut.has(index);
+    },
     settleMs: Number(settle) || 0,
     cellStarted: (index, count) => {
       flush();

@@ -100,6 +100,8 @@ export interface RunHooks {
   outputsChanged?: (index: number, outputs: Output[]) => void;
   /** Per-cell time limit in seconds (0: none). Only used to name an interrupt a timeout. */
   timeoutSeconds?: number;
+  /** Was the interrupt of cell `index` the watchdog's (a timeout), not the user's Ctrl-C? */
+  wasTimedOut?: (index: number) => Promise<boolean>;
   /** After the last cell, wait at most this long (ms) for timers the cells started. */
   settleMs?: number;
 }
@@ -145,7 +147,12 @@ export async function runNotebook(nb: Notebook, dir: string, hooksOrOnCell?: Run
   };
   const onException = (err: unknown) => asyncError(err, "thrown after the cell returned");
   const onRejection = (reason: unknown) => asyncError(reason, "a promise was rejected and nothing handled it");
-  const onSigint = () => session.interrupt();
+  // SIGINT (Ctrl-C, or the watchdog of --timeout) interrupts the running cell and stops the run.
+  let stopRequested = false;
+  const onSigint = () => {
+    stopRequested = true;
+    session.interrupt();
+  };
   process.on("uncaughtException", onException);
   process.on("unhandledRejection", onRejection);
   process.on("SIGINT", onSigint);
@@ -157,6 +164,13 @@ export async function runNotebook(nb: Notebook, dir: string, hooksOrOnCell?: Run
     // The TypeScript program is built before the first cell's clock starts.
     if (code.length > 0) session.warm();
     for (const [cell, index] of code) {
+      if (stopRequested && !failure) {
+        const evalue = "the run was interrupted (SIGINT) before this cell";
+        cell.outputs = [{ output_type: "error", ename: "Interrupted", evalue, traceback: [`Interrupted: ${evalue}`] }];
+        hooks.outputsChanged?.(index, cell.outputs);
+        failure = { cell: index + 1, ename: "Interrupted", evalue };
+      }
+      if (failure) break;
       hooks.onCell?.(index, nb.cells.length);
       cell.outputs = [];
       cell.execution_count = ++count;
@@ -186,7 +200,9 @@ export async function runNotebook(nb: Notebook, dir: string, hooksOrOnCell?: Run
         const limit = hooks.timeoutSeconds ?? 0;
         const last = outputs[outputs.length - 1];
         const interrupted = /^(Script execution (was )?interrupted|Interrupted asynchronously)/.test(outcome.error?.evalue ?? "");
-        if (limit > 0 && interrupted && (performance.now() - started) / 1000 >= limit - 0.05 && last?.output_type === "error") {
+        const elapsed = (performance.now() - started) / 1000;
+        const timedOut = limit > 0 && interrupted && (hooks.wasTimedOut ? await hooks.wasTimedOut(index) : elapsed >= limit - 0.05);
+        if (timedOut && last?.output_type === "error") {
           const evalue = `cell ${index + 1} did not finish within ${limit} s (--timeout ${limit}); it was interrupted and the run stopped`;
           Object.assign(last, { ename: "TimeoutError", evalue, traceback: [`TimeoutError: ${evalue}`] });
           notify?.(index, outputs);
