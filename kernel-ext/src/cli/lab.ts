@@ -5,7 +5,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import { join, resolve } from "node:path";
 import { install } from "./install.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { parseStrict, UsageError, type CommandIO } from "./args.js";
 
 export function findJupyter(): { cmd: string; args: string[]; kind: "lab" | "notebook" } | null {
   const has = (c: string, a: string[] = ["--version"]) => {
@@ -20,7 +20,14 @@ export function findJupyter(): { cmd: string; args: string[]; kind: "lab" | "not
 }
 
 export async function labCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--notebook-dir"]);
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: [], valued: { "--notebook-dir": "a directory of notebooks" } });
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid lab: ${err.message} (give Jupyter's own options after --)\nusage: helicoid lab [--notebook-dir DIR] [-- JUPYTER OPTIONS]\n`);
+    return 2;
+  }
   const jupyter = findJupyter();
   if (!jupyter) {
     io.stderr(
