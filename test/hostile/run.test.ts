@@ -6,7 +6,7 @@
  * are refused before any cell runs, and the input bytes never change. Spawns the built command.
  */
 import { describe, expect, it } from "vitest";
-import { spawnSync } from "node:child_process";
+import { spawn, spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { existsSync, linkSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -96,6 +96,34 @@ describe("helicoid run keeps the work of a notebook that fails in hostile ways",
     expect(err.evalue).toMatch(reason as RegExp);
     expect(outputs[2]).toEqual([]);
     expect(runInfo(out)).toMatchObject({ status: "stopped", cell: 2 });
+  });
+
+  it("Ctrl-C (SIGINT to the process group) stops the running cell, writes the notebook, and is not called a timeout", async () => {
+    const nb = notebook("ctrl-c", "const a = 1", 'console.log("looping")\nwhile (true) {}', 'console.log("never")');
+    const out = join(dir, "ctrl-c-out.ipynb");
+    // Its own process group, as a terminal gives a command; SIGINT goes to the group as Ctrl-C does.
+    const p = spawn(process.execPath, [helicoidBin, "run", nb, "-o", out, "--timeout", "60"], { cwd: dir, detached: true, stdio: ["ignore", "ignore", "pipe"] });
+    // Whatever happens, the group is ended with the test.
+    const stop = setTimeout(() => process.kill(-p.pid!, "SIGKILL"), 100_000);
+    let stderr = "";
+    p.stderr.on("data", (d) => (stderr += d));
+    const code = await new Promise<number | null>((res) => {
+      p.stderr.on("data", () => {
+        if (/cell 2\/3/.test(stderr) && !stderr.includes("sent")) {
+          stderr += "sent";
+          setTimeout(() => process.kill(-p.pid!, "SIGINT"), 1500);
+        }
+      });
+      p.on("exit", (c) => res(c));
+    });
+    clearTimeout(stop);
+    expect(code).toBe(1);
+    const outputs = outputsOf(out);
+    expect(outputs[1]![0]).toMatchObject({ output_type: "stream", text: ["looping\n"] });
+    const err = outputs[1]!.find((o) => o.output_type === "error")!;
+    expect(err.ename).not.toBe("TimeoutError");
+    expect(err.evalue).toMatch(/interrupted/i);
+    expect(outputs[2]).toEqual([]);
   });
 
   it("--timeout takes seconds only", () => {
