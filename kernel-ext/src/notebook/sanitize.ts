@@ -18,8 +18,9 @@ const TAGS = [
 const OPTIONS: sanitizeHtml.IOptions = {
   allowedTags: TAGS,
   allowedAttributes: {
-    "*": ["class", "title", "id", "lang", "dir", "align", "style"],
-    a: ["href", "name", "target", "rel"],
+    // No id or name: an element named like a global of the page's script could shadow it.
+    "*": ["class", "title", "lang", "dir", "align", "style"],
+    a: ["href", "target", "rel"],
     img: ["src", "alt", "width", "height"],
     td: ["colspan", "rowspan"],
     th: ["colspan", "rowspan", "scope"],
