@@ -4,7 +4,7 @@
  *   helicoid install [--user|--prefix DIR]   kernelspec "helicoid" + JupyterLab extension
  *   helicoid uninstall [--prefix DIR]
  *   helicoid kernel --connection-file FILE   (started by Jupyter)
- *   helicoid run NOTEBOOK [-o OUT]           execute a notebook in process
+ *   helicoid run NOTEBOOK [-o OUT] [--timeout S]  execute a notebook (child process, per-cell limit)
  *   helicoid export NOTEBOOK -o PAGE.html    one self-contained page, live catalogue explorers
  *   helicoid lab                             Jupyter on notebooks/ with the kernel installed
  *   helicoid start                           run the examples and serve the gallery (npm start)
@@ -24,7 +24,7 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   install: { load: () => require("./install.js").installCommand, help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension" },
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
-  run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT] [--timeout S] execute a notebook in process, no Jupyter needed" },
+  run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT] [--timeout S] execute a notebook, no Jupyter needed" },
   export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html [--trusted]  a self-contained page; catalogue explorers stay live", ownHelp: true },
   lab: { load: () => require("./lab.js").labCommand, help: "lab                               open Jupyter on notebooks/ with the kernel installed" },
   start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve] [--timeout S]  run the examples and serve the gallery on 127.0.0.1" },

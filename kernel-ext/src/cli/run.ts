@@ -6,7 +6,7 @@ import type { Output, RunFailure } from "../notebook/runner.js";
 import { fileReason, inputFileReason, isSameFile as sameFile, outputFileProblem, parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
 
 export const runUsage =
-  "helicoid run NOTEBOOK [-o OUT.ipynb] [--timeout SECONDS] [--quiet]   execute a notebook in process (no Jupyter needed)\n" +
+  "helicoid run NOTEBOOK [-o OUT.ipynb] [--timeout SECONDS] [--quiet]   execute a notebook (in a child process; no Jupyter needed)\n" +
   "  --timeout SECONDS   time limit of each cell (default 600; 0: none); a cell past it is interrupted and the run stops";
 
 const OPTIONS = {
