@@ -9,7 +9,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { Page } from "playwright-core";
@@ -109,6 +109,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await browser?.close();
+  rmSync(dir, { recursive: true, force: true });
 });
 
 describe("helicoid export of an untrusted notebook", () => {

@@ -5,15 +5,16 @@
  * notebook holding what ran with the failing cell marked; bad output paths and links to the input
  * are refused before any cell runs, and the input bytes never change. Spawns the built command.
  */
-import { describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { spawn, spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { existsSync, linkSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
+import { existsSync, linkSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { helicoidBin } from "../helpers/paths.js";
 
 const dir = mkdtempSync(join(tmpdir(), "helicoid-hostile-run-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const sha = (f: string) => createHash("sha256").update(readFileSync(f)).digest("hex");
 
 function notebook(name: string, ...cells: string[]): string {
