@@ -9,12 +9,18 @@ for (const stream of [process.stdout, process.stderr]) {
     throw err;
   });
 }
+// End only once everything written has left: an empty write's callback runs after every earlier
+// write on that stream is flushed, so a `--json` answer to a pipe is never cut short.
+function finish(code) {
+  process.exitCode = code;
+  process.stdout.write("", () => process.stderr.write("", () => process.exit(code)));
+}
 main(process.argv.slice(2)).then(
   (code) => {
-    if (code !== undefined) process.exit(code);
+    if (code !== undefined) finish(code);
   },
   (err) => {
-    console.error(err);
-    process.exit(1);
+    process.stderr.write(`helicoid: ${String((err && err.message) || "an unexpected error")}\n`);
+    finish(1);
   },
 );

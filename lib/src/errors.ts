@@ -2,7 +2,8 @@
  * Errors are answers: every error names what went wrong in terms the user can act on.
  *
  * - `InputError`: a parameter had a bad value. Names the parameter, the value given and what was
- *   expected (range, unit, shape). The value is kept as given (never coerced or truncated).
+ *   expected (range, unit, shape). The value is kept as given (never coerced or truncated); the
+ *   message shows a long value shortened (`shortText`).
  * - `ConvergenceError`: a solver did not converge. Carries its diagnostics (iterations, residual,
  *   last estimate) so the user can judge what happened.
  */
@@ -55,7 +56,7 @@ export class ComputationError extends ConvergenceError {
 
 /** Short, faithful rendering of a user's value for an error message. */
 export function describeValue(value: unknown): string {
-  if (typeof value === "string") return JSON.stringify(value);
+  if (typeof value === "string") return shortText(JSON.stringify(value));
   if (typeof value === "number") return Number.isNaN(value) ? "NaN" : String(value);
   if (value === undefined) return "(missing)";
   if (value === null) return "null";
@@ -67,6 +68,14 @@ export function describeValue(value: unknown): string {
   } catch {
     return String(value);
   }
+}
+
+/**
+ * A long text for a one-line message: over 200 characters it is cut to its first 80 and last 20
+ * characters with the full length said (the error's `value` keeps the whole value).
+ */
+export function shortText(text: string, max = 200): string {
+  return text.length <= max ? text : `${text.slice(0, 80)}…${text.slice(-20)} (${text.length} characters)`;
 }
 
 function formatDiagnostics(d: Record<string, unknown>): string {

@@ -1,38 +1,18 @@
-import { accessSync, constants as fsConstants, statSync } from "node:fs";
+import { accessSync, closeSync, constants as fsConstants, openSync, statSync, unlinkSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { realStderr, realStdout } from "../display/output.js";
 
-/** A small argument reader for the `helicoid` command: flags, options with values, positionals. */
+/** What `parseStrict` (the one option reader of every `helicoid` command) returns. */
 export interface ParsedArgs {
   positional: string[];
   flags: Set<string>;
   options: Map<string, string>;
+  /** Every value of each repeatable option, in order (`--start a=1 --start b=2`). */
+  lists: Map<string, string[]>;
 }
 
 export class UsageError extends Error {
   override readonly name = "UsageError";
-}
-
-/** `valued` lists options that take a value (`-o OUT`, `--prefix DIR`, `--port=8000`). */
-export function parseArgs(args: string[], valued: string[] = []): ParsedArgs {
-  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map() };
-  for (let i = 0; i < args.length; i++) {
-    const a = args[i]!;
-    if (a === "--") {
-      out.positional.push(...args.slice(i + 1));
-      break;
-    }
-    if (a.startsWith("-") && a.length > 1 && !/^-\d/.test(a)) {
-      const eq = a.indexOf("=");
-      const name = eq > 0 ? a.slice(0, eq) : a;
-      if (valued.includes(name)) {
-        const value = eq > 0 ? a.slice(eq + 1) : args[++i];
-        if (value === undefined) throw new UsageError(`${name} needs a value`);
-        out.options.set(name, value);
-      } else out.flags.add(name);
-    } else out.positional.push(a);
-  }
-  return out;
 }
 
 export interface CommandIO {
@@ -55,10 +35,16 @@ export const processIO: CommandIO = {
 export interface StrictSpec {
   flags: string[];
   valued: Record<string, string>;
+  /** Valued options that may be given more than once (their values are in `lists`). */
+  repeatable?: string[];
+  /** Groups of names of one option (`["-m", "--model"]`): giving two of a group counts as repeating it. */
+  aliases?: string[][];
 }
 
 export function parseStrict(args: string[], spec: StrictSpec): ParsedArgs {
-  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map() };
+  const out: ParsedArgs = { positional: [], flags: new Set(), options: new Map(), lists: new Map() };
+  const canonical = (n: string) => spec.aliases?.find((g) => g.includes(n))?.[0] ?? n;
+  const seen = new Map<string, string>();
   const valid = () => [...spec.flags, ...Object.keys(spec.valued)].join(", ");
   for (let i = 0; i < args.length; i++) {
     const a = args[i]!;
@@ -79,14 +65,21 @@ export function parseStrict(args: string[], spec: StrictSpec): ParsedArgs {
       const isOption = (s: string) => spec.flags.includes(s) || spec.valued[s.split("=")[0]!] !== undefined;
       if (value === undefined || value === "" || (eq < 0 && isOption(value))) throw new UsageError(`${name} needs a value (${hint})`);
       if (eq < 0) i++;
-      if (out.options.has(name)) throw new UsageError(`${name} given twice (${out.options.get(name)}, ${value}): give it once`);
+      if (spec.repeatable?.includes(name)) {
+        out.lists.set(name, [...(out.lists.get(name) ?? []), value]);
+        continue;
+      }
+      const key = canonical(name);
+      if (seen.has(key)) throw new UsageError(`${name} given twice (${shortText(seen.get(key)!)}, ${shortText(value)}): give it once`);
+      seen.set(key, value);
       out.options.set(name, value);
     } else if (spec.flags.includes(name)) {
       if (eq > 0) throw new UsageError(`${name} takes no value (given ${a})`);
-      if (out.flags.has(name)) throw new UsageError(`${name} given twice: give it once`);
+      if (out.flags.has(name) || seen.has(canonical(name))) throw new UsageError(`${name} given twice: give it once`);
+      seen.set(canonical(name), name);
       out.flags.add(name);
     } else {
-      throw new UsageError(`unknown option ${a}; the options are ${valid()}`);
+      throw new UsageError(`unknown option ${shortText(a)}; the options are ${valid()}`);
     }
   }
   return out;
@@ -135,9 +128,11 @@ export function inputFileReason(path: string): string | null {
  */
 export function outputFileProblem(path: string): string | null {
   const full = resolve(path);
+  // The test is a real open for writing (access() says yes to root for any file): an existing file
+  // is opened without truncating it, a new one is created and removed again.
   try {
     if (statSync(full).isDirectory()) return `${path}: it is a directory, not a file name`;
-    accessSync(full, fsConstants.W_OK);
+    closeSync(openSync(full, "r+"));
     return null;
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code !== "ENOENT") return fileProblem(path, err);
@@ -145,13 +140,35 @@ export function outputFileProblem(path: string): string | null {
   const dir = dirname(full);
   try {
     if (!statSync(dir).isDirectory()) return `${path}: ${dir} is not a directory`;
-    accessSync(dir, fsConstants.W_OK);
+    closeSync(openSync(full, "wx"));
+    unlinkSync(full);
     return null;
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return `${path}: the directory ${dir} does not exist`;
     if (code === "EACCES" || code === "EPERM" || code === "EROFS") return `${path}: the directory ${dir} is not writable`;
     return fileProblem(path, err);
+  }
+}
+
+/** Over `max` characters: the first 80 and last 20 with the length (as @helicoid/lib's shortText; no import, to start fast). */
+function shortText(text: string, max = 200): string {
+  return text.length <= max ? text : `${text.slice(0, 80)}…${text.slice(-20)} (${text.length} characters)`;
+}
+
+/** A long value for one line of a message: over 200 characters, its first 80 and last 20 with the length. */
+export function shorten(text: unknown, max = 200): string {
+  return shortText(String(text).replace(/\s*\n\s*/g, " "), max);
+}
+
+/** Is the output path `out` the input file `input` itself (same device and inode: links count)? */
+export function isSameFile(out: string, input: string): boolean {
+  try {
+    const a = statSync(out);
+    const b = statSync(input);
+    return a.dev === b.dev && a.ino === b.ino;
+  } catch {
+    return false;
   }
 }
 

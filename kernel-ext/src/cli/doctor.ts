@@ -12,7 +12,7 @@
 import { existsSync, readFileSync, realpathSync } from "node:fs";
 import { join } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { parseStrict, UsageError, type CommandIO } from "./args.js";
 import { binPath, KERNEL_NAME, LAB_EXTENSION_NAME, labExtensionSource } from "./install.js";
 import {
   findLabExtensions,
@@ -222,9 +222,13 @@ export function formatReport(r: DoctorReport): string {
 export const doctorUsage = "helicoid doctor [--json] [--start-kernel] [--prefix DIR]";
 
 export async function doctorCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--prefix"]);
-  if (a.positional.length > 0) {
-    io.stderr(`usage: ${doctorUsage}\n`);
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: ["--json", "--start-kernel"], valued: { "--prefix": "a Jupyter prefix directory" } });
+    if (a.positional.length > 0) throw new UsageError(`unexpected argument ${a.positional[0]}`);
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid doctor: ${err.message}\nusage: ${doctorUsage}\n`);
     return 2;
   }
   const r = await diagnose({ prefix: a.options.get("--prefix"), startKernel: a.flags.has("--start-kernel") });

@@ -10,9 +10,10 @@
  * (fitSeries.ts).
  * Exit codes (both modes): 0 success, 1 a fit that failed (the message says why), 2 bad input.
  */
-import { readFileSync } from "node:fs";
+import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError } from "@helicoid/lib";
+import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -23,6 +24,28 @@ const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value 
                     [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
        helicoid fit --list [--json]
 ${seriesUsage}`;
+
+/** Largest profile CSV read (bytes): a line profile of a million points is about 40 MB. */
+export const PROFILE_FILE_LIMIT = 256e6;
+
+/** The text of a profile CSV, refused before reading when it is larger than PROFILE_FILE_LIMIT. */
+export function readProfileText(file: string): string {
+  const size = statSync(file).size;
+  if (size > PROFILE_FILE_LIMIT) {
+    throw new InputError("FILE", file, `a profile CSV of at most ${PROFILE_FILE_LIMIT / 1e6} MB`, `This file has ${(size / 1e6).toFixed(0)} MB; reading it as text would need about ${((6 * size) / 1e9).toFixed(1)} GB of memory (budget 2 GB)`);
+  }
+  return readFileSync(file, "utf8");
+}
+
+const FIT_OPTIONS: StrictSpec = {
+  flags: ["--json", "--list", "--drop-nan", "--profile", "--help", "-h"],
+  valued: {
+    "--model": "a model id (helicoid fit --list)", "-m": "a model id (helicoid fit --list)", "--x-unit": "a length unit such as nm", "--y-unit": "a unit of the signal",
+    "--start": "name=value", "--fix": "name or name=value", "--free": "a parameter name",
+  },
+  repeatable: ["--start", "--fix", "--free"],
+  aliases: [["--model", "-m"]],
+};
 
 export async function fitCommand(args: string[], io: FitIo): Promise<number> {
   if (args.includes("--series")) return fitSeriesCommand(args, io);
@@ -38,37 +61,39 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
   const fixRaw: Array<[string, string | null]> = [];
   const free: string[] = [];
   try {
-    for (let i = 0; i < args.length; i++) {
-      const a = args[i];
-      const next = () => {
-        const v = args[++i];
-        if (v === undefined) throw new InputError(a, "(missing)", "a value after the option");
-        return v;
-      };
-      if (a === "--json") json = true;
-      else if (a === "--list") list = true;
-      else if (a === "--drop-nan") dropNaN = true;
-      else if (a === "--profile") profile = true;
-      else if (a === "--model" || a === "-m") modelId = next();
-      else if (a === "--x-unit") xUnit = next();
-      else if (a === "--y-unit") yUnit = next();
-      else if (a === "--start") {
-        const v = next();
-        const k = v.indexOf("=");
-        if (k < 1) throw new InputError("--start", v, "name=value");
-        startRaw.push([v.slice(0, k), v.slice(k + 1)]);
-      } else if (a === "--fix") {
-        const v = next();
-        const k = v.indexOf("=");
-        fixRaw.push(k < 0 ? [v, null] : [v.slice(0, k), v.slice(k + 1)]);
-      } else if (a === "--free") free.push(next());
-      else if (a === "--help" || a === "-h") {
-        io.stdout(usage + "\n");
-        return 0;
-      } else if (a.startsWith("-")) throw new InputError("option", a, `one of the options of helicoid fit (${usage.split("\n")[0]})`);
-      else if (file === undefined) file = a;
-      else throw new InputError("FILE", a, "a single input file");
+    let a: ReturnType<typeof parseStrict>;
+    try {
+      a = parseStrict(args, FIT_OPTIONS);
+    } catch (err) {
+      if (err instanceof UsageError) {
+        io.stderr(`helicoid fit: ${err.message}\n${usage.split("\n")[0]}\n`);
+        return 2;
+      }
+      throw err;
     }
+    if (a.flags.has("--help") || a.flags.has("-h")) {
+      io.stdout(usage + "\n");
+      return 0;
+    }
+    json = a.flags.has("--json");
+    list = a.flags.has("--list");
+    dropNaN = a.flags.has("--drop-nan");
+    profile = a.flags.has("--profile");
+    modelId = a.options.get("--model") ?? a.options.get("-m");
+    xUnit = a.options.get("--x-unit");
+    yUnit = a.options.get("--y-unit");
+    for (const v of a.lists.get("--start") ?? []) {
+      const k = v.indexOf("=");
+      if (k < 1) throw new InputError("--start", v, "name=value");
+      startRaw.push([v.slice(0, k), v.slice(k + 1)]);
+    }
+    for (const v of a.lists.get("--fix") ?? []) {
+      const k = v.indexOf("=");
+      fixRaw.push(k < 0 ? [v, null] : [v.slice(0, k), v.slice(k + 1)]);
+    }
+    free.push(...(a.lists.get("--free") ?? []));
+    if (a.positional.length > 1) throw new InputError("FILE", a.positional.join(", "), "a single input file");
+    file = a.positional[0];
     if (list) {
       if (json) io.stdout(JSON.stringify(profileModels.map((m) => ({ id: m.id, title: m.title, signalUnit: m.signalUnit, parameters: m.parameters.map((p) => ({ name: p.name, unit: p.unit ?? "", default: p.value, fixed: !!p.fixed })) })), null, 2) + "\n");
       else {
@@ -82,9 +107,10 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     const model = getProfileModel(modelId);
     let text: string;
     try {
-      text = readFileSync(file, "utf8");
+      text = readProfileText(file);
     } catch (err) {
-      throw new InputError("FILE", file, "a readable file", (err as Error).message);
+      if (err instanceof InputError) throw err;
+      throw new InputError("FILE", file, "a readable file", fileReason(err));
     }
     const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });
     const unitOf = (name: string) => model.parameters.find((p) => p.name === name)?.unit ?? "";

@@ -16,8 +16,10 @@
  * Exit codes: 0 success, 1 a fit that failed (the message says why), 2 bad input (the parameter,
  * the value and what was expected).
  */
-import { readFileSync } from "node:fs";
-import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import { readFileSync, statSync } from "node:fs";
+import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import { readProfileText } from "./fit.js";
+import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 
 export interface FitSeriesIo {
   stdout: (s: string) => void;
@@ -147,6 +149,16 @@ function oneOf<T extends string>(option: string, v: string, allowed: readonly T[
   return v as T;
 }
 
+const SERIES_OPTIONS: StrictSpec = {
+  flags: ["--series", "--json", "--profile", "--drop-nan", "--help", "-h"],
+  valued: {
+    "--film": "Ms=..,t=..,A=..,D=..,Ku=..", "--dmi": "interfacial or bulk", "--fit-ku": "auto, yes or no", "--method": "two-stage or global",
+    "--texture": "skyrmion or wall360", "--model": "a model id", "-m": "a model id", "--confidence": "a level such as 0.95",
+    "--x-unit": "a length unit such as nm", "--y-unit": "a unit of the signal",
+  },
+  aliases: [["--model", "-m"]],
+};
+
 /** `helicoid fit --series ...` (args without the command name; "--series" may appear anywhere). */
 export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise<number> {
   const inputs: string[] = [];
@@ -163,35 +175,38 @@ export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise
   let xUnit: string | undefined;
   let yUnit: string | undefined;
   try {
-    for (let i = 0; i < args.length; i++) {
-      const a = args[i];
-      const next = () => {
-        const v = args[++i];
-        if (v === undefined) throw new InputError(a, "(missing)", "a value after the option");
-        return v;
-      };
-      if (a === "--series") continue;
-      else if (a === "--json") json = true;
-      else if (a === "--profile") profile = true;
-      else if (a === "--drop-nan") dropNaN = true;
-      else if (a === "--film") filmRaw = next();
-      else if (a === "--dmi") dmi = oneOf(a, next(), ["interfacial", "bulk"] as const);
-      else if (a === "--fit-ku") fitKu = { auto: "auto" as const, yes: true, no: false }[oneOf(a, next(), ["auto", "yes", "no"] as const)];
-      else if (a === "--method") method = oneOf(a, next(), ["two-stage", "global"] as const);
-      else if (a === "--texture") texture = oneOf(a, next(), ["skyrmion", "wall360"] as const);
-      else if (a === "--model" || a === "-m") model = next();
-      else if (a === "--confidence") {
-        const v = next();
-        confidence = Number(v);
-        if (!(confidence > 0 && confidence < 1)) throw new InputError(a, v, "a confidence level between 0 and 1, e.g. 0.95");
-      } else if (a === "--x-unit") xUnit = next();
-      else if (a === "--y-unit") yUnit = next();
-      else if (a === "--help" || a === "-h") {
-        io.stdout(`usage:\n${seriesUsage}\n`);
-        return 0;
-      } else if (a.startsWith("-")) throw new InputError("option", a, `one of the options of helicoid fit --series:\n${seriesUsage}`);
-      else inputs.push(a);
+    let a: ReturnType<typeof parseStrict>;
+    try {
+      a = parseStrict(args, SERIES_OPTIONS);
+    } catch (err) {
+      if (err instanceof UsageError) {
+        io.stderr(`helicoid fit --series: ${err.message}\n${"usage:\n" + seriesUsage}\n`);
+        return 2;
+      }
+      throw err;
     }
+    if (a.flags.has("--help") || a.flags.has("-h")) {
+      io.stdout(`usage:\n${seriesUsage}\n`);
+      return 0;
+    }
+    json = a.flags.has("--json");
+    profile = a.flags.has("--profile");
+    dropNaN = a.flags.has("--drop-nan");
+    filmRaw = a.options.get("--film");
+    const opt = (n: string) => a.options.get(n);
+    if (opt("--dmi") !== undefined) dmi = oneOf("--dmi", opt("--dmi")!, ["interfacial", "bulk"] as const);
+    if (opt("--fit-ku") !== undefined) fitKu = { auto: "auto" as const, yes: true, no: false }[oneOf("--fit-ku", opt("--fit-ku")!, ["auto", "yes", "no"] as const)];
+    if (opt("--method") !== undefined) method = oneOf("--method", opt("--method")!, ["two-stage", "global"] as const);
+    if (opt("--texture") !== undefined) texture = oneOf("--texture", opt("--texture")!, ["skyrmion", "wall360"] as const);
+    model = opt("--model") ?? opt("-m");
+    if (opt("--confidence") !== undefined) {
+      const v = opt("--confidence")!;
+      confidence = /^\s*(0?\.\d+)\s*$/.test(v) ? Number(v) : NaN;
+      if (!(confidence > 0 && confidence < 1)) throw new InputError("--confidence", v, "a confidence level between 0 and 1, e.g. 0.95");
+    }
+    xUnit = opt("--x-unit");
+    yUnit = opt("--y-unit");
+    inputs.push(...a.positional);
     if (inputs.length === 0) throw new InputError("FILE", "(missing)", "two or more CSV profiles, each FILE@<field> or with a \"field:\" header line");
     if (filmRaw === undefined) throw new InputError("--film", "(missing)", "Ms=..,t=..,A=..,D=..,Ku=.. (Ms and t held; A, D, Ku start values), e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
     const film = makeFilm({ ...parseFilmOption(filmRaw), dmi });
@@ -202,9 +217,10 @@ export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise
       const { file, suffix } = splitFileArg(arg);
       let text: string;
       try {
-        text = readFileSync(file, "utf8");
+        text = readProfileText(file);
       } catch (err) {
-        throw new InputError("FILE", file, "a readable file", (err as Error).message);
+        if (err instanceof InputError) throw err;
+        throw new InputError("FILE", file, "a readable file", fileReason(err));
       }
       const B = fieldOf(file, suffix, text);
       const csv = readProfileCsv(text, { source: file, dropNaN, xUnit, yUnit });

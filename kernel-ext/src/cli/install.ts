@@ -12,7 +12,7 @@
 import { cpSync, existsSync, mkdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
 import { candidateDataDirs, dataDirFor } from "./jupyterPaths.js";
 import { widgetsDir } from "../notebook/export.js";
 import { findLabExtensions, JUPYTERLAB_MAJOR, jupyterCommand, jupyterDataDirs, jupyterVersions, majorOf, WIDGET_MANAGER, widgetManagerProblem } from "./jupyterEnv.js";
@@ -149,9 +149,14 @@ export function uninstall(opts: { prefix?: string }): string[] {
 }
 
 export async function installCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--prefix"]);
-  if (a.positional.length > 0) {
-    io.stderr("usage: helicoid install [--user | --prefix DIR] [--no-widget-manager]\n");
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: ["--user", "--no-widget-manager"], valued: { "--prefix": "a directory" } });
+    if (a.positional.length > 0) throw new UsageError(`unexpected argument ${shorten(a.positional[0])}`);
+    if (a.flags.has("--user") && a.options.has("--prefix")) throw new UsageError("--user and --prefix both given: give one");
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid install: ${err.message}\nusage: helicoid install [--user | --prefix DIR] [--no-widget-manager]\n`);
     return 2;
   }
   const r = install({ user: a.flags.has("--user"), prefix: a.options.get("--prefix"), widgetManager: !a.flags.has("--no-widget-manager") });
@@ -164,7 +169,15 @@ export async function installCommand(args: string[], io: CommandIO): Promise<num
 }
 
 export async function uninstallCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--prefix"]);
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: [], valued: { "--prefix": "a directory" } });
+    if (a.positional.length > 0) throw new UsageError(`unexpected argument ${shorten(a.positional[0])}`);
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid uninstall: ${err.message}\nusage: helicoid uninstall [--prefix DIR]\n`);
+    return 2;
+  }
   const removed = uninstall({ prefix: a.options.get("--prefix") });
   io.stdout(removed.length ? removed.map((p) => `removed ${p}\n`).join("") : "nothing to remove: no helicoid kernelspec or extension found\n");
   return 0;

@@ -5,11 +5,20 @@
 import { HelicoidServer } from "../comm/server.js";
 import { currentContext, realStderr, reportError } from "../display/output.js";
 import { ExecutionSession } from "../notebook/session.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { parseStrict, UsageError, type CommandIO } from "./args.js";
 
 export async function kernelCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--connection-file", "-f"]);
-  const file = a.options.get("--connection-file") ?? a.options.get("-f") ?? a.positional[0];
+  let file: string | undefined;
+  try {
+    const a = parseStrict(args, { flags: [], valued: { "--connection-file": "the connection file Jupyter wrote", "-f": "the connection file Jupyter wrote" }, aliases: [["--connection-file", "-f"]] });
+    if (a.positional.length > 1) throw new UsageError(`one connection file expected, ${a.positional.length} given`);
+    file = a.options.get("--connection-file") ?? a.options.get("-f") ?? a.positional[0];
+    if (file !== undefined && a.positional.length > 0 && (a.options.has("--connection-file") || a.options.has("-f"))) throw new UsageError("the connection file given twice: give it once");
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid kernel: ${err.message}\n`);
+    return 2;
+  }
   if (!file) {
     io.stderr("usage: helicoid kernel --connection-file FILE\n");
     return 2;

@@ -12,7 +12,7 @@ import { createServer } from "node:net";
 import { rmSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { install } from "./install.js";
-import { parseArgs, UsageError, type CommandIO } from "./args.js";
+import { parseStrict, UsageError, type CommandIO } from "./args.js";
 import { ensureLabFrontend, labFrontendState, prepareLabSite } from "./labFrontend.js";
 import { checkoutRoot } from "./places.js";
 
@@ -81,7 +81,14 @@ function freePort(): Promise<number> {
 }
 
 export async function labCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--notebook-dir", "--port"]);
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: ["--dry-run"], valued: { "--notebook-dir": "a directory of notebooks", "--port": "a port number" } });
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid lab: ${err.message} (give Jupyter's own options after --)\nusage: helicoid lab [--dry-run] [--notebook-dir DIR] [--port N] [-- JUPYTER OPTIONS]\n`);
+    return 2;
+  }
   const choice = chooseFrontEnd();
   // A checkout opens its example notebooks; an installed package opens the folder you are in.
   const root = checkoutRoot();

@@ -5,7 +5,7 @@
  *   helicoid uninstall [--prefix DIR]
  *   helicoid doctor [--json] [--start-kernel] what Helicoid finds of your Jupyter, and what to do
  *   helicoid kernel --connection-file FILE   (started by Jupyter)
- *   helicoid run NOTEBOOK [-o OUT]           execute a notebook in process
+ *   helicoid run NOTEBOOK [-o OUT] [--timeout S]  execute a notebook (child process, per-cell limit)
  *   helicoid export NOTEBOOK -o PAGE.html    one self-contained page, live catalogue explorers
  *   helicoid lab [--dry-run]                 JupyterLab 4, Notebook 7 or our front end on jupyter-server
  *   helicoid start                           run the examples and serve the gallery (npm start)
@@ -15,7 +15,8 @@
  *   helicoid fit --series FILE@FIELD ... --film ...   A, D (Ku) from profiles at several fields
  */
 import { KERNEL_VERSION } from "../version.js";
-import { processIO, UsageError, type CommandIO } from "./args.js";
+import { describeError } from "../display/output.js";
+import { processIO, shorten, UsageError, type CommandIO } from "./args.js";
 
 type Command = (args: string[], io: CommandIO) => Promise<number>;
 
@@ -25,10 +26,10 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   doctor: { load: () => require("./doctor.js").doctorCommand, help: "doctor [--json] [--start-kernel]  check Jupyter, the kernelspec, the extension and the widget manager" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
-  run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT]             execute a notebook in process, no Jupyter needed" },
-  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html      a self-contained page; catalogue explorers stay live", ownHelp: true },
+  run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT] [--timeout S] execute a notebook, no Jupyter needed" },
+  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html [--trusted]  a self-contained page; catalogue explorers stay live", ownHelp: true },
   lab: { load: () => require("./lab.js").labCommand, help: "lab [--dry-run] [--notebook-dir DIR] [--port N]\n                                    open notebooks in JupyterLab 4, Notebook 7, or our JupyterLab-based\n                                    front end on jupyter-server; --dry-run says which and why" },
-  start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve]     run the examples and serve the gallery on 127.0.0.1" },
+  start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve] [--timeout S]  run the examples and serve the gallery on 127.0.0.1" },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)", ownHelp: true },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field" },
   fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields", ownHelp: true },
@@ -68,7 +69,10 @@ export async function main(argv: string[], io: CommandIO = processIO): Promise<n
       io.stderr(`helicoid ${name}: ${err.message}\n`);
       return 2;
     }
-    io.stderr(`helicoid ${name}: ${(err as Error)?.stack ?? String(err)}\n`);
+    // One line, never a stack trace (HELICOID_DEBUG=1 shows it).
+    const { ename, evalue, traceback } = describeError(err);
+    io.stderr(`helicoid ${name}: ${ename}: ${shorten(evalue)}\n`);
+    if (process.env.HELICOID_DEBUG) io.stderr(traceback.join("\n") + "\n");
     return 1;
   }
 }

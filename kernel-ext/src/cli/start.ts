@@ -9,11 +9,15 @@ import { createReadStream, existsSync, mkdirSync, readdirSync, readFileSync, sta
 import { createServer, type Server } from "node:http";
 import { basename, extname, join, normalize, resolve, sep } from "node:path";
 import { exportNotebook } from "../notebook/export.js";
-import { parseArgs, type CommandIO } from "./args.js";
+import { parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
+import { parseTimeout } from "./run.js";
 import { binPath, install } from "./install.js";
 import { findJupyter } from "./lab.js";
 import { defaultGalleryDir, exampleNotebooksDir } from "./places.js";
 
+
+/** The time limit of one cell of an example notebook in `helicoid start` (seconds). */
+export const START_CELL_TIMEOUT = 300;
 
 export interface GalleryEntry {
   name: string;
@@ -24,9 +28,9 @@ export interface GalleryEntry {
   seconds: number;
 }
 
-function runNotebookInChild(input: string, out: string): Promise<{ code: number; stderr: string }> {
+function runNotebookInChild(input: string, out: string, timeout: number): Promise<{ code: number; stderr: string }> {
   return new Promise((res) => {
-    const child = spawn(process.execPath, [binPath, "run", input, "-o", out, "--quiet"], { stdio: ["ignore", "ignore", "pipe"] });
+    const child = spawn(process.execPath, [binPath, "run", input, "-o", out, "--quiet", "--timeout", String(timeout)], { stdio: ["ignore", "ignore", "pipe"] });
     let stderr = "";
     child.stderr.on("data", (d) => (stderr += d));
     child.on("exit", (code) => res({ code: code ?? 1, stderr }));
@@ -43,7 +47,7 @@ function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | strin
 }
 
 /** Execute and export every notebook of `notebooksDir` into `outDir`; returns what happened to each. */
-export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void): Promise<GalleryEntry[]> {
+export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void, timeout = START_CELL_TIMEOUT): Promise<GalleryEntry[]> {
   mkdirSync(outDir, { recursive: true });
   const names = readdirSync(notebooksDir).filter((f) => f.endsWith(".ipynb")).sort();
   const entries: GalleryEntry[] = [];
@@ -52,7 +56,7 @@ export async function buildGallery(notebooksDir: string, outDir: string, log: (s
     const stem = name.replace(/\.ipynb$/, "");
     const executed = join(outDir, `${stem}.ipynb`);
     log(`running ${name} ...\n`);
-    const r = await runNotebookInChild(join(notebooksDir, name), executed);
+    const r = await runNotebookInChild(join(notebooksDir, name), executed, timeout);
     const entry: GalleryEntry = { name, title: stem, page: null, executed: existsSync(executed) ? executed : null, error: null, seconds: 0 };
     if (r.code !== 0) entry.error = r.stderr.trim().split("\n").slice(-3).join(" ") || `exit status ${r.code}`;
     if (entry.executed) {
@@ -108,8 +112,16 @@ const mime: Record<string, string> = { ".html": "text/html; charset=utf-8", ".ip
 export function serveDirectory(dir: string, port: number): Promise<Server> {
   const root = resolve(dir);
   const server = createServer((req, res) => {
-    const url = new URL(req.url ?? "/", "http://127.0.0.1");
-    const rel = decodeURIComponent(url.pathname) === "/" ? "index.html" : decodeURIComponent(url.pathname).slice(1);
+    let path: string;
+    try {
+      path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
+      if (path.includes("\0")) throw new URIError("NUL in the path");
+    } catch {
+      // A malformed percent-encoding (/%, /%zz, /%ff) or URL is the client's error: 400, keep serving.
+      res.writeHead(400, { "content-type": "text/plain" }).end("bad request: the path is not a valid percent-encoded URL path\n");
+      return;
+    }
+    const rel = path === "/" ? "index.html" : path.slice(1);
     const file = normalize(join(root, rel));
     if (!(file === root || file.startsWith(root + sep)) || !existsSync(file) || !statSync(file).isFile() || (req.method !== "GET" && req.method !== "HEAD")) {
       res.writeHead(404, { "content-type": "text/plain" }).end("not found\n");
@@ -126,7 +138,19 @@ export function serveDirectory(dir: string, port: number): Promise<Server> {
 }
 
 export async function startCommand(args: string[], io: CommandIO): Promise<number> {
-  const a = parseArgs(args, ["--port", "--out", "--notebooks"]);
+  let a: ReturnType<typeof parseStrict>;
+  let timeout = START_CELL_TIMEOUT;
+  try {
+    a = parseStrict(args, { flags: ["--no-serve"], valued: { "--port": "a port number such as 8765", "--out": "a directory", "--notebooks": "a directory of .ipynb files", "--timeout": "seconds per cell, such as 300" } });
+    if (a.positional.length > 0) throw new UsageError(`unexpected argument ${shorten(a.positional[0])}`);
+    if (a.options.has("--timeout")) timeout = parseTimeout(a.options.get("--timeout")!);
+    const p = a.options.get("--port");
+    if (p !== undefined && !(/^\d{1,5}$/.test(p) && Number(p) <= 65535)) throw new UsageError(`--port is ${shorten(JSON.stringify(p))}; expected a port number from 0 to 65535`);
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    io.stderr(`helicoid start: ${err.message}\n`);
+    return 2;
+  }
   const given = a.options.get("--notebooks");
   const examples = exampleNotebooksDir();
   if (given === undefined && examples === null) {
@@ -135,7 +159,7 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   }
   const notebooks = resolve(given ?? examples!);
   const out = resolve(a.options.get("--out") ?? defaultGalleryDir());
-  const entries = await buildGallery(notebooks, out, io.stderr);
+  const entries = await buildGallery(notebooks, out, io.stderr, timeout);
   const failed = entries.filter((e) => e.error);
   const jupyter = findJupyter();
   if (jupyter) {

@@ -277,12 +277,27 @@ export function reportError(err: unknown, sink: OutputSink | undefined = current
 }
 
 export function describeError(err: unknown): { ename: string; evalue: string; traceback: string[] } {
-  if (err instanceof Error) {
-    const stack = typeof err.stack === "string" ? err.stack : `${err.name}: ${err.message}`;
-    return { ename: err.name || "Error", evalue: err.message, traceback: stack.split("\n").filter((l) => !internalFrame.test(l)) };
+  // A thrown value may be hostile (getters or toString that throw): every read is guarded.
+  try {
+    if (err instanceof Error) {
+      const name = guarded(() => String(err.name || "Error"), "Error");
+      const message = guarded(() => String(err.message), "(its message could not be read)");
+      const stack = guarded(() => (typeof err.stack === "string" ? err.stack : `${name}: ${message}`), `${name}: ${message}`);
+      return { ename: name, evalue: message, traceback: stack.split("\n").filter((l) => !internalFrame.test(l)) };
+    }
+    const text = typeof err === "string" ? err : safeString(err);
+    return { ename: "Error", evalue: text, traceback: [`Uncaught ${text}`] };
+  } catch {
+    return { ename: "Error", evalue: "a value that cannot be shown was thrown", traceback: ["Uncaught a value that cannot be shown"] };
   }
-  const text = typeof err === "string" ? err : safeString(err);
-  return { ename: "Error", evalue: text, traceback: [`Uncaught ${text}`] };
+}
+
+function guarded<T>(read: () => T, fallback: T): T {
+  try {
+    return read();
+  } catch {
+    return fallback;
+  }
 }
 
 /** Stack frames of the machinery that runs a cell (Node's vm, tslab, this kernel), not of user code. */
@@ -290,9 +305,15 @@ const internalFrame = /^\s+at .*(node:vm|node:async_hooks|node:internal|[\\/]tsl
 
 function safeString(v: unknown): string {
   try {
-    return JSON.stringify(v) ?? String(v);
+    const j = JSON.stringify(v);
+    if (j !== undefined) return j;
   } catch {
+    /* fall through */
+  }
+  try {
     return String(v);
+  } catch {
+    return `a thrown ${typeof v} that cannot be shown (its toString throws)`;
   }
 }
 

@@ -10,7 +10,8 @@
  */
 import { readFileSync, writeFileSync, existsSync } from "node:fs";
 import { dirname, join, resolve, basename } from "node:path";
-import { fileReason, outputFileProblem } from "../cli/args.js";
+import { fileReason, isSameFile, outputFileProblem, parseStrict, shorten, UsageError } from "../cli/args.js";
+import { sanitizeUntrustedHtml, strictBase64 } from "./sanitize.js";
 
 export interface ExportOptions {
   /** Page title (default: the notebook's first heading, else "Helicoid notebook"). */
@@ -21,6 +22,11 @@ export interface ExportOptions {
   sourceName?: string;
   /** Show code cells (default true). */
   showCode?: boolean;
+  /**
+   * Keep the notebook's raw HTML and Markdown as they are, scripts included (default false: the
+   * notebook is untrusted and its HTML is sanitized; see sanitize.ts). Only for notebooks you trust.
+   */
+  trusted?: boolean;
 }
 
 export class ExportError extends Error {
@@ -91,20 +97,39 @@ function widgetState(nb: { metadata?: Json }): { state: Json; ids: Set<string> }
   return { state: w, ids: new Set(Object.keys(w.state as Json)) };
 }
 
-function renderOutput(out: Json, widgetIds: Set<string>, counters: { widgets: number; plots: number; missing: number }): string {
+interface RenderState {
+  widgets: number;
+  plots: number;
+  missing: number;
+  trusted: boolean;
+}
+
+/** HTML from the notebook: as is when trusted, else sanitized. */
+function notebookHtml(html: string, st: RenderState): string {
+  return st.trusted ? html : sanitizeUntrustedHtml(html);
+}
+
+function imageTag(mime: string, value: unknown): string {
+  const b64 = strictBase64(text(value));
+  if (b64 === null) return `<div class="hx-out hx-image-invalid"><em>(an ${escapeHtml(mime)} output whose data is not valid base64; not shown)</em></div>`;
+  return `<div class="hx-out hx-image"><img alt="output image" src="data:${escapeHtml(mime)};base64,${b64}"></div>`;
+}
+
+function renderOutput(out: Json, widgetIds: Set<string>, counters: RenderState): string {
+  if (!out || typeof out !== "object" || Array.isArray(out)) return `<pre class="hx-out hx-plain"><em>(an output that is not an object: ${escapeHtml(shorten(JSON.stringify(out) ?? String(out)))}; skipped)</em></pre>`;
   const type = out.output_type;
   if (type === "stream") {
     const name = out.name === "stderr" ? "stderr" : "stdout";
     return `<pre class="hx-out hx-stream hx-${name}">${escapeHtml(stripAnsi(text(out.text)))}</pre>`;
   }
   if (type === "error") {
-    const tb = Array.isArray(out.traceback) && out.traceback.length ? (out.traceback as string[]).map(stripAnsi).join("\n") : `${out.ename}: ${out.evalue}`;
+    const tb = Array.isArray(out.traceback) && out.traceback.length ? (out.traceback as unknown[]).map((l) => stripAnsi(text(l))).join("\n") : `${text(out.ename)}: ${text(out.evalue)}`;
     return `<pre class="hx-out hx-error-output">${escapeHtml(tb)}</pre>`;
   }
   if (type !== "display_data" && type !== "execute_result" && type !== "update_display_data") return "";
-  const data = (out.data ?? {}) as MimeBundle;
+  const data = (out.data && typeof out.data === "object" ? out.data : {}) as MimeBundle;
   const plain = data["text/plain"] !== undefined ? escapeHtml(text(data["text/plain"])) : "";
-  if (data[WIDGET_VIEW]) {
+  if (data[WIDGET_VIEW] && typeof data[WIDGET_VIEW] === "object") {
     const view = data[WIDGET_VIEW] as Json;
     const id = String(view.model_id ?? "");
     if (widgetIds.has(id)) {
@@ -122,21 +147,65 @@ function renderOutput(out: Json, widgetIds: Set<string>, counters: { widgets: nu
     counters.plots++;
     return `<div class="hx-out hx-plotly"><script type="${PLOTLY}">${scriptJson(data[PLOTLY])}</script><div class="hx-plotly-fallback">${plain}</div></div>`;
   }
-  if (data["text/html"] !== undefined) return `<div class="hx-out hx-html">${text(data["text/html"])}</div>`;
-  if (data["image/svg+xml"] !== undefined) return `<div class="hx-out hx-image">${text(data["image/svg+xml"])}</div>`;
-  for (const mime of ["image/png", "image/jpeg", "image/gif"]) {
-    if (data[mime] !== undefined) return `<div class="hx-out hx-image"><img alt="output image" src="data:${mime};base64,${text(data[mime]).replace(/\s/g, "")}"></div>`;
+  if (data["text/html"] !== undefined) return `<div class="hx-out hx-html">${notebookHtml(text(data["text/html"]), counters)}</div>`;
+  if (data["image/svg+xml"] !== undefined) {
+    // Untrusted SVG is shown as an image: an SVG in <img> never runs script.
+    if (counters.trusted) return `<div class="hx-out hx-image">${text(data["image/svg+xml"])}</div>`;
+    return `<div class="hx-out hx-image"><img alt="output image" src="data:image/svg+xml;base64,${Buffer.from(text(data["image/svg+xml"]), "utf8").toString("base64")}"></div>`;
   }
-  if (data["text/markdown"] !== undefined) return `<div class="hx-out hx-markdown">${renderMarkdown(text(data["text/markdown"]))}</div>`;
+  for (const mime of ["image/png", "image/jpeg", "image/gif"]) {
+    if (data[mime] !== undefined) return imageTag(mime, data[mime]);
+  }
+  if (data["text/markdown"] !== undefined) return `<div class="hx-out hx-markdown">${notebookHtml(renderMarkdown(text(data["text/markdown"])), counters)}</div>`;
   if (data["text/latex"] !== undefined) return `<pre class="hx-out hx-latex">${escapeHtml(text(data["text/latex"]))}</pre>`;
-  if (data["application/json"] !== undefined) return `<pre class="hx-out hx-json">${escapeHtml(JSON.stringify(data["application/json"], null, 2))}</pre>`;
+  if (data["application/json"] !== undefined) return `<pre class="hx-out hx-json">${escapeHtml(JSON.stringify(data["application/json"], null, 2) ?? "")}</pre>`;
   if (plain) return `<pre class="hx-out hx-plain">${plain}</pre>`;
   return "";
 }
 
+/**
+ * The widget state of an untrusted notebook, with what the standard controls would show as HTML
+ * cleaned the same way: HTML widgets' values, descriptions shown as HTML, and the outputs held by
+ * Output widgets (rendered in the page as trusted by the widget manager).
+ */
+function sanitizeWidgetState(state: Json): Json {
+  const copy = structuredClone(state);
+  const models = (copy.state ?? {}) as Record<string, Json>;
+  for (const m of Object.values(models)) {
+    const st = m && typeof m === "object" ? (m.state as Json | undefined) : undefined;
+    if (!st || typeof st !== "object") continue;
+    if (/^HTML(Math)?Model$/.test(String(st._model_name ?? "")) && typeof st.value === "string") st.value = sanitizeUntrustedHtml(st.value);
+    if (typeof st.description === "string" && st.description_allow_html) st.description = sanitizeUntrustedHtml(st.description);
+    if (Array.isArray(st.outputs)) {
+      st.outputs = (st.outputs as unknown[]).filter((o) => o && typeof o === "object").map((o) => sanitizeOutputData(o as Json));
+    }
+  }
+  return copy;
+}
+
+function sanitizeOutputData(o: Json): Json {
+  const data = o.data && typeof o.data === "object" ? { ...(o.data as MimeBundle) } : undefined;
+  if (!data) return o;
+  if (data["text/html"] !== undefined) data["text/html"] = sanitizeUntrustedHtml(text(data["text/html"]));
+  if (data["text/markdown"] !== undefined) {
+    data["text/html"] ??= sanitizeUntrustedHtml(renderMarkdown(text(data["text/markdown"])));
+    delete data["text/markdown"];
+  }
+  if (data["image/svg+xml"] !== undefined) {
+    data["text/html"] = `<img alt="output image" src="data:image/svg+xml;base64,${Buffer.from(text(data["image/svg+xml"]), "utf8").toString("base64")}">`;
+    delete data["image/svg+xml"];
+  }
+  for (const mime of ["image/png", "image/jpeg", "image/gif"]) {
+    if (data[mime] === undefined) delete data[mime];
+    else if (strictBase64(text(data[mime])) === null) delete data[mime];
+  }
+  for (const mime of ["application/javascript", "text/javascript"]) delete data[mime];
+  return { ...o, data };
+}
+
 function firstHeading(cells: Json[]): string | null {
   for (const c of cells) {
-    if (c.cell_type !== "markdown") continue;
+    if (!c || typeof c !== "object" || c.cell_type !== "markdown") continue;
     const m = /^\s{0,3}#{1,3}\s+(.+?)\s*#*\s*$/m.exec(text(c.source));
     if (m) return m[1]!.replace(/[*_`]/g, "");
   }
@@ -178,13 +247,15 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
   const cells = nb.cells;
   const ws = widgetState(nb);
   const ids = ws?.ids ?? new Set<string>();
-  const counters = { widgets: 0, plots: 0, missing: 0 };
+  const trusted = options.trusted ?? false;
+  const counters: RenderState = { widgets: 0, plots: 0, missing: 0, trusted };
   const showCode = options.showCode ?? true;
   const parts: string[] = [];
   for (const cell of cells) {
+    if (!cell || typeof cell !== "object") continue;
     const source = text(cell.source);
     if (cell.cell_type === "markdown") {
-      parts.push(`<section class="hx-cell hx-markdown-cell">${renderMarkdown(source)}</section>`);
+      parts.push(`<section class="hx-cell hx-markdown-cell">${notebookHtml(renderMarkdown(source), counters)}</section>`);
     } else if (cell.cell_type === "code") {
       const count = cell.execution_count == null ? " " : String(cell.execution_count);
       const outputs = Array.isArray(cell.outputs) ? (cell.outputs as Json[]).map((o) => renderOutput(o, ids, counters)).join("\n") : "";
@@ -210,13 +281,13 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
     note +
     parts.join("\n") +
     `\n<footer>Exported by Helicoid${options.sourceName ? ` from ${escapeHtml(basename(options.sourceName))}` : ""}. Results are estimates under the assumptions stated with each calculator.</footer>\n</main>\n` +
-    (ws && counters.widgets > 0 ? `<script type="${WIDGET_STATE}">${scriptJson(ws.state)}</script>\n` : "") +
+    (ws && counters.widgets > 0 ? `<script type="${WIDGET_STATE}">${scriptJson(trusted ? ws.state : sanitizeWidgetState(ws.state))}</script>\n` : "") +
     (needsScript ? `<script>${scriptSource(bundle)}</script>\n` : "") +
     `</body>\n</html>\n`
   );
 }
 
-const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code]\nExit status: 0 done, 2 bad input or usage (a missing or malformed notebook, an unwritable output path), 1 a failed export.";
+const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code] [--trusted]\n  --trusted  keep the notebook's raw HTML and scripts (only for notebooks you trust; by default HTML and Markdown are sanitized)\nExit status: 0 done, 2 bad input or usage (a missing or malformed notebook, an unwritable output path), 1 a failed export.";
 
 type Out = ((s: string) => unknown) | { write(s: string): unknown };
 
@@ -229,30 +300,27 @@ export async function exportCommand(args: string[], cio: { stdout: Out; stderr: 
   const w = (o: Out) => ({ write: (s: string) => (typeof o === "function" ? o(s) : o.write(s)) });
   const io = { stdout: w(cio.stdout), stderr: w(cio.stderr) };
   const usage = (message: string) => { io.stderr.write(`helicoid export: ${message}\n${USAGE}\n`); return 2; };
-  let input: string | undefined;
-  let output: string | undefined;
-  let title: string | undefined;
-  let showCode = true;
-  for (let i = 0; i < args.length; i++) {
-    const a = args[i]!;
-    if (a === "-o" || a === "--output" || a.startsWith("--output=")) {
-      const v = a.startsWith("--output=") ? a.slice(9) : args[++i];
-      if (v === undefined || v === "") return usage(`${a.replace(/=.*/, "")} needs a file name (such as PAGE.html)`);
-      if (output !== undefined) return usage(`-o given twice (${output}, ${v}): give it once`);
-      output = v;
-    } else if (a === "--title") {
-      const v = args[++i];
-      if (v === undefined) return usage("--title needs a value (the page title)");
-      title = v;
-    } else if (a === "--no-code") showCode = false;
-    else if (a === "-h" || a === "--help") { io.stdout.write(USAGE + "\n"); return 0; }
-    else if (a.startsWith("-")) return usage(`unknown option ${a}; the options are -o/--output, --title, --no-code`);
-    else if (!input) input = a;
-    else return usage(`more than one notebook given (${input}, ${a})`);
+  let a: ReturnType<typeof parseStrict>;
+  try {
+    a = parseStrict(args, { flags: ["--no-code", "--trusted", "-h", "--help"], valued: { "-o": "a file name such as PAGE.html", "--output": "a file name such as PAGE.html", "--title": "the page title" } });
+  } catch (err) {
+    if (err instanceof UsageError) return usage(err.message);
+    throw err;
   }
+  if (a.flags.has("-h") || a.flags.has("--help")) { io.stdout.write(USAGE + "\n"); return 0; }
+  if (a.options.has("-o") && a.options.has("--output")) return usage(`-o and --output both given (${shorten(a.options.get("-o"))}, ${shorten(a.options.get("--output"))}): give one`);
+  if (a.positional.length > 1) return usage(`more than one notebook given (${shorten(a.positional.join(", "))})`);
+  const input = a.positional[0];
+  const output = a.options.get("-o") ?? a.options.get("--output");
+  const title = a.options.get("--title");
+  const showCode = !a.flags.has("--no-code");
+  const trusted = a.flags.has("--trusted");
   if (!input) return usage("no notebook given");
   const out = output ?? input.replace(/\.ipynb$/i, "") + ".html";
-  if (resolve(out) === resolve(input)) { io.stderr.write(`helicoid export: the output ${out} would overwrite the notebook\n`); return 2; }
+  if (resolve(out) === resolve(input) || isSameFile(out, input)) {
+    io.stderr.write(`helicoid export: the output ${out} is the notebook itself (the same file, or a link to it): choose another -o path (the notebook is never modified)\n`);
+    return 2;
+  }
   let raw: string;
   try {
     raw = readFileSync(input, "utf8");
@@ -266,16 +334,16 @@ export async function exportCommand(args: string[], cio: { stdout: Out; stderr: 
     nb = JSON.parse(raw);
     checkNotebook(nb, input);
   } catch (err) {
-    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : `${input}: not valid JSON (${(err as Error).message})`}\n`);
+    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : `${input}: not valid JSON (${err instanceof RangeError ? "nested too deeply to read" : shorten((err as Error).message)})`}\n`);
     return 2;
   }
   const problem = outputFileProblem(out);
   if (problem !== null) { io.stderr.write(`helicoid export: cannot write ${problem}\n`); return 2; }
   let html: string;
   try {
-    html = exportNotebook(nb, { title, showCode, sourceName: input });
+    html = exportNotebook(nb, { title, showCode, trusted, sourceName: input });
   } catch (err) {
-    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : (err as Error).stack ?? String(err)}\n`);
+    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : `the page could not be built: ${shorten(describeErrorLine(err))}`}\n`);
     return 1;
   }
   try {
@@ -287,9 +355,17 @@ export async function exportCommand(args: string[], cio: { stdout: Out; stderr: 
   io.stdout.write(`wrote ${out} (${(Buffer.byteLength(html) / 1e6).toFixed(2)} MB)\n`);
   // A page of a notebook that was never run has code and no results: say so (not an error).
   const cells = (nb as { cells?: Array<{ cell_type?: string; outputs?: unknown[] }> }).cells ?? [];
-  const code = cells.filter((c) => c.cell_type === "code");
-  if (code.length > 0 && code.every((c) => !c.outputs || c.outputs.length === 0)) {
+  const code = cells.filter((c) => c && typeof c === "object" && c.cell_type === "code");
+  if (code.length > 0 && code.every((c) => !Array.isArray(c.outputs) || c.outputs.length === 0)) {
     io.stderr.write(`helicoid export: note: ${input} has no outputs (it was not run): the page shows code only; run it first with helicoid run ${input} -o RUN.ipynb\n`);
   }
   return 0;
+}
+
+function describeErrorLine(err: unknown): string {
+  try {
+    return err instanceof Error ? `${err.name}: ${err.message}` : String(err);
+  } catch {
+    return "an error that cannot be shown";
+  }
 }

@@ -34,7 +34,8 @@ export function parseNotebook(text: string, file: string): Notebook {
   try {
     raw = JSON.parse(text);
   } catch (err) {
-    throw new NotebookError(file, `not valid JSON (${(err as Error).message}); expected a Jupyter notebook (nbformat 4)`);
+    const why = err instanceof RangeError ? "nested too deeply to read" : String((err as Error)?.message).slice(0, 200);
+    throw new NotebookError(file, `not valid JSON (${why}); expected a Jupyter notebook (nbformat 4)`);
   }
   return checkNotebook(raw, file);
 }
@@ -53,7 +54,12 @@ export function checkNotebook(raw: unknown, file: string): Notebook {
       throw new NotebookError(file, `${where} has a source that is not text (a string or a list of strings)`);
     }
   });
-  const copy = structuredClone(nb) as unknown as Notebook;
+  let copy: Notebook;
+  try {
+    copy = structuredClone(nb) as unknown as Notebook;
+  } catch (err) {
+    throw new NotebookError(file, err instanceof RangeError ? "nested too deeply to read (a notebook is a few levels of JSON)" : `cannot be copied (${String((err as Error)?.message).slice(0, 200)})`);
+  }
   copy.metadata = copy.metadata && typeof copy.metadata === "object" ? copy.metadata : {};
   copy.nbformat_minor = typeof copy.nbformat_minor === "number" ? copy.nbformat_minor : 4;
   for (const c of copy.cells) c.metadata = c.metadata && typeof c.metadata === "object" ? c.metadata : {};

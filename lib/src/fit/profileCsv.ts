@@ -47,10 +47,12 @@ function splitLine(line: string, delim: string | RegExp): string[] {
   return out;
 }
 
+/** A plain decimal number (no hex, binary or octal literals, no "Infinity", no separators). */
+const decimalRe = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
 function numeric(tok: string): number {
-  if (tok === "" || /^nan$/i.test(tok)) return Number.NaN;
-  const v = Number(tok);
-  return v;
+  if (tok === "" || /^nan$/i.test(tok) || !decimalRe.test(tok)) return Number.NaN;
+  return Number(tok);
 }
 
 export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): ProfileCsv {
@@ -65,7 +67,7 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     const line = raw.trim();
     if (line === "" || line.startsWith("#")) return;
     const cells = splitLine(line, delim);
-    if (header === null && rows.length === 0 && cells.some((c) => c !== "" && !/^nan$/i.test(c) && !Number.isFinite(Number(c)))) {
+    if (header === null && rows.length === 0 && cells.some((c) => c !== "" && !/^nan$/i.test(c) && !decimalRe.test(c) && !/^[+-]?(0[xXbBoO][\da-fA-F]+|inf(inity)?)$/i.test(c))) {
       header = cells;
       return;
     }
@@ -139,7 +141,10 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     const vs = js !== null ? numeric(r.cells[js]) : 1;
     for (const [v, j] of [[vx, jx], [vy, jy], [vs, js ?? jx]] as Array<[number, number]>) {
       if (Number.isNaN(v) && !(r.cells[j] === "" || /^nan$/i.test(r.cells[j]))) {
-        throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a number");
+        throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a decimal number such as 12.5 or -3e-9 (no hex, binary or octal literals, no Infinity)");
+      }
+      if (!Number.isNaN(v) && !Number.isFinite(v)) {
+        throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a finite number (this one is beyond the range of double precision)");
       }
     }
     if (Number.isNaN(vx) || Number.isNaN(vy) || Number.isNaN(vs)) {
@@ -167,10 +172,16 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     const xs = order.map((i) => x[i]);
     const ys = order.map((i) => y[i]);
     const ss = sigma ? order.map((i) => sigma[i]) : null;
-    x.splice(0, x.length, ...xs);
-    y.splice(0, y.length, ...ys);
-    if (sigma && ss) sigma.splice(0, sigma.length, ...ss);
+    // Element by element (a spread of 10^5 values into splice overflows the call stack).
+    for (let i = 0; i < order.length; i++) {
+      x[i] = xs[i]!;
+      y[i] = ys[i]!;
+      if (sigma && ss) sigma[i] = ss[i]!;
+    }
     notes.push("positions were not sorted: rows sorted by position (the file is unchanged)");
+  }
+  if (x.length >= 2 && x[0] === x[x.length - 1]) {
+    throw new InputError(`${src}: column ${names[jx]}`, `all ${x.length} values equal to ${rows.find((r) => numeric(r.cells[jx]) * xScale === x[0])?.cells[jx] ?? x[0]}`, "positions that vary: all x values are equal: a profile needs a range of positions");
   }
   return { x, y, sigma, columns: names, xUnit, yUnit, droppedRows: dropped, notes };
 }

@@ -4,3 +4,4 @@ export * from "./npy.js";
 export * from "./delimited.js";
 export * from "./jsonField.js";
 export * from "./readVectorField.js";
+export * from "./budget.js";

@@ -18,6 +18,7 @@
  * JSON has no NaN: vacuum cells are null (or zero vectors). Vectors are normalized on reading.
  */
 import { InputError } from "../errors.js";
+import { checkFieldBudget } from "./budget.js";
 import { parseQuantity } from "../quantity/units.js";
 import { BOUNDARIES } from "../topology/boundary.js";
 import { adoptInterleaved, type VectorField } from "../topology/field.js";
@@ -60,6 +61,15 @@ export function readJsonVectorField(input: Uint8Array | string | object, options
   const cell = d.cell ?? [];
   if (!Array.isArray(cell) || cell.length > 3) throw new InputError(`${file}: cell`, cell, "an array [dx, dy, dz] of lengths (numbers in m or strings with a unit)");
   const sizes = cell.map((c, k) => parseQuantity(`${file}: cell[${k}]`, c as number | string, "m"));
+  // The declared size is checked before anything is allocated: against the budget, and against
+  // the data actually present.
+  checkFieldBudget(file, nx, ny, nz);
+  if (Array.isArray(d.m) && d.m.length !== n && d.m.length !== 3 * n) {
+    throw new InputError(`${file}: m`, d.m, `${3 * n} numbers (interleaved) or ${n} triples for nx*ny*nz = ${nx}*${ny}*${nz} cells`, `found ${d.m.length} entries`);
+  }
+  if (d.m === undefined && Array.isArray(d.mx) && d.mx.length !== n) {
+    throw new InputError(`${file}: mx`, d.mx, `an array of ${n} numbers (nx*ny*nz = ${nx}*${ny}*${nz})`);
+  }
   const m = new Float64Array(3 * n);
   const notes: string[] = [];
   if (d.m !== undefined) {

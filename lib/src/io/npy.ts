@@ -9,6 +9,7 @@
  * maintained for both Node and browsers.
  */
 import { InputError } from "../errors.js";
+import { checkFieldBudget } from "./budget.js";
 import { adoptInterleaved } from "../topology/field.js";
 import type { ReadOptions, ReadResult } from "./readResult.js";
 import { bytesToText } from "./text.js";
@@ -72,6 +73,7 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
   }
   const [nz, ny, nx] = h.shape.length === 3 ? [1, h.shape[0]!, h.shape[1]!] : [h.shape[0]!, h.shape[1]!, h.shape[2]!];
   if (nx < 1 || ny < 1 || nz < 1) throw new InputError(`${file}: shape`, shapeStr, `${EXPECTED_SHAPES} with every size >= 1`);
+  checkFieldBudget(file, nx, ny, nz);
   const count = 3 * nx * ny * nz;
   const need = count * size;
   const have = bytes.length - h.dataOffset;
