@@ -1,0 +1,3 @@
+export * from "./stevens.js";
+export * from "./singleIon.js";
+export * from "./hund.js";
