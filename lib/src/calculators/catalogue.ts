@@ -11,6 +11,7 @@ import { skyrmionCalculators } from "./skyrmions.js";
 import { fitCalculators } from "./fit.js";
 import { dynamicsCalculators } from "./dynamics.js";
 import { chainCalculators } from "./chains.js";
+import { ionCalculators } from "./ions.js";
 
 export const catalogue: readonly CalculatorSpec[] = [
   ...wallCalculators,
@@ -20,6 +21,7 @@ export const catalogue: readonly CalculatorSpec[] = [
   ...fitCalculators,
   ...dynamicsCalculators,
   ...chainCalculators,
+  ...ionCalculators,
 ];
 
 export function getCalculator(id: string): CalculatorSpec {
