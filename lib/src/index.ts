@@ -15,3 +15,4 @@ export * from "./io/index.js";
 export * from "./calculators/index.js";
 export * from "./chains/index.js";
 export * from "./ions/index.js";
+export * from "./lattices/index.js";
