@@ -1,1 +1,2 @@
 export * from "./dipolar.js";
+export * from "./meanField.js";
