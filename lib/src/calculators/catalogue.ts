@@ -12,6 +12,7 @@ import { fitCalculators } from "./fit.js";
 import { dynamicsCalculators } from "./dynamics.js";
 import { chainCalculators } from "./chains.js";
 import { ionCalculators } from "./ions.js";
+import { latticeCalculators } from "./lattices.js";
 
 export const catalogue: readonly CalculatorSpec[] = [
   ...wallCalculators,
@@ -22,6 +23,7 @@ export const catalogue: readonly CalculatorSpec[] = [
   ...dynamicsCalculators,
   ...chainCalculators,
   ...ionCalculators,
+  ...latticeCalculators,
 ];
 
 export function getCalculator(id: string): CalculatorSpec {

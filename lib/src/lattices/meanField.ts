@@ -164,9 +164,9 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number): EasyPlaneStat
     return { mz: ez, mp: Math.abs(ex), energy: p.D * ez2 - h * ez + (p.zJ / 2) * (p.Delta * ez * ez - ex * ex) };
   };
   let best: EasyPlaneState | null = null;
-  for (const [mz0, mp0] of [[0, S], [S, 0.5], [0.5 * S, 0.5 * S], [0, 0], [S, 0]] as const) {
+  for (const [mz0, mp0] of [[0, S], [S, 0.5], [0, 0], [S, 0]] as const) {
     let mz = mz0, mp = mp0, it = 0, e = 0;
-    for (; it < 5000; it++) {
+    for (; it < 3000; it++) {
       const r = siteSolve(mz, mp);
       const d = Math.abs(r.mz - mz) + Math.abs(r.mp - mp);
       mz = r.mz;
