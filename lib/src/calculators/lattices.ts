@@ -108,7 +108,8 @@ function computeFieldOrder(v: InputValues): ComputeOutput {
   const zeemanK = (v.g! * muB) / kB; // h = g muB B / k_B
   const pts = 121;
   const fields = Array.from({ length: pts }, (_, i) => (v.Bmax! * i) / (pts - 1));
-  const states = fields.map((B) => easyPlaneMeanField(p, zeemanK * B));
+  const states: ReturnType<typeof easyPlaneMeanField>[] = [];
+  for (const B of fields) states.push(easyPlaneMeanField(p, zeemanK * B, states[states.length - 1] ? { mz: states[states.length - 1]!.mz, mPerp: states[states.length - 1]!.mPerp } : undefined));
   const mPerp = states.map((s) => s.mPerp);
   const mz = states.map((s) => s.mz);
   // ordered windows: runs with m_perp > 1e-6

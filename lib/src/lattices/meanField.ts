@@ -23,7 +23,9 @@
  *    antiferromagnetic on a bipartite lattice with z neighbours (h = g muB B, energies in kelvin).
  *    Product states with a staggered transverse moment m_perp and a uniform m_z: per site
  *      E = D <S_z^2> - h <S_z> + (z J / 2) (Delta m_z^2 - m_perp^2),
- *    minimized by iterating the site Hamiltonian D S_z^2 - (h - z J Delta m_z) S_z - z J m_perp S_x.
+ *    minimized by iterating the site Hamiltonian D S_z^2 - (h - z J Delta m_z) S_z - z J m_perp S_x
+ *    (solved by Newton's method on the self-consistency residual). The ansatz has a uniform m_z: a Neel state along z (favoured
+ *    for Delta > 1 at low field) is not among the states compared.
  *    Spin 1, closed forms (derived): the paramagnet |0> is unstable when z J chi_perp >= 1 with
  *    chi_perp = 2 sum |<m|S_x|0>|^2 / (E_m - E_0) = 1/(D - h) + 1/(D + h) = 2D / (D^2 - h^2):
  *      h_c1 = sqrt(D^2 - 2 D z J)   (no gap closing if D < 2 z J: ordered at h = 0);
@@ -129,8 +131,11 @@ function checkSpin(S: number): number {
   return Math.round(t) + 1;
 }
 
-/** T = 0 site-decoupled mean field at field h (K); returns the lowest-energy state of several starts. */
-export function easyPlaneMeanField(p: EasyPlaneParams, h: number): EasyPlaneState {
+/**
+ * T = 0 site-decoupled mean field at field h (K); returns the lowest-energy state of several starts
+ * (plus `start`, e.g. the solution at a neighbouring field).
+ */
+export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: number; mPerp: number }): EasyPlaneState {
   const n = checkSpin(p.S);
   if (!Number.isFinite(p.D) || !Number.isFinite(p.zJ) || !(p.zJ >= 0) || !Number.isFinite(p.Delta)) throw new InputError("D, zJ, Delta", p, "finite D, zJ >= 0 (antiferromagnetic) and Delta");
   if (!Number.isFinite(h)) throw new InputError("h", h, "a finite field energy in kelvin");
@@ -164,16 +169,53 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number): EasyPlaneStat
     return { mz: ez, mp: Math.abs(ex), energy: p.D * ez2 - h * ez + (p.zJ / 2) * (p.Delta * ez * ez - ex * ex) };
   };
   let best: EasyPlaneState | null = null;
-  for (const [mz0, mp0] of [[0, S], [S, 0.5], [0, 0], [S, 0]] as const) {
+  const starts: Array<readonly [number, number]> = [[0, S], [S, 0.5], [0, 0], [S, 0]];
+  // a given start (the solution at a neighbouring field) first, nudged off m_perp = 0
+  if (start) starts.unshift([start.mz, Math.max(start.mPerp, 0.05)]);
+  for (const start0 of starts) {
+    const [mz0, mp0] = start0;
+    // Newton on the residual F(m) = m_out(m) - m (finite-difference 2 x 2 Jacobian, halving line
+    // search on |F|), m = (m_z, m_perp >= 0); plain iteration is slow where the map is marginal
     let mz = mz0, mp = mp0, it = 0, e = 0;
-    for (; it < 3000; it++) {
-      const r = siteSolve(mz, mp);
-      const d = Math.abs(r.mz - mz) + Math.abs(r.mp - mp);
-      mz = r.mz;
-      mp = r.mp;
-      e = r.energy;
-      if (d < 1e-13) break;
+    const resid = (a: number, b: number) => {
+      const r = siteSolve(a, b);
+      return [r.mz - a, r.mp - b] as const;
+    };
+    let F = resid(mz, mp);
+    for (; it < 200; it++) {
+      const nF = Math.hypot(F[0], F[1]);
+      if (nF < 1e-12) break;
+      const hstep = 1e-7;
+      const Fa = resid(mz + hstep, mp), Fb = resid(mz, mp + hstep);
+      const j11 = (Fa[0] - F[0]) / hstep, j21 = (Fa[1] - F[1]) / hstep, j12 = (Fb[0] - F[0]) / hstep, j22 = (Fb[1] - F[1]) / hstep;
+      const det = j11 * j22 - j12 * j21;
+      let dz: number, dp: number;
+      if (Math.abs(det) > 1e-14) {
+        dz = (-F[0] * j22 + F[1] * j12) / det;
+        dp = (-F[1] * j11 + F[0] * j21) / det;
+      } else {
+        dz = F[0];
+        dp = F[1];
+      }
+      let t = 1, accepted = false;
+      for (let k = 0; k < 12; k++) {
+        const nz = mz + t * dz, np = Math.max(0, mp + t * dp);
+        const Fn = resid(nz, np);
+        if (Math.hypot(Fn[0], Fn[1]) < nF) {
+          mz = nz;
+          mp = np;
+          F = Fn;
+          accepted = true;
+          break;
+        }
+        t /= 2;
+      }
+      if (!accepted) break; // no descent: abandon this start
     }
+    const converged = Math.hypot(F[0], F[1]) < 1e-9;
+    if (!converged && (best || starts.indexOf(start0) < starts.length - 1)) continue;
+    // the energy of the converged site state (E is variational only at the fixed point)
+    e = siteSolve(mz, mp).energy;
     if (!best || e < best.energy - 1e-12) best = { mPerp: mp, mz, energy: e, iterations: it };
   }
   return best!;
