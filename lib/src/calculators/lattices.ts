@@ -8,7 +8,7 @@ import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, mu0, muB } from "../quantity/constants.js";
 import { dipolarBands, fractionalToQ, latticePreset, luttingerTisza, type Lattice2D } from "../lattices/dipolar.js";
-import { easyPlaneMeanField, mottLobeBoundary, mottLobeTip, spinOneCriticalFields } from "../lattices/meanField.js";
+import { easyPlaneMeanField, mottLobeBoundary, mottLobeTip, orderingTemperature, spinOneCriticalFields } from "../lattices/meanField.js";
 
 const latticeNames = ["square", "triangular", "honeycomb"] as const;
 
@@ -122,7 +122,8 @@ function computeFieldOrder(v: InputValues): ComputeOutput {
       start = null;
     }
   });
-  const values: ComputeOutput["values"] = { fieldGrid: fields, mPerp, mz };
+  const Tc = fields.map((B) => orderingTemperature(p, zeemanK * B));
+  const values: ComputeOutput["values"] = { fieldGrid: fields, mPerp, mz, orderingTemperature: Tc, maxOrderingTemperature: Math.max(...Tc) };
   const notes = [
     "site-decoupled mean field at T = 0: it overestimates order; in two dimensions the finite-temperature transition is of the Berezinskii-Kosterlitz-Thouless kind; dipolar S+S+ terms break the U(1) symmetry, so the condensate picture is then approximate",
     `ordered windows from a ${pts}-point field grid (edges to within ${(v.Bmax! / (pts - 1)).toPrecision(3)} T)`,
@@ -162,6 +163,8 @@ export const fieldTunedOrderSpec: CalculatorSpec = {
     { name: "fieldGrid", symbol: "B", unit: "T", kind: "array", meaning: "fields" },
     { name: "mPerp", symbol: "m_\\perp", unit: "", kind: "array", meaning: "staggered transverse moment per site (order parameter)" },
     { name: "mz", symbol: "m_z", unit: "", kind: "array", meaning: "uniform moment per site along the field" },
+    { name: "orderingTemperature", symbol: "T_c(B)", unit: "K", kind: "array", meaning: "mean-field ordering temperature against field (z J chi_perp = 1 of the paramagnet)" },
+    { name: "maxOrderingTemperature", symbol: "T_c^{max}", unit: "K", meaning: "top of the ordering domes" },
     { name: "muOverU", symbol: "\\mu/U", unit: "", kind: "array", meaning: "chemical potential of the boson lobes" },
     { name: "lobe1", symbol: "zt/U|_{n=1}", unit: "", kind: "array", meaning: "boundary of the n = 1 Mott lobe" },
     { name: "lobe2", symbol: "zt/U|_{n=2}", unit: "", kind: "array", meaning: "boundary of the n = 2 Mott lobe" },
@@ -170,6 +173,7 @@ export const fieldTunedOrderSpec: CalculatorSpec = {
   ],
   plots: [
     { id: "order", title: "Order parameter and magnetization against field", x: "fieldGrid", y: ["mPerp", "mz"] },
+    { id: "domes", title: "Ordering temperature against field", x: "fieldGrid", y: ["orderingTemperature"] },
     { id: "lobes", title: "Mott lobes (decoupling mean field)", x: "muOverU", y: ["lobe1", "lobe2", "lobe3"] },
   ],
   assumptions: [

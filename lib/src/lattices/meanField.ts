@@ -132,10 +132,12 @@ function checkSpin(S: number): number {
 }
 
 /**
- * T = 0 site-decoupled mean field at field h (K); returns the lowest-energy state of several starts
+ * Site-decoupled mean field at field h (K) and temperature T (K; thermal averages and the mean-field
+ * free energy at T > 0); returns the lowest-energy state of several starts
  * (plus `start`, e.g. the solution at a neighbouring field).
  */
-export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: number; mPerp: number }): EasyPlaneState {
+export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: number; mPerp: number }, T = 0): EasyPlaneState {
+  if (!(T >= 0) || !Number.isFinite(T)) throw new InputError("T", T, "a temperature >= 0 K");
   const n = checkSpin(p.S);
   if (!Number.isFinite(p.D) || !Number.isFinite(p.zJ) || !(p.zJ >= 0) || !Number.isFinite(p.Delta)) throw new InputError("D, zJ, Delta", p, "finite D, zJ >= 0 (antiferromagnetic) and Delta");
   if (!Number.isFinite(h)) throw new InputError("h", h, "a finite field energy in kelvin");
@@ -158,13 +160,26 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
       }
     }
     solver.solve(Hre, Him, true);
-    let ez = 0, ez2 = 0, ex = 0;
-    for (let i = 0; i < n; i++) {
-      const c = solver.vectorsRe[i * n]!;
-      const M = S - i;
-      ez += M * c * c;
-      ez2 += M * M * c * c;
-      if (i > 0) ex += 2 * sx[i - 1]! * solver.vectorsRe[(i - 1) * n]! * c;
+    let ez = 0, ez2 = 0, ex = 0, Z = 0;
+    const e0 = solver.values[0]!;
+    for (let k = 0; k < (T > 0 ? n : 1); k++) {
+      const w = T > 0 ? Math.exp(-(solver.values[k]! - e0) / T) : 1;
+      if (w < 1e-300) continue;
+      Z += w;
+      for (let i = 0; i < n; i++) {
+        const c = solver.vectorsRe[i * n + k]!;
+        const M = S - i;
+        ez += w * M * c * c;
+        ez2 += w * M * M * c * c;
+        if (i > 0) ex += w * 2 * sx[i - 1]! * solver.vectorsRe[(i - 1) * n + k]! * c;
+      }
+    }
+    ez /= Z;
+    ez2 /= Z;
+    ex /= Z;
+    if (T > 0) {
+      // mean-field free energy per site: -T ln Z_site - (zJ/2)(Delta m_z^2 - m_perp^2) at the input moments
+      return { mz: ez, mp: Math.abs(ex), energy: e0 - T * Math.log(Z) - (p.zJ / 2) * (p.Delta * mz * mz - mp * mp) };
     }
     return { mz: ez, mp: Math.abs(ex), energy: p.D * ez2 - h * ez + (p.zJ / 2) * (p.Delta * ez * ez - ex * ex) };
   };
@@ -225,4 +240,70 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
 export function spinOneCriticalFields(D: number, zJ: number, Delta: number): { hc1: number; hc2: number } {
   if (!(D > 0)) throw new InputError("D", D, "an easy-plane anisotropy D > 0");
   return { hc1: D > 2 * zJ ? Math.sqrt(D * D - 2 * D * zJ) : 0, hc2: D + zJ * (1 + Delta) };
+}
+
+/**
+ * Transverse susceptibility chi_perp of the paramagnetic site (m_perp = 0) at field h and temperature
+ * T, with the uniform m_z self-consistent: chi = sum_{m,n} |<n|S_x|m>|^2 (p_m - p_n) / (E_n - E_m)
+ * (limit p_m / T for E_n = E_m). Order sets in where z J chi_perp = 1 (second-order transition).
+ */
+export function paramagneticTransverseSusceptibility(p: EasyPlaneParams, h: number, T: number): { chi: number; mz: number } {
+  const n = checkSpin(p.S);
+  const S = p.S;
+  const levels = (mz: number) => Array.from({ length: n }, (_, i) => {
+    const M = S - i;
+    return p.D * M * M - (h - p.zJ * p.Delta * mz) * M;
+  });
+  const weights = (E: number[]) => {
+    const e0 = Math.min(...E);
+    const w = E.map((e) => (T > 0 ? Math.exp(-(e - e0) / T) : e - e0 < 1e-12 * Math.max(1, Math.abs(e0)) ? 1 : 0));
+    const Z = w.reduce((a, b) => a + b, 0);
+    return w.map((x) => x / Z);
+  };
+  const mzOut = (mz: number) => {
+    const pw = weights(levels(mz));
+    return pw.reduce((acc, w, i) => acc + w * (S - i), 0);
+  };
+  // m_z = mzOut(m_z): mzOut decreases with m_z for antiferromagnetic Delta >= 0, so the root is unique
+  let mz: number;
+  if (p.zJ * p.Delta === 0) mz = mzOut(0);
+  else {
+    const f = (m: number) => mzOut(m) - m;
+    let lo = -S, hi = S;
+    for (let k = 0; k < 200 && hi - lo > 1e-13; k++) {
+      const mid = (lo + hi) / 2;
+      if (f(mid) > 0) lo = mid;
+      else hi = mid;
+    }
+    mz = (lo + hi) / 2;
+  }
+  const E = levels(mz);
+  const pw = weights(E);
+  let chi = 0;
+  for (let i = 0; i < n; i++) for (const j of [i - 1, i + 1]) {
+    if (j < 0 || j >= n) continue;
+    const M = S - Math.min(i, j); // <M|S_x|M-1> with M the larger
+    const el2 = 0.25 * (S * (S + 1) - M * (M - 1));
+    const dE = E[j]! - E[i]!;
+    chi += el2 * (Math.abs(dE) > 1e-12 ? (pw[i]! - pw[j]!) / dE : T > 0 ? pw[i]! / T : 0);
+  }
+  return { chi, mz };
+}
+
+/**
+ * Mean-field ordering temperature T_c(h): the largest T with z J chi_perp(T) = 1 (0 when the
+ * paramagnet is stable down to T = 0). Bisection in T on [0, Tmax].
+ */
+export function orderingTemperature(p: EasyPlaneParams, h: number): number {
+  const g = (T: number) => p.zJ * paramagneticTransverseSusceptibility(p, h, T).chi - 1;
+  const Tmax = Math.max(1e-9, p.zJ * p.S * (p.S + 1)); // above the Curie-Weiss scale zJ S(S+1)/3 x 3
+  if (g(1e-9 * Tmax) <= 0) return 0;
+  let lo = 1e-9 * Tmax, hi = Tmax;
+  if (g(hi) > 0) return hi;
+  for (let k = 0; k < 100 && hi - lo > 1e-12 * Tmax; k++) {
+    const mid = (lo + hi) / 2;
+    if (g(mid) > 0) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
 }

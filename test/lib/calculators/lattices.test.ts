@@ -67,3 +67,15 @@ describe("field-tuned-order", () => {
     expect(r.notes.join(" ")).toMatch(/Kosterlitz/);
   });
 });
+
+describe("field-tuned-order domes", () => {
+  it("T_c(B) is positive only inside the T = 0 ordered window and vanishes at its edges", () => {
+    // Two routes of the same mean field: T = 0 solver (window) and the paramagnetic instability (domes).
+    // Common practice, no source.
+    const spec = getCalculator("field-tuned-order");
+    const r = runCalculator(spec, { S: 1, D: 10, zJ: 2, Delta: 1, g: 2, Bmax: 15 });
+    const B = r.outputs.fieldGrid!.value as number[], Tc = r.outputs.orderingTemperature!.value as number[], m = r.outputs.mPerp!.value as number[];
+    B.forEach((_, i) => expect(Tc[i]! > 0).toBe(m[i]! > 1e-6));
+    expect(r.outputs.maxOrderingTemperature!.value as number).toBeGreaterThan(0.5);
+  });
+});

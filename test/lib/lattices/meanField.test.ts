@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { boseHubbardMeanField, mottLobeBoundary, mottLobeTip, easyPlaneMeanField, spinOneCriticalFields, brentRoot, brentMinimize, InputError } from "@helicoid/lib";
+import { boseHubbardMeanField, mottLobeBoundary, mottLobeTip, easyPlaneMeanField, spinOneCriticalFields, orderingTemperature, paramagneticTransverseSusceptibility, brentRoot, brentMinimize, InputError } from "@helicoid/lib";
 
 /** Solver-side boundary: where E(delta) - E(0) of the decoupled site changes sign (delta small). */
 function solverBoundary(x: number): number {
@@ -94,5 +94,40 @@ describe("easy-plane spins in a field (site-decoupled mean field)", () => {
     const p = { S: 1, D: 10, zJ: 2, Delta: 1 };
     const a = easyPlaneMeanField(p, 14 - 0.05).mPerp ** 2, b = easyPlaneMeanField(p, 14 - 0.1).mPerp ** 2;
     expect(b / a).toBeCloseTo(2, 1);
+  });
+});
+
+describe("ordering temperature dome T_c(h)", () => {
+  it("chi_perp at T = 0 is 2D/(D^2 - h^2) for spin 1; T_c > 0 only inside (h_c1, h_c2)", () => {
+    // Source: derivation in lib/src/lattices/meanField.ts (second-order perturbation theory).
+    const p = { S: 1, D: 10, zJ: 2, Delta: 1 };
+    expect(paramagneticTransverseSusceptibility(p, 5, 0).chi).toBeCloseTo((2 * 10) / (100 - 25), 12);
+    const { hc1, hc2 } = spinOneCriticalFields(10, 2, 1);
+    expect(orderingTemperature(p, hc1 - 0.05)).toBe(0);
+    expect(orderingTemperature(p, hc2 + 0.05)).toBe(0);
+    expect(orderingTemperature(p, 10)).toBeGreaterThan(0.5);
+  });
+
+  it("at the level crossing h = D (Delta = 0): T_c = (zJ/2) / (1 - zJ/(4D)) up to e^{-2D/T_c}", () => {
+    // Source: derived here: the crossing doublet {|0>, |1>} gives chi = 1/(2T), the far level |-1>
+    // adds 2 (1/2)(1/2)/(2D) = 1/(4D); z J chi = 1. Common practice, no source.
+    const p = { S: 1, D: 10, zJ: 2, Delta: 0 };
+    expect(orderingTemperature(p, 10)).toBeCloseTo(1 / (1 - 2 / 40), 8);
+  });
+
+  it("agrees with the thermal self-consistent solver: ordered just below T_c, disordered just above", () => {
+    // Two routes: the paramagnetic instability (susceptibility) and the free-energy minimization at T > 0.
+    // Common practice, no source.
+    const p = { S: 1, D: 10, zJ: 2, Delta: 1 };
+    for (const h of [8, 10, 13]) {
+      const Tc = orderingTemperature(p, h);
+      expect(easyPlaneMeanField(p, h, undefined, 0.98 * Tc).mPerp).toBeGreaterThan(1e-2);
+      expect(easyPlaneMeanField(p, h, undefined, 1.02 * Tc).mPerp).toBeLessThan(1e-6);
+    }
+    const p32 = { S: 1.5, D: 6, zJ: 3, Delta: 1 };
+    const Tc = orderingTemperature(p32, 4);
+    expect(Tc).toBeGreaterThan(0.1);
+    expect(easyPlaneMeanField(p32, 4, undefined, 0.98 * Tc).mPerp).toBeGreaterThan(1e-2);
+    expect(easyPlaneMeanField(p32, 4, undefined, 1.02 * Tc).mPerp).toBeLessThan(1e-6);
   });
 });
