@@ -219,3 +219,38 @@ describe("Hund's rules and Lande factors", () => {
     expect(Array.from(stevensOperator(7.5, 2, 0).re)).toEqual(before);
   });
 });
+
+describe("cubic crystal fields", () => {
+  it("B4 (O_4^0 + 5 O_4^4): J = 5/2 splits into Gamma7 at -240 B4 and Gamma8 at +120 B4; J = 4 into 1 + 2 + 3 + 3", () => {
+    // From memory: K. Lea, M. Leask, W. Wolf, J. Phys. Chem. Solids 23, 1381 (1962) (J = 5/2:
+    // 360 B4 splitting, Gamma7 lowest for B4 > 0; J = 4, fourth order: Gamma1 28, Gamma3 4, Gamma4 14,
+    // Gamma5 -26 in units of 60 B4).
+    const levels = (J: number, terms: Array<{ l: number; m: number; B: number }>) => {
+      const sp = ionSpectrum({ J, gJ: 1, terms });
+      const out: Array<[number, number]> = [];
+      for (const e of sp.energies) {
+        const last = out[out.length - 1];
+        if (last && Math.abs(e - last[0]) < 1e-8 * Math.max(1, Math.abs(e))) last[1]++;
+        else out.push([e, 1]);
+      }
+      return out;
+    };
+    const c52 = levels(2.5, [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }]);
+    expect(c52.map((x) => x[1])).toEqual([2, 4]);
+    expect(c52[0]![0]).toBeCloseTo(-240, 9);
+    expect(c52[1]![0]).toBeCloseTo(120, 9);
+    const c4 = levels(4, [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }]);
+    expect(c4.map((x) => x[1])).toEqual([3, 2, 3, 1]);
+    expect(c4.map((x) => x[0] / 60)).toEqual([-26, 4, 14, 28].map((v) => expect.closeTo(v, 9)));
+    // sixth order (O_6^0 - 21 O_6^4): the cubic pattern 1 + 2 + 3 + 3 again
+    const c6 = levels(4, [{ l: 6, m: 0, B: 1 }, { l: 6, m: 4, B: -21 }]);
+    expect([...c6.map((x) => x[1])].sort()).toEqual([1, 2, 3, 3]);
+    // the cubic Gamma7 doublet of Ce3+ (J = 5/2, g_J = 6/7) is isotropic with g = 10/7
+    // (from memory: A. Abragam, B. Bleaney, Electron Paramagnetic Resonance of Transition Ions (1970))
+    const g = groundDoubletGTensor({ J: 2.5, gJ: 6 / 7, terms: [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }] });
+    for (const v of g.principal) expect(v).toBeCloseTo(10 / 7, 9);
+    // a Gamma8 quartet ground level is flagged, not reported as a doublet silently
+    const q = groundDoubletGTensor({ J: 2.5, gJ: 6 / 7, terms: [{ l: 4, m: 0, B: -1 }, { l: 4, m: 4, B: -5 }] });
+    expect(q.notes.join(" ")).toMatch(/more than two-fold/);
+  });
+});
