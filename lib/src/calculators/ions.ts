@@ -102,13 +102,18 @@ function computeIonLevels(v: InputValues): ComputeOutput {
   const tr = neutronTransitions(model, v.T!).filter((t) => t.energy > 1e-9 * Math.max(1, levels[levels.length - 1]!));
   values.transitionEnergy = tr.map((t) => t.energy);
   values.transitionPowder = tr.map((t) => t.powder * t.population);
-  const levelText = groups.map((gr) => `${(gr.energy - e0).toPrecision(5)} K (${((gr.energy - e0) * kelvinToMeV).toPrecision(4)} meV, ${((gr.energy - e0) * kelvinToWavenumber).toPrecision(4)} cm^-1) x${gr.states.length}`);
+  const g0 = groups[0]!.energy;
+  const levelText = groups.map((gr) => {
+    const de = gr === groups[0] ? 0 : gr.energy - g0;
+    return `${de.toPrecision(5)} K (${(de * kelvinToMeV).toPrecision(4)} meV, ${(de * kelvinToWavenumber).toPrecision(4)} cm^-1) x${gr.states.length}`;
+  });
   values.summary =
     `zero-field levels: ${levelText.join("; ")}. Ground doublet g = (${g.principal.map((x) => x.toPrecision(5)).join(", ")})` +
     `${g.kramers ? " (Kramers ion)" : " (non-Kramers ion)"}`;
   if (v.T! === 0) notes.push("T = 0: M(B) is the ground-state moment (averaged over a degenerate ground level); the heat curve is computed on its own temperature grid");
   notes.push("transition intensities: (2/3) sum_a |<i|J_a|j>|^2 (powder average of the perpendicular part) times the initial level's population; no form factor, no Debye-Waller factor");
-  return { values, status: "ok", notes };
+  const quartet = g.notes.some((n) => n.includes("more than two-fold"));
+  return { values, status: quartet ? "warning" : "ok", notes };
 }
 
 const energyInput = (name: string, l: number, m: number, def: number, hint: string) => {
