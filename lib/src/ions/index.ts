@@ -1,3 +1,4 @@
 export * from "./stevens.js";
 export * from "./singleIon.js";
 export * from "./hund.js";
+export * from "./fitCrystalField.js";
