@@ -238,7 +238,9 @@ export interface LuttingerTiszaResult {
   degeneracy: number;
   /**
    * Spin-length check of the best single-q (plus its -q partner) state built from the lowest
-   * eigenvector(s): max |S| / min |S| - 1 over the sites; 0 means LT's bound is reached.
+   * eigenvector(s): max |S| / min |S| - 1 over the sites; 0 means LT's bound is reached. Only
+   * combinations of the two lowest eigenvectors at q_min are scanned: for a higher degeneracy, or
+   * when only multi-q states reach the bound, a spread > 0 does not prove that the bound is missed.
    */
   spinLengthSpread: number;
   notes: string[];
