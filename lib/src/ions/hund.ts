@@ -5,8 +5,7 @@
  * ch. 1 (the ground multiplets and g_J of the series).
  * Rules: maximize S (fill m_l = 3, 2, ... -3 with parallel spins first), then maximize L = |sum m_l|,
  * then J = |L - S| for a less than half-filled shell, J = L + S for more than half filled.
- * Stevens factors alpha_J, beta_J, gamma_J are not tabulated here: they need the reduced matrix
- * elements of the f-shell and were not verified for this library.
+ * The Stevens factors alpha_J, beta_J, gamma_J are computed in stevensFactors.ts.
  */
 import { InputError } from "../errors.js";
 
