@@ -7,6 +7,7 @@
  * each measured energy is assigned to an eigenvalue index (0-based, ascending). For a Kramers ion the
  * default assignment is the doublets in order (indices 2, 4, 6, ...); a non-Kramers ion needs the
  * assignment given (singlets and doublets are not known in advance).
+ * Data: arrays, or CSV text of our own layout (readLevelCsv).
  * Sources: J. Jensen, A. Mackintosh, *Rare Earth Magnetism* (1991), ch. 1 (crystal-field analysis);
  * the engine's sources are listed in fit/leastSquares.ts.
  */
@@ -102,4 +103,49 @@ export function fitCrystalField(input: CrystalFieldFitInput): CrystalFieldFitRes
   const notes: string[] = [];
   if (solutions.length > 1) notes.push(`${solutions.length} distinct minima from ${nStarts} starts; the lowest chi-square is reported as best, the others are listed`);
   return { best: solutions[0]!.fit, solutions, levelIndex: index, notes };
+}
+
+/** 1 meV and 1 cm^-1 in kelvin (CODATA 2018: e, h, c, k_B). */
+const unitToKelvin: Record<string, number> = {
+  K: 1,
+  meV: (1.602176634e-19 * 1e-3) / 1.380649e-23,
+  "cm-1": (6.62607015e-34 * 299792458 * 100) / 1.380649e-23,
+};
+
+/**
+ * Measured levels from CSV text of this library's layout: a header line with `energy_<unit>` and
+ * `sigma_<unit>` (unit K, meV or cm-1; both the same) and optionally `index` (eigenvalue index,
+ * 0-based), then one level per line; `#` starts a comment. Energies and sigmas are returned in kelvin.
+ * Example:
+ *   # invented data
+ *   energy_meV,sigma_meV,index
+ *   2.35,0.05,2
+ */
+export function readLevelCsv(text: string, source = "levels.csv"): { energies: number[]; sigmas: number[]; levelIndex?: number[] } {
+  const lines = text.split(/\r?\n/).map((l, i) => ({ l: l.replace(/#.*$/, "").trim(), n: i + 1 })).filter((x) => x.l !== "");
+  if (lines.length < 2) throw new InputError(source, text.slice(0, 80), "a header line (energy_<unit>,sigma_<unit>[,index]) and at least one level");
+  const header = lines[0]!.l.split(",").map((h) => h.trim());
+  const eCol = header.findIndex((h) => h.startsWith("energy_"));
+  const sCol = header.findIndex((h) => h.startsWith("sigma_"));
+  const iCol = header.indexOf("index");
+  if (eCol < 0 || sCol < 0) throw new InputError(`${source} line ${lines[0]!.n}`, lines[0]!.l, "columns energy_<unit> and sigma_<unit> (unit K, meV or cm-1)");
+  const unit = header[eCol]!.slice("energy_".length);
+  if (!(unit in unitToKelvin) || header[sCol]!.slice("sigma_".length) !== unit) throw new InputError(`${source} line ${lines[0]!.n}`, lines[0]!.l, "energy and sigma in the same unit: K, meV or cm-1");
+  const f = unitToKelvin[unit]!;
+  const energies: number[] = [], sigmas: number[] = [], index: number[] = [];
+  for (const { l, n } of lines.slice(1)) {
+    const cells = l.split(",").map((c) => c.trim());
+    if (cells.length !== header.length) throw new InputError(`${source} line ${n}`, l, `${header.length} comma-separated values`);
+    const e = Number(cells[eCol]), s = Number(cells[sCol]);
+    if (cells[eCol] === "" || !Number.isFinite(e)) throw new InputError(`${source} line ${n}, ${header[eCol]}`, cells[eCol], "a finite number");
+    if (cells[sCol] === "" || !(s > 0) || !Number.isFinite(s)) throw new InputError(`${source} line ${n}, ${header[sCol]}`, cells[sCol], "a positive number");
+    energies.push(e * f);
+    sigmas.push(s * f);
+    if (iCol >= 0) {
+      const k = Number(cells[iCol]);
+      if (!Number.isInteger(k) || k < 1) throw new InputError(`${source} line ${n}, index`, cells[iCol], "a whole eigenvalue index >= 1");
+      index.push(k);
+    }
+  }
+  return iCol >= 0 ? { energies, sigmas, levelIndex: index } : { energies, sigmas };
 }

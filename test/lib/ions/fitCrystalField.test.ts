@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { fitCrystalField, ionSpectrum, InputError } from "@helicoid/lib";
+import { fitCrystalField, readLevelCsv, ionSpectrum, InputError } from "@helicoid/lib";
 import { seededRandom } from "../../../lib/src/fit/prng.js";
 
 function levels(terms: Array<{ l: number; m: number; B: number }>, idx: number[]): number[] {
@@ -54,5 +54,27 @@ describe("crystal-field fits", () => {
     expect(() => fitCrystalField({ J: 4, free: { B20: { start: 0, min: -1, max: 1 } }, energies: [1], sigmas: [0.1] })).toThrow(/levelIndex/);
     expect(() => fitCrystalField({ J: 7.5, free: { B20: { start: 0, min: -1, max: 1 } }, energies: [1, 2], sigmas: [0.1] })).toThrow(/sigmas/);
     expect(() => fitCrystalField({ J: 7.5, free: { B33: { start: 0, min: -1, max: 1 } }, energies: [1], sigmas: [0.1] })).toThrow(InputError);
+  });
+});
+
+describe("level CSV of our layout", () => {
+  it("reads meV and cm-1 into kelvin, keeps the index column, and names the bad cell", () => {
+    // Source: CODATA 2018 exact constants: 1 meV = 11.6045 K, 1 cm^-1 = 1.43878 K.
+    const r = readLevelCsv("# invented\nenergy_meV,sigma_meV,index\n2.35,0.05,2\n5.43,0.1,4\n");
+    expect(r.energies[0]).toBeCloseTo(2.35 * 11.604518, 5);
+    expect(r.sigmas[1]).toBeCloseTo(0.1 * 11.604518, 5);
+    expect(r.levelIndex).toEqual([2, 4]);
+    const c = readLevelCsv("energy_cm-1,sigma_cm-1\n10,0.5\n");
+    expect(c.energies[0]).toBeCloseTo(14.387769, 5);
+    expect(c.levelIndex).toBeUndefined();
+    expect(() => readLevelCsv("energy_meV,sigma_meV\n2.3,-1\n")).toThrow(/line 2, sigma_meV/);
+    expect(() => readLevelCsv("energy_meV,sigma_K\n2.3,1\n")).toThrow(/same unit/);
+    expect(() => readLevelCsv("energy_K,sigma_K\n2.3\n")).toThrow(/line 2/);
+    // a fit from CSV data
+    const E = levels([{ l: 2, m: 0, B: 0.35 }, { l: 4, m: 0, B: -0.004 }], [2, 4, 6]);
+    const csv = "energy_K,sigma_K,index\n" + E.map((e, k) => `${e},0.05,${2 * (k + 1)}`).join("\n");
+    const d = readLevelCsv(csv);
+    const fit = fitCrystalField({ J: 7.5, free: { B20: { start: 0.3, min: -1, max: 1 }, B40: { start: -0.003, min: -0.02, max: 0.02 } }, ...d, starts: 1 });
+    expect(fit.best.parameters.B20!.value).toBeCloseTo(0.35, 8);
   });
 });
