@@ -11,6 +11,8 @@ import { skyrmionCalculators } from "./skyrmions.js";
 import { fitCalculators } from "./fit.js";
 import { dynamicsCalculators } from "./dynamics.js";
 import { chainCalculators } from "./chains.js";
+import { ionCalculators } from "./ions.js";
+import { latticeCalculators } from "./lattices.js";
 
 export const catalogue: readonly CalculatorSpec[] = [
   ...wallCalculators,
@@ -20,6 +22,8 @@ export const catalogue: readonly CalculatorSpec[] = [
   ...fitCalculators,
   ...dynamicsCalculators,
   ...chainCalculators,
+  ...ionCalculators,
+  ...latticeCalculators,
 ];
 
 export function getCalculator(id: string): CalculatorSpec {

@@ -1,0 +1,2 @@
+export * from "./dipolar.js";
+export * from "./meanField.js";
