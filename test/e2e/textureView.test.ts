@@ -153,12 +153,14 @@ describe("texture view in chromium", () => {
       }));
       const sb = root.querySelector(".hx-scalebar")!;
       const bar = sb.querySelectorAll("rect")[1]!.getBoundingClientRect();
-      return { bars, titles, xTicks, scale: { nm: Number(sb.getAttribute("data-length-nm")), px: bar.width, label: sb.querySelector("text")!.textContent }, legend: root.querySelector(".hx-legend")!.textContent };
+      return { bars, titles, xTicks, subs: root.querySelectorAll("tspan[baseline-shift=sub], sub").length, text: root.textContent, scale: { nm: Number(sb.getAttribute("data-length-nm")), px: bar.width, label: sb.querySelector("text")!.textContent }, legend: root.querySelector(".hx-legend")!.textContent };
     }, view);
     expect(info.bars.map((b) => b.symbol)).toEqual(["m_z", "ρ_Q"]);
     expect(info.bars[0]!.ticks).toEqual(["−1", "−0.5", "0", "0.5", "1"]);
     expect(info.bars[1]!.unit).toBe("nm⁻²");
-    expect(info.bars[1]!.title).toBe("ρ_Q (nm⁻²)");
+    expect(info.bars[1]!.title).toBe("ρQ (nm⁻²)"); // Q is a subscript (a tspan), not "_Q" markup
+    expect(info.subs).toBeGreaterThanOrEqual(4);
+    expect(info.text).not.toContain("_");
     expect(info.bars[1]!.ticks).toContain("0");
     // Symmetric about zero: the charge bar's ticks come in +- pairs.
     const qt = info.bars[1]!.ticks.map((t) => Number(t!.replace("−", "-")));
@@ -194,7 +196,7 @@ describe("texture view in chromium", () => {
     expect(Math.abs(info.markers[0]!.x - 16 * s)).toBeLessThan(1);
     expect(Math.abs(info.markers[0]!.y - 16 * s)).toBeLessThan(1);
     expect(info.markers[0]!.label).toBe("1: Q = −1");
-    expect(info.rows[0]).toEqual(["#", "Q_i", "x_c (nm)", "y_c (nm)"]);
+    expect(info.rows[0]).toEqual(["#", "Qi", "xc (nm)", "yc (nm)"]);
     expect(info.rows[1]).toEqual(["1", "−1", "15.5", "15.5"]);
     // Source: a core-down skyrmion of vorticity 1 has Q = -1 (theta: pi -> 0); negative density is the green end.
     expect(Math.abs(info.Q + 1)).toBeLessThan(0.02);
@@ -232,7 +234,7 @@ describe("texture explorer in chromium", () => {
     const fmt = (v: number, d: number) => String(Number(v.toFixed(d))).replace("-", "−");
     expect(info.rows).toEqual(xs.map((x, k) => [String(k + 1), fmt(qs[k]!, 3), fmt(x * 1e9, 2), fmt(ys[k]! * 1e9, 2)]));
     expect(info.axes).toContain("x (nm)");
-    expect(info.axes).toContain("ρ_Q (nm⁻²)");
+    expect(info.axes).toContain("ρQ (nm⁻²)");
     expect(info.plots.some((t) => t!.startsWith("texture (preview"))).toBe(true);
     expect(info.plots).not.toContain("object centres");
     await shot("texture-explorer", explorerSel);

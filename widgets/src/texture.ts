@@ -16,7 +16,7 @@ import { formatQuantity } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { float32Serializer, asFloat32 } from "./views/buffers.js";
 import { total } from "./views/textureColors.js";
-import { TexturePicture, type TextureObjects } from "./views/texturePicture.js";
+import { TexturePicture, richText, type TextureObjects } from "./views/texturePicture.js";
 import { el } from "./views/dom.js";
 
 export class TextureModel extends DOMWidgetModel {
@@ -95,12 +95,11 @@ export class TextureView extends DOMWidgetView {
   }
 
   private legend(): HTMLElement {
-    return el("div", {
-      class: "hx-legend",
-      text:
-        "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane direction, length ∝ |m_xy|; " +
-        "ρ_Q = q / (Δx Δy) per plaquette (Berg–Lüscher solid angles), green < 0 < purple, symmetric about 0; rings: found objects",
-    });
+    const legend = el("div", { class: "hx-legend" });
+    richText(legend,
+      "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane direction, length ∝ |m_{xy}|; " +
+      "ρ_Q = q / (Δx Δy) per plaquette (Berg–Lüscher solid angles), green < 0 < purple, symmetric about 0; rings: found objects");
+    return legend;
   }
 
   private fieldOrNull(): { field: Float32Array; nx: number; ny: number } | null {

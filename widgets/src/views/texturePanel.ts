@@ -7,7 +7,7 @@
  * on the picture and listed in a table.
  */
 import type { CalculatorResult } from "@helicoid/lib";
-import { TexturePicture } from "./texturePicture.js";
+import { TexturePicture, richText } from "./texturePicture.js";
 import { el } from "./dom.js";
 
 interface SpecLike { outputs: Array<{ name: string }> }
@@ -49,9 +49,9 @@ export function texturePanelFor(spec: SpecLike): TexturePanel | null {
       picture.draw({ field: Float32Array.from(m), nx: size, ny: size, dx: cell, dy: cell, objects, arrows: true, charge: true, displaySize: 360 });
       root.dataset.previewSize = String(size);
       title.textContent = `texture (preview: ${size} × ${size} cells of ${(cell * 1e9).toPrecision(3)} nm)`;
-      note.textContent =
-        "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane m, length ∝ |m_xy|; " +
-        "ρ_Q: charge per plaquette of the preview / area, green < 0 < purple; rings and table: objects found on the full grid (charge, centre).";
+      richText(note,
+        "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane m, length ∝ |m_{xy}|; " +
+        "ρ_Q: charge per plaquette of the preview / area, green < 0 < purple; rings and table: objects found on the full grid (charge, centre).");
     },
   };
 }

@@ -53,15 +53,42 @@ const ML = 50, MT = 26, MR = 86, MB = 40;
 function svg(tag: string, attrs: Record<string, string | number> = {}, text?: string): SVGElement {
   const n = document.createElementNS(SVG, tag);
   for (const [k, v] of Object.entries(attrs)) n.setAttribute(k, String(v));
-  if (text !== undefined) n.textContent = text;
+  if (text !== undefined) richText(n, text);
   return n;
+}
+
+/** Pieces of a label: "m_z" and "ρ_{Q}" give a subscript piece. */
+export function labelPieces(text: string): Array<{ text: string; sub: boolean }> {
+  const out: Array<{ text: string; sub: boolean }> = [];
+  const re = /_(\{[^}]*\}|[^\s(])/g;
+  let last = 0;
+  for (let m = re.exec(text); m; m = re.exec(text)) {
+    if (m.index > last) out.push({ text: text.slice(last, m.index), sub: false });
+    out.push({ text: m[1]!.replace(/^\{|\}$/g, ""), sub: true });
+    last = m.index + m[0].length;
+  }
+  if (last < text.length) out.push({ text: text.slice(last), sub: false });
+  return out;
+}
+
+/** Write a label with real subscripts (SVG tspans or HTML <sub>), never raw "_" markup. */
+export function richText(node: Element, text: string): void {
+  node.replaceChildren();
+  const svgNode = node.namespaceURI === SVG;
+  for (const p of labelPieces(text)) {
+    if (!p.sub) { node.append(document.createTextNode(p.text)); continue; }
+    const sub = svgNode ? document.createElementNS(SVG, "tspan") : document.createElement("sub");
+    if (svgNode) { sub.setAttribute("baseline-shift", "sub"); sub.setAttribute("font-size", "75%"); }
+    sub.textContent = p.text;
+    node.append(sub);
+  }
 }
 
 /** Short number for tick labels: no "-0", no long tails. */
 export function tickLabel(v: number): string {
   if (v === 0) return "0";
   const a = Math.abs(v);
-  const s = a >= 1000 || a < 1e-3 ? v.toExponential(1) : String(Number(v.toPrecision(4)));
+  const s = a >= 1e5 || a < 1e-4 ? v.toExponential(1) : String(Number(v.toPrecision(4)));
   return s.replace("-", "−");
 }
 
@@ -236,7 +263,8 @@ export class TexturePicture {
         const L = len * Math.min(1, inPlane);
         const ux = (mx / inPlane) * L, uy = (-my / inPlane) * L;
         const tx = cx - ux / 2, ty = cy - uy / 2, hx = cx + ux / 2, hy = cy + uy / 2;
-        const hs = Math.max(4, 0.35 * L), a = Math.atan2(uy, ux);
+        if (L < 5) continue; // shorter than a head: |m_xy| is too small to read a direction
+        const hs = Math.min(Math.max(4, 0.35 * L), 0.6 * L), a = Math.atan2(uy, ux);
         const bx = hx - hs * Math.cos(a), by = hy - hs * Math.sin(a);
         shafts += `M${tx.toFixed(1)} ${ty.toFixed(1)}L${bx.toFixed(1)} ${by.toFixed(1)}`;
         heads += `M${hx.toFixed(1)} ${hy.toFixed(1)}L${(hx - hs * Math.cos(a - 0.5)).toFixed(1)} ${(hy - hs * Math.sin(a - 0.5)).toFixed(1)}` +
@@ -278,7 +306,7 @@ export class TexturePicture {
         m.append(
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: "white", "stroke-width": 4 }),
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: onCharge ? "#000" : "#ffd400", "stroke-width": 2 }),
-          svg("text", { x: X + 10, y: Y - 8, class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, `${k + 1}: Q = ${tickLabel(Number(objs.charge[k]!.toFixed(2)))}`),
+          svg("text", { x: X + 10, y: Y - 10, class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, `${k + 1}: Q = ${tickLabel(Number(objs.charge[k]!.toFixed(2)))}`),
         );
         o.append(m);
       }
@@ -292,7 +320,7 @@ export class TexturePicture {
     if (n === 0) { this.table.append(el("div", { class: "hx-muted", text: "objects: none found" })); return; }
     const t = el("table", { class: "hx-objects" });
     const head = el("tr");
-    for (const h of ["#", "Q_i", "x_c (nm)", "y_c (nm)"]) head.append(el("th", { text: h }));
+    for (const h of ["#", "Q_i", "x_c (nm)", "y_c (nm)"]) { const th = el("th"); richText(th, h); head.append(th); }
     t.append(head);
     for (let k = 0; k < n; k++) {
       const r = el("tr", { "data-index": String(k + 1) });
