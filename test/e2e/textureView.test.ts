@@ -85,7 +85,7 @@ describe("texture view in chromium", () => {
       return { w, h: c.height, cssW: c.getBoundingClientRect().width, rendering: getComputedStyle(c).imageRendering, s, cells, nonUniform };
     }, [view, n] as const);
     // Common practice, no source: a crisp picture has an integer number of pixels per cell.
-    expect(got.s).toBe(Math.floor(480 / n));
+    expect(got.s).toBe(Math.round(480 / n));
     expect(got.w).toBe(n * got.s);
     expect(got.cssW).toBe(n * got.s);
     expect(got.rendering).toBe("pixelated");
@@ -111,7 +111,7 @@ describe("texture view in chromium", () => {
     const png = await canvas.screenshot();
     await page.evaluate((sel) => { (document.querySelector(`${sel} .hx-texture-arrows`) as HTMLElement).style.visibility = ""; }, view);
     // Decode the screenshot with the browser's own PNG decoder.
-    const s = Math.floor(480 / n);
+    const s = Math.round(480 / n);
     // The middle row of cells j = 16 crosses the wall; take cells i = 20, 21 (m_z changes fast there).
     const jRow = 16, yPix = (n - 1 - jRow) * s + Math.floor(s / 2);
     const px = await page.evaluate(async ([b64, y]) => {
@@ -168,7 +168,7 @@ describe("texture view in chromium", () => {
     expect(info.titles).toContain("x (nm)");
     expect(info.titles).toContain("y (nm)");
     // Cell i sits at x = i dx: the tick "t" is at (t / 1 nm + 1/2) s pixels from the image's left edge.
-    const s = Math.floor(480 / n);
+    const s = Math.round(480 / n);
     expect(info.xTicks.length).toBeGreaterThanOrEqual(3);
     for (const t of info.xTicks) expect(Math.abs(t.x - (Number(t.label) + 0.5) * s)).toBeLessThan(1.5);
     expect(info.scale.label).toBe(`${info.scale.nm} nm`);
@@ -190,7 +190,7 @@ describe("texture view in chromium", () => {
       const mid = Array.from(cc.getContext("2d")!.getImageData(cc.width / 2, cc.height / 2, 1, 1).data);
       return { markers, all: root.querySelectorAll(".hx-object-marker").length, rows, mid, Q: Number((root as HTMLElement).dataset.charge) };
     }, view);
-    const s = Math.floor(480 / n);
+    const s = Math.round(480 / n);
     expect(info.all).toBe(2); // one ring on each panel
     expect(info.markers).toHaveLength(1);
     expect(Math.abs(info.markers[0]!.x - 16 * s)).toBeLessThan(1);

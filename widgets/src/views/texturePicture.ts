@@ -43,7 +43,7 @@ export interface PictureInput {
   arrows?: boolean;
   /** Show the charge-density panel (default true). */
   charge?: boolean;
-  /** Side of the larger image in CSS pixels (rounded down to whole pixels per cell). */
+  /** Side of the larger image in CSS pixels (rounded to whole pixels per cell). */
   displaySize?: number;
 }
 
@@ -133,7 +133,7 @@ export class TexturePicture {
   draw(p: PictureInput): Float32Array {
     const { field, nx, ny, dx, dy } = p;
     const size = p.displaySize && p.displaySize > 0 ? p.displaySize : 420;
-    const s = (this.scale = Math.max(1, Math.floor(size / Math.max(nx, ny))));
+    const s = (this.scale = Math.max(1, Math.round(size / Math.max(nx, ny))));
     const W = nx * s, H = ny * s;
     // m_z cells
     const rgba = new Uint8ClampedArray(4 * nx * ny);
