@@ -195,9 +195,9 @@ describe("texture view in chromium", () => {
     expect(info.markers).toHaveLength(1);
     expect(Math.abs(info.markers[0]!.x - 16 * s)).toBeLessThan(1);
     expect(Math.abs(info.markers[0]!.y - 16 * s)).toBeLessThan(1);
-    expect(info.markers[0]!.label).toBe("1: Q = −1");
+    expect(info.markers[0]!.label).toBe("1: Q = −1.00");
     expect(info.rows[0]).toEqual(["#", "Qi", "xc (nm)", "yc (nm)"]);
-    expect(info.rows[1]).toEqual(["1", "−1", "15.5", "15.5"]);
+    expect(info.rows[1]).toEqual(["1", "−1.000", "15.5", "15.5"]); // 1 nm cells: positions to 0.1 nm
     // Source: a core-down skyrmion of vorticity 1 has Q = -1 (theta: pi -> 0); negative density is the green end.
     expect(Math.abs(info.Q + 1)).toBeLessThan(0.02);
     expect(info.mid[1]!).toBeGreaterThan(info.mid[0]! + 30);
@@ -231,8 +231,9 @@ describe("texture explorer in chromium", () => {
     expect(info.chargeShown).toBe(true);
     expect(xs.length).toBeGreaterThan(0);
     expect(info.markers).toBe(xs.length);
-    const fmt = (v: number, d: number) => String(Number(v.toFixed(d))).replace("-", "−");
-    expect(info.rows).toEqual(xs.map((x, k) => [String(k + 1), fmt(qs[k]!, 3), fmt(x * 1e9, 2), fmt(ys[k]! * 1e9, 2)]));
+    // Positions to 0.1 nm at the default 1 nm cell (the table rounds to about a tenth of the preview cell, 2 nm).
+    const fmt = (v: number, d: number) => v.toFixed(d).replace("-", "−");
+    expect(info.rows).toEqual(xs.map((x, k) => [String(k + 1), fmt(qs[k]!, 3), fmt(x * 1e9, 1), fmt(ys[k]! * 1e9, 1)]));
     expect(info.axes).toContain("x (nm)");
     expect(info.axes).toContain("ρQ (nm⁻²)");
     expect(info.plots.some((t) => t!.startsWith("texture (preview"))).toBe(true);

@@ -11,7 +11,7 @@ import {
   fillColours, fillCharge, chargeDensity, total, arrowStep, divergingMsh, divergingTable, niceTicks, scaleBarLength,
   COOL_WARM_ENDS, CHARGE_ENDS, MZ_TABLE, CHARGE_TABLE,
 } from "../../../widgets/src/views/textureColors";
-import { labelPieces, tickLabel } from "../../../widgets/src/views/texturePicture";
+import { labelPieces, tickLabel, fixed } from "../../../widgets/src/views/texturePicture";
 import { runPython } from "../../helpers/python";
 import { skyrmionField } from "../fixtures/notebook";
 
@@ -103,6 +103,8 @@ describe("m_z colour map: Moreland's cool to warm diverging map", () => {
     expect(labelPieces("|m_{xy}|")).toEqual([{ text: "|m", sub: false }, { text: "xy", sub: true }, { text: "|", sub: false }]);
     expect(tickLabel(-0)).toBe("0");
     expect(tickLabel(-0.5)).toBe("−0.5");
+    expect(fixed(-0.0001, 3)).toBe("0.000");
+    expect(fixed(-1.0099, 3)).toBe("−1.010");
   });
 });
 

@@ -84,6 +84,12 @@ export function richText(node: Element, text: string): void {
   }
 }
 
+/** A number with a fixed count of decimals, a real minus sign and no "-0". */
+export function fixed(v: number, decimals: number): string {
+  const s = v.toFixed(decimals);
+  return (Number(s) === 0 ? s.replace("-", "") : s).replace("-", "−");
+}
+
 /** Short number for tick labels: no "-0", no long tails. */
 export function tickLabel(v: number): string {
   if (v === 0) return "0";
@@ -173,7 +179,7 @@ export class TexturePicture {
     if (p.arrows !== false) this.arrows(field, geo);
     this.scaleBar(this.mz.overlay, geo);
     this.markers(p.objects ?? null, geo);
-    this.objectTable(p.objects ?? null);
+    this.objectTable(p.objects ?? null, Math.min(dx, dy) * 1e9);
     this.el.dataset.scale = String(s);
     this.el.dataset.peakDensity = String(peakRho);
     return density;
@@ -306,18 +312,20 @@ export class TexturePicture {
         m.append(
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: "white", "stroke-width": 4 }),
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: onCharge ? "#000" : "#ffd400", "stroke-width": 2 }),
-          svg("text", { x: X + 10, y: Y - 10, class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, `${k + 1}: Q = ${tickLabel(Number(objs.charge[k]!.toFixed(2)))}`),
+          svg("text", { x: X + 10, y: Y - 10, class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, `${k + 1}: Q = ${fixed(objs.charge[k]!, 2)}`),
         );
         o.append(m);
       }
     }
   }
 
-  private objectTable(objs: TextureObjects | null): void {
+  private objectTable(objs: TextureObjects | null, cellNm: number): void {
     this.table.replaceChildren();
     if (!objs) return;
     const n = Math.min(objs.x.length, objs.y.length, objs.charge.length);
     if (n === 0) { this.table.append(el("div", { class: "hx-muted", text: "objects: none found" })); return; }
+    // One notation per column: charges to 3 decimals, positions to about a tenth of a cell.
+    const d = Math.max(0, Math.min(4, Math.ceil(-Math.log10(cellNm / 10) - 1e-9)));
     const t = el("table", { class: "hx-objects" });
     const head = el("tr");
     for (const h of ["#", "Q_i", "x_c (nm)", "y_c (nm)"]) { const th = el("th"); richText(th, h); head.append(th); }
@@ -326,9 +334,9 @@ export class TexturePicture {
       const r = el("tr", { "data-index": String(k + 1) });
       r.append(
         el("td", { text: String(k + 1) }),
-        el("td", { text: tickLabel(Number(objs.charge[k]!.toFixed(3))) }),
-        el("td", { text: tickLabel(Number((objs.x[k]! * 1e9).toFixed(2))) }),
-        el("td", { text: tickLabel(Number((objs.y[k]! * 1e9).toFixed(2))) }),
+        el("td", { text: fixed(objs.charge[k]!, 3) }),
+        el("td", { text: fixed(objs.x[k]! * 1e9, d) }),
+        el("td", { text: fixed(objs.y[k]! * 1e9, d) }),
       );
       t.append(r);
     }
