@@ -15,7 +15,7 @@ import { DOMWidgetModel, DOMWidgetView, type ISerializers } from "@jupyter-widge
 import { formatQuantity } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { float32Serializer, asFloat32 } from "./views/buffers.js";
-import { total } from "./views/textureColors.js";
+import { total, chargeDensity } from "./views/textureColors.js";
 import { TexturePicture, richText, type TextureObjects } from "./views/texturePicture.js";
 import { el } from "./views/dom.js";
 
@@ -55,6 +55,7 @@ export class TextureView extends DOMWidgetView {
   private summary!: HTMLElement;
   private messageEl!: HTMLElement;
   private density: Float32Array | null = null;
+  private chargeToken: object | null = null;
 
   override render(): void {
     this.el.classList.add("hx-texture");
@@ -128,17 +129,36 @@ export class TextureView extends DOMWidgetView {
     const dx = this.model.get("dx") as number, dy = this.model.get("dy") as number;
     const given = asFloat32(this.model.get("density"));
     if (!this.density && given && given.length === (nx - 1) * (ny - 1)) this.density = given;
-    this.density = this.picture.draw({
+    const density = this.picture.draw({
       field, nx, ny, dx, dy,
       density: this.density,
       objects: (this.model.get("objects") as TextureObjects | null) ?? null,
       arrows: !!this.model.get("arrows"),
       charge: this.model.get("overlay") === "charge",
       displaySize: (this.model.get("display_size") as number) || 480,
+      deferCharge: true,
     });
-    const Q = total(this.density);
-    this.summary.textContent = `${nx} × ${ny} cells of ${formatQuantity(dx, "m")} × ${formatQuantity(dy, "m")}; topological charge Q = ${Q.toFixed(3)}`;
-    this.el.dataset.charge = String(Q);
+    const cells = `${nx} × ${ny} cells of ${formatQuantity(dx, "m")} × ${formatQuantity(dy, "m")}`;
+    const showTotal = (d: Float32Array) => {
+      const Q = total(d);
+      this.summary.textContent = `${cells}; topological charge Q = ${Q.toFixed(3)}`;
+      this.el.dataset.charge = String(Q);
+    };
+    if (density) showTotal(density);
+    else {
+      // The charge is not needed for the first picture (m_z): compute it and its panel right after.
+      this.summary.textContent = `${cells}; topological charge: computing…`;
+      const token = (this.chargeToken = {});
+      setTimeout(() => {
+        if (token !== this.chargeToken) return;
+        performance.mark("hx-charge-start");
+        this.density = chargeDensity(field, nx, ny);
+        this.picture.drawCharge(this.density);
+        showTotal(this.density);
+        performance.mark("hx-charge-end");
+        try { performance.measure("hx-texture-charge", "hx-charge-start", "hx-charge-end"); } catch { /* ignore */ }
+      }, 0);
+    }
     performance.mark("hx-texture-end");
     try { performance.measure("hx-texture-render", "hx-texture-start", "hx-texture-end"); } catch { /* ignore */ }
   }

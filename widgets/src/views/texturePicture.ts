@@ -43,6 +43,8 @@ export interface PictureInput {
   arrows?: boolean;
   /** Show the charge-density panel (default true). */
   charge?: boolean;
+  /** Without a density: draw the charge panel later (drawCharge) instead of computing it now. */
+  deferCharge?: boolean;
   /** Side of the larger image in CSS pixels (rounded to whole pixels per cell). */
   displaySize?: number;
 }
@@ -113,6 +115,7 @@ export class TexturePicture {
   /** Whole CSS pixels per cell of the last drawing. */
   scale = 1;
   private off: HTMLCanvasElement | null = null;
+  private last: { geo: Geo; objects: TextureObjects | null; showCharge: boolean } | null = null;
 
   constructor() {
     this.el = el("div", { class: "hx-texture-picture" });
@@ -135,54 +138,63 @@ export class TexturePicture {
     return { root, canvas, frame, overlay };
   }
 
-  /** Draw everything; returns the charge density used (computed here when not given). */
-  draw(p: PictureInput): Float32Array {
+  /** Draw everything; returns the charge density used (computed here when not given, null when deferred). */
+  draw(p: PictureInput): Float32Array | null {
     const { field, nx, ny, dx, dy } = p;
     const size = p.displaySize && p.displaySize > 0 ? p.displaySize : 420;
     const s = (this.scale = Math.max(1, Math.round(size / Math.max(nx, ny))));
     const W = nx * s, H = ny * s;
-    // m_z cells
+    const geo = { nx, ny, dx, dy, s, W, H };
+    this.last = { geo, objects: p.objects ?? null, showCharge: p.charge !== false && nx > 1 && ny > 1 };
+    // m_z cells, frame, axes, colour bar, arrows, scale bar, markers
     const rgba = new Uint8ClampedArray(4 * nx * ny);
     fillColours(field, nx, ny, rgba);
     this.blit(this.mz.canvas, rgba, nx, ny, s, ML, MT);
-    // charge density per plaquette, as density per area (nm^-2)
-    const density = p.density && p.density.length === (nx - 1) * (ny - 1) ? p.density : chargeDensity(field, nx, ny);
-    const showCharge = p.charge !== false && nx > 1 && ny > 1;
-    this.charge.root.hidden = !showCharge;
-    const areaNm2 = (dx * 1e9) * (dy * 1e9);
-    const peakQ = peakAbs(density);
-    const peakRho = peakQ / areaNm2;
-    const rhoTop = peakRho > 0 ? niceCeil(peakRho) : 1;
-    if (showCharge) {
-      const crgba = new Uint8ClampedArray(4 * (nx - 1) * (ny - 1));
-      fillCharge(density, nx - 1, ny - 1, rhoTop * areaNm2, crgba);
-      // Plaquette (i, j) spans the centres of cells i..i+1 and j..j+1: half a cell in from the edge.
-      this.blit(this.charge.canvas, crgba, nx - 1, ny - 1, s, ML + Math.round(s / 2), MT + Math.round(s / 2));
-    }
-    // frames, axes, colour bars
-    const geo = { nx, ny, dx, dy, s, W, H };
     this.frame(this.mz, geo, "m_z (colour) and in-plane m (arrows)", MZ_TABLE, -1, 1, "m_z", "", [-1, -0.5, 0, 0.5, 1]);
-    if (showCharge) {
-      const ticks = niceTicks(-rhoTop, rhoTop, 4);
-      this.frame(this.charge, geo, "topological charge density ρ_Q", CHARGE_TABLE, -rhoTop, rhoTop, "ρ_Q", "nm⁻²", ticks);
-    }
-    // arrows and markers
+    this.placeOverlay(this.mz.overlay, geo);
     this.mz.overlay.replaceChildren();
-    this.charge.overlay.replaceChildren();
-    for (const o of [this.mz.overlay, this.charge.overlay]) {
-      o.setAttribute("width", String(W));
-      o.setAttribute("height", String(H));
-      o.setAttribute("viewBox", `0 0 ${W} ${H}`);
-      o.style.left = `${ML}px`;
-      o.style.top = `${MT}px`;
-    }
     if (p.arrows !== false) this.arrows(field, geo);
     this.scaleBar(this.mz.overlay, geo);
-    this.markers(p.objects ?? null, geo);
-    this.objectTable(p.objects ?? null, Math.min(dx, dy) * 1e9);
+    this.markers(this.mz.overlay, this.last.objects, geo, false);
+    this.objectTable(this.last.objects, Math.min(dx, dy) * 1e9);
     this.el.dataset.scale = String(s);
-    this.el.dataset.peakDensity = String(peakRho);
+    // charge density: given, computed now, or (deferCharge) left to drawCharge
+    this.charge.root.hidden = !this.last.showCharge;
+    let density = p.density && p.density.length === (nx - 1) * (ny - 1) ? p.density : null;
+    if (!density && !p.deferCharge) density = chargeDensity(field, nx, ny);
+    if (density) this.drawCharge(density);
+    else this.charge.root.dataset.pending = "1";
     return density;
+  }
+
+  /** The charge-density panel of the last drawing, for this density (one value per plaquette). */
+  drawCharge(density: Float32Array): void {
+    if (!this.last) return;
+    const { geo, objects, showCharge } = this.last;
+    const { nx, ny, dx, dy, s } = geo;
+    // Charge per plaquette, as density per area (nm^-2), on a range symmetric about zero.
+    const areaNm2 = (dx * 1e9) * (dy * 1e9);
+    const peakRho = peakAbs(density) / areaNm2;
+    const rhoTop = peakRho > 0 ? niceCeil(peakRho) : 1;
+    this.el.dataset.peakDensity = String(peakRho);
+    delete this.charge.root.dataset.pending;
+    if (!showCharge) return;
+    const crgba = new Uint8ClampedArray(4 * (nx - 1) * (ny - 1));
+    fillCharge(density, nx - 1, ny - 1, rhoTop * areaNm2, crgba);
+    // Plaquette (i, j) spans the centres of cells i..i+1 and j..j+1: half a cell in from the edge.
+    this.blit(this.charge.canvas, crgba, nx - 1, ny - 1, s, ML + Math.round(s / 2), MT + Math.round(s / 2));
+    this.frame(this.charge, geo, "topological charge density ρ_Q", CHARGE_TABLE, -rhoTop, rhoTop, "ρ_Q", "nm⁻²", niceTicks(-rhoTop, rhoTop, 4));
+    this.placeOverlay(this.charge.overlay, geo);
+    this.charge.overlay.replaceChildren();
+    this.markers(this.charge.overlay, objects, geo, true);
+  }
+
+  private placeOverlay(o: SVGSVGElement, g: Geo): void {
+    o.setAttribute("width", String(g.W));
+    o.setAttribute("height", String(g.H));
+    o.setAttribute("viewBox", `0 0 ${g.W} ${g.H}`);
+    o.style.left = `${ML}px`;
+    o.style.top = `${MT}px`;
   }
 
   /** Copy RGBA (w x h, one pixel per cell) to `canvas` at s CSS px per cell, smoothing off. */
@@ -302,10 +314,10 @@ export class TexturePicture {
     o.append(grp);
   }
 
-  private markers(objs: TextureObjects | null, g: Geo): void {
+  private markers(o: SVGSVGElement, objs: TextureObjects | null, g: Geo, onCharge: boolean): void {
     if (!objs) return;
     const n = Math.min(objs.x.length, objs.y.length, objs.charge.length);
-    for (const [o, onCharge] of [[this.mz.overlay, false], [this.charge.overlay, true]] as const) {
+    {
       for (let k = 0; k < n; k++) {
         const X = (objs.x[k]! / g.dx + 0.5) * g.s, Y = g.H - (objs.y[k]! / g.dy + 0.5) * g.s;
         const m = svg("g", { class: "hx-object-marker", "data-index": k + 1, "data-charge": objs.charge[k]!, "data-x-nm": objs.x[k]! * 1e9, "data-y-nm": objs.y[k]! * 1e9 });
