@@ -240,4 +240,22 @@ describe("texture explorer in chromium", () => {
     expect(info.plots).not.toContain("object centres");
     await shot("texture-explorer", explorerSel);
   });
+
+  it("follows the inputs: a skyrmion lattice shows every object @helicoid/lib finds, with its charge and centre", async () => {
+    const root = `${explorerSel} .hx-explorer-texture`;
+    await page.selectOption(`${explorerSel} .hx-control[data-input="kind"] select`, { label: "skyrmion lattice" });
+    const spec = getCalculator("texture");
+    const inputs = { ...Object.fromEntries(spec.inputs.map((i) => [i.name, i.default])), kind: 3 };
+    const node = runCalculator(spec, inputs);
+    const xs = node.outputs.objectX!.value as number[], ys = node.outputs.objectY!.value as number[], qs = node.outputs.objectCharge!.value as number[];
+    expect(xs.length).toBeGreaterThan(3);
+    const fmt = (v: number, d: number) => v.toFixed(d).replace("-", "−");
+    const want = xs.map((x, k) => [String(k + 1), fmt(qs[k]!, 3), fmt(x * 1e9, 1), fmt(ys[k]! * 1e9, 1)]);
+    await page.waitForFunction(([sel, count]) => document.querySelectorAll(`${sel} table.hx-objects tr`).length === count + 1, [root, xs.length] as const, { timeout: 60_000 });
+    const rows = await page.evaluate((sel) => Array.from(document.querySelectorAll(`${sel} table.hx-objects tr`)).slice(1).map((t) => Array.from(t.children).map((c) => c.textContent)), root);
+    expect(rows).toEqual(want);
+    const markers = await page.locator(`${root} [data-panel="charge"] .hx-object-marker`).count();
+    expect(markers).toBe(xs.length);
+    await shot("texture-explorer-lattice", root);
+  });
 });
