@@ -256,6 +256,29 @@ describe("texture explorer in chromium", () => {
     expect(rows).toEqual(want);
     const markers = await page.locator(`${root} [data-panel="charge"] .hx-object-marker`).count();
     expect(markers).toBe(xs.length);
+    // Orientation check on a picture without mirror symmetry about the marker: the colour under each
+    // marker's centre is the colour of the preview cell nearest to that object's (x_c, y_c).
+    const size = node.outputs.previewSize!.value as number, cell = node.outputs.previewCell!.value as number;
+    const m = node.outputs.fieldPreview!.value as number[];
+    const under = await page.evaluate((sel) => {
+      const r = document.querySelector(sel)!;
+      const c = r.querySelector(".hx-texture-canvas") as HTMLCanvasElement;
+      const box = c.getBoundingClientRect(), ctx = c.getContext("2d")!;
+      return Array.from(r.querySelectorAll('[data-panel="mz"] .hx-object-marker circle:first-child')).map((circle) => {
+        const b = circle.getBoundingClientRect();
+        const x = Math.floor(b.left + b.width / 2 - box.left), y = Math.floor(b.top + b.height / 2 - box.top);
+        return Array.from(ctx.getImageData(x, y, 1, 1).data.slice(0, 3));
+      });
+    }, root);
+    expect(under).toHaveLength(xs.length);
+    let matched = 0;
+    xs.forEach((x, k) => {
+      const i = Math.round(x / cell), j = Math.round(ys[k]! / cell);
+      if (i >= size || j >= size) return;
+      const want = mzColour(m[3 * (j * size + i) + 2]!);
+      if (Math.max(...want.map((v, c) => Math.abs(v - under[k]![c]!))) <= 1) matched++;
+    });
+    expect(matched).toBe(xs.filter((x, k) => Math.round(x / cell) < size && Math.round(ys[k]! / cell) < size).length);
     await shot("texture-explorer-lattice", root);
   });
 });
