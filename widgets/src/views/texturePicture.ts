@@ -175,7 +175,8 @@ export class TexturePicture {
     // Charge per plaquette, as density per area (nm^-2), on a range symmetric about zero.
     const areaNm2 = (dx * 1e9) * (dy * 1e9);
     const peakRho = peakAbs(density) / areaNm2;
-    const rhoTop = peakRho > 0 ? niceCeil(peakRho) : 1;
+    // The whole map is used: its ends are +- the largest |rho_Q| (ticks at round values inside).
+    const rhoTop = peakRho > 0 ? peakRho : 1;
     this.el.dataset.peakDensity = String(peakRho);
     delete this.charge.root.dataset.pending;
     if (!showCharge) return;
@@ -366,10 +367,3 @@ export class TexturePicture {
 }
 
 interface Geo { nx: number; ny: number; dx: number; dy: number; s: number; W: number; H: number }
-
-/** The smallest 1, 2 or 5 x 10^k at or above v (v > 0). */
-function niceCeil(v: number): number {
-  const p = 10 ** Math.floor(Math.log10(v));
-  const f = v / p;
-  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
-}
