@@ -184,7 +184,7 @@ export class TexturePicture {
     fillCharge(density, nx - 1, ny - 1, rhoTop * areaNm2, crgba);
     // Plaquette (i, j) spans the centres of cells i..i+1 and j..j+1: half a cell in from the edge.
     this.blit(this.charge.canvas, crgba, nx - 1, ny - 1, s, ML + Math.round(s / 2), MT + Math.round(s / 2));
-    this.frame(this.charge, geo, "topological charge density ρ_Q", CHARGE_TABLE, -rhoTop, rhoTop, "ρ_Q", "nm⁻²", niceTicks(-rhoTop, rhoTop, 4));
+    this.frame(this.charge, geo, `topological charge density ρ_Q (colour ends: ±${tickLabel(Number(rhoTop.toPrecision(2)))} nm⁻²)`, CHARGE_TABLE, -rhoTop, rhoTop, "ρ_Q", "nm⁻²", niceTicks(-rhoTop, rhoTop, 4));
     this.placeOverlay(this.charge.overlay, geo);
     this.charge.overlay.replaceChildren();
     this.markers(this.charge.overlay, objects, geo, true);
