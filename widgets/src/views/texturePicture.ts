@@ -325,7 +325,7 @@ export class TexturePicture {
         m.append(
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: "white", "stroke-width": 4 }),
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: onCharge ? "#000" : "#ffd400", "stroke-width": 2 }),
-          svg("text", { ...labelPlace(X, Y, g.W), class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, `${k + 1}: Q = ${fixed(objs.charge[k]!, 2)}`),
+          svg("text", { ...labelPlace(X, Y, g.W), class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, n > 20 ? String(k + 1) : `${k + 1}: Q = ${fixed(objs.charge[k]!, 2)}`),
         );
         o.append(m);
       }
@@ -370,6 +370,8 @@ interface Geo { nx: number; ny: number; dx: number; dy: number; s: number; W: nu
 
 /** Where a marker's label goes: right of and above the ring, or left of / below it near an edge. */
 function labelPlace(X: number, Y: number, W: number): Record<string, string | number> {
+  // Near the right edge the label goes below-left (a neighbour's label sits above-right at the same height).
   const left = X + 90 > W;
-  return { x: left ? X - 10 : X + 10, y: Y - 10 < 12 ? Y + 20 : Y - 10, "text-anchor": left ? "end" : "start" };
+  const below = left || Y - 10 < 12;
+  return { x: left ? X - 4 : X + 10, y: below ? Y + 22 : Y - 10, "text-anchor": left ? "end" : "start" };
 }
