@@ -19,6 +19,7 @@ import { codeSnippet } from "./views/codeSnippet.js";
 import { plotFigure, type PlotFigure } from "./views/explorerPlots.js";
 import { dataExtent, stableRange } from "./views/plotRanges.js";
 import { swapLineData } from "./views/linePath.js";
+import { texturePanelFor, type TexturePanel } from "./views/texturePanel.js";
 import { Plotly } from "./plotly.js";
 import { isStaticPage, copyText, el } from "./views/dom.js";
 
@@ -89,6 +90,8 @@ export class ExplorerView extends DOMWidgetView {
   private coalescer: Coalescer | null = null;
   private appliedSeq = 0;
   private plotEls: HTMLElement[] = [];
+  /** A picture of the texture when the outputs carry a field preview (views/texturePanel.ts). */
+  private texturePanel: TexturePanel | null = null;
   private outputsEl!: HTMLElement;
   private errorEl!: HTMLElement;
   private statusEl!: HTMLElement;
@@ -154,6 +157,8 @@ export class ExplorerView extends DOMWidgetView {
       plots.append(d);
       return d;
     });
+    this.texturePanel = texturePanelFor(spec);
+    if (this.texturePanel) results.append(this.texturePanel.el);
     results.append(plots);
     body.append(results);
     this.el.append(body);
@@ -426,6 +431,7 @@ export class ExplorerView extends DOMWidgetView {
     this.errorEl.hidden = !error;
     this.errorEl.textContent = error ? `Calculator error: ${error}` : "";
     this.el.classList.toggle("hx-has-error", !!error);
+    this.texturePanel?.show(result);
     if (!result) {
       this.tableKey = "";
       this.outputsEl.replaceChildren();

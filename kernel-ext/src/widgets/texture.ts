@@ -1,7 +1,9 @@
 /**
- * `textureView(field, nx, ny, options?)`: a 2D unit-vector field m(x, y) in the page: hue =
- * in-plane angle, lightness = m_z (common practice in the trade, no source), decimated arrows,
- * an optional topological-charge-density overlay and a hover readout.
+ * `textureView(field, nx, ny, options?)`: a 2D unit-vector field m(x, y) in the page: m_z in
+ * K. Moreland's "cool to warm" diverging colour map (ISVC 2009) with in-plane arrows, the
+ * topological charge density in its own panel (diverging, symmetric about zero; `overlay: "none"`
+ * hides it), axes in nm, colour bars, a scale bar, optional object markers with a table, and a
+ * hover readout.
  *
  * `field`: mx, my, mz interleaved, x fastest (length 3 * nx * ny), any numeric array; it is
  * copied into a Float32Array sent as one binary buffer (never modified).
@@ -19,7 +21,9 @@ export interface TextureOptions {
   overlay?: "none" | "charge";
   /** Charge per plaquette ((nx - 1) * (ny - 1) values), if computed in the kernel. */
   density?: ArrayLike<number> | null;
-  /** Width of the drawing in CSS pixels (default 480). */
+  /** Objects to mark and list: centres x, y (m) and charges, e.g. from findObjects. */
+  objects?: { x: ArrayLike<number>; y: ArrayLike<number>; charge: ArrayLike<number> } | null;
+  /** Side of the larger image in CSS pixels (default 480; whole pixels per cell). */
   displaySize?: number;
 }
 
@@ -33,7 +37,21 @@ export interface TextureState extends WidgetState {
   title: string;
   arrows: boolean;
   overlay: "none" | "charge";
+  objects: { x: number[]; y: number[]; charge: number[] } | null;
   display_size: number;
+}
+
+function objectsOf(o: TextureOptions["objects"]): TextureState["objects"] {
+  if (!o) return null;
+  const n = o.x?.length;
+  if (typeof n !== "number" || o.y?.length !== n || o.charge?.length !== n) {
+    throw new InputError("objects", o, "{ x, y, charge }: three arrays of the same length (centres in m, charges)");
+  }
+  const pick = (name: string, a: ArrayLike<number>) => Array.from(a, (v, i) => {
+    if (!Number.isFinite(v)) throw new InputError(`objects.${name}[${i}]`, v, "a finite number");
+    return v;
+  });
+  return { x: pick("x", o.x), y: pick("y", o.y), charge: pick("charge", o.charge) };
 }
 
 function toFloat32(name: string, v: ArrayLike<number>, expected: number, what: string): Float32Array {
@@ -69,7 +87,8 @@ export class TextureView extends Widget<TextureState> {
         dy: positive("dy", o.dy, o.dx ?? 1e-9),
         title: o.title ?? "",
         arrows: o.arrows ?? true,
-        overlay: o.overlay ?? "none",
+        overlay: o.overlay ?? "charge",
+        objects: objectsOf(o.objects),
         display_size: o.displaySize ?? 480,
       },
     });
@@ -82,6 +101,11 @@ export class TextureView extends Widget<TextureState> {
       field: toFloat32("field", field, 3 * nx * ny, "mx, my, mz interleaved, x fastest"),
       density: density ? toFloat32("density", density, (nx - 1) * (ny - 1), "one charge per plaquette") : null,
     });
+  }
+
+  /** Mark and list these objects (null clears them). */
+  setObjects(objects: TextureOptions["objects"]): this {
+    return this.set({ objects: objectsOf(objects) });
   }
 
   override describe(): string {

@@ -176,7 +176,6 @@ export const textureSpec: CalculatorSpec = {
   ],
   plots: [
     { id: "profile", title: "m_z along the middle row", x: "lineX", y: ["lineMz"] },
-    { id: "objects", title: "object centres", x: "objectX", y: ["objectY"], mode: "markers" },
   ],
   assumptions: [
     "analytic demo textures (not simulations): wall profile tan(theta/2) = sinh(R/w)/sinh(rho/w), each cell takes its nearest object",

@@ -110,6 +110,12 @@ describe("figure, texture and fit panel (kernel side)", () => {
     expect(t.get("dy")).toBe(2e-9);
     expect(() => textureView(new Float32Array(5), 4, 3)).toThrow(InputError);
     expect(() => textureView(new Float32Array(36).fill(NaN), 4, 3)).toThrow(/field\[0\]/);
+    // Objects to mark: three arrays of one length, copied as plain numbers; anything else is refused by name.
+    const marked = textureView(field, 4, 3, { objects: { x: new Float64Array([1e-9]), y: [2e-9], charge: [-1] } });
+    expect(marked.get("objects")).toEqual({ x: [1e-9], y: [2e-9], charge: [-1] });
+    expect(marked.get("overlay")).toBe("charge");
+    expect(() => textureView(field, 4, 3, { objects: { x: [1e-9], y: [], charge: [1] } })).toThrow(/objects/);
+    expect(() => textureView(field, 4, 3, { objects: { x: [NaN], y: [0], charge: [1] } })).toThrow(/objects\.x\[0\]/);
   });
 
   it("fitPanel relays the page's start and stop buttons", () => {
