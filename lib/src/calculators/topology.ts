@@ -27,7 +27,14 @@ export function textureFromInputs(v: InputValues, notes: string[] = []): VectorF
   switch (v.kind) {
     case 1: return skyrmionTexture(grid, { ...s, vorticity: -1 }, { background: bg });
     case 2: return skyrmioniumTexture(grid, { ...s, Rinner: s.R / 2 }, { background: bg });
-    case 3: return skyrmionLatticeTexture(grid, { ...s, a: v.a! }, { background: bg });
+    case 3: {
+      // neighbouring cores must stay apart: a core of radius R with walls of width w fills about
+      // R + 2w, and the centres of a triangular lattice are a apart
+      if (s.R + 2 * s.w > v.a! / 2) {
+        notes.push(`the skyrmions of this lattice overlap: R + 2w = ${((s.R + 2 * s.w) * 1e9).toPrecision(3)} nm exceeds half the lattice constant a/2 = ${((v.a! / 2) * 1e9).toPrecision(3)} nm, so the reversed cores merge and the objects found are the islands between them; choose R + 2w < a/2 (for a = ${(v.a! * 1e9).toPrecision(3)} nm, R below ${((v.a! / 2 - 2 * s.w) * 1e9).toPrecision(3)} nm)`);
+      }
+      return skyrmionLatticeTexture(grid, { ...s, a: v.a! }, { background: bg });
+    }
     case 4: {
       let vort = v.vorticity!;
       if (vort === 0) {
@@ -107,7 +114,7 @@ function computeTexture(v: InputValues): ComputeOutput {
   }
   const preview = fieldPreview(field.m, n, field.dx);
   return {
-    status: notes.some((s) => s.startsWith("a vortex")) ? "warning" : "ok",
+    status: notes.some((s) => s.startsWith("a vortex") || s.startsWith("the skyrmions of this lattice overlap")) ? "warning" : "ok",
     notes,
     values: {
       Q: q.Q,
