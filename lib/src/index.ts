@@ -14,3 +14,4 @@ export * from "./fit/index.js";
 export * from "./io/index.js";
 export * from "./calculators/index.js";
 export * from "./chains/index.js";
+export * from "./plot/index.js";
