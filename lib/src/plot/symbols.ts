@@ -18,6 +18,7 @@ const NAMES: Record<string, string> = {
   log: "log", ln: "ln", exp: "exp", sin: "sin", cos: "cos", tan: "tan", sinh: "sinh", cosh: "cosh",
   tanh: "tanh", arctan: "arctan", min: "min", max: "max", det: "det", Re: "Re", Im: "Im",
 };
+const OPERATORS = new Set(["log", "ln", "exp", "sin", "cos", "tan", "sinh", "cosh", "tanh", "arctan", "min", "max", "det", "Re", "Im"]);
 /** Commands that take one argument and put a combining accent on it. */
 const ACCENTS: Record<string, string> = { hat: "\u0302", bar: "\u0304", tilde: "\u0303", dot: "\u0307", vec: "\u20D7" };
 /** Commands whose one argument is shown as it is (roman text). */
@@ -68,6 +69,10 @@ function readCommand(r: Reader, inScript: boolean): string {
   }
   const name = m[0];
   r.i += name.length;
+  // spaces after a command name end the name (as in TeX); an operator keeps one before its argument
+  const spaced = r.peek() === " ";
+  while (r.peek() === " ") r.i++;
+  if (OPERATORS.has(name) && spaced && /[\p{L}\p{N}\\]/u.test(r.peek())) return `${NAMES[name]} `;
   if (name in SPACES) return SPACES[name]!;
   if (name === "frac") {
     const a = readArgument(r, inScript), b = readArgument(r, inScript);
@@ -83,7 +88,8 @@ function readCommand(r: Reader, inScript: boolean): string {
   }
   if (PLAIN.has(name)) return readArgument(r, inScript);
   if (name === "left" || name === "right" || name === "big" || name === "Big" || name === "bigl" || name === "bigr") return "";
-  return NAMES[name] ?? name;
+  if (!(name in NAMES)) return spaced && /[\p{L}\p{N}]/u.test(r.peek()) ? `${name} ` : name;
+  return NAMES[name]!;
 }
 
 function readSequence(r: Reader, end: string, inScript: boolean): string {
