@@ -97,6 +97,8 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     return {
       type: "scatter",
       mode: plot.mode === "markers" ? "markers" : "lines",
+      // markers at the ends of an axis that spans exactly the sweep are drawn whole
+      ...(plot.mode === "markers" ? { cliponaxis: false } : {}),
       name: legend,
       x: xs.map((v) => v / xf),
       y: ys.map((v) => (Number.isFinite(v) ? v / yf : null)),
@@ -120,6 +122,7 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
   if (swept) {
     fig.sweptRange = [Math.min(sweep!.from, sweep!.to) / xf, Math.max(sweep!.from, sweep!.to) / xf];
     const x = current!.value / xf;
+    layout.margin = { ...PLOT_MARGIN, t: 30 };
     layout.shapes = [{ type: "line", xref: "x", yref: "paper", x0: x, x1: x, y0: 0, y1: 1, line: { color: "#b2182b", width: 1.5, dash: "dot" }, name: "current" }];
     layout.annotations = [{
       xref: "x", yref: "paper", x, y: 1, yanchor: "bottom", showarrow: false, font: { size: 11, color: "#b2182b" },
