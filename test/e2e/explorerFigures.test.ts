@@ -5,7 +5,7 @@
  * Screenshots go to test-output/screenshots/figures-*.png.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
-import { mkdirSync, writeFileSync } from "node:fs";
+import { mkdirSync, writeFileSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { Page } from "playwright-core";
 import { launchBrowser, screenshot, buildTestWidgets, outputDir, type Browser } from "./harness";
@@ -151,5 +151,30 @@ describe("explorer figures", () => {
     expect(await page.locator(`${s} .hx-plot-message`).first().textContent()).toMatch(/no sweep chosen/);
     // the table still shows the values at the input's value
     expect(await page.locator(`${s} .hx-table tr[data-output="szExact"]`).count()).toBe(1);
+  }, 60_000);
+});
+
+describe("figure export from the page", () => {
+  it("the SVG and PNG buttons download the plot at the chosen size", async () => {
+    const s = sel("wall360");
+    await settled(page, s);
+    const bar = page.locator(`${s} .hx-export`).first();
+    await bar.locator(".hx-export-w").fill("8.5");
+    await bar.locator(".hx-export-h").fill("6");
+    const [svgDownload] = await Promise.all([page.waitForEvent("download"), bar.locator(".hx-export-svg").click()]);
+    const svgPath = join(outputDir, "export", "figures-wall360.svg");
+    await svgDownload.saveAs(svgPath);
+    const svg = readFileSync(svgPath, "utf8");
+    expect(svg).toMatch(/^<svg[^>]*width="321"[^>]*height="227"/);
+    expect(svg).toContain("class=\"scatterlayer");
+    expect(svg).not.toMatch(/\\[a-z]/);
+    await bar.locator(".hx-export-dpi").fill("300");
+    const [pngDownload] = await Promise.all([page.waitForEvent("download"), bar.locator(".hx-export-png").click()]);
+    const pngPath = join(outputDir, "export", "figures-wall360.png");
+    await pngDownload.saveAs(pngPath);
+    const png = readFileSync(pngPath);
+    // PNG header: width and height (big-endian) at bytes 16 and 20; 321 px x 300/96 = 1003 px.
+    expect(png.subarray(1, 4).toString()).toBe("PNG");
+    expect(png.readUInt32BE(16)).toBe(Math.round(321 * 300 / 96));
   }, 60_000);
 });
