@@ -45,7 +45,7 @@ export function paperLayout(data: Trace[], layout: Layout, size: PaperSize = {})
       ...layout, width, height, autosize: false, font: { family: "Arial, Helvetica, sans-serif", size: font, color: "#000" },
       margin: { l: 4.5 * font, r: font, t: (layout.showlegend ? 2.2 : 0.8) * font, b: 3.4 * font },
       paper_bgcolor: "#fff", plot_bgcolor: "#fff", xaxis: axis(layout.xaxis), yaxis: axis(layout.yaxis),
-      legend: { orientation: "h", x: 0, y: 1, yanchor: "bottom", font: { size: font } },
+      legend: { orientation: "h", x: 0, y: 1.02, yanchor: "bottom", bgcolor: "rgba(0,0,0,0)", font: { size: font } },
     },
   };
 }
