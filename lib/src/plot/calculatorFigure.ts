@@ -125,7 +125,8 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     layout.shapes = [{ type: "line", xref: "x", yref: "paper", x0: x, x1: x, y0: 0, y1: 1, line: { color: "#b2182b", width: 1.5, dash: "dot" }, name: "current" }];
     layout.annotations = [{
       // inside the plot at its foot, right of the line: clear of the legend above the plot
-      xref: "x", yref: "paper", x, y: 0, yanchor: "bottom", xanchor: "left", xshift: 3, yshift: 2, showarrow: false,
+      // (plotly places annotations on a log axis by log10 of the value, shapes by the value)
+      xref: "x", yref: "paper", x: plot.xLog ? Math.log10(x) : x, y: 0, yanchor: "bottom", xanchor: "left", xshift: 3, yshift: 2, showarrow: false,
       font: { size: 11, color: "#b2182b" }, bgcolor: "rgba(255,255,255,0.85)",
       text: `${symbolHtml(current!.symbol)} = ${Number(x.toPrecision(4))}${xu && xu !== "1" ? " " + displayUnit(xu) : ""}`, name: "current",
     }];
