@@ -13,7 +13,7 @@ import { NotebookBuilder } from "../widgets/fixtures/notebook";
 import { exportNotebook } from "../../kernel-ext/src/notebook/export";
 import { getCalculator, defaultSweep } from "../../lib/src/index";
 
-const EXPLORERS = ["skyrmion", "berry-loop", "chern", "spin-tunnel", "easy-plane", "wall360"];
+const EXPLORERS = ["skyrmion", "berry-loop", "chern", "magnon-hall", "spin-tunnel", "easy-plane", "wall360"];
 
 let browser: Browser;
 let page: Page;
@@ -106,6 +106,20 @@ describe("explorer figures", () => {
         // the shown title carries that unit (rendered µ, ², ...), or none for pure numbers
         const xu = p.traces[0]!.xUnit;
         if (xu && xu !== "1") expect(p.xTitleShown, where).toMatch(/\)$/);
+      }
+      // the swept input's mark: a line at its value, labelled right beside it (log axes too)
+      const marks = await page.evaluate((s) => [...document.querySelectorAll(`${s} .hx-plot[data-drawn]`)].flatMap((gd) => {
+        const line = gd.querySelector(".shapelayer path"), label = gd.querySelector(".annotation");
+        if (!line) return [];
+        const a = line.getBoundingClientRect(), b = label?.getBoundingClientRect();
+        return [{ line: a.left + a.width / 2, label: b ? b.left : null, text: label?.textContent ?? "" }];
+      }), sel(id));
+      const sweptInput = getCalculator(id).sweep?.over[0];
+      if (sweptInput) expect(marks.length, `${id}: no mark of ${sweptInput}`).toBeGreaterThan(0);
+      for (const m of marks) {
+        expect(m.label, id).not.toBeNull();
+        expect(Math.abs(m.label! - m.line), `${id}: label ${m.text} at ${m.label}, line at ${m.line}`).toBeLessThan(12);
+        expect(m.text, id).toMatch(/=/);
       }
       await screenshot(page, `figures-${id}`, sel(id));
     }
