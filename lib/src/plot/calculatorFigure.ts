@@ -47,7 +47,15 @@ export function axisUnit(series: Array<ArrayLike<number | null>>, siUnit: string
       if (v !== null && v !== undefined && Number.isFinite(v) && Math.abs(v) > peak) peak = Math.abs(v);
     }
   }
-  return customaryUnit(peak, siUnit);
+  const chosen = customaryUnit(peak, siUnit);
+  // A unit with no customary prefixes of its own (W/K, ...): an SI prefix on its first symbol.
+  if (chosen[1] === 1 && siUnit && /^[A-Za-z]/.test(siUnit) && peak > 0 && Number.isFinite(peak) && (peak < 1e-2 || peak >= 1e4)
+    && customaryUnit(1e-12, siUnit)[1] === 1 && customaryUnit(1e12, siUnit)[1] === 1) {
+    const e = Math.max(-18, Math.min(18, 3 * Math.floor(Math.log10(peak) / 3)));
+    const prefix: Record<number, string> = { [-18]: "a", [-15]: "f", [-12]: "p", [-9]: "n", [-6]: "µ", [-3]: "m", 3: "k", 6: "M", 9: "G", 12: "T", 15: "P", 18: "E" };
+    if (prefix[e]) return [prefix[e] + siUnit, 10 ** e];
+  }
+  return chosen;
 }
 
 /** "R, w (nm)": symbols joined, one unit in parentheses (none for a pure number). */
@@ -114,8 +122,9 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     autosize: true,
     showlegend: data.length > 1,
     legend: { orientation: "h", x: 0, y: 1.02, yanchor: "bottom" },
-    xaxis: { title: { text: axisTitle([symbolHtml(xSym)], xu) }, type: plot.xLog ? "log" : "linear", automargin: false },
-    yaxis: { title: { text: yTitle }, type: plot.yLog ? "log" : "linear", automargin: false },
+    // exponents as powers of ten, never plotly's SI letters (a "p" beside a unit reads as a prefix)
+    xaxis: { title: { text: axisTitle([symbolHtml(xSym)], xu) }, type: plot.xLog ? "log" : "linear", automargin: false, exponentformat: "power" },
+    yaxis: { title: { text: yTitle }, type: plot.yLog ? "log" : "linear", automargin: false, exponentformat: "power" },
   };
   if (data.length > 1) layout.margin = { ...PLOT_MARGIN, t: 30 };
   const fig: PlotFigure = { data, layout, problem: missing.length ? `not in the result: ${missing.join(", ")}` : null };

@@ -60,3 +60,11 @@ describe("axis units", () => {
     expect(fig.problem).toMatch(/no state exists/);
   });
 });
+
+describe("axis units without a customary table", () => {
+  it("take an SI prefix on the unit (W/K in pW/K), never plotly's tick letters", () => {
+    // Common practice, no source: SI prefixes in steps of 10^3.
+    expect(axisUnit([[5.98e-13, 1.6e-11]], "W/K")).toEqual(["pW/K", 1e-12]);
+    expect(axisUnit([[0.5, 3]], "W/K")).toEqual(["W/K", 1]);
+  });
+});
