@@ -83,7 +83,8 @@ export function niceTicks(lo: number, hi: number, target = 5): number[] {
   if (!(hi > lo)) return [lo];
   const raw = (hi - lo) / target;
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 2.5, 5, 10].map((f) => f * mag).find((s) => s >= raw) ?? 10 * mag;
+  // the 1-2-5 step whose tick count is nearest the target
+  const step = [0.5, 1, 2, 5, 10].map((f) => f * mag).reduce((best, s) => (Math.abs((hi - lo) / s - target) < Math.abs((hi - lo) / best - target) ? s : best));
   const out: number[] = [];
   for (let v = Math.ceil(lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
   return out;
