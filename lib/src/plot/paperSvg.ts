@@ -190,8 +190,14 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
       if (d) curves.push(`<path class="curve" data-trace="${i}" d="${d}" fill="none" stroke="${esc(colour)}" stroke-width="${PAPER_LINE_PX}" stroke-linejoin="round" clip-path="url(#plotarea)"/>`);
     }
     if (mode.includes("markers")) {
-      let g = `<g class="markers" data-trace="${i}" fill="${esc(colour)}" clip-path="url(#plotarea)">`;
-      for (let k = 0; k < Math.min(xs.length, ys.length); k++) if (ok(k)) g += `<circle cx="${f(X(xs[k] as number))}" cy="${f(Y(ys[k] as number))}" r="2.5"/>`;
+      // markers are drawn whole (not clipped) when their centre is inside the plot area
+      let g = `<g class="markers" data-trace="${i}" fill="${esc(colour)}">`;
+      const inside = (px: number, py: number) => px >= m.l - 0.01 && px <= m.l + pw + 0.01 && py >= m.t - 0.01 && py <= m.t + ph + 0.01;
+      for (let k = 0; k < Math.min(xs.length, ys.length); k++) {
+        if (!ok(k)) continue;
+        const px = X(xs[k] as number), py = Y(ys[k] as number);
+        if (inside(px, py)) g += `<circle cx="${f(px)}" cy="${f(py)}" r="2.5"/>`;
+      }
       curves.push(g + "</g>");
     }
   });
