@@ -168,6 +168,32 @@ describe("explorer figures", () => {
   }, 60_000);
 });
 
+describe("Reset", () => {
+  it("restores the inputs and refits every plot's ranges", async () => {
+    const s = sel("wall360");
+    const ranges = () => page.evaluate((q) => [...document.querySelectorAll(`${q} .hx-plot[data-drawn]`)].map((gd) => {
+      const l = (gd as unknown as { layout: { xaxis: { range: number[] }; yaxis: { range: number[] } } }).layout;
+      return [...l.xaxis.range, ...l.yaxis.range];
+    }), s);
+    await settled(page, s);
+    await page.locator(`${s} .hx-reset`).click();
+    await settled(page, s);
+    const before = await ranges();
+    await page.evaluate((q) => {
+      const el = document.querySelector(`${q} .hx-control[data-input="Ku"] input.hx-slider`) as HTMLInputElement;
+      el.value = "900";
+      el.dispatchEvent(new Event("input", { bubbles: true }));
+    }, s);
+    await page.waitForFunction((q) => Number((document.querySelector(`${q} .hx-control[data-input="Ku"]`) as HTMLElement).dataset.value) > 2e6, s);
+    await settled(page, s);
+    expect(await ranges()).not.toEqual(before);
+    await page.locator(`${s} .hx-reset`).click();
+    await page.waitForFunction((q) => Number((document.querySelector(`${q} .hx-control[data-input="Ku"]`) as HTMLElement).dataset.value) < 2e6, s);
+    await settled(page, s);
+    expect(await ranges()).toEqual(before);
+  }, 60_000);
+});
+
 describe("figure export from the page", () => {
   it("the SVG and PNG buttons download the plot at the chosen size", async () => {
     const s = sel("wall360");
