@@ -4,6 +4,7 @@
  */
 export * from "./errors.js";
 export * from "./quantity/index.js";
+export * from "./plot/index.js";
 export * from "./material/index.js";
 export * from "./numeric/index.js";
 export * from "./walls/index.js";

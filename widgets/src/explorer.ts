@@ -16,8 +16,9 @@ import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
 import { STEPS, toPosition, fromPosition, isLogScale } from "./views/sliderScale.js";
 import { validateEntry, entryText } from "./views/quantityEntry.js";
 import { codeSnippet } from "./views/codeSnippet.js";
-import { plotFigure, type PlotFigure } from "./views/explorerPlots.js";
-import { dataExtent, stableRange } from "./views/plotRanges.js";
+import { plotFigure, currentMarkFor, type PlotFigure } from "./views/explorerPlots.js";
+import { dataExtent, stableRange, paddedRange } from "./views/plotRanges.js";
+import { addExportButtons } from "./views/figureExport.js";
 import { swapLineData } from "./views/linePath.js";
 import { texturePanelFor, type TexturePanel } from "./views/texturePanel.js";
 import { Plotly } from "./plotly.js";
@@ -70,6 +71,9 @@ export function resolveSpec(calculator: string, stateSpec: SpecData | null): { s
   }
   return { spec: stateSpec, local: false, note: "" };
 }
+
+/** The sweep selector's value for "no sweep" (arrays over a sweep are then not computed). */
+const NO_SWEEP = "";
 
 /** Quiet time after the last in-place curve swap before plotly redraws those plots exactly. */
 const EXACT_REDRAW_DELAY_MS = 120;
@@ -230,7 +234,8 @@ export class ExplorerView extends DOMWidgetView {
     const v = this.values();
     for (const [k, x] of Object.entries(v)) if (result.inputs[k]?.value !== x) return false;
     const s = this.sweepState();
-    if (s && JSON.stringify(result.sweep ?? null) !== JSON.stringify(s)) return false;
+    if (s && s.over !== NO_SWEEP && JSON.stringify(result.sweep ?? null) !== JSON.stringify(s)) return false;
+    if (s && s.over === NO_SWEEP && result.sweep) return false;
     return true;
   }
 
@@ -296,8 +301,10 @@ export class ExplorerView extends DOMWidgetView {
       const label = el("label", { class: "hx-sweep-label", text: "Sweep " });
       this.sweepSelect = el("select", { class: "hx-sweep", "aria-label": "swept input" }) as HTMLSelectElement;
       for (const name of spec.sweep.over) this.sweepSelect.append(el("option", { value: name, text: name }));
+      this.sweepSelect.append(el("option", { value: NO_SWEEP, text: "no sweep" }));
       this.sweepSelect.addEventListener("change", () => {
         const over = this.sweepSelect!.value;
+        if (over === NO_SWEEP) { this.model.set("sweep", { over: NO_SWEEP, from: 0, to: 0, points: 0 }); this.touch(); return; }
         const input = spec.inputs.find((i) => i.name === over)!;
         const points = this.sweepState()?.points ?? spec.sweep!.points;
         this.model.set("sweep", { over, from: input.min, to: input.max, points });
@@ -311,6 +318,8 @@ export class ExplorerView extends DOMWidgetView {
       const defaults = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
       for (const r of this.rows.values()) { r.message.hidden = true; r.row.classList.remove("hx-refused"); }
       this.model.set("inputs", { ...defaults, ...(this.openedWith?.inputs ?? {}) });
+      // Reset also forgets the kept axis ranges: every plot is refitted to its new data.
+      this.plotState = [];
       if (this.openedWith?.sweep) {
         this.model.set("sweep", { ...this.openedWith.sweep });
       } else if (spec.sweep && spec.sweep.over.length) {
@@ -345,6 +354,7 @@ export class ExplorerView extends DOMWidgetView {
 
   private effectiveSweep(): SweepRequest | null {
     const s = this.sweepState();
+    if (s && s.over === NO_SWEEP) return null;
     if (s) return s;
     const spec = this.spec!;
     if (!spec.sweep || spec.sweep.over.length === 0) return null;
@@ -363,18 +373,18 @@ export class ExplorerView extends DOMWidgetView {
       r.row.classList.toggle("hx-swept", swept);
       if (r.slider) {
         r.slider.value = String(toPosition(v, r.input));
-        r.slider.disabled = swept;
+        // The swept input stays editable: its value is the point the table shows, marked on the curves.
       }
       if (r.select) r.select.value = String(v);
       if (r.entry && !r.row.classList.contains("hx-refused") && document.activeElement !== r.entry) {
-        r.entry.value = swept ? `swept ${entryText(r.input, sweep!.from)} .. ${entryText(r.input, sweep!.to)}` : entryText(r.input, v);
-        r.entry.disabled = swept;
+        r.entry.value = entryText(r.input, v);
+        r.entry.title = swept ? `swept from ${entryText(r.input, sweep!.from)} to ${entryText(r.input, sweep!.to)} in the plots; this value is the marked point and the table's` : "";
       }
       if (r.entry && document.activeElement === r.entry && !r.row.classList.contains("hx-refused")) {
         // keep what the person is typing
       }
     }
-    if (this.sweepSelect && sweep) this.sweepSelect.value = sweep.over;
+    if (this.sweepSelect) this.sweepSelect.value = sweep ? sweep.over : NO_SWEEP;
     this.el.dataset.sweep = sweep ? JSON.stringify(sweep) : "";
   }
 
@@ -382,7 +392,8 @@ export class ExplorerView extends DOMWidgetView {
 
   private recompute(): void {
     if (!this.coalescer) return;
-    this.coalescer.submit({ calculator: this.model.get("calculator") as string, inputs: this.values(), sweep: this.effectiveSweep() });
+    const sweep = this.effectiveSweep();
+    this.coalescer.submit({ calculator: this.model.get("calculator") as string, inputs: this.values(), sweep, noSweep: !sweep && this.sweepState()?.over === NO_SWEEP });
     this.updateStatus(true);
   }
 
@@ -470,7 +481,7 @@ export class ExplorerView extends DOMWidgetView {
   private figureFor(k: number, result: CalculatorResult): PlotFigure {
     const spec = this.spec!;
     const plot = spec.plots[k]!;
-    const fig = plotFigure(plot, spec.outputs, result);
+    const fig = plotFigure(plot, spec.outputs, result, currentMarkFor(plot, spec, result, this.values()));
     if (fig.data.length === 0) return fig;
     const shape = JSON.stringify([fig.layout, fig.data.map((t) => [t.name, t.mode, t.meta])]);
     const prev = this.plotState[k];
@@ -483,12 +494,22 @@ export class ExplorerView extends DOMWidgetView {
       }
       return stableRange(same ? prev![name] : null, ext);
     };
-    const xr = axis("xaxis", fig.data.map((t) => t.x as number[]), !!plot.xLog);
+    // The x axis spans exactly the sweep when it is the swept input, else exactly the data of a
+    // line plot (a curve's ends are its ends); markers get the padded, stable range.
+    const toAxis = (r: [number, number]): [number, number] => (plot.xLog ? [Math.log10(r[0]), Math.log10(r[1])] : r);
+    let xr: [number, number] | null;
+    if (fig.sweptRange && (!plot.xLog || fig.sweptRange[0] > 0)) xr = toAxis(fig.sweptRange);
+    else if (plot.mode !== "markers") {
+      let ext: [number, number] | null = null;
+      for (const t of fig.data) { const e = dataExtent(t.x as number[], !!plot.xLog); if (e) ext = ext ? [Math.min(ext[0], e[0]), Math.max(ext[1], e[1])] : e; }
+      xr = ext && ext[1] > ext[0] ? ext : ext ? paddedRange(ext) : null;
+    } else xr = axis("xaxis", fig.data.map((t) => t.x as number[]), !!plot.xLog);
     const yr = axis("yaxis", fig.data.map((t) => t.y as Array<number | null>), !!plot.yLog);
     const layout = fig.layout as { xaxis: Record<string, unknown>; yaxis: Record<string, unknown> };
     if (xr) { layout.xaxis.range = xr; layout.xaxis.autorange = false; }
     if (yr) { layout.yaxis.range = yr; layout.yaxis.autorange = false; }
-    this.plotState[k] = { shape, xaxis: xr, yaxis: yr, swappable: same && prev!.xaxis === xr && prev!.yaxis === yr };
+    const sameX = !!prev && !!xr && !!prev.xaxis && prev.xaxis[0] === xr[0] && prev.xaxis[1] === xr[1];
+    this.plotState[k] = { shape, xaxis: sameX ? prev!.xaxis : xr, yaxis: yr, swappable: same && sameX && prev!.yaxis === yr };
     return fig;
   }
 
@@ -503,7 +524,10 @@ export class ExplorerView extends DOMWidgetView {
       Plotly.purge(target);
       delete target.dataset.drawn;
       this.stalePlots.delete(k);
-      target.replaceChildren(el("div", { class: "hx-error", text: `Plot '${plot.title}': ${fig.problem}` }));
+      const why = !this.effectiveSweep() && this.spec!.sweep?.over.length
+        ? "no sweep chosen: pick an input under Sweep to draw this plot"
+        : fig.problem;
+      target.replaceChildren(el("div", { class: "hx-error hx-plot-message", text: `Plot '${plot.title}': ${why}` }));
       return Promise.resolve(false);
     }
     if (target.dataset.drawn && this.plotState[k]!.swappable && swapLineData(target, fig.data as Array<{ x: number[]; y: Array<number | null>; mode: unknown }>)) {
@@ -520,6 +544,7 @@ export class ExplorerView extends DOMWidgetView {
     const target = this.plotEls[k]!;
     if (!target.dataset.drawn) target.replaceChildren();
     return Plotly.react(target, fig.data, fig.layout, { displaylogo: false, responsive: true }).then(() => {
+      if (!target.dataset.drawn) addExportButtons(target, this.spec!.plots[k]!.id);
       target.dataset.drawn = "1";
       if (k === 0) this.markFirstPlot();
     });

@@ -6,6 +6,7 @@ import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { Plotly, unsupportedTraces } from "./plotly.js";
 import { el } from "./views/dom.js";
+import { addExportButtons } from "./views/figureExport.js";
 
 export interface FigureState {
   data: Array<Record<string, unknown>>;
@@ -55,6 +56,7 @@ export class FigureView extends DOMWidgetView {
     this.messageEl.textContent = bad.length ? `This page's plotly bundle (cartesian) cannot draw trace type(s): ${bad.join(", ")}` : "";
     const layout = { autosize: true, margin: { l: 60, r: 20, t: 40, b: 50 }, ...(fig.layout ?? {}) };
     void Plotly.react(this.plotEl, fig.data ?? [], layout, { displaylogo: false, responsive: true, ...(fig.config ?? {}) }).then(() => {
+      if (this.draws === 0) addExportButtons(this.plotEl, "figure");
       this.draws++;
       this.el.dataset.draws = String(this.draws);
     });

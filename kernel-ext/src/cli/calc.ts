@@ -10,6 +10,7 @@
  */
 import { catalogue, formatQuantity, getCalculator, InputError, parseQuantity, runCalculator, ConvergenceError, type ComputeOptions } from "@helicoid/lib";
 import { formatEntry } from "../display/table.js";
+import { saveFigure } from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 
 export const calcUsage = [
@@ -18,12 +19,13 @@ export const calcUsage = [
   "       helicoid calc ID --help      what ID computes: its inputs (unit, default, range, meaning) and outputs",
   "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once",
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
+  "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
   "  --list                the calculators with their inputs and outputs",
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -100,7 +102,14 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       if (points < 2 || points > 100000) throw new InputError("--sweep", sweep, "POINTS a whole number from 2 to 100000");
       options.sweep = { over: m[1]!, from: parseQuantity(m[1]!, m[2]!, input.unit), to: parseQuantity(m[1]!, m[3]!, input.unit), points: Number(m[4]) };
     }
+    const plotPath = a.options.get("--plot");
+    if (plotPath !== undefined && !/\.(svg|png)$/i.test(plotPath)) throw new InputError("--plot", plotPath, "a file name ending in .svg or .png");
+    if (plotPath !== undefined && spec.plots.length === 0) throw new InputError("--plot", plotPath, `no --plot: '${id}' has no plots`);
     const result = runCalculator(spec, raw, options);
+    if (plotPath !== undefined) {
+      try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
+      io.stderr(`helicoid calc: wrote ${plotPath} (${spec.plots[0]!.title})\n`);
+    }
     if (json) io.stdout(JSON.stringify(result) + "\n");
     else {
       io.stdout(`${result.title} (${result.id}): ${result.status}\n`);

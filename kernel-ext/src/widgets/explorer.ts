@@ -192,7 +192,8 @@ export class Explorer extends Widget<ExplorerState> {
   recompute(): CalculatorResult | null {
     const sweep = this.get("sweep");
     try {
-      const result = runCalculator(this.spec, this.get("inputs"), sweep ? { sweep } : {});
+      // The page's "no sweep" is a sweep over "" (no input): compute without the default sweep.
+      const result = runCalculator(this.spec, this.get("inputs"), sweep && sweep.over === "" ? { noSweep: true } : sweep ? { sweep } : {});
       this.set({ result, error: "" });
       return result;
     } catch (err) {

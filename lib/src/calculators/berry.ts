@@ -351,10 +351,13 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
   const half = Math.round(2 * p.S) % 2 === 1;
   const notes: string[] = [];
   const values: ComputeOutput["values"] = { gargPeriod: gargQuenchingPeriod(p) };
+  /** Fields where the splitting vanishes or is smallest: the curve is refined around them. */
+  let dips: number[] = [];
   if (aligned) {
     const q = hardAxisQuenchingFields(p, v.Bmax!, 6);
     values.zeros = q.zeros;
     values.zeroCount = q.zeros.length;
+    dips = q.zeros;
     if (q.spacings.length) {
       values.meanPeriod = q.meanPeriod;
       values.deviation = q.deviation;
@@ -366,6 +369,7 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
     values.zeros = [];
     values.zeroCount = 0;
     values.minimumFields = mins.fields;
+    dips = mins.fields;
     values.minimumSplittings = mins.splittings.map((x) => x / kB);
     notes.push(`The field is ${phiB.toPrecision(3)} rad off the hard axis: the parity symmetry is broken, so the splitting has minima of finite depth instead of zeros (minimumFields, minimumSplittings).`);
     if (mins.splittings.some((x, i) => x < 10 * mins.resolution[i]!)) notes.push("Some minima are within 10x the double-precision resolution of the splitting and cannot be told from zero.");
@@ -378,15 +382,39 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
   values.splittingZeroField = half ? 0 : hardAxisTunnelSplitting(p, 0).splitting / kB;
   if (half) notes.push("Half-integer S: the zero-field splitting is exactly 0 (Kramers degeneracy), not computed.");
   {
-    // Always over [0, Bmax] (the field range of this calculator), 60 points.
+    // Over [0, Bmax] (the field range of this calculator): 60 even points, refined where the curve
+    // needs it: geometric steps toward each zero (minimum) found above, down to 1e-4 of the period,
+    // then midpoints wherever neighbours differ by more than 0.4 decades (at most 640 points in
+    // all). On a log scale a zero is a dip to the resolution floor; even sampling misses its depth.
     void options;
-    const Bs = Array.from({ length: 60 }, (_, i) => (v.Bmax! * i) / 59);
-    const logSplit: number[] = [];
+    const Bmax = v.Bmax!;
+    const logAt = (B: number): number => {
+      const t = aligned ? hardAxisTunnelSplitting(p, B) : tunnelSplittingAnyField(p, [B * dir[0], B * dir[1], 0]);
+      return Math.log10(Math.max(t.splitting, t.resolution) / kB);
+    };
+    const curve = new Map<number, number>();
+    const add = (B: number) => { if (B >= 0 && B <= Bmax && !curve.has(B)) curve.set(B, logAt(B)); };
+    for (let i = 0; i < 60; i++) add((Bmax * i) / 59);
+    const scale = Number.isFinite(values.gargPeriod as number) && (values.gargPeriod as number) > 0 ? Math.min(values.gargPeriod as number, Bmax) : Bmax / 10;
+    for (const z of dips) {
+      add(z);
+      for (const f of [0.1, 0.03, 0.01, 3e-3, 1e-3, 3e-4, 1e-4]) { add(z - f * scale); add(z + f * scale); }
+    }
+    const BUDGET = 640;
+    for (let round = 0; round < 8 && curve.size < BUDGET; round++) {
+      const xs = [...curve.keys()].sort((a, b) => a - b);
+      let added = 0;
+      for (let i = 1; i < xs.length && curve.size < BUDGET; i++) {
+        const a = xs[i - 1]!, b = xs[i]!;
+        if (b - a > 1e-7 * Bmax && Math.abs(curve.get(b)! - curve.get(a)!) > 0.4) { add((a + b) / 2); added++; }
+      }
+      if (added === 0) break;
+    }
+    const Bs = [...curve.keys()].sort((a, b) => a - b);
+    const logSplit = Bs.map((B) => curve.get(B)!);
     const l0: number[] = [], l1: number[] = [], l2: number[] = [];
     const levels = giantSpinLevels(p, Bs, dir);
     for (let i = 0; i < Bs.length; i++) {
-      const t = aligned ? hardAxisTunnelSplitting(p, Bs[i]!) : tunnelSplittingAnyField(p, [Bs[i]! * dir[0], Bs[i]! * dir[1], 0]);
-      logSplit.push(Math.log10(Math.max(t.splitting, t.resolution) / kB));
       l0.push(levels[i]![0]! / kB);
       l1.push(levels[i]![1]! / kB);
       l2.push(levels[i]![2]! / kB);

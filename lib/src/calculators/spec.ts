@@ -336,10 +336,10 @@ export function sweepValues(spec: CalculatorSpec, sweep: NonNullable<ComputeOpti
 export function runCalculator(
   spec: CalculatorSpec,
   raw: Record<string, QuantityInput | undefined> = {},
-  options: ComputeOptions = {},
+  options: ComputeOptions & { /** compute without the spec's default sweep */ noSweep?: boolean } = {},
 ): CalculatorResult {
   const inputs = coerceInputs(spec, raw);
-  const sweep = options.sweep ?? defaultSweep(spec, inputs);
+  const sweep = options.sweep ?? (options.noSweep ? undefined : defaultSweep(spec, inputs));
   if (sweep) checkSweep(spec, sweep);
   let computed: ComputeOutput;
   try {

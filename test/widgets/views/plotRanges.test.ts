@@ -13,9 +13,10 @@ describe("explorer axis ranges", () => {
     expect(paddedRange([0, 10])).toEqual([-0.5, 10.5]);
     expect(paddedRange([2, 2])).toEqual([1.9, 2.1]);
   });
-  it("keeps the range while data fit and fill half of it; refits with headroom on the outgrown side", () => {
+  it("keeps the range while data fit and fill a quarter of it; refits with headroom on the outgrown side", () => {
     // Common practice, no source.
     expect(stableRange([0, 10], [1, 9])).toEqual([0, 10]);
+    expect(stableRange([0, 10], [3, 6])).toEqual([0, 10]);
     expect(stableRange([0, 10], [4, 5])).toEqual([3.95, 5.05]);
     const grown = stableRange([0, 10], [1, 12])!;
     expect(grown[0]).toBeCloseTo(0.45, 12);

@@ -19,6 +19,8 @@ export interface ComputeJob {
   /** SI inputs. */
   inputs: Record<string, number>;
   sweep: SweepRequest | null;
+  /** "no sweep" chosen: compute without the spec's default sweep (no swept arrays). */
+  noSweep?: boolean;
 }
 
 export type ComputeOutcome =

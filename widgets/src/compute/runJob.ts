@@ -6,7 +6,7 @@ export function runJob(job: ComputeJob): ComputeOutcome {
   const t0 = performance.now();
   try {
     const spec = getCalculator(job.calculator);
-    const result = runCalculator(spec, job.inputs, job.sweep ? { sweep: job.sweep } : {});
+    const result = runCalculator(spec, job.inputs, job.sweep ? { sweep: job.sweep } : job.noSweep ? { noSweep: true } : {});
     return { seq: job.seq, ok: true, result, ms: performance.now() - t0 };
   } catch (err) {
     const e = err as Error;

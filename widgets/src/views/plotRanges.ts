@@ -1,6 +1,6 @@
 /**
  * Axis ranges chosen by the explorer instead of plotly's autorange, so that a moving slider keeps
- * the axes still: the range is kept while the new data fit inside it and fill at least half of it;
+ * the axes still: the range is kept while the new data fit inside it and fill at least a quarter of it;
  * otherwise it is refitted to the data with 5 % padding on each side (about what plotly's own
  * autorange adds), plus half the span of headroom on a side the data outgrew (a slider that
  * keeps moving the same way then refits every few steps instead of every step). Log axes work in log10 units, as plotly's `range` does.
@@ -31,14 +31,15 @@ export function paddedRange([lo, hi]: [number, number]): [number, number] {
 
 /**
  * The range to show for data of `extent`, given the range shown now (`previous`, null at first):
- * the previous one while the data fit inside and span at least half of it, else a refit.
+ * the previous one while the data fit inside and span at least a quarter of it (the range moves
+ * when the data leave it, or shrink so far that the curve would look flat), else a refit.
  */
 export function stableRange(previous: [number, number] | null, extent: [number, number] | null): [number, number] | null {
   if (!extent) return null;
   if (previous) {
     const [a, b] = previous;
     const fits = extent[0] >= a && extent[1] <= b;
-    const fills = extent[1] - extent[0] >= 0.5 * (b - a);
+    const fills = extent[1] - extent[0] >= 0.25 * (b - a);
     if (fits && fills) return previous;
     if (fills || extent[1] - extent[0] >= 0.25 * (b - a)) {
       const [lo, hi] = paddedRange(extent);

@@ -1,0 +1,3 @@
+export * from "./symbols.js";
+export * from "./calculatorFigure.js";
+export * from "./paperSvg.js";
