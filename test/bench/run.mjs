@@ -24,10 +24,12 @@ for (const f of files) {
   }
 }
 const fmt = (v) => (v === undefined ? "" : typeof v === "number" ? (Math.abs(v) >= 100 ? v.toFixed(0) : v.toPrecision(3)) : String(v));
-console.log(["group", "name", "ours (ms)", "reference", "reference (ms)", "ratio", "goal"].join(" | "));
+// spread: a row may give ours_spread / reference_spread as [min, max] of its runs
+const spread = (v) => (Array.isArray(v) ? ` [${fmt(v[0])}-${fmt(v[1])}]` : "");
+console.log(["group", "name", "ours (ms) [min-max]", "reference", "reference (ms) [min-max]", "ratio", "goal"].join(" | "));
 for (const r of rows) {
   if (r.error) { console.log(`${r.group} | FAILED | ${r.error.split("\n")[0]}`); continue; }
-  console.log([r.group, r.name, fmt(r.ours_ms), r.reference ?? "", fmt(r.reference_ms), fmt(r.ratio), r.goal ?? ""].join(" | "));
+  console.log([r.group, r.name, fmt(r.ours_ms) + spread(r.ours_spread), r.reference ?? "", fmt(r.reference_ms) + spread(r.reference_spread), fmt(r.ratio), r.goal ?? ""].join(" | "));
 }
 const out = join(here, "..", "..", "test-output");
 mkdirSync(out, { recursive: true });
