@@ -4,7 +4,7 @@
  * maps. Kept apart from chernNumbers.ts so that the grid kernels load without mathjs (worker threads).
  */
 import type { EvalFunction } from "mathjs";
-import { mathjs } from "../quantity/mathjs.js";
+import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { toPlanarMatrix } from "../numeric/complexMatrix.js";
 import type { BlochModel } from "./blochModel.js";
@@ -36,7 +36,7 @@ function compileFormula(h: string, parameters: Record<string, number>): (k1: num
   let code = formulaCache.get(h);
   if (!code) {
     try {
-      code = mathjs().compile(h) as EvalFunction;
+      code = mathExpressions().compile(h) as EvalFunction;
     } catch (err) {
       throw new InputError("H", h, "a mathjs matrix expression in k1, k2", (err as Error).message);
     }

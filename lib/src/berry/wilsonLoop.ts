@@ -16,7 +16,7 @@
  * Sign convention as in spinBerryPhase.ts: gamma = i oint <u|d u>, reported in (-pi, pi].
  */
 import type { Complex, EvalFunction } from "mathjs";
-import { mathjs } from "../quantity/mathjs.js";
+import { mathComplex, mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { HermitianEigenSolver, assertHermitian } from "../numeric/eigenHermitian.js";
 import { toPlanarMatrix, maxAbsDifference, maxAbsEntry, complexDeterminant, type PlanarMatrix } from "../numeric/complexMatrix.js";
@@ -61,7 +61,7 @@ export function compileMatrixFamily(family: MatrixFamily, variable = "lambda", p
   if (typeof family === "string") {
     let code: EvalFunction;
     try {
-      code = mathjs().compile(family) as EvalFunction;
+      code = mathExpressions().compile(family) as EvalFunction;
     } catch (err) {
       throw new InputError("H", family, "a mathjs matrix expression such as \"[[cos(lambda), sin(lambda)], [sin(lambda), -cos(lambda)]]\"", (err as Error).message);
     }
@@ -198,14 +198,14 @@ function wilsonPhases(k: number, wr: Float64Array, wi: Float64Array): number[] {
     // lambda^2 - tr lambda + det = 0
     const tr = [wr[0]! + wr[3]!, wi[0]! + wi[3]!];
     const det = complexDeterminant(2, wr, wi);
-    const { complex, sqrt: mathSqrt } = mathjs();
+    const { complex, sqrt: mathSqrt } = mathComplex();
     const disc = complex(tr[0]! * tr[0]! - tr[1]! * tr[1]! - 4 * det[0], 2 * tr[0]! * tr[1]! - 4 * det[1]);
     const sq = mathSqrt(disc) as unknown as Complex;
     const l1 = [(tr[0]! + sq.re) / 2, (tr[1]! + sq.im) / 2];
     const l2 = [(tr[0]! - sq.re) / 2, (tr[1]! - sq.im) / 2];
     return [wrapBerryPhase(-Math.atan2(l1[1]!, l1[0]!)), wrapBerryPhase(-Math.atan2(l2[1]!, l2[0]!))].sort((a, b) => a - b);
   }
-  const { complex, eigs } = mathjs();
+  const { complex, eigs } = mathComplex();
   const rows: Complex[][] = [];
   for (let a = 0; a < k; a++) {
     const row: Complex[] = [];

@@ -4,7 +4,7 @@
  * and local parameters. All of them build a LeastSquaresProblem and call solveLeastSquares.
  */
 import type { EvalFunction, MathNode } from "mathjs";
-import { mathjs } from "../quantity/mathjs.js";
+import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
 import { getProfileModel, type ProfileModel } from "./profileModels.js";
@@ -119,8 +119,8 @@ export function formulaModel(formula: string, parameters: Array<Partial<FitParam
   let node: MathNode;
   let code: EvalFunction;
   try {
-    node = mathjs().parse(formula);
-    code = mathjs().compile(formula);
+    node = mathExpressions().parse(formula);
+    code = mathExpressions().compile(formula);
   } catch (err) {
     throw new InputError("formula", formula, "a mathjs expression in x and the parameters", (err as Error).message);
   }

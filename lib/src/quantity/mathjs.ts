@@ -2,29 +2,43 @@
  * mathjs, loaded on first use. Importing mathjs costs about 1 s of CPU and 40-80 MB (its
  * typed-function setup for every function), so @helicoid/lib never imports it eagerly: plain SI
  * numbers and numeric strings never load it; a string with a unit, a formula or a matrix
- * expression loads it once. Every module of the library that needs mathjs calls `mathjs()`.
- * The customary CGS units of the trade are added to the (shared, default) mathjs instance at load.
+ * expression loads it once. Every module of the library that needs mathjs asks here, by group:
+ * units (`mathUnits`), expressions (`mathExpressions`), complex numbers and eigenvalues
+ * (`mathComplex`). The customary CGS units of the trade are added to the (shared, default) mathjs
+ * instance before any of them is handed out, as when units.ts defined them at import.
  */
-import type * as MathJs from "mathjs";
+import { loadMathComplex, loadMathExpressions, loadMathUnits, type MathComplex, type MathExpressions, type MathUnits } from "./mathjsLoad.js";
 
-// CommonJS output: `require` is Node's (or the bundler's); lib is compiled with no ambient types.
-declare const require: (id: string) => unknown;
+let units: MathUnits | undefined;
+let expressions: MathExpressions | undefined;
+let complexes: MathComplex | undefined;
 
-let loaded: typeof MathJs | undefined;
-
-/** The mathjs module, loaded (and given the CGS units) the first time it is asked for. */
-export function mathjs(): typeof MathJs {
-  if (!loaded) {
-    const m = require("mathjs") as typeof MathJs;
+/** mathjs's unit and createUnit, with the CGS units defined. */
+export function mathUnits(): MathUnits {
+  if (!units) {
+    const m = loadMathUnits();
     defineCgsUnits(m);
-    loaded = m;
+    units = m;
   }
-  return loaded;
+  return units;
 }
 
-/** True once mathjs has been loaded by `mathjs()` (for tests and diagnostics). */
-export function mathjsLoaded(): boolean {
-  return loaded !== undefined;
+/** mathjs's compile and parse (expressions may hold units: the CGS units are defined first). */
+export function mathExpressions(): MathExpressions {
+  if (!expressions) {
+    mathUnits();
+    expressions = loadMathExpressions();
+  }
+  return expressions;
+}
+
+/** mathjs's complex, sqrt and eigs. */
+export function mathComplex(): MathComplex {
+  if (!complexes) {
+    mathUnits();
+    complexes = loadMathComplex();
+  }
+  return complexes;
 }
 
 /**
@@ -34,7 +48,7 @@ export function mathjsLoaded(): boolean {
  * "G" alone is not defined (it would clash with the giga prefix). erg is built into mathjs.
  * Source: NIST SP 811 (2008), appendix B.9 (CGS conversion factors).
  */
-function defineCgsUnits(m: typeof MathJs): void {
+function defineCgsUnits(m: MathUnits): void {
   const defs: Array<[string, { definition: string; aliases?: string[]; prefixes?: string }]> = [
     ["oersted", { definition: `${1000 / (4 * Math.PI)} A/m`, aliases: ["Oe"], prefixes: "short" }],
     ["gauss", { definition: "1e-4 T", prefixes: "long" }],

@@ -6,7 +6,7 @@
 import type { Unit } from "mathjs";
 import { InputError } from "../errors.js";
 import { mu0, h, kB, e } from "./constants.js";
-import { mathjs } from "./mathjs.js";
+import { mathUnits } from "./mathjs.js";
 
 /** Speed of light in vacuum (exact in the SI), for wavenumbers as energies. */
 const c0 = 299792458;
@@ -16,7 +16,7 @@ const c0 = 299792458;
  * the customary CGS units: Oe, kOe, gauss, emu). Plain SI numbers never load it.
  */
 function mathUnit(text: string): Unit {
-  return mathjs().unit(text);
+  return mathUnits().unit(text);
 }
 
 /** A value as a user may give it: an SI number, or a string such as "15 pJ/m" or "1.1e6". */
