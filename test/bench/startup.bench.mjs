@@ -28,7 +28,7 @@ function timedChild(argv) {
   try {
     const r = spawnSync("/usr/bin/time", ["-f", "%U %S %M", "-o", out, ...argv], { cwd: root, encoding: "utf8", maxBuffer: 1 << 26 });
     if (r.status !== 0) throw new Error(`${argv.join(" ")} failed: ${r.stderr}`);
-    JSON.parse(r.stdout); // both sides print JSON: a failed run is not timed
+    if (r.stdout.trim()) JSON.parse(r.stdout); // both sides print JSON: a failed run is not timed
     const [u, s, kb] = readFileSync(out, "utf8").trim().split(/\s+/).slice(-3).map(Number);
     return { cpu: (u + s) * 1000, rssMB: kb / 1024 };
   } finally {
@@ -81,6 +81,18 @@ export default async () => {
       reference_ms: p.median, reference_spread: p.spread,
       ratio: o.median / p.median,
       goal: verdict(o.median <= p.median, "CPU <= the Python script's"),
+    });
+  }
+
+  // the floor: an empty Node process and an empty Python process (what no library change can remove)
+  {
+    const { ours, ref } = interleaved(() => timedChild([process.execPath, "-e", "0"]), () => timedChild([systemPython, "-c", "pass"]), RUNS);
+    const o = summary(ours.map((x) => x.cpu));
+    const p = summary(ref.map((x) => x.cpu));
+    rows.push({
+      group: "startup", name: `floor: empty process, CPU user+sys, interleaved x${RUNS}`,
+      ours_ms: o.median, ours_spread: o.spread, reference: "python3 -c pass", reference_ms: p.median, reference_spread: p.spread, ratio: o.median / p.median,
+      goal: "informational (node's own start-up)",
     });
   }
 
