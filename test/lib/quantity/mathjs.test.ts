@@ -3,7 +3,8 @@
 // check on the built library in a fresh Node process (a module-load hook and require.cache), not a
 // timing. Common practice, no source.
 import { spawnSync } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 
@@ -61,5 +62,23 @@ describe("mathjs is loaded only when a unit must be parsed", () => {
     expect(A).toBeCloseTo(15e-12, 24);
     // Source: NIST SP 811 (2008), appendix B.9: 1 Oe = (1000 / 4 pi) A/m
     expect(H).toBeCloseTo(1e6 / (4 * Math.PI), 6);
+  });
+
+  it("no module of the library imports mathjs at run time except the loaders (quantity/mathjsLoad*.ts)", () => {
+    const src = fileURLToPath(new URL("../../../lib/src", import.meta.url));
+    const offenders: string[] = [];
+    const walk = (dir: string): void => {
+      for (const e of readdirSync(dir, { withFileTypes: true })) {
+        const p = join(dir, e.name);
+        if (e.isDirectory()) walk(p);
+        else if (p.endsWith(".ts") && !/mathjsLoad(\.browser)?\.ts$/.test(p)) {
+          const text = readFileSync(p, "utf8");
+          // value imports and requires of mathjs; `import type` is erased at compile time
+          if (/^\s*import\s+(?!type\b)[^;]*from\s+["']mathjs["']/m.test(text) || /require\(\s*["']mathjs["']\s*\)/.test(text)) offenders.push(p);
+        }
+      }
+    };
+    walk(src);
+    expect(offenders).toEqual([]);
   });
 });
