@@ -24,10 +24,35 @@ for (const f of files) {
   }
 }
 const fmt = (v) => (v === undefined ? "" : typeof v === "number" ? (Math.abs(v) >= 100 ? v.toFixed(0) : v.toPrecision(3)) : String(v));
-console.log(["group", "name", "ours (ms)", "reference", "reference (ms)", "ratio", "goal"].join(" | "));
+/**
+ * Every goal gets a verdict. A row that judged itself says "MET: ..." or "MISSED: ..."; otherwise
+ * each clause of its goal of the form "[median|ratio] (<|<=) N [ms]" is judged on the row's ratio
+ * (clauses naming the ratio) or its own median (ours_ms); a goal without a number ("one-time cost")
+ * is marked informational.
+ */
+function verdictOf(r) {
+  const goal = r.goal ?? "";
+  if (/^(MET|MISSED)\b/.test(goal)) return goal.split(":")[0];
+  const out = [];
+  for (const clause of goal.split(",")) {
+    const m = /(ratio)?[^<]*?(<=|<)\s*([0-9.]+(?:e-?[0-9]+)?)\s*(ms)?/.exec(clause);
+    if (!m) continue;
+    const value = m[1] ? r.ratio : r.ours_ms;
+    if (typeof value !== "number") continue;
+    const limit = Number(m[3]);
+    const met = m[2] === "<" ? value < limit : value <= limit;
+    out.push(`${met ? "MET" : "MISSED"} (${clause.trim()})`);
+  }
+  return out.length ? out.join("; ") : "informational";
+}
+for (const r of rows) if (!r.error) r.verdict = verdictOf(r);
+
+// spread: a row may give ours_spread / reference_spread as [min, max] of its runs
+const spread = (v) => (Array.isArray(v) ? ` [${fmt(v[0])}-${fmt(v[1])}]` : "");
+console.log(["group", "name", "ours (ms) [min-max]", "reference", "reference (ms) [min-max]", "ratio", "goal", "verdict"].join(" | "));
 for (const r of rows) {
   if (r.error) { console.log(`${r.group} | FAILED | ${r.error.split("\n")[0]}`); continue; }
-  console.log([r.group, r.name, fmt(r.ours_ms), r.reference ?? "", fmt(r.reference_ms), fmt(r.ratio), r.goal ?? ""].join(" | "));
+  console.log([r.group, r.name, fmt(r.ours_ms) + spread(r.ours_spread), r.reference ?? "", fmt(r.reference_ms) + spread(r.reference_spread), fmt(r.ratio), r.goal ?? "", r.verdict].join(" | "));
 }
 const out = join(here, "..", "..", "test-output");
 mkdirSync(out, { recursive: true });

@@ -24,3 +24,30 @@ export function pythonTiming(script, input = null) {
   if (r.status !== 0) throw new Error(`python timing failed: ${r.stderr}`);
   return JSON.parse(r.stdout);
 }
+
+/**
+ * Run ours and the reference alternately (A B A B ...) `runs` times each, so both see the same
+ * machine load in the same period; returns the results of each side in order.
+ */
+export function interleaved(ours, reference, runs) {
+  const o = [];
+  const r = [];
+  for (let i = 0; i < runs; i++) {
+    o.push(ours(i));
+    r.push(reference(i));
+  }
+  return { ours: o, ref: r };
+}
+
+/** Median and spread (min and max) of a list of figures. */
+export function summary(values) {
+  const s = [...values].sort((a, b) => a - b);
+  const n = s.length;
+  const median = n % 2 ? s[(n - 1) / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
+  return { median, min: s[0], max: s[n - 1], spread: [s[0], s[n - 1]], n };
+}
+
+/** A goal's verdict as the bench prints it: "MET: goal" or "MISSED: goal". */
+export function verdict(met, goal) {
+  return `${met ? "MET" : "MISSED"}: ${goal}`;
+}

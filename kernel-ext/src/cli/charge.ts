@@ -133,7 +133,8 @@ export async function chargeCommand(args: string[], io: CommandIO): Promise<numb
 }
 
 function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "cores" | "density") {
-  const q = skyrmionNumber(field, { boundary, layer });
+  // one pass: the density the object finder needs also gives Q
+  const q = skyrmionNumber(field, { boundary, layer, density: true });
   let continuum: number | null = null;
   if (field.nx >= 3 && field.ny >= 3) continuum = continuumSkyrmionNumber(field, { boundary, layer }).Q;
   const layersToScan = field.nz === 1 ? [layer] : Array.from({ length: field.nz }, (_, k) => k);
@@ -142,7 +143,7 @@ function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "c
   for (const k of layersToScan) {
     const hasMatter = field.vacuum === null || field.vacuum.subarray(k * field.nx * field.ny, (k + 1) * field.nx * field.ny).some((v) => v === 0);
     if (!hasMatter) continue;
-    const o = findObjects(field, { boundary, layer: k, mode });
+    const o = findObjects(field, { boundary, layer: k, mode, charge: k === layer ? q : undefined });
     if (field.nz > 1) layers.push({ layer: k, skyrmionNumber: o.Q });
     for (const ob of o.objects) {
       const entry: Record<string, unknown> = {

@@ -3,7 +3,8 @@
  * matrix formula in k1, k2 (compiled by mathjs, no eval), for chernNumbers and the Berry-curvature
  * maps. Kept apart from chernNumbers.ts so that the grid kernels load without mathjs (worker threads).
  */
-import { compile, type EvalFunction } from "mathjs";
+import type { EvalFunction } from "mathjs";
+import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { toPlanarMatrix } from "../numeric/complexMatrix.js";
 import type { BlochModel } from "./blochModel.js";
@@ -35,7 +36,7 @@ function compileFormula(h: string, parameters: Record<string, number>): (k1: num
   let code = formulaCache.get(h);
   if (!code) {
     try {
-      code = compile(h) as EvalFunction;
+      code = mathExpressions().compile(h) as EvalFunction;
     } catch (err) {
       throw new InputError("H", h, "a mathjs matrix expression in k1, k2", (err as Error).message);
     }

@@ -15,7 +15,8 @@
  * sandboxed parser; no JavaScript eval) and evaluated with the loop variable and `parameters`.
  * Sign convention as in spinBerryPhase.ts: gamma = i oint <u|d u>, reported in (-pi, pi].
  */
-import { compile, eigs, complex, sqrt as mathSqrt, type Complex, type EvalFunction } from "mathjs";
+import type { Complex, EvalFunction } from "mathjs";
+import { mathComplex, mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { HermitianEigenSolver, assertHermitian } from "../numeric/eigenHermitian.js";
 import { toPlanarMatrix, maxAbsDifference, maxAbsEntry, complexDeterminant, type PlanarMatrix } from "../numeric/complexMatrix.js";
@@ -60,7 +61,7 @@ export function compileMatrixFamily(family: MatrixFamily, variable = "lambda", p
   if (typeof family === "string") {
     let code: EvalFunction;
     try {
-      code = compile(family) as EvalFunction;
+      code = mathExpressions().compile(family) as EvalFunction;
     } catch (err) {
       throw new InputError("H", family, "a mathjs matrix expression such as \"[[cos(lambda), sin(lambda)], [sin(lambda), -cos(lambda)]]\"", (err as Error).message);
     }
@@ -190,6 +191,22 @@ export function wilsonLoop(family: MatrixFamily, options: WilsonLoopOptions = {}
   };
 }
 
+/**
+ * Principal square root of re + i im (real part >= 0; on the negative real axis +i sqrt|re|), by
+ * the half-angle formulas with the cancellation-free branch. Common practice, no source (the
+ * formula complex.js, behind mathjs's sqrt, uses too).
+ */
+function principalSqrt(re: number, im: number): { re: number; im: number } {
+  if (re === 0 && im === 0) return { re: 0, im: 0 };
+  const r = Math.hypot(re, im);
+  if (re >= 0) {
+    const t = Math.sqrt(0.5 * (r + re));
+    return { re: t, im: im / (2 * t) };
+  }
+  const t = Math.sqrt(0.5 * (r - re));
+  return { re: Math.abs(im) / (2 * t), im: im < 0 ? -t : t };
+}
+
 /** -arg of the eigenvalues of the k x k Wilson matrix, wrapped to (-pi, pi], ascending. */
 function wilsonPhases(k: number, wr: Float64Array, wi: Float64Array): number[] {
   if (k === 1) return [wrapBerryPhase(-Math.atan2(wi[0]!, wr[0]!))];
@@ -197,12 +214,13 @@ function wilsonPhases(k: number, wr: Float64Array, wi: Float64Array): number[] {
     // lambda^2 - tr lambda + det = 0
     const tr = [wr[0]! + wr[3]!, wi[0]! + wi[3]!];
     const det = complexDeterminant(2, wr, wi);
-    const disc = complex(tr[0]! * tr[0]! - tr[1]! * tr[1]! - 4 * det[0], 2 * tr[0]! * tr[1]! - 4 * det[1]);
-    const sq = mathSqrt(disc) as unknown as Complex;
+    // principal square root of the discriminant, in plain arithmetic (no mathjs for two bands)
+    const sq = principalSqrt(tr[0]! * tr[0]! - tr[1]! * tr[1]! - 4 * det[0], 2 * tr[0]! * tr[1]! - 4 * det[1]);
     const l1 = [(tr[0]! + sq.re) / 2, (tr[1]! + sq.im) / 2];
     const l2 = [(tr[0]! - sq.re) / 2, (tr[1]! - sq.im) / 2];
     return [wrapBerryPhase(-Math.atan2(l1[1]!, l1[0]!)), wrapBerryPhase(-Math.atan2(l2[1]!, l2[0]!))].sort((a, b) => a - b);
   }
+  const { complex, eigs } = mathComplex();
   const rows: Complex[][] = [];
   for (let a = 0; a < k; a++) {
     const row: Complex[] = [];

@@ -3,7 +3,8 @@
  * formula string (compiled by mathjs, never eval), and global fits of several data sets with shared
  * and local parameters. All of them build a LeastSquaresProblem and call solveLeastSquares.
  */
-import { compile, parse, type EvalFunction, type MathNode } from "mathjs";
+import type { EvalFunction, MathNode } from "mathjs";
+import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
 import { getProfileModel, type ProfileModel } from "./profileModels.js";
@@ -118,8 +119,8 @@ export function formulaModel(formula: string, parameters: Array<Partial<FitParam
   let node: MathNode;
   let code: EvalFunction;
   try {
-    node = parse(formula);
-    code = compile(formula);
+    node = mathExpressions().parse(formula);
+    code = mathExpressions().compile(formula);
   } catch (err) {
     throw new InputError("formula", formula, "a mathjs expression in x and the parameters", (err as Error).message);
   }

@@ -1,36 +1,23 @@
 /**
  * Units at the edges: parse user input (SI number or string with units) into an SI number,
- * checked for dimension with mathjs; format SI numbers in the trade's customary units.
+ * checked for dimension with mathjs (loaded only when a string with a unit arrives); format SI
+ * numbers in the trade's customary units.
  */
-import { unit as mathUnit, createUnit, type Unit } from "mathjs";
+import type { Unit } from "mathjs";
 import { InputError } from "../errors.js";
 import { mu0, h, kB, e } from "./constants.js";
+import { mathUnits } from "./mathjs.js";
 
 /** Speed of light in vacuum (exact in the SI), for wavenumbers as energies. */
 const c0 = 299792458;
 
 /**
- * Customary CGS units of the trade, added to mathjs once: oersted (Oe, with short prefixes: kOe),
- * gauss (with long prefixes: kilogauss), emu (so that "800 emu/cm^3" is a magnetization).
- * 1 Oe = 1000 / (4 pi) A/m, 1 G = 1e-4 T, 1 emu = 1e-3 A m^2 (1 emu/cm^3 = 1 kA/m).
- * "G" alone is not defined (it would clash with the giga prefix). erg is built into mathjs.
- * Source: NIST SP 811 (2008), appendix B.9 (CGS conversion factors).
+ * mathjs parses units; it is loaded on the first string with a unit (`./mathjs.ts`, which also adds
+ * the customary CGS units: Oe, kOe, gauss, emu). Plain SI numbers never load it.
  */
-function defineCgsUnits(): void {
-  const defs: Array<[string, { definition: string; aliases?: string[]; prefixes?: string }]> = [
-    ["oersted", { definition: `${1000 / (4 * Math.PI)} A/m`, aliases: ["Oe"], prefixes: "short" }],
-    ["gauss", { definition: "1e-4 T", prefixes: "long" }],
-    ["emu", { definition: "1e-3 A m^2" }],
-  ];
-  for (const [name, def] of defs) {
-    try {
-      mathUnit(`1 ${name}`);
-    } catch {
-      createUnit(name, def);
-    }
-  }
+function mathUnit(text: string): Unit {
+  return mathUnits().unit(text);
 }
-defineCgsUnits();
 
 /** A value as a user may give it: an SI number, or a string such as "15 pJ/m" or "1.1e6". */
 export type QuantityInput = number | string;

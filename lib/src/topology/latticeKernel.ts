@@ -80,6 +80,9 @@ export function solidAngleSumGeneral(
     const jn = j + 1 === ny ? 0 : j + 1;
     const rowA = cellBase + j * nx;
     const rowD = cellBase + jn * nx;
+    // row sums, as in solidAngleSumSquare: the same rounding, so Q with a density map is the same
+    // number as Q without (and a long sum loses less)
+    let rowSum = 0;
     for (let i = 0; i < ni; i++) {
       const inext = i + 1 === nx ? 0 : i + 1;
       const ca = rowA + i, cb = rowA + inext, cc = rowD + inext, cd = rowD + i;
@@ -101,11 +104,16 @@ export function solidAngleSumGeneral(
       if (!triangular) {
         use1 = (va | vb | vc) === 0;
         use2 = (va | vc | vd) === 0;
-        const ac = ax * cx + ay * cy + az * cz;
+        // grouped as in solidAngleSumSquare (dot products first): the same numbers to the last bit
+        const ab = ax * bx + ay * by + az * bz;
+        const bc = bx * cx + by * cy + bz * cz;
+        const ca = cx * ax + cy * ay + cz * az;
+        const cd = cx * dx + cy * dy + cz * dz;
+        const da = dx * ax + dy * ay + dz * az;
         t1 = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
-        d1 = 1 + ax * bx + ay * by + az * bz + bx * cx + by * cy + bz * cz + ac;
+        d1 = 1 + ab + bc + ca;
         t2 = ax * (cy * dz - cz * dy) + ay * (cz * dx - cx * dz) + az * (cx * dy - cy * dx);
-        d2 = 1 + ac + cx * dx + cy * dy + cz * dz + dx * ax + dy * ay + dz * az;
+        d2 = 1 + ca + cd + da;
       } else {
         use1 = (va | vb | vd) === 0;
         use2 = (vb | vc | vd) === 0;
@@ -132,10 +140,11 @@ export function solidAngleSumGeneral(
           used++;
         } else skipped++;
       }
+      rowSum += omega;
       omega *= 2;
-      sum += omega;
       if (density !== null) density[j * ni + i] = omega * inv4pi;
     }
+    sum += 2 * rowSum;
   }
   if (counts !== null) {
     counts[0] += used;

@@ -35,7 +35,7 @@
 import { InputError } from "../errors.js";
 import { type Boundary, wrapFlags } from "./boundary.js";
 import { type VectorField, requireSomeMatter } from "./field.js";
-import { plaquetteCentre, skyrmionNumber } from "./skyrmionNumber.js";
+import { plaquetteCentre, skyrmionNumber, type SkyrmionNumberResult } from "./skyrmionNumber.js";
 import { s1Winding, wrapAngle } from "./winding.js";
 
 export interface FoundObject {
@@ -82,6 +82,12 @@ export interface ObjectOptions {
   densityThreshold?: number;
   /** Seeds smaller than this (cells or plaquettes) are ignored (default 1). */
   minSeed?: number;
+  /**
+   * The layer's lattice skyrmion number with its density, when the caller already has it:
+   * `skyrmionNumber(field, { boundary, layer, density: true })` of this field. It is then not
+   * computed again (a large field costs one pass, not two).
+   */
+  charge?: SkyrmionNumberResult;
 }
 
 export const OBJECT_DEFINITIONS =
@@ -131,7 +137,14 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
   const minSeed = options.minSeed ?? 1;
   const layer = options.layer ?? 0;
   requireSomeMatter(field, "object finding");
-  const q = skyrmionNumber(field, { boundary, layer, density: true });
+  const q = options.charge ?? skyrmionNumber(field, { boundary, layer, density: true });
+  if (options.charge !== undefined) {
+    const px = wrapX ? field.nx : field.nx - 1, py = wrapY ? field.ny : field.ny - 1;
+    const d = q.density;
+    if (!d || q.layer !== layer || q.boundary !== boundary || q.lattice !== field.lattice || d.px !== px || d.py !== py || d.charge.length !== px * py) {
+      throw new InputError("charge", `skyrmion number of layer ${q.layer}, ${q.boundary} boundary${d ? `, ${d.px} x ${d.py} plaquettes` : ", no density"}`, `skyrmionNumber(field, { boundary: "${boundary}", layer: ${layer}, density: true }) of this field (${px} x ${py} plaquettes)`);
+    }
+  }
   const dens = q.density!;
   const { nx, ny, m, vacuum } = field;
   const n = nx * ny;

@@ -121,3 +121,29 @@ describe("an object that one helicity does not describe", () => {
     for (const [cx, cy] of centres) expect(v.sites.some((s) => Math.hypot(s.x - cx, s.y - cy) < 1.5 * nm)).toBe(true);
   });
 });
+
+describe("objects: a skyrmion number the caller already computed is used, not computed again", () => {
+  // Common practice, no source: the same field analysed with and without the precomputed charge
+  // gives the same objects; the count of skyrmionNumber passes is what changes (one, not two).
+  it("gives the same objects and Q with the caller's skyrmionNumber (density) as without", () => {
+    const f = textureOfObjects(grid, [
+      { x: 25 * nm, y: 30 * nm, R: 8 * nm, w: 2.5 * nm, vorticity: 1, helicity: 0 },
+      { x: 55 * nm, y: 50 * nm, R: 10 * nm, w: 2.5 * nm, vorticity: 1, helicity: Math.PI / 2 },
+    ]);
+    for (const boundary of ["periodic", "open"] as const) {
+      const q = skyrmionNumber(f, { boundary, density: true });
+      const a = findObjects(f, { boundary });
+      const b = findObjects(f, { boundary, charge: q });
+      expect(b.Q).toBe(q.Q);
+      expect(b).toEqual(a);
+      expect(a.objects.length).toBe(2);
+      // two skyrmions of one background: Q = 2 x (-1) up to the lattice error (sign convention in objects.ts)
+      expect(Math.abs(Math.abs(b.Q) - 2)).toBeLessThan(0.05);
+    }
+  });
+  it("refuses a skyrmion number without density or of another boundary, naming the parameter", () => {
+    const f = textureOfObjects(grid, [{ x: 40 * nm, y: 40 * nm, R: 8 * nm, w: 2.5 * nm, vorticity: 1, helicity: 0 }]);
+    expect(() => findObjects(f, { boundary: "periodic", charge: skyrmionNumber(f, { boundary: "periodic" }) })).toThrow(InputError);
+    expect(() => findObjects(f, { boundary: "open", charge: skyrmionNumber(f, { boundary: "periodic", density: true }) })).toThrow(/charge/);
+  });
+});
