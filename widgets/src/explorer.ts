@@ -17,6 +17,7 @@ import { STEPS, toPosition, fromPosition, isLogScale } from "./views/sliderScale
 import { validateEntry, entryText } from "./views/quantityEntry.js";
 import { codeSnippet } from "./views/codeSnippet.js";
 import { plotFigure, currentMarkFor, type PlotFigure } from "./views/explorerPlots.js";
+import { TimeScrubber } from "./views/timeScrubber.js";
 import { dataExtent, stableRange, paddedRange } from "./views/plotRanges.js";
 import { addExportButtons } from "./views/figureExport.js";
 import { swapLineData } from "./views/linePath.js";
@@ -109,6 +110,8 @@ export class ExplorerView extends DOMWidgetView {
   private tableKey = "";
   private valueCells = new Map<string, { tr: HTMLElement; td: HTMLElement; unit: string }>();
   private plotState: Array<PlotState | undefined> = [];
+  /** Time scrubbers of the plots whose x axis is time (index = plot index). */
+  private scrubbers: Array<TimeScrubber | undefined> = [];
   /** Plots whose curves were swapped in place, with the figure plotly still has to draw. */
   private stalePlots = new Map<number, PlotFigure>();
   private exactTimer: ReturnType<typeof setTimeout> | null = null;
@@ -155,10 +158,21 @@ export class ExplorerView extends DOMWidgetView {
     this.outputsEl = el("div", { class: "hx-outputs" });
     results.append(this.outputsEl);
     const plots = el("div", { class: "hx-plots" });
-    this.plotEls = spec.plots.map((p) => {
+    this.scrubbers = [];
+    this.plotEls = spec.plots.map((p, k) => {
       plots.append(el("div", { class: "hx-plot-title", text: p.title }));
       const d = el("div", { class: "hx-plot", "data-plot": p.id });
       plots.append(d);
+      // a time trace (x in seconds) gets a scrubber: a time slider, Play, and the values at that time
+      const xo = spec.outputs.find((o) => o.name === p.x);
+      if (xo && xo.unit === "s") {
+        const scrub = new TimeScrubber(p, spec.outputs, () => this.model.get("result") as CalculatorResult | null, () => {
+          const r = this.model.get("result") as CalculatorResult | null;
+          if (r) void this.drawPlot(k, r);
+        });
+        this.scrubbers[k] = scrub;
+        plots.append(scrub.el);
+      }
       return d;
     });
     this.texturePanel = texturePanelFor(spec);
@@ -455,6 +469,7 @@ export class ExplorerView extends DOMWidgetView {
       return;
     }
     this.renderTable(result);
+    for (const sc of this.scrubbers) sc?.update(result);
     // The first (main) plot is drawn at once; the others just after, so it shows sooner. A plot
     // whose axes and labels stay as they are gets its curves swapped in place (views/linePath.ts)
     // and a full Plotly.react once the slider rests (hover labels and gd.data exact again).
@@ -481,7 +496,8 @@ export class ExplorerView extends DOMWidgetView {
   private figureFor(k: number, result: CalculatorResult): PlotFigure {
     const spec = this.spec!;
     const plot = spec.plots[k]!;
-    const fig = plotFigure(plot, spec.outputs, result, currentMarkFor(plot, spec, result, this.values()));
+    const scrubbed = this.scrubbers[k]?.mark(result) ?? null;
+    const fig = plotFigure(plot, spec.outputs, result, scrubbed ?? currentMarkFor(plot, spec, result, this.values()));
     if (fig.data.length === 0) return fig;
     const shape = JSON.stringify([fig.layout, fig.data.map((t) => [t.name, t.mode, t.meta])]);
     const prev = this.plotState[k];

@@ -89,6 +89,8 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
   // The x axis: a sweep's ends decide the unit (the axis spans exactly the sweep).
   const sweep = result.sweep;
   const swept = !!sweep && !!current && xs.length > 0;
+  // a mark without a sweep: a time scrubbed along a trace (any x value the caller marks)
+  const marked = !!current && xs.length > 0;
   const [xu, xf] = axisUnit(swept ? [xs, [sweep!.from, sweep!.to]] : [xs], xo?.unit ?? "");
   // The y axis: curves grouped by SI unit; one customary unit per SI unit, decided by all of them.
   const bySi = new Map<string, Array<{ name: string; o: OutputSpec | undefined; ys: number[] }>>();
@@ -128,8 +130,8 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
   };
   if (data.length > 1) layout.margin = { ...PLOT_MARGIN, t: 30 };
   const fig: PlotFigure = { data, layout, problem: missing.length ? `not in the result: ${missing.join(", ")}` : null };
-  if (swept) {
-    fig.sweptRange = [Math.min(sweep!.from, sweep!.to) / xf, Math.max(sweep!.from, sweep!.to) / xf];
+  if (marked) {
+    if (swept) fig.sweptRange = [Math.min(sweep!.from, sweep!.to) / xf, Math.max(sweep!.from, sweep!.to) / xf];
     const x = current!.value / xf;
     layout.shapes = [{ type: "line", xref: "x", yref: "paper", x0: x, x1: x, y0: 0, y1: 1, line: { color: "#b2182b", width: 1.5, dash: "dot" }, name: "current" }];
     layout.annotations = [{
