@@ -30,6 +30,10 @@ export const chargeUsage = [
   "  --mode cores|density how objects are found: reversed cores (default) or charge-density clusters",
   "  --cell LEN           a cubic cell, such as 2nm (a .npy file has no cell size: 1 nm if not given)",
   "  --dx LEN --dy LEN --dz LEN   the cell edges: give all three, or --cell LEN with any of them to override",
+  "Formats: .npy float32/float64 in either byte order, C or Fortran order, shape (ny, nx, 3) or (nz, ny, nx, 3), x fastest;",
+  "  .csv/.tsv/.txt with a header naming the columns (x, y, [z,] mx, my, mz; units in ( ) after a name), one row per cell;",
+  '  .json {"kind": "helicoid-vector-field", "version": 1, nx, ny, [nz,] [cell: ["1 nm", ...],] [boundary,] m: [mx, my, mz, ...]}',
+  "  (components interleaved, x fastest; or mx/my/mz arrays; null = vacuum). The file is never modified.",
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
@@ -80,6 +84,10 @@ export async function chargeCommand(args: string[], io: CommandIO): Promise<numb
     if (err instanceof UsageError) io.stderr(`${chargeUsage}\n`);
     return status;
   };
+  if (args.includes("--help") || args.includes("-h")) {
+    io.stdout(`${chargeUsage}\n`);
+    return 0;
+  }
   try {
     const a = parseStrict(args, OPTIONS);
     if (a.positional.length > 1) throw new UsageError(`one FILE expected, ${a.positional.length} given (${a.positional.join(", ")})`);

@@ -23,7 +23,20 @@ export interface FitIo {
 const usage = `usage: helicoid fit FILE --model ID [--json] [--start name=value ...] [--fix name[=value] ...] [--free name ...]
                     [--drop-nan] [--x-unit U] [--y-unit U] [--profile]
        helicoid fit --list [--json]
-${seriesUsage}`;
+${seriesUsage}
+
+The profile file (CSV, or TSV / whitespace-separated text):
+  # comment lines start with '#'; a line "# field: 5 mT" gives the field of a --series profile
+  x (nm), mz, sigma             a header row names the columns; units in ( ) or [ ] after a name
+  -40.0, 0.98, 0.02             then one row per point: position, signal, and optionally sigma
+  ...
+  Columns: 1st position, 2nd signal, 3rd (optional) the standard deviation of each signal value.
+  Units: from the header, else --x-unit / --y-unit; a position without a unit is read in m (said in
+  the output), a field signal (T, mT, G, Oe) is converted to T, other signals keep their label.
+  Without sigma the errors are scaled by the reduced chi-square (said in the output).
+  Numbers are decimal (1.5, -2e-3); empty or NaN cells are refused with their line unless --drop-nan;
+  rows may come in any order (they are sorted, with a note). The file is never modified.
+  Models: helicoid fit --list (what each fits, its parameters with units and meanings).`;
 
 /** Largest profile CSV read (bytes): a line profile of a million points is about 40 MB. */
 export const PROFILE_FILE_LIMIT = 256e6;

@@ -21,7 +21,7 @@ describe("helicoid --help", () => {
         const r = helicoid(args, env);
         expect(r.status, `${cmd} ${flag}: ${r.stderr}`).toBe(0);
         expect(r.stdout, `${cmd} ${flag}`).toMatch(new RegExp(`usage: helicoid ${cmd}\\b`));
-        expect(r.stdout.split("\n").length, `${cmd} ${flag}: a usage text, not a run`).toBeLessThanOrEqual(12);
+        expect(r.stdout.split("\n").length, `${cmd} ${flag}: a usage text, not a run`).toBeLessThanOrEqual(40); // a help text, however full, is no run
         expect(r.stdout).not.toMatch(/^(installed|removed|running) |serving|http:\/\//m);
       }
     }
