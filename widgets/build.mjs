@@ -11,7 +11,9 @@
  *                              prebuilt extension, by @jupyterlab/builder, for `helicoid install` to
  *                              put in place when the user's Jupyter has none; rebuilt only when the
  *                              manager's version changes (or with --manager)
- * `node build.mjs --no-lab` skips steps 5 and 6.
+ * `node build.mjs --no-lab` skips steps 5 and 6. Step 6 (about 90 s the first time) runs only with
+ * `--with-manager` (rebuilt when the manager's version changes) or `--manager` (always): `npm test`,
+ * `npm pack` and `npm run build:manager` ask for it; `npm start` does not need it.
  */
 import * as esbuild from "esbuild";
 import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, readdirSync, cpSync } from "node:fs";
@@ -152,7 +154,7 @@ if (!args.has("--no-lab")) {
   log(`labextension ${meta.jupyterlab._build.load}`);
 }
 // 6. the widget manager as a prebuilt extension (what the Python package jupyterlab_widgets ships)
-if (!args.has("--no-lab")) {
+if (!args.has("--no-lab") && (args.has("--with-manager") || args.has("--manager"))) {
   const require = createRequire(import.meta.url);
   const src = dirname(require.resolve("@jupyter-widgets/jupyterlab-manager/package.json"));
   const pkg = JSON.parse(readFileSync(join(src, "package.json"), "utf8"));

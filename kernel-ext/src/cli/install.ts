@@ -89,7 +89,8 @@ export function ensureWidgetManager(dataDir: string, searchDirs: string[]): Widg
     return {
       action: "missing", dir: null, version: null,
       message: `no compatible widget manager found${problems.length ? ` (${problems.join("; ")})` : ""} and this install of @helicoid/widgets has no prebuilt one (widget-manager/). ` +
-        "Widgets will show as text in JupyterLab. Install one: `pip install jupyterlab_widgets` (or `ipywidgets>=8`) in the Python environment of your JupyterLab.",
+        "Widgets will show as text in JupyterLab. Install one: `pip install jupyterlab_widgets` (or `ipywidgets>=8`) in the Python environment of your JupyterLab" +
+        " (or, in a checkout of Helicoid, build ours with `npm run build:manager -w @helicoid/widgets` and run `helicoid install` again).",
     };
   }
   if (existingThere && !existsSync(join(ownTarget, OURS))) {

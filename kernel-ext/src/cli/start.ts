@@ -8,6 +8,7 @@ import { spawn } from "node:child_process";
 import { createReadStream, existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import { basename, extname, join, normalize, resolve, sep } from "node:path";
+import { availableParallelism } from "node:os";
 import { exportNotebook } from "../notebook/export.js";
 import { parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
 import { parseTimeout } from "./run.js";
@@ -50,8 +51,21 @@ function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | strin
 export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void, timeout = START_CELL_TIMEOUT): Promise<GalleryEntry[]> {
   mkdirSync(outDir, { recursive: true });
   const names = readdirSync(notebooksDir).filter((f) => f.endsWith(".ipynb")).sort();
-  const entries: GalleryEntry[] = [];
-  for (const name of names) {
+  // Each notebook runs in its own process: as many at a time as the machine has cores (at most 4),
+  // the entries kept in the notebooks' order.
+  const entries: GalleryEntry[] = new Array(names.length);
+  let next = 0;
+  const workers = Math.max(1, Math.min(4, availableParallelism(), names.length));
+  await Promise.all(Array.from({ length: workers }, async () => {
+    while (next < names.length) {
+      const k = next++;
+      entries[k] = await galleryEntry(names[k]!);
+    }
+  }));
+  writeFileSync(join(outDir, "index.html"), galleryIndex(entries));
+  return entries;
+
+  async function galleryEntry(name: string): Promise<GalleryEntry> {
     const t0 = performance.now();
     const stem = name.replace(/\.ipynb$/, "");
     const executed = join(outDir, `${stem}.ipynb`);
@@ -67,11 +81,9 @@ export async function buildGallery(notebooksDir: string, outDir: string, log: (s
       entry.page = page;
     }
     entry.seconds = (performance.now() - t0) / 1000;
-    log(`  ${entry.error ? `FAILED: ${entry.error}` : "ok"} (${entry.seconds.toFixed(1)} s)\n`);
-    entries.push(entry);
+    log(`  ${name}: ${entry.error ? `FAILED: ${entry.error}` : "ok"} (${entry.seconds.toFixed(1)} s)\n`);
+    return entry;
   }
-  writeFileSync(join(outDir, "index.html"), galleryIndex(entries));
-  return entries;
 }
 
 function esc(s: string): string {
