@@ -216,13 +216,16 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
       await expect.poll(() => view.getAttribute("data-charge"), { timeout: 30_000 }).not.toBeNull();
       // Source: an isolated skyrmion in a uniform background has topological charge of magnitude 1.
       expect(Math.abs(Math.abs(Number(await view.getAttribute("data-charge"))) - 1)).toBeLessThan(0.05);
-      const pixels = await view.locator("canvas").first().evaluate((c) => {
+      // the m_z panel: one s x s block of one colour per cell (s = the picture's scale)
+      const scale = Number(await view.locator(".hx-texture-picture").getAttribute("data-scale"));
+      expect(scale).toBeGreaterThanOrEqual(1);
+      const pixels = await view.locator("canvas.hx-texture-canvas").first().evaluate((c) => {
         const canvas = c as HTMLCanvasElement;
         const d = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height).data;
         const at = (i: number, j: number) => Array.from(d.slice(4 * (j * canvas.width + i), 4 * (j * canvas.width + i) + 4));
         return { centre: at(canvas.width >> 1, canvas.height >> 1), corner: at(1, 1), w: canvas.width };
       });
-      expect(pixels.w).toBe(64);
+      expect(pixels.w).toBe(64 * scale);
       expect(pixels.corner[3]).toBe(255);
       // The core (m down) and the background (m up) are drawn in different colours.
       expect(pixels.centre).not.toEqual(pixels.corner);
