@@ -199,7 +199,7 @@ export class TexturePicture {
   }
 
   /** Copy RGBA (w x h, one pixel per cell) to `canvas` at s CSS px per cell, smoothing off. */
-  private blit(canvas: HTMLCanvasElement, rgba: Uint8ClampedArray, w: number, h: number, s: number, left: number, top: number): void {
+  private blit(canvas: HTMLCanvasElement, rgba: Uint8ClampedArray<ArrayBuffer>, w: number, h: number, s: number, left: number, top: number): void {
     const off = (this.off ??= document.createElement("canvas"));
     off.width = w;
     off.height = h;
