@@ -4,6 +4,7 @@
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
+import { filmLimits } from "./spec.js";
 import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
@@ -261,11 +262,7 @@ const skyrmionSpec: CalculatorSpec = {
     "A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975) (8 pi A t limit)",
   ],
   method: "Global scan of the w-minimized ansatz energy over ln(R/w) (step 0.08), local searches and Newton polish, finite-difference verification; branches by continuation with step control up and down in field, ends by step halving. Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeSkyrmion,
 };
 
@@ -451,11 +448,7 @@ const stabilitySpec: CalculatorSpec = {
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
   ],
   method: "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeStability,
 };
 
@@ -498,11 +491,7 @@ const profileSpec: CalculatorSpec = {
     "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability against angular modes)",
   ],
   method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeProfile,
 };
 

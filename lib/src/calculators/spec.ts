@@ -95,6 +95,13 @@ export interface InputLimit {
   why: string;
 }
 
+/** The physical limits of a film's inputs, shared by every calculator that takes a film. */
+export const filmLimits: Record<string, InputLimit> = {
+  Ms: { above: 0, why: "a saturation magnetization" },
+  A: { above: 0, why: "an exchange stiffness" },
+  t: { above: 0, why: "a film thickness" },
+};
+
 /**
  * The estimated cost of one request, before any of it is spent: `bytes` of memory at the peak and
  * `steps` of elementary work (a flop, a cell visit, a matrix entry), with a word on what dominates.

@@ -5,6 +5,7 @@
  * Ranges keep K_eff = Ku - mu0 Ms^2 / 2 > 0 at every corner, so every corner computes.
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
+import { filmLimits } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { type Film, makeFilm, effectiveAnisotropy, exchangeLength, qualityFactor, criticalDmi, neelThresholdDmi, spiralPeriod, spiralState, filmRegime, requirePerpendicular } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
@@ -115,11 +116,7 @@ const wallSpec: CalculatorSpec = {
   assumptions: [...commonAssumptions, "Rigid Landau-Lifshitz profile; the Neel volume-charge cost uses that profile (collective coordinates)."],
   sources: wallSources,
   method: "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeWall,
 };
 
@@ -223,11 +220,7 @@ const wall360Spec: CalculatorSpec = {
   ],
   sources: ["H.-B. Braun, PRB 50, 16501 (1994)", "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (saturation field above D_c)", ...wallSources.slice(0, 3)],
   method: "Closed-form ansatz energy (our derivation), minimized over (ln R, ln w) by restarted Nelder-Mead; exact 1D pair shown beside it.",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeWall360,
 };
 
@@ -288,11 +281,7 @@ const wallTypeSpec: CalculatorSpec = {
   assumptions: [...commonAssumptions, "Rigid profile of width Delta; only the Neel volume charges differ between Bloch and Neel walls."],
   sources: wallSources,
   method: "Minimize sigma(gamma) = sigma_0 - pi D cos gamma + C cos^2 gamma; C by quadrature of the thin-film kernel.",
-  limits: {
-    Ms: { above: 0, why: "a saturation magnetization" },
-    A: { above: 0, why: "an exchange stiffness" },
-    t: { above: 0, why: "a film thickness" },
-  },
+  limits: filmLimits,
   compute: computeWallType,
 };
 
