@@ -38,7 +38,9 @@ export function kernelSpec(): Record<string, unknown> {
     argv: [process.execPath, binPath, "kernel", "--connection-file", "{connection_file}"],
     display_name: DISPLAY_NAME,
     language: "typescript",
-    interrupt_mode: "signal",
+    // Front ends interrupt with interrupt_request on the control channel (see controlProcess.ts:
+    // a signal that reaches a free kernel at the wrong instant would end it).
+    interrupt_mode: "message",
     env: {},
     metadata: { helicoid_version: KERNEL_VERSION, debugger: false },
   };

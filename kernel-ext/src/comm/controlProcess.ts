@@ -5,9 +5,13 @@
  * thread would do, but zeromq.js does not shut down cleanly inside one: the process can abort on exit.)
  *
  * - heartbeat: every ping is echoed at once;
- * - control `interrupt_request`: the helper sends SIGINT to the kernel (which stops synchronous
- *   code running under `breakOnSigint`, or, when the kernel is idle, reaches its SIGINT handler that
- *   interrupts the cell's asynchronous work) and replies itself;
+ * - control `interrupt_request`: the helper first hands the interrupt to the kernel's thread as a
+ *   message; when that thread is free (a cell awaiting, timers pending) it interrupts at once and
+ *   says so. Only when no answer comes within INTERRUPT_BY_MESSAGE_MS (the thread is busy in
+ *   synchronous code, which runs under `breakOnSigint`) is the kernel sent SIGINT. A signal is not
+ *   sent to a free kernel because Node briefly restores SIGINT's default action (end the process)
+ *   around every `breakOnSigint` run, and a kernel with many short timers or callbacks opens that
+ *   window often: a signal landing in it would end the kernel. The helper replies itself;
  * - every other control message (shutdown, kernel_info, ...) is handed to the kernel, whose replies
  *   come back here to be sent. Signatures are checked here too; replays are dropped.
  * The helper ignores SIGINT (Jupyter signals the whole process group) and ends with the kernel.
@@ -22,9 +26,21 @@ export interface ControlProcessData {
 }
 
 /** Messages from the control process to the kernel. */
-export type FromControl = { kind: "ready" } | { kind: "message"; frames: Uint8Array[] } | { kind: "log"; text: string } | { kind: "bind-error"; text: string };
+export type FromControl =
+  | { kind: "ready" }
+  | { kind: "message"; frames: Uint8Array[] }
+  | { kind: "log"; text: string }
+  | { kind: "bind-error"; text: string }
+  | { kind: "interrupt"; id: number };
 /** Messages from the kernel to the control process. */
-export type ToControl = { kind: "send"; frames: Uint8Array[] } | { kind: "close" };
+export type ToControl = { kind: "send"; frames: Uint8Array[] } | { kind: "close" } | { kind: "interrupt-ack"; id: number };
+
+/**
+ * How long the kernel's thread gets to take an interrupt by message before it is sent SIGINT (ms).
+ * A kernel whose thread is free answers within a few milliseconds; one that is not is running
+ * synchronous code, which SIGINT stops.
+ */
+export const INTERRUPT_BY_MESSAGE_MS = 300;
 
 async function main(): Promise<void> {
   const data = JSON.parse(process.env.HELICOID_CONTROL ?? "{}") as ControlProcessData;
@@ -44,8 +60,13 @@ async function main(): Promise<void> {
   const send = (frames: Buffer[]) => {
     sending = sending.then(() => control.send(frames)).catch((err) => post({ kind: "log", text: `control send failed: ${String(err)}` }));
   };
+  const pendingInterrupts = new Map<number, NodeJS.Timeout>();
+  let interruptIds = 0;
   port.on("message", (m: ToControl) => {
-    if (m.kind === "send") send(m.frames.map((f) => Buffer.from(f.buffer, f.byteOffset, f.byteLength)));
+    if (m.kind === "interrupt-ack") {
+      clearTimeout(pendingInterrupts.get(m.id));
+      pendingInterrupts.delete(m.id);
+    } else if (m.kind === "send") send(m.frames.map((f) => Buffer.from(f.buffer, f.byteOffset, f.byteLength)));
     else if (m.kind === "close") {
       // Let the last replies go, then close the sockets before the thread ends (the process exits next).
       void sending.finally(() => {
@@ -80,7 +101,19 @@ async function main(): Promise<void> {
       continue;
     }
     if (msg.header.msg_type === "interrupt_request") {
-      process.kill(kernelPid, "SIGINT");
+      const id = ++interruptIds;
+      pendingInterrupts.set(
+        id,
+        setTimeout(() => {
+          pendingInterrupts.delete(id);
+          try {
+            process.kill(kernelPid, "SIGINT");
+          } catch {
+            // the kernel has ended
+          }
+        }, INTERRUPT_BY_MESSAGE_MS),
+      );
+      post({ kind: "interrupt", id });
       send(
         serializeMessage(data.key, {
           identities: msg.identities,

@@ -177,7 +177,8 @@ export class HelicoidServer extends ZmqServer {
   /**
    * Bind the sockets to exactly the connection file's addresses. Shell, iopub and stdin live in
    * the kernel's thread (as in tslab); control and heartbeat in a helper process
-   * (`controlProcess.ts`) that answers while the kernel is busy and turns `interrupt_request` into SIGINT.
+   * (`controlProcess.ts`) that answers while the kernel is busy and passes `interrupt_request` on (as a
+   * message when the kernel's thread is free, as SIGINT when it is busy in synchronous code).
    */
   override async init(): Promise<void> {
     const cinfo = JSON.parse(readFileSync(this.configPath, "utf8"));
@@ -202,7 +203,11 @@ export class HelicoidServer extends ZmqServer {
         if (m.kind === "ready") resolve();
         else if (m.kind === "bind-error") reject(new Error(`control/heartbeat sockets: ${m.text}`));
         else if (m.kind === "log") this.log(m.text);
-        else if (m.kind === "message") {
+        else if (m.kind === "interrupt") {
+          // The kernel's thread is free (this handler runs): interrupt here, without a signal.
+          this.session.interrupt();
+          worker.send({ kind: "interrupt-ack", id: m.id } satisfies ToControl);
+        } else if (m.kind === "message") {
           void this.handleShellMessage(this.controlProxy, ...m.frames.map((f) => Buffer.from(f.buffer, f.byteOffset, f.byteLength)));
         }
       });
