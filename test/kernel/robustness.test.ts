@@ -277,6 +277,17 @@ describe("names that begin with two underscores", () => {
   });
 });
 
+describe("object shorthand for a variable of an earlier cell", () => {
+  // Common practice, no source: `{ a }` is JavaScript's shorthand for `{ a: a }` (ECMAScript 2015).
+  it("reads and assigns the variable, with and without a default", async () => {
+    await value("const shJz = 3; let shJp = 1; 0");
+    expect(await value("const shO = { shJz, shJp };\nconst shF = () => ({ shJz });\n[shO, shF()]")).toBe("[ { shJz: 3, shJp: 1 }, { shJz: 3 } ]");
+    expect(await value("({ shJp = 9 } = { shJp: undefined } as any);\nshJp")).toBe("9");
+    expect(await value("({ shJp } = { shJp: 5 });\n[shJp, { shJz }]")).toBe("[ 5, { shJz: 3 } ]");
+    await alive();
+  });
+});
+
 describe("interrupting asynchronous work", () => {
   it("stops a cell's timers, intervals and awaiting loops", async () => {
     await value(

@@ -19,6 +19,28 @@ const edits: Array<[string, string]> = [
   ["keys.add(key);", "keys.add(ts.unescapeLeadingUnderscores(key));"],
   // Declarations of values whose type was redeclared.
   ["anyVarsDecls.push(`let ${name}: any;\\n`);", "anyVarsDecls.push(`let ${ts.unescapeLeadingUnderscores(name)}: any;\\n`);"],
+  // Object shorthand for a variable of an earlier cell: `{ Jz }` names the property's symbol, not
+  // the variable's, so tslab left it as `{ Jz }` and the cell failed with "Jz is not defined".
+  // Write it as `{ Jz: exports.Jz }` (with a default, `{ Jz: exports.Jz = d }` in a pattern).
+  [
+    `            if (!ts.isIdentifier(node)) {
+                return ts.visitEachChild(node, wrapPrevIdentifier, nullTransformationContext);`,
+    `            if (ts.isShorthandPropertyAssignment(node)) {
+                const original = ts.getOriginalNode(node);
+                const sym = ts.isShorthandPropertyAssignment(original) ? checker.getShorthandAssignmentValueSymbol(original) : undefined;
+                if (sym && (sym.declarations ?? []).some((d) => d.getSourceFile() === declsFile)) {
+                    const name = ts.idText(node.name);
+                    let value = ts.factory.createPropertyAccessExpression(ts.factory.createIdentifier("exports"), ts.factory.createIdentifier(name));
+                    if (node.objectAssignmentInitializer) {
+                        value = ts.factory.createBinaryExpression(value, ts.SyntaxKind.EqualsToken, ts.visitNode(node.objectAssignmentInitializer, wrapPrevIdentifier));
+                    }
+                    return ts.factory.createPropertyAssignment(ts.factory.createIdentifier(name), value);
+                }
+                return ts.visitEachChild(node, wrapPrevIdentifier, nullTransformationContext);
+            }
+            if (!ts.isIdentifier(node)) {
+                return ts.visitEachChild(node, wrapPrevIdentifier, nullTransformationContext);`,
+  ],
 ];
 
 let cached: typeof converterModule | null = null;
