@@ -353,6 +353,7 @@ export class ExplorerView extends DOMWidgetView {
         inputs: spec.inputs,
         values: this.values(),
         sweep: this.effectiveSweep(),
+        noSweep: this.sweepState()?.over === NO_SWEEP,
       });
       this.snippetEl.textContent = text;
       this.snippetEl.hidden = false;

@@ -78,6 +78,17 @@ describe("copy as code: choices", () => {
   });
 });
 
+describe("copy as code: no sweep", () => {
+  it("writes noSweep, so the cell computes no swept arrays, as the explorer shows", () => {
+    const sk = getCalculator("skyrmion");
+    const values = Object.fromEntries(sk.inputs.map((i) => [i.name, i.default]));
+    const code = codeSnippet({ calculator: "skyrmion", inputs: sk.inputs, values, sweep: null, noSweep: true });
+    expect(code).toMatch(/\}, \{ noSweep: true \}\);/);
+    const withDefault = codeSnippet({ calculator: "skyrmion", inputs: sk.inputs, values, sweep: null });
+    expect(withDefault).not.toContain("noSweep");
+  });
+});
+
 describe("plot traces", () => {
   it("are scaled to customary units and carry the factors back to SI", () => {
     const r = runCalculator(testWallSpec, {});

@@ -18,6 +18,8 @@ export function codeSnippet(options: {
   inputs: InputSpec[];
   values: Record<string, number>;
   sweep: SweepRequest | null;
+  /** "no sweep" chosen: the code must not run the calculator's default sweep either. */
+  noSweep?: boolean;
 }): string {
   const { calculator, inputs, values, sweep } = options;
   // a choice is written by its label ("skyrmion lattice"), which the calculators accept, not its number
@@ -31,7 +33,9 @@ export function codeSnippet(options: {
   const unitOf = (name: string) => inputs.find((i) => i.name === name)?.unit ?? "";
   const sweepText = sweep
     ? `, {\n  sweep: { over: ${JSON.stringify(sweep.over)}, from: ${quantityLiteral(sweep.from, unitOf(sweep.over))}, to: ${quantityLiteral(sweep.to, unitOf(sweep.over))}, points: ${sweep.points} },\n}`
-    : "";
+    : options.noSweep
+      ? ", { noSweep: true }"
+      : "";
   if (calculator) {
     return (
       `import { getCalculator, runCalculator } from "@helicoid/lib";\n` +
