@@ -57,6 +57,11 @@ export interface PlotSpec {
   yLog?: boolean;
   /** "line" (default) or "markers". */
   mode?: "line" | "markers";
+  /**
+   * The y values are defined modulo this period (SI, e.g. 2 pi for a phase in (-pi, pi]): a line is
+   * broken where the curve wraps instead of being drawn across the axis.
+   */
+  yPeriod?: number;
 }
 
 /** Which inputs a calculator can sweep, and over how many points by default. */

@@ -101,8 +101,11 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
   }
   const yUnits = new Map<string, [string, number]>();
   for (const [si, group] of bySi) yUnits.set(si, axisUnit(group.map((g) => g.ys), si));
-  const data: PlotFigure["data"] = present.map(({ name, o, ys }) => {
+  const data: PlotFigure["data"] = present.map(({ name, o, ys: ysIn }) => {
     const [yu, yf] = yUnits.get(o?.unit ?? "")!;
+    // A periodic quantity (a phase): break the line where it wraps, with a gap point between.
+    let xsOf = xs, ys = ysIn;
+    if (plot.yPeriod && plot.mode !== "markers") [xsOf, ys] = breakAtWraps(xs, ysIn, plot.yPeriod);
     const legend = symbolHtml(withoutArgument(symbolOf(o, name), xSym));
     return {
       type: "scatter",
@@ -110,7 +113,7 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
       // markers at the ends of an axis that spans exactly the sweep are drawn whole
       ...(plot.mode === "markers" ? { cliponaxis: false } : {}),
       name: legend,
-      x: xs.map((v) => v / xf),
+      x: xsOf.map((v) => v / xf),
       y: ys.map((v) => (Number.isFinite(v) ? v / yf : null)),
       meta: { output: name, xOutput: plot.x, xFactor: xf, yFactor: yf, xUnit: xu, yUnit: yu },
       hovertemplate: `%{x:.4g} ${displayUnit(xu)}, %{y:.4g} ${displayUnit(yu)}<extra>${legend}</extra>`,
@@ -166,4 +169,21 @@ export function currentMarkFor(
   if (!xs.every((x) => !Number.isFinite(x) || (x >= lo - tol && x <= hi + tol))) return null;
   const v = values[input.name];
   return typeof v === "number" && Number.isFinite(v) ? { value: v, symbol: input.symbol } : null;
+}
+
+/**
+ * Insert a gap (x midway, y NaN) between neighbours whose values differ by more than half of
+ * `period`: there the curve wrapped (a phase jumping from pi to -pi), it did not pass through.
+ */
+export function breakAtWraps(xs: number[], ys: number[], period: number): [number[], number[]] {
+  const ox: number[] = [], oy: number[] = [];
+  for (let k = 0; k < Math.min(xs.length, ys.length); k++) {
+    if (k > 0 && Number.isFinite(ys[k]!) && Number.isFinite(ys[k - 1]!) && Math.abs(ys[k]! - ys[k - 1]!) > period / 2) {
+      ox.push((xs[k]! + xs[k - 1]!) / 2);
+      oy.push(NaN);
+    }
+    ox.push(xs[k]!);
+    oy.push(ys[k]!);
+  }
+  return [ox, oy];
 }
