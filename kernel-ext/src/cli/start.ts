@@ -1,15 +1,21 @@
 /**
- * `helicoid start` (= `npm start`): run every example notebook with our in-process runner (no
- * Jupyter needed), export each as a self-contained page whose catalogue explorers stay live, and
- * serve the gallery on 127.0.0.1 (port printed; Ctrl-C stops). If a Jupyter installation is found,
- * the kernelspec is installed for this user and the `helicoid lab` command is printed.
+ * `helicoid start` (= `npm start`): serve the gallery on 127.0.0.1 at once (port printed; Ctrl-C
+ * stops), then run every example notebook with our in-process runner (no Jupyter needed) and export
+ * each as a self-contained page whose catalogue explorers stay live. The index lists every notebook
+ * as queued, running, done or failed and refreshes itself until all are done, so a slow machine
+ * shows the first pages while the rest run. A notebook whose source, widget bundle (which carries
+ * the library) and Helicoid version are unchanged since its last run is not run again (`--fresh`
+ * runs it anyway). If a Jupyter installation is found, the kernelspec is installed for this user
+ * and the `helicoid lab` command is printed.
  */
 import { spawn } from "node:child_process";
-import { createReadStream, existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { createReadStream, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import { basename, extname, join, normalize, resolve, sep } from "node:path";
 import { availableParallelism } from "node:os";
-import { exportNotebook } from "../notebook/export.js";
+import { exportNotebook, widgetsDir } from "../notebook/export.js";
+import { KERNEL_VERSION } from "../version.js";
 import { parseStrict, shorten, UsageError, type CommandIO } from "./args.js";
 import { parseTimeout } from "./run.js";
 import { binPath, install } from "./install.js";
@@ -27,15 +33,45 @@ export interface GalleryEntry {
   executed: string | null;
   error: string | null;
   seconds: number;
+  /** Where the notebook is: waiting for a free process, running, or finished (done or failed). */
+  state?: "queued" | "running" | "done";
+  /** The page is from an earlier run with the same notebook, bundle and version. */
+  cached?: boolean;
 }
 
+export interface GalleryOptions {
+  /** Run every notebook even if an earlier run of the same inputs is in the output folder. */
+  fresh?: boolean;
+  /** Called whenever an entry changes state (the index is rewritten before). */
+  onProgress?: (entries: GalleryEntry[]) => void;
+}
+
+/** What decides whether an earlier run can be reused: the notebook, the page bundle (which carries the library) and the version. */
+function runKey(notebookPath: string): string {
+  const h = createHash("sha256");
+  h.update(KERNEL_VERSION + "\0");
+  h.update(readFileSync(notebookPath));
+  const bundle = join(widgetsDir(), "dist", "export.js");
+  h.update(existsSync(bundle) ? readFileSync(bundle) : Buffer.from("no bundle"));
+  return h.digest("hex");
+}
+
+const running = new Set<ReturnType<typeof spawn>>();
 function runNotebookInChild(input: string, out: string, timeout: number): Promise<{ code: number; stderr: string }> {
   return new Promise((res) => {
     const child = spawn(process.execPath, [binPath, "run", input, "-o", out, "--quiet", "--timeout", String(timeout)], { stdio: ["ignore", "ignore", "pipe"] });
+    running.add(child);
     let stderr = "";
     child.stderr.on("data", (d) => (stderr += d));
-    child.on("exit", (code) => res({ code: code ?? 1, stderr }));
+    child.on("exit", (code) => {
+      running.delete(child);
+      res({ code: code ?? 1, stderr });
+    });
   });
+}
+/** Stop the notebook runs still going (the gallery is being closed). */
+function stopRuns(): void {
+  for (const child of running) child.kill("SIGTERM");
 }
 
 function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | string[] }> }, fallback: string): string {
@@ -48,37 +84,59 @@ function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | strin
 }
 
 /** Execute and export every notebook of `notebooksDir` into `outDir`; returns what happened to each. */
-export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void, timeout = START_CELL_TIMEOUT): Promise<GalleryEntry[]> {
+export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void, timeout = START_CELL_TIMEOUT, options: GalleryOptions = {}): Promise<GalleryEntry[]> {
   mkdirSync(outDir, { recursive: true });
   const names = readdirSync(notebooksDir).filter((f) => f.endsWith(".ipynb")).sort();
   // Each notebook runs in its own process: as many at a time as the machine has cores (at most 4),
   // the entries kept in the notebooks' order.
-  const entries: GalleryEntry[] = new Array(names.length);
+  const entries: GalleryEntry[] = names.map((name) => ({ name, title: name.replace(/\.ipynb$/, ""), page: null, executed: null, error: null, seconds: 0, state: "queued" }));
+  const changed = () => {
+    writeFileSync(join(outDir, "index.html"), galleryIndex(entries));
+    options.onProgress?.(entries);
+  };
+  changed();
   let next = 0;
   const workers = Math.max(1, Math.min(4, availableParallelism(), names.length));
   await Promise.all(Array.from({ length: workers }, async () => {
     while (next < names.length) {
       const k = next++;
+      entries[k]!.state = "running";
+      changed();
       entries[k] = await galleryEntry(names[k]!);
+      changed();
     }
   }));
-  writeFileSync(join(outDir, "index.html"), galleryIndex(entries));
   return entries;
 
   async function galleryEntry(name: string): Promise<GalleryEntry> {
     const t0 = performance.now();
     const stem = name.replace(/\.ipynb$/, "");
     const executed = join(outDir, `${stem}.ipynb`);
+    const page = join(outDir, `${stem}.html`);
+    const stampFile = join(outDir, `${stem}.run.json`);
+    const key = runKey(join(notebooksDir, name));
+    if (!options.fresh && existsSync(executed) && existsSync(page) && existsSync(stampFile)) {
+      try {
+        const stamp = JSON.parse(readFileSync(stampFile, "utf8")) as { key?: string; title?: string };
+        if (stamp.key === key) {
+          log(`  ${name}: unchanged since its last run, page kept (--fresh runs it again)\n`);
+          return { name, title: stamp.title ?? stem, page, executed, error: null, seconds: 0, state: "done", cached: true };
+        }
+      } catch {
+        // an unreadable stamp: run again
+      }
+    }
+    rmSync(stampFile, { force: true });
     log(`running ${name} ...\n`);
     const r = await runNotebookInChild(join(notebooksDir, name), executed, timeout);
-    const entry: GalleryEntry = { name, title: stem, page: null, executed: existsSync(executed) ? executed : null, error: null, seconds: 0 };
+    const entry: GalleryEntry = { name, title: stem, page: null, executed: existsSync(executed) ? executed : null, error: null, seconds: 0, state: "done" };
     if (r.code !== 0) entry.error = r.stderr.trim().split("\n").slice(-3).join(" ") || `exit status ${r.code}`;
     if (entry.executed) {
       const nb = JSON.parse(readFileSync(executed, "utf8"));
       entry.title = titleOf(nb, stem);
-      const page = join(outDir, `${stem}.html`);
       writeFileSync(page, exportNotebook(nb, { sourceName: name }));
       entry.page = page;
+      if (!entry.error) writeFileSync(stampFile, JSON.stringify({ key, title: entry.title }) + "\n");
     }
     entry.seconds = (performance.now() - t0) / 1000;
     log(`  ${name}: ${entry.error ? `FAILED: ${entry.error}` : "ok"} (${entry.seconds.toFixed(1)} s)\n`);
@@ -91,22 +149,26 @@ function esc(s: string): string {
 }
 
 export function galleryIndex(entries: GalleryEntry[]): string {
+  const pending = entries.filter((e) => e.state === "queued" || e.state === "running").length;
   const items = entries
     .map(
       (e) =>
-        `<li class="${e.error ? "failed" : "ok"}">` +
+        `<li class="${e.state === "queued" || e.state === "running" ? e.state : e.error ? "failed" : "ok"}">` +
         (e.page ? `<a href="${esc(basename(e.page))}">${esc(e.title)}</a>` : esc(e.title)) +
         ` <span class="file">${esc(e.name)}</span>` +
+        (e.state === "queued" ? ` <span class="state">waiting to run</span>` : e.state === "running" ? ` <span class="state">running now…</span>` : "") +
         (e.executed ? ` <a class="file" href="${esc(basename(e.executed))}" download>executed .ipynb</a>` : "") +
         (e.error ? `<div class="error">did not run to the end: ${esc(e.error)}</div>` : "") +
         `</li>`,
     )
     .join("\n");
   return `<!DOCTYPE html><html lang="en"><head><meta charset="utf-8"><title>Helicoid gallery</title>
-<style>body{font:16px/1.5 system-ui,sans-serif;max-width:860px;margin:40px auto;padding:0 16px;color:#222}
+${pending ? '<meta http-equiv="refresh" content="3">\n' : ""}<style>body{font:16px/1.5 system-ui,sans-serif;max-width:860px;margin:40px auto;padding:0 16px;color:#222}
 h1{font-weight:600}li{margin:10px 0}.file{color:#777;font-size:13px;margin-left:8px}.error{color:#a00;font-size:13px}
-.note{color:#555;font-size:14px;border-left:3px solid #ddd;padding-left:10px}</style></head><body>
+.note{color:#555;font-size:14px;border-left:3px solid #ddd;padding-left:10px}.state{color:#8a6d00;font-size:13px;margin-left:8px}
+.queued,.running{color:#666}</style></head><body>
 <h1>Helicoid gallery</h1>
+${pending ? `<p class="note">${pending} of ${entries.length} notebooks still to run on this machine; this page refreshes itself.</p>` : ""}
 <p>Example notebooks, executed just now by Helicoid's own runner and exported as pages. The explorers of catalogue
 calculators compute in your browser: move their sliders. All materials in these notebooks are invented demo materials.</p>
 <ul>
@@ -153,7 +215,7 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   let a: ReturnType<typeof parseStrict>;
   let timeout = START_CELL_TIMEOUT;
   try {
-    a = parseStrict(args, { flags: ["--no-serve"], valued: { "--port": "a port number such as 8765", "--out": "a directory", "--notebooks": "a directory of .ipynb files", "--timeout": "seconds per cell, such as 300" } });
+    a = parseStrict(args, { flags: ["--no-serve", "--fresh"], valued: { "--port": "a port number such as 8765", "--out": "a directory", "--notebooks": "a directory of .ipynb files", "--timeout": "seconds per cell, such as 300" } });
     if (a.positional.length > 0) throw new UsageError(`unexpected argument ${shorten(a.positional[0])}`);
     if (a.options.has("--timeout")) timeout = parseTimeout(a.options.get("--timeout")!);
     const p = a.options.get("--port");
@@ -171,21 +233,16 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   }
   const notebooks = resolve(given ?? examples!);
   const out = resolve(a.options.get("--out") ?? defaultGalleryDir());
-  const entries = await buildGallery(notebooks, out, io.stderr, timeout);
-  const failed = entries.filter((e) => e.error);
-  const jupyter = findJupyter();
-  if (jupyter) {
-    const r = install({ user: true });
-    io.stdout(`Jupyter found (${jupyter.cmd}${jupyter.args.length ? " " + jupyter.args.join(" ") : ""}): kernelspec installed in ${r.kernelDir}.\n`);
-    if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
-    io.stdout(`To work in notebooks with live kernel widgets: npx helicoid lab\n`);
-  } else {
-    io.stdout("No Jupyter found: the gallery below needs none. For notebooks with a live kernel, install Jupyter, then run: npx helicoid lab\n");
-  }
+  const fresh = a.flags.has("--fresh");
   if (a.flags.has("--no-serve")) {
+    const entries = await buildGallery(notebooks, out, io.stderr, timeout, { fresh });
+    reportJupyter(io);
     io.stdout(`gallery written to ${join(out, "index.html")}\n`);
-    return failed.length ? 1 : 0;
+    return entries.some((e) => e.error) ? 1 : 0;
   }
+  // Serve at once: the index says which notebooks are still running and refreshes itself.
+  mkdirSync(out, { recursive: true });
+  writeFileSync(join(out, "index.html"), galleryIndex([]));
   let port = Number(a.options.get("--port") ?? process.env.PORT ?? 8765);
   let server: Server | null = null;
   for (let attempt = 0; attempt < 20 && !server; attempt++) {
@@ -198,10 +255,31 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   }
   if (!server) throw new Error("no free port found for the gallery");
   const actual = (server.address() as { port: number }).port;
-  io.stdout(`\nHelicoid gallery: http://127.0.0.1:${actual}/  (${entries.length} notebooks${failed.length ? `, ${failed.length} failed` : ""}; Ctrl-C stops)\n`);
-  return new Promise<number>((res) => {
-    const stop = () => server!.close(() => res(0));
+  io.stdout(`\nHelicoid gallery: http://127.0.0.1:${actual}/  (pages appear as their notebooks finish; Ctrl-C stops)\n`);
+  const stopped = new Promise<number>((res) => {
+    const stop = () => {
+      stopRuns();
+      server!.close(() => res(0));
+    };
     process.once("SIGINT", stop);
     process.once("SIGTERM", stop);
   });
+  const built = buildGallery(notebooks, out, io.stderr, timeout, { fresh }).then((entries) => {
+    const failed = entries.filter((e) => e.error);
+    reportJupyter(io);
+    io.stdout(`Helicoid gallery ready: http://127.0.0.1:${actual}/  (${entries.length} notebooks${failed.length ? `, ${failed.length} failed` : ""}; Ctrl-C stops)\n`);
+  });
+  return Promise.race([stopped, built.then(() => stopped)]);
+}
+
+function reportJupyter(io: CommandIO): void {
+  const jupyter = findJupyter();
+  if (jupyter) {
+    const r = install({ user: true });
+    io.stdout(`Jupyter found (${jupyter.cmd}${jupyter.args.length ? " " + jupyter.args.join(" ") : ""}): kernelspec installed in ${r.kernelDir}.\n`);
+    if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
+    io.stdout(`To work in notebooks with live kernel widgets: npx helicoid lab\n`);
+  } else {
+    io.stdout("No Jupyter found: the gallery needs none. For notebooks with a live kernel, install Jupyter, then run: npx helicoid lab\n");
+  }
 }

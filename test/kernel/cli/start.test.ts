@@ -35,7 +35,7 @@ describe("helicoid start", () => {
     const url = await new Promise<string>((res, rej) => {
       const t = setTimeout(() => rej(new Error(`no gallery address printed: ${out}`)), 120_000);
       const check = () => {
-        const m = /Helicoid gallery: (http:\/\/127\.0\.0\.1:\d+\/)/.exec(out);
+        const m = /Helicoid gallery ready: (http:\/\/127\.0\.0\.1:\d+\/)/.exec(out);
         if (m) {
           clearTimeout(t);
           res(m[1]!);
@@ -56,6 +56,60 @@ describe("helicoid start", () => {
     const code = await new Promise<number | null>((res) => child.on("exit", res));
     expect(code).toBe(0);
   });
+
+  it("serves at once, lists notebooks still running, adds each page when it is done, and keeps unchanged ones next time", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "helicoid-start-"));
+    const notebooks = join(dir, "nbs");
+    mkdirSync(notebooks);
+    writeFileSync(join(notebooks, "slow.ipynb"), nb("await new Promise((r) => setTimeout(r, 6000));\n'slept'", "Slow one"));
+    const startOnce = async (extra: string[] = []) => {
+      const child = spawn(process.execPath, [helicoidBin, "start", "--notebooks", notebooks, "--out", join(dir, "out"), "--port", "0", ...extra], { stdio: ["ignore", "pipe", "pipe"] });
+      let out = "";
+      child.stdout.on("data", (d) => (out += d));
+      child.stderr.on("data", (d) => (out += d));
+      const waitFor = (re: RegExp, ms: number) =>
+        new Promise<RegExpExecArray>((res, rej) => {
+          const t = setTimeout(() => rej(new Error(`not printed (${re}): ${out}`)), ms);
+          const check = () => {
+            const m = re.exec(out);
+            if (m) {
+              clearTimeout(t);
+              res(m);
+            }
+          };
+          check();
+          child.stdout.on("data", check);
+          child.stderr.on("data", check);
+        });
+      const url = (await waitFor(/Helicoid gallery: (http:\/\/127\.0\.0\.1:\d+\/)/, 60_000))[1]!;
+      return { child, url, waitFor, output: () => out };
+    };
+    const first = await startOnce();
+    // The server answers while the notebook still runs (it sleeps 6 s): listed, no page yet, refreshing.
+    const during = await (await fetch(first.url)).text();
+    expect(during).toMatch(/Slow one|slow/);
+    expect(during).not.toMatch(/<a href="slow\.html">/);
+    expect(during).toMatch(/http-equiv="refresh"/);
+    await first.waitFor(/Helicoid gallery ready: /, 120_000);
+    const after = await (await fetch(first.url)).text();
+    expect(after).toMatch(/<a href="slow\.html">Slow one<\/a>/);
+    expect(after).not.toMatch(/http-equiv="refresh"/);
+    first.child.kill("SIGINT");
+    expect(await new Promise<number | null>((res) => first.child.on("exit", res))).toBe(0);
+    // Unchanged notebook, bundle and version: the page is kept, the notebook not run again.
+    const second = await startOnce();
+    await second.waitFor(/Helicoid gallery ready: /, 60_000);
+    expect(second.output()).toMatch(/slow\.ipynb: unchanged since its last run/);
+    expect(second.output()).not.toMatch(/running slow\.ipynb/);
+    second.child.kill("SIGINT");
+    await new Promise((res) => second.child.on("exit", res));
+    // --fresh runs it again.
+    const third = await startOnce(["--fresh"]);
+    await third.waitFor(/Helicoid gallery ready: /, 120_000);
+    expect(third.output()).toMatch(/running slow\.ipynb/);
+    third.child.kill("SIGINT");
+    await new Promise((res) => third.child.on("exit", res));
+  }, 300_000);
 
   it("lists a notebook that fails, and exits non-zero without serving when asked", () => {
     const dir = mkdtempSync(join(tmpdir(), "helicoid-start-"));
