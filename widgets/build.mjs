@@ -7,7 +7,8 @@
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
  *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
- *   6. widget-manager/         the widget manager (npm @jupyter-widgets/jupyterlab-manager) as a
+ *   6. widget-manager/         the widget manager (npm @jupyter-widgets/jupyterlab-manager, from
+ *                              lab-frontend/'s own install) as a
  *                              prebuilt extension, by @jupyterlab/builder, for `helicoid install` to
  *                              put in place when the user's Jupyter has none; rebuilt only when the
  *                              manager's version changes (or with --manager)
@@ -155,15 +156,25 @@ if (!args.has("--no-lab")) {
 }
 // 6. the widget manager as a prebuilt extension (what the Python package jupyterlab_widgets ships)
 if (!args.has("--no-lab") && (args.has("--with-manager") || args.has("--manager"))) {
-  const require = createRequire(import.meta.url);
-  const src = dirname(require.resolve("@jupyter-widgets/jupyterlab-manager/package.json"));
+  // The manager and its build dependencies (JupyterLab's notebook packages, about 180 npm packages)
+  // are not in the root install: they come from lab-frontend/'s own install (the JupyterLab 4 front
+  // end of the tests), installed here on first use, so `npm ci` and `npm start` stay light.
+  const labFrontend = join(here, "..", "lab-frontend");
+  const src = join(labFrontend, "node_modules", "@jupyter-widgets", "jupyterlab-manager");
+  if (!existsSync(join(src, "package.json"))) {
+    log("installing lab-frontend's npm packages for the widget manager (once): npm ci --prefix lab-frontend");
+    const npm = process.platform === "win32" ? "npm.cmd" : "npm";
+    const r = spawnSync(npm, ["ci", "--prefix", labFrontend, "--no-audit", "--no-fund"], { stdio: ["ignore", "inherit", "inherit"] });
+    if (r.status !== 0) throw new Error(`npm ci --prefix ${labFrontend} failed (status ${r.status}): the widget manager cannot be built`);
+  }
   const pkg = JSON.parse(readFileSync(join(src, "package.json"), "utf8"));
   const outDir = join(here, "widget-manager");
   const builtFor = existsSync(join(outDir, "package.json")) ? JSON.parse(readFileSync(join(outDir, "package.json"), "utf8")).version : null;
   if (builtFor === pkg.version && !args.has("--manager")) {
     log(`widget-manager ${pkg.version} up to date`);
   } else {
-    const stage = join(here, "build", "manager");
+    // staged inside lab-frontend/ so that the bundler finds the manager's dependencies in its node_modules
+    const stage = join(labFrontend, "build", "manager-stage");
     rmSync(stage, { recursive: true, force: true });
     rmSync(outDir, { recursive: true, force: true });
     mkdirSync(stage, { recursive: true });

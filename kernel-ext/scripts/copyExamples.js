@@ -20,6 +20,6 @@ const labSrc = join(__dirname, "..", "..", "lab-frontend");
 const labDst = join(__dirname, "..", "lab-frontend");
 rmSync(labDst, { recursive: true, force: true });
 if (existsSync(labSrc)) {
-  cpSync(labSrc, labDst, { recursive: true, filter: (p) => !/[\\/](node_modules|dist)([\\/]|$)/.test(p.slice(labSrc.length)) });
+  cpSync(labSrc, labDst, { recursive: true, filter: (p) => !/[\\/](node_modules|dist|build)([\\/]|$)/.test(p.slice(labSrc.length)) });
   console.log(`copyExamples: ${labSrc} -> ${labDst} (sources only)`);
 }
