@@ -13,7 +13,7 @@
 import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -139,7 +139,8 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       if (unit && isPlainNumber(v)) inputNotes.push(`${k} = ${v.trim()} was given without a unit: read as ${formatQuantity(value, unit)} (SI ${unit})`);
       return value;
     };
-    const start: Record<string, number> = guessStart(model, csv.x, csv.y);
+    // Start values not given are guessed by the library's fitProfile (as in a notebook).
+    const start: Record<string, number> = {};
     for (const [k, v] of startRaw) {
       known("--start", k);
       start[k] = quantity(k, v);
@@ -153,9 +154,9 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       known("--free", k);
       fixed[k] = false;
     }
-    const r = fitProfile({ x: csv.x, y: csv.y, sigma: csv.sigma }, model, { start, fixed, profile });
-    const notes = [...inputNotes, ...csv.notes, ...r.notes];
-    if (!r.sigmaKnown) notes.push("no sigma column: the standard errors are scaled by the reduced chi-square, which is then no test of the fit");
+    // the same call as fitProfile(csv, model) in a notebook (it carries the file's notes)
+    const r = fitProfile(csv, model, { start, fixed, profile });
+    const notes = [...inputNotes, ...r.notes];
     const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; profileInterval?: [number, number] | null }> = {};
     for (const [name, p] of Object.entries(r.parameters)) {
       const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;
