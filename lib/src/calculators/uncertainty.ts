@@ -15,8 +15,9 @@
  * - Monte Carlo on request (JCGM 101:2008, GUM Supplement 1): N draws of the inputs from a
  *   multivariate normal distribution (mean the given values, covariance V; Cholesky factor; seeded
  *   Box-Muller deviates), the calculator run at each, the standard deviation of each output reported.
- *   N is bounded (at most MC_MAX_SAMPLES, and the calculator's cost estimate times N within the
- *   compute budget) before any run.
+ *   N is bounded before the draws: at most MC_MAX_SAMPLES, the calculator's cost estimate times N
+ *   within the compute budget, and N times the mean time of the first-order runs (made first)
+ *   within MC_TIME_BUDGET_MS.
  *
  * An output is flagged (result status "warning", a note naming it) when linearization fails:
  * a run at x_i +- u_i has no state (an input refused, no output, no solution); the curvature term
@@ -81,6 +82,11 @@ export const MC_DEFAULT_SAMPLES = 200;
 export const DISAGREEMENT_FACTOR = 1.25;
 /** Curvature term or Monte Carlo mean shift above this fraction of the first-order u is flagged. */
 export const NONLINEAR_FRACTION = 0.25;
+/**
+ * Monte Carlo draws are refused when the first-order runs (made first) say they would take longer
+ * than this (ms): the draws cost about N times the mean time of one run.
+ */
+export const MC_TIME_BUDGET_MS = 120_000;
 
 const pm = /\s*(?:±|\+\/-|\+-)\s*/;
 const leadingNumber = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*/;
@@ -273,6 +279,7 @@ export function runWithUncertainty(
     flagged[k] = flagged[k] ? `${flagged[k]}; ${why}` : why;
   };
   let evaluations = 1;
+  const startedFirst = Date.now();
   names.forEach((name, i) => {
     const h = sigma[name]!;
     const plus = run({ ...x0, [name]: x0[name]! + h });
@@ -316,6 +323,12 @@ export function runWithUncertainty(
   // Monte Carlo
   let monteCarlo: UncertaintyReport["monteCarlo"];
   if (method === "monte-carlo") {
+    // bounded work: the first-order runs timed the calculator at these inputs
+    const perRun = (Date.now() - startedFirst) / Math.max(1, 2 * n);
+    if (samples * perRun > MC_TIME_BUDGET_MS) {
+      const most = Math.max(0, Math.floor(MC_TIME_BUDGET_MS / Math.max(perRun, 1e-3)));
+      throw new InputError("uncertainty.samples", samples, `at most about ${most} Monte Carlo draws for '${spec.id}' at these inputs (one run takes about ${(perRun / 1000).toPrecision(2)} s; the draws are limited to ${MC_TIME_BUDGET_MS / 1000} s)`, most < 10 ? "Use the first-order propagation (the default)" : undefined);
+    }
     const rng = seededRandom(seed);
     const sums: Record<string, { s: number; s2: number; count: number }> = Object.fromEntries(scalarNames.map((k) => [k, { s: 0, s2: 0, count: 0 }]));
     let failed = 0;

@@ -169,3 +169,12 @@ describe("a nonlinear case: the skyrmion radius close to the critical DMI", () =
     expect(calm.outputs.radius!.uncertainty).toBeGreaterThan(0);
   }, 240_000);
 });
+
+describe("bounded work", () => {
+  it("refuses more Monte Carlo draws than about two minutes of runs, before drawing", () => {
+    // the skyrmion calculator takes a large fraction of a second per run: 20000 draws are hours
+    const e = inputError(() => runCalculator(skyrmion, { D: "1.5 ± 0.05 mJ/m^2" }, { noSweep: true, uncertainty: { method: "monte-carlo", samples: 20000 } }));
+    expect(e.parameter).toBe("uncertainty.samples");
+    expect(e.expected).toMatch(/at most about \d+ Monte Carlo draws for 'skyrmion'/);
+  }, 120_000);
+});
