@@ -220,8 +220,13 @@ export function runWithUncertainty(
     return nominal;
   }
   const x0 = coerceInputs(spec, central);
-  const scalarNames = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof nominal.outputs[o.name]?.value === "number").map((o) => o.name);
+  // The propagation runs compute without a sweep. A scalar output that exists only with the sweep
+  // (the end of a branch in a field sweep) gets no uncertainty, and is said to, rather than flagged.
+  const plain = nominal.sweep ? runCalculator(spec, x0, { noSweep: true }) : nominal;
+  const sweepOnly = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof nominal.outputs[o.name]?.value === "number" && typeof plain.outputs[o.name]?.value !== "number").map((o) => o.name);
+  const scalarNames = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof nominal.outputs[o.name]?.value === "number" && typeof plain.outputs[o.name]?.value === "number").map((o) => o.name);
   const textNames = spec.outputs.filter((o) => o.kind === "text" && typeof nominal.outputs[o.name]?.value === "string").map((o) => o.name);
+
   const n = names.length;
   const V = names.map((a, i) => names.map((b, j) => (i === j ? 1 : correlationOf(correlations, a, b)) * sigma[a]! * sigma[b]!));
 
@@ -265,9 +270,9 @@ export function runWithUncertainty(
   const noteText = (o: RunOutcome) => {
     if (!o.ok) return;
     // the words, not the numbers quoted in them, must stay the same
-    for (const k of textNames) if (wordsOf(o.texts[k]) !== wordsOf(nominal.outputs[k]!.value as string)) textChanges.add(k);
+    for (const k of textNames) if (wordsOf(o.texts[k]) !== wordsOf(plain.outputs[k]?.value as string | undefined)) textChanges.add(k);
   };
-  const y0: Record<string, number> = Object.fromEntries(scalarNames.map((k) => [k, nominal.outputs[k]!.value as number]));
+  const y0: Record<string, number> = Object.fromEntries(scalarNames.map((k) => [k, plain.outputs[k]!.value as number]));
   const fmtIn = (name: string, v: number) => formatQuantity(v, known.get(name)!.unit);
 
   // first order: central differences with the step u_i, and the curvature term
@@ -278,7 +283,7 @@ export function runWithUncertainty(
   const flag = (k: string, why: string) => {
     flagged[k] = flagged[k] ? `${flagged[k]}; ${why}` : why;
   };
-  let evaluations = 1;
+  let evaluations = plain === nominal ? 1 : 2;
   const startedFirst = Date.now();
   names.forEach((name, i) => {
     const h = sigma[name]!;
@@ -404,6 +409,7 @@ export function runWithUncertainty(
       : `Uncertainties to first order (JCGM 100:2008 eq. 13) from ${inputList}${corrText}; sensitivities by central differences with the step ±u (${evaluations} runs). Monte Carlo on request.`,
   );
   for (const [k, why] of Object.entries(flagged)) result.notes.push(`${k}: uncertainty not trustworthy, ${why}.`);
+  if (sweepOnly.length) result.notes.push(`No uncertainty for ${sweepOnly.join(", ")}: computed from the sweep, which the propagation runs do not repeat.`);
   for (const k of textChanges) result.notes.push(`${k} changes within the uncertainty of the inputs (a different answer at some input within ±u).`);
   result.assumptions = [...result.assumptions, "Input uncertainties are standard uncertainties of normally distributed inputs; output uncertainties are propagated through this model only (its own error is not included)."];
   if (Object.keys(flagged).length > 0 || textChanges.size > 0) result.status = "warning";
