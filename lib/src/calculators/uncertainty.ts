@@ -405,7 +405,7 @@ export function runWithUncertainty(
   const corrText = correlations.length ? `; correlations ${correlations.map((c) => `r(${c.between[0]}, ${c.between[1]}) = ${c.coefficient}`).join(", ")}` : "; inputs independent";
   result.notes.push(
     method === "monte-carlo"
-      ? `Uncertainties by Monte Carlo (JCGM 101:2008): ${samples} draws from a normal distribution of ${inputList}${corrText}, seed ${seed}; the value is the one at the given inputs, the uncertainty the standard deviation of the draws (first-order values in uncertainty.firstOrder).`
+      ? `Uncertainties by Monte Carlo (JCGM 101:2008): ${samples} draws from a normal distribution of ${inputList}${corrText}, seed ${seed}; the value is the one at the given inputs, the uncertainty the standard deviation of the draws (first-order values in uncertainty.firstOrder); with ${samples} draws that standard deviation is itself uncertain by about ${Math.round(100 / Math.sqrt(2 * (samples - 1)))} % and a mean by ${(1 / Math.sqrt(samples)).toFixed(2)} of it, so a flag from few draws may be chance: repeat with more.`
       : `Uncertainties to first order (JCGM 100:2008 eq. 13) from ${inputList}${corrText}; sensitivities by central differences with the step ±u (${evaluations} runs). Monte Carlo on request.`,
   );
   for (const [k, why] of Object.entries(flagged)) result.notes.push(`${k}: uncertainty not trustworthy, ${why}.`);
