@@ -47,7 +47,7 @@ export function saveFilm(film: FilmToSave, path: string, meta: { name?: string; 
   if (typeof path !== "string" || path === "") throw new InputError("path", path, "the path of the film file to write");
   const text = filmFileText(film, meta);
   const fs = require("node:fs") as Fs;
-  const tmp = `${path}.${process_pid()}.tmp`;
+  const tmp = `${path}.${processId()}.tmp`;
   try {
     fs.writeFileSync(tmp, text, { encoding: "utf8", flag: "wx" });
     fs.renameSync(tmp, path);
@@ -57,7 +57,7 @@ export function saveFilm(film: FilmToSave, path: string, meta: { name?: string; 
   return text;
 }
 
-function process_pid(): number {
+function processId(): number {
   const p = (globalThis as { process?: { pid?: number } }).process;
   return p?.pid ?? Math.floor(Math.random() * 1e9);
 }
