@@ -27,7 +27,7 @@
  * Array (sweep) and text outputs carry no uncertainty; a text output that changes within the
  * uncertainty is said. Values are those at the given inputs, not the Monte Carlo means.
  */
-import { InputError } from "../errors.js";
+import { ComputationError, ConvergenceError, InputError } from "../errors.js";
 import { isPlainNumber, parseQuantity, formatQuantity, type QuantityInput } from "../quantity/units.js";
 import { seededRandom } from "../fit/prng.js";
 import { COMPUTE_BUDGET, coerceInputs, runCalculator, type CalculatorResult, type CalculatorSpec, type ComputeOptions, type InputValues } from "./spec.js";
@@ -252,7 +252,8 @@ export function runWithUncertainty(
     try {
       r = runCalculator(spec, x, { noSweep: true });
     } catch (err) {
-      if (err instanceof Error) return { ok: false, why: err.message.split("\n")[0]!.slice(0, 200) };
+      // no state there: an input refused, a solver that found none, a result that is not finite
+      if (err instanceof InputError || err instanceof ConvergenceError || err instanceof ComputationError) return { ok: false, why: err.message.split("\n")[0]!.slice(0, 200) };
       throw err;
     }
     const scalars: Record<string, number> = {};
