@@ -36,7 +36,9 @@ The profile file (CSV, or TSV / whitespace-separated text):
   Without sigma the errors are scaled by the reduced chi-square (said in the output).
   Numbers are decimal (1.5, -2e-3); empty or NaN cells are refused with their line unless --drop-nan;
   rows may come in any order (they are sorted, with a note). The file is never modified.
-  Models: helicoid fit --list (what each fits, its parameters with units and meanings).`;
+  Models: helicoid fit --list (what each fits, its parameters with units and meanings).
+  Start values not given with --start are guessed from the data by the library: the command makes
+  the same call as fitProfile(readProfileCsv(text), ID) in a notebook, and gives the same numbers.`;
 
 /** Largest profile CSV read (bytes): a line profile of a million points is about 40 MB. */
 export const PROFILE_FILE_LIMIT = 256e6;
