@@ -2,13 +2,16 @@
  * `helicoid calc ID name=value ... [--json] [--sweep NAME=FROM:TO:POINTS]` runs any catalogue
  * calculator from the shell; values take units (`A=15pJ/m`, `B=50mT`, `t=1nm`).
  * `helicoid calc --list [--json]` lists the ids with their inputs and outputs.
+ * `--film FILE` takes inputs from a film file (lib/src/material/filmFile.ts; name=value overrides);
+ * inputs may carry uncertainties ("15 ± 1 pJ/m"), propagated to first order or, with
+ * `--monte-carlo N [--seed S]`, by Monte Carlo (lib/src/calculators/uncertainty.ts).
  * JSON: {"id", "status", "inputs": {name: {"value", "unit"}}, "outputs": {name: {"value", "unit"}}, ...}
  * with SI values and SI unit strings; a sweep output's value is an array.
  * Errors: exit 2 for bad input or usage (an unknown option, an input given twice, a --sweep of a
  * calculator that has none), 1 when a computation failed; with --json the error is also a JSON
  * object on stdout: {"id", "status": "error", "error": {"type", "message", "parameter", "value", "expected"}}.
  */
-import { catalogue, formatQuantity, getCalculator, InputError, parseQuantity, runCalculator, ConvergenceError, type ComputeOptions } from "@helicoid/lib";
+import { catalogue, formatQuantity, getCalculator, InputError, parseQuantity, runCalculator, ConvergenceError, loadFilm, filmInputsFor, MC_MAX_SAMPLES, type ComputeOptions, type UncertaintyOptions } from "@helicoid/lib";
 import { formatEntry } from "../display/table.js";
 import { saveFigure } from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
@@ -17,15 +20,25 @@ export const calcUsage = [
   "usage: helicoid calc ID name=value ... [--sweep NAME=FROM:TO:POINTS] [--json]",
   "       helicoid calc --list [--json]",
   "       helicoid calc ID --help      what ID computes: its inputs (unit, default, range, meaning) and outputs",
-  "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once",
+  "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once;",
+  "                        with a standard uncertainty: A=15+-1pJ/m or A=\"15 ± 1 pJ/m\"",
+  "  --film FILE           inputs from a film file (JSON: name, notes, values with units and optional",
+  "                        uncertainties, optional correlations; lib/src/material/README.md); name=value",
+  "                        arguments override the file's values",
+  "  --monte-carlo N       propagate input uncertainties by N seeded Monte Carlo draws (10 to 20000)",
+  "                        instead of first order (the default); --seed S sets the seed (default 1)",
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
   "  --list                the calculators with their inputs and outputs",
+  "Outputs computed from uncertain inputs print as value ± uncertainty (one standard deviation, two",
+  "significant digits); --json gives outputs.NAME.uncertainty (SI) and the method and flags under",
+  "\"uncertainty\". An output whose uncertainty is not trustworthy (nonlinear within the uncertainty,",
+  "or no state at some input within it) is flagged in a note and the status is \"warning\".",
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -105,7 +118,31 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     const plotPath = a.options.get("--plot");
     if (plotPath !== undefined && !/\.(svg|png)$/i.test(plotPath)) throw new InputError("--plot", plotPath, "a file name ending in .svg or .png");
     if (plotPath !== undefined && spec.plots.length === 0) throw new InputError("--plot", plotPath, `no --plot: '${id}' has no plots`);
-    const result = runCalculator(spec, raw, options);
+    const filmPath = a.options.get("--film");
+    const uncertainty: UncertaintyOptions = {};
+    const mc = a.options.get("--monte-carlo");
+    if (mc !== undefined) {
+      const n = /^\d+$/.test(mc.trim()) ? Number(mc) : NaN;
+      if (!(n >= 10 && n <= MC_MAX_SAMPLES)) throw new InputError("--monte-carlo", mc, `a whole number of draws from 10 to ${MC_MAX_SAMPLES}`);
+      uncertainty.method = "monte-carlo";
+      uncertainty.samples = n;
+    }
+    const seed = a.options.get("--seed");
+    if (seed !== undefined) {
+      if (mc === undefined) throw new InputError("--seed", seed, "a seed only together with --monte-carlo N");
+      if (!/^\d+$/.test(seed.trim())) throw new InputError("--seed", seed, "a whole number >= 0");
+      uncertainty.seed = Number(seed);
+    }
+    let inputs: Parameters<typeof runCalculator>[1] = raw;
+    const filmNotes: string[] = [];
+    if (filmPath !== undefined) {
+      const film = filmInputsFor(spec, loadFilm(filmPath), raw);
+      inputs = film.inputs;
+      Object.assign(uncertainty, film.uncertainty);
+      filmNotes.push(...film.notes);
+    }
+    const result = runCalculator(spec, inputs, { ...options, ...(Object.keys(uncertainty).length ? { uncertainty } : {}) });
+    result.notes.unshift(...filmNotes);
     if (plotPath !== undefined) {
       try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
       io.stderr(`helicoid calc: wrote ${plotPath} (${spec.plots[0]!.title})\n`);
@@ -116,8 +153,9 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       // each line ends with what the quantity means (from the spec), so a number never stands alone
       const meaning = (list: Array<{ name: string; meaning: string }>, n: string) => list.find((x) => x.name === n)?.meaning ?? "";
       const line = (tag: string, n: string, text: string, m: string) => io.stdout(`  ${tag} ${n.padEnd(16)} ${text.padEnd(24)}${m ? `  ${m}` : ""}\n`);
-      for (const [n, e] of Object.entries(result.inputs)) line("in  ", n, formatQuantity(e.value, e.unit), meaning(spec.inputs, n));
-      for (const [n, e] of Object.entries(result.outputs)) line("out ", n, formatEntry(e), meaning(spec.outputs, n));
+      for (const [n, e] of Object.entries(result.inputs)) line("in  ", n, formatEntry(e), meaning(spec.inputs, n));
+      for (const [n, e] of Object.entries(result.outputs)) line("out ", n, formatEntry(e) + (result.uncertainty?.flagged[n] ? " (!)" : ""), meaning(spec.outputs, n));
+      if (result.uncertainty && Object.keys(result.uncertainty.flagged).length) io.stdout(`  (!) uncertainty not trustworthy: ${Object.keys(result.uncertainty.flagged).join(", ")} (see the notes)\n`);
       for (const note of result.notes) io.stdout(`  note: ${note}\n`);
       for (const s of result.assumptions) io.stdout(`  assumes: ${s}\n`);
     }

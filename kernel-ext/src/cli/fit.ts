@@ -13,7 +13,7 @@
 import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, guessStart, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -36,7 +36,9 @@ The profile file (CSV, or TSV / whitespace-separated text):
   Without sigma the errors are scaled by the reduced chi-square (said in the output).
   Numbers are decimal (1.5, -2e-3); empty or NaN cells are refused with their line unless --drop-nan;
   rows may come in any order (they are sorted, with a note). The file is never modified.
-  Models: helicoid fit --list (what each fits, its parameters with units and meanings).`;
+  Models: helicoid fit --list (what each fits, its parameters with units and meanings).
+  Start values not given with --start are guessed from the data by the library: the command makes
+  the same call as fitProfile(readProfileCsv(text), ID) in a notebook, and gives the same numbers.`;
 
 /** Largest profile CSV read (bytes): a line profile of a million points is about 40 MB. */
 export const PROFILE_FILE_LIMIT = 256e6;
@@ -139,7 +141,8 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       if (unit && isPlainNumber(v)) inputNotes.push(`${k} = ${v.trim()} was given without a unit: read as ${formatQuantity(value, unit)} (SI ${unit})`);
       return value;
     };
-    const start: Record<string, number> = guessStart(model, csv.x, csv.y);
+    // Start values not given are guessed by the library's fitProfile (as in a notebook).
+    const start: Record<string, number> = {};
     for (const [k, v] of startRaw) {
       known("--start", k);
       start[k] = quantity(k, v);
@@ -153,9 +156,9 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       known("--free", k);
       fixed[k] = false;
     }
-    const r = fitProfile({ x: csv.x, y: csv.y, sigma: csv.sigma }, model, { start, fixed, profile });
-    const notes = [...inputNotes, ...csv.notes, ...r.notes];
-    if (!r.sigmaKnown) notes.push("no sigma column: the standard errors are scaled by the reduced chi-square, which is then no test of the fit");
+    // the same call as fitProfile(csv, model) in a notebook (it carries the file's notes)
+    const r = fitProfile(csv, model, { start, fixed, profile });
+    const notes = [...inputNotes, ...r.notes];
     const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; profileInterval?: [number, number] | null }> = {};
     for (const [name, p] of Object.entries(r.parameters)) {
       const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;

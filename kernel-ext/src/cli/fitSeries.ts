@@ -17,7 +17,7 @@
  * the value and what was expected).
  */
 import { readFileSync, statSync } from "node:fs";
-import { readProfileCsv, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import { readProfileCsv, profileField, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
 import { readProfileText } from "./fit.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 
@@ -55,16 +55,9 @@ export function parseFilmOption(raw: string): Record<FilmKey, number> {
   return out as Record<FilmKey, number>;
 }
 
-/** The field of a profile: FILE@<quantity>, else a "field: <quantity>" comment line in the text. */
+/** The field of a profile: FILE@<quantity>, else a "field: <quantity>" comment line (the library's profileField). */
 export function fieldOf(file: string, suffix: string | null, text: string): number {
-  if (suffix !== null) return parseQuantity(`field of ${file}`, suffix, "T");
-  for (const line of text.split(/\r?\n/)) {
-    const t = line.trim();
-    if (!t.startsWith("#")) continue;
-    const m = /\bfield\s*:\s*([^;]+)/i.exec(t);
-    if (m) return parseQuantity(`field of ${file} (header)`, m[1].trim().replace(/[.,]$/, ""), "T");
-  }
-  throw new InputError(`field of ${file}`, "(missing)", `an applied field: ${file}@<field> (e.g. ${file}@5mT) or a comment line "# field: 5 mT" in the file`);
+  return profileField(text, { source: file, field: suffix });
 }
 
 function splitFileArg(arg: string): { file: string; suffix: string | null } {

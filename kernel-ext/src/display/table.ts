@@ -3,11 +3,11 @@
  * in Markdown, LaTeX, HTML and plain text, with the result's assumptions, method and sources below
  * it, so a notebook documents an analysis with no extra typing.
  */
-import { catalogue, formatQuantity, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
+import { catalogue, formatQuantity, formatWithError, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
 import { mimeBundle, type Displayable } from "./bundle.js";
 import type { MimeBundle } from "./output.js";
 
-type Entry = { value: number | number[] | string; unit: string };
+type Entry = { value: number | number[] | string; unit: string; /** one standard deviation, SI */ uncertainty?: number };
 export type TableInput = CalculatorResult | Record<string, Entry>;
 
 interface Row {
@@ -31,6 +31,8 @@ export function formatEntry(e: Entry): string {
     const hi = Math.max(...finite);
     return `${e.value.length} values, ${formatQuantity(lo, e.unit, 3)} to ${formatQuantity(hi, e.unit, 3)}`;
   }
+  // a value with its standard uncertainty: the uncertainty to two significant digits, the value to the same place
+  if (typeof e.uncertainty === "number" && Number.isFinite(e.uncertainty) && e.uncertainty > 0) return formatWithError(e.value, e.uncertainty, e.unit);
   return formatQuantity(e.value, e.unit);
 }
 

@@ -5,6 +5,7 @@
  */
 import { ComputationError, InputError } from "../errors.js";
 import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from "../quantity/units.js";
+import { inUncertainForm, runWithUncertainty, type InputWithUncertainty, type UncertaintyOptions, type UncertaintyReport } from "./uncertainty.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
 export interface InputSpec {
@@ -160,14 +161,17 @@ export interface CalculatorResult {
   id: string;
   title: string;
   status: "ok" | "warning";
-  inputs: Record<string, { value: number; unit: string }>;
-  outputs: Record<string, { value: number | number[] | string; unit: string }>;
+  inputs: Record<string, { value: number; unit: string; uncertainty?: number }>;
+  outputs: Record<string, { value: number | number[] | string; unit: string; uncertainty?: number }>;
   method: string;
   sources: string[];
   assumptions: string[];
   notes: string[];
   /** Present when a sweep was computed. */
   sweep?: { over: string; from: number; to: number; points: number };
+  /** Present when an input carried an uncertainty (uncertainty.ts): method, flags; entries of
+   * `inputs` and numeric scalar `outputs` then carry `uncertainty` (SI, one standard deviation). */
+  uncertainty?: UncertaintyReport;
 }
 
 /**
@@ -347,9 +351,14 @@ export function sweepValues(spec: CalculatorSpec, sweep: NonNullable<ComputeOpti
 /** Run a calculator: coerce inputs, compute, and attach units, method, sources and assumptions. */
 export function runCalculator(
   spec: CalculatorSpec,
-  raw: Record<string, QuantityInput | undefined> = {},
-  options: ComputeOptions & { /** compute without the spec's default sweep */ noSweep?: boolean } = {},
+  rawGiven: Record<string, InputWithUncertainty> = {},
+  options: ComputeOptions & {
+    /** compute without the spec's default sweep */ noSweep?: boolean;
+    /** how input uncertainties are propagated ("15 ± 1 pJ/m", {value, uncertainty}: uncertainty.ts) */ uncertainty?: UncertaintyOptions;
+  } = {},
 ): CalculatorResult {
+  if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm)) return runWithUncertainty(spec, rawGiven, options);
+  const raw = rawGiven as Record<string, QuantityInput | undefined>;
   const inputs = coerceInputs(spec, raw);
   const sweep = options.sweep ?? (options.noSweep ? undefined : defaultSweep(spec, inputs));
   if (sweep) checkSweep(spec, sweep);

@@ -7,7 +7,8 @@ import type { EvalFunction, MathNode } from "mathjs";
 import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
-import { getProfileModel, type ProfileModel } from "./profileModels.js";
+import { getProfileModel, profileModels, type ProfileModel } from "./profileModels.js";
+import { guessStart } from "./startGuess.js";
 
 export interface ProfileData {
   /** Positions (SI, m). */
@@ -16,6 +17,8 @@ export interface ProfileData {
   y: ArrayLike<number>;
   /** Standard deviations of y (optional: then uncertainties are scaled by the reduced chi-square). */
   sigma?: ArrayLike<number> | null;
+  /** Notes on how the data were read (a `ProfileCsv` carries them): repeated in the fit's notes. */
+  notes?: readonly string[];
 }
 
 export interface FitProfileOptions extends FitOptions {
@@ -25,6 +28,13 @@ export interface FitProfileOptions extends FitOptions {
   fixed?: Record<string, boolean | number>;
   /** Bounds by name. */
   bounds?: Record<string, [number, number]>;
+  /**
+   * Guess the start values of a catalogue model's parameters from the data (`guessStart`: centre,
+   * width, offset, contrast), for every parameter not in `start`; default true. The command
+   * (`helicoid fit`) uses exactly this, so a call and the command give the same fit on the same file.
+   * User and formula models keep their own start values.
+   */
+  guess?: boolean;
 }
 
 export interface ProfileFitResult extends FitResult {
@@ -72,12 +82,25 @@ function toArrays(data: ProfileData, label = "data") {
 /** Fit one profile. `model` is a ProfileModel or a catalogue id. */
 export function fitProfile(data: ProfileData, model: ProfileModel | string, options: FitProfileOptions = {}): ProfileFitResult {
   const pm = typeof model === "string" ? getProfileModel(model) : model;
-  const params = configureParameters(pm.parameters, options);
   const { x, y, sigma, m } = toArrays(data);
+  const guessed = options.guess === false || !profileModels.includes(pm) ? {} : guessFromData(pm, x, y, options.start ?? {});
+  const params = configureParameters(pm.parameters, { ...options, start: { ...guessed, ...(options.start ?? {}) } });
   const bound = pm.bind(x, Float64Array.from(params.map((p) => p.value)));
   const problem: LeastSquaresProblem = { parameters: params, m, y, sigma, model: bound.model, modelJacobian: bound.jacobian };
   const r = solveLeastSquares(problem, options);
-  return { ...r, model: pm.id, title: pm.title, assumptions: pm.assumptions, modelSources: pm.sources };
+  const notes = [...(data.notes ?? []), ...r.notes];
+  if (!r.sigmaKnown) notes.push("no sigma column: the standard errors are scaled by the reduced chi-square, which is then no test of the fit");
+  return { ...r, notes, model: pm.id, title: pm.title, assumptions: pm.assumptions, modelSources: pm.sources };
+}
+
+/** guessStart on the data in position order (a copy; the data are left as given). */
+function guessFromData(pm: ProfileModel, x: Float64Array, y: Float64Array, given: Record<string, number>): Record<string, number> {
+  if (pm.parameters.every((p) => given[p.name] !== undefined) || x.length < 2) return {};
+  let sorted = true;
+  for (let i = 1; i < x.length && sorted; i++) if (x[i]! < x[i - 1]!) sorted = false;
+  if (sorted) return guessStart(pm, x, y);
+  const order = Array.from(x, (_, i) => i).sort((a, b) => x[a]! - x[b]!);
+  return guessStart(pm, order.map((i) => x[i]!), order.map((i) => y[i]!));
 }
 
 /** A model from a plain TypeScript function of one position and named parameters. */

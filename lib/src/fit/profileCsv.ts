@@ -185,3 +185,22 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   }
   return { x, y, sigma, columns: names, xUnit, yUnit, droppedRows: dropped, notes };
 }
+
+/**
+ * The applied field of a profile (T): `field` when given (a quantity such as "5 mT", e.g. the
+ * FIELD of `FILE@FIELD` on the command line), else the first comment line of the text with
+ * "field: <quantity>" ("# invented data; field: 5 mT; noise 0.02"). Refused with the source named
+ * when neither is there. `helicoid fit --series` reads fields with this function.
+ */
+export function profileField(text: string, options: { source?: string; field?: string | number | null } = {}): number {
+  const src = options.source ?? "profile";
+  if (options.field !== undefined && options.field !== null) return parseQuantity(`field of ${src}`, options.field, "T");
+  if (typeof text !== "string") throw new InputError(src, text, "the text of a profile file");
+  for (const line of text.split(/\r?\n/)) {
+    const t = line.trim();
+    if (!t.startsWith("#")) continue;
+    const m = /\bfield\s*:\s*([^;]+)/i.exec(t);
+    if (m) return parseQuantity(`field of ${src} (header)`, m[1]!.trim().replace(/[.,]$/, ""), "T");
+  }
+  throw new InputError(`field of ${src}`, "(missing)", `an applied field: ${src}@<field> (e.g. ${src}@5mT) on the command line, or a comment line "# field: 5 mT" in the file`);
+}
