@@ -49,7 +49,7 @@ export class ChainHamiltonian implements SectorOperator {
     this.diag = new Float64Array(this.dim);
     for (let a = 0; a < this.dim; a++) this.diag[a] = diagonalEnergy(model, sector.reps[a]!, this.bonds);
     this.sqrtStab = sector.stab.map(Math.sqrt);
-    this.plain = sector.label.m === null && sector.label.flip === 0;
+    this.plain = sector.G === 1;
   }
 
   /** Plain-basis terms of H (off-diagonal only) on the word a. */
@@ -71,9 +71,8 @@ export class ChainHamiltonian implements SectorOperator {
     const sec = this.sector;
     const lookup = sec.lookup;
     const ranker = sec.ranker;
-    const L2 = 2 * sec.L;
-    const cosK = sec.cosK, sinK = sec.sinK;
-    const odd = sec.label.flip === -1;
+    const G = sec.G;
+    const chiRe = sec.chiRe, chiIm = sec.chiIm;
     const dim = this.dim;
     const reps = sec.reps;
     const bonds = this.bonds;
@@ -111,18 +110,16 @@ export class ChainHamiltonian implements SectorOperator {
           b = (s ^ (1 << (t - nb))) >>> 0;
           c = fx;
         }
-        // representative, translation and flip of b from the symmetry table (basis.ts)
+        // representative and group element of b from the symmetry table (basis.ts)
         const code = lookup[ranker ? ranker.rank(b) : b]!;
         if (code < 0) continue;
-        const idx = (code / L2) | 0;
-        const rem = code - idx * L2;
-        const l = rem >> 1;
-        const sgn = rem & 1 && odd ? -1 : 1;
-        const f = c * sq[idx]! * inv * sgn;
+        const idx = (code / G) | 0;
+        const g = code - idx * G;
+        const f = c * sq[idx]! * inv;
         if (!cplx) {
-          w[idx] = w[idx]! + f * cosK[l]! * vr;
+          w[idx] = w[idx]! + f * chiRe[g]! * vr;
         } else {
-          const cr = f * cosK[l]!, ci = f * sinK[l]!;
+          const cr = f * chiRe[g]!, ci = f * chiIm[g]!;
           const j = 2 * idx;
           w[j] = w[j]! + cr * vr - ci * vi;
           w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
@@ -142,7 +139,7 @@ export class ChainHamiltonian implements SectorOperator {
     const fx = -this.model.hx / 2;
     const N = this.model.N;
     const lookup = sec.lookup;
-    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] / 2 (no translations here)
+    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] (group of order 1 here)
     const ranker = sec.ranker;
     const base = ranker ? ranker.base : null;
     const lowRank = ranker ? ranker.lowRank : null;
@@ -165,7 +162,7 @@ export class ChainHamiltonian implements SectorOperator {
           anti ^= low;
           const b = (s ^ bonds[31 - Math.clz32(low)]!) >>> 0;
           const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
-          const j = lookup[r]! >> 1;
+          const j = lookup[r]!;
           w[j] = w[j]! + hv;
         }
       }
@@ -174,7 +171,7 @@ export class ChainHamiltonian implements SectorOperator {
         for (let i = 0; i < N; i++) {
           const b = (s ^ (1 << i)) >>> 0;
           const code = lookup[base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b]!;
-          if (code >= 0) w[code >> 1] = w[code >> 1]! + fv;
+          if (code >= 0) w[code] = w[code]! + fv;
         }
       }
     }
@@ -205,7 +202,7 @@ export function diagonalEnergy(model: ChainModel, s: number, bonds?: Uint32Array
  */
 export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: TermGenerator, v: Float64Array, w: Float64Array): void {
   w.fill(0);
-  const found = { index: -1, l: 0, f: 0 };
+  const found = { index: -1, l: 0, f: 0, r: 0, g: 0 };
   const chi = new Float64Array(2);
   for (let a = 0; a < src.dim; a++) {
     const vr = v[2 * a]!, vi = v[2 * a + 1]!;
@@ -214,7 +211,7 @@ export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: T
     terms(src.reps[a]!, (b, cr0, ci0) => {
       dst.find(b, found);
       if (found.index < 0) return;
-      dst.character(found.l, found.f, chi);
+      dst.characterOf(found.g, chi);
       const f = Math.sqrt(dst.stab[found.index]!) / sa;
       const cr = f * (cr0 * chi[0]! - ci0 * chi[1]!);
       const ci = f * (cr0 * chi[1]! + ci0 * chi[0]!);
