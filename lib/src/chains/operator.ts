@@ -25,7 +25,23 @@ export interface SectorOperator {
 /** Emits the plain-basis terms c |b> of an operator acting on the word a. */
 export type TermGenerator = (a: number, emit: (b: number, re: number, im: number) => void) => void;
 
-/** The Hamiltonian restricted to one sector, applied matrix-free. */
+/**
+ * Largest off-diagonal store kept as a sparse matrix (bytes, upper bound dim x terms x entry): above
+ * it H is applied matrix-free from the bit patterns.
+ */
+export const matrixStoreBytes = 4e8;
+
+/** Upper bound of the bytes of H's off-diagonal store for a sector (see ChainHamiltonian). */
+export function matrixStoreEstimate(model: ChainModel, dim: number, complex: boolean): number {
+  const terms = (model.Jperp !== 0 ? bondCount(model) : 0) + (model.hx !== 0 ? model.N : 0);
+  return dim * terms * (4 + (complex ? 16 : 8)) + 4 * (dim + 1);
+}
+
+/**
+ * The Hamiltonian restricted to one sector. Built once into a compressed-row sparse matrix of its
+ * off-diagonal part (row a holds conj(H_{b a}) = H_{a b} for the terms b of a; rows read v by
+ * gathering, write w once) when that store fits `matrixStoreBytes`; else applied matrix-free.
+ */
 export class ChainHamiltonian implements SectorOperator {
   readonly model: ChainModel;
   readonly sector: ChainSector;
@@ -36,8 +52,9 @@ export class ChainHamiltonian implements SectorOperator {
   private readonly bonds: Uint32Array;
   private readonly sqrtStab: Float64Array;
   private readonly plain: boolean;
+  private csr: { ptr: Int32Array; col: Int32Array; re: Float64Array; im: Float64Array | null } | null = null;
 
-  constructor(model: ChainModel, sector: ChainSector) {
+  constructor(model: ChainModel, sector: ChainSector, options: { matrix?: boolean } = {}) {
     this.model = model;
     this.sector = sector;
     this.dim = sector.dim;
@@ -50,10 +67,85 @@ export class ChainHamiltonian implements SectorOperator {
     for (let a = 0; a < this.dim; a++) this.diag[a] = diagonalEnergy(model, sector.reps[a]!, this.bonds);
     this.sqrtStab = sector.stab.map(Math.sqrt);
     this.plain = sector.G === 1;
+    const store = matrixStoreEstimate(model, this.dim, this.complex);
+    if (options.matrix ?? store <= matrixStoreBytes) this.csr = this.buildMatrix();
+  }
+
+  /** True when H is held as a sparse matrix (else matrix-free). */
+  get stored(): boolean {
+    return this.csr !== null;
+  }
+
+  /** The off-diagonal part as compressed rows (one pass of the term generator). */
+  private buildMatrix(): { ptr: Int32Array; col: Int32Array; re: Float64Array; im: Float64Array | null } {
+    const sec = this.sector;
+    const dim = this.dim;
+    const cplx = this.complex;
+    const bound = Math.max(1, Math.round((matrixStoreEstimate(this.model, dim, cplx) - 4 * (dim + 1)) / (4 + (cplx ? 16 : 8))));
+    let col = new Int32Array(bound);
+    let re = new Float64Array(bound);
+    let im = cplx ? new Float64Array(bound) : null;
+    const ptr = new Int32Array(dim + 1);
+    const G = sec.G, lookup = sec.lookup, ranker = sec.ranker, chiRe = sec.chiRe, chiIm = sec.chiIm;
+    const sq = this.sqrtStab;
+    let nnz = 0;
+    for (let a = 0; a < dim; a++) {
+      const inv = 1 / sq[a]!;
+      this.offDiagonalTerms(sec.reps[a]!, (b, c) => {
+        const code = lookup[ranker ? ranker.rank(b) : b]!;
+        if (code < 0) return;
+        const idx = (code / G) | 0;
+        const g = code - idx * G;
+        const f = c * sq[idx]! * inv;
+        // H_{idx a} = f chi(g); row a holds its conjugate at column idx
+        col[nnz] = idx;
+        re[nnz] = f * chiRe[g]!;
+        if (im) im[nnz] = -f * chiIm[g]!;
+        nnz++;
+      });
+      ptr[a + 1] = nnz;
+    }
+    if (nnz < bound) {
+      col = col.slice(0, nnz);
+      re = re.slice(0, nnz);
+      if (im) im = im.slice(0, nnz);
+    }
+    return { ptr, col, re, im };
+  }
+
+  private applyStored(v: Float64Array, w: Float64Array): void {
+    const { ptr, col, re, im } = this.csr!;
+    const diag = this.diag;
+    const dim = this.dim;
+    if (!im) {
+      for (let a = 0; a < dim; a++) {
+        let s = diag[a]! * v[a]!;
+        const end = ptr[a + 1]!;
+        for (let p = ptr[a]!; p < end; p++) s += re[p]! * v[col[p]!]!;
+        w[a] = s;
+      }
+      return;
+    }
+    for (let a = 0; a < dim; a++) {
+      const d = diag[a]!;
+      let sr = d * v[2 * a]!;
+      let si = d * v[2 * a + 1]!;
+      const end = ptr[a + 1]!;
+      for (let p = ptr[a]!; p < end; p++) {
+        const j = 2 * col[p]!;
+        const hr = re[p]!, hi = im[p]!;
+        const xr = v[j]!, xi = v[j + 1]!;
+        sr += hr * xr - hi * xi;
+        si += hr * xi + hi * xr;
+      }
+      w[2 * a] = sr;
+      w[2 * a + 1] = si;
+    }
   }
 
   /** Plain-basis terms of H (off-diagonal only) on the word a. */
   offDiagonalTerms(a: number, emit: (b: number, re: number, im: number) => void): void {
+    if (!this.bonds) return;
     const half = this.model.Jperp / 2;
     if (half !== 0) {
       for (let i = 0; i < this.bonds.length; i++) {
@@ -67,6 +159,7 @@ export class ChainHamiltonian implements SectorOperator {
   }
 
   apply(v: Float64Array, w: Float64Array): void {
+    if (this.csr) return this.applyStored(v, w);
     if (this.plain) return this.applyPlain(v, w);
     const sec = this.sector;
     const lookup = sec.lookup;
