@@ -1,8 +1,10 @@
 /**
  * Spectra of XXZ chains by exact diagonalization in symmetry sectors.
  *
- * - `sectorLevels`: the lowest levels of one sector by thick-restart Lanczos (lanczos.ts), with the
- *   memory needed estimated and checked against a budget before anything is allocated.
+ * - `sectorLevels`: the lowest levels of one sector by Lanczos (lanczos.ts): for one level the plain
+ *   three-term recursion (re-orthogonalization is not needed for the lowest level), for several the
+ *   thick restart with full re-orthogonalization; the memory needed is estimated and checked against
+ *   a budget before anything is allocated (H is stored as a sparse matrix only when it fits too).
  * - `chainSectors`: the sectors a model decomposes into (S^z when hx = 0, momentum on rings,
  *   optionally reflection at k = 0, pi or on open chains, and spin inversion / pi rotation about x).
  * - `denseSpectrum`: every level of every (S^z, k) sector by dense diagonalization with the
@@ -14,7 +16,7 @@ import { InputError } from "../errors.js";
 import { eigenHermitian } from "../numeric/eigenHermitian.js";
 import type { ChainModel } from "./model.js";
 import { ChainSector, allowedSymmetries, sectorMemoryEstimate, sectorName, type SectorLabel } from "./basis.js";
-import { ChainHamiltonian } from "./operator.js";
+import { ChainHamiltonian, matrixStoreBytes, matrixStoreEstimate } from "./operator.js";
 import { lowestEigenpairs, type LanczosOptions, type LanczosResult } from "./lanczos.js";
 
 export const defaultMemoryBudget = 1.5e9;
@@ -59,8 +61,13 @@ export function sectorLevels(
   const krylov = options.krylov ?? (levels === 1 ? 24 : Math.max(2 * levels + 20, 40));
   const budget = options.memoryBudget ?? defaultMemoryBudget;
   const sector = new ChainSector(model.N, label, budget, krylov);
-  const H = new ChainHamiltonian(model, sector);
-  const r = lowestEigenpairs(H, { ...options, levels, krylov });
+  // the sparse-matrix store only when sector, Krylov vectors and matrix together fit the budget
+  const est = sectorMemoryEstimate(model.N, label, krylov);
+  const H = new ChainHamiltonian(model, sector, { matrix: est.bytes + matrixStoreEstimate(model, sector.dim, sector.complex) <= Math.min(budget, est.bytes + matrixStoreBytes) });
+  // one level: the plain recursion (no re-orthogonalization) unless asked otherwise; several levels
+  // need the orthogonal basis (thick restart)
+  const reorthogonalization = options.reorthogonalization ?? (levels === 1 ? "none" : "full");
+  const r = lowestEigenpairs(H, { ...options, levels, krylov, reorthogonalization });
   return {
     ...r,
     label,
