@@ -268,6 +268,7 @@ function chainDynamicsCost(v: InputValues): ComputeCost {
   const nq = Math.floor(N / 2) + 1;
   const terms = 2 * N;
   if (v.T! > 0) {
+    if (N > chainDynamicsMaxThermalED) throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
     // dense diagonalization of N sectors, then the double sum over states (3 operators, 2 dots each)
     const steps = N * 10 * dim ** 3 + nq * N * dim * (3 * dim * N + dim * 12 * dim);
     return { bytes: N * dim * dim * 16 * 2 + 3 * dim * dim * 8, steps, parameter: "N", what: `every level of ${N} momentum sectors of about ${Math.round(dim)} states and the double sum over states at ${nq} momenta` };
@@ -397,7 +398,7 @@ export const chainDynamicsSpec: CalculatorSpec = {
   inputs: [
     { name: "N", symbol: "N", unit: "", default: 10, min: 4, max: 64, scale: "linear", kind: "integer", meaning: "number of sites (ring); exact diagonalization up to 16, the thermodynamic-limit domain-wall model above" },
     ...modelInputs.map((i) => (i.name === "hx" ? { ...i, default: 1 } : i)),
-    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 by exact diagonalization for N <= 12, by the wall model above N = 16)" },
+    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 by exact diagonalization of the full spectrum within the work budget, about N <= 10; by the wall model above N = 16)" },
     { name: "eta", symbol: "\\eta", unit: "K", default: 0.3, min: 0.01, max: 3, scale: "log", meaning: "Lorentzian half width (E / k_B)" },
     { name: "omegaMax", symbol: "\\omega_{max}", unit: "K", default: 20, min: 1, max: 100, scale: "linear", meaning: "largest energy transfer shown (E / k_B)" },
     { name: "points", symbol: "n_\\omega", unit: "", default: 201, min: 20, max: 2000, scale: "log", kind: "integer", meaning: "energy points" },

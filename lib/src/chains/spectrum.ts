@@ -67,7 +67,8 @@ export function sectorLevels(
   // one level: the plain recursion (no re-orthogonalization) unless asked otherwise; several levels
   // need the orthogonal basis (thick restart)
   const reorthogonalization = options.reorthogonalization ?? (levels === 1 ? "none" : "full");
-  const r = lowestEigenpairs(H, { ...options, levels, krylov, reorthogonalization });
+  // an empty sector (no orbit compatible with its characters, e.g. R = -1 of a tiny ring) has no levels
+  const r = sector.dim === 0 ? { values: [], vectors: [], residuals: [], matvecs: 0, restarts: 0 } : lowestEigenpairs(H, { ...options, levels, krylov, reorthogonalization });
   return {
     ...r,
     label,
