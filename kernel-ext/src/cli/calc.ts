@@ -21,11 +21,13 @@ export const calcUsage = [
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
+  "  --progress            progress of long computations on stderr (drawn in place on a terminal, where it is",
+  "                        on by default; as lines otherwise); stdout and --json are unaffected",
   "  --list                the calculators with their inputs and outputs",
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -105,7 +107,14 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     const plotPath = a.options.get("--plot");
     if (plotPath !== undefined && !/\.(svg|png)$/i.test(plotPath)) throw new InputError("--plot", plotPath, "a file name ending in .svg or .png");
     if (plotPath !== undefined && spec.plots.length === 0) throw new InputError("--plot", plotPath, `no --plot: '${id}' has no plots`);
-    const result = runCalculator(spec, raw, options);
+    const progress = a.flags.has("--progress") || io.stderrIsTTY === true ? progressWriter(id!, io) : null;
+    if (progress) options.onProgress = progress.update;
+    let result: ReturnType<typeof runCalculator>;
+    try {
+      result = runCalculator(spec, raw, options);
+    } finally {
+      progress?.end();
+    }
     if (plotPath !== undefined) {
       try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
       io.stderr(`helicoid calc: wrote ${plotPath} (${spec.plots[0]!.title})\n`);
@@ -143,4 +152,40 @@ function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   if (spec.sweep?.over.length) lines.push("", `sweepable: ${spec.sweep.over.join(", ")} (--sweep NAME=FROM:TO:POINTS; default ${spec.sweep.points} points over the usual range)`);
   lines.push("", `method: ${spec.method}`, "assumptions:", ...spec.assumptions.map((x) => `  - ${x}`), "sources:", ...spec.sources.map((x) => `  - ${x}`));
   return lines.join("\n") + "\n";
+}
+
+/**
+ * Progress of a long computation on stderr: on a terminal one line redrawn in place (at most 5 times
+ * a second) and cleared at the end; otherwise (--progress into a file or pipe) a line at most once a
+ * second. Nothing is written for computations that end within half a second.
+ */
+function progressWriter(id: string, io: CommandIO): { update: (fraction: number, what: string) => void; end: () => void } {
+  const t0 = Date.now();
+  const tty = io.stderrIsTTY === true;
+  let last = 0;
+  let drawn = false;
+  let width = 0;
+  const line = (fraction: number, what: string): string => {
+    const pct = Math.max(0, Math.min(100, Math.round(fraction * 100)));
+    return `helicoid calc ${id}: ${String(pct).padStart(3)}% ${what} (${((Date.now() - t0) / 1000).toFixed(1)} s)`;
+  };
+  return {
+    update(fraction, what) {
+      const now = Date.now();
+      if (now - t0 < 500 || now - last < (tty ? 200 : 1000)) return;
+      last = now;
+      const text = line(fraction, what);
+      if (tty) {
+        const shown = text.length > 119 ? text.slice(0, 118) + "…" : text;
+        io.stderr(`\r${shown.padEnd(width)}`);
+        width = shown.length;
+      } else io.stderr(`${text}\n`);
+      drawn = true;
+    },
+    end() {
+      if (!drawn) return;
+      if (tty) io.stderr(`\r${" ".repeat(width)}\r`);
+      else io.stderr(`helicoid calc ${id}: done in ${((Date.now() - t0) / 1000).toFixed(1)} s\n`);
+    },
+  };
 }
