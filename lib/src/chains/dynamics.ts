@@ -283,11 +283,24 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
         }
       } else if (c === "chiral") {
         const tp = G(combine(unitC.y, unitC.z, 1));
-        const tm = G(combine(unitC.y, unitC.z, 3));
-        const sp = spectrum(tp), sm = spectrum(tm);
-        ch.re.push(sp.map((v, i) => 0.5 * (v - sm[i]!)));
-        ch.weight.push(0.5 * (tp.norm2 - tm.norm2));
-        chiralW.push(0.5 * (tp.norm2 - tm.norm2));
+        const sp = spectrum(tp);
+        let re: Float64Array, w: number;
+        if (comps.includes("yy") && comps.includes("zz")) {
+          // G(y + iz) + G(y - iz) = 2 (G(y) + G(z)): C = (G(y + iz) - G(y - iz)) / 2 = G(y + iz) - G(y) - G(z),
+          // one continued fraction fewer when S^yy and S^zz are computed anyway
+          const ty = G(unitC.y), tz = G(unitC.z);
+          const sy = spectrum(ty), sz = spectrum(tz);
+          re = sp.map((v, i) => v - sy[i]! - sz[i]!);
+          w = tp.norm2 - ty.norm2 - tz.norm2;
+        } else {
+          const tm = G(combine(unitC.y, unitC.z, 3));
+          const sm = spectrum(tm);
+          re = sp.map((v, i) => 0.5 * (v - sm[i]!));
+          w = 0.5 * (tp.norm2 - tm.norm2);
+        }
+        ch.re.push(re);
+        ch.weight.push(w);
+        chiralW.push(w);
       } else {
         const a = unitC[c[0] as "x"], b = unitC[c[1] as "x"];
         const t0 = G(combine(a, b, 0)), t1 = G(combine(a, b, 1)), t2 = G(combine(a, b, 2)), t3 = G(combine(a, b, 3));
