@@ -145,7 +145,6 @@ export class ChainHamiltonian implements SectorOperator {
 
   /** Plain-basis terms of H (off-diagonal only) on the word a. */
   offDiagonalTerms(a: number, emit: (b: number, re: number, im: number) => void): void {
-    if (!this.bonds) return;
     const half = this.model.Jperp / 2;
     if (half !== 0) {
       for (let i = 0; i < this.bonds.length; i++) {
