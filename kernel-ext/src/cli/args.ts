@@ -18,12 +18,15 @@ export class UsageError extends Error {
 export interface CommandIO {
   stdout: (s: string) => void;
   stderr: (s: string) => void;
+  /** True when stderr is a terminal (progress lines are then drawn in place). */
+  stderrIsTTY?: boolean;
 }
 
 /** The process's own streams (not the notebook's: cell output capture replaces process.stdout.write). */
 export const processIO: CommandIO = {
   stdout: (s) => realStdout(s),
   stderr: (s) => realStderr(s),
+  stderrIsTTY: process.stderr.isTTY === true,
 };
 
 /**

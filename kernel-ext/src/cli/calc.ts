@@ -30,6 +30,8 @@ export const calcUsage = [
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
+  "  --progress            progress of long computations on stderr (drawn in place on a terminal, where it is",
+  "                        on by default; as lines otherwise); stdout and --json are unaffected",
   "  --list                the calculators with their inputs and outputs",
   "Outputs computed from uncertain inputs print as value ± uncertainty (one standard deviation, two",
   "significant digits); --json gives outputs.NAME.uncertainty (SI) and the method and flags under",
@@ -38,7 +40,7 @@ export const calcUsage = [
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -141,7 +143,14 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       Object.assign(uncertainty, film.uncertainty);
       filmNotes.push(...film.notes);
     }
-    const result = runCalculator(spec, inputs, { ...options, ...(Object.keys(uncertainty).length ? { uncertainty } : {}) });
+    const progress = a.flags.has("--progress") || io.stderrIsTTY === true ? progressWriter(id!, io) : null;
+    if (progress) options.onProgress = progress.update;
+    let result: ReturnType<typeof runCalculator>;
+    try {
+      result = runCalculator(spec, inputs, { ...options, ...(Object.keys(uncertainty).length ? { uncertainty } : {}) });
+    } finally {
+      progress?.end();
+    }
     result.notes.unshift(...filmNotes);
     if (plotPath !== undefined) {
       try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
@@ -181,4 +190,43 @@ function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   if (spec.sweep?.over.length) lines.push("", `sweepable: ${spec.sweep.over.join(", ")} (--sweep NAME=FROM:TO:POINTS; default ${spec.sweep.points} points over the usual range)`);
   lines.push("", `method: ${spec.method}`, "assumptions:", ...spec.assumptions.map((x) => `  - ${x}`), "sources:", ...spec.sources.map((x) => `  - ${x}`));
   return lines.join("\n") + "\n";
+}
+
+/**
+ * Progress of a long computation on stderr: on a terminal one line redrawn in place (at most 5 times
+ * a second) and cleared at the end; otherwise (--progress into a file or pipe) a line at most once a
+ * second. Nothing is written for computations that end within half a second.
+ */
+function progressWriter(id: string, io: CommandIO): { update: (fraction: number, what: string) => void; end: () => void } {
+  const t0 = Date.now();
+  const tty = io.stderrIsTTY === true;
+  // Quick runs say nothing; HELICOID_PROGRESS_DELAY_MS changes the 0.5 s (tests set 0).
+  const delayEnv = Number(process.env.HELICOID_PROGRESS_DELAY_MS);
+  const delay = Number.isFinite(delayEnv) && delayEnv >= 0 ? delayEnv : 500;
+  let last = 0;
+  let drawn = false;
+  let width = 0;
+  const line = (fraction: number, what: string): string => {
+    const pct = Math.max(0, Math.min(100, Math.round(fraction * 100)));
+    return `helicoid calc ${id}: ${String(pct).padStart(3)}% ${what} (${((Date.now() - t0) / 1000).toFixed(1)} s)`;
+  };
+  return {
+    update(fraction, what) {
+      const now = Date.now();
+      if (now - t0 < delay || now - last < (tty ? 200 : 1000)) return;
+      last = now;
+      const text = line(fraction, what);
+      if (tty) {
+        const shown = text.length > 119 ? text.slice(0, 118) + "…" : text;
+        io.stderr(`\r${shown.padEnd(width)}`);
+        width = shown.length;
+      } else io.stderr(`${text}\n`);
+      drawn = true;
+    },
+    end() {
+      if (!drawn) return;
+      if (tty) io.stderr(`\r${" ".repeat(width)}\r`);
+      else io.stderr(`helicoid calc ${id}: done in ${((Date.now() - t0) / 1000).toFixed(1)} s\n`);
+    },
+  };
 }

@@ -8,11 +8,13 @@
  * The plot spec draws lines and markers only (no heatmap), so the S(q, w) map is returned as
  * flattened arrays (row-major: q index, then w) next to cuts at q = pi and the bounds against q.
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import type { CalculatorSpec, ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { chainModel, kelvinToGHz, kelvinToMeV, ringLabel, type ChainModel } from "../chains/model.js";
 import { sectorLevels } from "../chains/spectrum.js";
+import { allowedSymmetries, sectorMemoryEstimate, sectorName, type SectorLabel } from "../chains/basis.js";
+import { matrixStoreEstimate } from "../chains/operator.js";
 import { xxzGap, xxzGroundEnergyPerSite, transverseIsingRing } from "../chains/closedForms.js";
 import { dynamicStructureFactor } from "../chains/dynamics.js";
 import {
@@ -24,6 +26,7 @@ import {
   wallTransverseMagnetization,
   wallValidityNotes,
   wallChiralitySign,
+  twoWallTransverseLineShape,
 } from "../chains/wallBand.js";
 
 const chainSources = [
@@ -55,39 +58,105 @@ function unitsText(label: string, eK: number): string {
 }
 
 // ---------------------------------------------------------------- chain-spectrum
-function computeChainSpectrum(v: InputValues): ComputeOutput {
+/**
+ * The sectors the spectrum calculator diagonalizes, grouped by momentum: S^z (the lowest |S^z| and
+ * the next, when hx = 0), momentum 0..N/2 on rings, the reflection parity at k = 0 and pi (every
+ * sector of an open chain), and the flip parity where it applies (hz = 0; S^z = 0 when hx = 0).
+ */
+function spectrumSectors(model: ChainModel): Array<{ m: number | null; labels: SectorLabel[] }> {
+  const N = model.N;
+  const sym = allowedSymmetries(model);
+  const ms = sym.translation ? Array.from({ length: Math.floor(N / 2) + 1 }, (_, i) => i) : [null];
+  const ups: Array<number | null> = sym.Sz ? [Math.ceil(N / 2), Math.ceil(N / 2) + 1].filter((u) => u <= N) : [null];
+  return ms.map((m) => {
+    const labels: SectorLabel[] = [];
+    const reflections: Array<0 | 1 | -1> = m === null || m === 0 || 2 * m === N ? [1, -1] : [0];
+    for (const nUp of ups) {
+      const flips: Array<0 | 1 | -1> = (nUp === null ? sym.flip : sym.flipInSz0 && 2 * nUp === N) ? [1, -1] : [0];
+      for (const reflection of reflections) for (const flip of flips) labels.push(reflection ? { nUp, m, flip, reflection } : { nUp, m, flip });
+    }
+    return { m, labels };
+  });
+}
+
+/** Steps of Lanczos on one sector: matrix-vector products times (terms + orthogonalization) per state. */
+function lanczosSteps(model: ChainModel, dim: number, levels: number): number {
+  const terms = model.N + (model.hx !== 0 ? model.N : 0);
+  const matvecs = levels === 1 ? 150 : 150 + 60 * levels;
+  const perState = terms + (levels === 1 ? 6 : 2 * Math.max(2 * levels + 20, 40));
+  return dim * matvecs * perState;
+}
+
+function spectrumModel(v: InputValues): ChainModel {
   const N = requireWholeAtLeast(v, "N", 3, "sites");
   if (N > 24) throw new InputError("N", N, "at most 24 sites in the calculator (the library takes larger N within its memory budget)");
-  const boundary = v.boundary === 1 ? "open" : "periodic";
-  const model = modelFrom(v, N, boundary);
+  return modelFrom(v, N, v.boundary === 1 ? "open" : "periodic");
+}
+
+function chainSpectrumCost(v: InputValues): ComputeCost {
+  const model = spectrumModel(v);
+  const levels = Math.max(1, Math.round(v.levels ?? 1));
+  let bytes = 0, steps = 0, states = 0;
+  for (const { labels } of spectrumSectors(model)) {
+    for (const label of labels) {
+      const est = sectorMemoryEstimate(model.N, label, levels === 1 ? 4 : Math.max(2 * levels + 20, 40));
+      bytes = Math.max(bytes, est.bytes + matrixStoreEstimate(model, est.dimension, est.complex));
+      steps += lanczosSteps(model, est.dimension, levels);
+      states += est.dimension;
+    }
+  }
+  return { bytes, steps, parameter: "N", what: `${states} states in the symmetry sectors of a ${model.boundary === "periodic" ? "ring" : "chain"} of ${model.N} sites, Lanczos for ${levels} level(s) in each` };
+}
+
+function computeChainSpectrum(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const model = spectrumModel(v);
+  const N = model.N;
+  const boundary = model.boundary;
   const notes: string[] = [ringLabel(model)];
   const levels = requireWholeAtLeast(v, "levels", 1, "levels per sector");
   const periodic = boundary === "periodic";
-  const ms = periodic ? Array.from({ length: Math.floor(N / 2) + 1 }, (_, i) => i) : [null];
-  // S^z sectors: the lowest |S^z| and the next one when S^z is conserved; else the full space
-  const ups: Array<number | null> = model.hx === 0 ? [Math.ceil(N / 2), Math.ceil(N / 2) + 1].filter((u) => u <= N) : [null];
+  const groups = spectrumSectors(model);
+  const ups = Array.from(new Set(groups[0]!.labels.map((l) => l.nUp)));
   const kValues: number[] = [];
   const lowest: number[] = [];
   const second: number[] = [];
   let e0 = Infinity;
+  let groundSector = "";
   const all: number[] = [];
-  for (const m of ms) {
+  const sectorLines: string[] = [];
+  // progress by states done (the work of a sector grows with its dimension)
+  const dims = groups.map((g) => g.labels.map((l) => sectorMemoryEstimate(N, l, 0).dimension));
+  const total = dims.flat().reduce((a, b) => a + b, 0);
+  let done = 0;
+  groups.forEach(({ m, labels }, gi) => {
     let best = Infinity, next = Infinity;
-    for (const nUp of ups) {
-      const r = sectorLevels(model, { nUp, m, flip: 0 }, { levels, tol: 1e-10 });
+    labels.forEach((label, li) => {
+      const name = sectorName(N, label);
+      const share = dims[gi]![li]! / total;
+      const r = sectorLevels(model, label, {
+        levels,
+        tol: 1e-10,
+        onProgress: options.onProgress ? (p) => options.onProgress!(done / total + share * Math.min(0.95, p.matvecs / 200), `${name}: Lanczos step ${p.matvecs}`) : undefined,
+      });
+      done += dims[gi]![li]!;
+      options.onProgress?.(done / total, `${name}: ${r.dimension} states, lowest ${r.values[0]!.toPrecision(8)} K`);
+      sectorLines.push(`${name}: ${r.dimension} states`);
       all.push(...r.values);
       for (const e of r.values) {
         if (e < best) {
           next = best;
           best = e;
         } else if (e < next) next = e;
+        if (e < e0) {
+          e0 = e;
+          groundSector = name;
+        }
       }
-    }
+    });
     kValues.push(m === null ? 0 : (2 * Math.PI * m) / N);
     lowest.push(best);
     second.push(Number.isFinite(next) ? next : best);
-    e0 = Math.min(e0, best);
-  }
+  });
   all.sort((a, b) => a - b);
   const gap = all.find((e) => e > e0 + 1e-9 * Math.max(1, Math.abs(e0))) ?? e0;
   const values: ComputeOutput["values"] = {
@@ -98,9 +167,12 @@ function computeChainSpectrum(v: InputValues): ComputeOutput {
     kValues,
     levelLowest: lowest.map((e) => e - e0),
     levelSecond: second.map((e) => e - e0),
+    groundSector,
+    sectors: sectorLines.join("; "),
   };
   if (model.hx !== 0) notes.push("hx != 0: S^z is not conserved; each momentum sector holds all S^z");
   else notes.push(`S^z sectors computed: ${ups.map((u) => (u! - N / 2).toString()).join(", ")} (the lowest |S^z| and the next)`);
+  notes.push(`symmetry sectors: momentum${periodic ? "" : " (none: open chain)"}, reflection R = +-1 ${periodic ? "at k = 0 and pi" : "(sites j -> N - 1 - j)"}${groups[0]!.labels.some((l) => l.flip) ? ", spin inversion / pi rotation about x F = +-1" : ""}; levels at each k are the lowest of its sectors`);
   const Delta = model.Jperp > 0 ? model.Jz / model.Jperp : Infinity;
   if (model.Jz > 0 && model.Jperp > 0 && Delta >= 1 && model.hx === 0 && model.hz === 0) {
     values.e0BethePerSite = model.Jperp * xxzGroundEnergyPerSite(Delta);
@@ -147,6 +219,8 @@ export const chainSpectrumSpec: CalculatorSpec = {
     { name: "gapBethe", symbol: "\\Delta^{BA}", unit: "K", meaning: "Bethe-ansatz gap (two spinons), infinite chain" },
     { name: "e0TransverseIsing", symbol: "E_0^{TFIM}", unit: "K", meaning: "closed-form ground energy of the transverse-field Ising ring (Jperp = 0)" },
     { name: "summary", symbol: "", unit: "", kind: "text", meaning: "headline energies in K, meV and GHz" },
+    { name: "groundSector", symbol: "", unit: "", kind: "text", meaning: "symmetry sector of the ground state (S^z, momentum, reflection R and flip F parities)" },
+    { name: "sectors", symbol: "", unit: "", kind: "text", meaning: "the sectors diagonalized and their dimensions" },
     { name: "kValues", symbol: "k", unit: "rad", kind: "array", meaning: "momenta (rad per site)" },
     { name: "levelLowest", symbol: "E_1(k) - E_0", unit: "K", kind: "array", meaning: "lowest level at each k above the ground state" },
     { name: "levelSecond", symbol: "E_2(k) - E_0", unit: "K", kind: "array", meaning: "second level at each k" },
@@ -159,32 +233,71 @@ export const chainSpectrumSpec: CalculatorSpec = {
   ],
   assumptions: [
     "Spin-1/2 XXZ chain with nearest-neighbour exchange only; fields are Zeeman energies g muB B along x and z.",
-    "Levels are Lanczos Ritz values with residual below 1e-10 relative; sectors: momentum on rings, S^z when hx = 0.",
+    "Levels are Lanczos Ritz values with residual below 1e-10 relative; sectors: momentum on rings, S^z when hx = 0, reflection at k = 0, pi (open chains: always), spin inversion / pi rotation about x when hz = 0.",
     "Bethe-ansatz and wall-band values are for the infinite chain (thermodynamic limit) and first order in Jperp, hx respectively.",
   ],
   sources: chainSources,
-  method: "exact diagonalization in symmetry sectors (combinatorial ranking, matrix-free H, thick-restart Lanczos)",
+  method: "exact diagonalization in symmetry sectors (combinatorial ranking, sparse or matrix-free H, Lanczos: plain recursion for one level, thick restart for several)",
+  cost: chainSpectrumCost,
   compute: computeChainSpectrum,
 };
 
 // ---------------------------------------------------------------- chain-dynamics
-function computeChainDynamics(v: InputValues): ComputeOutput {
-  const N = requireWholeAtLeast(v, "N", 4, "sites");
-  if (N > 16) throw new InputError("N", N, "at most 16 sites for S(q, w) in the calculator (use the wall-band calculator beyond)");
-  const model = modelFrom(v, N);
-  const T = v.T!;
-  if (T > 0 && N > 12) throw new InputError("N", N, "at most 12 sites at T > 0 (full spectrum)");
+/** Largest N for exact diagonalization in the dynamics calculator; above it the thermodynamic-limit model. */
+export const chainDynamicsMaxED = 16;
+/** Largest N at T > 0 (every level of the 2^N states). */
+export const chainDynamicsMaxThermalED = 12;
+
+function dynamicsOmega(v: InputValues): number[] {
   const points = requireWholeAtLeast(v, "points", 8, "energy points");
   if (points > 2000) throw new InputError("points", points, "at most 2000 energy points");
   if (!(v.omegaMax! > 0)) throw new InputError("omegaMax", v.omegaMax, "a positive largest energy transfer");
   // T = 0: 0..omegaMax; T > 0 also negative transfers (detailed balance)
-  const lo = T > 0 ? -v.omegaMax! : 0;
-  const omega = Array.from({ length: points }, (_, i) => lo + ((v.omegaMax! - lo) * i) / (points - 1));
-  const r = dynamicStructureFactor(model, { T, eta: v.eta!, omega, components: ["xx", "yy", "zz", "chiral"] });
+  const lo = v.T! > 0 ? -v.omegaMax! : 0;
+  return Array.from({ length: points }, (_, i) => lo + ((v.omegaMax! - lo) * i) / (points - 1));
+}
+
+function chainDynamicsCost(v: InputValues): ComputeCost {
+  const N = requireWholeAtLeast(v, "N", 4, "sites");
+  if (N > chainDynamicsMaxED) {
+    const nq = Math.floor(N / 2) + 1;
+    return { bytes: 64 * nq * 2000, steps: nq * 2000 * 400 * 4, parameter: "N", what: `thermodynamic-limit model on ${nq} momenta` };
+  }
+  const dim = 2 ** N / N;
+  const flip = v.hz === 0 && v.hx !== 0 ? 2 : 1;
+  const nq = Math.floor(N / 2) + 1;
+  const terms = 2 * N;
+  if (v.T! > 0) {
+    if (N > chainDynamicsMaxThermalED) throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
+    // dense diagonalization of N sectors, then the double sum over states (3 operators, 2 dots each)
+    const steps = N * 10 * dim ** 3 + nq * N * dim * (3 * dim * N + dim * 12 * dim);
+    return { bytes: N * dim * dim * 16 * 2 + 3 * dim * dim * 8, steps, parameter: "N", what: `every level of ${N} momentum sectors of about ${Math.round(dim)} states and the double sum over states at ${nq} momenta` };
+  }
+  const d = dim / flip;
+  const steps = (nq * flip + 1) * d * 2 * terms * 100 + nq * 5 * 200 * d * 2 * (terms + 6);
+  return { bytes: 4 * 2 ** N + 4 * d * terms * 20 + 10 * d * 16, steps, parameter: "N", what: `Lanczos ground state over ${nq * flip} sectors of about ${Math.round(d)} states and 5 continued fractions of depth 200 at ${nq} momenta` };
+}
+
+function computeChainDynamics(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
+  const N = requireWholeAtLeast(v, "N", 4, "sites");
+  if (N > 1000) throw new InputError("N", N, "at most 1000 sites (the thermodynamic-limit model is sampled at the ring's N momenta)");
+  if (N > chainDynamicsMaxED) return thermodynamicLimitDynamics(v, N);
+  const model = modelFrom(v, N);
+  const T = v.T!;
+  if (T > 0 && N > chainDynamicsMaxThermalED) throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
+  const omega = dynamicsOmega(v);
+  const r = dynamicStructureFactor(model, {
+    T,
+    eta: v.eta!,
+    omega,
+    components: ["xx", "yy", "zz", "chiral"],
+    onProgress: options.onProgress ? (done, total) => options.onProgress!(done / total, `S(q, w): momentum ${done} of ${total}`) : undefined,
+  });
   const iPi = r.qIndex.length - 1;
   const flat = (rows: Float64Array[]) => rows.flatMap((row) => Array.from(row));
   const notes = [ringLabel(model), ...r.notes, "the S(q, w) maps are flattened row-major (q index, then w): the plot spec has no heatmap, so cuts at q = pi are plotted"];
   const values: ComputeOutput["values"] = {
+    model: `exact diagonalization of the ring of ${N} sites (N <= ${chainDynamicsMaxED}; above it the thermodynamic-limit domain-wall model is used)`,
     qValues: r.q,
     omega,
     mapZZ: flat(r.channels.zz!.re),
@@ -211,20 +324,87 @@ function computeChainDynamics(v: InputValues): ComputeOutput {
   return { values, status: "ok", notes };
 }
 
+/**
+ * Above N = 16 sites: the thermodynamic-limit domain-wall model (first order in Jperp, hx) on the
+ * momenta q = 2 pi n / N, 0 <= n <= N/2: the T = 0 two-wall continuum S^xx = S^yy (semicircle of
+ * weight 1/4 between the continuum bounds, zero field), the intraband (Villain) S^zz of thermal walls
+ * (T > 0, zero field), and the chiral weight -<S^x> from the wall picture (its line shape is not
+ * modelled: the chiral map is zero, its integral is given). Said in the notes and the `model` output.
+ */
+function thermodynamicLimitDynamics(v: InputValues, N: number): ComputeOutput {
+  const p = { Jz: v.Jz!, Jperp: v.Jperp!, hx: v.hx!, hz: v.hz! };
+  if (!(p.Jz > 0)) throw new InputError("Jz", p.Jz, `an antiferromagnetic Jz > 0 above N = ${chainDynamicsMaxED} sites (the thermodynamic-limit model is the antiferromagnet's domain-wall picture)`);
+  const T = v.T!;
+  const eta = v.eta!;
+  if (!(eta > 0)) throw new InputError("eta", eta, "a positive broadening (half width)");
+  const omega = dynamicsOmega(v);
+  const nq = Math.floor(N / 2) + 1;
+  const q = Array.from({ length: nq }, (_, n) => (2 * Math.PI * n) / N);
+  const zeroField = { ...p, hx: 0, hz: 0 };
+  const lorentz = (x: number): number => eta / Math.PI / (x * x + eta * eta);
+  const transverse = q.map((Q) => twoWallTransverseLineShape(zeroField, Q, omega, eta));
+  // Villain S^zz: the unbroadened line shape on a fine grid, convolved with the Lorentzian
+  const zz = q.map((Q) => {
+    if (!(T > 0) || Q === 0 || Math.abs(Q - Math.PI) < 1e-12 || p.Jperp === 0) return omega.map(() => 0);
+    const edge = 2 * Math.abs(p.Jperp * Math.sin(Q));
+    const n = 400;
+    // substitution w = edge sin(x) removes the square-root edges: dw = edge cos(x) dx
+    const xs = Array.from({ length: n }, (_, i) => -Math.PI / 2 + (Math.PI * (i + 0.5)) / n);
+    const ws = xs.map((x) => edge * Math.sin(x));
+    const shape = villainLineShape(zeroField, Q, ws, T);
+    return omega.map((w) => {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += shape[i]! * edge * Math.cos(xs[i]!) * lorentz(w - ws[i]!);
+      return (s * Math.PI) / n;
+    });
+  });
+  const mx = wallTransverseMagnetization(p, Math.max(T, 0));
+  const c = twoWallContinuum(p, q);
+  const flat = (rows: number[][]) => rows.flat();
+  const iPi = nq - 1;
+  const notes = [
+    `N = ${N} > ${chainDynamicsMaxED}: thermodynamic-limit domain-wall model (first order in Jperp and hx), not exact diagonalization; sampled at the ${nq} momenta 2 pi n / N`,
+    "S^xx = S^yy: T = 0 two-wall continuum (semicircle of weight 1/4, zero field; thermal depletion not included); S^zz: intraband (Villain) scattering of thermal walls (zero field), without the elastic Bragg weight at q = pi",
+    "chiral part: only its integral -<S^x> per site is modelled (map zero)",
+    ...wallValidityNotes(p),
+  ];
+  if (p.hx !== 0 || p.hz !== 0) notes.push("the line shapes are drawn at zero field; the continuum bounds include the fields");
+  const values: ComputeOutput["values"] = {
+    model: `thermodynamic-limit domain-wall model (N = ${N} > ${chainDynamicsMaxED}; first order in Jperp, hx)`,
+    qValues: q,
+    omega,
+    mapZZ: flat(zz),
+    mapXX: flat(transverse),
+    mapYY: flat(transverse),
+    mapChiral: omega.flatMap(() => q.map(() => 0)),
+    cutZZ: zz[iPi]!,
+    cutXX: transverse[iPi]!,
+    cutChiral: omega.map(() => 0),
+    totalWeightZZ: 0.25,
+    magnetizationX: mx,
+    chiralWeight: -mx,
+    continuumLower: c.lower,
+    continuumUpper: c.upper,
+    villainEdge: villainEdge(p, q),
+  };
+  return { values, status: "warning", notes };
+}
+
 export const chainDynamicsSpec: CalculatorSpec = {
   id: "chain-dynamics",
   title: "Dynamic structure factor S(q, w) of a spin-1/2 ring, with the chiral channel",
   summary:
     "S^{ab}(q, w) for a ring of N spins 1/2 in the xx, yy, zz channels and the chiral part C = i(S^yz - S^zy) seen by polarized neutrons; T = 0 by Lanczos continued fractions, T > 0 by sums over the full spectrum; Lorentzian broadening eta; sum rules (total weight, f-sum, chiral weight = -<S^x>, detailed balance) reported; first-order two-wall continuum and Villain edge for comparison.",
   inputs: [
-    { name: "N", symbol: "N", unit: "", default: 10, min: 4, max: 16, scale: "linear", kind: "integer", meaning: "number of sites (ring)" },
+    { name: "N", symbol: "N", unit: "", default: 10, min: 4, max: 64, scale: "linear", kind: "integer", meaning: "number of sites (ring); exact diagonalization up to 16, the thermodynamic-limit domain-wall model above" },
     ...modelInputs.map((i) => (i.name === "hx" ? { ...i, default: 1 } : i)),
-    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 needs N <= 12)" },
+    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 by exact diagonalization of the full spectrum within the work budget, about N <= 10; by the wall model above N = 16)" },
     { name: "eta", symbol: "\\eta", unit: "K", default: 0.3, min: 0.01, max: 3, scale: "log", meaning: "Lorentzian half width (E / k_B)" },
     { name: "omegaMax", symbol: "\\omega_{max}", unit: "K", default: 20, min: 1, max: 100, scale: "linear", meaning: "largest energy transfer shown (E / k_B)" },
     { name: "points", symbol: "n_\\omega", unit: "", default: 201, min: 20, max: 2000, scale: "log", kind: "integer", meaning: "energy points" },
   ],
   outputs: [
+    { name: "model", symbol: "", unit: "", kind: "text", meaning: "which model computed the maps: exact diagonalization (N <= 16) or the thermodynamic-limit domain-wall model" },
     { name: "totalWeightZZ", symbol: "\\frac1N\\sum_q\\int S^{zz}", unit: "", meaning: "total zz weight (sum rule: 1/4)" },
     { name: "magnetizationX", symbol: "\\langle S^x\\rangle", unit: "", meaning: "transverse magnetization per site" },
     { name: "chiralWeight", symbol: "\\int C\\,d\\omega", unit: "", meaning: "frequency-integrated chiral weight (sum rule: -<S^x>)" },
@@ -257,7 +437,8 @@ export const chainDynamicsSpec: CalculatorSpec = {
     "P. Hohenberg, W. Brinkman, PRB 10, 128 (1974)",
     ...wallSources,
   ],
-  method: "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors",
+  method: "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors for N <= 16; above, the thermodynamic-limit domain-wall model (two-wall semicircle, Villain intraband scattering)",
+  cost: chainDynamicsCost,
   compute: computeChainDynamics,
 };
 

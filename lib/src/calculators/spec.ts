@@ -77,6 +77,11 @@ export type InputValues = Record<string, number>;
 export interface ComputeOptions {
   /** Sweep an input over [from, to] with `points` values (linear, or log if the input is log). */
   sweep?: { over: string; from: number; to: number; points: number };
+  /**
+   * Progress of a long computation, for calculators that report it: the fraction done (0..1) and
+   * what is being done, in words. Called from inside the computation (keep it cheap).
+   */
+  onProgress?: (fraction: number, what: string) => void;
 }
 
 /** What a compute function returns: SI outputs plus its story. */
@@ -365,7 +370,7 @@ export function runCalculator(
   let computed: ComputeOutput;
   try {
     checkCost(spec, inputs, sweep ? { sweep } : {});
-    computed = spec.compute(inputs, sweep ? { sweep } : {});
+    computed = spec.compute(inputs, { ...(sweep ? { sweep } : {}), ...(options.onProgress ? { onProgress: options.onProgress } : {}) });
   } catch (err) {
     if (!(err instanceof InputError)) throw err;
     throw explainComputeError(spec, raw, inputs, err);

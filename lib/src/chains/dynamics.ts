@@ -164,24 +164,45 @@ function bondOperator(model: ChainModel, sector: ChainSector): ChainHamiltonian 
   return new ChainHamiltonian({ ...model, Jz: 0, Jperp: 1, hx: 0, hz: 0 }, sector);
 }
 
+/** A continued fraction split into the flip-parity sectors it reaches (their spectra add). */
+interface Cf {
+  parts: TridiagonalResult[];
+  norm2: number;
+}
+
 function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[], qIdx: number[]): DsfResult {
   const N = model.N;
   const notes: string[] = [];
-  // ground state: lowest level over the momentum sectors (reflection pairs m, N - m are degenerate)
-  let best: { e: number; m: number; v: Float64Array; sector: ChainSector; H: ChainHamiltonian } | null = null;
+  // ground state: lowest level over the momentum sectors (reflection pairs m, N - m are degenerate),
+  // split by the parity under the pi rotation about x when it commutes (hx != 0, hz = 0). The lowest
+  // level of each sector by the plain recursion (no vectors), then the vector of the best sector only;
+  // the lowest levels of the other sectors tell whether the ground state is isolated.
+  const useFlip = model.hx !== 0 && model.hz === 0;
+  const flips: Array<0 | 1 | -1> = useFlip ? [1, -1] : [0];
+  let best: { e: number; m: number; flip: 0 | 1 | -1; v: Float64Array; sector: ChainSector; H: ChainHamiltonian } | null = null;
   const energies: number[] = [];
   for (let m = 0; m <= Math.floor(N / 2); m++) {
-    const sector = new ChainSector(N, { nUp: null, m, flip: 0 });
-    const H = new ChainHamiltonian(model, sector);
-    const r = lowestEigenpairs(H, { levels: Math.min(2, sector.dim), tol: 1e-11, shouldStop: o.shouldStop });
-    energies.push(...r.values);
-    if (!best || r.values[0]! < best.e) best = { e: r.values[0]!, m, v: toComplex(r.vectors[0]!, sector.complex), sector, H };
+    for (const flip of flips) {
+      const sector = new ChainSector(N, { nUp: null, m, flip });
+      if (sector.dim === 0) continue;
+      const H = new ChainHamiltonian(model, sector);
+      const r = lowestEigenpairs(H, { levels: 1, tol: 1e-11, vectors: false, reorthogonalization: "none", shouldStop: o.shouldStop });
+      energies.push(r.values[0]!);
+      if (!best || r.values[0]! < best.e) best = { e: r.values[0]!, m, flip, v: new Float64Array(0), sector, H };
+    }
+  }
+  {
+    // the vector of the winning sector (the same recursion again, accumulating the Ritz vector)
+    const r = lowestEigenpairs(best!.H, { levels: 1, tol: 1e-11, reorthogonalization: "none", shouldStop: o.shouldStop });
+    energies[energies.indexOf(best!.e)] = r.values[0]!;
+    best!.e = r.values[0]!;
+    best!.v = toComplex(r.vectors[0]!, best!.sector.complex);
   }
   const e0 = best!.e;
   energies.sort((a, b) => a - b);
   const split = energies[1]! - energies[0]!;
   if (split < 1e-8 * Math.max(1, Math.abs(e0)) || (best!.m !== 0 && 2 * best!.m !== N)) {
-    notes.push(`the ground state is (nearly) degenerate (next level ${split.toExponential(2)} above, or a +-k pair): the T = 0 result refers to one state of the ground multiplet`);
+    notes.push(`the ground state is (nearly) degenerate (lowest level of another momentum sector ${split.toExponential(2)} above, or a +-k pair): the T = 0 result refers to one state of the ground multiplet`);
   }
   const src = best!.sector;
   const g = best!.v;
@@ -210,22 +231,46 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
     const q = (2 * Math.PI * n) / N;
     qs.push(q);
     const mT = (((best!.m - n) % N) + N) % N;
-    const dst = new ChainSector(N, { nUp: null, m: mT, flip: 0 });
-    const Hd = new ChainHamiltonian(model, dst);
-    const opC = { dim: dst.dim, complex: true, apply: (v: Float64Array, w: Float64Array) => applyComplex(Hd, v, w) };
-    const cfCache = new Map<string, TridiagonalResult>();
-    const G = (coef: number[]): TridiagonalResult => {
+    // destination sectors: momentum k0 - q; with the flip, S^x keeps the parity and S^y, S^z change it
+    const dsts = new Map<number, { sector: ChainSector; op: { dim: number; complex: boolean; apply: (v: Float64Array, w: Float64Array) => void } }>();
+    const dstOf = (flip: 0 | 1 | -1) => {
+      let d = dsts.get(flip);
+      if (!d) {
+        const sector = new ChainSector(N, { nUp: null, m: mT, flip });
+        const Hd = new ChainHamiltonian(model, sector);
+        d = { sector, op: { dim: sector.dim, complex: true, apply: complexOperator(Hd) } };
+        dsts.set(flip, d);
+      }
+      return d;
+    };
+    const cfCache = new Map<string, Cf>();
+    const G = (coef: number[]): Cf => {
       const key = coef.join(",");
       let t = cfCache.get(key);
       if (!t) {
-        const phi = new Float64Array(2 * dst.dim);
-        applyBetweenSectors(src, dst, spinTerms(N, q, coef), g, phi);
-        t = lanczosTridiagonal(opC, phi, steps, o.shouldStop);
+        // the part of the operator that keeps the flip parity (x) and the part that changes it (y, z)
+        const pieces: Array<{ c: number[]; flip: 0 | 1 | -1 }> = !useFlip
+          ? [{ c: coef, flip: 0 }]
+          : [
+              { c: [coef[0]!, coef[1]!, 0, 0, 0, 0], flip: best!.flip },
+              { c: [0, 0, coef[2]!, coef[3]!, coef[4]!, coef[5]!], flip: -best!.flip as 1 | -1 },
+            ];
+        const parts: TridiagonalResult[] = [];
+        for (const piece of pieces) {
+          if (piece.c.every((x) => x === 0)) continue;
+          const dst = dstOf(piece.flip);
+          if (dst.sector.dim === 0) continue;
+          const phi = new Float64Array(2 * dst.sector.dim);
+          applyBetweenSectors(src, dst.sector, spinTerms(N, q, piece.c), g, phi);
+          parts.push(lanczosTridiagonal(dst.op, phi, steps, o.shouldStop));
+        }
+        t = { parts, norm2: parts.reduce((a, p) => a + p.norm2, 0) };
         cfCache.set(key, t);
       }
       return t;
     };
-    const spectrum = (t: TridiagonalResult): Float64Array => Float64Array.from(o.omega, (w) => continuedFractionSpectrum(t, w, e0, o.eta));
+    const spectrum = (t: Cf): Float64Array =>
+      Float64Array.from(o.omega, (w) => t.parts.reduce((acc, p) => acc + continuedFractionSpectrum(p, w, e0, o.eta), 0));
     for (const c of comps) {
       const ch = channels[c]!;
       if (c === "xx" || c === "yy" || c === "zz") {
@@ -233,16 +278,29 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
         ch.re.push(spectrum(t));
         ch.weight.push(t.norm2);
         if (c === "zz") {
-          exactM1.push((t.a[0]! - e0) * t.norm2);
+          exactM1.push(t.parts.reduce((acc, p) => acc + (p.a[0]! - e0) * p.norm2, 0));
           formulaM1.push(-model.Jperp * (1 - Math.cos(q)) * transverseBond + (model.hx / 2) * mx);
         }
       } else if (c === "chiral") {
         const tp = G(combine(unitC.y, unitC.z, 1));
-        const tm = G(combine(unitC.y, unitC.z, 3));
-        const sp = spectrum(tp), sm = spectrum(tm);
-        ch.re.push(sp.map((v, i) => 0.5 * (v - sm[i]!)));
-        ch.weight.push(0.5 * (tp.norm2 - tm.norm2));
-        chiralW.push(0.5 * (tp.norm2 - tm.norm2));
+        const sp = spectrum(tp);
+        let re: Float64Array, w: number;
+        if (comps.includes("yy") && comps.includes("zz")) {
+          // G(y + iz) + G(y - iz) = 2 (G(y) + G(z)): C = (G(y + iz) - G(y - iz)) / 2 = G(y + iz) - G(y) - G(z),
+          // one continued fraction fewer when S^yy and S^zz are computed anyway
+          const ty = G(unitC.y), tz = G(unitC.z);
+          const sy = spectrum(ty), sz = spectrum(tz);
+          re = sp.map((v, i) => v - sy[i]! - sz[i]!);
+          w = tp.norm2 - ty.norm2 - tz.norm2;
+        } else {
+          const tm = G(combine(unitC.y, unitC.z, 3));
+          const sm = spectrum(tm);
+          re = sp.map((v, i) => 0.5 * (v - sm[i]!));
+          w = 0.5 * (tp.norm2 - tm.norm2);
+        }
+        ch.re.push(re);
+        ch.weight.push(w);
+        chiralW.push(w);
       } else {
         const a = unitC[c[0] as "x"], b = unitC[c[1] as "x"];
         const t0 = G(combine(a, b, 0)), t1 = G(combine(a, b, 1)), t2 = G(combine(a, b, 2)), t3 = G(combine(a, b, 3));
@@ -258,25 +316,31 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
   const result = assemble(model, 0, qs, qIdx, o.omega, channels, e0, mx, transverseBond, notes);
   if (exactM1.length) result.sumRules.firstMomentZZ = { exact: exactM1, formula: formulaM1 };
   if (chiralW.length) result.sumRules.chiralWeight = { exact: chiralW, expected: -mx };
-  result.method = `T = 0: Lanczos ground state (k = ${(2 * Math.PI * best!.m / N).toFixed(4)}), continued fractions of depth <= ${steps} (Gagliano-Balseiro), Lorentzian half width ${o.eta}`;
+  result.method = `T = 0: Lanczos ground state (k = ${(2 * Math.PI * best!.m / N).toFixed(4)}${useFlip ? `, parity ${best!.flip > 0 ? "+1" : "-1"} under the pi rotation about x` : ""}), continued fractions of depth <= ${steps} (Gagliano-Balseiro), Lorentzian half width ${o.eta}`;
   return result;
 }
 
-function applyComplex(H: ChainHamiltonian, v: Float64Array, w: Float64Array): void {
-  if (H.complex) return H.apply(v, w);
-  // real sector: apply to real and imaginary parts separately
+/** H on interleaved complex vectors; a real sector applies H to the real and imaginary parts (buffers kept). */
+function complexOperator(H: ChainHamiltonian): (v: Float64Array, w: Float64Array) => void {
+  if (H.complex) return (v, w) => H.apply(v, w);
   const n = H.dim;
   const a = new Float64Array(n), b = new Float64Array(n), ra = new Float64Array(n), rb = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    a[i] = v[2 * i]!;
-    b[i] = v[2 * i + 1]!;
-  }
-  H.apply(a, ra);
-  H.apply(b, rb);
-  for (let i = 0; i < n; i++) {
-    w[2 * i] = ra[i]!;
-    w[2 * i + 1] = rb[i]!;
-  }
+  return (v, w) => {
+    for (let i = 0; i < n; i++) {
+      a[i] = v[2 * i]!;
+      b[i] = v[2 * i + 1]!;
+    }
+    H.apply(a, ra);
+    H.apply(b, rb);
+    for (let i = 0; i < n; i++) {
+      w[2 * i] = ra[i]!;
+      w[2 * i + 1] = rb[i]!;
+    }
+  };
+}
+
+function applyComplex(H: ChainHamiltonian, v: Float64Array, w: Float64Array): void {
+  complexOperator(H)(v, w);
 }
 
 function assemble(

@@ -25,7 +25,23 @@ export interface SectorOperator {
 /** Emits the plain-basis terms c |b> of an operator acting on the word a. */
 export type TermGenerator = (a: number, emit: (b: number, re: number, im: number) => void) => void;
 
-/** The Hamiltonian restricted to one sector, applied matrix-free. */
+/**
+ * Largest off-diagonal store kept as a sparse matrix (bytes, upper bound dim x terms x entry): above
+ * it H is applied matrix-free from the bit patterns.
+ */
+export const matrixStoreBytes = 4e8;
+
+/** Upper bound of the bytes of H's off-diagonal store for a sector (see ChainHamiltonian). */
+export function matrixStoreEstimate(model: ChainModel, dim: number, complex: boolean): number {
+  const terms = (model.Jperp !== 0 ? bondCount(model) : 0) + (model.hx !== 0 ? model.N : 0);
+  return dim * terms * (4 + (complex ? 16 : 8)) + 4 * (dim + 1);
+}
+
+/**
+ * The Hamiltonian restricted to one sector. Built once into a compressed-row sparse matrix of its
+ * off-diagonal part (row a holds conj(H_{b a}) = H_{a b} for the terms b of a; rows read v by
+ * gathering, write w once) when that store fits `matrixStoreBytes`; else applied matrix-free.
+ */
 export class ChainHamiltonian implements SectorOperator {
   readonly model: ChainModel;
   readonly sector: ChainSector;
@@ -36,8 +52,9 @@ export class ChainHamiltonian implements SectorOperator {
   private readonly bonds: Uint32Array;
   private readonly sqrtStab: Float64Array;
   private readonly plain: boolean;
+  private csr: { ptr: Int32Array; col: Int32Array; re: Float64Array; im: Float64Array | null } | null = null;
 
-  constructor(model: ChainModel, sector: ChainSector) {
+  constructor(model: ChainModel, sector: ChainSector, options: { matrix?: boolean } = {}) {
     this.model = model;
     this.sector = sector;
     this.dim = sector.dim;
@@ -49,7 +66,81 @@ export class ChainHamiltonian implements SectorOperator {
     this.diag = new Float64Array(this.dim);
     for (let a = 0; a < this.dim; a++) this.diag[a] = diagonalEnergy(model, sector.reps[a]!, this.bonds);
     this.sqrtStab = sector.stab.map(Math.sqrt);
-    this.plain = sector.label.m === null && sector.label.flip === 0;
+    this.plain = sector.G === 1;
+    const store = matrixStoreEstimate(model, this.dim, this.complex);
+    if (options.matrix ?? store <= matrixStoreBytes) this.csr = this.buildMatrix();
+  }
+
+  /** True when H is held as a sparse matrix (else matrix-free). */
+  get stored(): boolean {
+    return this.csr !== null;
+  }
+
+  /** The off-diagonal part as compressed rows (one pass of the term generator). */
+  private buildMatrix(): { ptr: Int32Array; col: Int32Array; re: Float64Array; im: Float64Array | null } {
+    const sec = this.sector;
+    const dim = this.dim;
+    const cplx = this.complex;
+    const bound = Math.max(1, Math.round((matrixStoreEstimate(this.model, dim, cplx) - 4 * (dim + 1)) / (4 + (cplx ? 16 : 8))));
+    let col = new Int32Array(bound);
+    let re = new Float64Array(bound);
+    let im = cplx ? new Float64Array(bound) : null;
+    const ptr = new Int32Array(dim + 1);
+    const G = sec.G, lookup = sec.lookup, ranker = sec.ranker, chiRe = sec.chiRe, chiIm = sec.chiIm;
+    const sq = this.sqrtStab;
+    let nnz = 0;
+    for (let a = 0; a < dim; a++) {
+      const inv = 1 / sq[a]!;
+      this.offDiagonalTerms(sec.reps[a]!, (b, c) => {
+        const code = lookup[ranker ? ranker.rank(b) : b]!;
+        if (code < 0) return;
+        const idx = (code / G) | 0;
+        const g = code - idx * G;
+        const f = c * sq[idx]! * inv;
+        // H_{idx a} = f chi(g); row a holds its conjugate at column idx
+        col[nnz] = idx;
+        re[nnz] = f * chiRe[g]!;
+        if (im) im[nnz] = -f * chiIm[g]!;
+        nnz++;
+      });
+      ptr[a + 1] = nnz;
+    }
+    if (nnz < bound) {
+      col = col.slice(0, nnz);
+      re = re.slice(0, nnz);
+      if (im) im = im.slice(0, nnz);
+    }
+    return { ptr, col, re, im };
+  }
+
+  private applyStored(v: Float64Array, w: Float64Array): void {
+    const { ptr, col, re, im } = this.csr!;
+    const diag = this.diag;
+    const dim = this.dim;
+    if (!im) {
+      for (let a = 0; a < dim; a++) {
+        let s = diag[a]! * v[a]!;
+        const end = ptr[a + 1]!;
+        for (let p = ptr[a]!; p < end; p++) s += re[p]! * v[col[p]!]!;
+        w[a] = s;
+      }
+      return;
+    }
+    for (let a = 0; a < dim; a++) {
+      const d = diag[a]!;
+      let sr = d * v[2 * a]!;
+      let si = d * v[2 * a + 1]!;
+      const end = ptr[a + 1]!;
+      for (let p = ptr[a]!; p < end; p++) {
+        const j = 2 * col[p]!;
+        const hr = re[p]!, hi = im[p]!;
+        const xr = v[j]!, xi = v[j + 1]!;
+        sr += hr * xr - hi * xi;
+        si += hr * xi + hi * xr;
+      }
+      w[2 * a] = sr;
+      w[2 * a + 1] = si;
+    }
   }
 
   /** Plain-basis terms of H (off-diagonal only) on the word a. */
@@ -67,13 +158,13 @@ export class ChainHamiltonian implements SectorOperator {
   }
 
   apply(v: Float64Array, w: Float64Array): void {
+    if (this.csr) return this.applyStored(v, w);
     if (this.plain) return this.applyPlain(v, w);
     const sec = this.sector;
     const lookup = sec.lookup;
     const ranker = sec.ranker;
-    const L2 = 2 * sec.L;
-    const cosK = sec.cosK, sinK = sec.sinK;
-    const odd = sec.label.flip === -1;
+    const G = sec.G;
+    const chiRe = sec.chiRe, chiIm = sec.chiIm;
     const dim = this.dim;
     const reps = sec.reps;
     const bonds = this.bonds;
@@ -111,18 +202,16 @@ export class ChainHamiltonian implements SectorOperator {
           b = (s ^ (1 << (t - nb))) >>> 0;
           c = fx;
         }
-        // representative, translation and flip of b from the symmetry table (basis.ts)
+        // representative and group element of b from the symmetry table (basis.ts)
         const code = lookup[ranker ? ranker.rank(b) : b]!;
         if (code < 0) continue;
-        const idx = (code / L2) | 0;
-        const rem = code - idx * L2;
-        const l = rem >> 1;
-        const sgn = rem & 1 && odd ? -1 : 1;
-        const f = c * sq[idx]! * inv * sgn;
+        const idx = (code / G) | 0;
+        const g = code - idx * G;
+        const f = c * sq[idx]! * inv;
         if (!cplx) {
-          w[idx] = w[idx]! + f * cosK[l]! * vr;
+          w[idx] = w[idx]! + f * chiRe[g]! * vr;
         } else {
-          const cr = f * cosK[l]!, ci = f * sinK[l]!;
+          const cr = f * chiRe[g]!, ci = f * chiIm[g]!;
           const j = 2 * idx;
           w[j] = w[j]! + cr * vr - ci * vi;
           w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
@@ -142,7 +231,7 @@ export class ChainHamiltonian implements SectorOperator {
     const fx = -this.model.hx / 2;
     const N = this.model.N;
     const lookup = sec.lookup;
-    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] / 2 (no translations here)
+    // rank by halves inlined: index = lookup[base[hi] + lowRank[lo]] (group of order 1 here)
     const ranker = sec.ranker;
     const base = ranker ? ranker.base : null;
     const lowRank = ranker ? ranker.lowRank : null;
@@ -165,7 +254,7 @@ export class ChainHamiltonian implements SectorOperator {
           anti ^= low;
           const b = (s ^ bonds[31 - Math.clz32(low)]!) >>> 0;
           const r = base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b;
-          const j = lookup[r]! >> 1;
+          const j = lookup[r]!;
           w[j] = w[j]! + hv;
         }
       }
@@ -174,7 +263,7 @@ export class ChainHamiltonian implements SectorOperator {
         for (let i = 0; i < N; i++) {
           const b = (s ^ (1 << i)) >>> 0;
           const code = lookup[base ? base[b >>> lowBits]! + lowRank![b & lowMask]! : b]!;
-          if (code >= 0) w[code >> 1] = w[code >> 1]! + fv;
+          if (code >= 0) w[code] = w[code]! + fv;
         }
       }
     }
@@ -205,7 +294,7 @@ export function diagonalEnergy(model: ChainModel, s: number, bonds?: Uint32Array
  */
 export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: TermGenerator, v: Float64Array, w: Float64Array): void {
   w.fill(0);
-  const found = { index: -1, l: 0, f: 0 };
+  const found = { index: -1, l: 0, f: 0, r: 0, g: 0 };
   const chi = new Float64Array(2);
   for (let a = 0; a < src.dim; a++) {
     const vr = v[2 * a]!, vi = v[2 * a + 1]!;
@@ -214,7 +303,7 @@ export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: T
     terms(src.reps[a]!, (b, cr0, ci0) => {
       dst.find(b, found);
       if (found.index < 0) return;
-      dst.character(found.l, found.f, chi);
+      dst.characterOf(found.g, chi);
       const f = Math.sqrt(dst.stab[found.index]!) / sa;
       const cr = f * (cr0 * chi[0]! - ci0 * chi[1]!);
       const ci = f * (cr0 * chi[1]! + ci0 * chi[0]!);

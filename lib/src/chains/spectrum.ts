@@ -1,9 +1,12 @@
 /**
  * Spectra of XXZ chains by exact diagonalization in symmetry sectors.
  *
- * - `sectorLevels`: the lowest levels of one sector by thick-restart Lanczos (lanczos.ts), with the
- *   memory needed estimated and checked against a budget before anything is allocated.
- * - `chainSectors`: the sectors a model decomposes into (S^z when hx = 0, momentum on rings).
+ * - `sectorLevels`: the lowest levels of one sector by Lanczos (lanczos.ts): for one level the plain
+ *   three-term recursion (re-orthogonalization is not needed for the lowest level), for several the
+ *   thick restart with full re-orthogonalization; the memory needed is estimated and checked against
+ *   a budget before anything is allocated (H is stored as a sparse matrix only when it fits too).
+ * - `chainSectors`: the sectors a model decomposes into (S^z when hx = 0, momentum on rings,
+ *   optionally reflection at k = 0, pi or on open chains, and spin inversion / pi rotation about x).
  * - `denseSpectrum`: every level of every (S^z, k) sector by dense diagonalization with the
  *   project's Hermitian eigensolver (rings up to N = 14), for thermal averages: with E_n the levels,
  *   Z = sum_n exp(-E_n / T), U = <E>, C = (<E^2> - <E>^2) / T^2 (k_B = 1, energies and T in one unit),
@@ -12,8 +15,8 @@
 import { InputError } from "../errors.js";
 import { eigenHermitian } from "../numeric/eigenHermitian.js";
 import type { ChainModel } from "./model.js";
-import { ChainSector, allowedSymmetries, sectorMemoryEstimate, type SectorLabel } from "./basis.js";
-import { ChainHamiltonian } from "./operator.js";
+import { ChainSector, allowedSymmetries, sectorMemoryEstimate, sectorName, type SectorLabel } from "./basis.js";
+import { ChainHamiltonian, matrixStoreBytes, matrixStoreEstimate } from "./operator.js";
 import { lowestEigenpairs, type LanczosOptions, type LanczosResult } from "./lanczos.js";
 
 export const defaultMemoryBudget = 1.5e9;
@@ -25,6 +28,8 @@ export interface SectorLevels extends LanczosResult {
   k: number;
   /** Total S^z, or null when not conserved. */
   Sz: number | null;
+  /** Readable sector label ("S^z = 0, k = pi (m = 6), R = +1, F = -1"). */
+  name: string;
   sector: ChainSector;
   hamiltonian: ChainHamiltonian;
 }
@@ -37,6 +42,11 @@ export function checkLabel(model: ChainModel, label: SectorLabel): void {
   if (label.flip !== 0) {
     const ok = label.nUp === null ? sym.flip : sym.flipInSz0 && 2 * label.nUp === model.N;
     if (!ok) throw new InputError("flip", label.flip, "0: spin inversion / pi rotation about x needs hz = 0 (and S^z = 0 when hx = 0)");
+  }
+  if (label.reflection) {
+    if (label.m !== null && !(label.m === 0 || 2 * label.m === model.N)) {
+      throw new InputError("reflection", label.reflection, `0: on a ring the reflection commutes with the translations only at k = 0 and k = pi (m = 0 or ${model.N / 2})`);
+    }
   }
 }
 
@@ -51,27 +61,48 @@ export function sectorLevels(
   const krylov = options.krylov ?? (levels === 1 ? 24 : Math.max(2 * levels + 20, 40));
   const budget = options.memoryBudget ?? defaultMemoryBudget;
   const sector = new ChainSector(model.N, label, budget, krylov);
-  const H = new ChainHamiltonian(model, sector);
-  const r = lowestEigenpairs(H, { ...options, levels, krylov });
+  // the sparse-matrix store only when sector, Krylov vectors and matrix together fit the budget
+  const est = sectorMemoryEstimate(model.N, label, krylov);
+  const H = new ChainHamiltonian(model, sector, { matrix: est.bytes + matrixStoreEstimate(model, sector.dim, sector.complex) <= Math.min(budget, est.bytes + matrixStoreBytes) });
+  // one level: the plain recursion (no re-orthogonalization) unless asked otherwise; several levels
+  // need the orthogonal basis (thick restart)
+  const reorthogonalization = options.reorthogonalization ?? (levels === 1 ? "none" : "full");
+  // an empty sector (no orbit compatible with its characters, e.g. R = -1 of a tiny ring) has no levels
+  const r = sector.dim === 0 ? { values: [], vectors: [], residuals: [], matvecs: 0, restarts: 0 } : lowestEigenpairs(H, { ...options, levels, krylov, reorthogonalization });
   return {
     ...r,
     label,
     dimension: sector.dim,
     k: sector.k,
     Sz: label.nUp === null ? null : label.nUp - model.N / 2,
+    name: sectorName(model.N, label),
     sector,
     hamiltonian: H,
   };
 }
 
-/** All (S^z, k) sectors of a model (no flip label), in a fixed order. */
-export function chainSectors(model: ChainModel, options: { momentum?: boolean } = {}): SectorLabel[] {
+/**
+ * Sectors whose union is the whole Hilbert space, in a fixed order: S^z when hx = 0; momentum on
+ * rings (option `momentum`, default on); with `reflection` the parity R = +-1 where it commutes
+ * (every sector of an open chain, k = 0 and pi on a ring); with `flip` the spin inversion F = +-1
+ * where it applies (hz = 0: in S^z = 0 when hx = 0, everywhere when hx != 0).
+ */
+export function chainSectors(model: ChainModel, options: { momentum?: boolean; reflection?: boolean; flip?: boolean } = {}): SectorLabel[] {
   const sym = allowedSymmetries(model);
+  const N = model.N;
   const useK = (options.momentum ?? true) && sym.translation;
-  const ups: Array<number | null> = sym.Sz ? Array.from({ length: model.N + 1 }, (_, i) => i) : [null];
-  const ms: Array<number | null> = useK ? Array.from({ length: model.N }, (_, i) => i) : [null];
+  const ups: Array<number | null> = sym.Sz ? Array.from({ length: N + 1 }, (_, i) => i) : [null];
+  const ms: Array<number | null> = useK ? Array.from({ length: N }, (_, i) => i) : [null];
   const out: SectorLabel[] = [];
-  for (const nUp of ups) for (const m of ms) out.push({ nUp, m, flip: 0 });
+  for (const nUp of ups) {
+    const flips: Array<0 | 1 | -1> = options.flip && (nUp === null ? sym.flip : sym.flipInSz0 && 2 * nUp === N) ? [1, -1] : [0];
+    for (const m of ms) {
+      const reflectable = options.reflection && sym.reflection && (m === null || m === 0 || 2 * m === N);
+      for (const reflection of (reflectable ? [1, -1] : [0]) as Array<0 | 1 | -1>) {
+        for (const flip of flips) out.push(reflection ? { nUp, m, flip, reflection } : { nUp, m, flip });
+      }
+    }
+  }
   return out;
 }
 
@@ -93,7 +124,7 @@ export interface DenseSpectrum {
 export const maxDenseSites = 14;
 
 /** Every level of every sector by dense diagonalization (eigenvectors optional). */
-export function denseSpectrum(model: ChainModel, options: { vectors?: boolean; momentum?: boolean; maxSites?: number } = {}): DenseSpectrum {
+export function denseSpectrum(model: ChainModel, options: { vectors?: boolean; momentum?: boolean; reflection?: boolean; flip?: boolean; maxSites?: number } = {}): DenseSpectrum {
   const maxN = options.maxSites ?? maxDenseSites;
   if (model.N > maxN) {
     throw new InputError("N", model.N, `at most ${maxN} sites for the full spectrum (dense diagonalization of every sector)`, `2^${model.N} = ${2 ** model.N} states`);

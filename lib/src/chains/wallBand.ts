@@ -254,3 +254,56 @@ export function wallTransverseMagnetization(p: WallParameters, T: number, sample
   }
   return m;
 }
+
+/**
+ * T = 0 transverse line shape S^xx(q, w) = S^yy(q, w) per site of the antiferromagnet in the
+ * two-wall picture, first order in Jperp, hx = hz = 0 (derived here): S^x_q on the Neel state flips
+ * one spin, i.e. makes two walls of one type on neighbouring bonds. With total momentum q fixed the
+ * two walls move in their relative coordinate d = 1, 3, 5, ... (bonds apart); each wall hops by two
+ * bonds with Jperp/2, so in d the hopping is t = Jperp cos q (two paths with phases e^{+-iq}) and the
+ * energy Jz + 2 t cos theta fills [Jz - 2 Jperp|cos q|, Jz + 2 Jperp|cos q|] (the continuum bounds).
+ * The spin flip is the end site d = 1 of this half-infinite chain, whose local density of states is
+ * the semicircle (2 / (pi W^2)) sqrt(W^2 - (w - Jz)^2), W = 2 Jperp |cos q| (a half-infinite uniform
+ * chain: its continued fraction has all a_n = Jz, b_n = |t|). The weight: the ground state to first
+ * order is |A> + c sum_b P_b |A>, P_b exchanging the antiparallel pair of bond b, c = -Jperp / (2 Jz)
+ * (that exchange costs Jz). S^+ at the up site of an exchanged pair gives the same single flip F_o as
+ * S^+ at the odd site o of |A>, from both neighbouring pairs, so <F_o|S^+_{-q}|0> is proportional to
+ * 1 + 2 c cos q and the weight is w(q) = (1/4)(1 - 2 (Jperp / Jz) cos q) to first order (derived
+ * here). So S^xx(q, w) = w(q)(2 / (pi W^2)) sqrt(W^2 - (w - Jz)^2): mean Jz, variance
+ * W^2 / 4 = Jperp^2 cos^2 q (checked against the continued fractions of ED rings, with corrections of
+ * order Jperp^2 / Jz). At q = pi/2 (W = 0) the line is a delta at Jz.
+ * The line shape is returned broadened by a Lorentzian of half width eta (numerical convolution).
+ */
+export function twoWallTransverseLineShape(p: WallParameters, q: number, omega: number[], eta: number): number[] {
+  check(p);
+  if (p.Jz <= 0) throw new InputError("Jz", p.Jz, "an antiferromagnetic Jz > 0 for the two-wall continuum");
+  if (!(eta > 0) || !Number.isFinite(eta)) throw new InputError("eta", eta, "a positive broadening (half width)");
+  const W = 2 * Math.abs(p.Jperp * Math.cos(q));
+  const weight = twoWallTransverseWeight(p, q);
+  const lorentz = (x: number): number => eta / Math.PI / (x * x + eta * eta);
+  if (W < 1e-12 * Math.abs(p.Jz)) return omega.map((w) => weight * lorentz(w - p.Jz));
+  // the semicircle on x = Jz + W cos(theta): weight density (2 / pi) sin^2(theta) d theta (midpoint rule)
+  const n = 400;
+  return omega.map((w) => {
+    let s = 0;
+    for (let i = 0; i < n; i++) {
+      const th = (Math.PI * (i + 0.5)) / n;
+      s += Math.sin(th) ** 2 * lorentz(w - p.Jz - W * Math.cos(th));
+    }
+    return weight * (2 / Math.PI) * (Math.PI / n) * s;
+  });
+}
+
+/** First-order weight of the two-wall transverse line: (1/4)(1 - 2 (Jperp / Jz) cos q), not below 0. */
+export function twoWallTransverseWeight(p: WallParameters, q: number): number {
+  return Math.max(0, 0.25 * (1 - ((2 * p.Jperp) / p.Jz) * Math.cos(q)));
+}
+
+/** The unbroadened semicircle of twoWallTransverseLineShape (for checks): per site, at w. */
+export function twoWallTransverseDensity(p: WallParameters, q: number, w: number): number {
+  check(p);
+  const W = 2 * Math.abs(p.Jperp * Math.cos(q));
+  const x = w - p.Jz;
+  if (W === 0 || Math.abs(x) >= W) return 0;
+  return (twoWallTransverseWeight(p, q) * 2 * Math.sqrt(W * W - x * x)) / (Math.PI * W * W);
+}

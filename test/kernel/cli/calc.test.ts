@@ -83,7 +83,7 @@ describe("helicoid calc", () => {
     // Common practice, no source: a typo or a doubled argument must not be silently ignored or last-wins.
     let r = calc("wall", "--bogus");
     expect(r.status).toBe(2);
-    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --help, -h, --sweep/);
+    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --help, -h, --progress, --sweep/);
     // The usage shown on an error names every option.
     for (const o of ["--sweep NAME=FROM:TO:POINTS", "--json", "--list"]) expect(r.stderr).toContain(o);
     expect(r.stdout).toBe("");
@@ -131,5 +131,37 @@ describe("helicoid calc", () => {
     expect(plain.status).toBe(0);
     expect(plain.stdout).toMatch(/helicoid calc ID --help/);
   });
-});
 
+  it("long exact diagonalizations show progress on stderr with --progress (lines) or on a terminal (in place), never in --json stdout", async () => {
+    // Common practice, no source: progress goes to stderr only; stdout stays one JSON document.
+    // Progress starts after HELICOID_PROGRESS_DELAY_MS (0 here: a fast machine must show it too).
+    process.env.HELICOID_PROGRESS_DELAY_MS = "0";
+    const r = calc("chain-spectrum", "N=18", "levels=1", "--progress", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.outputs.groundSector.value).toMatch(/^S\^z = 0, k = (0 \(m = 0\)|pi \(m = 9\)), R = [+-]1, F = [+-]1$/);
+    expect(r.stderr).toMatch(/^helicoid calc chain-spectrum: +\d+% S\^z = .*\(\d+\.\d s\)$/m);
+    expect(r.stderr).toMatch(/helicoid calc chain-spectrum: done in \d+\.\d s\n$/);
+    // not a terminal and no --progress: nothing on stderr
+    const quiet = calc("chain-spectrum", "N=18", "levels=1", "--json");
+    expect(quiet.status).toBe(0);
+    expect(quiet.stderr).toBe("");
+    // a terminal: one line redrawn with carriage returns and cleared at the end
+    let out = "", err = "";
+    const code = await calcCommand(["chain-spectrum", "N=18", "levels=1"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; }, stderrIsTTY: true });
+    expect(code).toBe(0);
+    expect(err).toMatch(/^\rhelicoid calc chain-spectrum: /);
+    expect(err).not.toContain("\n");
+    expect(err).toMatch(/\r +\r$/);
+    expect(out).toMatch(/groundSector/);
+    delete process.env.HELICOID_PROGRESS_DELAY_MS;
+  });
+
+  it("refuses an exact diagonalization over the work budget before starting, with the estimate", () => {
+    const r = calc("chain-spectrum", "N=24", "levels=4", "--progress", "--json");
+    expect(r.status).toBe(2);
+    expect(JSON.parse(r.stdout)).toMatchObject({ id: "chain-spectrum", status: "error", error: { type: "InputError", parameter: "N" } });
+    expect(r.stderr).toMatch(/N = "24" is not valid: expected a request within the budget: this one needs about [0-9.e+]+ elementary steps .* states in the symmetry sectors of a ring of 24 sites/);
+    expect(r.stderr).not.toMatch(/%/);
+  });
+});

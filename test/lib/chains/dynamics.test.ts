@@ -42,7 +42,9 @@ for n in c["q"]:
         w = np.conj(M[a]) * M[b] * p[None, :]
         return (L * w[None]).sum(axis=(1, 2)), w.sum()
     zz, wzz = chan("z", "z"); xx, wxx = chan("x", "x"); yz, wyz = chan("y", "z")
-    out[str(n)] = dict(zz=zz.real.tolist(), xx=xx.real.tolist(), chiral=(-2 * yz.imag).tolist(), wzz=float(wzz.real), wchiral=float(-2 * wyz.imag))
+    yy, wyy = chan("y", "y"); xy, wxy = chan("x", "y"); xz, wxz = chan("x", "z")
+    out[str(n)] = dict(zz=zz.real.tolist(), xx=xx.real.tolist(), chiral=(-2 * yz.imag).tolist(), wzz=float(wzz.real), wchiral=float(-2 * wyz.imag),
+                       yy=yy.real.tolist(), xyre=xy.real.tolist(), xyim=xy.imag.tolist(), xzre=xz.real.tolist(), xzim=xz.imag.tolist())
 print(json.dumps(out))
 `;
 
@@ -68,6 +70,31 @@ describe("S(q, w) against numpy (dense 2^N matrices built in Python)", () => {
       });
     });
   }
+});
+
+describe("S(q, w) with the pi rotation about x as a symmetry (hz = 0: parity sectors used)", () => {
+  it("every channel (xx, yy, zz, xy, xz, chiral) at T = 0 against numpy", () => {
+    // Source: the numpy oracle above (no symmetry used there); ours splits each operator into its
+    // parts even (S^x) and odd (S^y, S^z) under the rotation and sums their continued fractions.
+    const c = { N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0, T: 0, eta: 0.15, omega, q: [0, 1, 3, 4] };
+    type Ref = Record<string, { zz: number[]; xx: number[]; yy: number[]; chiral: number[]; xyre: number[]; xyim: number[]; xzre: number[]; xzim: number[] }>;
+    const ref = runPython<Ref>(oracle, c);
+    const r = dynamicStructureFactor(chainModel({ N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0 }), { T: 0, eta: 0.15, omega, qIndices: c.q, components: ["xx", "yy", "zz", "xy", "xz", "chiral"] });
+    expect(r.method).toMatch(/parity/);
+    c.q.forEach((n, i) => {
+      const rf = ref[String(n)]!;
+      for (let t = 0; t < omega.length; t++) {
+        expect(r.channels.xx!.re[i]![t]).toBeCloseTo(rf.xx[t]!, 6);
+        expect(r.channels.yy!.re[i]![t]).toBeCloseTo(rf.yy[t]!, 6);
+        expect(r.channels.zz!.re[i]![t]).toBeCloseTo(rf.zz[t]!, 6);
+        expect(r.channels.chiral!.re[i]![t]).toBeCloseTo(rf.chiral[t]!, 6);
+        expect(r.channels.xy!.re[i]![t]).toBeCloseTo(rf.xyre[t]!, 6);
+        expect(r.channels.xy!.im![i]![t]).toBeCloseTo(rf.xyim[t]!, 6);
+        expect(r.channels.xz!.re[i]![t]).toBeCloseTo(rf.xzre[t]!, 6);
+        expect(r.channels.xz!.im![i]![t]).toBeCloseTo(rf.xzim[t]!, 6);
+      }
+    });
+  });
 });
 
 describe("sum rules", () => {

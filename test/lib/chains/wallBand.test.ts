@@ -12,6 +12,11 @@ import {
   villainEdge,
   villainLineShape,
   wallDensity,
+  twoWallTransverseLineShape,
+  twoWallTransverseDensity,
+  twoWallTransverseWeight,
+  ChainHamiltonian,
+  lanczosTridiagonal,
   wallTransverseMagnetization,
   besselI0,
   dynamicStructureFactor,
@@ -168,5 +173,61 @@ describe("continuum and transverse magnetization", () => {
     expect(() => domainWallBand({ Jz: 0, Jperp: 1, hx: 0, hz: 0 }, [0])).toThrow(InputError);
     expect(() => wallDensity({ Jz: 1, Jperp: 1, hx: 0, hz: 0 }, -1)).toThrow(/T/);
     expect(domainWallBand({ Jz: 1, Jperp: 0.8, hx: 0, hz: 0 }, [0]).notes.join(" ")).toMatch(/not small/);
+  });
+});
+
+describe("T = 0 two-wall transverse line shape (thermodynamic-limit model)", () => {
+  it("the semicircle has weight (1/4)(1 - 2 (Jperp/Jz) cos q), mean Jz and variance Jperp^2 cos^2 q (numerical integration of the closed form)", () => {
+    // Derived in lib/src/chains/wallBand.ts; here the moments of the function are integrated numerically.
+    const p = { Jz: 10, Jperp: 1, hx: 0, hz: 0 };
+    for (const q of [0.3, 1.0, 2.5]) {
+      const W = 2 * Math.abs(Math.cos(q));
+      let m0 = 0, m1 = 0, m2 = 0;
+      const n = 20000;
+      for (let i = 0; i < n; i++) {
+        const w = p.Jz - W + (2 * W * (i + 0.5)) / n;
+        const d = twoWallTransverseDensity(p, q, w) * ((2 * W) / n);
+        m0 += d;
+        m1 += d * w;
+        m2 += d * w * w;
+      }
+      const w0 = 0.25 * (1 - 0.2 * Math.cos(q));
+      expect(m0).toBeCloseTo(w0, 4);
+      expect(m1 / m0).toBeCloseTo(p.Jz, 6);
+      expect(m2 / m0 - (m1 / m0) ** 2).toBeCloseTo(Math.cos(q) ** 2, 3);
+      // the broadened shape keeps the weight (Lorentzian tails aside) and peaks at Jz
+      const omega = Array.from({ length: 4001 }, (_, i) => p.Jz - 40 + (80 * i) / 4000);
+      const b = twoWallTransverseLineShape(p, q, omega, 0.05);
+      const area = b.reduce((a, x) => a + x, 0) * (80 / 4000);
+      expect(Math.abs(area - w0)).toBeLessThan(0.25 * (2 * 0.05) / (Math.PI * 40) + 1e-3);
+    }
+  });
+
+  it("agrees with the continued fraction of an ED ring: weight, mean and width of S^+_q|0> to O(Jperp^2/Jz)", () => {
+    // Source: E. Gagliano, C. Balseiro, PRL 59, 2999 (1987): the first Lanczos coefficients of
+    // phi = S^+_{-q}|0> / 2 are its weight <phi|phi>, mean a_0 - E_0 and width b_1 (the semicircle's
+    // are w(q)/2 per S^+ half of S^x, Jz and Jperp |cos q|). The weight's first-order factor
+    // 1 - 2 (Jperp/Jz) cos q is checked here too (without it the deviation is 0.04 at q = 2 pi/14).
+    const N = 14, Jz = 10, Jperp = 1;
+    const model = chainModel({ N, Jz, Jperp });
+    const gs = sectorLevels(model, { nUp: N / 2, m: 0, flip: 0 }, { tol: 1e-12 });
+    const src = gs.sector;
+    const g = toComplex(gs.vectors[0]!, false);
+    for (const n of [1, 3, 5]) {
+      const q = (2 * Math.PI * n) / N;
+      const dst = new ChainSector(N, { nUp: N / 2 + 1, m: N - n, flip: 0 });
+      const Hd = new ChainHamiltonian(model, dst);
+      const phi = new Float64Array(2 * dst.dim);
+      const s = 1 / (2 * Math.sqrt(N));
+      applyBetweenSectors(src, dst, (a, emit) => {
+        for (let j = 0; j < N; j++) if (!((a >>> j) & 1)) emit((a | (1 << j)) >>> 0, s * Math.cos(q * j), s * Math.sin(q * j));
+      }, g, phi);
+      const t = lanczosTridiagonal(Hd, phi, 3);
+      const tol = (3 * Jperp * Jperp) / Jz;
+      // S^x = (S^+ + S^-)/2, both halves equal by spin inversion: weight of S^xx = 2 <phi|phi>
+      expect(Math.abs(2 * t.norm2 - twoWallTransverseWeight({ Jz, Jperp, hx: 0, hz: 0 }, q))).toBeLessThan(0.25 * (Jperp / Jz) ** 2 * 4);
+      expect(Math.abs(t.a[0]! - gs.values[0]! - Jz)).toBeLessThan(tol);
+      expect(Math.abs(t.b[1]! - Jperp * Math.abs(Math.cos(q)))).toBeLessThan(tol);
+    }
   });
 });
