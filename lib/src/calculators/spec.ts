@@ -563,10 +563,13 @@ function guardedOutputs(spec: CalculatorSpec): Record<string, OutputEntry> {
       const decl = declared.get(key);
       if (decl?.optional) return undefined;
       const have = Object.keys(receiver as object);
+      const absent = [...declared.keys()].filter((n) => !have.includes(n));
       const why = decl
-        ? `'${key}' is an output of '${spec.id}' that this result does not have (not computed for these inputs: see the result's status and notes)`
-        : `'${key}' is not an output of '${spec.id}' (its outputs: ${[...declared.keys()].join(", ")})`;
-      throw new InputError("output", key, `one of the outputs this result of '${spec.id}' has: ${have.join(", ") || "(none)"}`, why);
+        ? `'${key}' is an output of '${spec.id}' that was not computed for these inputs (see the result's status and notes)`
+        : absent.length
+          ? `Outputs of '${spec.id}' not computed for these inputs: ${absent.join(", ")}`
+          : undefined;
+      throw new InputError("output", key, `one of the outputs of this '${spec.id}' result: ${have.join(", ") || "(none)"}`, why);
     },
   });
   return Object.create(proto) as Record<string, OutputEntry>;

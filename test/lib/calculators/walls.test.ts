@@ -26,7 +26,7 @@ function inputError(fn: () => unknown): InputError {
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = r.outputs[o.name]?.value;
+    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {
@@ -177,6 +177,6 @@ print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t
     expect(wt.notes.join(" ")).toMatch(/negative energy/);
     expect(wt.outputs.saturationField!.value as number).toBeGreaterThan(0);
     const sub = runCalculator(getCalculator("wall-type"), { ...p, D: "1.5 mJ/m^2" });
-    expect(sub.outputs.saturationField).toBeUndefined();
+    expect("saturationField" in sub.outputs).toBe(false);
   });
 });
