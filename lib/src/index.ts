@@ -15,6 +15,7 @@ export * from "./fit/index.js";
 export * from "./io/index.js";
 export * from "./calculators/index.js";
 export * from "./result.js";
+export { report } from "./report.js";
 export * from "./chains/index.js";
 export * from "./ions/index.js";
 export * from "./lattices/index.js";
