@@ -50,7 +50,7 @@ describe("typed calculators in notebook cells", () => {
         "const x: number[] = wall.outputs.x.value;",
         "const kind: string = wall.outputs.regime.value;",
         'console.log(`width ${(width * 1e9).toFixed(3)} nm, ${x.length} points, ${kind.length > 0}`);',
-        "try { (wall.outputs as Record<string, { value: number }>).widht.value; } catch (e) { console.log(`${(e as Error).name}|${e instanceof InputError}|${(e as Error).message}`); }",
+        "const untyped: any = wall.outputs; // as plain JavaScript would read it\ntry { untyped.widht.value; } catch (e) { console.log(`${(e as Error).name}|${e instanceof InputError}|${(e as Error).message}`); }",
       ].join("\n"),
     ]);
     expect(r.status, r.stderr + errorText(r.cells.flatMap((c) => c.outputs))).toBe(0);
