@@ -14,6 +14,8 @@ export * from "./berry/index.js";
 export * from "./fit/index.js";
 export * from "./io/index.js";
 export * from "./calculators/index.js";
+export * from "./result.js";
+export { report } from "./report.js";
 export * from "./chains/index.js";
 export * from "./ions/index.js";
 export * from "./lattices/index.js";

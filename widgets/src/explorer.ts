@@ -590,7 +590,7 @@ export class ExplorerView extends DOMWidgetView {
    */
   private renderTable(result: CalculatorResult): void {
     const spec = this.spec!;
-    const shown = spec.outputs.filter((o) => (o.kind ?? "scalar") !== "array" && result.outputs[o.name]);
+    const shown = spec.outputs.filter((o) => (o.kind ?? "scalar") !== "array" && o.name in result.outputs);
     const notes = result.notes ?? [];
     const key = JSON.stringify([shown.map((o) => o.name), result.status, notes]);
     if (key !== this.tableKey) {

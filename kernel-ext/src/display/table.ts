@@ -3,12 +3,20 @@
  * in Markdown, LaTeX, HTML and plain text, with the result's assumptions, method and sources below
  * it, so a notebook documents an analysis with no extra typing.
  */
-import { catalogue, formatQuantity, formatWithError, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
+import { catalogue, formatQuantity, formatWithError, isDocumentedResult, type CalculatorResult, type CalculatorSpec, type DocumentedResult } from "@helicoid/lib";
 import { mimeBundle, type Displayable } from "./bundle.js";
 import type { MimeBundle } from "./output.js";
 
 type Entry = { value: number | number[] | string; unit: string; /** one standard deviation, SI */ uncertainty?: number };
-export type TableInput = CalculatorResult | Record<string, Entry>;
+/**
+ * What `table()` shows: a calculator result, any documented result (a fit, a field-series fit, a
+ * charge analysis: its inputs, parameters with standard errors, and story), or a record of
+ * {value, unit}.
+ */
+export type TableInput = CalculatorResult<string, object> | DocumentedResult | Record<string, Entry>;
+
+/** A documented result's fitted parameters, when it has them (fits, field-series fits). */
+type WithParameters = DocumentedResult & { title?: string; model?: string; parameters?: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean }> };
 
 interface Row {
   section: string;
@@ -20,6 +28,17 @@ interface Row {
 
 function isResult(x: TableInput): x is CalculatorResult {
   return typeof (x as CalculatorResult).id === "string" && typeof (x as CalculatorResult).outputs === "object";
+}
+
+/** The notes below a table: status, message, notes, assumptions, method, sources. */
+function storyOf(r: DocumentedResult): string[] {
+  return [
+    ...(r.status !== "ok" ? [`Status: ${r.status}${r.message ? ` (${r.message})` : ""}`] : r.message ? [r.message] : []),
+    ...r.notes.map((n) => `Note: ${n}`),
+    ...(r.assumptions ?? []).map((a) => `Assumption: ${a}`),
+    `Method: ${r.method}`,
+    ...r.sources.map((s) => `Source: ${s}`),
+  ];
 }
 
 export function formatEntry(e: Entry): string {
@@ -41,7 +60,7 @@ export class ResultTable implements Displayable {
   readonly notes: string[];
   readonly title: string;
   constructor(readonly input: TableInput) {
-    if (!input || typeof input !== "object") throw new TypeError(`table: got ${typeof input}; expected a calculator result or a record of {value, unit}`);
+    if (!input || typeof input !== "object") throw new TypeError(`table: got ${typeof input}; expected a calculator result, a documented result (a fit ...) or a record of {value, unit}`);
     this.rows = [];
     if (isResult(input)) {
       const spec: CalculatorSpec | undefined = catalogue.find((s) => s.id === input.id);
@@ -55,16 +74,18 @@ export class ResultTable implements Displayable {
           this.rows.push({ section, name, symbol: def?.symbol ?? "", meaning: def?.meaning ?? "", value: formatEntry(e) });
         }
       }
-      this.notes = [
-        ...(input.status !== "ok" ? [`Status: ${input.status}`] : []),
-        ...input.notes.map((n) => `Note: ${n}`),
-        ...input.assumptions.map((a) => `Assumption: ${a}`),
-        `Method: ${input.method}`,
-        ...input.sources.map((s) => `Source: ${s}`),
-      ];
+      this.notes = storyOf(input);
+    } else if (isDocumentedResult(input)) {
+      const r = input as WithParameters;
+      this.title = r.title ?? r.model ?? "";
+      for (const [name, e] of Object.entries(r.inputs ?? {})) this.rows.push({ section: "Inputs", name, symbol: "", meaning: "", value: formatEntry(e) });
+      for (const [name, p] of Object.entries(r.parameters ?? {})) {
+        this.rows.push({ section: "Results", name, symbol: "", meaning: p.fixed ? "fixed" : "", value: p.fixed ? formatQuantity(p.value, p.unit) : formatWithError(p.value, p.stderr, p.unit) });
+      }
+      this.notes = storyOf(r);
     } else {
       this.title = "";
-      for (const [name, e] of Object.entries(input)) this.rows.push({ section: "", name, symbol: "", meaning: "", value: formatEntry(e) });
+      for (const [name, e] of Object.entries(input as Record<string, Entry>)) this.rows.push({ section: "", name, symbol: "", meaning: "", value: formatEntry(e) });
       this.notes = [];
     }
   }

@@ -5,7 +5,9 @@
  * tables (`__k` is stored as `___k`). tslab 1.0.22 collects a cell's declarations from those tables
  * and writes the escaped names back into source (`export { ___k }`, `let ___k: any;`), so
  * `const __k = 1; __k + 1` fails with "Cannot find name '___k'". Here the names are unescaped with
- * `ts.unescapeLeadingUnderscores` where tslab turns them into text. The converter module is compiled
+ * `ts.unescapeLeadingUnderscores` where tslab turns them into text. A second edit turns on
+ * `noErrorTruncation`, so a type error shows the whole type (the outputs of a calculator result,
+ * the ids of the catalogue) instead of "... 25 more ...". The converter module is compiled
  * from tslab's own file (same folder, same dependencies); each edit must match exactly once, so a
  * different tslab release fails loudly here instead of silently running unpatched.
  */
@@ -41,6 +43,10 @@ const edits: Array<[string, string]> = [
             if (!ts.isIdentifier(node)) {
                 return ts.visitEachChild(node, wrapPrevIdentifier, nullTransformationContext);`,
   ],
+  // Whole types in error messages: a misspelt output of a calculator result then lists every
+  // output ("Property 'radus' does not exist on type '{ radius: ...; wallWidth: ...; ... }'"),
+  // where TypeScript would cut the type after 160 characters.
+  ["        skipLibCheck: true,\n", "        skipLibCheck: true,\n        noErrorTruncation: true,\n"],
 ];
 
 let cached: typeof converterModule | null = null;

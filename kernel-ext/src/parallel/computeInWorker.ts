@@ -12,7 +12,7 @@
 import { existsSync } from "node:fs";
 import { join } from "node:path";
 import { Worker } from "node:worker_threads";
-import type { CalculatorResult, ComputeOptions, QuantityInput } from "@helicoid/lib";
+import type { CalculatorId, CalculatorInputs, CalculatorResult, ComputeOptions, QuantityInput, ResultOf, SpecById } from "@helicoid/lib";
 import { currentContext, realTimers } from "../display/output.js";
 
 let displays = 0;
@@ -30,7 +30,11 @@ export interface WorkerComputeOptions extends ComputeOptions {
   progress?: boolean;
 }
 
-export function computeInWorker(id: string, inputs: Record<string, QuantityInput | undefined> = {}, options: WorkerComputeOptions = {}): Promise<CalculatorResult> {
+/** A calculator of the catalogue by id: typed inputs (a film accepted) and a typed result, as `runCalculator`. */
+export function computeInWorker<Id extends CalculatorId>(id: Id, inputs?: CalculatorInputs<SpecById<Id>>, options?: WorkerComputeOptions): Promise<ResultOf<SpecById<Id>>>;
+/** An id held in a `string` variable (a literal id must be one of the catalogue's). */
+export function computeInWorker<T extends string>(id: string extends T ? T : never, inputs?: Record<string, QuantityInput | undefined>, options?: WorkerComputeOptions): Promise<CalculatorResult>;
+export function computeInWorker(id: string, inputs: object = {}, options: WorkerComputeOptions = {}): Promise<CalculatorResult> {
   const { progress = true, ...compute } = options;
   const ctx = currentContext();
   const displayId = `helicoid-progress-${process.pid}-${++displays}`;

@@ -13,7 +13,7 @@ import {
   catalogue, coerceInputs, defaultSweep, getCalculator, runCalculator, InputError,
   type CalculatorResult, type CalculatorSpec, type ComputeOutput, type InputSpec, type InputValues, type OutputSpec,
 } from "@helicoid/lib";
-import type { QuantityInput } from "@helicoid/lib";
+import type { Film, QuantityInput } from "@helicoid/lib";
 import { KERNEL_VERSION } from "../version.js";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
@@ -102,7 +102,7 @@ export class Explorer extends Widget<ExplorerState> {
   readonly spec: CalculatorSpec;
   private readonly catalogueId: string;
 
-  constructor(calculator: string | CalculatorSpec | PlainFunction, overrides: Record<string, QuantityInput> = {}, options: ExploreOptions = {}) {
+  constructor(calculator: string | CalculatorSpec | PlainFunction, overrides: ExploreInputs = {}, options: ExploreOptions = {}) {
     let spec: CalculatorSpec;
     let catalogueId = "";
     let functionName = "";
@@ -118,7 +118,7 @@ export class Explorer extends Widget<ExplorerState> {
     } else {
       throw new InputError("calculator", calculator, "a catalogue id, a CalculatorSpec, or a function with options.describe");
     }
-    const inputs = coerceInputs(spec, overrides);
+    const inputs = coerceInputs(spec, overrides as Record<string, QuantityInput | undefined>);
     const sweep = options.sweep === undefined ? defaultSweep(spec, inputs) ?? null : options.sweep;
     const computeIn = catalogueId ? options.computeIn ?? "browser" : "kernel";
     let result: CalculatorResult | null = null;
@@ -208,6 +208,9 @@ export class Explorer extends Widget<ExplorerState> {
 }
 
 /** Open an explorer: `explore("skyrmion", { D: "3.5 mJ/m^2" })`, or a spec / function of your own. */
-export function explore(calculator: string | CalculatorSpec | PlainFunction, overrides: Record<string, QuantityInput> = {}, options: ExploreOptions = {}): Explorer {
+/** Inputs of an explorer: by name (SI numbers or strings with units), or a film (`makeFilm`). */
+export type ExploreInputs = Record<string, QuantityInput | undefined> | Film;
+
+export function explore(calculator: string | CalculatorSpec | PlainFunction, overrides: ExploreInputs = {}, options: ExploreOptions = {}): Explorer {
   return new Explorer(calculator, overrides, options);
 }

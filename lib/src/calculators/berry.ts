@@ -7,6 +7,7 @@
  * compute functions receive them in J. Defaults use invented demo materials.
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { kB, muB } from "../quantity/constants.js";
 import { coneLoop } from "../berry/loopOnSphere.js";
@@ -91,7 +92,7 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
   };
 }
 
-export const berryLoopSpec: CalculatorSpec = {
+export const berryLoopSpec = defineCalculator({
   id: "berry-loop",
   title: "Spin Berry phase around a cone",
   summary: "Berry phase of a spin S in each state m along its axis when the axis runs once counterclockwise (seen from +z) around a cone of half-angle theta: geometric -m Omega and the gauge-invariant product of overlaps of rotated spin-S states, against -m 2 pi (1 - cos theta).",
@@ -138,7 +139,7 @@ export const berryLoopSpec: CalculatorSpec = {
     return { bytes: 16 * d * d * (N + 2) + 64 * N, steps: 20 * d * d * d * (N + sweep) + 50 * N, parameter: driver, what: `${N} loop vertices with ${d} x ${d} rotated spin states each` };
   },
   compute: computeBerryLoop,
-};
+});
 
 // ---------------------------------------------------------------- chern (Haldane phase diagram)
 /** Largest grid the chern calculator refines to (the work bound). */
@@ -193,7 +194,7 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
 }
 
-export const chernSpec: CalculatorSpec = {
+export const chernSpec = defineCalculator({
   id: "chern",
   title: "Chern numbers of the Haldane model",
   summary: "Chern numbers of the two bands of the Haldane model (honeycomb lattice, NN hopping t1 = 1, complex NNN hopping t2 e^{+-i phi}, sublattice mass M) by link variables on an n x n zone grid, the phase diagram against M, and the closed-form boundary |M| = 3 sqrt(3) |t2 sin phi|. Points the grid cannot resolve are reported, never guessed.",
@@ -236,7 +237,7 @@ export const chernSpec: CalculatorSpec = {
     return { bytes: 200 * g * g + 80 * sg * sg, steps: 400 * cells, parameter: sweep * sg * sg > g * g ? "sweepGrid" : "grid", what: `${g}^2 k-points, plus ${sweep} sweep points of ${sg}^2` };
   },
   compute: computeChern,
-};
+});
 
 // ---------------------------------------------------------------- magnon-hall
 function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -290,7 +291,7 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
   return { values, status: warn ? "warning" : "ok", notes };
 }
 
-export const magnonHallSpec: CalculatorSpec = {
+export const magnonHallSpec = defineCalculator({
   id: "magnon-hall",
   title: "Topological magnons and thermal Hall effect of a honeycomb ferromagnet",
   summary: "Linear spin waves of a honeycomb ferromagnet with exchange J, next-nearest-neighbour DMI D (along z) and a field B along the magnetization: band range, gap at K, Chern numbers of the two bands, and the magnon thermal Hall conductivity kappa_xy per layer against temperature.",
@@ -339,7 +340,7 @@ export const magnonHallSpec: CalculatorSpec = {
     T: { above: 0, why: "a temperature" },
   },
   compute: computeMagnonHall,
-};
+});
 
 // ---------------------------------------------------------------- spin-tunnel
 function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -429,7 +430,7 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
   return { values, status: warn ? "warning" : "ok", notes };
 }
 
-export const spinTunnelSpec: CalculatorSpec = {
+export const spinTunnelSpec = defineCalculator({
   id: "spin-tunnel",
   title: "Quenching of spin tunnelling by a hard-axis field",
   summary: "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B.S (B at azimuth phi_B from the hard axis x in the hard plane) by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
@@ -473,7 +474,7 @@ export const spinTunnelSpec: CalculatorSpec = {
     Bmax: { above: 0, why: "the largest field searched" },
   },
   compute: computeSpinTunnel,
-};
+});
 
 // ---------------------------------------------------------------- easy-plane
 function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -505,7 +506,7 @@ function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): Compute
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
-export const easyPlaneSpec: CalculatorSpec = {
+export const easyPlaneSpec = defineCalculator({
   id: "easy-plane",
   title: "Easy-plane spin in a hard-axis field: steps and rotor form",
   summary: "H = D Sz^2 - g muB B Sz: level crossings at g muB B = D (2m + 1), the T = 0 magnetization staircase, and <Sz>(B, T) by the exact finite sum and by the rotor (Jacobi theta function) form; integer and half-integer spins differ by a half step.",
@@ -542,7 +543,7 @@ export const easyPlaneSpec: CalculatorSpec = {
     return { bytes: 8 * (d + 4 * fields) + 8 * d, steps: 30 * d * fields, parameter: "twoS", what: `${d} levels at ${fields} fields` };
   },
   compute: computeEasyPlane,
-};
+});
 
 /** Calculator specs of the berry domain. */
-export const berryCalculators: CalculatorSpec[] = [berryLoopSpec, chernSpec, magnonHallSpec, spinTunnelSpec, easyPlaneSpec];
+export const berryCalculators = [berryLoopSpec, chernSpec, magnonHallSpec, spinTunnelSpec, easyPlaneSpec];

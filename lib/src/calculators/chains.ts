@@ -9,6 +9,7 @@
  * flattened arrays (row-major: q index, then w) next to cuts at q = pi and the bounds against q.
  */
 import type { CalculatorSpec, ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { chainModel, kelvinToGHz, kelvinToMeV, ringLabel, type ChainModel } from "../chains/model.js";
@@ -39,7 +40,7 @@ const chainSources = [
 ];
 const wallSources = ["J. Villain, Physica B 79, 1 (1975)", "S. Ishimura, H. Shiba, Prog. Theor. Phys. 63, 743 (1980)"];
 
-const energyInput = (name: string, symbol: string, def: number, min: number, max: number, meaning: string) =>
+const energyInput = <N extends string>(name: N, symbol: string, def: number, min: number, max: number, meaning: string) =>
   ({ name, symbol, unit: "K", default: def, min, max, scale: "linear" as const, meaning: `${meaning} (E / k_B)` });
 
 const modelInputs = [
@@ -200,7 +201,7 @@ function computeChainSpectrum(v: InputValues, options: ComputeOptions = {}): Com
   return { values, status: "ok", notes };
 }
 
-export const chainSpectrumSpec: CalculatorSpec = {
+export const chainSpectrumSpec = defineCalculator({
   id: "chain-spectrum",
   title: "Spin-1/2 XXZ chain: levels per momentum by exact diagonalization",
   summary:
@@ -240,7 +241,7 @@ export const chainSpectrumSpec: CalculatorSpec = {
   method: "exact diagonalization in symmetry sectors (combinatorial ranking, sparse or matrix-free H, Lanczos: plain recursion for one level, thick restart for several)",
   cost: chainSpectrumCost,
   compute: computeChainSpectrum,
-};
+});
 
 // ---------------------------------------------------------------- chain-dynamics
 /** Largest N for exact diagonalization in the dynamics calculator; above it the thermodynamic-limit model. */
@@ -390,7 +391,7 @@ function thermodynamicLimitDynamics(v: InputValues, N: number): ComputeOutput {
   return { values, status: "warning", notes };
 }
 
-export const chainDynamicsSpec: CalculatorSpec = {
+export const chainDynamicsSpec = defineCalculator({
   id: "chain-dynamics",
   title: "Dynamic structure factor S(q, w) of a spin-1/2 ring, with the chiral channel",
   summary:
@@ -440,7 +441,7 @@ export const chainDynamicsSpec: CalculatorSpec = {
   method: "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors for N <= 16; above, the thermodynamic-limit domain-wall model (two-wall semicircle, Villain intraband scattering)",
   cost: chainDynamicsCost,
   compute: computeChainDynamics,
-};
+});
 
 // ---------------------------------------------------------------- wall-band
 function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -503,7 +504,7 @@ function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeO
   return { values, status: "ok", notes };
 }
 
-export const wallBandSpec: CalculatorSpec = {
+export const wallBandSpec = defineCalculator({
   id: "wall-band",
   title: "Domain-wall band of an Ising-like chain (first order)",
   summary:
@@ -553,6 +554,6 @@ export const wallBandSpec: CalculatorSpec = {
   sources: wallSources,
   method: "degenerate first-order perturbation theory in the one-wall manifold (2 x 2 Bloch Hamiltonian), derived in lib/src/chains/wallBand.ts and checked against exact diagonalization",
   compute: computeWallBand,
-};
+});
 
-export const chainCalculators: CalculatorSpec[] = [chainSpectrumSpec, chainDynamicsSpec, wallBandSpec];
+export const chainCalculators = [chainSpectrumSpec, chainDynamicsSpec, wallBandSpec];

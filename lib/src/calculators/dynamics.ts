@@ -9,6 +9,7 @@
  * invented DMI-free film for the nanocontact (values below, labelled invented).
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
+import { defineCalculator, inputList, outputList } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, wallWidthParameter } from "../material/film.js";
@@ -44,24 +45,24 @@ import {
 
 const demo = demoFilmHX1.film;
 
-const filmInputs: InputSpec[] = [
+const filmInputs = inputList([
   { name: "Ms", symbol: "M_s", unit: "A/m", default: demo.Ms, min: 0.4e6, max: 1.2e6, scale: "linear", meaning: "saturation magnetization" },
   { name: "A", symbol: "A", unit: "J/m", default: demo.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "exchange stiffness" },
   { name: "Ku", symbol: "K_u", unit: "J/m^3", default: demo.Ku, min: 1.0e6, max: 3.0e6, scale: "linear", meaning: "uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)" },
   { name: "D", symbol: "D", unit: "J/m^2", default: demo.D, min: 0, max: 3e-3, scale: "linear", meaning: "interfacial DMI constant (D > 0: Neel walls pointing toward the +z domain)" },
   { name: "t", symbol: "t", unit: "m", default: demo.t, min: 0.4e-9, max: 3e-9, scale: "linear", meaning: "film thickness" },
   { name: "alpha", symbol: "\\alpha", unit: "", default: demo.alpha ?? 0.3, min: 0.01, max: 1, scale: "log", meaning: "Gilbert damping" },
-];
+]);
 
-const currentInputs: InputSpec[] = [
+const currentInputs = inputList([
   { name: "j", symbol: "j", unit: "A/m^2", default: 0, min: 0, max: 3e12, scale: "linear", meaning: "current density along +x (electron flow along +x for the spin-transfer torque)" },
   { name: "P", symbol: "P", unit: "", default: 0.5, min: 0, max: 1, scale: "linear", meaning: "spin polarization of the current (spin-transfer torque)" },
   { name: "beta", symbol: "\\beta", unit: "", default: 0.1, min: 0, max: 1, scale: "linear", meaning: "non-adiabatic spin-transfer parameter" },
   { name: "thetaSH", symbol: "\\theta_{SH}", unit: "", default: 0, min: -0.3, max: 0.3, scale: "linear", meaning: "spin Hall angle of the underlayer (damping-like spin-orbit torque; 0 switches it off)" },
   { name: "fieldLike", symbol: "\\xi_{FL}", unit: "", default: 0, min: -2, max: 2, scale: "linear", meaning: "field-like spin-orbit field as a multiple of the damping-like one (along +y)" },
-];
+]);
 
-const wallInputs: InputSpec[] = [
+const wallInputs = inputList([
   ...filmInputs,
   { name: "Bz", symbol: "\\mu_0 H_z", unit: "T", default: 0.05, min: 0, max: 0.3, scale: "linear", meaning: "out-of-plane field along +z (expands the +z domain)" },
   { name: "Bx", symbol: "\\mu_0 H_x", unit: "T", default: 0, min: -0.2, max: 0.2, scale: "linear", meaning: "in-plane field along the wall normal x" },
@@ -81,7 +82,7 @@ const wallInputs: InputSpec[] = [
     ],
     meaning: "wall polarity: up-down (+z domain at x < q) or down-up",
   },
-];
+]);
 
 const wallAssumptions = [
   "Collective coordinates (position q, in-plane angle phi) of a rigid 180-degree wall, width Delta = sqrt(A / K_eff) fixed (wall-trace can add a breathing width Delta(t); the closed forms keep it fixed).",
@@ -161,7 +162,7 @@ function scalarWallOutputs(s: WallSetup, v: InputValues): ComputeOutput["values"
   return values;
 }
 
-const wallScalarOutputs = [
+const wallScalarOutputs = outputList([
   { name: "velocity", symbol: "v", unit: "m/s", meaning: "steady velocity, or mean velocity above breakdown (period integral), at the given drive" },
   { name: "regime", symbol: "", unit: "", kind: "text" as const, meaning: "steady or precessing" },
   { name: "precessionFrequency", symbol: "f_\\phi", unit: "Hz", meaning: "mean precession frequency of phi (0 below breakdown)" },
@@ -177,7 +178,7 @@ const wallScalarOutputs = [
   { name: "spinOrbitSaturation", symbol: "v_{sat}", unit: "m/s", meaning: "saturation speed under a large spin-orbit torque, (pi/2) gamma |D| / Ms" },
   { name: "pinningCurrent", symbol: "j_c", unit: "A/m^2", meaning: "intrinsic-pinning current density (beta = 0, no field): below it spin-transfer torque alone does not move the wall" },
   { name: "walkerCurrent", symbol: "j_W", unit: "A/m^2", meaning: "spin-transfer Walker current density for the given beta (absent when beta = alpha)" },
-];
+]);
 
 function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOptions, spec: CalculatorSpec): ComputeOutput {
   const s = wallSetup(v);
@@ -205,7 +206,7 @@ function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOpti
   return { values, status: s.notes.length ? "warning" : "ok", notes };
 }
 
-const wallMotionSpec: CalculatorSpec = {
+const wallMotionSpec = defineCalculator({
   id: "wall-motion",
   title: "Wall velocity against field (Walker breakdown)",
   summary:
@@ -225,10 +226,10 @@ const wallMotionSpec: CalculatorSpec = {
   assumptions: wallAssumptions,
   sources: wallSources,
   method: "Closed forms of the collective-coordinate equations: first zero of dphi/dt from the rest angle (steady), exact extremes of a degree-two trigonometric polynomial (Walker thresholds), periodic trapezoid with doubling to 1e-13 (period integrals above breakdown).",
-  compute: (v, o = {}) => computeWallSweep(v, "Bz", o, wallMotionSpec),
-};
+  compute: (v, o = {}): ComputeOutput => computeWallSweep(v, "Bz", o, wallMotionSpec),
+});
 
-const wallCurrentSpec: CalculatorSpec = {
+const wallCurrentSpec = defineCalculator({
   id: "wall-current",
   title: "Wall velocity against current (spin-transfer and spin-orbit torques)",
   summary:
@@ -248,8 +249,8 @@ const wallCurrentSpec: CalculatorSpec = {
   assumptions: wallAssumptions,
   sources: wallSources,
   method: "Closed forms of the collective-coordinate equations (as wall-motion), with u and the spin-orbit fields proportional to j.",
-  compute: (v, o = {}) => computeWallSweep(v, "j", o, wallCurrentSpec),
-};
+  compute: (v, o = {}): ComputeOutput => computeWallSweep(v, "j", o, wallCurrentSpec),
+});
 
 function computeWallTrace(v: InputValues): ComputeOutput {
   const s = wallSetup(v);
@@ -270,7 +271,7 @@ function computeWallTrace(v: InputValues): ComputeOutput {
   return { values, status: s.notes.length ? "warning" : "ok", notes: s.notes };
 }
 
-const wallTraceSpec: CalculatorSpec = {
+const wallTraceSpec = defineCalculator({
   id: "wall-trace",
   title: "Wall time traces q(t), phi(t)",
   summary:
@@ -313,11 +314,11 @@ const wallTraceSpec: CalculatorSpec = {
   sources: wallSources,
   method: "Dormand-Prince 5(4) with rtol 1e-10, dense output at 401 times, turns of phi located as events on the dense output (Brent).",
   compute: (v) => computeWallTrace(v),
-};
+});
 
 // ---------------------------------------------------------------- skyrmion drift
 
-const skyrmionInputs: InputSpec[] = [
+const skyrmionInputs = inputList([
   ...filmInputs.map((i) => (i.name === "D" ? { ...i, default: 2.5e-3 } : i)),
   { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: 0, max: 0.3, scale: "linear", meaning: "field along +z (background direction; the core points along -z)" },
   ...currentInputs.map((i) => (i.name === "j" ? { ...i, default: 1e11, max: 1e12 } : i.name === "thetaSH" ? { ...i, default: 0.1 } : i)).filter((i) => i.name !== "fieldLike"),
@@ -336,7 +337,7 @@ const skyrmionInputs: InputSpec[] = [
     ],
     meaning: "profile: 360-degree-wall ansatz or exact radial profile (local magnetostatics)",
   },
-];
+]);
 
 function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
   const film = makeFilm({ Ms: v.Ms, A: v.A, Ku: v.Ku, D: v.D, t: v.t, dmi: "interfacial" });
@@ -413,7 +414,7 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
-const skyrmionDriftSpec: CalculatorSpec = {
+const skyrmionDriftSpec = defineCalculator({
   id: "skyrmion-drift",
   title: "Skyrmion drift and Hall angle (Thiele)",
   summary:
@@ -463,14 +464,14 @@ const skyrmionDriftSpec: CalculatorSpec = {
   ],
   method: "Profile from the existing ansatz or exact solver; Thiele integrals by composite Gauss-Legendre; the 2x2 Thiele system solved in closed form.",
   compute: computeSkyrmionDrift,
-};
+});
 
 // ---------------------------------------------------------------- precessing skyrmion
 
 /** Invented DMI-free film for the nanocontact defaults (not a real material). */
 const contactFilm = { Ms: 0.8e6, A: 13e-12, Ku: 0.65e6, t: 3e-9, alpha: 0.05 };
 
-const precessingInputs: InputSpec[] = [
+const precessingInputs = inputList([
   { name: "Ms", symbol: "M_s", unit: "A/m", default: contactFilm.Ms, min: 0.4e6, max: 1.0e6, scale: "linear", meaning: "saturation magnetization (invented default)" },
   { name: "A", symbol: "A", unit: "J/m", default: contactFilm.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "exchange stiffness" },
   { name: "Ku", symbol: "K_u", unit: "J/m^3", default: contactFilm.Ku, min: 0.5e6, max: 2e6, scale: "linear", meaning: "uniaxial perpendicular anisotropy (K_eff > 0 needed)" },
@@ -482,7 +483,7 @@ const precessingInputs: InputSpec[] = [
   { name: "current", symbol: "I", unit: "A", default: 2e-3, min: 0, max: 10e-3, scale: "linear", meaning: "current through the contact (pumps reversed spins into it)" },
   { name: "startRadius", symbol: "R_0", unit: "m", default: 30e-9, min: 2e-9, max: 150e-9, scale: "log", meaning: "radius at t = 0 for the time trace" },
   { name: "duration", symbol: "t_{end}", unit: "s", default: 10e-9, min: 0.5e-9, max: 50e-9, scale: "log", meaning: "length of the time trace" },
-];
+]);
 
 function computePrecessing(v: InputValues): ComputeOutput {
   const film = makeFilm({ Ms: v.Ms, A: v.A, Ku: v.Ku, D: 0, t: v.t });
@@ -534,7 +535,7 @@ function computePrecessing(v: InputValues): ComputeOutput {
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
-const precessingSpec: CalculatorSpec = {
+const precessingSpec = defineCalculator({
   id: "precessing-skyrmion",
   title: "Precessing skyrmion held by spin torque in a nanocontact",
   summary:
@@ -578,6 +579,6 @@ const precessingSpec: CalculatorSpec = {
   ],
   method: "Ansatz integrals and their R-derivatives by composite Gauss-Legendre; threshold by Brent minimization in ln R; stable radius by Brent root; R(t), Phi(t) by Dormand-Prince 5(4).",
   compute: (v) => computePrecessing(v),
-};
+});
 
-export const dynamicsCalculators: readonly CalculatorSpec[] = [wallMotionSpec, wallCurrentSpec, wallTraceSpec, skyrmionDriftSpec, precessingSpec];
+export const dynamicsCalculators = [wallMotionSpec, wallCurrentSpec, wallTraceSpec, skyrmionDriftSpec, precessingSpec];

@@ -5,6 +5,7 @@
  * noise, sampling and size. The data are invented (synthetic) by construction.
  */
 import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { fitProfile } from "../fit/fitProfile.js";
 import { guessStart } from "../fit/startGuess.js";
 import { getProfileModel } from "../fit/profileModels.js";
@@ -50,7 +51,7 @@ function computeWallFit(v: InputValues): ComputeOutput {
   return { values, status: ok ? "ok" : "warning", notes };
 }
 
-export const wallFitCalculator: CalculatorSpec = {
+export const wallFitCalculator = defineCalculator({
   id: "wall-fit",
   title: "Fit a synthetic skyrmion line cut",
   summary:
@@ -102,7 +103,7 @@ export const wallFitCalculator: CalculatorSpec = {
     return { bytes: 8 * n * 20, steps: 5 * 200 * 40 * n, parameter: "points", what: `${n} points, 5 parameters, up to ~200 iterations` };
   },
   compute: computeWallFit,
-};
+});
 
 /** Calculator specs of the fitting domain. */
-export const fitCalculators: CalculatorSpec[] = [wallFitCalculator];
+export const fitCalculators = [wallFitCalculator];

@@ -5,6 +5,7 @@
  * "0.1 meV", "5 cm^-1", "20 GHz"); outputs repeat the levels in meV and cm^-1.
  */
 import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, h as planck, e as eCharge } from "../quantity/constants.js";
 import {
@@ -121,7 +122,7 @@ const energyInput = (name: string, l: number, m: number, def: number, hint: stri
   return { name, symbol: `B_${l}^{${m}}`, unit: "K", default: def, min: -scale, max: scale, scale: "linear" as const, meaning: `crystal-field coefficient of O_${l}^${m} (${hint}), E / k_B` };
 };
 
-export const ionLevelsSpec: CalculatorSpec = {
+export const ionLevelsSpec = defineCalculator({
   id: "ion-levels",
   title: "Crystal-field levels of one ion: Zeeman diagram, g-tensor, Schottky heat, magnetization",
   summary:
@@ -172,6 +173,6 @@ export const ionLevelsSpec: CalculatorSpec = {
   method: "exact diagonalization of the (2J + 1)-state Hamiltonian (Householder + QL); Stevens operators by symmetrized harmonic polynomials; thermal averages over all levels",
   limits: { Bmax: { above: 0, why: "a largest field" }, T: { min: 0, why: "a temperature" }, B: { min: 0, why: "a field magnitude (direction by the angles)" } },
   compute: computeIonLevels,
-};
+});
 
-export const ionCalculators: readonly CalculatorSpec[] = [ionLevelsSpec];
+export const ionCalculators = [ionLevelsSpec];

@@ -5,6 +5,7 @@
  * Bose-Hubbard Mott lobes of the boson mapping).
  */
 import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, mu0, muB } from "../quantity/constants.js";
 import { dipolarBands, fractionalToQ, latticePreset, luttingerTisza, type Lattice2D } from "../lattices/dipolar.js";
@@ -64,7 +65,7 @@ function computeDipolar(v: InputValues): ComputeOutput {
   return { values, status: lt.spinLengthSpread > 1e-6 ? "warning" : "ok", notes };
 }
 
-export const dipolarLatticeSpec: CalculatorSpec = {
+export const dipolarLatticeSpec = defineCalculator({
   id: "dipolar-lattice",
   title: "Dipolar interaction on a two-dimensional lattice: Ewald bands and the Luttinger-Tisza ground state",
   summary:
@@ -96,7 +97,7 @@ export const dipolarLatticeSpec: CalculatorSpec = {
   method: "two-dimensional Ewald summation (erfc / erf split, Poisson summation over the plane), Hermitian diagonalization, zone grid + local refinement",
   limits: { moment: { above: 0, why: "a moment" }, d: { above: 0, why: "a distance" } },
   compute: computeDipolar,
-};
+});
 
 // ------------------------------------------------------------------ field-tuned-order
 const spinChoices = Array.from({ length: 10 }, (_, i) => ({ value: (i + 1) / 2, label: (i + 1) % 2 === 0 ? String((i + 1) / 2) : `${i + 1}/2` }));
@@ -143,7 +144,7 @@ function computeFieldOrder(v: InputValues): ComputeOutput {
   return { values, status: "ok", notes };
 }
 
-export const fieldTunedOrderSpec: CalculatorSpec = {
+export const fieldTunedOrderSpec = defineCalculator({
   id: "field-tuned-order",
   title: "Field-tuned order of an easy-plane antiferromagnet (spins as bosons), with the Mott lobes",
   summary:
@@ -189,6 +190,6 @@ export const fieldTunedOrderSpec: CalculatorSpec = {
   method: "self-consistent site Hamiltonian (several starts, lowest energy kept); closed forms from second-order perturbation theory",
   limits: { D: { min: 0, why: "an easy-plane anisotropy" }, zJ: { min: 0, why: "an antiferromagnetic exchange" }, Bmax: { above: 0, why: "a largest field" } },
   compute: computeFieldOrder,
-};
+});
 
-export const latticeCalculators: readonly CalculatorSpec[] = [dipolarLatticeSpec, fieldTunedOrderSpec];
+export const latticeCalculators = [dipolarLatticeSpec, fieldTunedOrderSpec];

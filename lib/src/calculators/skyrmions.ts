@@ -4,6 +4,7 @@
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
+import { defineCalculator, inputList, outputList } from "./spec.js";
 import { filmLimits } from "./spec.js";
 import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
@@ -15,15 +16,15 @@ import { saturationField } from "../walls/wall360.js";
 
 const demo = demoFilmHX1.film;
 
-function filmInputs(): InputSpec[] {
-  return [
+function filmInputs() {
+  return inputList([
     { name: "Ms", symbol: "M_s", unit: "A/m", default: demo.Ms, min: 0.5e6, max: 1.3e6, scale: "linear", meaning: "Saturation magnetization" },
     { name: "A", symbol: "A", unit: "J/m", default: demo.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "Exchange stiffness" },
     { name: "Ku", symbol: "K_u", unit: "J/m^3", default: demo.Ku, min: 0.9e6, max: 3e6, scale: "linear", meaning: "Uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)" },
     { name: "D", symbol: "D", unit: "J/m^2", default: demo.D, min: 0, max: 4e-3, scale: "linear", meaning: "Interfacial DMI constant (sign selects the Neel helicity)" },
     { name: "t", symbol: "t", unit: "m", default: demo.t, min: 0.4e-9, max: 4e-9, scale: "linear", meaning: "Film thickness" },
     { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: -0.05, max: 0.3, scale: "linear", meaning: "Applied field along +z (the background direction; the core points along -z)" },
-  ];
+  ]);
 }
 
 function filmOf(v: InputValues): Film {
@@ -52,7 +53,7 @@ function describe(r: AnsatzSkyrmion): string {
 const DEFAULT_LATTICE = 0.3e-9;
 const VALIDITY_SPACINGS = 5;
 
-const latticeInput: InputSpec = {
+const latticeInput: InputSpec<"a"> = {
   name: "a",
   symbol: "a",
   unit: "m",
@@ -203,7 +204,7 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
 }
 
-const skyrmionSpec: CalculatorSpec = {
+const skyrmionSpec = defineCalculator({
   id: "skyrmion",
   title: "Isolated skyrmion: radius, wall width and energy (360-degree-wall ansatz)",
   summary:
@@ -264,7 +265,7 @@ const skyrmionSpec: CalculatorSpec = {
   method: "Global scan of the w-minimized ansatz energy over ln(R/w) (step 0.08), local searches and Newton polish, finite-difference verification; branches by continuation with step control up and down in field, ends by step halving. Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
   limits: filmLimits,
   compute: computeSkyrmion,
-};
+});
 
 function computeProfile(v: InputValues): ComputeOutput {
   const film = filmOf(v);
@@ -357,7 +358,7 @@ function stabilityValues(st: SkyrmionStability): ComputeOutput["values"] {
   };
 }
 
-const stabilityOutputs: OutputSpec[] = [
+const stabilityOutputs = outputList([
   { name: "stability", symbol: "", unit: "", kind: "text", meaning: "Stable or unstable against angular deformations m = 0..4 of the exact profile, with the eigenvalues" },
   { name: "modeNumber", symbol: "m", unit: "", kind: "array", meaning: "Angular mode numbers 0..4" },
   { name: "modeEigenvalue", symbol: "\\lambda_m", unit: "", kind: "array", meaning: "Lowest eigenvalue of each mode in units of K_eff (m = 1: the one above the translation zero mode)" },
@@ -365,7 +366,7 @@ const stabilityOutputs: OutputSpec[] = [
   { name: "continuumEdge", symbol: "\\lambda_c", unit: "", meaning: "Edge of the spin-wave continuum 1 + Ms B / (2 K_eff), units of K_eff" },
   { name: "validity", symbol: "", unit: "", kind: "text", meaning: "Radius against 5 lattice constants; energy in units of 8 pi A t" },
   { name: "branch", symbol: "", unit: "", kind: "text", meaning: "Which state was analysed" },
-];
+]);
 
 function computeStability(v: InputValues): ComputeOutput {
   const film = filmOf(v);
@@ -414,7 +415,7 @@ function computeStability(v: InputValues): ComputeOutput {
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
-const stabilitySpec: CalculatorSpec = {
+const stabilitySpec = defineCalculator({
   id: "skyrmion-stability",
   title: "Skyrmion stability against elliptic and other angular deformations",
   summary:
@@ -450,10 +451,10 @@ const stabilitySpec: CalculatorSpec = {
   method: "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
   limits: filmLimits,
   compute: computeStability,
-};
+});
 
 
-const profileSpec: CalculatorSpec = {
+const profileSpec = defineCalculator({
   id: "skyrmion-profile",
   title: "Skyrmion profile: 360-degree-wall ansatz against the exact radial solution",
   summary:
@@ -493,7 +494,7 @@ const profileSpec: CalculatorSpec = {
   method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
   limits: filmLimits,
   compute: computeProfile,
-};
+});
 
 /** Calculator specs of isolated skyrmions. */
-export const skyrmionCalculators: CalculatorSpec[] = [skyrmionSpec, profileSpec, stabilitySpec];
+export const skyrmionCalculators = [skyrmionSpec, profileSpec, stabilitySpec];

@@ -6,11 +6,13 @@
 import { ComputationError, InputError } from "../errors.js";
 import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from "../quantity/units.js";
 import { inUncertainForm, runWithUncertainty, type InputWithUncertainty, type UncertaintyOptions, type UncertaintyReport } from "./uncertainty.js";
+import type { DocumentedResult, Quantity } from "../result.js";
+import type { CatalogueSpec } from "./catalogue.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
-export interface InputSpec {
+export interface InputSpec<N extends string = string> {
   /** Name used in code, on the command line and in JSON ("Ms", "A", "B"). */
-  name: string;
+  name: N;
   /** Symbol as LaTeX ("M_s", "\\mu_0 H"). */
   symbol: string;
   /** SI unit string understood by mathjs ("A/m", "J/m", "T"); "" for dimensionless. */
@@ -44,6 +46,13 @@ export interface OutputSpec {
    * "warning" with a note). Never Infinity; without this flag every entry must be finite.
    */
   gaps?: boolean;
+  /**
+   * An output that is present only in some cases (a sweep output without a sweep, a spiral period
+   * only above D_c): typed optional (`outputs.x?.value`), and reading it when absent gives
+   * `undefined`. Reading an absent output that is not optional is an InputError that lists the
+   * outputs the result has.
+   */
+  optional?: boolean;
 }
 
 /** A plot the widgets draw from outputs: y outputs against an x output (array outputs). */
@@ -161,13 +170,21 @@ export interface CalculatorSpec {
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;
 }
 
-/** A documented result: what `table()` and `helicoid calc --json` show. */
-export interface CalculatorResult {
+/** One output of a result: its value (SI) and unit. */
+export type OutputEntry<V extends number | number[] | string = number | number[] | string> = Quantity<V>;
+
+/**
+ * A documented result: what `table()` and `helicoid calc --json` show. `I` (input names) and `O`
+ * (the outputs, name -> {value, unit}) are known for a calculator of the catalogue, so
+ * `runCalculator("skyrmion").outputs.radius.value` is a `number`; without them (a spec typed as
+ * plain `CalculatorSpec`) any name is accepted by the type checker and checked at run time.
+ */
+export interface CalculatorResult<I extends string = string, O = Record<string, OutputEntry>> extends DocumentedResult {
   id: string;
   title: string;
   status: "ok" | "warning";
-  inputs: Record<string, { value: number; unit: string; uncertainty?: number }>;
-  outputs: Record<string, { value: number | number[] | string; unit: string; uncertainty?: number }>;
+  inputs: Record<I, Quantity>;
+  outputs: O;
   method: string;
   sources: string[];
   assumptions: string[];
@@ -179,14 +196,106 @@ export interface CalculatorResult {
   uncertainty?: UncertaintyReport;
 }
 
+// ---------------------------------------------------------------------------------------------
+// The typed catalogue: a spec made by `defineCalculator` carries its id, input names and output
+// shapes as types (compile time only; at run time it is the same plain spec object).
+
+/** The value type of an output declaration: array -> number[], text -> string, else number. */
+export type OutputValueOf<E> = E extends { kind: "array" } ? number[] : E extends { kind: "text" } ? string : number;
+
+/**
+ * The outputs object of a result, from the union of a spec's output declarations: one property per
+ * name, optional when the declaration says `optional: true`. A name typed only as `string` (made
+ * at run time) gives an index signature.
+ */
+export type OutputsOf<E extends { name: string }> = Flatten<
+  {
+    [K in E as K extends { optional: true } ? never : K["name"]]: OutputEntry<OutputValueOf<K>>;
+  } & {
+    [K in E as K extends { optional: true } ? K["name"] : never]?: OutputEntry<OutputValueOf<K>>;
+  }
+>;
+
+/** One object type instead of an intersection (so a type error lists the names, not the alias). */
+type Flatten<T> = T extends infer U ? { [K in keyof U]: U[K] } : never;
+
+/** Compile-time key of a typed spec's shape (no such property exists at run time). */
+export declare const calculatorTypes: unique symbol;
+
+/** A spec whose id, inputs and outputs are types: what `defineCalculator` returns. */
+export interface TypedCalculatorSpec<Id extends string = string, I extends string = string, O = Record<string, OutputEntry>> extends CalculatorSpec {
+  id: Id;
+  /** Types only: never present at run time. */
+  readonly [calculatorTypes]: { inputs: I; outputs: O };
+}
+
+/** Input names of a spec (`string` for a spec without types). */
+export type InputNamesOf<S> = S extends { readonly [calculatorTypes]: { inputs: infer I extends string } } ? I : string;
+/** The outputs object of a spec's result. */
+export type OutputsOfSpec<S> = S extends { readonly [calculatorTypes]: { outputs: infer O } } ? O : Record<string, OutputEntry>;
+/** The result of running a spec. */
+export type ResultOf<S> = S extends { readonly [calculatorTypes]: { inputs: infer I extends string; outputs: infer O } } ? CalculatorResult<I, O> : CalculatorResult;
+
+/**
+ * Fields of a film (`makeFilm`, `Film`) accepted in the inputs of any calculator although they are
+ * not inputs: `dmi` ("interfacial" agrees with every film calculator of the catalogue; "bulk" is
+ * refused by a calculator that takes D), and `alpha`, `gamma` where they are not inputs (said in
+ * the result's notes). See `runCalculator`.
+ */
+export interface FilmFieldsInInputs {
+  dmi?: string;
+  alpha?: QuantityInput;
+  gamma?: QuantityInput;
+}
+
+/**
+ * What `runCalculator` takes as inputs: each input by name (an SI number or a string with a unit),
+ * any of them left out for its default. A `Film` (or any object with the fields of one) is accepted.
+ */
+export type CalculatorInputs<S> = string extends InputNamesOf<S> ? object : { [K in InputNamesOf<S>]?: InputWithUncertainty } & FilmFieldsInInputs;
+
+/** What `defineCalculator` takes: a spec whose inputs and outputs may be read-only literals. */
+export interface CalculatorDefinition<Id extends string, N extends string, O extends OutputSpec> extends Omit<CalculatorSpec, "id" | "inputs" | "outputs"> {
+  id: Id;
+  inputs: ReadonlyArray<InputSpec<N>>;
+  outputs: readonly O[];
+}
+
+/**
+ * Define a calculator so that its id, input names and outputs are types: the spec object is
+ * returned unchanged (run-time behaviour is that of the same spec typed `CalculatorSpec`).
+ *
+ *     const spec = defineCalculator({ id: "x", inputs: [{ name: "B", ... }], outputs: [{ name: "r", ... }], ... });
+ *     runCalculator(spec, { B: "50 mT" }).outputs.r.value; // number
+ */
+export function defineCalculator<const Id extends string, N extends string, const O extends OutputSpec>(spec: CalculatorDefinition<Id, N, O>): TypedCalculatorSpec<Id, N, OutputsOf<O>> {
+  return spec as unknown as TypedCalculatorSpec<Id, N, OutputsOf<O>>;
+}
+
+/** A list of input declarations whose names stay types (for inputs shared by several specs). */
+export function inputList<N extends string>(inputs: Array<InputSpec<N>>): Array<InputSpec<N>> {
+  return inputs;
+}
+
+/** A list of output declarations whose names and kinds stay types (for outputs shared by several specs). */
+export function outputList<const O extends OutputSpec>(outputs: readonly O[]): O[] {
+  return outputs as O[];
+}
+
+/** Names of the calculators of the catalogue. */
+export type CalculatorId = CatalogueSpec["id"];
+/** The typed spec of a calculator of the catalogue, by id. */
+export type SpecById<Id extends string> = Extract<CatalogueSpec, { id: Id }>;
+
 /**
  * Coerce raw inputs (SI numbers or strings with units) against a spec, filling defaults.
  * Unknown names are an error (a typo must not be silently ignored).
  */
 export function coerceInputs(spec: CalculatorSpec, raw: Record<string, QuantityInput | undefined> = {}): InputValues {
   const known = new Set(spec.inputs.map((i) => i.name));
+  const film = filmFieldsOf(spec, raw);
   for (const key of Object.keys(raw)) {
-    if (!known.has(key)) {
+    if (!known.has(key) && !film.ignored.includes(key)) {
       throw new InputError(key, raw[key], `one of the inputs of '${spec.id}': ${[...known].join(", ")}`);
     }
   }
@@ -353,17 +462,71 @@ export function sweepValues(spec: CalculatorSpec, sweep: NonNullable<ComputeOpti
   return values;
 }
 
-/** Run a calculator: coerce inputs, compute, and attach units, method, sources and assumptions. */
-export function runCalculator(
-  spec: CalculatorSpec,
-  rawGiven: Record<string, InputWithUncertainty> = {},
-  options: ComputeOptions & {
-    /** compute without the spec's default sweep */ noSweep?: boolean;
-    /** how input uncertainties are propagated ("15 ± 1 pJ/m", {value, uncertainty}: uncertainty.ts) */ uncertainty?: UncertaintyOptions;
-  } = {},
-): CalculatorResult {
-  if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm)) return runWithUncertainty(spec, rawGiven, options);
+/** The fields of a film that are not inputs of the spec (makeFilm's `dmi`, `alpha`, `gamma`). */
+const FILM_FIELDS = ["Ms", "A", "Ku", "D", "t", "dmi", "alpha", "gamma"] as const;
+
+/**
+ * Film fields in a calculator's inputs that are not inputs of it. Only an object that carries a
+ * film's `dmi` ("interfacial" or "bulk", as every `makeFilm` film does) is read as a film; then
+ * its other film fields that the calculator does not take are left out with a note. Every film
+ * calculator of the catalogue models interfacial DMI: `dmi: "bulk"` is refused by a calculator that
+ * takes D (its numbers would describe another film), and noted by one that does not.
+ */
+function filmFieldsOf(spec: CalculatorSpec, raw: Record<string, unknown>): { ignored: string[]; notes: string[] } {
+  const dmi = raw.dmi;
+  const known = new Set(spec.inputs.map((i) => i.name));
+  if (known.has("dmi") || (dmi !== "interfacial" && dmi !== "bulk")) return { ignored: [], notes: [] };
+  if (dmi === "bulk" && known.has("D")) {
+    throw new InputError("dmi", dmi, `"interfacial": '${spec.id}' models interfacial DMI only (see its assumptions), so a film with bulk DMI is outside it`);
+  }
+  const ignored = FILM_FIELDS.filter((k) => !known.has(k) && raw[k] !== undefined);
+  const unused = ignored.filter((k) => k !== "dmi" || dmi === "bulk");
+  const notes = unused.length
+    ? [`Film fields that are not inputs of '${spec.id}' were not used: ${unused.map((k) => `${k} = ${String(raw[k])}`).join(", ")}`]
+    : [];
+  return { ignored: [...ignored], notes };
+}
+
+/** Options of `runCalculator`. */
+export type RunOptions = ComputeOptions & {
+  /** compute without the spec's default sweep */ noSweep?: boolean;
+  /** how input uncertainties are propagated ("15 ± 1 pJ/m", {value, uncertainty}: uncertainty.ts) */ uncertainty?: UncertaintyOptions;
+};
+
+let catalogueLookup: ((id: string) => CalculatorSpec) | undefined;
+/** Set by catalogue.ts so that `runCalculator` takes ids (spec.ts cannot import the catalogue: a cycle). */
+export function setCatalogueLookup(lookup: (id: string) => CalculatorSpec): void {
+  catalogueLookup = lookup;
+}
+
+/**
+ * Run a calculator: coerce inputs, compute, and attach units, method, sources and assumptions.
+ * The calculator is given by id ("skyrmion") or by its spec. For a calculator of the catalogue the
+ * inputs and outputs are typed: a misspelt id, input or output does not compile, and
+ * `outputs.radius.value` is a `number`. At run time reading an output the result does not have is
+ * an InputError listing the outputs it has (an output declared `optional` reads as undefined).
+ *
+ * Inputs: SI numbers or strings with units. A `Film` from `makeFilm` (or any object with a film's
+ * fields, `dmi` among them) is accepted: its fields that are inputs are used, `dmi`, `alpha`,
+ * `gamma` where they are not inputs are left out with a note, and `dmi: "bulk"` is refused by a
+ * calculator that takes D (every film calculator here models interfacial DMI).
+ */
+export function runCalculator<Id extends CalculatorId>(id: Id, raw?: CalculatorInputs<SpecById<Id>>, options?: RunOptions): ResultOf<SpecById<Id>>;
+export function runCalculator<S extends CalculatorSpec>(spec: S, raw?: CalculatorInputs<S>, options?: RunOptions): ResultOf<S>;
+/** An id held in a `string` variable (a literal id must be one of the catalogue's). */
+export function runCalculator<T extends string>(id: string extends T ? T : never, raw?: Record<string, InputWithUncertainty>, options?: RunOptions): CalculatorResult;
+export function runCalculator(specOrId: CalculatorSpec | string, rawGiven: object = {}, options: RunOptions = {}): CalculatorResult {
+  let spec: CalculatorSpec;
+  if (typeof specOrId === "string") {
+    if (!catalogueLookup) throw new InputError("calculator", specOrId, "a spec object (ids need the catalogue: import runCalculator from @helicoid/lib)");
+    spec = catalogueLookup(specOrId);
+  } else spec = specOrId;
+  if (rawGiven === null || typeof rawGiven !== "object" || Array.isArray(rawGiven)) {
+    throw new InputError("inputs", rawGiven, `an object of inputs of '${spec.id}' by name (${spec.inputs.map((i) => i.name).join(", ")}) or a film`);
+  }
+  if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm)) return runWithUncertainty(spec, rawGiven as Record<string, InputWithUncertainty>, options);
   const raw = rawGiven as Record<string, QuantityInput | undefined>;
+  const film = filmFieldsOf(spec, raw);
   const inputs = coerceInputs(spec, raw);
   const sweep = options.sweep ?? (options.noSweep ? undefined : defaultSweep(spec, inputs));
   if (sweep) checkSweep(spec, sweep);
@@ -376,7 +539,7 @@ export function runCalculator(
     throw explainComputeError(spec, raw, inputs, err);
   }
   const gapNotes = checkFinite(spec, computed.values);
-  const outputs: CalculatorResult["outputs"] = {};
+  const outputs: Record<string, OutputEntry> = guardedOutputs(spec);
   for (const o of spec.outputs) {
     const v = computed.values[o.name];
     if (v === undefined) continue;
@@ -391,10 +554,43 @@ export function runCalculator(
     method: spec.method,
     sources: spec.sources,
     assumptions: spec.assumptions,
-    notes: [...inputNotes(spec, raw, inputs), ...(computed.notes ?? []), ...gapNotes],
+    notes: [...inputNotes(spec, raw, inputs), ...film.notes, ...(computed.notes ?? []), ...gapNotes],
   };
   if (sweep) result.sweep = sweep;
   return result;
+}
+
+/**
+ * Names that code outside the user's reach probes on any object (serializers, test matchers,
+ * promise resolution, inspectors): reading them never throws.
+ */
+const PROBED = new Set(["toJSON", "then", "asymmetricMatch", "nodeType", "tagName", "length", "inspect", "constructor", "toString", "valueOf", "toLocaleString"]);
+
+/**
+ * The outputs object of a result: a plain object (own properties, JSON, structured clone, spread
+ * and Object.keys as before) whose prototype answers a read of an output it does not have with an
+ * InputError listing the outputs it has, instead of `undefined` and a later TypeError. An output
+ * declared `optional` reads as undefined; names starting with "_", "$" or "@" and a few probed by
+ * libraries (toJSON, then, asymmetricMatch ...) are left to Object.prototype.
+ */
+function guardedOutputs(spec: CalculatorSpec): Record<string, OutputEntry> {
+  const declared = new Map(spec.outputs.map((o) => [o.name, o]));
+  const proto = new Proxy(Object.prototype, {
+    get(target, key, receiver) {
+      if (typeof key === "symbol" || key in target || PROBED.has(key) || /^[_$@]/.test(key)) return Reflect.get(target, key, receiver);
+      const decl = declared.get(key);
+      if (decl?.optional) return undefined;
+      const have = Object.keys(receiver as object);
+      const absent = [...declared.keys()].filter((n) => !have.includes(n));
+      const why = decl
+        ? `'${key}' is an output of '${spec.id}' that was not computed for these inputs (see the result's status and notes)`
+        : absent.length
+          ? `Outputs of '${spec.id}' not computed for these inputs: ${absent.join(", ")}`
+          : undefined;
+      throw new InputError("output", key, `one of the outputs of this '${spec.id}' result: ${have.join(", ") || "(none)"}`, why);
+    },
+  });
+  return Object.create(proto) as Record<string, OutputEntry>;
 }
 
 /**

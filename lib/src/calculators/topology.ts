@@ -1,4 +1,5 @@
 import type { CalculatorSpec, ComputeCost, ComputeOutput, InputValues } from "./spec.js";
+import { defineCalculator } from "./spec.js";
 import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
 import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
@@ -141,7 +142,7 @@ function computeTexture(v: InputValues): ComputeOutput {
   };
 }
 
-export const textureSpec: CalculatorSpec = {
+export const textureSpec = defineCalculator({
   id: "texture",
   title: "Demo texture: topological charge and objects",
   summary:
@@ -205,7 +206,7 @@ export const textureSpec: CalculatorSpec = {
   },
   cost: textureCost,
   compute: computeTexture,
-};
+});
 
 /** Calculator specs of the topology domain. */
-export const topologyCalculators: CalculatorSpec[] = [textureSpec];
+export const topologyCalculators = [textureSpec];

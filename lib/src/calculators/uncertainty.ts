@@ -32,6 +32,11 @@ import { isPlainNumber, parseQuantity, formatQuantity, type QuantityInput } from
 import { seededRandom } from "../fit/prng.js";
 import { COMPUTE_BUDGET, coerceInputs, runCalculator, type CalculatorResult, type CalculatorSpec, type ComputeOptions, type InputValues } from "./spec.js";
 
+/** An output of a result, or undefined when the result does not have it (reading a missing output of a result throws). */
+function outOf(r: { outputs: object }, name: string): { value: number | number[] | string; unit: string; uncertainty?: number } | undefined {
+  return name in r.outputs ? (r.outputs as Record<string, { value: number | number[] | string; unit: string; uncertainty?: number }>)[name] : undefined;
+}
+
 /** An input with a standard uncertainty (both numbers SI in the input's unit, or strings with units). */
 export interface UncertainInput {
   value: QuantityInput;
@@ -223,9 +228,9 @@ export function runWithUncertainty(
   // The propagation runs compute without a sweep. A scalar output that exists only with the sweep
   // (the end of a branch in a field sweep) gets no uncertainty, and is said to, rather than flagged.
   const plain = nominal.sweep ? runCalculator(spec, x0, { noSweep: true }) : nominal;
-  const sweepOnly = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof nominal.outputs[o.name]?.value === "number" && typeof plain.outputs[o.name]?.value !== "number").map((o) => o.name);
-  const scalarNames = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof nominal.outputs[o.name]?.value === "number" && typeof plain.outputs[o.name]?.value === "number").map((o) => o.name);
-  const textNames = spec.outputs.filter((o) => o.kind === "text" && typeof nominal.outputs[o.name]?.value === "string").map((o) => o.name);
+  const sweepOnly = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value !== "number").map((o) => o.name);
+  const scalarNames = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value === "number").map((o) => o.name);
+  const textNames = spec.outputs.filter((o) => o.kind === "text" && typeof outOf(nominal, o.name)?.value === "string").map((o) => o.name);
 
   const n = names.length;
   const V = names.map((a, i) => names.map((b, j) => (i === j ? 1 : correlationOf(correlations, a, b)) * sigma[a]! * sigma[b]!));
@@ -259,11 +264,11 @@ export function runWithUncertainty(
     const scalars: Record<string, number> = {};
     const texts: Record<string, string> = {};
     for (const k of scalarNames) {
-      const v = r.outputs[k]?.value;
+      const v = outOf(r, k)?.value;
       if (typeof v === "number") scalars[k] = v;
     }
     for (const k of textNames) {
-      const v = r.outputs[k]?.value;
+      const v = outOf(r, k)?.value;
       if (typeof v === "string") texts[k] = v;
     }
     return { ok: true, scalars, texts };
@@ -271,7 +276,7 @@ export function runWithUncertainty(
   const noteText = (o: RunOutcome) => {
     if (!o.ok) return;
     // the words, not the numbers quoted in them, must stay the same
-    for (const k of textNames) if (wordsOf(o.texts[k]) !== wordsOf(plain.outputs[k]?.value as string | undefined)) textChanges.add(k);
+    for (const k of textNames) if (wordsOf(o.texts[k]) !== wordsOf(outOf(plain, k)?.value as string | undefined)) textChanges.add(k);
   };
   const y0: Record<string, number> = Object.fromEntries(scalarNames.map((k) => [k, plain.outputs[k]!.value as number]));
   const fmtIn = (name: string, v: number) => formatQuantity(v, known.get(name)!.unit);

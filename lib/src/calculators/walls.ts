@@ -5,6 +5,7 @@
  * Ranges keep K_eff = Ku - mu0 Ms^2 / 2 > 0 at every corner, so every corner computes.
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
+import { defineCalculator, inputList } from "./spec.js";
 import { filmLimits } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { type Film, makeFilm, effectiveAnisotropy, exchangeLength, qualityFactor, criticalDmi, neelThresholdDmi, spiralPeriod, spiralState, filmRegime, requirePerpendicular } from "../material/film.js";
@@ -15,13 +16,13 @@ import { wallType, neelThresholdCurve } from "../walls/wallType.js";
 
 const demo = demoFilmHX1.film;
 
-const filmInputs: InputSpec[] = [
+const filmInputs = inputList([
   { name: "Ms", symbol: "M_s", unit: "A/m", default: demo.Ms, min: 0.4e6, max: 1.2e6, scale: "linear", meaning: "saturation magnetization" },
   { name: "A", symbol: "A", unit: "J/m", default: demo.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "exchange stiffness" },
   { name: "Ku", symbol: "K_u", unit: "J/m^3", default: demo.Ku, min: 1.0e6, max: 3.0e6, scale: "linear", meaning: "uniaxial perpendicular anisotropy (before shape anisotropy)" },
   { name: "D", symbol: "D", unit: "J/m^2", default: demo.D, min: 0, max: 3e-3, scale: "linear", meaning: "interfacial DMI constant (sign selects the chirality)" },
   { name: "t", symbol: "t", unit: "m", default: demo.t, min: 0.3e-9, max: 5e-9, scale: "linear", meaning: "film thickness" },
-];
+]);
 
 const commonAssumptions = [
   "Continuum micromagnetics at T = 0; magnetization uniform through the thickness t.",
@@ -84,7 +85,7 @@ function computeWall(v: InputValues): ComputeOutput {
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
-const wallSpec: CalculatorSpec = {
+const wallSpec = defineCalculator({
   id: "wall",
   title: "180-degree domain wall",
   summary:
@@ -118,7 +119,7 @@ const wallSpec: CalculatorSpec = {
   method: "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
   limits: filmLimits,
   compute: computeWall,
-};
+});
 
 function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
   const f = filmOf(v);
@@ -178,7 +179,7 @@ function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOu
   return { values, status: eq.status === "bound" && notes.length === 0 ? "ok" : "warning", notes };
 }
 
-const wall360Spec: CalculatorSpec = {
+const wall360Spec = defineCalculator({
   id: "wall360",
   title: "360-degree wall in a field",
   summary:
@@ -222,7 +223,7 @@ const wall360Spec: CalculatorSpec = {
   method: "Closed-form ansatz energy (our derivation), minimized over (ln R, ln w) by restarted Nelder-Mead; exact 1D pair shown beside it.",
   limits: filmLimits,
   compute: computeWall360,
-};
+});
 
 function computeWallType(v: InputValues): ComputeOutput {
   const f = filmOf(v);
@@ -259,7 +260,7 @@ function aboveCriticalNote(f: Film): string[] {
   ];
 }
 
-const wallTypeSpec: CalculatorSpec = {
+const wallTypeSpec = defineCalculator({
   id: "wall-type",
   title: "Bloch or Neel wall",
   summary:
@@ -283,7 +284,7 @@ const wallTypeSpec: CalculatorSpec = {
   method: "Minimize sigma(gamma) = sigma_0 - pi D cos gamma + C cos^2 gamma; C by quadrature of the thin-film kernel.",
   limits: filmLimits,
   compute: computeWallType,
-};
+});
 
 /** Calculator specs of the walls domain. */
-export const wallCalculators: CalculatorSpec[] = [wallSpec, wall360Spec, wallTypeSpec];
+export const wallCalculators = [wallSpec, wall360Spec, wallTypeSpec];

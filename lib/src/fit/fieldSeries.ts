@@ -42,6 +42,7 @@
  * Nonlinear Regression Analysis and Its Applications (Wiley 1988) (covariance, linearization).
  */
 import { ConvergenceError, InputError } from "../errors.js";
+import type { DocumentedResult } from "../result.js";
 import type { Film } from "../material/film.js";
 import { symmetricEigen } from "../numeric/denseLinalg.js";
 import { fitProfile, configureParameters, type FitProfileOptions, type ProfileData, type ProfileFitResult } from "./fitProfile.js";
@@ -135,7 +136,7 @@ export interface KuDecision {
   reason: string;
 }
 
-export interface FieldSeriesResult {
+export interface FieldSeriesResult extends DocumentedResult {
   status: FitResult["status"];
   message: string;
   approach: "two-stage" | "global";

@@ -22,6 +22,7 @@
  *   (H. Akaike, IEEE Trans. Autom. Control 19, 716 (1974); G. Schwarz, Ann. Stat. 6, 461 (1978)).
  */
 import { InputError } from "../errors.js";
+import type { DocumentedResult } from "../result.js";
 import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
 import { pivotedQr, inverseNormalFromQr, symmetricEigen, choleskyLower } from "../numeric/denseLinalg.js";
 import { gramMatrix } from "./gramMatrix.js";
@@ -91,7 +92,7 @@ export interface ParameterResult {
 
 export type FitStatus = LmStatus | "singular";
 
-export interface FitResult {
+export interface FitResult extends DocumentedResult {
   status: FitStatus;
   reason: string;
   message: string;
@@ -120,9 +121,15 @@ export interface FitResult {
   degenerate?: string[][];
   method: string;
   sources: string[];
+  /** What the intervals rest on (independent errors, a model that describes the data, ...). */
+  assumptions: string[];
 }
 
 const METHOD = "weighted nonlinear least squares, Levenberg-Marquardt (More 1978) with scaling, trust region and projected box bounds";
+const ASSUMPTIONS = [
+  "independent, normally distributed errors of y (unknown sigmas: one common sigma, estimated from the residuals)",
+  "the model describes the data; Wald intervals from the linearized model at the optimum (profile-likelihood intervals when requested)",
+];
 const SOURCES = [
   "K. Levenberg, Q. Appl. Math. 2, 164 (1944); D. Marquardt, J. SIAM 11, 431 (1963)",
   "J. More, Lecture Notes in Mathematics 630, 105 (1978) (MINPACK design)",
@@ -472,6 +479,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     degenerate,
     method: METHOD,
     sources: SOURCES,
+    assumptions: ASSUMPTIONS,
   };
   if (options.profile && (status === "converged" || status === "singular")) {
     const names = options.profile === true ? inner.map((j) => params[j].name) : options.profile;

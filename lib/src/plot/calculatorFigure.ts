@@ -31,7 +31,7 @@ export interface CurrentMark {
 export const PLOT_MARGIN = { l: 72, r: 16, t: 12, b: 46 };
 
 function arrayOf(result: CalculatorResult, name: string): number[] | null {
-  const v = result.outputs[name]?.value;
+  const v = name in result.outputs ? result.outputs[name]!.value : undefined; // `in`: reading an absent output throws
   return Array.isArray(v) ? (v as number[]) : null;
 }
 

@@ -3,7 +3,7 @@ import { getCalculator, runCalculator, InputError, muBOverKB, type CalculatorSpe
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = r.outputs[o.name]?.value;
+    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {

@@ -4,7 +4,7 @@ import { runPython } from "../../helpers/python.js";
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = r.outputs[o.name]?.value;
+    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") for (const x of v as number[]) expect(Number.isFinite(x), o.name).toBe(true);

@@ -30,21 +30,21 @@ describe("skyrmion calculators", () => {
     // Common practice, no source: the sweep arrays are aligned and R decreases with B.
     const spec = getCalculator("skyrmion");
     const r = runCalculator(spec, { B: "50 mT" });
-    expect(r.outputs.radius!.value as number).toBeGreaterThan(1e-9);
-    expect(r.outputs.wallWidth!.value as number).toBeGreaterThan(1e-9);
-    const f = r.outputs.fieldSweep!.value as number[];
-    const R = r.outputs.radiusSweep!.value as number[];
+    expect(r.outputs.radius.value).toBeGreaterThan(1e-9);
+    expect(r.outputs.wallWidth.value).toBeGreaterThan(1e-9);
+    const f = r.outputs.fieldSweep.value;
+    const R = r.outputs.radiusSweep.value;
     expect(r.sweep!.points).toBe(200);
     expect(f.length).toBe(R.length);
     expect(f.length).toBeGreaterThan(50);
     for (let i = 1; i < R.length; i++) expect(R[i]!).toBeLessThan(R[i - 1]!);
     expect(spec.plots.some((p) => p.x === "fieldSweep" && p.y.includes("radiusSweep"))).toBe(true);
     // the small branch leaves the ansatz window (R < 0.3 w) at high field: said, not called a collapse
-    expect(r.outputs.windowEndField!.value as number).toBeGreaterThan(0.1);
-    expect(r.outputs.collapseField).toBeUndefined();
+    expect(r.outputs.windowEndField.value).toBeGreaterThan(0.1);
+    expect("collapseField" in r.outputs).toBe(false);
     expect(r.outputs.branches!.value as string).toMatch(/branch 1 \(compact skyrmion\)/);
     expect(r.outputs.branches!.value as string).toMatch(/not a continuum collapse/);
-    expect(r.outputs.boundaryResolution!.value as number).toBeLessThan(1e-5);
+    expect(r.outputs.boundaryResolution.value).toBeLessThan(1e-5);
   });
   it("skyrmion: R(B) is insensitive to last-ulp changes of the inputs (the browser recomputes what Node computes)", () => {
     // Common practice, no source: a 1-ulp change of D changes R(B) by about 1e-16 in exact arithmetic;
@@ -75,12 +75,12 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     );
     const below = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2", B: 0.5 * Bsat });
     expect(below.status).toBe("warning");
-    expect(Math.abs((below.outputs.saturationField!.value as number) / Bsat - 1)).toBeLessThan(1e-8);
+    expect(Math.abs(below.outputs.saturationField.value / Bsat - 1)).toBeLessThan(1e-8);
     expect(below.outputs.groundState!.value as string).toMatch(/spiral or strip-domain state is lower/);
-    expect(below.outputs.spiralPeriod!.value as number).toBeGreaterThan(0);
+    expect(below.outputs.spiralPeriod.value).toBeGreaterThan(0);
     const above = runCalculator(getCalculator("skyrmion"), { D: "3.9 mJ/m^2", B: "0.3 T" });
-    expect(above.outputs.radius!.value as number).toBeGreaterThan(1e-9);
-    expect(above.outputs.energy!.value as number).toBeGreaterThan(0);
+    expect(above.outputs.radius.value).toBeGreaterThan(1e-9);
+    expect(above.outputs.energy.value).toBeGreaterThan(0);
     expect(above.outputs.groundState!.value as string).toMatch(/metastable excitation/);
   });
   it("skyrmion: finds the audit bubble at 9 mT and its expansion field does not depend on the sweep direction", () => {
@@ -89,14 +89,14 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     const p = { Ms: "1.3 MA/m", A: "15 pJ/m", Ku: "1.12 MJ/m^3", D: "0.2 mJ/m^2", t: "4 nm" };
     const spec = getCalculator("skyrmion");
     const r = runCalculator(spec, { ...p, B: "9 mT" });
-    expect((r.outputs.radius!.value as number) * 1e9).toBeCloseTo(416.55, 1);
-    expect((r.outputs.wallWidth!.value as number) * 1e9).toBeCloseTo(8.879, 2);
+    expect(r.outputs.radius.value * 1e9).toBeCloseTo(416.55, 1);
+    expect(r.outputs.wallWidth.value * 1e9).toBeCloseTo(8.879, 2);
     expect(r.outputs.states!.value as string).toMatch(/verified minimum/);
     const up = runCalculator(spec, { ...p, B: "9 mT" }, { sweep: { over: "B", from: 0, to: 0.03, points: 16 } });
     const down = runCalculator(spec, { ...p, B: "9 mT" }, { sweep: { over: "B", from: 0.03, to: 0, points: 16 } });
-    const eu = up.outputs.expansionField!.value as number;
-    const ed = down.outputs.expansionField!.value as number;
-    const res = up.outputs.boundaryResolution!.value as number;
+    const eu = up.outputs.expansionField.value;
+    const ed = down.outputs.expansionField.value;
+    const res = up.outputs.boundaryResolution.value;
     expect(Math.abs(eu - ed)).toBeLessThanOrEqual(2 * res);
     expect(eu).toBeGreaterThan(0.004);
     expect(eu).toBeLessThan(0.009);
@@ -107,27 +107,27 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     const spec = getCalculator("skyrmion-stability");
     const d = runCalculator(spec, { D: "2.9 mJ/m^2", B: "20 mT" });
     expect(d.outputs.stability!.value as string).toMatch(/^Stable/);
-    expect(Math.abs(d.outputs.translationEigenvalue!.value as number)).toBeLessThan(1e-4);
-    expect((d.outputs.modeEigenvalue!.value as number[]).length).toBe(5);
+    expect(Math.abs(d.outputs.translationEigenvalue.value)).toBeLessThan(1e-4);
+    expect(d.outputs.modeEigenvalue.value.length).toBe(5);
     const s = runCalculator(spec, { D: "3.6 mJ/m^2", B: "0.1 T", search: "strip-out search", Bmin: 0 });
-    expect((s.outputs.stripOutField!.value as number) * 1e3).toBeCloseTo(28.09, 1);
+    expect(s.outputs.stripOutField.value * 1e3).toBeCloseTo(28.09, 1);
     expect(s.outputs.stripOutKind!.value as string).toMatch(/B_sat/);
   });
   it("skyrmion: a radius below 5 lattice constants carries a validity note with the approach to 8 pi A t", () => {
     // Common practice, no source: the continuum description needs several lattice spacings per core;
     // Source: A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975) for the 8 pi A t limit.
     const small = runCalculator(getCalculator("skyrmion"), {});
-    const R = small.outputs.radius!.value as number;
+    const R = small.outputs.radius.value;
     expect(R).toBeLessThan(1.5e-9);
     expect(small.status).toBe("warning");
     expect(small.notes.join("\n")).toMatch(/R = .* is below 5 a = 1\.500 nm .*not trustworthy/);
-    expect(small.outputs.continuumLimitField!.value as number).toBeLessThan(0.05);
-    expect((small.outputs.belavinPolyakovEnergy!.value as number) / (8 * Math.PI * 15e-12 * 1e-9)).toBeCloseTo(1, 12);
-    expect(small.outputs.energyOverBelavinPolyakov!.value as number).toBeGreaterThan(0.5);
+    expect(small.outputs.continuumLimitField.value).toBeLessThan(0.05);
+    expect(small.outputs.belavinPolyakovEnergy.value / (8 * Math.PI * 15e-12 * 1e-9)).toBeCloseTo(1, 12);
+    expect(small.outputs.energyOverBelavinPolyakov.value).toBeGreaterThan(0.5);
     const fine = runCalculator(getCalculator("skyrmion"), { a: "0.2 nm" });
     expect(fine.notes.join("\n")).not.toMatch(/R = .* is below 5 a/);
     const large = runCalculator(getCalculator("skyrmion"), { D: "3 mJ/m^2", B: "20 mT" });
-    expect(large.outputs.radius!.value as number).toBeGreaterThan(10e-9);
+    expect(large.outputs.radius.value).toBeGreaterThan(10e-9);
     expect(large.notes.join("\n")).not.toMatch(/R = .* is below 5 a/);
     // every state says its kind, verification and validity; the stability of the exact local-model profile
     expect(large.outputs.states!.value as string).toMatch(/^1 \((compact skyrmion|bubble)\): R = .*verified minimum .*valid/);
@@ -137,13 +137,13 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     // Common practice, no source: variational bound and similar radii.
     const r = runCalculator(getCalculator("skyrmion-profile"), { D: "2 mJ/m^2", B: "20 mT" });
     expect(r.status).toBe("ok");
-    const ea = r.outputs.energyAnsatz!.value as number;
-    const ee = r.outputs.energyExact!.value as number;
+    const ea = r.outputs.energyAnsatz.value;
+    const ee = r.outputs.energyExact.value;
     expect(ee).toBeLessThan(ea);
-    const ra = r.outputs.radiusAnsatz!.value as number;
-    const re = r.outputs.radiusExact!.value as number;
+    const ra = r.outputs.radiusAnsatz.value;
+    const re = r.outputs.radiusExact.value;
     expect(Math.abs(ra / re - 1)).toBeLessThan(0.05);
-    expect((r.outputs.rho!.value as number[]).length).toBe((r.outputs.thetaExact!.value as number[]).length);
+    expect(r.outputs.rho.value.length).toBe(r.outputs.thetaExact.value.length);
   });
   it("bad input names the parameter: in-plane film and wrong units", () => {
     const spec = getCalculator("skyrmion");

@@ -4,7 +4,7 @@ import { textureSpec, textureFromInputs } from "../../../lib/src/calculators/top
 
 function check(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = r.outputs[o.name]?.value;
+    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
     expect(v, o.name).toBeDefined();
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {

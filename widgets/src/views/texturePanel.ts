@@ -29,7 +29,7 @@ export function texturePanelFor(spec: SpecLike): TexturePanel | null {
   const problem = el("div", { class: "hx-error" });
   problem.hidden = true;
   root.append(title, picture.el, note, problem);
-  const num = (r: CalculatorResult, n: string) => r.outputs[n]?.value;
+  const num = (r: CalculatorResult, n: string) => (n in r.outputs ? r.outputs[n]!.value : undefined);
   return {
     el: root,
     show(result) {

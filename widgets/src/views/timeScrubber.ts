@@ -38,7 +38,7 @@ export class TimeScrubber {
   }
 
   private times(result: CalculatorResult | null): number[] | null {
-    const v = result?.outputs[this.plot.x]?.value;
+    const v = result && this.plot.x in result.outputs ? result.outputs[this.plot.x]!.value : undefined;
     return Array.isArray(v) && v.length > 0 ? v : null;
   }
 
@@ -74,7 +74,7 @@ export class TimeScrubber {
     const parts = [`t = ${formatQuantity(ts[i]!, "s")}`];
     for (const name of this.plot.y) {
       const o = this.outputs.find((x) => x.name === name);
-      const v = result.outputs[name]?.value;
+      const v = name in result.outputs ? result.outputs[name]!.value : undefined;
       if (!o || !Array.isArray(v) || typeof v[i] !== "number") continue;
       parts.push(`${symbolText(o.symbol)} = ${formatQuantity(v[i]!, o.unit)}`);
     }
