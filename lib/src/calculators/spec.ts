@@ -145,6 +145,8 @@ export interface CalculatorSpec {
   method: string;
   /** Physical limits of inputs, by input name: refused outside (see InputLimit). */
   limits?: Record<string, InputLimit>;
+  /** The outputs a reader looks at first (result tables show them in their own group); default: the first four numbers. */
+  headline?: string[];
   /** Estimated memory and work of a request (checked against COMPUTE_BUDGET before computing). */
   cost?(inputs: InputValues, options: ComputeOptions): ComputeCost;
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;
