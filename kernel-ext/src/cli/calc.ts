@@ -9,7 +9,7 @@
  * object on stdout: {"id", "status": "error", "error": {"type", "message", "parameter", "value", "expected"}}.
  */
 import { catalogue, coerceInputs, customaryUnit, formatQuantity, getCalculator, InputError, isPlainNumber, parseQuantity, runCalculator, ConvergenceError, type CalculatorSpec, type ComputeOptions } from "@helicoid/lib";
-import { formatEntry } from "../display/table.js";
+import { groupedRows, textRows } from "../display/table.js";
 import { saveFigure } from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 
@@ -131,12 +131,12 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     }
     if (json) io.stdout(JSON.stringify({ ...result, defaults, demo: missing }) + "\n");
     else {
-      io.stdout(`${result.title} (${result.id}): ${result.status}\n`);
-      // each line ends with what the quantity means (from the spec), so a number never stands alone
-      const meaning = (list: Array<{ name: string; meaning: string }>, n: string) => list.find((x) => x.name === n)?.meaning ?? "";
-      const line = (tag: string, n: string, text: string, m: string) => io.stdout(`  ${tag} ${n.padEnd(16)} ${text.padEnd(24)}${m ? `  ${m}` : ""}\n`);
-      for (const [n, e] of Object.entries(result.inputs)) line("in  ", n, formatQuantity(e.value, e.unit), meaning(spec.inputs, n));
-      for (const [n, e] of Object.entries(result.outputs)) line("out ", n, formatEntry(e), meaning(spec.outputs, n));
+      io.stdout(`${result.title} (${result.id}): ${result.status}${missing.length ? " (demo film values used)" : ""}\n`);
+      // grouped: inputs, headline results, other results; each row symbol, value with unit, meaning
+      const { rows, statements } = groupedRows(result);
+      const marked = rows.map((r) => (r.section === "Inputs" && defaults.includes(r.name) ? { ...r, meaning: `${r.meaning} (${missing.includes(r.name) ? "demo value" : "default"})` } : r));
+      for (const line of textRows(marked)) io.stdout(`${line}\n`);
+      for (const st of statements) io.stdout(`${st.meaning.charAt(0).toUpperCase()}${st.meaning.slice(1)}: ${st.text}\n`);
       for (const note of result.notes) io.stdout(`  note: ${note}\n`);
       for (const s of result.assumptions) io.stdout(`  assumes: ${s}\n`);
     }
