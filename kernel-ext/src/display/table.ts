@@ -3,7 +3,7 @@
  * in Markdown, LaTeX, HTML and plain text, with the result's assumptions, method and sources below
  * it, so a notebook documents an analysis with no extra typing.
  */
-import { catalogue, formatQuantity, symbolHtml as libSymbolHtml, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
+import { catalogue, formatQuantity, formatWithError, symbolHtml as libSymbolHtml, type CalculatorResult, type CalculatorSpec } from "@helicoid/lib";
 import { mimeBundle, type Displayable } from "./bundle.js";
 import type { MimeBundle } from "./output.js";
 
@@ -40,7 +40,8 @@ export function formatEntry(e: Entry): string {
 /** The headline outputs of a spec: its own list, or its first four numbers. */
 export function headlineOutputs(spec: CalculatorSpec, outputs: Record<string, Entry>): string[] {
   if (spec.headline?.length) return spec.headline.filter((n) => n in outputs);
-  return spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outputs[o.name]?.value === "number").slice(0, 4).map((o) => o.name);
+  const uncertainties = new Set(spec.outputs.map((o) => o.uncertainty).filter(Boolean));
+  return spec.outputs.filter((o) => !uncertainties.has(o.name)).filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outputs[o.name]?.value === "number").slice(0, 4).map((o) => o.name);
 }
 
 /**
@@ -61,8 +62,21 @@ export function groupedRows(result: CalculatorResult): { rows: Row[]; statements
   const headline = new Set(headlineList);
   const top: Row[] = [];
   const other: Row[] = [];
+  // an output that is another's uncertainty is shown with it ("11.022 ± 0.036 nm"), not on its own row
+  const uncertaintyOf = new Map<string, string>();
+  for (const o of spec?.outputs ?? []) {
+    const u = o.uncertainty && result.outputs[o.uncertainty];
+    if (u && typeof u.value === "number" && typeof result.outputs[o.name]?.value === "number") uncertaintyOf.set(o.uncertainty!, o.name);
+  }
   for (const [name, e] of Object.entries(result.outputs)) {
+    if (uncertaintyOf.has(name)) continue;
     const d = def(spec?.outputs, name);
+    const u = (spec?.outputs.find((o) => o.name === name)?.uncertainty);
+    if (u && uncertaintyOf.get(u) === name) {
+      const row = { section: headline.has(name) ? "Results" : "Other results", name, symbol: d?.symbol ?? "", meaning: d?.meaning ?? name, value: formatWithError(e.value as number, result.outputs[u]!.value as number, e.unit) };
+      (headline.has(name) ? top : other).push(row);
+      continue;
+    }
     if (typeof e.value === "string") {
       statements.push({ name, meaning: d?.meaning ?? name, text: e.value });
       continue;
@@ -164,8 +178,8 @@ export class ResultTable implements Displayable {
 /** Rows as aligned plain text under group headings: "  μ₀H   50 mT   applied field". */
 export function textRows(rows: Row[]): string[] {
   const sym = rows.map((r) => symbolPlain(r.symbol) || r.name);
-  const w1 = Math.min(Math.max(0, ...sym.map((s) => [...s].length)), 24);
-  const w2 = Math.min(Math.max(0, ...rows.map((r) => [...r.value].length)), 36);
+  const w1 = Math.min(Math.max(0, ...sym.map(visibleLength)), 24);
+  const w2 = Math.min(Math.max(0, ...rows.map((r) => visibleLength(r.value))), 36);
   const out: string[] = [];
   let last = "";
   rows.forEach((r, i) => {
@@ -176,8 +190,13 @@ export function textRows(rows: Row[]): string[] {
   return out;
 }
 
+/** Characters a terminal shows (combining accents take no column). */
+function visibleLength(s: string): number {
+  return [...s.replace(/\p{M}/gu, "")].length;
+}
+
 function padU(s: string, w: number): string {
-  const n = [...s].length;
+  const n = visibleLength(s);
   return n >= w ? s : s + " ".repeat(w - n);
 }
 

@@ -43,6 +43,8 @@ export interface OutputSpec {
    * "warning" with a note). Never Infinity; without this flag every entry must be finite.
    */
   gaps?: boolean;
+  /** The output holding this output's standard uncertainty: tables show "value ± uncertainty". */
+  uncertainty?: string;
 }
 
 /** A plot the widgets draw from outputs: y outputs against an x output (array outputs). */

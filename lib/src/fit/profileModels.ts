@@ -48,18 +48,18 @@ const BASE_ASSUMPTIONS = ["continuum micromagnetics, T = 0", "straight wall (1D 
 const nm = 1e-9;
 const P = {
   x0: (): FitParameter => ({ name: "x0", value: 0, unit: "m", typical: 10 * nm, meaning: "wall or core center" }),
-  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
-  R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "radius (m_z = 0 at |x - x0| = R)" }),
-  w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width of the ansatz" }),
+  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
+  R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "radius (m_z = 0 at |x - x0| = R)" }),
+  w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width of the ansatz" }),
   offset: (unit: string): FitParameter => ({ name: "offset", value: 0, unit, typical: 1, meaning: "signal offset" }),
   contrast: (): FitParameter => ({ name: "contrast", value: 1, unit: "", typical: 1, meaning: "signal per unit m_z (sensor along +z)" }),
   tilt: (): FitParameter => ({ name: "tilt", value: 0.1, unit: "rad", min: -Math.PI / 2, max: Math.PI / 2, typical: 0.1, meaning: "sensor axis tilt from +z toward +x (the cut direction)" }),
   helicity: (fixed: boolean): FitParameter => ({ name: "helicity", value: 0, unit: "rad", min: -2 * Math.PI, max: 2 * Math.PI, typical: 0.1, fixed, meaning: "in-plane angle of the wall moment (0, pi: Neel; +-pi/2: Bloch)" }),
-  h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "sensor height above the film top surface" }),
-  t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, meaning: "film thickness" }),
-  Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, meaning: "saturation magnetization" }),
-  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
-  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, meaning: "standard deviation of the Gaussian instrument blur" }),
+  h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "sensor height above the film top surface" }),
+  t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, physical: [0, Infinity], meaning: "film thickness" }),
+  Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, physical: [0, Infinity], meaning: "saturation magnetization" }),
+  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, physical: [-1, 1], meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
+  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, physical: [0, Infinity], meaning: "standard deviation of the Gaussian instrument blur" }),
 };
 
 function idx(params: FitParameter[]) {
