@@ -201,10 +201,12 @@ function refuseBareNumber(spec: CalculatorSpec, name: string, value: string, par
 /** `helicoid calc ID --help`: what the calculator computes, from its spec. */
 function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   const q = (v: number, unit: string) => (unit ? formatQuantity(v, unit) : String(v));
+  const film = filmInputs(spec);
   const lines = [`${spec.id}: ${spec.title}`, "", spec.summary, "", "inputs (name=value with a unit; defaults in brackets):"];
+  if (film.length) lines.push(`  required: the film's ${film.join(", ")} (or --demo: the invented demo film's values, in brackets as "demo")`);
   for (const i of spec.inputs) {
     const range = i.kind === "choice" && i.choices ? `one of ${i.choices.map((c) => `${c.value} (${c.label})`).join(", ")}` : `usual range ${q(i.min, i.unit)} to ${q(i.max, i.unit)}`;
-    lines.push(`  ${i.name.padEnd(12)} [${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
+    lines.push(`  ${i.name.padEnd(12)} [${film.includes(i.name) ? "demo " : ""}${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
   }
   lines.push("", "outputs:");
   for (const o of spec.outputs) lines.push(`  ${o.name.padEnd(16)} ${o.unit ? `[${o.unit}] ` : ""}${o.kind && o.kind !== "scalar" ? `(${o.kind}) ` : ""}${o.meaning}`);

@@ -169,6 +169,7 @@ describe("helicoid calc", () => {
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/^wall: 180-degree domain wall/);
     for (const i of wallSpec.inputs) expect(r.stdout).toContain(`  ${i.name.padEnd(12)} [`);
+    expect(r.stdout).toMatch(/required: the film's Ms, A, Ku, D, t \(or --demo/);
     for (const o of wallSpec.outputs) expect(r.stdout).toContain(o.meaning);
     expect(r.stdout).toMatch(/usual range 5 pJ\/m to 30 pJ\/m/);
     expect(r.stdout).toMatch(/^assumptions:/m);
