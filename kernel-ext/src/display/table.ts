@@ -56,7 +56,9 @@ export function groupedRows(result: CalculatorResult): { rows: Row[]; statements
   const def = (list: ReadonlyArray<{ name: string; symbol: string; meaning: string }> | undefined, n: string) => list?.find((d) => d.name === n);
   for (const [name, e] of Object.entries(result.inputs)) {
     const d = def(spec?.inputs, name);
-    rows.push({ section: "Inputs", name, symbol: d?.symbol ?? "", meaning: d?.meaning ?? name, value: formatEntry(e) });
+    // a choice by its label ("honeycomb"), not its number
+    const choice = spec?.inputs.find((i) => i.name === name)?.choices?.find((c) => c.value === e.value);
+    rows.push({ section: "Inputs", name, symbol: d?.symbol ?? "", meaning: d?.meaning ?? name, value: choice ? choice.label : formatEntry(e) });
   }
   const headlineList = spec ? headlineOutputs(spec, result.outputs) : [];
   const headline = new Set(headlineList);

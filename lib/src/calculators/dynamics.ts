@@ -11,6 +11,7 @@
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
+import { formatQuantity } from "../quantity/units.js";
 import { criticalDmi, makeFilm, requirePerpendicular, wallWidthParameter } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
 import { gammaElectron } from "../quantity/constants.js";
@@ -201,7 +202,7 @@ function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOpti
   values.sweepVelocity = vel;
   values.sweepFrequency = freq;
   const notes = [...s.notes];
-  if (!Number.isNaN(breakdown)) notes.push(`Breakdown along the sweep of ${sweep.over} near ${breakdown.toPrecision(4)} (first precessing point).`);
+  if (!Number.isNaN(breakdown)) notes.push(`Breakdown along the sweep of ${sweep.over} near ${formatQuantity(breakdown, spec.inputs.find((i) => i.name === sweep.over)?.unit ?? "")} (first precessing point).`);
   return { values, status: s.notes.length ? "warning" : "ok", notes };
 }
 

@@ -40,6 +40,11 @@ describe("table(result): grouped, with symbols and units", () => {
     expect(t.html()).toMatch(/<li><b>Regime|<li><b>What the film does/);
   });
 
+  it("shows a choice input by its label", () => {
+    const t2 = table(runCalculator(getCalculator("texture"), { kind: "antiskyrmion", n: 32 }));
+    expect(t2.rows.find((x) => x.name === "kind")!.value).toBe("antiskyrmion");
+  });
+
   it("writes symbols as Unicode text with sub- and superscripts", () => {
     expect(symbolPlain("\\mu_0 H")).toBe("μ₀ H");
     expect(symbolPlain("D_N^{(0)}")).toBe("D_N⁽⁰⁾");
