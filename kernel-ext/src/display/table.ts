@@ -210,22 +210,13 @@ export function table(result: TableInput): ResultTable {
   return new ResultTable(result);
 }
 
-const greek: Record<string, string> = {
-  alpha: "α", beta: "β", gamma: "γ", delta: "δ", epsilon: "ε", theta: "θ", kappa: "κ", lambda: "λ", mu: "μ", nu: "ν", pi: "π", rho: "ρ",
-  sigma: "σ", tau: "τ", phi: "φ", chi: "χ", psi: "ψ", omega: "ω", Delta: "Δ", Gamma: "Γ", Theta: "Θ", Lambda: "Λ", Sigma: "Σ", Phi: "Φ", Psi: "Ψ", Omega: "Ω",
-  parallel: "∥", perp: "⊥", hbar: "ħ", infty: "∞", cdot: "·", times: "×",
-};
-
 /**
  * A symbol given in LaTeX as HTML, for pages without a math typesetter (the exported page, plain
- * HTML front ends): Greek letters, sub- and superscripts ("K_{eff}", "\\mu_0 H", "m^2").
+ * HTML front ends): the library's converter (Greek letters including \\varphi, sub- and
+ * superscripts, operators), in italics.
  */
 export function symbolHtml(tex: string): string {
-  let s = html(tex).replace(/\\(?:mathrm|text|mathit)\{([^}]*)\}/g, "$1");
-  s = s.replace(/\\([A-Za-z]+)/g, (m, name: string) => greek[name] ?? name);
-  s = s.replace(/_\{([^}]*)\}|_(.)/g, (_m, a?: string, b?: string) => `<sub>${a ?? b}</sub>`);
-  s = s.replace(/\^\{([^}]*)\}|\^(.)/g, (_m, a?: string, b?: string) => `<sup>${a ?? b}</sup>`);
-  return `<i>${s.replace(/[{}]/g, "").replace(/\\[,;! ]/g, " ")}</i>`;
+  return `<i>${libSymbolHtml(tex)}</i>`;
 }
 
 function esc(s: string): string {

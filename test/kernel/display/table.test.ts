@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { getCalculator, runCalculator } from "@helicoid/lib";
-import { groupedRows, symbolPlain, table, TABLE_GROUPS } from "../../../kernel-ext/src/display/table.js";
+import { groupedRows, symbolHtml, symbolPlain, table, TABLE_GROUPS } from "../../../kernel-ext/src/display/table.js";
 import { calcCommand } from "../../../kernel-ext/src/cli/calc.js";
 
 const film = { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" };
@@ -50,6 +50,8 @@ describe("table(result): grouped, with symbols and units", () => {
     expect(symbolPlain("D_N^{(0)}")).toBe("D_N⁽⁰⁾");
     expect(symbolPlain("K_{eff}")).toBe("K_{eff}");
     expect(symbolPlain("M_s")).toBe("Mₛ");
+    // the HTML table: every Greek letter of the catalogue, \\varphi included (was shown as "varphi")
+    expect(symbolHtml("\\varphi_B")).toBe("<i>φ<sub>B</sub></i>");
   });
 
   it("helicoid calc prints the same groups, marks inputs left at their default", async () => {
