@@ -268,7 +268,7 @@ const wallTypeSpec: CalculatorSpec = {
   outputs: [
     { name: "wallType", symbol: "", unit: "", kind: "text", meaning: "the wall type in words" },
     { name: "character", symbol: "", unit: "", kind: "text", meaning: "Bloch, intermediate or Neel" },
-    { name: "cosHelicity", symbol: "\\cos\\gamma", unit: "", meaning: "signed Neel fraction of the wall moment, D / D_N clipped to [-1, 1]" },
+    { name: "cosHelicity", symbol: "\\cos \\gamma", unit: "", meaning: "signed Neel fraction of the wall moment, D / D_N clipped to [-1, 1]" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of the wall" },
     { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta): the one wallType uses" },
     { name: "neelThresholdThinFilm", symbol: "D_N^{(0)}", unit: "J/m^2", meaning: "Neel threshold in the thin-film limit, 2 ln2 mu0 Ms^2 t / pi^2 (for reference)" },
