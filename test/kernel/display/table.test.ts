@@ -21,7 +21,7 @@ describe("table(result): grouped, with symbols and units", () => {
     const order = sections.filter((s, i) => s !== sections[i - 1]);
     expect(order).toEqual([...TABLE_GROUPS]);
     expect(t.rows.filter((x) => x.section === "Inputs").map((x) => x.name)).toEqual(["Ms", "A", "Ku", "D", "t"]);
-    expect(t.rows.filter((x) => x.section === "Results").map((x) => x.name)).toEqual(["width", "energy", "criticalDmi", "exchangeLength"]);
+    expect(t.rows.filter((x) => x.section === "Results").map((x) => x.name)).toEqual(["width", "energy", "criticalDmi", "neelThreshold"]);
     const md = t.markdown();
     for (const g of TABLE_GROUPS) expect(md.split(`**${g}**`).length - 1, g).toBe(1);
     // no output id as a quantity's name, no doubled names
