@@ -67,7 +67,7 @@ export default async () => {
   const rows = [];
   for (const id of ["skyrmion", "wall"]) {
     const { ours, ref } = interleaved(
-      () => timedChild([process.execPath, helicoid, "calc", id, "--json"]),
+      () => timedChild([process.execPath, helicoid, "calc", id, "--demo", "--json"]),
       () => timedChild([systemPython, join(here, "startup", `${id}_ref.py`)]),
       RUNS,
     );
@@ -75,7 +75,7 @@ export default async () => {
     const p = summary(ref.map((x) => x.cpu));
     rows.push({
       group: "startup",
-      name: `helicoid calc ${id} --json, cold process, CPU user+sys, interleaved x${RUNS} (RSS ${summary(ours.map((x) => x.rssMB)).median.toFixed(0)} MB vs ${summary(ref.map((x) => x.rssMB)).median.toFixed(0)} MB)`,
+      name: `helicoid calc ${id} --demo --json, cold process, CPU user+sys, interleaved x${RUNS} (RSS ${summary(ours.map((x) => x.rssMB)).median.toFixed(0)} MB vs ${summary(ref.map((x) => x.rssMB)).median.toFixed(0)} MB)`,
       ours_ms: o.median, ours_spread: o.spread,
       reference: `python3 + numpy + scipy script (startup/${id}_ref.py)${id === "skyrmion" ? ": one field, local magnetostatics (less work)" : ""}`,
       reference_ms: p.median, reference_spread: p.spread,

@@ -24,13 +24,13 @@ async function calc(...args: string[]) {
 }
 
 const refused: Array<[string[], string, RegExp]> = [
-  [["easy-plane", "B=1e309"], "B", /finite number/],
+  [["easy-plane", "B=1e309", "--si"], "B", /finite number/],
   [["easy-plane", "T=1e-300K"], "T", /usual range/],
   [["magnon-hall", "T=1e300K"], "T", /usual range/],
   [["magnon-hall", "J=1e300K"], "J", /usual range/],
   [["spin-tunnel", "D=-1K"], "D", /> 0 K/],
-  [["texture", "a=1e309"], "a", /finite number/],
-  [["wall", "A=1e300"], "A", /usual range/],
+  [["texture", "a=1e309", "--si"], "a", /finite number/],
+  [["wall", "A=1e300", "--si"], "A", /usual range/],
   [["wall", "t=1e-300nm"], "t", /usual range/],
   [["wall-fit", "R=-1nm"], "R", /> 0/],
   [["texture", "kind=3", "a=1pm"], "a", /budget.*Estimate: a skyrmion lattice/],
@@ -40,7 +40,7 @@ const refused: Array<[string[], string, RegExp]> = [
   [["wall-fit", "points=1e9"], "points", /budget/],
   [["texture", "n=1e9"], "n", /usual range/],
   [["texture", "n=40000"], "n", /budget/],
-  [["easy-plane", "--sweep", "B=0:1e309:10"], "B", /finite number/],
+  [["easy-plane", "--si", "--sweep", "B=0:1e309:10"], "B", /finite number/],
 ];
 
 describe("helicoid calc refuses nonsense with one line (exit 2)", () => {
@@ -58,7 +58,7 @@ describe("helicoid calc refuses nonsense with one line (exit 2)", () => {
   }
 
   it("as a process: one line on stderr, no stack trace, for a refusal and for a budget refusal", () => {
-    for (const args of [["wall", "A=1e300"], ["texture", "kind=3", "a=1pm"]]) {
+    for (const args of [["wall", "A=1e300", "--si"], ["texture", "kind=3", "a=1pm"]]) {
       const r = calcProcess(...args);
       expect(r.status, r.stderr).toBe(2);
       expect(r.stderr.trim().split("\n"), r.stderr).toHaveLength(1);
@@ -67,7 +67,7 @@ describe("helicoid calc refuses nonsense with one line (exit 2)", () => {
   });
 
   it("a JSON request gets a JSON error, never a status ok with a null value", () => {
-    const r = calcProcess("wall", "A=1e300", "--json");
+    const r = calcProcess("wall", "A=1e300", "--si", "--json");
     expect(r.status).toBe(2);
     const j = JSON.parse(r.stdout);
     expect(j.status).toBe("error");

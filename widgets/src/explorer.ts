@@ -9,7 +9,7 @@
  * State and messages: see widgets/PROTOCOL.md.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { catalogue, formatQuantity, displayUnit, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
+import { catalogue, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION, versionMismatch } from "./version.js";
 import { Coalescer } from "./compute/coalescer.js";
 import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
@@ -598,14 +598,36 @@ export class ExplorerView extends DOMWidgetView {
       this.valueCells = new Map();
       const table = el("table", { class: "hx-table" });
       const head = el("tr");
-      head.append(el("th", { text: "output" }), el("th", { text: "value" }));
+      head.append(el("th", { text: "quantity" }), el("th", { text: "value" }));
       table.append(head);
-      for (const o of shown) {
-        const tr = el("tr", { title: o.meaning, "data-output": o.name });
-        const td = el("td", { class: "hx-value" });
-        tr.append(el("td", { text: o.name }), td);
-        table.append(tr);
-        this.valueCells.set(o.name, { tr, td, unit: o.unit });
+      // groups a reader can follow: the headline numbers, the other numbers, the statements in words;
+      // each row by its symbol and meaning (the output id stays in data-output and the tooltip)
+      const numeric = shown.filter((o) => typeof result.outputs[o.name]!.value === "number");
+      const headline = spec.headline?.length ? spec.headline : numeric.slice(0, 4).map((o) => o.name);
+      const groups: Array<[string, typeof shown]> = [
+        ["Results", numeric.filter((o) => headline.includes(o.name)).sort((a, b) => headline.indexOf(a.name) - headline.indexOf(b.name))],
+        ["More results", numeric.filter((o) => !headline.includes(o.name))],
+        ["In words", shown.filter((o) => typeof result.outputs[o.name]!.value !== "number")],
+      ];
+      for (const [title, list] of groups) {
+        if (list.length === 0) continue;
+        const gr = el("tr", { class: "hx-group" });
+        gr.append(el("th", { text: title, colspan: "2" }));
+        table.append(gr);
+        for (const o of list) {
+          const tr = el("tr", { title: `${o.meaning} (${o.name})`, "data-output": o.name });
+          const td = el("td", { class: "hx-value" });
+          const q = el("td", { class: "hx-quantity" });
+          if (o.symbol) {
+            const sym = el("span", { class: "hx-symbol" });
+            sym.innerHTML = symbolHtml(o.symbol); // escaped by symbolHtml
+            q.append(sym, document.createTextNode(" "));
+          }
+          q.append(el("span", { class: "hx-meaning", text: o.meaning }));
+          tr.append(q, td);
+          table.append(tr);
+          this.valueCells.set(o.name, { tr, td, unit: o.unit });
+        }
       }
       const parts: HTMLElement[] = [table];
       if (result.status === "warning" || notes.length) {

@@ -11,22 +11,28 @@
  * calculator that has none), 1 when a computation failed; with --json the error is also a JSON
  * object on stdout: {"id", "status": "error", "error": {"type", "message", "parameter", "value", "expected"}}.
  */
-import { catalogue, formatQuantity, getCalculator, InputError, parseQuantity, runCalculator, ConvergenceError, loadFilm, filmInputsFor, MC_MAX_SAMPLES, type ComputeOptions, type UncertaintyOptions } from "@helicoid/lib";
-import { formatEntry } from "../display/table.js";
+import { catalogue, coerceInputs, customaryUnit, formatQuantity, getCalculator, InputError, inUncertainForm, isPlainNumber, parseQuantity, runCalculator, ConvergenceError, loadFilm, filmInputsFor, MC_MAX_SAMPLES, type CalculatorSpec, type ComputeOptions, type UncertaintyOptions } from "@helicoid/lib";
+import { groupedRows, textRows } from "../display/table.js";
 import { saveFigure } from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 
 export const calcUsage = [
-  "usage: helicoid calc ID name=value ... [--sweep NAME=FROM:TO:POINTS] [--json]",
+  "usage: helicoid calc ID name=value ... [--sweep NAME=FROM:TO:POINTS] [--si] [--demo] [--json]",
   "       helicoid calc --list [--json]",
   "       helicoid calc ID --help      what ID computes: its inputs (unit, default, range, meaning) and outputs",
   "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once;",
   "                        with a standard uncertainty: A=15+-1pJ/m or A=\"15 ± 1 pJ/m\"",
+  "                        a film calculator needs the film: Ms, A, Ku, D and t (those it takes) are required,",
+  "                        as name=value or from --film FILE",
   "  --film FILE           inputs from a film file (JSON: name, notes, values with units and optional",
   "                        uncertainties, optional correlations; lib/src/material/README.md); name=value",
   "                        arguments override the file's values",
   "  --monte-carlo N       propagate input uncertainties by N seeded Monte Carlo draws (10 to 20000)",
   "                        instead of first order (the default); --seed S sets the seed (default 1)",
+  "  --si                  read bare numbers as SI values (A=1.5e-11 is 15 pJ/m); without it a bare number",
+  "                        for a quantity with a unit is refused",
+  "  --demo                fill film values not given from the calculator's invented demo film (not a real",
+  "                        material); the result says which values were filled in",
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
   "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
@@ -40,7 +46,7 @@ export const calcUsage = [
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
+const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress", "--si", "--demo"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -100,6 +106,8 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       }
       raw[name] = p.slice(eq + 1);
     }
+    const si = a.flags.has("--si");
+    if (!si) for (const [name, value] of Object.entries(raw)) refuseBareNumber(spec, name, value);
     const options: ComputeOptions = {};
     const sweep = a.options.get("--sweep");
     if (sweep !== undefined) {
@@ -113,6 +121,7 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       if (!input || !sweepable.includes(m[1]!)) {
         throw new InputError("--sweep", sweep, `a sweepable input of '${id}': ${sweepable.join(", ")}`);
       }
+      if (!si) for (const end of [m[2]!, m[3]!]) refuseBareNumber(spec, m[1]!, end, "--sweep");
       const points = Number(m[4]);
       if (points < 2 || points > 100000) throw new InputError("--sweep", sweep, "POINTS a whole number from 2 to 100000");
       options.sweep = { over: m[1]!, from: parseQuantity(m[1]!, m[2]!, input.unit), to: parseQuantity(m[1]!, m[3]!, input.unit), points: Number(m[4]) };
@@ -135,6 +144,9 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       if (!/^\d+$/.test(seed.trim())) throw new InputError("--seed", seed, "a whole number >= 0");
       uncertainty.seed = Number(seed);
     }
+    // Given values are checked first (a bad value is named before a missing one); values with an
+    // uncertainty are read by the propagation.
+    coerceInputs(spec, Object.fromEntries(Object.entries(raw).filter(([, v]) => !inUncertainForm(v))));
     let inputs: Parameters<typeof runCalculator>[1] = raw;
     const filmNotes: string[] = [];
     if (filmPath !== undefined) {
@@ -143,6 +155,10 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       Object.assign(uncertainty, film.uncertainty);
       filmNotes.push(...film.notes);
     }
+    const given = inputs as Record<string, unknown>;
+    const film = filmInputs(spec);
+    const missing = film.filter((n) => given[n] === undefined && !(options.sweep?.over === n));
+    if (missing.length && !a.flags.has("--demo")) throw missingFilm(spec, film, missing);
     const progress = a.flags.has("--progress") || io.stderrIsTTY === true ? progressWriter(id!, io) : null;
     if (progress) options.onProgress = progress.update;
     let result: ReturnType<typeof runCalculator>;
@@ -152,19 +168,32 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       progress?.end();
     }
     result.notes.unshift(...filmNotes);
+    // Every input not given (film values under --demo, other inputs always) is named in the result.
+    const defaults = spec.inputs.map((i) => i.name).filter((n) => given[n] === undefined && options.sweep?.over !== n);
+    if (missing.length) {
+      result.status = "warning";
+      result.notes.unshift(`demo values (--demo): ${missing.map((n) => `${n} = ${showInput(spec, n, result.inputs[n]!.value)}`).join(", ")} are the invented demo film's, not a real material's`);
+    }
     if (plotPath !== undefined) {
       try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
       io.stderr(`helicoid calc: wrote ${plotPath} (${spec.plots[0]!.title})\n`);
     }
-    if (json) io.stdout(JSON.stringify(result) + "\n");
+    if (json) io.stdout(JSON.stringify({ ...result, defaults, demo: missing }) + "\n");
     else {
-      io.stdout(`${result.title} (${result.id}): ${result.status}\n`);
-      // each line ends with what the quantity means (from the spec), so a number never stands alone
-      const meaning = (list: Array<{ name: string; meaning: string }>, n: string) => list.find((x) => x.name === n)?.meaning ?? "";
-      const line = (tag: string, n: string, text: string, m: string) => io.stdout(`  ${tag} ${n.padEnd(16)} ${text.padEnd(24)}${m ? `  ${m}` : ""}\n`);
-      for (const [n, e] of Object.entries(result.inputs)) line("in  ", n, formatEntry(e), meaning(spec.inputs, n));
-      for (const [n, e] of Object.entries(result.outputs)) line("out ", n, formatEntry(e) + (result.uncertainty?.flagged[n] ? " (!)" : ""), meaning(spec.outputs, n));
-      if (result.uncertainty && Object.keys(result.uncertainty.flagged).length) io.stdout(`  (!) uncertainty not trustworthy: ${Object.keys(result.uncertainty.flagged).join(", ")} (see the notes)\n`);
+      io.stdout(`${result.title} (${result.id}): ${result.status}${missing.length ? " (demo film values used)" : ""}\n`);
+      // grouped: inputs, headline results, other results; each row symbol, value (± uncertainty) with unit, meaning
+      const { rows, statements } = groupedRows(result);
+      const flagged = result.uncertainty?.flagged ?? {};
+      const marked = rows.map((r) =>
+        r.section === "Inputs" && defaults.includes(r.name)
+          ? { ...r, meaning: `${r.meaning} (${missing.includes(r.name) ? "demo value" : "default"})` }
+          : r.section !== "Inputs" && flagged[r.name]
+            ? { ...r, meaning: `${r.meaning} (!)` }
+            : r,
+      );
+      for (const line of textRows(marked)) io.stdout(`${line}\n`);
+      for (const st of statements) io.stdout(`${st.meaning.charAt(0).toUpperCase()}${st.meaning.slice(1)}: ${st.text}\n`);
+      if (Object.keys(flagged).length) io.stdout(`  (!) uncertainty not trustworthy: ${Object.keys(flagged).join(", ")} (see the notes)\n`);
       for (const note of result.notes) io.stdout(`  note: ${note}\n`);
       for (const s of result.assumptions) io.stdout(`  assumes: ${s}\n`);
     }
@@ -177,13 +206,64 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
   }
 }
 
+/** The film inputs a film calculator requires on the command line (those of Ms, A, Ku, D, t it takes). */
+export const FILM_INPUTS = ["Ms", "A", "Ku", "D", "t"] as const;
+
+/** A film calculator takes a film's Ms, A and t; it needs every film input it has. */
+export function filmInputs(spec: CalculatorSpec): string[] {
+  const names = spec.inputs.map((i) => i.name);
+  if (!["Ms", "A", "t"].every((n) => names.includes(n))) return [];
+  return FILM_INPUTS.filter((n) => names.includes(n));
+}
+
+function showInput(spec: CalculatorSpec, name: string, v: number): string {
+  const unit = spec.inputs.find((i) => i.name === name)?.unit ?? "";
+  return unit ? formatQuantity(v, unit) : String(v);
+}
+
+/** The input as one would type it: a value in the customary unit glued to its unit ("15pJ/m"). */
+function typed(value: number, unit: string): string {
+  const [u, f] = customaryUnit(value, unit);
+  return `${Number((value / f).toPrecision(4))}${u === "1" ? "" : u}`;
+}
+
+function missingFilm(spec: CalculatorSpec, film: string[], missing: string[]): InputError {
+  const example = film.map((n) => `${n}=${typed(spec.inputs.find((i) => i.name === n)!.default, spec.inputs.find((i) => i.name === n)!.unit)}`).join(" ");
+  return new InputError(
+    "film",
+    `not given: ${missing.join(", ")}`,
+    `every film input of '${spec.id}' (${film.join(", ")}) with its unit`,
+    `Give them with units (such as ${example}), read them from a film file (--film FILE), or add --demo to use the calculator's invented demo film (not a real material)`,
+  );
+}
+
+/**
+ * A bare number for an input with a unit is refused unless --si: "A=10" meant as pJ/m is a common
+ * slip that SI reading turns into 10 J/m. Whole-number and choice inputs and unitless inputs take
+ * bare numbers. An angle (unit rad) is refused too: "90" may mean degrees.
+ */
+function refuseBareNumber(spec: CalculatorSpec, name: string, value: string, parameter = name): void {
+  const input = spec.inputs.find((i) => i.name === name);
+  if (!input || !input.unit || input.kind === "choice" || input.kind === "integer" || !isPlainNumber(value)) return;
+  if (Number(value) === 0) return; // zero is zero in every unit
+  const v = Number(value);
+  const hint = input.unit === "rad" ? `${value}deg or ${value}rad` : `${typed(Number.isFinite(v) && v !== 0 ? v * customaryUnit(input.default || input.max, input.unit)[1] : input.default, input.unit)}`;
+  throw new InputError(
+    parameter, parameter === name ? value : `${name}: ${value}`,
+    `a value with its unit (such as ${name}=${hint})`,
+    `A bare number is refused for a quantity with a unit; add --si to read bare numbers in SI (${value} ${input.unit})`,
+  );
+}
+
 /** `helicoid calc ID --help`: what the calculator computes, from its spec. */
 function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   const q = (v: number, unit: string) => (unit ? formatQuantity(v, unit) : String(v));
+  const film = filmInputs(spec);
   const lines = [`${spec.id}: ${spec.title}`, "", spec.summary, "", "inputs (name=value with a unit; defaults in brackets):"];
+  if (film.length) lines.push(`  required: the film's ${film.join(", ")} (or --demo: the invented demo film's values, in brackets as "demo")`);
   for (const i of spec.inputs) {
     const range = i.kind === "choice" && i.choices ? `one of ${i.choices.map((c) => `${c.value} (${c.label})`).join(", ")}` : `usual range ${q(i.min, i.unit)} to ${q(i.max, i.unit)}`;
-    lines.push(`  ${i.name.padEnd(12)} [${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
+    lines.push(`  ${i.name.padEnd(12)} [${film.includes(i.name) ? "demo " : ""}${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
   }
   lines.push("", "outputs:");
   for (const o of spec.outputs) lines.push(`  ${o.name.padEnd(16)} ${o.unit ? `[${o.unit}] ` : ""}${o.kind && o.kind !== "scalar" ? `(${o.kind}) ` : ""}${o.meaning}`);

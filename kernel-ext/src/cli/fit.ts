@@ -2,8 +2,9 @@
  * `helicoid fit FILE --model ID [--json]` and `helicoid fit --list`.
  * Reads a CSV line profile (position, signal, optional sigma; units in the header such as "x (nm)"
  * or by --x-unit / --y-unit), fits a catalogue model and prints a table or JSON:
- * {"model", "status", "message", "parameters": {name: {"value", "stderr", "unit"}},
- *  "chiSquareReduced", "aic", "bic", "correlation": {"names", "matrix"}, "notes"}.
+ * {"model", "status", "message", "parameters": {name: {"value", "stderr", "unit", "interval"}},
+ *  "chiSquareReduced", "residualRms", "aic", "bic", "correlation": {"names", "matrix"},
+ *  "curve": {"x", "y", "fitted", "residual", "sigma", "xUnit", "yUnit"} (SI), "notes"}.
  * Options: --start name=value (SI number or a quantity such as "12 nm"), --fix name[=value],
  * --free name, --drop-nan, --x-unit U, --y-unit U, --profile (profile-likelihood intervals).
  * `helicoid fit --series FILE[@FIELD] ... --film ...` fits A, D (Ku) to profiles at several fields
@@ -28,12 +29,14 @@ ${seriesUsage}
 The profile file (CSV, or TSV / whitespace-separated text):
   # comment lines start with '#'; a line "# field: 5 mT" gives the field of a --series profile
   x (nm), mz, sigma             a header row names the columns; units in ( ) or [ ] after a name
+  nm, , mT                      or (optional) a units row right under the header, one unit per column
   -40.0, 0.98, 0.02             then one row per point: position, signal, and optionally sigma
   ...
   Columns: 1st position, 2nd signal, 3rd (optional) the standard deviation of each signal value.
-  Units: from the header, else --x-unit / --y-unit; a position without a unit is read in m (said in
+  Units: from the header or the units row, else --x-unit / --y-unit; a position without a unit is read in m (said in
   the output), a field signal (T, mT, G, Oe) is converted to T, other signals keep their label.
-  Without sigma the errors are scaled by the reduced chi-square (said in the output).
+  Without sigma the errors are scaled by the reduced chi-square and the fit quality is the residual
+  RMS (a reduced chi-square needs known sigmas); both are said in the output.
   Numbers are decimal (1.5, -2e-3); empty or NaN cells are refused with their line unless --drop-nan;
   rows may come in any order (they are sorted, with a note). The file is never modified.
   Models: helicoid fit --list (what each fits, its parameters with units and meanings).
@@ -156,20 +159,22 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       known("--free", k);
       fixed[k] = false;
     }
-    // the same call as fitProfile(csv, model) in a notebook (it carries the file's notes)
+    // the same call as fitProfile(csv, model) in a notebook (it carries the file's notes and says when there is no sigma column)
     const r = fitProfile(csv, model, { start, fixed, profile });
     const notes = [...inputNotes, ...r.notes];
-    const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; profileInterval?: [number, number] | null }> = {};
+    const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; interval?: [number, number] | null; clipped?: string[]; profileInterval?: [number, number] | null }> = {};
     for (const [name, p] of Object.entries(r.parameters)) {
       const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;
-      parameters[name] = { value: p.value, stderr: p.stderr, unit, ...(p.fixed ? { fixed: true } : {}), ...(p.profileInterval !== undefined ? { profileInterval: p.profileInterval } : {}) };
+      parameters[name] = { value: p.value, stderr: p.stderr, unit, ...(p.fixed ? { fixed: true } : { interval: p.interval }), ...(p.clipped ? { clipped: p.clipped } : {}), ...(p.profileInterval !== undefined ? { profileInterval: p.profileInterval } : {}) };
     }
+    const residualRms = Math.sqrt(r.residuals.reduce((a, v) => a + v * v, 0) / Math.max(1, r.residuals.length));
     const out = {
       model: r.model,
       status: r.status,
       message: r.message,
       parameters,
-      chiSquareReduced: r.chiSquareReduced,
+      chiSquareReduced: r.sigmaKnown ? r.chiSquareReduced : null,
+      residualRms,
       aic: r.aic,
       bic: r.bic,
       correlation: { names: r.freeNames, matrix: r.correlation },
@@ -178,19 +183,26 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
       evaluations: r.evaluations,
       notes,
       assumptions: r.assumptions,
+      // the data with the fitted curve and residuals y - f (SI), for a plot
+      curve: { x: csv.x, y: csv.y, fitted: r.fitted, residual: r.residuals, sigma: csv.sigma, xUnit: "m", yUnit: csv.yUnit },
     };
     if (json) io.stdout(JSON.stringify(out, null, 2) + "\n");
     else {
-      io.stdout(`${r.title}\nstatus: ${r.status} (${r.message})\n`);
+      io.stdout(`model ${r.model}: ${r.title}\nfit status: ${r.status} (${r.message})\n`);
+      io.stdout(`parameters (value ± standard error; ${Math.round(100 * r.confidence)} % interval):\n`);
       const fmt = (v: number, unit: string, digits = 6) => (!Number.isFinite(v) ? (v > 0 ? "+inf (open)" : "-inf (open)") : unit ? formatQuantity(v, unit) : v.toPrecision(digits));
       const conf = Math.round(100 * r.confidence);
       for (const [name, p] of Object.entries(parameters)) {
         // value and error in one unit, the value's digits following the error's (two significant)
         const ve = p.stderr === null ? `${fmt(p.value, p.unit)}  ${p.fixed ? "fixed" : "(no error)"}` : formatWithError(p.value, p.stderr, p.unit);
-        const iv = p.profileInterval ? `  ${conf} % profile-likelihood interval [${fmt(p.profileInterval[0], p.unit)}, ${fmt(p.profileInterval[1], p.unit)}]` : "";
+        const wald = p.interval ? `  [${fmt(p.interval[0], p.unit)}, ${fmt(p.interval[1], p.unit)}]${p.clipped ? ` (clipped at the physical limit)` : ""}` : "";
+        const iv = wald + (p.profileInterval ? `  ${conf} % profile-likelihood interval [${fmt(p.profileInterval[0], p.unit)}, ${fmt(p.profileInterval[1], p.unit)}]` : "");
         io.stdout(`  ${name.padEnd(10)} ${ve}${iv}\n`);
       }
-      io.stdout(`reduced chi-square ${r.chiSquareReduced.toPrecision(4)}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
+      const rms = csv.yUnit ? formatQuantity(residualRms, csv.yUnit) : residualRms.toPrecision(3);
+      io.stdout(r.sigmaKnown
+        ? `goodness of fit: reduced chi-square ${r.chiSquareReduced.toPrecision(4)} (about 1 when the sigmas and the model are right), residual RMS ${rms}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`
+        : `goodness of fit: residual RMS ${rms} (no sigma column: no reduced chi-square), AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
       for (const n of notes) io.stdout(`note: ${n}\n`);
       if (r.assumptions.length) io.stdout(`assumptions: ${r.assumptions.join("; ")}\n`);
     }

@@ -310,7 +310,7 @@ export const magnonHallSpec = defineCalculator({
     { name: "bandBottom", symbol: "E_{min}/k_B", unit: "K", meaning: "lowest magnon energy (g muB B)" },
     { name: "bandTop", symbol: "E_{max}/k_B", unit: "K", meaning: "highest magnon energy" },
     { name: "kappaXY", symbol: "\\kappa_{xy}^{2D}", unit: "W/K", meaning: "thermal Hall conductivity per layer at T" },
-    { name: "kappaXYReduced", symbol: "\\kappa_{xy}^{2D} \\hbar / (k_B^2 T)", unit: "", meaning: "the same in units of k_B^2 T / hbar" },
+    { name: "kappaXYReduced", symbol: "\\kappa_{xy}^{2D} \\hbar / (k_B^2 T)", unit: "", meaning: "the same in units of k_B^2 T / hbar", uncertainty: "kappaXYReducedError" },
     { name: "kappaXYReducedError", symbol: "\\delta(\\kappa_{xy} \\hbar / k_B^2 T)", unit: "", meaning: "error estimate of the reduced value (change between the last two Richardson values)" },
     { name: "zoneGrid", symbol: "n_k", unit: "", meaning: "finest zone grid used (points per direction)" },
     { name: "magnonDepletion", symbol: "\\delta S / S", unit: "", meaning: "thermal reduction of the ordered moment in LSWT at T (small for the theory to hold)" },

@@ -12,6 +12,7 @@ import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputVal
 import { defineCalculator, inputList, outputList } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
+import { formatQuantity } from "../quantity/units.js";
 import { criticalDmi, makeFilm, requirePerpendicular, wallWidthParameter } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
 import { gammaElectron } from "../quantity/constants.js";
@@ -202,7 +203,7 @@ function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOpti
   values.sweepVelocity = vel;
   values.sweepFrequency = freq;
   const notes = [...s.notes];
-  if (!Number.isNaN(breakdown)) notes.push(`Breakdown along the sweep of ${sweep.over} near ${breakdown.toPrecision(4)} (first precessing point).`);
+  if (!Number.isNaN(breakdown)) notes.push(`Breakdown along the sweep of ${sweep.over} near ${formatQuantity(breakdown, spec.inputs.find((i) => i.name === sweep.over)?.unit ?? "")} (first precessing point).`);
   return { values, status: s.notes.length ? "warning" : "ok", notes };
 }
 
@@ -422,7 +423,7 @@ const skyrmionDriftSpec = defineCalculator({
   inputs: skyrmionInputs,
   outputs: [
     { name: "radius", symbol: "R", unit: "m", meaning: "radius (m_z = 0) of the equilibrium skyrmion" },
-    { name: "helicity", symbol: "h", unit: "rad", meaning: "helicity of the skyrmion" },
+    { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of the skyrmion (0: outward Neel, pi: inward Neel, +-pi/2: Bloch)" },
     { name: "charge", symbol: "Q", unit: "", meaning: "skyrmion number (core down on +z: -1)" },
     { name: "dissipationIntegral", symbol: "I", unit: "", meaning: "Integral (theta'^2 + sin^2 theta / rho^2) rho drho (4 for Belavin-Polyakov)" },
     { name: "dmiIntegral", symbol: "I_D", unit: "m", meaning: "Integral (theta' + sin theta cos theta / rho) rho drho (sets the spin-orbit force)" },
@@ -543,7 +544,7 @@ const precessingSpec = defineCalculator({
   inputs: precessingInputs,
   outputs: [
     { name: "torqueRate", symbol: "\\sigma", unit: "s^-1", meaning: "Slonczewski torque rate gamma hbar P j / (2 e Ms t) of the given current" },
-    { name: "width", symbol: "w", unit: "m", meaning: "wall width of the ansatz, Delta = sqrt(A / K_eff)" },
+    { name: "width", symbol: "\\Delta", unit: "m", meaning: "wall width parameter of the ansatz, Delta = sqrt(A / K_eff)" },
     { name: "thresholdTorque", symbol: "\\sigma_{th}", unit: "s^-1", meaning: "smallest torque rate that holds a precessing skyrmion (minimum of the balance torque over R)" },
     { name: "thresholdCurrent", symbol: "I_{th}", unit: "A", meaning: "threshold current through the contact" },
     { name: "thresholdRadius", symbol: "R_{th}", unit: "m", meaning: "radius at the threshold" },

@@ -65,9 +65,9 @@ export const wallFitCalculator = defineCalculator({
   ],
   outputs: [
     { name: "status", symbol: "", unit: "", kind: "text", meaning: "how the fit ended" },
-    { name: "Rfit", symbol: "\\hat R", unit: "m", meaning: "fitted radius" },
+    { name: "Rfit", symbol: "\\hat R", unit: "m", meaning: "fitted radius", uncertainty: "RStderr" },
     { name: "RStderr", symbol: "\\sigma_R", unit: "m", meaning: "standard error of the radius (sigma known)" },
-    { name: "wfit", symbol: "\\hat w", unit: "m", meaning: "fitted wall width" },
+    { name: "wfit", symbol: "\\hat w", unit: "m", meaning: "fitted wall width", uncertainty: "wStderr" },
     { name: "wStderr", symbol: "\\sigma_w", unit: "m", meaning: "standard error of the wall width" },
     { name: "correlationRw", symbol: "r_{Rw}", unit: "", meaning: "correlation of R and w" },
     { name: "Rpull", symbol: "(\\hat R - R)/\\sigma_R", unit: "", meaning: "error of R in units of its standard error" },

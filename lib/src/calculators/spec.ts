@@ -53,6 +53,8 @@ export interface OutputSpec {
    * outputs the result has.
    */
   optional?: boolean;
+  /** The output holding this output's standard uncertainty: tables show "value ± uncertainty". */
+  uncertainty?: string;
 }
 
 /** A plot the widgets draw from outputs: y outputs against an x output (array outputs). */
@@ -165,6 +167,8 @@ export interface CalculatorSpec {
   method: string;
   /** Physical limits of inputs, by input name: refused outside (see InputLimit). */
   limits?: Record<string, InputLimit>;
+  /** The outputs a reader looks at first (result tables show them in their own group); default: the first four numbers. */
+  headline?: string[];
   /** Estimated memory and work of a request (checked against COMPUTE_BUDGET before computing). */
   cost?(inputs: InputValues, options: ComputeOptions): ComputeCost;
   compute(inputs: InputValues, options?: ComputeOptions): ComputeOutput;

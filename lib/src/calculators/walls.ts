@@ -57,7 +57,7 @@ function computeWall(v: InputValues): ComputeOutput {
   if (energy <= 0) notes.push("|D| >= D_c: the wall energy is negative and a chiral spiral is the ground state; the isolated wall is not stable.");
   if (!regime.thinFilm) {
     notes.push(
-      `t is not below Delta: the thin-film results are rough estimates (magnetization taken uniform through the thickness; a twist of the wall across the thickness is not modelled). The verdict uses the full-kernel Neel threshold D_N = ${(type.wall.neelThreshold * 1e3).toPrecision(3)} mJ/m^2; the thin-film limit ${(neelThresholdDmi(f) * 1e3).toPrecision(3)} mJ/m^2 (output neelThreshold) overestimates it here.`,
+      `t is not below Delta: the thin-film results are rough estimates (magnetization taken uniform through the thickness; a twist of the wall across the thickness is not modelled). The verdict uses the full-kernel Neel threshold D_N = ${(type.wall.neelThreshold * 1e3).toPrecision(3)} mJ/m^2; the thin-film limit ${(neelThresholdDmi(f) * 1e3).toPrecision(3)} mJ/m^2 (output neelThresholdThinFilm) overestimates it here.`,
     );
   }
   const values: ComputeOutput["values"] = {
@@ -70,8 +70,8 @@ function computeWall(v: InputValues): ComputeOutput {
     lilleyWidth: widths.lilleyWidth,
     mzSlopeWidth: widths.mzSlopeWidth,
     inPlaneFwhm: widths.inPlaneFwhm,
-    neelThreshold: neelThresholdDmi(f),
-    neelThresholdFullKernel: type.neelThresholdFullKernel,
+    neelThreshold: type.neelThresholdFullKernel,
+    neelThresholdThinFilm: neelThresholdDmi(f),
     wallType: type.text,
     helicity: eq.helicity,
     energyWithVolumeCharges: eq.energy,
@@ -80,8 +80,8 @@ function computeWall(v: InputValues): ComputeOutput {
     mz: profile.mz,
     mInPlane: profile.mInPlane,
   };
-  if (f.D !== 0) values.spiralPeriod = spiralPeriod(f);
-  if (spiral.groundState) values.equilibriumSpiralPeriod = spiral.period;
+  if (f.D !== 0) values.dmiSpiralPeriod = spiralPeriod(f);
+  if (spiral.groundState) values.spiralPeriod = spiral.period;
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
 
@@ -95,19 +95,19 @@ const wallSpec = defineCalculator({
     { name: "width", symbol: "\\Delta", unit: "m", meaning: "wall width parameter sqrt(A / K_eff)" },
     { name: "energy", symbol: "\\sigma", unit: "J/m^2", meaning: "energy per unit area of the DMI-favoured wall, 4 sqrt(A K_eff) - pi |D| (local model)" },
     { name: "criticalDmi", symbol: "D_c", unit: "J/m^2", meaning: "DMI above which walls have negative energy, 4 sqrt(A K_eff) / pi" },
-    { name: "exchangeLength", symbol: "l_{ex}", unit: "m", meaning: "sqrt(2A / (mu0 Ms^2))" },
-    { name: "effectiveAnisotropy", symbol: "K_{eff}", unit: "J/m^3", meaning: "Ku - mu0 Ms^2 / 2" },
-    { name: "qualityFactor", symbol: "Q_K", unit: "", meaning: "2 Ku / (mu0 Ms^2)" },
+    { name: "exchangeLength", symbol: "l_{ex}", unit: "m", meaning: "exchange length sqrt(2A / (mu0 Ms^2))" },
+    { name: "effectiveAnisotropy", symbol: "K_{eff}", unit: "J/m^3", meaning: "effective anisotropy Ku - mu0 Ms^2 / 2" },
+    { name: "qualityFactor", symbol: "Q_K", unit: "", meaning: "quality factor 2 Ku / (mu0 Ms^2)" },
     { name: "lilleyWidth", symbol: "\\pi\\Delta", unit: "m", meaning: "Lilley width pi Delta (tangent of theta at the centre)" },
     { name: "mzSlopeWidth", symbol: "2\\Delta", unit: "m", meaning: "slope width of m_z, 2 Delta" },
     { name: "inPlaneFwhm", symbol: "w_{FWHM}", unit: "m", meaning: "full width at half maximum of the in-plane component, 2 arccosh(2) Delta" },
-    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "thin-film limit 2 ln2 mu0 Ms^2 t / pi^2 of the Neel threshold (for reference; the verdict uses neelThresholdFullKernel)" },
-    { name: "neelThresholdFullKernel", symbol: "D_N'", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta): the one wallType and regime use" },
+    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta): the one wallType and regime use" },
+    { name: "neelThresholdThinFilm", symbol: "D_N^{(0)}", unit: "J/m^2", meaning: "Neel threshold in the thin-film limit, 2 ln2 mu0 Ms^2 t / pi^2 (for reference)" },
     { name: "wallType", symbol: "", unit: "", kind: "text", meaning: "Bloch, intermediate or Neel, in words" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "in-plane angle of the wall moment from the direction toward the up domain" },
     { name: "energyWithVolumeCharges", symbol: "\\sigma'", unit: "J/m^2", meaning: "equilibrium wall energy including the Neel volume-charge cost (full kernel)" },
-    { name: "spiralPeriod", symbol: "L_0", unit: "m", meaning: "zero-anisotropy spiral period 4 pi A / |D| (absent for D = 0)" },
-    { name: "equilibriumSpiralPeriod", symbol: "L", unit: "m", meaning: "equilibrium spiral period with anisotropy (only when |D| > D_c)" },
+    { name: "dmiSpiralPeriod", symbol: "L_D", unit: "m", meaning: "zero-anisotropy spiral period 4 pi A / |D| (absent for D = 0)" },
+    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "spin spiral period with anisotropy (only when |D| > D_c)" },
     { name: "regime", symbol: "", unit: "", kind: "text", meaning: "what the film does, in words" },
     { name: "x", symbol: "x", unit: "m", kind: "array", meaning: "position across the wall" },
     { name: "mz", symbol: "m_z", unit: "", kind: "array", meaning: "out-of-plane component, -tanh(x / Delta)" },
@@ -117,6 +117,7 @@ const wallSpec = defineCalculator({
   assumptions: [...commonAssumptions, "Rigid Landau-Lifshitz profile; the Neel volume-charge cost uses that profile (collective coordinates)."],
   sources: wallSources,
   method: "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
+  headline: ["width", "energy", "criticalDmi", "neelThreshold"],
   limits: filmLimits,
   compute: computeWall,
 });
@@ -143,7 +144,7 @@ function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOu
   if (aboveDc) values.saturationField = saturationField(f);
   if (eq.status === "bound") {
     values.radius = eq.radius;
-    values.width = eq.width;
+    values.wallWidth = eq.width;
     values.energy = eq.energy;
     values.exactRadius = eq.exact!.radius;
     values.exactWidth = eq.exact!.width;
@@ -153,7 +154,7 @@ function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOu
     values.mz = p.mz;
     values.mInPlane = p.mx.map((mx, i) => mx * Math.cos(eq.helicity) + p.my[i]! * Math.sin(eq.helicity));
   } else {
-    values.width = Delta;
+    values.wallWidth = Delta;
     if (Number.isFinite(eq.energy)) values.energy = eq.energy;
   }
   if (options.sweep) {
@@ -173,7 +174,7 @@ function computeWall360(v: InputValues, options: ComputeOptions = {}): ComputeOu
     if (fieldSweep.length < Bs.length) notes.push(`${Bs.length - fieldSweep.length} sweep points at B <= 0 have no bound pair and are left out.`);
     values.fieldSweep = fieldSweep;
     values.radiusSweep = R;
-    values.widthSweep = w;
+    values.wallWidthSweep = w;
     values.energySweep = E;
   }
   return { values, status: eq.status === "bound" && notes.length === 0 ? "ok" : "warning", notes };
@@ -186,12 +187,12 @@ const wall360Spec = defineCalculator({
     "A pair of 180-degree walls enclosing a reversed core (a 1D 360-degree wall) in a perpendicular film, with the Braun ansatz tan(theta/2) = sinh(R/w) / sinh(|x|/w): equilibrium core half-width R and wall width w in a field B along the background, its energy, and R(B), w(B) over a field sweep.",
   inputs: [
     ...filmInputs,
-    { name: "B", symbol: "B", unit: "T", default: 0.05, min: 1e-3, max: 1, scale: "log", meaning: "applied field mu0 H along +z (the background); B > 0 compresses the core" },
+    { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: 1e-3, max: 1, scale: "log", meaning: "applied field mu0 H along +z (the background); B > 0 compresses the core" },
   ],
   outputs: [
     { name: "radius", symbol: "R", unit: "m", meaning: "core half-width (m_z = 0 at x = +-R), by minimization" },
-    { name: "width", symbol: "w", unit: "m", meaning: "wall width of the ansatz, by minimization" },
-    { name: "energy", symbol: "E", unit: "J/m^2", meaning: "energy per unit area relative to the uniform state" },
+    { name: "wallWidth", symbol: "w", unit: "m", meaning: "wall width of the ansatz, by minimization" },
+    { name: "energy", symbol: "\\sigma", unit: "J/m^2", meaning: "energy per unit area relative to the uniform state" },
     { name: "exactRadius", symbol: "R^*", unit: "m", meaning: "R of the exact 1D pair, w asinh(sqrt((1+h)/h))" },
     { name: "exactWidth", symbol: "w^*", unit: "m", meaning: "w of the exact 1D pair, Delta / sqrt(1+h)" },
     { name: "mergeField", symbol: "B_m", unit: "T", meaning: "field above which R < w (the walls merge into one compressed 2-pi soliton)" },
@@ -201,14 +202,14 @@ const wall360Spec = defineCalculator({
     { name: "x", symbol: "x", unit: "m", kind: "array", meaning: "position" },
     { name: "mz", symbol: "m_z", unit: "", kind: "array", meaning: "out-of-plane component" },
     { name: "mInPlane", symbol: "m_\\parallel", unit: "", kind: "array", meaning: "in-plane component along the helicity direction (signed)" },
-    { name: "fieldSweep", symbol: "B", unit: "T", kind: "array", meaning: "fields of the sweep" },
-    { name: "radiusSweep", symbol: "R(B)", unit: "m", kind: "array", meaning: "R over the sweep" },
-    { name: "widthSweep", symbol: "w(B)", unit: "m", kind: "array", meaning: "w over the sweep" },
-    { name: "energySweep", symbol: "E(B)", unit: "J/m^2", kind: "array", meaning: "energy over the sweep" },
+    { name: "fieldSweep", symbol: "\\mu_0 H", unit: "T", kind: "array", meaning: "fields of the sweep" },
+    { name: "radiusSweep", symbol: "R", unit: "m", kind: "array", meaning: "R over the sweep" },
+    { name: "wallWidthSweep", symbol: "w", unit: "m", kind: "array", meaning: "w over the sweep" },
+    { name: "energySweep", symbol: "\\sigma", unit: "J/m^2", kind: "array", meaning: "energy per unit area over the sweep" },
   ],
   plots: [
     { id: "profile", title: "360-degree wall profile", x: "x", y: ["mz", "mInPlane"] },
-    { id: "size", title: "R and w against B", x: "fieldSweep", y: ["radiusSweep", "widthSweep"], xLog: true, yLog: true },
+    { id: "size", title: "R and w against B", x: "fieldSweep", y: ["radiusSweep", "wallWidthSweep"], xLog: true, yLog: true },
     { id: "energy", title: "Energy against B", x: "fieldSweep", y: ["energySweep"], xLog: true },
   ],
   sweep: { over: ["B"], points: 60 },
@@ -269,10 +270,10 @@ const wallTypeSpec = defineCalculator({
   outputs: [
     { name: "wallType", symbol: "", unit: "", kind: "text", meaning: "the wall type in words" },
     { name: "character", symbol: "", unit: "", kind: "text", meaning: "Bloch, intermediate or Neel" },
-    { name: "cosHelicity", symbol: "\\cos\\gamma", unit: "", meaning: "signed Neel fraction of the wall moment, D / D_N clipped to [-1, 1]" },
+    { name: "cosHelicity", symbol: "\\cos \\gamma", unit: "", meaning: "signed Neel fraction of the wall moment, D / D_N clipped to [-1, 1]" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of the wall" },
-    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel" },
-    { name: "neelThresholdThinFilm", symbol: "D_N^{(0)}", unit: "J/m^2", meaning: "Neel threshold in the thin-film limit, 2 ln2 mu0 Ms^2 t / pi^2" },
+    { name: "neelThreshold", symbol: "D_N", unit: "J/m^2", meaning: "Neel threshold with the full thin-film kernel (finite t / Delta): the one wallType uses" },
+    { name: "neelThresholdThinFilm", symbol: "D_N^{(0)}", unit: "J/m^2", meaning: "Neel threshold in the thin-film limit, 2 ln2 mu0 Ms^2 t / pi^2 (for reference)" },
     { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "for |D| > D_c: field above which the uniform film is lower than a spiral or strips" },
     { name: "curveT", symbol: "t", unit: "m", kind: "array", meaning: "thicknesses of the phase boundary" },
     { name: "curveFullKernel", symbol: "D_N(t)", unit: "J/m^2", kind: "array", meaning: "phase boundary, full kernel" },

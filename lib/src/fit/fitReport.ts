@@ -8,18 +8,49 @@ import { customaryUnit, displayUnit, formatNumber } from "../quantity/units.js";
 import type { FitResult, ParameterResult } from "./leastSquares.js";
 import type { FieldSeriesResult } from "./fieldSeries.js";
 
-/** "value ± stderr unit" in one customary unit chosen from the value. */
+/**
+ * "value ± uncertainty unit" in one customary unit chosen from the value: the uncertainty rounded
+ * to two significant digits and the value to the same decimal place ("11.022 ± 0.036 nm").
+ * Source: JCGM 100:2008 (GUM) §7.2.6 (at most two significant digits of an uncertainty) and §7.2.2
+ * (value and uncertainty in the same unit, to the same place). No "-0": a value that rounds to zero
+ * is "0".
+ */
 export function formatWithError(value: number, stderr: number | null, siUnit: string, digits = 4): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0 && !stderr) return `0${siUnit ? " " + displayUnit(siUnit) : ""}`;
   const [u, f] = customaryUnit(value !== 0 ? value : stderr ?? 0, siUnit);
   const unit = u && u !== "1" ? " " + displayUnit(u) : "";
   if (stderr === null || !Number.isFinite(stderr)) return `${formatNumber(value / f, digits)}${unit}`;
-  // digits of the value follow the error: two significant digits of the error
-  const e = stderr / f;
-  const decimals = e > 0 ? Math.max(0, 1 - Math.floor(Math.log10(e))) : digits;
-  const fix = (v: number) => (decimals <= 12 ? v.toFixed(Math.min(decimals, 12)) : formatNumber(v, digits));
-  return `${fix(value / f)} ± ${fix(e)}${unit}`;
+  return `${valueErrorPair(value / f, stderr / f)}${unit}`;
+}
+
+/** Value and uncertainty (same unit) to the uncertainty's two significant digits: ["11.022", "0.036"]. */
+export function roundToUncertainty(value: number, uncertainty: number): [string, string] {
+  const e = Math.abs(uncertainty);
+  if (!(e > 0) || !Number.isFinite(e)) return [formatNumber(value, 4), String(uncertainty)];
+  // the place of the second significant digit, after rounding (0.0995 -> 0.10, not 0.100)
+  let place = Math.floor(Math.log10(e)) - 1;
+  if (Math.round(e / 10 ** place) >= 100) place += 1;
+  const unsign = (t: string) => (/^-0(\.0*)?$/.test(t) ? t.slice(1) : t);
+  if (place >= 0) {
+    const step = 10 ** place;
+    return [unsign(String(Math.round(value / step) * step)), String(Math.round(e / step) * step)];
+  }
+  const d = Math.min(-place, 20);
+  return [unsign(value.toFixed(d)), e.toFixed(d)];
+}
+
+function valueErrorPair(value: number, uncertainty: number): string {
+  const a = Math.abs(value), e = Math.abs(uncertainty);
+  // very large or small numbers in one shared power of ten: "(1.234 ± 0.056)e-7"
+  const big = Math.max(a, e);
+  if (big > 0 && (big >= 1e6 || big < 1e-3)) {
+    const p = Math.floor(Math.log10(big));
+    const [v, u] = roundToUncertainty(value / 10 ** p, e / 10 ** p);
+    return `(${v} ± ${u})e${p}`;
+  }
+  const [v, u] = roundToUncertainty(value, e);
+  return `${v} ± ${u}`;
 }
 
 function rangeText(lo: number, hi: number, value: number, siUnit: string): string {
@@ -31,7 +62,8 @@ function rangeText(lo: number, hi: number, value: number, siUnit: string): strin
 
 function intervalText(p: ParameterResult): string {
   if (!p.interval) return p.fixed ? "fixed" : p.atBound ? "on its bound" : "—";
-  return rangeText(p.interval[0], p.interval[1], p.value, p.unit);
+  const text = rangeText(p.interval[0], p.interval[1], p.value, p.unit);
+  return p.clipped?.length ? `${text} (clipped at the physical limit: ${p.clipped.join(" and ")} end)` : text;
 }
 
 function profileText(p: ParameterResult): string {

@@ -43,6 +43,12 @@ export interface FitParameter {
   typical?: number;
   /** One line: what the parameter means. */
   meaning?: string;
+  /**
+   * The values the quantity can physically take (a length >= 0, a cosine in [-1, 1]), unlike
+   * min/max, which bound the search: a confidence interval that crosses them is clipped there
+   * and the result says so.
+   */
+  physical?: [number, number];
 }
 
 /** A least-squares problem over a full parameter vector (fixed parameters included). */
@@ -81,8 +87,10 @@ export interface ParameterResult {
   unit: string;
   fixed: boolean;
   atBound: boolean;
-  /** Wald interval at the confidence level. */
+  /** Wald interval at the confidence level (clipped at the parameter's physical limits, see `clipped`). */
   interval: [number, number] | null;
+  /** Which ends of `interval` were clipped at a physical limit (absent when none). */
+  clipped?: Array<"lower" | "upper">;
   /** Profile-likelihood interval (when requested); an open side is +-Infinity with a note. */
   profileInterval?: [number, number] | null;
   /** Bootstrap percentile interval and standard deviation (when requested). */
@@ -420,6 +428,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       atBound: onBound.includes(j),
       interval: se !== null ? [x[j] - q * se, x[j] + q * se] : null,
     };
+    clipInterval(p, parameters[p.name]!, confidence, notes);
   });
   let covariance: number[][] | null = null;
   let correlation: number[][] | null = null;
@@ -676,4 +685,24 @@ function bootstrap(
     parameters[name].bootstrapStderr = sd;
     parameters[name].bootstrapInterval = [pick((1 - confidence) / 2), pick((1 + confidence) / 2)];
   });
+}
+
+/**
+ * A linearized (Wald) interval may cross what the quantity can be (a cosine above 1, a negative
+ * length): clipped there, with a note giving the unclipped end. Common practice, no source (the
+ * interval of a bounded quantity is reported within its range; JCGM 100:2008 keeps the standard
+ * uncertainty itself unchanged).
+ */
+function clipInterval(p: FitParameter, r: ParameterResult, confidence: number, notes: string[]): void {
+  if (!p.physical || !r.interval) return;
+  const [lo, hi] = p.physical;
+  const [a, b] = r.interval;
+  const clipped: Array<"lower" | "upper"> = [];
+  if (a < lo) clipped.push("lower");
+  if (b > hi) clipped.push("upper");
+  if (!clipped.length) return;
+  r.interval = [Math.max(a, lo), Math.min(b, hi)];
+  r.clipped = clipped;
+  const ends = clipped.map((c) => (c === "lower" ? `${a.toPrecision(4)} clipped at ${lo}` : `${b.toPrecision(4)} clipped at ${hi}`));
+  notes.push(`the ${Math.round(confidence * 100)} % interval of ${p.name} crosses its physical limit [${lo}, ${hi}]: ${ends.join(", ")} (linearized interval; a profile-likelihood interval respects the limit by itself)`);
 }

@@ -63,10 +63,19 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   const delim: string | RegExp = body.includes("\t") ? "\t" : body.includes(",") ? "," : body.includes(";") ? ";" : /\s+/;
   const rows: Array<{ line: number; cells: string[] }> = [];
   let header: string[] | null = null;
+  let unitRow: string[] | null = null;
+  let unitRowLine = 0;
   lines.forEach((raw, i) => {
     const line = raw.trim();
     if (line === "" || line.startsWith("#")) return;
     const cells = splitLine(line, delim);
+    // An optional units row right under the header (as instruments and spreadsheets write it):
+    // no cell is a number ("nm, mT, mT" or "(nm), [mT], ").
+    if (header !== null && unitRow === null && rows.length === 0 && cells.every((c) => c === "" || (!/^nan$/i.test(c) && !decimalRe.test(c)))) {
+      unitRow = cells.map((c) => c.replace(/^[([]\s*|\s*[)\]]$/g, "").trim());
+      unitRowLine = i + 1;
+      return;
+    }
     if (header === null && rows.length === 0 && cells.some((c) => c !== "" && !/^nan$/i.test(c) && !decimalRe.test(c) && !/^[+-]?(0[xXbBoO][\da-fA-F]+|inf(inity)?)$/i.test(c))) {
       header = cells;
       return;
@@ -79,6 +88,18 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     const m = unitInName.exec(n);
     return m ? m[2] : "";
   });
+  const headerNotes: string[] = [];
+  if (unitRow !== null) {
+    const row: string[] = unitRow;
+    row.forEach((u, j) => {
+      if (j >= units.length || u === "") return;
+      if (units[j] && units[j] !== u) {
+        throw new InputError(`${src} line ${unitRowLine}`, u, `the unit of column "${names[j]}" once: the header says "${units[j]}", the units row "${u}"`);
+      }
+      units[j] = u;
+    });
+    headerNotes.push(`units row under the header (line ${unitRowLine}) read: ${names.map((n, j) => `${n} [${units[j] || "no unit"}]`).join(", ")}`);
+  }
   const bare = names.map((n) => {
     const m = unitInName.exec(n);
     return (m ? m[1] : n).trim();
@@ -101,7 +122,7 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     throw new InputError(src, `${names.length} column(s): ${names.join(", ")}`, "at least two columns: position and signal (and optionally sigma)");
   }
   const needed = Math.max(jx, jy, js ?? 0) + 1;
-  const notes: string[] = [];
+  const notes: string[] = [...headerNotes];
   // An option unit that contradicts the header's is an error, not silently ignored.
   for (const [j, opt, what] of [[jx, options.xUnit, "xUnit"], [jy, options.yUnit, "yUnit"]] as const) {
     if (opt && units[j] && opt !== units[j]) {

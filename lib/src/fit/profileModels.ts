@@ -43,23 +43,26 @@ const STRAY_SOURCES = [
   "R. Beardsley, IEEE Trans. Magn. 25, 671 (1989): stray field of thin-film magnetization in Fourier space",
   "J.-P. Tetienne et al., Nat. Commun. 6, 6733 (2015): Bloch versus Neel walls from the stray field",
 ];
-const BASE_ASSUMPTIONS = ["continuum micromagnetics, T = 0", "straight wall (1D profile), magnetization uniform through the film thickness"];
+const BASE_ASSUMPTIONS = ["continuum micromagnetics, T = 0", "magnetization uniform through the film thickness"];
+const STRAIGHT_WALL = "straight wall (1D profile: m depends only on the position x across it)";
+const CENTRAL_CUT = "a cut through the centre of an axisymmetric skyrmion, or across a straight 360-degree wall (m depends only on the distance from the centre or the wall line)";
+const STRAY_360_CUT = "the cut is treated as a straight 360-degree wall (invariant along y): for a skyrmion whose radius is not large against h this neglects the curvature of its wall";
 
 const nm = 1e-9;
 const P = {
   x0: (): FitParameter => ({ name: "x0", value: 0, unit: "m", typical: 10 * nm, meaning: "wall or core center" }),
-  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
-  R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "radius (m_z = 0 at |x - x0| = R)" }),
-  w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, meaning: "wall width of the ansatz" }),
+  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
+  R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "radius (m_z = 0 at |x - x0| = R)" }),
+  w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width of the ansatz" }),
   offset: (unit: string): FitParameter => ({ name: "offset", value: 0, unit, typical: 1, meaning: "signal offset" }),
   contrast: (): FitParameter => ({ name: "contrast", value: 1, unit: "", typical: 1, meaning: "signal per unit m_z (sensor along +z)" }),
   tilt: (): FitParameter => ({ name: "tilt", value: 0.1, unit: "rad", min: -Math.PI / 2, max: Math.PI / 2, typical: 0.1, meaning: "sensor axis tilt from +z toward +x (the cut direction)" }),
   helicity: (fixed: boolean): FitParameter => ({ name: "helicity", value: 0, unit: "rad", min: -2 * Math.PI, max: 2 * Math.PI, typical: 0.1, fixed, meaning: "in-plane angle of the wall moment (0, pi: Neel; +-pi/2: Bloch)" }),
-  h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, meaning: "sensor height above the film top surface" }),
-  t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, meaning: "film thickness" }),
-  Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, meaning: "saturation magnetization" }),
-  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
-  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, meaning: "standard deviation of the Gaussian instrument blur" }),
+  h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "sensor height above the film top surface" }),
+  t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, physical: [0, Infinity], meaning: "film thickness" }),
+  Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, physical: [0, Infinity], meaning: "saturation magnetization" }),
+  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, physical: [-1, 1], meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
+  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, physical: [0, Infinity], meaning: "standard deviation of the Gaussian instrument blur" }),
 };
 
 function idx(params: FitParameter[]) {
@@ -75,7 +78,7 @@ const wall180Mz: ProfileModel = {
   summary: "Polar (m_z) contrast across a 180-degree wall: spin-polarized tunnelling with a perpendicular tip, polar Kerr, XMCD at normal incidence.",
   parameters: [P.x0(), P.Delta(), P.offset(""), P.contrast()],
   signalUnit: "",
-  assumptions: [...BASE_ASSUMPTIONS, "signal linear in m_z"],
+  assumptions: [...BASE_ASSUMPTIONS, STRAIGHT_WALL, "signal = offset + contrast * m_z (linear in m_z)"],
   sources: WALL_SOURCES,
   bind(x) {
     const m = x.length;
@@ -105,7 +108,7 @@ const wall180Tilted: ProfileModel = {
   summary: "Signal = offset + contrast * (m . n), sensor axis n tilted from +z toward +x by `tilt`: the in-plane moment of the wall adds an odd part. The helicity is held fixed by default (with one tilted sensor only contrast*sin(tilt)*cos(helicity) is measurable).",
   parameters: [P.x0(), P.Delta(), P.helicity(true), P.tilt(), P.offset(""), P.contrast()],
   signalUnit: "",
-  assumptions: [...BASE_ASSUMPTIONS, "signal linear in m . n, sensor axis in the x-z plane"],
+  assumptions: [...BASE_ASSUMPTIONS, STRAIGHT_WALL, "signal linear in m . n, sensor axis n in the x-z plane"],
   sources: WALL_SOURCES,
   bind(x) {
     const m = x.length;
@@ -135,7 +138,7 @@ const wall360Mz: ProfileModel = {
   summary: "Polar contrast along a cut through a skyrmion or a 360-degree wall, ansatz tan(theta/2) = sinh(R/w) / sinh(|x - x0|/w).",
   parameters: [P.x0(), P.R(), P.w(), P.offset(""), P.contrast()],
   signalUnit: "",
-  assumptions: [...BASE_ASSUMPTIONS, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal linear in m_z"],
+  assumptions: [...BASE_ASSUMPTIONS, CENTRAL_CUT, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal = offset + contrast * m_z (linear in m_z)"],
   sources: W360_SOURCES,
   bind(x) {
     const m = x.length;
@@ -232,7 +235,7 @@ const wall360Tilted: ProfileModel = {
   summary: "Signal = offset + contrast * (cos(tilt) m_z + sin(tilt) m_x) along the cut; helicity fixed by default.",
   parameters: [P.x0(), P.R(), P.w(), P.helicity(true), P.tilt(), P.offset(""), P.contrast()],
   signalUnit: "",
-  assumptions: [...BASE_ASSUMPTIONS, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal linear in m . n, sensor axis in the x-z plane"],
+  assumptions: [...BASE_ASSUMPTIONS, CENTRAL_CUT, "profile ansatz of Braun / Buettner-Lemesh-Beach", "signal linear in m . n, sensor axis n in the x-z plane"],
   sources: W360_SOURCES,
   bind(x) {
     return {
@@ -290,7 +293,7 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
     summary: `${label} above the film from its surface and volume charges (Fourier space), with neel = cos(helicity) free (m_y has no charge, so the field sees the helicity only through its cosine): |neel| near 1 is a Neel wall, its sign the chirality, near 0 a Bloch wall; Gaussian blur optional (fixed at 0 by default).`,
     parameters: params,
     signalUnit: "T",
-    assumptions: [...BASE_ASSUMPTIONS, "point sensor at height h above the top surface (finite size only through the blur)", "the FFT grid is set from the start values: lengths far below the start width are resolved less well"],
+    assumptions: [...BASE_ASSUMPTIONS, kind === "180" ? STRAIGHT_WALL : STRAY_360_CUT, `signal = ${label} of the surface and volume charges of m (not a function of m_z alone)`, "point sensor at height h above the top surface (finite size only through the blur)", "the FFT grid is set from the start values: lengths far below the start width are resolved less well"],
     sources: [...(kind === "180" ? WALL_SOURCES : W360_SOURCES), ...STRAY_SOURCES],
     bind(x, start) {
       const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];

@@ -4,7 +4,8 @@
  * endian for v1, uint32 for v2/v3), an ASCII (v1/v2) or UTF-8 (v3) Python dict literal with keys
  * 'descr', 'fortran_order' and 'shape', padded with spaces and ending in "\n"; then the raw data.
  * Accepted: float32/float64 in either byte order ('<f4', '>f4', '<f8', '>f8'; '=' is read as
- * little endian), shapes (ny, nx, 3) and (nz, ny, nx, 3), C or Fortran order. The output is a new
+ * little endian), shapes (ny, nx, 3) and (nz, ny, nx, 3), or component-first (3, ny, nx) and
+ * (3, nz, ny, nx) (the layout read is said in a note), C or Fortran order. The output is a new
  * Float64Array (the input bytes are never changed). Hand-written: no TypeScript .npy library is
  * maintained for both Node and browsers.
  */
@@ -55,7 +56,7 @@ export function parseNpyHeader(bytes: Uint8Array, file = "array.npy"): NpyHeader
   return { version: [major, minor], descr, fortranOrder: fo === "True", shape, dataOffset: start + headerLen };
 }
 
-const EXPECTED_SHAPES = "(ny, nx, 3) or (nz, ny, nx, 3)";
+const EXPECTED_SHAPES = "(ny, nx, 3) or (nz, ny, nx, 3), or component-first (3, ny, nx) or (3, nz, ny, nx)";
 
 /** Read a .npy vector field (see the file comment for what is accepted). */
 export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {}): ReadResult {
@@ -68,10 +69,18 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
   if (typeMatch[1] === "=") notes.push("byte order '=' (native) read as little endian");
   const size = Number(typeMatch[2]);
   const shapeStr = `(${h.shape.join(", ")}${h.shape.length === 1 ? "," : ""})`;
-  if ((h.shape.length !== 3 && h.shape.length !== 4) || h.shape[h.shape.length - 1] !== 3) {
+  const rank = h.shape.length;
+  const componentLast = (rank === 3 || rank === 4) && h.shape[rank - 1] === 3;
+  const componentFirst = !componentLast && (rank === 3 || rank === 4) && h.shape[0] === 3;
+  if (!componentLast && !componentFirst) {
     throw new InputError(`${file}: shape`, shapeStr, EXPECTED_SHAPES);
   }
-  const [nz, ny, nx] = h.shape.length === 3 ? [1, h.shape[0]!, h.shape[1]!] : [h.shape[0]!, h.shape[1]!, h.shape[2]!];
+  const dims = componentLast ? h.shape.slice(0, rank - 1) : h.shape.slice(1);
+  const [nz, ny, nx] = dims.length === 2 ? [1, dims[0]!, dims[1]!] : [dims[0]!, dims[1]!, dims[2]!];
+  const names = rank === 3 ? "ny, nx" : "nz, ny, nx";
+  notes.push(componentLast
+    ? `layout read: component-last (${names}, 3) = ${shapeStr}${h.shape[0] === 3 ? " (the shape would also fit component-first (3, " + names + "); component-last was chosen, the default)" : ""}`
+    : `layout read: component-first (3, ${names}) = ${shapeStr}`);
   if (nx < 1 || ny < 1 || nz < 1) throw new InputError(`${file}: shape`, shapeStr, `${EXPECTED_SHAPES} with every size >= 1`);
   checkFieldBudget(file, nx, ny, nz);
   const count = 3 * nx * ny * nz;
@@ -82,7 +91,15 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
 
   const out = new Float64Array(count);
   const abs = bytes.byteOffset + h.dataOffset;
-  if (!h.fortranOrder && little && size === 8) {
+  if (componentFirst) {
+    const view = new DataView(bytes.buffer, abs, need);
+    const get = size === 8 ? (k: number) => view.getFloat64(8 * k, little) : (k: number) => view.getFloat32(4 * k, little);
+    // element (c, k, j, i) of shape (3, nz, ny, nx): C order ((c nz + k) ny + j) nx + i; Fortran order c + 3 (k + nz (j + ny i))
+    for (let c = 0; c < 3; c++) for (let k = 0; k < nz; k++) for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) {
+      const src = h.fortranOrder ? c + 3 * (k + nz * (j + ny * i)) : ((c * nz + k) * ny + j) * nx + i;
+      out[3 * ((k * ny + j) * nx + i) + c] = get(src);
+    }
+  } else if (!h.fortranOrder && little && size === 8) {
     // C order little-endian float64 is our layout byte for byte: one copy.
     new Uint8Array(out.buffer).set(bytes.subarray(h.dataOffset, h.dataOffset + need));
   } else if (!h.fortranOrder && little && size === 4) {

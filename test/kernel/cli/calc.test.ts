@@ -33,7 +33,7 @@ describe("helicoid calc", () => {
   });
 
   it("gives sweep outputs as arrays, and a sweep of our choosing", () => {
-    const r = calc("skyrmion", "B=50mT", "--sweep", "B=0mT:100mT:11", "--json");
+    const r = calc("skyrmion", "B=50mT", "--demo", "--sweep", "B=0mT:100mT:11", "--json");
     expect(r.status, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout);
     for (const k of ["radius", "wallWidth", "energy"]) expect(typeof j.outputs[k].value, k).toBe("number");
@@ -83,7 +83,7 @@ describe("helicoid calc", () => {
     // Common practice, no source: a typo or a doubled argument must not be silently ignored or last-wins.
     let r = calc("wall", "--bogus");
     expect(r.status).toBe(2);
-    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --help, -h, --progress, --sweep/);
+    expect(r.stderr).toMatch(/unknown option --bogus; the options are --json, --list, --help, -h, --progress, --si, --demo, --sweep/);
     // The usage shown on an error names every option.
     for (const o of ["--sweep NAME=FROM:TO:POINTS", "--json", "--list"]) expect(r.stderr).toContain(o);
     expect(r.stdout).toBe("");
@@ -104,13 +104,62 @@ describe("helicoid calc", () => {
     spec.compute = () => { throw new ConvergenceError("test solver", "no bracket", { evaluations: 7 }); };
     let out = "", err = "";
     try {
-      const code = await calcCommand(["wall", "--json"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+      const code = await calcCommand(["wall", "--demo", "--json"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
       expect(code).toBe(1);
     } finally {
       spec.compute = compute;
     }
     expect(err).toBe("helicoid calc: test solver did not converge: no bracket (evaluations: 7)\n");
     expect(JSON.parse(out)).toEqual({ id: "wall", status: "error", error: { type: "ConvergenceError", message: expect.stringMatching(/no bracket/), diagnostics: { evaluations: 7 } } });
+  });
+
+  it("a film calculator requires its film: the missing inputs are named, with --demo and a film file as the ways out", () => {
+    // Common practice, no source: no silent invented values in a number a researcher may quote.
+    let r = calc("skyrmion");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/^helicoid calc: film = "not given: Ms, A, Ku, D, t" is not valid: expected every film input of 'skyrmion' \(Ms, A, Ku, D, t\)/);
+    expect(r.stderr).toMatch(/--demo/);
+    expect(r.stderr).toMatch(/--film FILE/);
+    expect(r.stdout).toBe("");
+    r = calc("wall-type", "D=0.3mJ/m^2", "--json");
+    expect(r.status).toBe(2);
+    expect(JSON.parse(r.stdout)).toMatchObject({ id: "wall-type", status: "error", error: { type: "InputError", parameter: "film", value: "not given: Ms, A, Ku, t" } });
+    // precessing-skyrmion takes no D: only the film inputs it has are required
+    r = calc("precessing-skyrmion", "Ms=0.8MA/m");
+    expect(r.stderr).toMatch(/not given: A, Ku, t"/);
+    // --demo fills them in, and the result says which and that they are invented
+    r = calc("wall-type", "D=0.3mJ/m^2", "--demo", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.status).toBe("warning");
+    expect(j.demo).toEqual(["Ms", "A", "Ku", "t"]);
+    expect(j.notes[0]).toMatch(/^demo values \(--demo\): Ms = 1\.1 MA\/m, A = 15 pJ\/m, Ku = 1\.2 MJ\/m³, t = 1 nm are the invented demo film's/);
+    expect(j.inputs.D.value).toBeCloseTo(0.3e-3, 12);
+    r = calc("wall", "Ms=1.1MA/m", "A=15pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm", "--json");
+    expect(JSON.parse(r.stdout)).toMatchObject({ status: "ok", demo: [], defaults: [] });
+  });
+
+  it("refuses a bare number for a quantity with a unit (suggesting the unit) unless --si", () => {
+    // Common practice, no source: "A=10" meant as pJ/m must not run as 10 J/m.
+    let r = calc("wall", "Ms=1.1MA/m", "A=10", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/^helicoid calc: A = "10" is not valid: expected a value with its unit \(such as A=10pJ\/m\)\. .*add --si to read bare numbers in SI \(10 J\/m\)/);
+    r = calc("berry-loop", "theta=1");
+    expect(r.stderr).toMatch(/theta = "1" is not valid: expected a value with its unit \(such as theta=1deg or 1rad\)/);
+    r = calc("skyrmion", "--demo", "--sweep", "B=0:100:5");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--sweep = "B: 100" is not valid: expected a value with its unit \(such as B=100mT\)/);
+    // whole numbers, choices and zero take no unit; --si reads bare numbers as SI
+    r = calc("easy-plane", "twoS=3", "B=0", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    r = calc("wall", "Ms=1.1e6", "A=1.5e-11", "Ku=1.2e6", "D=1.5e-3", "t=1e-9", "--si", "--json");
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.inputs.A.value).toBe(1.5e-11);
+    expect(j.inputs.t.value).toBe(1e-9);
+    // the same film with units gives the same numbers
+    const u = JSON.parse(calc("wall", "Ms=1.1MA/m", "A=15pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm", "--json").stdout);
+    expect(j.outputs.width.value).toBeCloseTo(u.outputs.width.value, 20);
   });
 
   it("calc ID --help explains a calculator from its spec without running it", async () => {
@@ -120,6 +169,7 @@ describe("helicoid calc", () => {
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/^wall: 180-degree domain wall/);
     for (const i of wallSpec.inputs) expect(r.stdout).toContain(`  ${i.name.padEnd(12)} [`);
+    expect(r.stdout).toMatch(/required: the film's Ms, A, Ku, D, t \(or --demo/);
     for (const o of wallSpec.outputs) expect(r.stdout).toContain(o.meaning);
     expect(r.stdout).toMatch(/usual range 5 pJ\/m to 30 pJ\/m/);
     expect(r.stdout).toMatch(/^assumptions:/m);

@@ -47,6 +47,30 @@ describe("helicoid fit", () => {
     expect(j.correlation.names).toEqual(["x0", "R", "w", "offset", "contrast"]);
     expect(j.chiSquareReduced).toBeGreaterThan(0.7);
     expect(j.chiSquareReduced).toBeLessThan(1.4);
+    // the fitted curve and the residuals y - f, in SI, for a plot: f evaluated independently here from
+    // the fitted parameters with the ansatz tan(theta/2) = sinh(R/w)/sinh(|x - x0|/w)
+    // (Source: F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018)).
+    expect(j.curve.x).toHaveLength(301);
+    expect(j.curve.x[0]).toBeCloseTo(-150e-9, 20);
+    const P = Object.fromEntries(Object.entries(j.parameters).map(([k, v]) => [k, (v as { value: number }).value])) as Record<string, number>;
+    for (const i of [0, 100, 150, 157, 200, 300]) {
+      const x = j.curve.x[i];
+      const t = Math.sinh(P.R! / P.w!) / Math.sinh(Math.abs(x - P.x0!) / P.w!);
+      const mz = Number.isFinite(t) ? (1 - t * t) / (1 + t * t) : -1;
+      expect(j.curve.fitted[i]).toBeCloseTo(P.offset! + P.contrast! * mz, 6);
+      expect(j.curve.residual[i]).toBeCloseTo(j.curve.y[i] - j.curve.fitted[i], 12);
+    }
+    expect(j.curve.sigma[0]).toBe(0.02);
+    expect(j.residualRms).toBeCloseTo(Math.sqrt(j.curve.residual.reduce((a: number, v: number) => a + v * v, 0) / 301), 12);
+    // the wording of the text output: the model, the skyrmion-cut assumption (not a straight wall), goodness of fit
+    const c3 = capture();
+    expect(await fitCommand([file, "--model", "wall360-mz"], c3.io)).toBe(0);
+    const txt = c3.out.join("");
+    expect(txt).toMatch(/^model wall360-mz: /);
+    expect(txt).toMatch(/\n {2}R +\d+\.\d+ ± \d\.\d+ nm {2}\[\d+\.?\d* nm, \d+\.?\d* nm\]\n/);
+    expect(txt).toMatch(/goodness of fit: reduced chi-square [\d.]+ \(about 1 when/);
+    expect(txt).toContain("a cut through the centre of an axisymmetric skyrmion");
+    expect(txt).not.toContain("straight wall (1D profile");
     expect(readFileSync(file, "utf8")).toBe(text); // the user's file is untouched
     // table output with a fixed parameter given with a unit
     const c2 = capture();
@@ -96,7 +120,7 @@ describe("helicoid fit", () => {
     let c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--profile"], c.io)).toBe(0);
     let text = c.out.join("");
-    expect(text).toMatch(/R\s+[\d.]+ ± [\d.]+ nm\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
+    expect(text).toMatch(/R\s+[\d.]+ ± [\d.]+ nm\s+\[[\d.]+ nm, [\d.]+ nm\]\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
     expect(text).toMatch(/^assumptions: continuum micromagnetics, T = 0/m);
     c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--start", "w=8"], c.io)).toBe(1); // 8 m: absurd start, stated

@@ -68,7 +68,7 @@ describe("saveFigure", () => {
 
   it("helicoid calc skyrmion ... --plot out.svg writes the first plot; a wrong extension exits 2", () => {
     const out = join(dir, "skyrmion.svg");
-    const r = spawnSync(process.execPath, [helicoidBin, "calc", "skyrmion", "B=50mT", "D=2.5mJ/m^2", "--plot", out], { encoding: "utf8", timeout: 120_000 });
+    const r = spawnSync(process.execPath, [helicoidBin, "calc", "skyrmion", "B=50mT", "D=2.5mJ/m^2", "--demo", "--plot", out], { encoding: "utf8", timeout: 120_000 });
     expect(r.status, r.stderr).toBe(0);
     expect(r.stderr).toContain(`wrote ${out}`);
     expect(existsSync(out)).toBe(true);

@@ -73,7 +73,7 @@ describe("walls catalogue", () => {
     // above D_c: a warning, and the equilibrium spiral period appears
     const s = runCalculator(spec, { D: "3 mJ/m^2", A: "5 pJ/m" });
     expect(s.status).toBe("warning");
-    expect(s.outputs.equilibriumSpiralPeriod.value).toBeGreaterThan(s.outputs.spiralPeriod.value);
+    expect(s.outputs.spiralPeriod!.value).toBeGreaterThan(s.outputs.dmiSpiralPeriod.value);
   });
 
   it("wall: a thick film gets one Neel threshold and one verdict (wallType and regime agree), checked by scipy quadrature", () => {
@@ -94,8 +94,8 @@ print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t
 `);
     const r = runCalculator(getCalculator("wall"), film);
     const val = (n: string) => r.outputs[n]!.value as number;
-    expect(Math.abs(val("neelThresholdFullKernel") / ref.DN - 1)).toBeLessThan(1e-9);
-    expect(Math.abs(val("neelThreshold") / ref.DNthin - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(val("neelThreshold") / ref.DN - 1)).toBeLessThan(1e-9);
+    expect(Math.abs(val("neelThresholdThinFilm") / ref.DNthin - 1)).toBeLessThan(1e-12);
     const shown = (ref.DN * 1e3).toPrecision(3);
     expect(shown).toBe("0.494");
     const wt = r.outputs.wallType!.value as string, rg = r.outputs.regime!.value as string;
@@ -115,8 +115,8 @@ print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t
     const r = runCalculator(spec, { B: "50 mT" });
     const val = (n: string) => r.outputs[n]!.value as number;
     expect(Math.abs(val("radius") / val("exactRadius") - 1)).toBeLessThan(1e-6);
-    expect(Math.abs(val("width") / val("exactWidth") - 1)).toBeLessThan(1e-6);
-    const R = r.outputs.radiusSweep.value;
+    expect(Math.abs(val("wallWidth") / val("exactWidth") - 1)).toBeLessThan(1e-6);
+    const R = r.outputs.radiusSweep!.value;
     expect(R.length).toBe(60);
     for (let i = 1; i < R.length; i++) expect(R[i]!).toBeLessThan(R[i - 1]!);
     const z = spec.compute({ ...Object.fromEntries(spec.inputs.map((i) => [i.name, i.default])), B: 0 });

@@ -11,6 +11,20 @@ describe("readProfileCsv", () => {
     expect(r.sigma![0]).toBeCloseTo(1e-4, 15);
     expect(r.yUnit).toBe("T");
   });
+  it("reads an optional units row under the header (as instruments and spreadsheets write it), and says so", () => {
+    const r = readProfileCsv("x,Bz,sigma\nnm,mT,mT\n-1,0.5,0.1\n2,1.5,0.1\n");
+    expect(r.x).toEqual([-1e-9, 2e-9]);
+    expect(r.y[1]).toBeCloseTo(1.5e-3, 15);
+    expect(r.sigma![1]).toBeCloseTo(1e-4, 15);
+    expect(r.yUnit).toBe("T");
+    expect(r.notes[0]).toBe("units row under the header (line 2) read: x [nm], Bz [mT], sigma [mT]");
+    // brackets and empty cells (a signal without a unit), tab-separated
+    const t = readProfileCsv("x\tmz\n(um)\t\n1\t0.5\n2\t-0.5\n");
+    expect(t.x).toEqual([1e-6, 2e-6]);
+    expect(t.yUnit).toBe("");
+    // a units row that contradicts the header is refused, naming both
+    expect(() => readProfileCsv("x (nm),mz\num,\n1,0.5\n2,0.4\n")).toThrow(/the header says "nm", the units row "um"/);
+  });
   it("keeps a non-field signal unit and uses the x unit option", () => {
     const r = readProfileCsv("pos\tcounts\n1\t10\n2\t12\n", { xUnit: "um" });
     expect(r.x).toEqual([1e-6, 2e-6]);

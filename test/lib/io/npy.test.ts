@@ -14,7 +14,7 @@ const value = (k: number, j: number, i: number, c: number) => (c === 2 ? 2 + 0.5
 
 describe(".npy reader against files written by Debian's numpy", () => {
   // Source: numpy.lib.format (the .npy format specification and its reference writer), numpy 1.24.
-  const files = runPython<Array<{ path: string; dtype: string; order: string; shape: number[]; version: number[] }>>(`
+  const files = runPython<Array<{ path: string; dtype: string; order: string; shape: number[]; version: number[]; first?: boolean }>>(`
 import json, sys, itertools, numpy as np
 from numpy.lib import format as fmt
 d = json.load(sys.stdin)
@@ -29,15 +29,21 @@ for shape in [(4, 5, 3), (2, 4, 5, 3)]:
         with open(path, "wb") as f:
             fmt.write_array(f, a, version=version)
         out.append({"path": path, "dtype": dt, "order": order, "shape": list(shape), "version": list(version)})
+    # component-first: the same values with the component axis moved to the front, (3, ny, nx) / (3, nz, ny, nx)
+    for dt, order in itertools.product(["<f8", ">f4"], ["C", "F"]):
+        a = np.array(np.moveaxis(v, -1, 0), dtype=dt, order=order)
+        path = "%s/first_%d_%s_%s.npy" % (d["dir"], len(shape), dt.replace("<", "le").replace(">", "be"), order)
+        np.save(path, a)
+        out.append({"path": path, "dtype": dt, "order": order, "shape": list(a.shape), "version": [1, 0], "first": True})
 print(json.dumps(out))
 `, { dir });
 
-  it("wrote all 48 combinations", () => {
-    expect(files.length).toBe(48);
+  it("wrote all 48 combinations and 8 component-first files", () => {
+    expect(files.length).toBe(56);
   });
 
   for (const f of files) {
-    it(`${f.dtype} ${f.order}-order shape (${f.shape.join(", ")}) v${f.version[0]}`, () => {
+    it(`${f.dtype} ${f.order}-order shape (${f.shape.join(", ")}) v${f.version[0]}${f.first ? " component-first" : ""}`, () => {
       const bytes = readFileSync(f.path);
       const before = Buffer.from(bytes);
       const h = parseNpyHeader(bytes, f.path);
@@ -46,7 +52,10 @@ print(json.dumps(out))
       expect(h.shape).toEqual(f.shape);
       const { field, info } = readNpyVectorField(bytes, { file: f.path, dx: 2e-9 });
       expect(Buffer.compare(bytes, before)).toBe(0); // the input is never changed
-      const [nz, ny, nx] = f.shape.length === 3 ? [1, f.shape[0]!, f.shape[1]!] : f.shape;
+      const dims = f.first ? f.shape.slice(1) : f.shape.slice(0, -1);
+      const [nz, ny, nx] = dims.length === 2 ? [1, dims[0]!, dims[1]!] : dims;
+      // the layout read is said
+      expect(info.notes.join(" ")).toContain(f.first ? "layout read: component-first" : "layout read: component-last");
       expect([field.nx, field.ny, field.nz]).toEqual([nx, ny, nz]);
       expect(field.dx).toBe(2e-9);
       expect(info.vacuumCells).toBe(0);
@@ -87,7 +96,7 @@ describe(".npy reader: bad input names what was found and what was expected", ()
   };
   // Common practice, no source: each error is an InputError with the found value and the expectation.
   it("wrong shapes", () => {
-    expect(() => readNpyVectorField(make("<f8", "(4, 5)", 160), { file: "flat.npy" })).toThrow(/flat\.npy: shape = "\(4, 5\)".*expected \(ny, nx, 3\) or \(nz, ny, nx, 3\)/);
+    expect(() => readNpyVectorField(make("<f8", "(4, 5)", 160), { file: "flat.npy" })).toThrow(/flat\.npy: shape = "\(4, 5\)".*expected \(ny, nx, 3\) or \(nz, ny, nx, 3\), or component-first \(3, ny, nx\)/);
     expect(() => readNpyVectorField(make("<f8", "(4, 5, 2)", 320), { file: "two.npy" })).toThrow(/\(4, 5, 2\)/);
     expect(() => readNpyVectorField(make("<f8", "(1, 2, 4, 5, 3)", 8 * 120), { file: "five.npy" })).toThrow(InputError);
   });

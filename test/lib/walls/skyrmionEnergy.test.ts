@@ -23,7 +23,7 @@ describe("skyrmion energy functional", () => {
       expect(Math.abs((e.exchange + tail) / (8 * Math.PI * film.A * film.t) - 1)).toBeLessThan(1e-6);
     }
   });
-  it("selects the helicity by the sign of D: interfacial D > 0 -> psi = 0, bulk D > 0 -> psi = +pi/2", () => {
+  it("selects the helicity by the sign of D: interfacial D > 0 -> gamma = 0, bulk D > 0 -> gamma = +pi/2", () => {
     // Common practice, no source: sign conventions derived in skyrmionEnergy.ts, checked by evaluating both helicities.
     const p = ansatzProfile(6e-9, 3e-9);
     const e0 = skyrmionEnergy(film, 0, p, { helicity: 0, nonlocal: false });
