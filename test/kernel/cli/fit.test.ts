@@ -51,7 +51,7 @@ describe("helicoid fit", () => {
     // table output with a fixed parameter given with a unit
     const c2 = capture();
     expect(await fitCommand([file, "--model", "wall360-mz", "--fix", "w=10 nm"], c2.io)).toBe(0);
-    expect(c2.out.join("")).toMatch(/\n  w\s+10 nm\s+fixed/);
+    expect(c2.out.join("")).toMatch(/\n {2}w\s+10 nm\s+fixed/);
   });
   it("a fit that fails (singular: a flat invented scan with no wall) exits 1 with the reason", async () => {
     const dir = mkdtempSync(join(tmpdir(), "helicoid-fit-"));
@@ -95,7 +95,7 @@ describe("helicoid fit", () => {
     const before = readFileSync(withUnit, "utf8");
     let c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--profile"], c.io)).toBe(0);
-    let text = c.out.join("");
+    const text = c.out.join("");
     expect(text).toMatch(/R\s+[\d.]+ ± [\d.]+ nm\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
     expect(text).toMatch(/^assumptions: continuum micromagnetics, T = 0/m);
     c = capture();
