@@ -27,7 +27,7 @@ import { commandNames } from "../../../kernel-ext/src/cli/main.js";
  */
 export const outsideChecks: Record<string, { file: string; test: string; outputs: string[] }> = {
   wall: { file: "test/lib/calculators/walls.test.ts", test: "wall: outputs match the closed forms on the defaults", outputs: ["width", "energy", "criticalDmi"] },
-  wall360: { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall360: the zero-field-limit pair and the saturation field against scipy", outputs: ["radius", "width"] },
+  wall360: { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall360: the core half-width and its slope against scipy quad of the first integral", outputs: ["radius", "width"] },
   "wall-type": { file: "test/lib/calculators/walls.test.ts", test: "wall360 and wall-type say so when |D| > D_c (no bound pair with negative energy and status ok)", outputs: ["saturationField"] },
   skyrmion: { file: "test/lib/calculators/skyrmions.test.ts", test: "skyrmion: finds the audit bubble at 9 mT and its expansion field does not depend on the sweep direction", outputs: ["radius", "wallWidth"] },
   "skyrmion-profile": { file: "test/lib/calculators/outsideChecks.test.ts", test: "skyrmion-profile: the exact profile solves the Euler-Lagrange equation (scipy solve_bvp)", outputs: ["radiusExact"] },

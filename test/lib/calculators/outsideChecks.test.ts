@@ -4,8 +4,32 @@
  * Each test is registered in `outsideChecks` (contract.test.ts) for its calculator.
  */
 import { describe, expect, it } from "vitest";
-import { getCalculator, runCalculator } from "@helicoid/lib";
+import { getCalculator, makeFilm, runCalculator, solveSkyrmionExact } from "@helicoid/lib";
 import { runPython } from "../../helpers/python.js";
+
+// The radial skyrmion boundary-value problem for scipy (as in test/lib/walls/skyrmionExact.test.ts).
+const SCIPY_BVP = `
+import json, sys, numpy as np
+from scipy.integrate import solve_bvp
+from scipy.optimize import brentq
+out = []
+for c in json.load(sys.stdin):
+    d, b, L = c["d"], c["b"], c["L"]
+    x0 = 1e-3
+    def f(x, y):
+        s, co = np.sin(y[0]), np.cos(y[0])
+        return np.vstack([y[1], -y[1] / x + s * co / x**2 + s * co - d * s**2 / x + b * s])
+    def bc(ya, yb):
+        return np.array([ya[0] - np.pi - x0 * ya[1], yb[0]])
+    x = np.array(c["x"]); x[0] = x0
+    th = np.array(c["theta"]); dth = np.gradient(th, x)
+    sol = solve_bvp(f, bc, x, np.vstack([th, dth]), tol=c["tol"], max_nodes=100000)
+    g = lambda z: sol.sol(z)[0] - np.pi / 2
+    xs = sol.x
+    i = np.where((sol.y[0][:-1] >= np.pi / 2) & (sol.y[0][1:] < np.pi / 2))[0][0]
+    out.append({"status": int(sol.status), "radius": brentq(g, xs[i], xs[i + 1], xtol=1e-14)})
+print(json.dumps(out))
+`;
 
 const num = (r: ReturnType<typeof runCalculator>, name: string): number => r.outputs[name]!.value as number;
 const arr = (r: ReturnType<typeof runCalculator>, name: string): number[] => r.outputs[name]!.value as number[];
@@ -173,5 +197,55 @@ print(json.dumps({'R': abs(p[1]), 'w': abs(p[2])}))`, { x: arr(r, "x"), y: arr(r
     // and the truth it was generated from (R = 30 nm, w = 8 nm) lies within 3 standard errors
     expect(Math.abs(num(r, "Rfit") - 30e-9)).toBeLessThan(3 * num(r, "RStderr"));
     expect(Math.abs(num(r, "wfit") - 8e-9)).toBeLessThan(3 * num(r, "wStderr"));
+  });
+});
+
+describe("outside checks of wall and skyrmion profiles", () => {
+  it("wall360: the core half-width and its slope against scipy quad of the first integral", () => {
+    // Source: the first integral of the 1D wall equation, A theta'^2 = K_eff [sin^2 theta + 2 h (1 - cos theta)],
+    // h = Ms B / (2 K_eff) (A. Hubert, R. Schaefer, Magnetic Domains, Springer 1998, the 1D wall by
+    // the mechanical analogy), integrated by scipy quad: the core half-width R = x(theta = pi/2)
+    // from the centre (theta = pi), and the slope there, |theta'(R)| = sqrt(1 + 2 h) / Delta, which
+    // the 2-pi-wall profile gives as coth(R / w) / w.
+    for (const B of [0.02, 0.05, 0.2]) {
+      const r = runCalculator(getCalculator("wall360"), { B }, { noSweep: true });
+      const [Ms, A, Ku] = [1.1e6, 1.5e-11, 1.2e6];
+      const ref = runPython<{ R: number; slope: number }>(`
+import json, numpy as np, scipy.constants as c
+from scipy.integrate import quad
+Ms, A, Ku, B = ${Ms}, ${A}, ${Ku}, ${B}
+K = Ku - c.mu_0*Ms**2/2
+h = Ms*B/(2*K)
+D = np.sqrt(A/K)
+R, err = quad(lambda t: D/np.sqrt(np.sin(t)**2 + 2*h*(1 - np.cos(t))), np.pi/2, np.pi, epsabs=0, epsrel=1e-13)
+print(json.dumps({'R': R, 'slope': np.sqrt(1 + 2*h)/D}))`);
+      const R = num(r, "radius");
+      const w = num(r, "width");
+      expect(Math.abs(R / ref.R - 1), `B = ${B} T`).toBeLessThan(1e-6);
+      expect(Math.abs(1 / (Math.tanh(R / w) * w) / ref.slope - 1), `B = ${B} T`).toBeLessThan(1e-6);
+    }
+  });
+  it("skyrmion-profile: the exact profile solves the Euler-Lagrange equation (scipy solve_bvp)", () => {
+    // Source: scipy.integrate.solve_bvp (collocation, tol 1e-8) on the radial Euler-Lagrange equation in
+    // units of Delta = sqrt(A / K_eff): theta'' = -theta'/x + sin cos / x^2 + sin cos - d sin^2 / x + b sin,
+    // d = D / sqrt(A K_eff), b = Ms B / (2 K_eff), K_eff = Ku - mu0 Ms^2 / 2 (A. Bogdanov, A. Hubert,
+    // JMMM 138, 255 (1994)); the radius is where theta = pi / 2.
+    const [Ms, A, Ku, D, t] = [1.1e6, 1.5e-11, 1.2e6, 2e-3, 1e-9];
+    for (const B of [0.02, 0.1]) {
+      const r = runCalculator(getCalculator("skyrmion-profile"), { Ms, A, Ku, D, t, B });
+      const K = Ku - (codata.mu0 * Ms * Ms) / 2;
+      const Delta = Math.sqrt(A / K);
+      // the starting guess for scipy (any reasonable profile): the library's own solution, thinned
+      const s = solveSkyrmionExact(makeFilm({ Ms, A, Ku, D, t }), B);
+      const x: number[] = [];
+      const theta: number[] = [];
+      for (let i = 0; i < s.theta.length; i += 10) {
+        x.push(s.rho[i]! / Delta);
+        theta.push(s.theta[i]!);
+      }
+      const ref = runPython<Array<{ status: number; radius: number }>>(SCIPY_BVP, [{ d: D / Math.sqrt(A * K), b: (Ms * B) / (2 * K), L: x[x.length - 1]!, x, theta, tol: 1e-8 }]);
+      expect(ref[0]!.status).toBe(0);
+      expect(Math.abs(num(r, "radiusExact") / (ref[0]!.radius * Delta) - 1), `B = ${B} T`).toBeLessThan(1e-4);
+    }
   });
 });
