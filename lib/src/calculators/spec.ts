@@ -342,7 +342,7 @@ export function checkSweep(spec: CalculatorSpec, sweep: SweepRange): void {
   }
   const most = Math.min(spec.sweep?.maxPoints ?? MAX_SWEEP_POINTS, MAX_SWEEP_POINTS);
   if (typeof sweep.points !== "number" || !Number.isInteger(sweep.points) || sweep.points < 2 || sweep.points > most) {
-    const why = spec.sweep?.maxPoints !== undefined && spec.sweep.maxPoints < MAX_SWEEP_POINTS ? ` for '${spec.id}'${spec.sweep.maxPointsWhy ? ` (${spec.sweep.maxPointsWhy})` : ""}` : "";
+    const why = most < MAX_SWEEP_POINTS ? ` (at most ${most} points for '${spec.id}'${spec.sweep?.maxPointsWhy ? `: ${spec.sweep.maxPointsWhy}` : ""})` : "";
     throw new InputError("sweep.points", sweep.points, `a whole number of points from 2 to ${most}${why}`);
   }
   for (const [end, v] of [["from", sweep.from], ["to", sweep.to]] as const) {
