@@ -5,7 +5,7 @@
 // - size of an exported page with two explorers and a texture view.
 // Uses the built widgets (widgets/dist/export.js), kernel-ext/dist and lib/dist (`npm run build`).
 import { createRequire } from "node:module";
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";

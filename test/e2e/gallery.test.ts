@@ -22,7 +22,7 @@ describe("gallery pages", () => {
 
   beforeAll(async () => {
     rmSync(out, { recursive: true, force: true });
-    // eslint-disable-next-line @typescript-eslint/no-require-imports
+     
     const { buildGallery, galleryIndex } = require(startJs);
     entries = await buildGallery(join(repoRoot, "notebooks"), out, () => {});
     require("node:fs").writeFileSync(join(out, "index.html"), galleryIndex(entries));

@@ -9,7 +9,7 @@
  * State and messages: see widgets/PROTOCOL.md.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { catalogue, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
+import { catalogue, defaultSweep, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION, versionMismatch } from "./version.js";
 import { Coalescer } from "./compute/coalescer.js";
 import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
@@ -336,10 +336,9 @@ export class ExplorerView extends DOMWidgetView {
       this.plotState = [];
       if (this.openedWith?.sweep) {
         this.model.set("sweep", { ...this.openedWith.sweep });
-      } else if (spec.sweep && spec.sweep.over.length) {
-        const name = spec.sweep.over[0]!;
-        const input = spec.inputs.find((i) => i.name === name)!;
-        this.model.set("sweep", { over: name, from: input.min, to: input.max, points: spec.sweep.points });
+      } else {
+        const sweep = defaultSweep(spec);
+        if (sweep) this.model.set("sweep", sweep);
       }
       this.touch();
     });
@@ -371,11 +370,7 @@ export class ExplorerView extends DOMWidgetView {
     const s = this.sweepState();
     if (s && s.over === NO_SWEEP) return null;
     if (s) return s;
-    const spec = this.spec!;
-    if (!spec.sweep || spec.sweep.over.length === 0) return null;
-    const name = spec.sweep.over[0]!;
-    const input = spec.inputs.find((i) => i.name === name)!;
-    return { over: name, from: input.min, to: input.max, points: spec.sweep.points };
+    return defaultSweep(this.spec!) ?? null;
   }
 
   private syncControls(): void {

@@ -44,6 +44,11 @@ export const calcUsage = [
   "\"uncertainty\". An output whose uncertainty is not trustworthy (nonlinear within the uncertainty,",
   "or no state at some input within it) is flagged in a note and the status is \"warning\".",
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
+  "Examples:",
+  "  helicoid calc wall A=15pJ/m Ku=0.8MJ/m^3 D=1.5mJ/m^2",
+  "  helicoid calc wall360 B=20mT --json",
+  "  helicoid calc easy-plane --sweep B=0mT:200mT:40",
+  "  helicoid calc skyrmion --help",
 ].join("\n");
 
 const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress", "--si", "--demo"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };

@@ -35,6 +35,11 @@ const commands: Record<string, { load: () => Command; help: string; ownHelp?: bo
   fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields", ownHelp: true },
 };
 
+/** The command names, in the order of the overview (for tests and completion). */
+export function commandNames(): string[] {
+  return Object.keys(commands);
+}
+
 export function usage(): string {
   return `helicoid ${KERNEL_VERSION}: TypeScript notebooks, widgets and calculators for magnetic textures\n\nusage: helicoid COMMAND ...\n\n${Object.values(commands)
     .map((c) => `  ${c.help}`)

@@ -25,11 +25,13 @@ export interface ConnectionInfo {
   kernel_name: string;
 }
 
+/* eslint-disable @typescript-eslint/no-explicit-any -- raw Jupyter message fields of any shape */
 export interface ClientMessage {
   header: Record<string, any>;
   parent_header: Record<string, any>;
   metadata: Record<string, any>;
   content: Record<string, any>;
+  /* eslint-enable @typescript-eslint/no-explicit-any */
   buffers: Buffer[];
   /** For replies: the msg_id of the request. */
   requestId?: string;

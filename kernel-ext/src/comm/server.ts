@@ -21,7 +21,6 @@ import { comms, type Buffers, type CommMsgType } from "./comms.js";
 import { makeHeader, parseMessage, ReplayGuard, serializeMessage, WireError, type Header, type Message } from "./wire.js";
 import type { ControlProcessData, FromControl, ToControl } from "./controlProcess.js";
 import {
-  cancelAllWork,
   currentContext,
   describeError,
   hookConsole,

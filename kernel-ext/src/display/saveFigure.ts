@@ -87,6 +87,7 @@ function chromiumPath(): string | null {
 /** PNG bytes of an SVG document, rasterized by chromium (playwright-core) at `scale`. */
 async function svgToPng(svg: string, width: number, height: number, scale: number): Promise<Buffer> {
   const exe = chromiumPath();
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- playwright-core is loaded lazily, untyped here
   let pw: { chromium: { launch: (o: unknown) => Promise<any> } };
   try {
     pw = require("playwright-core");

@@ -61,7 +61,7 @@ let markdownRenderer: ((s: string) => string) | null = null;
 function renderMarkdown(source: string): string {
   if (!markdownRenderer) {
     readBuilt("markdown.cjs"); // clear error when missing
-    // eslint-disable-next-line @typescript-eslint/no-require-imports
+     
     markdownRenderer = (require(join(widgetsDir(), "dist", "markdown.cjs")) as { renderMarkdown: (s: string) => string }).renderMarkdown;
   }
   return markdownRenderer(source);

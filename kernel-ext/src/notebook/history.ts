@@ -46,7 +46,7 @@ export class SessionHistory {
     }
     if (kind === "range") {
       const session = content.session === undefined || content.session === null ? 0 : integer("session", content.session);
-      if (!(session === 0 || session === this.session || session === -0)) return [];
+      if (!(session === 0 || session === this.session)) return [];
       const start = content.start === undefined || content.start === null ? 1 : integer("start", content.start);
       const stop = content.stop === undefined || content.stop === null ? Infinity : integer("stop", content.stop);
       return this.entries.filter((e) => e.line >= start && e.line < stop).map(asEntry);

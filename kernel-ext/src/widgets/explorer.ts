@@ -13,12 +13,13 @@ import {
   catalogue, coerceInputs, defaultSweep, getCalculator, runCalculator, InputError,
   type CalculatorResult, type CalculatorSpec, type ComputeOutput, type InputSpec, type InputValues, type OutputSpec,
 } from "@helicoid/lib";
-import type { Film, QuantityInput } from "@helicoid/lib";
+import type { Film, QuantityInput, SweepRange } from "@helicoid/lib";
 import { KERNEL_VERSION } from "../version.js";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
 
-export type Sweep = { over: string; from: number; to: number; points: number };
+/** A sweep request: the library's one sweep shape. */
+export type Sweep = SweepRange;
 export type SpecData = Omit<CalculatorSpec, "compute">;
 
 export interface ExplorerState extends WidgetState {

@@ -214,8 +214,8 @@ export function honeycombMagnonHallConverged(
   const runs: HoneycombMagnonResult[] = [];
   let prevR: number[] | null = null;
   let R: number[] = [];
-  let err: number[] = new Array(nT).fill(Infinity);
-  let done = new Array<boolean>(nT).fill(false);
+  const err: number[] = new Array(nT).fill(Infinity);
+  const done = new Array<boolean>(nT).fill(false);
   // values[g][i]: reduced kappa of temperature i on grid g (computed only while i is not converged)
   const values: number[][] = [];
   R = new Array(nT).fill(NaN);

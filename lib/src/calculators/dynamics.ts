@@ -9,7 +9,7 @@
  * invented DMI-free film for the nanocontact (values below, labelled invented).
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
-import { defineCalculator, inputList, outputList } from "./spec.js";
+import { defaultSweep, defineCalculator, inputList, outputList } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { formatQuantity } from "../quantity/units.js";
@@ -184,7 +184,7 @@ const wallScalarOutputs = outputList([
 function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOptions, spec: CalculatorSpec): ComputeOutput {
   const s = wallSetup(v);
   const values = scalarWallOutputs(s, v);
-  const sweep = options.sweep ?? { over, from: spec.inputs.find((i) => i.name === over)!.min, to: spec.inputs.find((i) => i.name === over)!.max, points: 200 };
+  const sweep = options.sweep ?? defaultSweep(spec)!;
   const xs = sweepValues(spec, sweep);
   const vel: number[] = [];
   const freq: number[] = [];
@@ -380,8 +380,7 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
       hallAngleSot: sot.speed > 0 ? sot.hallAngle : 0,
       forceHallAngle: unitForce.hallAngle,
     });
-    const jIn = skyrmionDriftSpec.inputs.find((i) => i.name === "j")!;
-    const sw = options.sweep ?? { over: "j", from: jIn.min, to: jIn.max, points: 60 };
+    const sw = options.sweep ?? defaultSweep(skyrmionDriftSpec)!;
     const js = sweepValues(skyrmionDriftSpec, sw);
     const vx: number[] = [], vy: number[] = [];
     for (const j of js) {

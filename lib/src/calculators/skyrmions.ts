@@ -5,7 +5,7 @@
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
 import { defineCalculator, inputList, outputList } from "./spec.js";
-import { filmLimits } from "./spec.js";
+import { filmLimits, sweepValues } from "./spec.js";
 import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
@@ -131,12 +131,9 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
   }
   const sweep = options.sweep;
   if (sweep) {
-    if (sweep.over !== "B") throw new InputError("sweep", sweep.over, "B (the only sweepable input of 'skyrmion')");
-    const n = sweep.points;
-    // each field gets a global search (a few ms): bound the work before spending it
-    if (n > 2000) throw new InputError("sweep.points", n, "at most 2000 points for 'skyrmion' (every field gets a global search of the minima)");
-    if (!(sweep.to !== sweep.from)) throw new InputError("sweep", `${sweep.from} .. ${sweep.to} T`, "a sweep over two different fields");
-    const grid = Array.from({ length: n }, (_, i) => sweep.from + ((sweep.to - sweep.from) * i) / (n - 1));
+    // over, points (at most sweep.maxPoints: each field gets a global search) and ends checked there
+    const grid = sweepValues(skyrmionSpec, sweep);
+    const n = grid.length;
     const br = skyrmionBranches(film, grid);
     // principal branch: the one holding the reported state, else the one with the most fields
     let principal = br.branches.find((b) => r.status === "ok" && b.states.some((s) => Math.abs(Math.log(s.radius / r.radius)) < 1e-6));
@@ -224,14 +221,14 @@ const skyrmionSpec = defineCalculator({
     { name: "validityRadius", symbol: "R_{min}", unit: "m", meaning: "5 a: below this radius the continuum model is not trustworthy" },
     { name: "belavinPolyakovEnergy", symbol: "8\\pi A t", unit: "J", meaning: "Belavin-Polyakov energy, the continuum limit of the skyrmion energy as R -> 0" },
     { name: "groundState", symbol: "", unit: "", kind: "text", meaning: "Ground state at this field and the place of the skyrmion" },
-    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips (360-degree wall energy zero)" },
-    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| > D_c)" },
-    { name: "expansionField", symbol: "B_e", unit: "T", meaning: "Lowest field of the sweep range down to which a branch exists before it expands beyond R = 100 w" },
-    { name: "windowEndField", symbol: "B_w", unit: "T", meaning: "Field above which the smallest branch shrinks below R = 0.3 w (the ansatz window; not a collapse)" },
-    { name: "continuumLimitField", symbol: "B_a", unit: "T", meaning: "Field above which the principal branch's radius is below 5 a" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips (360-degree wall energy zero)", optional: true },
+    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| > D_c)", optional: true },
+    { name: "expansionField", symbol: "B_e", unit: "T", meaning: "Lowest field of the sweep range down to which a branch exists before it expands beyond R = 100 w", optional: true },
+    { name: "windowEndField", symbol: "B_w", unit: "T", meaning: "Field above which the smallest branch shrinks below R = 0.3 w (the ansatz window; not a collapse)", optional: true },
+    { name: "continuumLimitField", symbol: "B_a", unit: "T", meaning: "Field above which the principal branch's radius is below 5 a", optional: true },
     { name: "boundaryResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the brackets of the branch ends" },
     { name: "branchCount", symbol: "", unit: "", meaning: "Number of branches of minima in the sweep" },
-    { name: "principalBranch", symbol: "", unit: "", meaning: "Branch shown in the sweep arrays" },
+    { name: "principalBranch", symbol: "", unit: "", meaning: "Branch shown in the sweep arrays", optional: true },
     { name: "branches", symbol: "", unit: "", kind: "text", meaning: "Every branch: label, field range, radii, ends" },
     { name: "regime", symbol: "", unit: "", meaning: "What the film does at this field", kind: "text" },
     { name: "fieldSweep", symbol: "\\mu_0 H", unit: "T", meaning: "Fields of the principal branch", kind: "array" },
@@ -246,7 +243,7 @@ const skyrmionSpec = defineCalculator({
     { id: "radius-vs-field", title: "Radius and wall width against field", x: "fieldSweep", y: ["radiusSweep", "wallWidthSweep"] },
     { id: "energy-vs-field", title: "Skyrmion energy against field", x: "fieldSweep", y: ["energySweep"] },
   ],
-  sweep: { over: ["B"], points: 200 },
+  sweep: { over: ["B"], points: 200, maxPoints: 2000, maxPointsWhy: "every field gets a global search of the minima" },
   assumptions: [
     ...commonAssumptions,
     "Profile restricted to the 360-degree-wall ansatz (an upper bound on the energy; compare skyrmion-profile).",
@@ -431,11 +428,11 @@ const stabilitySpec = defineCalculator({
     ...stabilityOutputs,
     { name: "radiusExact", symbol: "R_e", unit: "m", meaning: "Radius of the exact profile (m_z = 0)" },
     { name: "energyExact", symbol: "E_e", unit: "J", meaning: "Energy of the exact profile relative to the uniform film" },
-    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips" },
-    { name: "stripOutField", symbol: "B_{so}", unit: "T", meaning: "Field where m = 2 softens (or where the skyrmion stops existing first)" },
-    { name: "stripOutResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the strip-out bracket" },
-    { name: "stripOutKind", symbol: "", unit: "", kind: "text", meaning: "What ends the skyrmion going down in field" },
-    { name: "regime", symbol: "", unit: "", kind: "text", meaning: "Why there is no skyrmion, when there is none" },
+    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips", optional: true },
+    { name: "stripOutField", symbol: "B_{so}", unit: "T", meaning: "Field where m = 2 softens (or where the skyrmion stops existing first)", optional: true },
+    { name: "stripOutResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the strip-out bracket", optional: true },
+    { name: "stripOutKind", symbol: "", unit: "", kind: "text", meaning: "What ends the skyrmion going down in field", optional: true },
+    { name: "regime", symbol: "", unit: "", kind: "text", meaning: "Why there is no skyrmion, when there is none", optional: true },
   ],
   plots: [{ id: "mode-eigenvalues", title: "Lowest eigenvalue per angular mode", x: "modeNumber", y: ["modeEigenvalue"], mode: "markers" }],
   assumptions: [
@@ -472,7 +469,7 @@ const profileSpec = defineCalculator({
     { name: "wallWidthAnsatz", symbol: "w", unit: "m", meaning: "Wall width of the ansatz, local model" },
     { name: "energyAnsatz", symbol: "E_a", unit: "J", meaning: "Ansatz energy, local model" },
     { name: "energyExact", symbol: "E_e", unit: "J", meaning: "Exact energy, local model (below E_a)" },
-    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| >= D_c)" },
+    { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| >= D_c)", optional: true },
     { name: "regime", symbol: "", unit: "", meaning: "What the film does at this field", kind: "text" },
     ...stabilityOutputs,
   ],

@@ -81,13 +81,28 @@ export interface SweepSpec {
   /** Input names that may be swept; the first is the default. */
   over: string[];
   points: number;
+  /** At most this many points (when each point is costly); MAX_SWEEP_POINTS otherwise. */
+  maxPoints?: number;
+  /** Why the limit, for the refusal ("every field gets a global search of the minima"). */
+  maxPointsWhy?: string;
 }
 
 export type InputValues = Record<string, number>;
 
+/**
+ * One sweep request, the one shape used by the library, the kernel, the widgets and the command:
+ * the input `over` from `from` to `to` (SI) in `points` values (see sweepValues).
+ */
+export interface SweepRange {
+  over: string;
+  from: number;
+  to: number;
+  points: number;
+}
+
 export interface ComputeOptions {
   /** Sweep an input over [from, to] with `points` values (linear, or log if the input is log). */
-  sweep?: { over: string; from: number; to: number; points: number };
+  sweep?: SweepRange;
   /**
    * Progress of a long computation, for calculators that report it: the fraction done (0..1) and
    * what is being done, in words. Called from inside the computation (keep it cheap).
@@ -194,7 +209,7 @@ export interface CalculatorResult<I extends string = string, O = Record<string, 
   assumptions: string[];
   notes: string[];
   /** Present when a sweep was computed. */
-  sweep?: { over: string; from: number; to: number; points: number };
+  sweep?: SweepRange;
   /** Present when an input carried an uncertainty (uncertainty.ts): method, flags; entries of
    * `inputs` and numeric scalar `outputs` then carry `uncertainty` (SI, one standard deviation). */
   uncertainty?: UncertaintyReport;
@@ -433,11 +448,27 @@ function choiceList(input: InputSpec): string {
   return `one of ${(input.choices ?? []).map((c) => `${c.value} (${c.label})`).join(", ")}`;
 }
 
-/** A sweep's ends and count, checked like inputs (finite, within physical limits and plausible). */
-function checkSweep(spec: CalculatorSpec, sweep: NonNullable<ComputeOptions["sweep"]>): void {
+/** The largest number of points of any sweep (a calculator may allow fewer: see its `sweep.maxPoints`). */
+export const MAX_SWEEP_POINTS = 100000;
+
+/**
+ * A sweep request checked before any work: `over` one of the spec's sweepable inputs, `points` a
+ * whole number from 2 to the spec's limit, the ends finite, within the input's physical limits and
+ * plausible, and two different values. Errors name `sweep`, `sweep.points`, `sweep from` or `sweep to`.
+ */
+export function checkSweep(spec: CalculatorSpec, sweep: SweepRange): void {
+  const sweepable = spec.sweep?.over ?? [];
   const input = spec.inputs.find((i) => i.name === sweep.over);
-  if (!input) return; // sweepValues names the sweepable inputs
+  if (!input || !sweepable.includes(sweep.over)) {
+    throw new InputError("sweep", sweep.over, `one of the sweepable inputs of '${spec.id}': ${sweepable.join(", ") || "(none)"}`);
+  }
+  const most = Math.min(spec.sweep?.maxPoints ?? MAX_SWEEP_POINTS, MAX_SWEEP_POINTS);
+  if (typeof sweep.points !== "number" || !Number.isInteger(sweep.points) || sweep.points < 2 || sweep.points > most) {
+    const why = most < MAX_SWEEP_POINTS ? ` (at most ${most} points for '${spec.id}'${spec.sweep?.maxPointsWhy ? `: ${spec.sweep.maxPointsWhy}` : ""})` : "";
+    throw new InputError("sweep.points", sweep.points, `a whole number of points from 2 to ${most}${why}`);
+  }
   for (const [end, v] of [["from", sweep.from], ["to", sweep.to]] as const) {
+    if (typeof v !== "number") throw new InputError(`sweep ${end}`, v, `a number for ${input.name} in ${input.unit || "(no unit)"} (SI)`);
     try {
       checkPhysical(spec, input, v, v);
     } catch (err) {
@@ -445,17 +476,16 @@ function checkSweep(spec: CalculatorSpec, sweep: NonNullable<ComputeOptions["swe
       throw err;
     }
   }
+  if (sweep.from === sweep.to) throw new InputError("sweep", `${sweep.from} .. ${sweep.to}${input.unit ? ` ${input.unit}` : ""}`, `a sweep of ${input.name} over two different values`);
 }
 
-/** Values of a sweep: linear, or logarithmic when the swept input has a log scale. */
-export function sweepValues(spec: CalculatorSpec, sweep: NonNullable<ComputeOptions["sweep"]>): number[] {
-  const input = spec.inputs.find((i) => i.name === sweep.over);
-  if (!input || !(spec.sweep?.over ?? []).includes(sweep.over)) {
-    throw new InputError("sweep", sweep.over, `one of the sweepable inputs of '${spec.id}': ${(spec.sweep?.over ?? []).join(", ") || "(none)"}`);
-  }
-  if (!Number.isInteger(sweep.points) || sweep.points < 2 || sweep.points > 100000) {
-    throw new InputError("sweep.points", sweep.points, "a whole number from 2 to 100000");
-  }
+/**
+ * Values of a sweep (checked first, see checkSweep): linear, or logarithmic when the swept input
+ * has a log scale and both ends are positive. The one place a sweep's points are made.
+ */
+export function sweepValues(spec: CalculatorSpec, sweep: SweepRange): number[] {
+  checkSweep(spec, sweep);
+  const input = spec.inputs.find((i) => i.name === sweep.over)!;
   const n = sweep.points;
   const values = new Array<number>(n);
   const log = input.scale === "log" && sweep.from > 0 && sweep.to > 0;
@@ -463,6 +493,9 @@ export function sweepValues(spec: CalculatorSpec, sweep: NonNullable<ComputeOpti
     const s = i / (n - 1);
     values[i] = log ? Math.exp(Math.log(sweep.from) + s * (Math.log(sweep.to) - Math.log(sweep.from))) : sweep.from + s * (sweep.to - sweep.from);
   }
+  // the ends exactly as requested (no rounding past them)
+  values[0] = sweep.from;
+  values[n - 1] = sweep.to;
   return values;
 }
 
@@ -639,15 +672,18 @@ function explainComputeError(spec: CalculatorSpec, raw: Record<string, QuantityI
       value = input.unit ? formatQuantity(inputs[name]!, input.unit) : inputs[name];
       extra.push(`(${name} was not given: its default was used${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
     }
-  } else {
+  } else if (!name.startsWith("sweep")) {
     extra.push(`(a quantity computed by '${spec.id}' from its inputs${givenList.length ? `; given: ${givenList.join(", ")}` : ""})`);
   }
   if (err.detail) extra.push(err.detail);
   return new InputError(name, value, err.expected, extra.join(" ") || undefined);
 }
 
-/** The default sweep of a spec: its first sweepable input over its slider range. */
-export function defaultSweep(spec: CalculatorSpec, _inputs: InputValues): ComputeOptions["sweep"] | undefined {
+/**
+ * The default sweep of a spec: its first sweepable input over its slider range, with the spec's
+ * number of points (the one builder used by runCalculator, the kernel's explorer and the widgets).
+ */
+export function defaultSweep(spec: Pick<CalculatorSpec, "inputs" | "sweep">, _inputs?: InputValues): SweepRange | undefined {
   if (!spec.sweep || spec.sweep.over.length === 0) return undefined;
   const name = spec.sweep.over[0]!;
   const input = spec.inputs.find((i) => i.name === name)!;

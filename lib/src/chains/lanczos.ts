@@ -142,7 +142,7 @@ export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {
     v0 = new Float64Array(len);
     for (let i = 0; i < len; i++) v0[i] = rnd();
   }
-  let nv = norm(v0);
+  const nv = norm(v0);
   if (!(nv > 0)) throw new ConvergenceError("Lanczos", "the start vector is zero", {});
   for (let i = 0; i < len; i++) v0[i] = v0[i]! / nv;
   V.push(v0);

@@ -12,7 +12,7 @@ import { InputError } from "../errors.js";
 import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from "./wallProfiles.js";
 import { erfc as erfcLocal } from "./distributions.js";
 import { gridFor, interpolateGrid, blurOnGrid, spectrumToPoints, type UniformGrid } from "./strayField.js";
-import { fft, ifft } from "../numeric/fft.js";
+import { fft } from "../numeric/fft.js";
 import { mu0 } from "../quantity/constants.js";
 
 export interface BoundModel {

@@ -155,7 +155,7 @@ function harmonic(l: number, m: number): Poly {
   const coeffs = legendreDerivativeCoefficients(l, am);
   const r2: Poly = new Map([[key(2, 0, 0), 1], [key(0, 2, 0), 1], [key(0, 0, 2), 1]]);
   // z part: sum_k c_k z^(l - m - 2k) r^(2k)
-  let zPart: Poly = new Map();
+  const zPart: Poly = new Map();
   let r2k: Poly = new Map([[0, 1]]);
   coeffs.forEach((c, k) => {
     if (k > 0) r2k = polyMul(r2k, r2);

@@ -77,7 +77,6 @@ function deSum(
 export function integrateInterval(f: (x: number) => number, a: number, b: number, opts: QuadratureOptions = {}): QuadratureResult {
   if (!Number.isFinite(a) || !Number.isFinite(b)) throw new InputError("interval", [a, b], "finite bounds (use integrateHalfLine for infinite ones)");
   if (a === b) return { value: 0, error: 0, evaluations: 0 };
-  const c = 0.5 * (a + b);
   const r = 0.5 * (b - a);
   const halfPi = Math.PI / 2;
   const g = (s: number): number => {

@@ -1162,12 +1162,12 @@ function localSearch(ctx: Context, u0: number, lw0: number): LocalOutcome {
   const uMax = Math.log(ANSATZ_A_MAX);
   ctx.lwLast = lw0;
   const E = (uu: number) => innerLocal(ctx, uu);
-  let u = Math.min(Math.max(u0, uMin), uMax);
+  const u = Math.min(Math.max(u0, uMin), uMax);
   let step = 0.02;
   const f0 = E(u);
   const lwAt0 = ctx.lwLast;
-  let up = Math.min(u + step, uMax);
-  let fup = E(up);
+  const up = Math.min(u + step, uMax);
+  const fup = E(up);
   let dir = 1;
   let prev = u;
   let cur = up;

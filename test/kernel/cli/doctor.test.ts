@@ -79,7 +79,7 @@ describe("helicoid doctor", () => {
     expect(s.helicoid(["install", "--prefix", s.prefix, "--no-widget-manager"]).status).toBe(0);
     const d = s.helicoid(["doctor", "--prefix", s.prefix]);
     expect(d.status).toBe(1);
-    expect(d.stdout).toMatch(/PROBLEM  widget manager: no widget manager \(@jupyter-widgets\/jupyterlab-manager/);
+    expect(d.stdout).toMatch(/PROBLEM {2}widget manager: no widget manager \(@jupyter-widgets\/jupyterlab-manager/);
     expect(d.stdout).toMatch(/shows every widget as text/);
     expect(d.stdout).toMatch(/what to do: run `npx helicoid install`.*pip install jupyterlab_widgets/);
     expect(d.stdout).toMatch(/1 problem/);

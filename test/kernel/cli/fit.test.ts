@@ -75,7 +75,7 @@ describe("helicoid fit", () => {
     // table output with a fixed parameter given with a unit
     const c2 = capture();
     expect(await fitCommand([file, "--model", "wall360-mz", "--fix", "w=10 nm"], c2.io)).toBe(0);
-    expect(c2.out.join("")).toMatch(/\n  w\s+10 nm\s+fixed/);
+    expect(c2.out.join("")).toMatch(/\n {2}w\s+10 nm\s+fixed/);
   });
   it("a fit that fails (singular: a flat invented scan with no wall) exits 1 with the reason", async () => {
     const dir = mkdtempSync(join(tmpdir(), "helicoid-fit-"));

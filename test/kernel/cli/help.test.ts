@@ -5,6 +5,7 @@ import { existsSync, mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
+import { commandNames } from "../../../kernel-ext/src/cli/main.js";
 
 const helicoid = (args: string[], env: NodeJS.ProcessEnv = {}) =>
   spawnSync(process.execPath, [helicoidBin, ...args], { encoding: "utf8", timeout: 20_000, env: { ...process.env, ...env } });
@@ -15,7 +16,13 @@ describe("helicoid --help", () => {
     const prefix = mkdtempSync(join(tmpdir(), "helicoid-help-"));
     const home = mkdtempSync(join(tmpdir(), "helicoid-help-home-"));
     const env = { HOME: home, JUPYTER_DATA_DIR: join(home, "jupyter-data") };
-    for (const cmd of ["install", "uninstall", "kernel", "run", "export", "lab", "start", "calc", "charge", "fit"]) {
+    // the commands come from the command table itself, so a command added there is checked here
+    const names = commandNames();
+    expect(names.length).toBeGreaterThanOrEqual(10);
+    const overview = helicoid(["--help"], env);
+    expect(overview.status).toBe(0);
+    for (const cmd of names) expect(overview.stdout, `the overview lists ${cmd}`).toMatch(new RegExp(`^  ${cmd}\\b`, "m"));
+    for (const cmd of names) {
       for (const flag of ["--help", "-h"]) {
         const args = cmd === "install" || cmd === "uninstall" ? [cmd, "--prefix", prefix, flag] : [cmd, flag];
         const r = helicoid(args, env);

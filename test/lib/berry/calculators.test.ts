@@ -42,6 +42,9 @@ describe("berry catalogue", () => {
 
   it("defaults reproduce the closed forms", () => {
     // Source: Berry (1984) for the cone; Haldane (1988) for the phase diagram; Garg (1993) for the period.
+    // These compare outputs with closed forms the calculators evaluate themselves (internal consistency);
+    // the outside values (numpy, scipy, published closed forms evaluated in the test) are in
+    // test/lib/calculators/outsideChecks.test.ts.
     const loop = runCalculator(getCalculator("berry-loop"), { segments: 2000 });
     expect(loop.outputs.maxDifference!.value as number).toBeLessThan(1e-4);
     expect(Math.abs((loop.outputs.gammaTop!.value as number) - (loop.outputs.gammaTopExact!.value as number))).toBeLessThan(1e-4);

@@ -100,7 +100,7 @@ describe("chains catalogue", () => {
     const w = runCalculator(getCalculator("wall-band"), { Jz: 20, Jperp: 1, hx: 1, hz: 0, T: 0 });
     // first order: -hx / (2 Jz); ED differs at order hx Jperp / Jz^2
     expect(Math.abs((w.outputs.chiralWeight!.value as number) - (d.outputs.chiralWeight!.value as number))).toBeLessThan((2 * 1 * 1) / 400);
-    // Villain edge 2 Jperp |sin q| (J. Villain, Physica B 79, 1 (1975))
+    // Source: J. Villain, Physica B 79, 1 (1975): the edge of the two-wall continuum, 2 Jperp |sin q|.
     const w0 = runCalculator(getCalculator("wall-band"), { Jz: 20, Jperp: 1, hx: 0, hz: 0, T: 0 });
     const q = w0.outputs.q!.value as number[];
     const e = w0.outputs.villainEdge!.value as number[];

@@ -150,7 +150,7 @@ print(json.dumps(brentq(E, 1e-9, 10, xtol=1e-15)))
     expect(() => runCalculator(spec, { Ku: "0.5 MJ/m^3" })).toThrow(InputError);
     expect(() => runCalculator(spec, { A: "50 mT" })).toThrow(/A = "50 mT"/);
     expect(() => runCalculator(spec, { A: 0 })).toThrow(InputError);
-    expect(() => runCalculator(spec, {}, { sweep: { over: "B", from: 0.01, to: 0.01, points: 5 } })).toThrow(/two different fields/);
+    expect(() => runCalculator(spec, {}, { sweep: { over: "B", from: 0.01, to: 0.01, points: 5 } })).toThrow(/sweep of B over two different values/);
     expect(() => runCalculator(spec, {}, { sweep: { over: "B", from: 0, to: 0.1, points: 5000 } })).toThrow(/at most 2000/);
   });
 });

@@ -111,6 +111,8 @@ print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t
   });
 
   it("wall360: exact pair beside the minimization; a B sweep gives R(B), w(B)", () => {
+    // Internal consistency (minimized ansatz against the exact pair); the outside value (scipy quad of the
+    // first integral) is in test/lib/calculators/outsideChecks.test.ts.
     const spec = getCalculator("wall360");
     const r = runCalculator(spec, { B: "50 mT" });
     const val = (n: string) => r.outputs[n]!.value as number;

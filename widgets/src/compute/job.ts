@@ -2,14 +2,10 @@
  * A recompute job for a catalogue calculator and its outcome: the messages between the explorer
  * view and the compute worker. Plain JSON both ways.
  */
-import type { CalculatorResult } from "@helicoid/lib";
+import type { CalculatorResult, SweepRange } from "@helicoid/lib";
 
-export interface SweepRequest {
-  over: string;
-  from: number;
-  to: number;
-  points: number;
-}
+/** A sweep request: the library's one sweep shape. */
+export type SweepRequest = SweepRange;
 
 export interface ComputeJob {
   /** Sequence number: the view keeps only the newest answer. */
