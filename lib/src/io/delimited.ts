@@ -22,6 +22,9 @@ import { bytesToText } from "./text.js";
 const NAMES = ["x", "y", "z", "mx", "my", "mz"] as const;
 type Name = (typeof NAMES)[number];
 const REQUIRED: Name[] = ["x", "y", "mx", "my", "mz"];
+/** The common length units of coordinate columns, so that reading a table needs no unit engine (the
+ * values parseQuantity gives, checked in the tests); other units go to parseQuantity. */
+export const LENGTH_UNITS: Readonly<Record<string, number>> = { m: 1, mm: 1e-3, um: 1e-6, "µm": 1e-6, "μm": 1e-6, nm: 1e-9, pm: 1e-12 };
 const numberRe = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const nanRe = /^[+-]?nan$/i;
 
@@ -90,8 +93,6 @@ export function readDelimitedVectorField(input: Uint8Array | string, options: Re
 /** Exact powers of ten 1e0 .. 1e22 (each a double without rounding). */
 const POW10 = Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
 const TWO53 = 2 ** 53;
-/** Sentinel of parseDecimal: the token is not a plain decimal the fast path can convert exactly. */
-const SLOW = Symbol("slow");
 
 /** A growable Float64Array (rows of a table of unknown length, without a JS array per value). */
 class Column {
@@ -120,12 +121,13 @@ export const MAX_LINE_BYTES = 1 << 20;
  * A plain decimal number (the grammar of numberRe, spaces and tabs around it allowed) from bytes,
  * exactly as Number() converts it, when at most 15 significant digits and a decimal exponent within
  * 22 make the conversion one correctly rounded operation (Clinger's exact case); "nan" where
- * `nanAllowed`; else SLOW (the caller takes the text path).
+ * `nanAllowed`. The value goes to out[at] (no number returned: no boxed double per value); false
+ * when the token needs the text path.
  */
-function parseDecimal(b: Uint8Array, p: number, q: number, nanAllowed: boolean): number | typeof SLOW {
+function parseDecimal(b: Uint8Array, p: number, q: number, nanAllowed: boolean, out: Float64Array, at: number): boolean {
   while (p < q && (b[p] === 32 || b[p] === 9)) p++;
   while (q > p && (b[q - 1] === 32 || b[q - 1] === 9)) q--;
-  if (p >= q) return SLOW;
+  if (p >= q) return false;
   let neg = false;
   if (b[p] === 45) { neg = true; p++; } else if (b[p] === 43) p++;
   let w = 0;
@@ -148,37 +150,38 @@ function parseDecimal(b: Uint8Array, p: number, q: number, nanAllowed: boolean):
     }
   }
   if (digits === 0) {
-    if (nanAllowed && q - p === 3 && (b[p]! | 32) === 110 && (b[p + 1]! | 32) === 97 && (b[p + 2]! | 32) === 110) return NaN;
-    return SLOW;
+    if (nanAllowed && q - p === 3 && (b[p]! | 32) === 110 && (b[p + 1]! | 32) === 97 && (b[p + 2]! | 32) === 110) { out[at] = NaN; return true; }
+    return false;
   }
   let exp = 0;
   if (p < q && (b[p] === 101 || b[p] === 69)) {
     p++;
     let eneg = false;
-    if (b[p] === 45) { eneg = true; p++; } else if (b[p] === 43) p++;
+    if (p < q && b[p] === 45) { eneg = true; p++; } else if (p < q && b[p] === 43) p++;
     const e0 = p;
     while (p < q && (c = b[p]!) >= 48 && c <= 57) {
       if (exp < 10000) exp = exp * 10 + (c - 48);
       p++;
     }
-    if (p === e0) return SLOW;
+    if (p === e0) return false;
     if (eneg) exp = -exp;
   }
-  if (p !== q) return SLOW;
-  if (w === 0) return neg ? -0 : 0;
-  if (sig > 15 || w > TWO53) return SLOW;
+  if (p !== q) return false;
+  if (w === 0) { out[at] = neg ? -0 : 0; return true; }
+  if (sig > 15 || w > TWO53) return false;
   const e10 = exp - frac;
   let v: number;
   if (e10 >= 0 && e10 <= 22) v = w * POW10[e10]!;
   else if (e10 < 0 && e10 >= -22) v = w / POW10[-e10]!;
-  else return SLOW;
-  return neg ? -v : v;
+  else return false;
+  out[at] = neg ? -v : v;
+  return true;
 }
 
 /** parseDecimal for callers and tests: the number, or null when the fast path leaves the token to Number(). */
 export function parseDecimalBytes(bytes: Uint8Array, start: number, end: number, nanAllowed = false): number | null {
-  const v = parseDecimal(bytes, start, end, nanAllowed);
-  return v === SLOW ? null : v;
+  const out = new Float64Array(1);
+  return parseDecimal(bytes, start, end, nanAllowed, out, 0) ? out[0]! : null;
 }
 
 /** Memory per data row while a table is read: x, y, z, m (48 bytes), its line (8) and the grid arrays (34). */
@@ -297,11 +300,7 @@ export class DelimitedFieldParser {
       else while (q < e && buf[q] !== 32 && buf[q] !== 9) q++;
       if (field >= width) return false;
       const want = wanted[field]!;
-      if (want >= 0) {
-        const v = parseDecimal(buf, p, q, want >= 3);
-        if (v === SLOW) return false;
-        vals[want] = v;
-      }
+      if (want >= 0 && !parseDecimal(buf, p, q, want >= 3, vals, want)) return false;
       field++;
       if (q >= e) break;
       if (delim >= 0) p = q + 1;
@@ -377,7 +376,7 @@ export class DelimitedFieldParser {
       if (k === undefined) continue;
       const u = this.units[k] ?? "";
       if (u === "") { unitless = true; continue; }
-      this.scale[a] = parseQuantity(`${this.file}: unit of column ${a}`, `1 ${u}`, "m");
+      this.scale[a] = LENGTH_UNITS[u] ?? parseQuantity(`${this.file}: unit of column ${a}`, `1 ${u}`, "m");
     }
     if (unitless) this.notes.push("coordinates without a unit were taken as metres");
   }

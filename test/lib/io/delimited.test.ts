@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { readDelimitedVectorField, writeCsvVectorField, DelimitedFieldParser, parseDecimalBytes } from "../../../lib/src/io/delimited.js";
+import { readDelimitedVectorField, writeCsvVectorField, DelimitedFieldParser, parseDecimalBytes, LENGTH_UNITS } from "../../../lib/src/io/delimited.js";
+import { parseQuantity } from "../../../lib/src/quantity/units.js";
 import { runPython } from "../../helpers/python.js";
 import { InputError } from "../../../lib/src/errors.js";
 import { skyrmionTexture } from "../../../lib/src/topology/textures.js";
@@ -140,6 +141,10 @@ describe("CSV reader, byte path", () => {
         expect(b.info).toEqual(a.info);
       }
     }
+  });
+
+  it("the coordinate units read without the unit engine have the values parseQuantity gives", () => {
+    for (const [u, v] of Object.entries(LENGTH_UNITS)) expect(v, u).toBe(parseQuantity("unit", `1 ${u}`, "m"));
   });
 
   it("reports the same errors as the text path (row and column named)", () => {
