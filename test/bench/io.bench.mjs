@@ -4,7 +4,8 @@
 // process, interleaved (ours, numpy, ours, numpy, ...): wall time of the read inside the process and
 // peak memory (max RSS, /usr/bin/time). A third column: the previous text-line reader (chunks
 // decoded to strings, split into lines, then fields), once, in the first round.
-// HELICOID_BENCH_CSV_ROWS (default 10,000,000; rounded to a grid) and HELICOID_BENCH_IO_RUNS (3).
+// HELICOID_BENCH_CSV_ROWS (default 10,000,000; rounded to a grid), HELICOID_BENCH_IO_RUNS (3),
+// HELICOID_BENCH_IO_PREVIOUS=0 leaves the previous reader out (it takes minutes at 10 million rows).
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, mkdtempSync, openSync, readFileSync, rmSync, statSync, writeSync, closeSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -93,7 +94,7 @@ export default async () => {
   const prev = [];
   const { ours, ref } = interleaved(
     () => timed([process.execPath, heap, "-e", OURS(file)]),
-    (i) => { const r = timed([systemPython, "-c", NUMPY, file]); if (i === 0) prev.push(timed([process.execPath, heap, "-e", PREVIOUS(file)])); return r; },
+    (i) => { const r = timed([systemPython, "-c", NUMPY, file]); if (i === 0 && process.env.HELICOID_BENCH_IO_PREVIOUS !== "0") prev.push(timed([process.execPath, heap, "-e", PREVIOUS(file)])); return r; },
     RUNS,
   );
   const o = summary(ours.map((x) => x.ms)), r = summary(ref.map((x) => x.ms)), p = summary(prev.map((x) => x.ms));
@@ -111,7 +112,7 @@ export default async () => {
     ours_ms: om.median, ours_spread: om.spread, reference: "numpy.loadtxt", reference_ms: rm.median, reference_spread: rm.spread, ratio: om.median / rm.median,
     goal: verdict(memGoal, "<= 2x numpy.loadtxt in memory"),
   });
-  rows.push({
+  if (prev.length) rows.push({
     group: "io", name: `  previous reader (text lines), first round: time ${p.median.toFixed(0)} ms [${p.min.toFixed(0)}-${p.max.toFixed(0)}], max RSS ${pm.median.toFixed(0)} MB`,
     ours_ms: o.median, reference: "previous text-line reader", reference_ms: p.median, ratio: o.median / p.median, goal: "(before/after)",
   });

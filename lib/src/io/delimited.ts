@@ -114,6 +114,25 @@ class Column {
   }
 }
 
+/** Line numbers of the rows (for messages): 4 bytes a row. */
+class LineColumn {
+  data = new Uint32Array(1024);
+  length = 0;
+  push(v: number): void {
+    if (this.length === this.data.length) this.reserve(Math.ceil(this.data.length * 1.5));
+    this.data[this.length++] = Math.min(v, 0xffffffff);
+  }
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length) return;
+    const next = new Uint32Array(capacity);
+    next.set(this.data.subarray(0, this.length));
+    this.data = next;
+  }
+  view(): Uint32Array {
+    return this.data.subarray(0, this.length);
+  }
+}
+
 /** Longest line of a table read from bytes: a row of six numbers is under 200 bytes. */
 export const MAX_LINE_BYTES = 1 << 20;
 
@@ -208,7 +227,7 @@ export class DelimitedFieldParser {
   private readonly ys = new Column();
   private readonly zs = new Column();
   private readonly ms = new Column();
-  private readonly rowOf = new Column();
+  private readonly rowOf = new LineColumn();
   private readonly vals: Partial<Record<Name, number>> = {};
 
   /**
@@ -411,7 +430,7 @@ export class DelimitedFieldParser {
       // Size the columns once for the rows the file holds (estimated from the bytes per row so far).
       this.reserved = true;
       const expect = Math.min(Math.ceil((this.sizeHint / (this.rowBytes / 4095)) * 1.02) + 1024, Math.floor(FIELD_MEMORY_BUDGET / DELIMITED_BYTES_PER_ROW) + 65536);
-      for (const c of [this.xs, this.ys, this.zs, this.rowOf]) c.reserve(expect);
+      for (const c of this.col.z === undefined ? [this.xs, this.ys, this.rowOf] : [this.xs, this.ys, this.zs, this.rowOf]) c.reserve(expect);
       this.ms.reserve(3 * expect);
     }
     if (rows % 65536 === 0 && rows * DELIMITED_BYTES_PER_ROW > FIELD_MEMORY_BUDGET) {
@@ -419,7 +438,7 @@ export class DelimitedFieldParser {
     }
     this.xs.push(x * this.scale.x);
     this.ys.push(y * this.scale.y);
-    this.zs.push(this.col.z === undefined ? 0 : z * this.scale.z);
+    if (this.col.z !== undefined) this.zs.push(z * this.scale.z);
     this.ms.push(mx); this.ms.push(my); this.ms.push(mz);
     this.rowOf.push(lineNumber);
   }
@@ -432,10 +451,28 @@ export class DelimitedFieldParser {
     const xs = this.xs.view(), ys = this.ys.view(), zs = this.zs.view(), ms = this.ms.view(), rowOf = this.rowOf.view();
     const ax = gridAxis(xs, file, "x");
     const ay = gridAxis(ys, file, "y");
-    const az = gridAxis(zs, file, "z");
+    const az = this.col.z === undefined ? { origin: 0, step: NaN, n: 1 } : gridAxis(zs, file, "z");
     const nx = ax.n, ny = ay.n, nz = az.n;
     const n = nx * ny * nz;
     checkFieldBudget(file, nx, ny, nz);
+    // Rows in the field's own order (x fastest, one row per cell, none missing, the usual way a
+    // table is written): the components read are already the field, no second copy is made.
+    let inOrder = xs.length === n;
+    for (let k = 0; inOrder && k < xs.length; k++) {
+      const i = nx === 1 ? 0 : Math.round((xs[k]! - ax.origin) / ax.step);
+      const j = ny === 1 ? 0 : Math.round((ys[k]! - ay.origin) / ay.step);
+      const l = nz === 1 ? 0 : Math.round((zs[k]! - az.origin) / az.step);
+      if ((l * ny + j) * nx + i !== k) inOrder = false;
+    }
+    if (inOrder) {
+      const dx = Number.isFinite(ax.step) ? ax.step : options.dx ?? (Number.isFinite(ay.step) ? ay.step : 1e-9);
+      const dy = Number.isFinite(ay.step) ? ay.step : options.dy ?? dx;
+      const dz = Number.isFinite(az.step) ? az.step : options.dz ?? dx;
+      const normOpts = options.threshold !== undefined ? { threshold: options.threshold, source: file } : { source: file };
+      const field = adoptInterleaved(ms, { nx, ny, nz, dx, dy, dz, source: file }, normOpts, null);
+      const format = this.delim === "tab" ? "tsv" : this.delim === "comma" ? "csv" : "text";
+      return { field, info: { file, format, vacuumCells: field.vacuumCells, missingCells: 0, notes } };
+    }
     const m = new Float64Array(3 * n);
     const owner = new Int32Array(n).fill(-1);
     const present = new Uint8Array(n);

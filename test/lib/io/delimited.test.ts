@@ -173,6 +173,9 @@ import sys, json, io, numpy as np
 a = np.loadtxt(io.StringIO(json.load(sys.stdin)), delimiter=",", skiprows=1)
 m = a[:, 2:5]; m = m / np.linalg.norm(m, axis=1)[:, None]
 print(json.dumps(m.ravel().tolist()))`, text);
+    // The same rows shuffled (the reader places them by coordinates): the same field.
+    const shuffled = [lines[0], ...lines.slice(1).map((l, k) => ({ l, key: (k * 7919) % (lines.length - 1) })).sort((a, b) => a.key - b.key).map((r) => r.l)].join("\n");
+    expect(Array.from(viaBytes(shuffled, "sk2.csv").field.m)).toEqual(Array.from(ours.field.m));
     expect(ours.field.nx).toBe(n);
     expect(ours.field.dx).toBeCloseTo(1.5e-9, 22);
     let worst = 0;
