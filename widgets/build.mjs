@@ -89,10 +89,12 @@ const workerSource = {
 //    bundle, which takes @helicoid/lib from (a). sanitize-html is replaced by a DOM allow-list
 //    sanitizer (src/stubs/sanitizeHtml: the exporter sanitizes untrusted HTML in Node beforehand).
 const libPart = await esbuild.build({ ...common, entryPoints: [join(here, "src/compute/libEntry.ts")], format: "iife", globalName: "__hxLib", write: false, outfile: join(dist, "lib-factory.js") });
+// The factory is a parenthesized function expression, so V8 compiles it at once rather than
+// pre-parsing 0.6 MB and parsing it again when it is called.
 const factory =
-  `function __helicoidLibFactory(){${libPart.outputFiles[0].text}\nreturn __hxLib;}\n` +
+  `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n` +
   "globalThis.__helicoidLib=__helicoidLibFactory();\n" +
-  'globalThis.__helicoidWorkerSource=function(){return __helicoidLibFactory.toString()+"\\nvar __hxL=__helicoidLibFactory();self.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
+  'globalThis.__helicoidWorkerSource=function(){return "var __hxL=("+__helicoidLibFactory.toString()+")();\\nself.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
 const widgets7 = join(here, "src", "stubs", "widgets7");
 const page = await esbuild.build({
   ...common,
