@@ -3,7 +3,10 @@
 // symmetricEigen) against LAPACK through numpy.linalg.eigh / eigvalsh on the same matrix, interleaved:
 // each round times ours (median of 41 calls, warm) then numpy in a Python process (median of 41
 // calls, warm, interpreter start excluded). Same accuracy class (both backward stable, values within
-// 1e-13 of each other relative to the norm, checked here). HELICOID_BENCH_EIGEN_ROUNDS (default 5).
+// 1e-13 of each other relative to the norm, checked here). Also the complex Hermitian solver
+// (HermitianEigenSolver, the Chern-number workhorse) at 6 x 6 and 40 x 40 against numpy.linalg.eigh
+// (zheevd), interleaved the same way: berry.bench.mjs compares it only with mathjs.
+// HELICOID_BENCH_EIGEN_ROUNDS (default 5).
 import lib from "../../lib/dist/index.js";
 import { medianMs, pythonTiming, summary, verdict } from "./util.mjs";
 
@@ -47,6 +50,45 @@ export default async () => {
       group: "single spin S=50", name: `dense 101 x 101, ${name}, warm, interleaved x${ROUNDS} (max |value difference| ${diff.toExponential(1)} of the norm)`,
       ours_ms: so.median, ours_spread: so.spread, reference: ref, reference_ms: sr.median, reference_spread: sr.spread, ratio,
       goal: verdict(ratio <= 2, "<= 2x numpy"),
+    });
+  }
+  // Complex Hermitian, values + vectors: ours and LAPACK, interleaved rounds.
+  const PYH = `
+import json, sys, time, numpy as np
+d = json.load(sys.stdin); n = d["n"]; A = (np.array(d["re"]) + 1j * np.array(d["im"])).reshape(n, n)
+def med(f, runs=101):
+    for _ in range(5): f()
+    t = []
+    for _ in range(runs):
+        t0 = time.perf_counter(); f(); t.append((time.perf_counter() - t0) * 1e3)
+    return sorted(t)[len(t) // 2]
+print(json.dumps({"eigh": med(lambda: np.linalg.eigh(A)), "w": np.linalg.eigvalsh(A).tolist()}))`;
+  for (const m of [6, 40]) {
+    let s = (11 + m) >>> 0;
+    const rnd = () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32) - 0.5;
+    const re = new Float64Array(m * m), im = new Float64Array(m * m);
+    for (let i = 0; i < m; i++) for (let j = 0; j <= i; j++) {
+      const a = rnd(), b = i === j ? 0 : rnd();
+      re[i * m + j] = a; re[j * m + i] = a; im[i * m + j] = b; im[j * m + i] = -b;
+    }
+    const hs = new lib.HermitianEigenSolver(m);
+    const oh = [], rh = [];
+    let wh = null;
+    for (let k = 0; k < ROUNDS; k++) {
+      oh.push(await medianMs(() => hs.solve(re, im, true), { runs: 101, warmup: 5 }));
+      const p = pythonTiming(PYH, { n: m, re: Array.from(re), im: Array.from(im) });
+      rh.push(p.eigh);
+      wh = p.w;
+    }
+    hs.solve(re, im, false);
+    const nh = Math.max(...wh.map(Math.abs));
+    let dh = 0;
+    for (let k = 0; k < m; k++) dh = Math.max(dh, Math.abs(hs.values[k] - wh[k]) / nh);
+    const so = summary(oh), sr = summary(rh);
+    rows.push({
+      group: "hermitian eigensolver", name: `${m} x ${m} complex, values + vectors, warm, interleaved x${ROUNDS} (max |value difference| ${dh.toExponential(1)} of the norm)`,
+      ours_ms: so.median, ours_spread: so.spread, reference: "numpy.linalg.eigh (LAPACK zheevd)", reference_ms: sr.median, reference_spread: sr.spread, ratio: so.median / sr.median,
+      goal: verdict(so.median / sr.median <= 2, "<= 2x LAPACK"),
     });
   }
   return rows;
