@@ -3,7 +3,8 @@
  * Build of @helicoid/widgets (run by the root `npm run build`):
  *   1. dist/worker.js          the compute worker (bundled @helicoid/lib), embedded as text below
  *   2. dist/export.js          the standalone bootstrap of exported pages (html-manager, standard
- *                              controls, our module, plotly, CSS injected), one IIFE script
+ *                              controls, our module, plotly, CSS injected), one script: the library
+ *                              factory (also the worker's source) then the page bundle
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
  *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
@@ -82,16 +83,42 @@ const workerSource = {
   },
 };
 
-// 2. export bootstrap (ipywidgets 7 models left out: our kernel speaks protocol 2)
+// 2. export bootstrap (ipywidgets 7 models left out: our kernel speaks protocol 2), in two parts in
+//    one file: (a) the library factory, a function holding @helicoid/lib and the job runner, called
+//    once for the page; its own source text (Function.prototype.toString) starts the Web Worker, so
+//    the page carries the library once instead of a second copy as a worker string; (b) the page
+//    bundle, which takes @helicoid/lib from (a). sanitize-html is replaced by a DOM allow-list
+//    sanitizer (src/stubs/sanitizeHtml: the exporter sanitizes untrusted HTML in Node beforehand).
+const libPart = await esbuild.build({ ...common, entryPoints: [join(here, "src/compute/libEntry.ts")], format: "iife", globalName: "__hxLib", write: false, outfile: join(dist, "lib-factory.js") });
+// The factory is a parenthesized function expression, so V8 compiles it at once rather than
+// pre-parsing 0.6 MB and parsing it again when it is called.
+const factory =
+  `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n` +
+  "globalThis.__helicoidLib=__helicoidLibFactory();\n" +
+  'globalThis.__helicoidWorkerSource=function(){return "var __hxL=("+__helicoidLibFactory.toString()+")();\\nself.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
 const widgets7 = join(here, "src", "stubs", "widgets7");
-await esbuild.build({
+const page = await esbuild.build({
   ...common,
-  alias: { ...common.alias, "@jupyter-widgets/base7": widgets7, "@jupyter-widgets/controls7": widgets7 },
+  alias: {
+    ...common.alias,
+    "@helicoid/lib": join(here, "src", "stubs", "pageLib.cjs"),
+    "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
+    "@jupyter-widgets/base7": widgets7,
+    "@jupyter-widgets/controls7": widgets7,
+  },
+  inject: [],
   entryPoints: [join(here, "src/exportPage.ts")],
   format: "iife",
+  write: false,
   outfile: join(dist, "export.js"),
-  plugins: [cssInject, workerSource],
+  plugins: [cssInject, {
+    name: "page-worker-source",
+    setup(build) {
+      build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: join(here, "src", "stubs", "pageWorkerSource.js") }));
+    },
+  }],
 });
+writeFileSync(join(dist, "export.js"), factory + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
 if (extraSpecs) { log("done (test bundle)"); process.exit(0); }

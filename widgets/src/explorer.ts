@@ -193,7 +193,13 @@ export class ExplorerView extends DOMWidgetView {
 
     this.updateNotice(resolved.note);
     this.syncControls();
-    if (this.local) this.coalescer = new Coalescer((o) => this.applyOutcome(o));
+    if (this.local) {
+      const c = (this.coalescer = new Coalescer((o) => this.applyOutcome(o)));
+      // The worker starts when the person reaches for a control (or on the first recompute).
+      const warm = (): void => c.prewarm();
+      this.el.addEventListener("pointerover", warm, { once: true });
+      this.el.addEventListener("focusin", warm, { once: true });
+    }
     this.updateStatus();
 
     this.listenTo(this.model, "change:inputs", () => { this.syncControls(); if (this.local) this.recompute(); });

@@ -9,7 +9,8 @@ declare module "plotly.js-cartesian-dist-min" {
   export default Plotly;
 }
 declare module "helicoid:worker-source" {
-  const source: string;
+  /** The worker's source text, or (exported pages) a function that makes it on demand. */
+  const source: string | (() => string);
   export default source;
 }
 declare module "*.css" {

@@ -96,35 +96,22 @@ function sharedIfAsked(result: ReadResult, options: FileReadOptions): ReadResult
   return result;
 }
 
-/** Longest line of a table (bytes): a row of six numbers is under 200. */
-const MAX_LINE = 1 << 20;
-
 /**
- * A CSV/TSV/whitespace table read line by line from the file (16 MB at a time, decoded as UTF-8
- * in stream mode) into @helicoid/lib's DelimitedFieldParser: no string of the whole file, values
- * straight into typed arrays, the memory budget checked as rows arrive.
+ * A CSV/TSV/whitespace table read from the file 16 MB at a time into @helicoid/lib's
+ * DelimitedFieldParser as bytes: rows of plain numbers are parsed from the bytes straight into typed
+ * arrays (no string per line or per value), sized once from the file's size; the memory budget is
+ * checked as rows arrive.
  */
 function readDelimitedStreaming(fd: number, size: number, name: string, options: FileReadOptions): ReadResult {
-  const parser = new DelimitedFieldParser({ ...options, file: name });
-  const decoder = new TextDecoder("utf-8");
+  const parser = new DelimitedFieldParser({ ...options, file: name }, size);
   const chunk = new Uint8Array(Math.min(CHUNK, Math.max(size, 1)));
-  let carry = "";
-  let lineNumber = 0;
-  const feed = (text: string, last: boolean) => {
-    const parts = (carry + text).split("\n");
-    carry = last ? "" : parts.pop()!;
-    for (const p of parts) parser.line(p.endsWith("\r") ? p.slice(0, -1) : p, ++lineNumber);
-    if (carry.length > MAX_LINE) {
-      throw new InputError(`${name}: line ${lineNumber + 1}`, `a line longer than ${formatBytes(MAX_LINE)}`, "a table of short lines (one row per cell)", "This does not look like a text table");
-    }
-  };
   for (let pos = 0; pos < size; ) {
     const n = readSync(fd, chunk, 0, Math.min(chunk.length, size - pos), pos);
     if (n <= 0) break;
     pos += n;
-    feed(decoder.decode(chunk.subarray(0, n), { stream: true }), false);
+    parser.bytes(chunk.subarray(0, n), false);
   }
-  feed(decoder.decode(), true);
+  parser.bytes(new Uint8Array(0), true);
   return parser.finish();
 }
 

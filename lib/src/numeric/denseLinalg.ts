@@ -1,15 +1,18 @@
 /**
  * Small dense linear algebra for least-squares problems: Householder QR with column pivoting of a
  * tall m x n matrix (m >> n allowed, column-major storage so each column is contiguous), solution
- * of damped triangular systems, inverse of R^T R, and the symmetric Jacobi eigenvalue method.
+ * of damped triangular systems, inverse of R^T R, and the symmetric eigenproblem (Householder + QL,
+ * from eigenSymmetricQL.ts).
  *
  * Hand-written because no maintained TypeScript library offers pivoted QR on Float64Array columns
  * (mathjs works on nested arrays and boxes numbers; far too slow for 100 000 x 5 Jacobians).
  *
  * Sources: G. Golub, C. Van Loan, *Matrix Computations* (4th ed., 2013), sections 5.2 (Householder
- * QR), 5.4.1 (column pivoting), 8.5 (Jacobi method); J. More, "The Levenberg-Marquardt algorithm:
+ * QR), 5.4.1 (column pivoting); J. More, "The Levenberg-Marquardt algorithm:
  * implementation and theory", Lecture Notes in Mathematics 630 (1978) for the use in LM.
  */
+
+import { SymmetricEigenSolver } from "./eigenSymmetricQL.js";
 
 /** Result of a pivoted QR factorization A P = Q R of an m x n matrix (m >= n). */
 export interface PivotedQr {
@@ -243,62 +246,22 @@ export function inverseNormalFromQr(qr: PivotedQr): Float64Array | null {
 }
 
 /**
- * Eigen-decomposition of a symmetric n x n matrix (row-major or column-major: symmetric) by the
- * cyclic Jacobi method. Returns eigenvalues (ascending) and eigenvectors as columns
- * (vectors[i + k*n] = component i of eigenvector k).
+ * Eigen-decomposition of a symmetric n x n matrix (row-major or column-major: symmetric; the lower
+ * triangle of the row-major reading is used). Returns eigenvalues (ascending) and eigenvectors as
+ * columns (vectors[i + k*n] = component i of eigenvector k). One implementation for the library's
+ * dense symmetric problems: Householder tridiagonalization and implicit QL (eigenSymmetricQL.ts,
+ * Wilkinson and Reinsch, Handbook II/2 and II/3); this was a cyclic Jacobi method before, 3 to 10
+ * times slower from n = 10 on.
  */
 export function symmetricEigen(a: ArrayLike<number>, n: number): { values: Float64Array; vectors: Float64Array } {
-  const A = Float64Array.from(a as ArrayLike<number>);
-  const V = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) V[i + i * n] = 1;
-  for (let sweep = 0; sweep < 100; sweep++) {
-    let off = 0;
-    let total = 0;
-    for (let i = 0; i < n; i++)
-      for (let j = 0; j < n; j++) {
-        const x = A[i + j * n] * A[i + j * n];
-        total += x;
-        if (i !== j) off += x;
-      }
-    if (off <= 1e-30 * total || off === 0) break;
-    for (let p = 0; p < n - 1; p++) {
-      for (let q = p + 1; q < n; q++) {
-        const apq = A[p + q * n];
-        if (apq === 0) continue;
-        const app = A[p + p * n];
-        const aqq = A[q + q * n];
-        const theta = (aqq - app) / (2 * apq);
-        const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
-        const c = 1 / Math.sqrt(t * t + 1);
-        const s = t * c;
-        for (let k = 0; k < n; k++) {
-          const akp = A[k + p * n];
-          const akq = A[k + q * n];
-          A[k + p * n] = c * akp - s * akq;
-          A[k + q * n] = s * akp + c * akq;
-        }
-        for (let k = 0; k < n; k++) {
-          const apk = A[p + k * n];
-          const aqk = A[q + k * n];
-          A[p + k * n] = c * apk - s * aqk;
-          A[q + k * n] = s * apk + c * aqk;
-        }
-        for (let k = 0; k < n; k++) {
-          const vkp = V[k + p * n];
-          const vkq = V[k + q * n];
-          V[k + p * n] = c * vkp - s * vkq;
-          V[k + q * n] = s * vkp + c * vkq;
-        }
-      }
-    }
-  }
-  const idx = Array.from({ length: n }, (_, i) => i).sort((i, j) => A[i + i * n] - A[j + j * n]);
-  const values = new Float64Array(n);
+  const solver = new SymmetricEigenSolver(n);
+  solver.solve(a, true);
+  const values = Float64Array.from(solver.values);
+  // The solver keeps eigenvector k as its column k in row-major storage ([i * n + k]); here it is
+  // the k-th block of n ([i + k * n]).
+  const V = solver.vectors;
   const vectors = new Float64Array(n * n);
-  idx.forEach((src, k) => {
-    values[k] = A[src + src * n];
-    for (let i = 0; i < n; i++) vectors[i + k * n] = V[i + src * n];
-  });
+  for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) vectors[i + k * n] = V[i * n + k]!;
   return { values, vectors };
 }
 

@@ -42,13 +42,8 @@ export class SymmetricEigenSolver {
   solve(input: ArrayLike<number>, vectors = true): void {
     const n = this.n;
     const a = this.a;
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j <= i; j++) {
-        const x = input[i * n + j]!;
-        a[i * n + j] = x;
-        a[j * n + i] = x;
-      }
-    }
+    // Only the lower triangle is read and updated below.
+    for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) a[i * n + j] = input[i * n + j]!;
     const v = this.v;
     const p = this.p;
     const hv = this.hv;
@@ -64,25 +59,33 @@ export class SymmetricEigenSolver {
       v[k + 1] = x0 - alpha;
       for (let i = k + 2; i < n; i++) v[i] = a[i * n + k]!;
       const tau = 2 / (v[k + 1]! * v[k + 1]! + tail);
+      // p = tau A v on the trailing block from its lower triangle only, row by row: row i gives
+      // p_i its dot product and adds a_ij v_i to each p_j (both contiguous in j).
+      p.fill(0, k + 1, n);
+      for (let i = k + 1; i < n; i++) {
+        const row = i * n;
+        const vi = v[i]!;
+        let s = 0;
+        for (let j = k + 1; j < i; j++) {
+          const aij = a[row + j]!;
+          s += aij * v[j]!;
+          p[j] = p[j]! + aij * vi;
+        }
+        p[i] = p[i]! + s + a[row + i]! * vi;
+      }
       let beta = 0;
       for (let i = k + 1; i < n; i++) {
-        let s = 0;
-        const row = i * n;
-        for (let j = k + 1; j < n; j++) s += a[row + j]! * v[j]!;
-        p[i] = tau * s;
+        p[i] = tau * p[i]!;
         beta += v[i]! * p[i]!;
       }
       const half = 0.5 * tau * beta;
       for (let i = k + 1; i < n; i++) p[i] = p[i]! - half * v[i]!;
+      // Symmetric rank-2 update of the lower triangle, row by row.
       for (let i = k + 1; i < n; i++) {
         const row = i * n;
         const vi = v[i]!;
         const qi = p[i]!;
-        for (let j = k + 1; j <= i; j++) {
-          const x = a[row + j]! - (vi * p[j]! + qi * v[j]!);
-          a[row + j] = x;
-          a[j * n + i] = x;
-        }
+        for (let j = k + 1; j <= i; j++) a[row + j] = a[row + j]! - (vi * p[j]! + qi * v[j]!);
       }
       a[(k + 1) * n + k] = alpha;
       taus[k] = tau;
@@ -102,16 +105,25 @@ export class SymmetricEigenSolver {
     const W = this.w;
     W.fill(0);
     for (let i = 0; i < n; i++) W[i * n + i] = 1;
+    // W = H_0 H_1 ... H_{n-3} applied from the last reflector on: W <- (I - tau h h^T) W on the
+    // trailing block, as s^T = h^T W (row by row) then W -= tau h s^T (row by row): contiguous.
+    const sv = p;
     for (let k = n - 3; k >= 0; k--) {
       const tau = taus[k]!;
       if (tau === 0) continue;
       const base = k * n;
-      for (let j = k + 1; j < n; j++) {
-        let s = 0;
-        for (let i = k + 1; i < n; i++) s += hv[base + i]! * W[i * n + j]!;
-        if (s === 0) continue;
-        s *= tau;
-        for (let i = k + 1; i < n; i++) W[i * n + j] = W[i * n + j]! - hv[base + i]! * s;
+      sv.fill(0, k + 1, n);
+      for (let i = k + 1; i < n; i++) {
+        const h = hv[base + i]!;
+        if (h === 0) continue;
+        const row = i * n;
+        for (let j = k + 1; j < n; j++) sv[j] = sv[j]! + h * W[row + j]!;
+      }
+      for (let i = k + 1; i < n; i++) {
+        const h = tau * hv[base + i]!;
+        if (h === 0) continue;
+        const row = i * n;
+        for (let j = k + 1; j < n; j++) W[row + j] = W[row + j]! - h * sv[j]!;
       }
     }
     // Transposed (vector = row) for contiguous rotations.

@@ -1,7 +1,9 @@
 /**
  * Coalesces recompute requests while a slider moves: at most one job is in flight; newer requests
  * replace the waiting one, so the last position is always computed and stale ones are skipped.
- * Runs jobs in a Web Worker when one can be started, else on the page (still coalesced).
+ * Runs jobs in a Web Worker when one can be started, else on the page (still coalesced). The worker
+ * starts on the first job (or on `prewarm()`, when the person points at an explorer), not at page
+ * load: a page whose explorers show their saved results never pays for it.
  */
 import type { ComputeJob, ComputeOutcome } from "./job.js";
 import { runJob } from "./runJob.js";
@@ -13,24 +15,43 @@ type Sink = (outcome: ComputeOutcome) => void;
 let sharedWorker: Worker | null | undefined;
 let workerUrl: string | undefined;
 
-/** One worker per page, shared by every explorer. `null` when workers are not available. */
+/** Whether this page can start a worker at all (checked without starting one). */
+function workerPossible(): boolean {
+  return sharedWorker !== null && typeof Worker !== "undefined" && typeof Blob !== "undefined" && !!workerSource;
+}
+
+/** One worker per page, shared by every explorer, started on first use. `null` when workers are not available. */
 function pageWorker(): Worker | null {
   if (sharedWorker !== undefined) return sharedWorker;
   try {
-    if (typeof Worker === "undefined" || !workerSource) throw new Error("no Worker");
-    workerUrl = URL.createObjectURL(new Blob([workerSource], { type: "text/javascript" }));
+    if (!workerPossible()) throw new Error("no Worker");
+    const source = typeof workerSource === "function" ? workerSource() : workerSource;
+    if (!source) throw new Error("no worker source");
+    workerUrl = URL.createObjectURL(new Blob([source], { type: "text/javascript" }));
     sharedWorker = new Worker(workerUrl);
   } catch {
     sharedWorker = null;
   }
+  if (sharedWorker) listen(sharedWorker);
   return sharedWorker;
+}
+
+function listen(w: Worker): void {
+  w.addEventListener("message", (e: MessageEvent<ComputeOutcome>) => {
+    const ch = Math.floor(e.data.seq / 1e9);
+    sinks.get(ch)?.(e.data);
+  });
+  w.addEventListener("error", (e) => {
+    console.error("helicoid compute worker failed; computing on the page instead", e);
+    sharedWorker = null;
+    for (const c of live) c.moveToPage();
+  });
 }
 
 let nextChannel = 1;
 const sinks = new Map<number, (o: ComputeOutcome) => void>();
 /** Coalescers to move to the page if the worker fails. */
 const live = new Set<Coalescer>();
-let listening = false;
 
 export class Coalescer {
   private seq = 0;
@@ -41,24 +62,14 @@ export class Coalescer {
   where: "worker" | "page";
 
   constructor(private readonly sink: Sink, useWorker = true) {
-    const w = useWorker ? pageWorker() : null;
-    this.where = w ? "worker" : "page";
-    if (w) {
-      sinks.set(this.channel, (o) => this.done(o));
-      if (!listening) {
-        listening = true;
-        w.addEventListener("message", (e: MessageEvent<ComputeOutcome>) => {
-          const ch = Math.floor(e.data.seq / 1e9);
-          sinks.get(ch)?.(e.data);
-        });
-        w.addEventListener("error", (e) => {
-          console.error("helicoid compute worker failed; computing on the page instead", e);
-          sharedWorker = null;
-          for (const c of live) c.moveToPage();
-        });
-      }
-    }
+    this.where = useWorker && workerPossible() ? "worker" : "page";
+    if (this.where === "worker") sinks.set(this.channel, (o) => this.done(o));
     live.add(this);
+  }
+
+  /** Start the page's worker now (it is about to be needed), so the first job does not wait for it. */
+  prewarm(): void {
+    if (this.where === "worker" && !pageWorker()) this.where = "page";
   }
 
   /** The worker failed: run the job it held (and all later ones) on the page. */
@@ -92,8 +103,10 @@ export class Coalescer {
 
   private start(job: ComputeJob): void {
     this.inFlight = job;
-    if (this.where === "worker" && sharedWorker) {
-      sharedWorker.postMessage(job);
+    const w = this.where === "worker" ? pageWorker() : null;
+    if (this.where === "worker" && !w) this.where = "page";
+    if (w) {
+      w.postMessage(job);
     } else {
       // Yield to the page first so several slider events can coalesce.
       setTimeout(() => this.done(runJob(job)), 0);
