@@ -7,9 +7,10 @@
  * algorithm (hand-written here, a power-of-two convolution through the same fft.js transform).
  * Library or hand-written, by measurement (test/bench/libraries.bench.mjs, interleaved, same
  * accuracy against numpy.fft: max error / sqrt(n) about 5e-16 at n = 1024 and 1e-15 at 65536 for
- * both): our earlier iterative radix-2 Cooley-Tukey was 2.1-2.8 times slower than fft.js even with
- * the copies to and from fft.js's interleaved arrays that our planar, strided API needs, so the
- * power-of-two path switched to fft.js. Verified against numpy.fft in test/lib/numeric/fft.test.ts.
+ * both): our earlier iterative radix-2 Cooley-Tukey (kept in the bench file) took 1.2-1.5 times the
+ * time of fft() through fft.js, the copies to and from fft.js's interleaved arrays that our planar,
+ * strided API needs included (n = 1024 and 65536, CPU time, two runs on a loaded 2-core machine; a
+ * first run through the old lib build measured 2.1-2.8), so the power-of-two path switched to fft.js. Verified against numpy.fft in test/lib/numeric/fft.test.ts.
  * Sources: J. Cooley, J. Tukey, Math. Comp. 19, 297 (1965) (the method of fft.js); L. Bluestein, IEEE Trans. Audio
  * Electroacoust. 18, 451 (1970).
  */
