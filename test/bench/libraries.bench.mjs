@@ -164,6 +164,10 @@ export default async () => {
   row("Bessel J1, 20 000 points on (0, 100]", abab(batch(bessel.besselJ1, tb), batch(sJ1, tb)), "@stdlib/math-base-special-besselj1",
     maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false), maxErr(evalAll(sJ1, besselX), ref.j1, false), "absolute",
     "kept ours (see bessel.ts header)");
+  const j01 = new Float64Array(2);
+  row("Bessel J0 and J1 together (the Hankel-transform use), 20 000 points", abab(batch((x) => { bessel.besselJ01(x, j01); return j01[0] + j01[1]; }, tb), batch((x) => sJ0(x) + sJ1(x), tb)),
+    "@stdlib besselj0 + besselj1", Math.max(maxErr(evalAll(bessel.besselJ0, besselX), ref.j0, false), maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false)),
+    Math.max(maxErr(evalAll(sJ0, besselX), ref.j0, false), maxErr(evalAll(sJ1, besselX), ref.j1, false)), "absolute", "kept ours (see bessel.ts header)");
   row("elliptic K(k) and E(k), 20 000 moduli in [0, 1)", abab(batch((k) => { const r = ell.completeEllipticIntegrals(k); return r.K + r.E; }, tk), batch((k) => sEllipK(k * k) + sEllipE(k * k), tk)),
     "@stdlib ellipk + ellipe (parameter m = k^2)",
     Math.max(maxErr(evalAll(ell.ellipticK, ellK), ref.K, true), maxErr(evalAll(ell.ellipticE, ellK), ref.E, true)),
