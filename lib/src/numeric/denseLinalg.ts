@@ -270,6 +270,9 @@ export function symmetricEigen(a: ArrayLike<number>, n: number): { values: Float
  * column-major G (lower triangle read), or null when a pivot is not positive or the smallest
  * diagonal of L is below minPivotRatio times the largest (a condition-number guard: cond(G) is
  * about the square of that ratio's inverse). Common practice, no source.
+ * Library or hand-written, by measurement (test/bench/libraries.bench.mjs, interleaved): ml-matrix's
+ * CholeskyDecomposition, with the conversions our column-major Float64Array API needs, was 4-8 times
+ * slower for n = 5 ... 60 at the same backward error (|L L^T - G| / |G| about 2e-16 both); kept ours.
  */
 export function choleskyLower(G: ArrayLike<number>, n: number, minPivotRatio: number): Float64Array | null {
   const L = new Float64Array(n * n);

@@ -3,6 +3,26 @@ import { besselJ0, besselJ1 } from "@helicoid/lib";
 import { runPython } from "../../helpers/python.js";
 
 describe("Bessel J0, J1", () => {
+  it("agree with mpmath (50 digits) to 6e-14 absolute on [-10, 150], the measured worst being about 4e-14", () => {
+    const xs: number[] = [];
+    for (let i = 0; i < 500; i++) xs.push(-10 + i * 0.3203 + 1e-3 * (i % 11));
+    xs.push(63.9999, 64, 64.0001);
+    // Source: mpmath.besselj (arbitrary precision), Debian's python3-mpmath.
+    const ref = runPython<{ j0: number[]; j1: number[] }>(
+      `
+import json, sys, mpmath as mp
+mp.mp.dps = 50
+x = json.load(sys.stdin)
+print(json.dumps({"j0": [float(mp.besselj(0, mp.mpf(v))) for v in x], "j1": [float(mp.besselj(1, mp.mpf(v))) for v in x]}))
+`,
+      xs,
+    );
+    let worst = 0;
+    xs.forEach((x, i) => {
+      worst = Math.max(worst, Math.abs(besselJ0(x) - ref.j0[i]!), Math.abs(besselJ1(x) - ref.j1[i]!));
+    });
+    expect(worst).toBeLessThan(6e-14);
+  });
   it("agree with scipy.special.j0 / j1 from 0 to 500", () => {
     const xs: number[] = [];
     for (let i = 0; i < 400; i++) xs.push(i * 0.173 + 1e-3 * (i % 7));

@@ -220,3 +220,61 @@ print(json.dumps(out))
     expect(ref.some((r) => Math.abs(r.Q - Math.round(r.Q)) > 1e-3)).toBe(true);
   });
 });
+
+describe("lattice skyrmion number: the grouped fast path (16 plaquettes a shared atan2) against numpy", () => {
+  it("agrees to 1e-12 with two arctan2 a plaquette on a rough field (large and antipodal angles) and a smooth fine one", () => {
+    // Source: oracle = Debian's numpy running the Berg-Luescher formula with one arctan2 per triangle
+    // (B. Berg, M. Luescher, Nucl. Phys. B 190, 412 (1981)), on the same unit vectors.
+    const rnd = mulberry32(2024);
+    const cases: Array<{ nx: number; ny: number; m: number[] }> = [];
+    // rough: independent random directions, so many plaquettes exceed pi/16 and some denominators are <= 0
+    {
+      const nx = 37, ny = 29;
+      const m: number[] = [];
+      for (let c = 0; c < nx * ny; c++) {
+        const z = 2 * rnd() - 1, ph = 2 * Math.PI * rnd(), s = Math.sqrt(1 - z * z);
+        m.push(s * Math.cos(ph), s * Math.sin(ph), z);
+      }
+      cases.push({ nx, ny, m });
+    }
+    // smooth and finely sampled: almost every plaquette below pi/16, long groups of 16
+    {
+      const nx = 160, ny = 96;
+      const raw = randomSmoothComponents(nx, ny, 77, 4, 2, [0, 0, 0.3]);
+      const m: number[] = [];
+      for (let c = 0; c < nx * ny; c++) {
+        const x = raw[3 * c]!, y = raw[3 * c + 1]!, z = raw[3 * c + 2]!, r = Math.hypot(x, y, z);
+        m.push(x / r, y / r, z / r);
+      }
+      cases.push({ nx, ny, m });
+    }
+    // coarse dense skyrmion lattice (period 6 cells): runs of neighbouring plaquettes with large angles of
+    // one sign, whose sum over 16 plaquettes would wrap past pi if the grouping bound were wrong
+    {
+      const f = skyrmionLatticeTexture({ nx: 48, ny: 48, dx: 1e-9 }, { a: 6e-9, R: 1.5e-9, w: 0.8e-9, helicity: 0.3 });
+      cases.push({ nx: 48, ny: 48, m: Array.from(f.m) });
+    }
+    const ref = runPython<number[]>(`
+import json, sys
+import numpy as np
+out = []
+for c in json.load(sys.stdin):
+    m = np.array(c["m"], dtype=float).reshape(c["ny"], c["nx"], 3)
+    sh = lambda x, di, dj: np.roll(np.roll(x, -dj, axis=0), -di, axis=1)
+    a, b, cc, d = m, sh(m, 1, 0), sh(m, 1, 1), sh(m, 0, 1)
+    def omega(p, q, r):
+        t = np.einsum("...i,...i", p, np.cross(q, r))
+        den = 1 + (p * q).sum(-1) + (q * r).sum(-1) + (r * p).sum(-1)
+        return 2 * np.arctan2(t, den)
+    out.append(float((omega(a, b, cc) + omega(a, cc, d)).sum() / (4 * np.pi)))
+print(json.dumps(out))
+`, cases);
+    cases.forEach((c, k) => {
+      const f = vectorFieldFromInterleaved(c.m, { nx: c.nx, ny: c.ny });
+      const q = skyrmionNumber(f, { boundary: "periodic" }).Q;
+      expect(Math.abs(q - ref[k]!), `case ${k}: Q = ${q}, numpy ${ref[k]}`).toBeLessThan(1e-12);
+      // closed lattice: an integer
+      expect(Math.abs(q - Math.round(q))).toBeLessThan(1e-12);
+    });
+  });
+});
