@@ -19,7 +19,7 @@
  */
 import * as esbuild from "esbuild";
 import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, readdirSync, cpSync } from "node:fs";
-import { createRequire } from "node:module";
+
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";

@@ -1,3 +1,4 @@
+/* global PerformanceObserver */
 // Exported page, load to a drawn, live explorer, in Debian's chromium: a page of two catalogue
 // explorers (skyrmion, wall) with their saved results, exported by helicoid export, against the floor
 // of any page that draws with the same plotly bundle: plotly alone, inline, drawing one line plot.

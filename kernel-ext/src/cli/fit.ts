@@ -14,7 +14,7 @@
 import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText } from "@helicoid/lib";
+import { readProfileCsv, fitProfile, profileModels, getProfileModel, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError } from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;

@@ -16,8 +16,8 @@
  * Exit codes: 0 success, 1 a fit that failed (the message says why), 2 bad input (the parameter,
  * the value and what was expected).
  */
-import { readFileSync, statSync } from "node:fs";
-import { readProfileCsv, profileField, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, shortText, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+
+import { readProfileCsv, profileField, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
 import { readProfileText } from "./fit.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 

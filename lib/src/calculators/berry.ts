@@ -6,7 +6,7 @@
  * Energies of spin models are given as E / k_B in kelvin (the customary unit of molecular magnets);
  * compute functions receive them in J. Defaults use invented demo materials.
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { kB, muB } from "../quantity/constants.js";

@@ -8,7 +8,7 @@
  * The plot spec draws lines and markers only (no heatmap), so the S(q, w) map is returned as
  * flattened arrays (row-major: q index, then w) next to cuts at q = pi and the bounds against q.
  */
-import type { CalculatorSpec, ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";

@@ -8,7 +8,7 @@
  * Defaults: the invented demo film HX-1 (lib/src/material/demo.ts) for walls and skyrmions, and an
  * invented DMI-free film for the nanocontact (values below, labelled invented).
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
+import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { defaultSweep, defineCalculator, inputList, outputList } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";

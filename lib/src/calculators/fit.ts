@@ -4,7 +4,7 @@
  * offset + contrast * m_z, so the precision of R and w and their correlation can be explored against
  * noise, sampling and size. The data are invented (synthetic) by construction.
  */
-import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { fitProfile } from "../fit/fitProfile.js";
 import { guessStart } from "../fit/startGuess.js";

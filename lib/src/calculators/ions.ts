@@ -4,7 +4,7 @@
  * magnetization and neutron dipole intensities). Energies are E / k_B in kelvin (inputs also read
  * "0.1 meV", "5 cm^-1", "20 GHz"); outputs repeat the levels in meV and cm^-1.
  */
-import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, h as planck, e as eCharge } from "../quantity/constants.js";

@@ -4,7 +4,7 @@
  * windows of an easy-plane antiferromagnet against field in site-decoupled mean field, with the
  * Bose-Hubbard Mott lobes of the boson mapping).
  */
-import type { CalculatorSpec, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, mu0, muB } from "../quantity/constants.js";

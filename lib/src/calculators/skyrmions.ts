@@ -3,7 +3,7 @@
  * thin-film magnetostatics, R(B) and w(B) sweeps) and `skyrmion-profile` (ansatz against the exact
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues, OutputSpec } from "./spec.js";
+import type { ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
 import { defineCalculator, inputList, outputList } from "./spec.js";
 import { filmLimits, sweepValues } from "./spec.js";
 import { ConvergenceError, InputError } from "../errors.js";

@@ -1,4 +1,4 @@
-import type { CalculatorSpec, ComputeCost, ComputeOutput, InputValues } from "./spec.js";
+import type { ComputeCost, ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";

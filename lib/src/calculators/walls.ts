@@ -4,7 +4,7 @@
  * Defaults: the invented demo film "Film HX-1 (invented)" (lib/src/material/demo.ts).
  * Ranges keep K_eff = Ku - mu0 Ms^2 / 2 > 0 at every corner, so every corner computes.
  */
-import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
+import type { ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator, inputList } from "./spec.js";
 import { filmLimits } from "./spec.js";
 import { sweepValues } from "./spec.js";

@@ -119,7 +119,7 @@ describe("helicoid fit", () => {
     const before = readFileSync(withUnit, "utf8");
     let c = capture();
     expect(await fitCommand([withUnit, "--model", "wall360-mz", "--profile"], c.io)).toBe(0);
-    let text = c.out.join("");
+    const text = c.out.join("");
     expect(text).toMatch(/R\s+[\d.]+ ± [\d.]+ nm\s+\[[\d.]+ nm, [\d.]+ nm\]\s+95 % profile-likelihood interval \[[\d.]+ nm, [\d.]+ nm\]/);
     expect(text).toMatch(/^assumptions: continuum micromagnetics, T = 0/m);
     c = capture();
