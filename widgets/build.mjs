@@ -27,7 +27,10 @@ import { spawnSync } from "node:child_process";
 const here = dirname(fileURLToPath(import.meta.url));
 const argv = process.argv.slice(2);
 const args = new Set(argv);
-const option = (name) => { const i = argv.indexOf(name); return i >= 0 ? argv[i + 1] : undefined; };
+const option = (name) => {
+  const i = argv.indexOf(name);
+  return i >= 0 ? argv[i + 1] : undefined;
+};
 // Tests: `--extra-specs FILE --out DIR` builds only the worker and the export bundle into DIR,
 // with FILE (which adds test calculators to the catalogue) injected into both.
 const extraSpecs = option("--extra-specs");
@@ -42,7 +45,10 @@ const cssInject = {
   setup(build) {
     build.onLoad({ filter: /\.css$/ }, async (a) => {
       const out = await esbuild.build({
-        entryPoints: [a.path], bundle: true, write: false, minify: true,
+        entryPoints: [a.path],
+        bundle: true,
+        write: false,
+        minify: true,
         loader: { ".svg": "dataurl", ".png": "dataurl", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".gif": "dataurl" },
         logLevel: "silent",
       });
@@ -89,7 +95,14 @@ const workerSource = {
 //    the page carries the library once instead of a second copy as a worker string; (b) the page
 //    bundle, which takes @helicoid/lib from (a). sanitize-html is replaced by a DOM allow-list
 //    sanitizer (src/stubs/sanitizeHtml: the exporter sanitizes untrusted HTML in Node beforehand).
-const libPart = await esbuild.build({ ...common, entryPoints: [join(here, "src/compute/libEntry.ts")], format: "iife", globalName: "__hxLib", write: false, outfile: join(dist, "lib-factory.js") });
+const libPart = await esbuild.build({
+  ...common,
+  entryPoints: [join(here, "src/compute/libEntry.ts")],
+  format: "iife",
+  globalName: "__hxLib",
+  write: false,
+  outfile: join(dist, "lib-factory.js"),
+});
 // The factory is a parenthesized function expression, so V8 compiles it at once rather than
 // pre-parsing 0.6 MB and parsing it again when it is called.
 const factory =
@@ -111,17 +124,23 @@ const page = await esbuild.build({
   format: "iife",
   write: false,
   outfile: join(dist, "export.js"),
-  plugins: [cssInject, {
-    name: "page-worker-source",
-    setup(build) {
-      build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: join(here, "src", "stubs", "pageWorkerSource.js") }));
+  plugins: [
+    cssInject,
+    {
+      name: "page-worker-source",
+      setup(build) {
+        build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: join(here, "src", "stubs", "pageWorkerSource.js") }));
+      },
     },
-  }],
+  ],
 });
 writeFileSync(join(dist, "export.js"), factory + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
-if (extraSpecs) { log("done (test bundle)"); process.exit(0); }
+if (extraSpecs) {
+  log("done (test bundle)");
+  process.exit(0);
+}
 
 // 3. markdown renderer for the exporter (Node)
 await esbuild.build({ ...common, alias: {}, entryPoints: [join(here, "src/node/markdown.ts")], platform: "node", format: "cjs", outfile: join(dist, "markdown.cjs") });
@@ -154,21 +173,25 @@ if (!args.has("--no-lab")) {
   for (const f of libFiles) writeFileSync(join(stage, f), readFileSync(join(here, "lib", f)));
   writeFileSync(
     join(stage, "package.json"),
-    JSON.stringify({
-      name: own.name,
-      version: own.version,
-      description: own.description,
-      license: "MIT",
-      main: "plugin.js",
-      keywords: ["jupyter", "jupyterlab", "jupyterlab-extension", "widgets"],
-      dependencies: { "@jupyter-widgets/base": (own.dependencies ?? own.devDependencies)["@jupyter-widgets/base"] },
-      jupyterlab: {
-        extension: true,
-        outputDir: relative(stage, join(here, "labextension")),
-        webpackConfig: "./webpack.config.js",
-        sharedPackages: { "@jupyter-widgets/base": { bundled: false, singleton: true } },
+    JSON.stringify(
+      {
+        name: own.name,
+        version: own.version,
+        description: own.description,
+        license: "MIT",
+        main: "plugin.js",
+        keywords: ["jupyter", "jupyterlab", "jupyterlab-extension", "widgets"],
+        dependencies: { "@jupyter-widgets/base": (own.dependencies ?? own.devDependencies)["@jupyter-widgets/base"] },
+        jupyterlab: {
+          extension: true,
+          outputDir: relative(stage, join(here, "labextension")),
+          webpackConfig: "./webpack.config.js",
+          sharedPackages: { "@jupyter-widgets/base": { bundled: false, singleton: true } },
+        },
       },
-    }, null, 2),
+      null,
+      2,
+    ),
   );
   // The input is already minified by esbuild; skipping terser keeps the build fast.
   writeFileSync(join(stage, "webpack.config.js"), "module.exports = { optimization: { minimize: false } };\n");
@@ -206,21 +229,32 @@ if (!args.has("--no-lab") && (args.has("--with-manager") || args.has("--manager"
     rmSync(outDir, { recursive: true, force: true });
     mkdirSync(stage, { recursive: true });
     for (const d of ["lib", "schema"]) cpSync(join(src, d), join(stage, d), { recursive: true });
-    writeFileSync(join(stage, "package.json"), JSON.stringify({
-      name: pkg.name, version: pkg.version, description: pkg.description, license: pkg.license,
-      main: pkg.main, dependencies: pkg.dependencies,
-      jupyterlab: {
-        extension: true,
-        schemaDir: "./schema",
-        outputDir: relative(stage, outDir),
-        // The widget packages are provided once, for every widget extension (ours asks for base as a singleton).
-        sharedPackages: {
-          "@jupyter-widgets/base": { bundled: true, singleton: true },
-          "@jupyter-widgets/controls": { bundled: true, singleton: true },
-          "@jupyter-widgets/output": { bundled: true, singleton: true },
+    writeFileSync(
+      join(stage, "package.json"),
+      JSON.stringify(
+        {
+          name: pkg.name,
+          version: pkg.version,
+          description: pkg.description,
+          license: pkg.license,
+          main: pkg.main,
+          dependencies: pkg.dependencies,
+          jupyterlab: {
+            extension: true,
+            schemaDir: "./schema",
+            outputDir: relative(stage, outDir),
+            // The widget packages are provided once, for every widget extension (ours asks for base as a singleton).
+            sharedPackages: {
+              "@jupyter-widgets/base": { bundled: true, singleton: true },
+              "@jupyter-widgets/controls": { bundled: true, singleton: true },
+              "@jupyter-widgets/output": { bundled: true, singleton: true },
+            },
+          },
         },
-      },
-    }, null, 2));
+        null,
+        2,
+      ),
+    );
     const builder = join(here, "..", "node_modules", "@jupyterlab", "builder", "lib", "build-labextension.js");
     const r = spawnSync(process.execPath, [builder, "--core-path", join(here, "lab-core"), stage], { cwd: stage, encoding: "utf8" });
     if (r.status !== 0) {

@@ -20,10 +20,7 @@ export class InputError extends Error {
     /** More about the problem, if anything. */
     readonly detail?: string,
   ) {
-    super(
-      `${parameter} = ${describeValue(value)} is not valid: expected ${expected}` +
-        (detail ? `. ${detail}` : ""),
-    );
+    super(`${parameter} = ${describeValue(value)} is not valid: expected ${expected}` + (detail ? `. ${detail}` : ""));
   }
 }
 

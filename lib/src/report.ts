@@ -34,7 +34,10 @@ export function report(result: DocumentedResult, options: { title?: string } = {
   const out: string[] = [];
   if (title) out.push(`### ${title}`, "");
   out.push(`**Status:** ${result.status}${result.message ? ` — ${result.message}` : ""}`, "");
-  for (const [head, entries] of [["Inputs", result.inputs], ["Results", titled.outputs]] as const) {
+  for (const [head, entries] of [
+    ["Inputs", result.inputs],
+    ["Results", titled.outputs],
+  ] as const) {
     const list = Object.entries(entries ?? {});
     if (list.length === 0) continue;
     out.push(`**${head}:**`, "", "| name | value |", "|---|---|", ...list.map(([k, e]) => `| ${cell(k)} | ${cell(valueText(e))} |`), "");

@@ -47,26 +47,43 @@ export default async () => {
     const n = 200;
     const sc = lib.supercellModel(lib.haldaneSpec({ t2: 0.1, phi: Math.PI / 2, M: 0.1 }), 3, 1);
     const nb = sc.bands;
-    const re = new Float64Array(nb * nb), im = new Float64Array(nb * nb);
+    const re = new Float64Array(nb * nb),
+      im = new Float64Array(nb * nb);
     const H = new Float64Array(2 * n * n * nb * nb);
-    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-      sc.fill(i / n, j / n, re, im);
-      const base = 2 * (j * n + i) * nb * nb;
-      for (let q = 0; q < nb * nb; q++) { H[base + 2 * q] = re[q]; H[base + 2 * q + 1] = im[q]; }
-    }
+    for (let j = 0; j < n; j++)
+      for (let i = 0; i < n; i++) {
+        sc.fill(i / n, j / n, re, im);
+        const base = 2 * (j * n + i) * nb * nb;
+        for (let q = 0; q < nb * nb; q++) {
+          H[base + 2 * q] = re[q];
+          H[base + 2 * q + 1] = im[q];
+        }
+      }
     const path = join(dir, "h.bin");
     writeFileSync(path, new Uint8Array(H.buffer));
     await peer.define(NUMPY_FHS);
     await peer.call("load", path, n, n, nb);
-    const opts = { n1: n, groups: [[0, 1, 2], [3, 4, 5]] };
+    const opts = {
+      n1: n,
+      groups: [
+        [0, 1, 2],
+        [3, 4, 5],
+      ],
+    };
     const r = await interleavedWithPython(peer, () => lib.chernNumbers(sc, opts).chernSum, "chern_fhs", [3], { runs: 9, warmup: 4 });
-    const o = summary(r.ours), p = summary(r.ref);
+    const o = summary(r.ours),
+      p = summary(r.ref);
     const wallRatio = summary(r.oursWall).median / summary(r.refWall).median;
     const same = Math.abs(r.oursValue[0] - r.refValue[0]) < 1e-6 && Math.abs(r.oursValue[1] - r.refValue[1]) < 1e-6;
     rows.push({
-      group: "chern", name: `Haldane 3x1 supercell 6-band, 200 x 200, 1 thread, warm, interleaved (C = ${r.oursValue.map((c) => c.toFixed(6)).join(", ")}; numpy ${r.refValue.map((c) => c.toFixed(6)).join(", ")}; wall-time ratio ${wallRatio.toFixed(2)})`,
-      ours_ms: o.median, ours_spread: o.spread, reference: "numpy eigh (LAPACK, 1 thread) + batched det links, H(k) given",
-      reference_ms: p.median, reference_spread: p.spread, ratio: o.median / p.median,
+      group: "chern",
+      name: `Haldane 3x1 supercell 6-band, 200 x 200, 1 thread, warm, interleaved (C = ${r.oursValue.map((c) => c.toFixed(6)).join(", ")}; numpy ${r.refValue.map((c) => c.toFixed(6)).join(", ")}; wall-time ratio ${wallRatio.toFixed(2)})`,
+      ours_ms: o.median,
+      ours_spread: o.spread,
+      reference: "numpy eigh (LAPACK, 1 thread) + batched det links, H(k) given",
+      reference_ms: p.median,
+      reference_spread: p.spread,
+      ratio: o.median / p.median,
       goal: verdict(o.median <= 200 && same, "<= 200 ms CPU, same Chern numbers"),
     });
   } finally {

@@ -84,7 +84,10 @@ export default async () => {
   const phi0 = lib.wallEquilibriumAngle(m);
   const fields = Array.from({ length: 200 }, (_, i) => (0.3 * i) / 199);
   const input = { Ms: m.Ms, Delta: m.Delta, alpha: m.alpha, gamma: m.gamma, D: m.D, C: m.C, p: m.polarity, phi0, Bz: 0.2 };
-  const ours = [], ref = [], oursP = [], refP = [];
+  const ours = [],
+    ref = [],
+    oursP = [],
+    refP = [];
   let check = 0;
   let checkP = 0;
   for (let round = 0; round < 5; round++) {

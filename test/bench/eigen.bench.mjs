@@ -28,7 +28,8 @@ export default async () => {
   const n = H.dim;
   const solver = new lib.SymmetricEigenSolver(n);
   const input = { n, a: Array.from(H.re) };
-  const o = { full: [], vals: [] }, r = { full: [], vals: [] };
+  const o = { full: [], vals: [] },
+    r = { full: [], vals: [] };
   let w = null;
   for (let k = 0; k < ROUNDS; k++) {
     o.full.push(await medianMs(() => solver.solve(H.re, true), { runs: 41, warmup: 5 }));
@@ -43,12 +44,22 @@ export default async () => {
   let diff = 0;
   for (let k = 0; k < n; k++) diff = Math.max(diff, Math.abs(solver.values[k] - w[k]) / norm);
   const rows = [];
-  for (const [key, name, ref] of [["full", "values + vectors", "numpy.linalg.eigh"], ["vals", "values only", "numpy.linalg.eigvalsh"]]) {
-    const so = summary(o[key]), sr = summary(r[key]);
+  for (const [key, name, ref] of [
+    ["full", "values + vectors", "numpy.linalg.eigh"],
+    ["vals", "values only", "numpy.linalg.eigvalsh"],
+  ]) {
+    const so = summary(o[key]),
+      sr = summary(r[key]);
     const ratio = so.median / sr.median;
     rows.push({
-      group: "single spin S=50", name: `dense 101 x 101, ${name}, warm, interleaved x${ROUNDS} (max |value difference| ${diff.toExponential(1)} of the norm)`,
-      ours_ms: so.median, ours_spread: so.spread, reference: ref, reference_ms: sr.median, reference_spread: sr.spread, ratio,
+      group: "single spin S=50",
+      name: `dense 101 x 101, ${name}, warm, interleaved x${ROUNDS} (max |value difference| ${diff.toExponential(1)} of the norm)`,
+      ours_ms: so.median,
+      ours_spread: so.spread,
+      reference: ref,
+      reference_ms: sr.median,
+      reference_spread: sr.spread,
+      ratio,
       goal: verdict(ratio <= 2, "<= 2x numpy"),
     });
   }
@@ -65,14 +76,21 @@ def med(f, runs=101):
 print(json.dumps({"eigh": med(lambda: np.linalg.eigh(A)), "w": np.linalg.eigvalsh(A).tolist()}))`;
   for (const m of [6, 40]) {
     let s = (11 + m) >>> 0;
-    const rnd = () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32) - 0.5;
-    const re = new Float64Array(m * m), im = new Float64Array(m * m);
-    for (let i = 0; i < m; i++) for (let j = 0; j <= i; j++) {
-      const a = rnd(), b = i === j ? 0 : rnd();
-      re[i * m + j] = a; re[j * m + i] = a; im[i * m + j] = b; im[j * m + i] = -b;
-    }
+    const rnd = () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5;
+    const re = new Float64Array(m * m),
+      im = new Float64Array(m * m);
+    for (let i = 0; i < m; i++)
+      for (let j = 0; j <= i; j++) {
+        const a = rnd(),
+          b = i === j ? 0 : rnd();
+        re[i * m + j] = a;
+        re[j * m + i] = a;
+        im[i * m + j] = b;
+        im[j * m + i] = -b;
+      }
     const hs = new lib.HermitianEigenSolver(m);
-    const oh = [], rh = [];
+    const oh = [],
+      rh = [];
     let wh = null;
     for (let k = 0; k < ROUNDS; k++) {
       oh.push(await medianMs(() => hs.solve(re, im, true), { runs: 101, warmup: 5 }));
@@ -84,10 +102,17 @@ print(json.dumps({"eigh": med(lambda: np.linalg.eigh(A)), "w": np.linalg.eigvals
     const nh = Math.max(...wh.map(Math.abs));
     let dh = 0;
     for (let k = 0; k < m; k++) dh = Math.max(dh, Math.abs(hs.values[k] - wh[k]) / nh);
-    const so = summary(oh), sr = summary(rh);
+    const so = summary(oh),
+      sr = summary(rh);
     rows.push({
-      group: "hermitian eigensolver", name: `${m} x ${m} complex, values + vectors, warm, interleaved x${ROUNDS} (max |value difference| ${dh.toExponential(1)} of the norm)`,
-      ours_ms: so.median, ours_spread: so.spread, reference: "numpy.linalg.eigh (LAPACK zheevd)", reference_ms: sr.median, reference_spread: sr.spread, ratio: so.median / sr.median,
+      group: "hermitian eigensolver",
+      name: `${m} x ${m} complex, values + vectors, warm, interleaved x${ROUNDS} (max |value difference| ${dh.toExponential(1)} of the norm)`,
+      ours_ms: so.median,
+      ours_spread: so.spread,
+      reference: "numpy.linalg.eigh (LAPACK zheevd)",
+      reference_ms: sr.median,
+      reference_spread: sr.spread,
+      ratio: so.median / sr.median,
       goal: verdict(so.median / sr.median <= 2, "<= 2x LAPACK"),
     });
   }

@@ -72,15 +72,20 @@ export default async () => {
   const y = Array.from(clean, (v) => v + 5e-5 * rng.normal());
   let sres;
   const cpu = [];
-  const stray = await medianMs(() => {
-    const c0 = process.cpuUsage();
-    sres = lib.fitProfile({ x, y }, "wall180-bz", {
-      start: { x0: 0, Delta: 25 * nm, neel: 0, h: 50 * nm, Ms: 8e5, offset: 0, t: 1.2 * nm, blur: 25 * nm },
-      ftol: 1e-8, xtol: 1e-8, gtol: 1e-8,
-    });
-    const c = process.cpuUsage(c0);
-    cpu.push((c.user + c.system) / 1000);
-  }, { runs: 15, warmup: 6 });
+  const stray = await medianMs(
+    () => {
+      const c0 = process.cpuUsage();
+      sres = lib.fitProfile({ x, y }, "wall180-bz", {
+        start: { x0: 0, Delta: 25 * nm, neel: 0, h: 50 * nm, Ms: 8e5, offset: 0, t: 1.2 * nm, blur: 25 * nm },
+        ftol: 1e-8,
+        xtol: 1e-8,
+        gtol: 1e-8,
+      });
+      const c = process.cpuUsage(c0);
+      cpu.push((c.user + c.system) / 1000);
+    },
+    { runs: 15, warmup: 6 },
+  );
   // CPU time of this process as well: on a shared machine the wall time includes waiting for a core
   const cpuMs = cpu.slice(6).sort((a, b) => a - b)[Math.floor((cpu.length - 6) / 2)];
   rows.push({
@@ -93,9 +98,12 @@ export default async () => {
     const d = wall360Data(n, n);
     const start = { x0: 0, R: 35 * nm, w: 15 * nm, offset: 0, contrast: 1 };
     let res;
-    const ours = await medianMs(() => {
-      res = lib.fitProfile(d, "wall360-mz", { start, ftol: 1e-8, xtol: 1e-8, gtol: 1e-8 });
-    }, { runs: n > 50000 ? 9 : 21, warmup: n > 50000 ? 4 : 25 });
+    const ours = await medianMs(
+      () => {
+        res = lib.fitProfile(d, "wall360-mz", { start, ftol: 1e-8, xtol: 1e-8, gtol: 1e-8 });
+      },
+      { runs: n > 50000 ? 9 : 21, warmup: n > 50000 ? 4 : 25 },
+    );
     const ref = pythonTiming(scipyScript, { ...d, p0: [0, 35 * nm, 15 * nm, 0, 1], runs: n > 50000 ? 9 : 21 });
     const agree = Math.max(...["x0", "R", "w", "offset", "contrast"].map((k, j) => Math.abs(res.parameters[k].value - ref.x[j]) / Math.max(Math.abs(ref.x[j]), 1e-12)));
     rows.push({

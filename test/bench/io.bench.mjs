@@ -19,7 +19,8 @@ const RUNS = Number(process.env.HELICOID_BENCH_IO_RUNS ?? 3);
 
 /** Write the table once (kept in test-output/, which git ignores). */
 function table(rows) {
-  const nx = Math.round(Math.sqrt(rows)), ny = Math.round(rows / nx);
+  const nx = Math.round(Math.sqrt(rows)),
+    ny = Math.round(rows / nx);
   const dir = join(root, "test-output");
   mkdirSync(dir, { recursive: true });
   const file = join(dir, `bench-field-${nx}x${ny}.csv`);
@@ -30,8 +31,11 @@ function table(rows) {
   for (let j = 0; j < ny; j++) {
     let s = "";
     for (let i = 0; i < nx; i++) {
-      const x = (i % a) - a / 2 + 0.5, y = (j % a) - a / 2 + 0.5, r = Math.hypot(x, y);
-      const th = 2 * Math.atan(Math.exp((12 - r) / 4)), ph = Math.atan2(y, x);
+      const x = (i % a) - a / 2 + 0.5,
+        y = (j % a) - a / 2 + 0.5,
+        r = Math.hypot(x, y);
+      const th = 2 * Math.atan(Math.exp((12 - r) / 4)),
+        ph = Math.atan2(y, x);
       s += `${(i * 0.5).toFixed(1)},${(j * 0.5).toFixed(1)},${(Math.sin(th) * Math.cos(ph)).toFixed(6)},${(Math.sin(th) * Math.sin(ph)).toFixed(6)},${Math.cos(th).toFixed(6)}\n`;
     }
     writeSync(fd, s);
@@ -94,27 +98,54 @@ export default async () => {
   const prev = [];
   const { ours, ref } = interleaved(
     () => timed([process.execPath, heap, "-e", OURS(file)]),
-    (i) => { const r = timed([systemPython, "-c", NUMPY, file]); if (i === 0 && process.env.HELICOID_BENCH_IO_PREVIOUS !== "0") prev.push(timed([process.execPath, heap, "-e", PREVIOUS(file)])); return r; },
+    (i) => {
+      const r = timed([systemPython, "-c", NUMPY, file]);
+      if (i === 0 && process.env.HELICOID_BENCH_IO_PREVIOUS !== "0") prev.push(timed([process.execPath, heap, "-e", PREVIOUS(file)]));
+      return r;
+    },
     RUNS,
   );
-  const o = summary(ours.map((x) => x.ms)), r = summary(ref.map((x) => x.ms)), p = summary(prev.map((x) => x.ms));
-  const om = summary(ours.map((x) => x.rssMB)), rm = summary(ref.map((x) => x.rssMB)), pm = summary(prev.map((x) => x.rssMB));
+  const o = summary(ours.map((x) => x.ms)),
+    r = summary(ref.map((x) => x.ms)),
+    p = summary(prev.map((x) => x.ms));
+  const om = summary(ours.map((x) => x.rssMB)),
+    rm = summary(ref.map((x) => x.rssMB)),
+    pm = summary(prev.map((x) => x.rssMB));
   // Same data: the sums of mz agree (ours are unit vectors, as written to 6 decimals: close, not equal).
   const agree = Math.abs(ours[0].mzSum - ref[0].mzSum) / n;
-  const timeGoal = o.median <= 2 * r.median, memGoal = om.median <= 2 * rm.median;
+  const timeGoal = o.median <= 2 * r.median,
+    memGoal = om.median <= 2 * rm.median;
   rows.push({
-    group: "io", name: `CSV vector field, ${n.toExponential(2)} rows (${mb.toFixed(0)} MB), fresh process, wall time of the read, interleaved x${RUNS} (mean |mz| difference ${agree.toExponential(1)})`,
-    ours_ms: o.median, ours_spread: o.spread, reference: "numpy.loadtxt (array only)", reference_ms: r.median, reference_spread: r.spread, ratio: o.median / r.median,
+    group: "io",
+    name: `CSV vector field, ${n.toExponential(2)} rows (${mb.toFixed(0)} MB), fresh process, wall time of the read, interleaved x${RUNS} (mean |mz| difference ${agree.toExponential(1)})`,
+    ours_ms: o.median,
+    ours_spread: o.spread,
+    reference: "numpy.loadtxt (array only)",
+    reference_ms: r.median,
+    reference_spread: r.spread,
+    ratio: o.median / r.median,
     goal: verdict(timeGoal, "<= 2x numpy.loadtxt in time"),
   });
   rows.push({
-    group: "io", name: `  peak memory (max RSS, MB, not ms) of the same runs`,
-    ours_ms: om.median, ours_spread: om.spread, reference: "numpy.loadtxt", reference_ms: rm.median, reference_spread: rm.spread, ratio: om.median / rm.median,
+    group: "io",
+    name: `  peak memory (max RSS, MB, not ms) of the same runs`,
+    ours_ms: om.median,
+    ours_spread: om.spread,
+    reference: "numpy.loadtxt",
+    reference_ms: rm.median,
+    reference_spread: rm.spread,
+    ratio: om.median / rm.median,
     goal: verdict(memGoal, "<= 2x numpy.loadtxt in memory"),
   });
-  if (prev.length) rows.push({
-    group: "io", name: `  previous reader (text lines), first round: time ${p.median.toFixed(0)} ms [${p.min.toFixed(0)}-${p.max.toFixed(0)}], max RSS ${pm.median.toFixed(0)} MB`,
-    ours_ms: o.median, reference: "previous text-line reader", reference_ms: p.median, ratio: o.median / p.median, goal: "(before/after)",
-  });
+  if (prev.length)
+    rows.push({
+      group: "io",
+      name: `  previous reader (text lines), first round: time ${p.median.toFixed(0)} ms [${p.min.toFixed(0)}-${p.max.toFixed(0)}], max RSS ${pm.median.toFixed(0)} MB`,
+      ours_ms: o.median,
+      reference: "previous text-line reader",
+      reference_ms: p.median,
+      ratio: o.median / p.median,
+      goal: "(before/after)",
+    });
   return rows;
 };

@@ -32,7 +32,10 @@ async function streamMs(k, code) {
   const { reply } = await k.client.execute(code);
   const ms = performance.now() - t0;
   if (reply.content.status !== "ok") throw new Error(`stdout cell failed: ${JSON.stringify(reply.content)}`);
-  const bytes = k.client.iopubMessages.slice(from).filter((m) => m.header.msg_type === "stream" && m.parent_header.msg_id === reply.requestId).reduce((n, m) => n + m.content.text.length, 0);
+  const bytes = k.client.iopubMessages
+    .slice(from)
+    .filter((m) => m.header.msg_type === "stream" && m.parent_header.msg_id === reply.requestId)
+    .reduce((n, m) => n + m.content.text.length, 0);
   if (bytes !== LINES * 1024) throw new Error(`stdout: got ${bytes} characters, expected ${LINES * 1024}`);
   k.client.iopubMessages.length = 0;
   return ms;
@@ -82,7 +85,15 @@ async function throughputRows() {
       o.push(await streamMs(ours, stdoutCode.ours));
       r.push(await streamMs(ref, stdoutCode.ipykernel));
     }
-    rows.push({ group: "kernel", name: `stdout: a cell writing ${LINES} lines of 1 KB, request -> idle, median of 3`, ours_ms: median(o), reference: "ipykernel (Debian), same lines", reference_ms: median(r), ratio: median(o) / median(r), goal: "ratio <= 1.5" });
+    rows.push({
+      group: "kernel",
+      name: `stdout: a cell writing ${LINES} lines of 1 KB, request -> idle, median of 3`,
+      ours_ms: median(o),
+      reference: "ipykernel (Debian), same lines",
+      reference_ms: median(r),
+      ratio: median(o) / median(r),
+      goal: "ratio <= 1.5",
+    });
 
     await ours.client.execute('import { slider } from "@helicoid/kernel"; const bs = slider({ min: 0, max: 1000 }); let bseen = 0; bs.onChange("value", () => { bseen++; });');
     const open = ours.client.iopubMessages.find((m) => m.header.msg_type === "comm_open" && m.content.data.state._model_name === "FloatSliderModel");
@@ -94,7 +105,15 @@ async function throughputRows() {
       uo.push(await updatesMs(ours, open.content.comm_id, "bseen"));
       ur.push(await updatesMs(ref, "bench-slider", "len(bench_seen)"));
     }
-    rows.push({ group: "kernel", name: `${UPDATES} widget updates from the front end (echo, apply, observer), first sent -> idle, median of 3`, ours_ms: median(uo), reference: "ipykernel (Debian), comm target doing an ipywidgets update", reference_ms: median(ur), ratio: median(uo) / median(ur), goal: "ratio <= 1.5" });
+    rows.push({
+      group: "kernel",
+      name: `${UPDATES} widget updates from the front end (echo, apply, observer), first sent -> idle, median of 3`,
+      ours_ms: median(uo),
+      reference: "ipykernel (Debian), comm target doing an ipywidgets update",
+      reference_ms: median(ur),
+      ratio: median(uo) / median(ur),
+      goal: "ratio <= 1.5",
+    });
   } finally {
     await ours.stop();
     await ref.stop();
@@ -135,6 +154,14 @@ export default async function () {
   }
   const o = median(ours);
   const t = median(theirs);
-  rows.push({ group: "kernel", name: "start to first kernel_info_reply, median of 5", ours_ms: o, reference: "tslab 1.0.22 kernel", reference_ms: t, ratio: o / t, goal: "ratio <= 1.5" });
+  rows.push({
+    group: "kernel",
+    name: "start to first kernel_info_reply, median of 5",
+    ours_ms: o,
+    reference: "tslab 1.0.22 kernel",
+    reference_ms: t,
+    ratio: o / t,
+    goal: "ratio <= 1.5",
+  });
   return rows;
 }

@@ -62,14 +62,20 @@ export default async () => {
     await peer.call("load", path);
     rmSync(path);
     const r = await interleavedWithPython(peer, () => lib.skyrmionNumber(field, { boundary: "periodic" }).Q, "q_best", [], { runs: 11, warmup: 2 });
-    const o = summary(r.ours), p = summary(r.ref);
+    const o = summary(r.ours),
+      p = summary(r.ref);
     const ratio = o.median / p.median;
     const wallRatio = summary(r.oursWall).median / summary(r.refWall).median;
     const dq = Math.abs(r.oursValue - r.refValue);
     rows.push({
-      group: "topology", name: `lattice Q ${n}x${n}, 1 thread, warm, interleaved (Q = ${r.oursValue.toFixed(9)}, numpy ${r.refValue.toFixed(9)}, |dQ| = ${dq.toExponential(1)}; ${((o.median * 1e6) / (n * n)).toFixed(1)} ns/cell CPU; wall-time ratio ${wallRatio.toFixed(3)})`,
-      ours_ms: o.median, ours_spread: o.spread, reference: "numpy, row blocks of 8, explicit arithmetic, one arctan2 a plaquette",
-      reference_ms: p.median, reference_spread: p.spread, ratio,
+      group: "topology",
+      name: `lattice Q ${n}x${n}, 1 thread, warm, interleaved (Q = ${r.oursValue.toFixed(9)}, numpy ${r.refValue.toFixed(9)}, |dQ| = ${dq.toExponential(1)}; ${((o.median * 1e6) / (n * n)).toFixed(1)} ns/cell CPU; wall-time ratio ${wallRatio.toFixed(3)})`,
+      ours_ms: o.median,
+      ours_spread: o.spread,
+      reference: "numpy, row blocks of 8, explicit arithmetic, one arctan2 a plaquette",
+      reference_ms: p.median,
+      reference_spread: p.spread,
+      ratio,
       goal: verdict(ratio <= 0.25 && dq < 1e-9, "ratio <= 0.25 at |dQ| < 1e-9"),
     });
   } finally {

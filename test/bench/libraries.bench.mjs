@@ -42,11 +42,19 @@ const cpuMs = () => {
 
 /** A B A B: `runs` batches of each, after `warmup` batches of each. */
 function abab(ours, lib, { runs = 15, warmup = 3 } = {}) {
-  for (let i = 0; i < warmup; i++) { ours(); lib(); }
-  const o = [], l = [];
+  for (let i = 0; i < warmup; i++) {
+    ours();
+    lib();
+  }
+  const o = [],
+    l = [];
   for (let i = 0; i < runs; i++) {
-    let t = cpuMs(); ours(); o.push(cpuMs() - t);
-    t = cpuMs(); lib(); l.push(cpuMs() - t);
+    let t = cpuMs();
+    ours();
+    o.push(cpuMs() - t);
+    t = cpuMs();
+    lib();
+    l.push(cpuMs() - t);
   }
   return { o: summary(o), l: summary(l) };
 }
@@ -92,9 +100,18 @@ function handRadix2(re, im, offset, stride, n, sign) {
   if (!p) {
     const bits = Math.round(Math.log2(n));
     const rev = new Uint32Array(n);
-    for (let i = 0; i < n; i++) { let r = 0; for (let b = 0; b < bits; b++) r |= ((i >> b) & 1) << (bits - 1 - b); rev[i] = r; }
-    const half = n >> 1, cos = new Float64Array(half), sin = new Float64Array(half);
-    for (let i = 0; i < half; i++) { cos[i] = Math.cos((2 * Math.PI * i) / n); sin[i] = Math.sin((2 * Math.PI * i) / n); }
+    for (let i = 0; i < n; i++) {
+      let r = 0;
+      for (let b = 0; b < bits; b++) r |= ((i >> b) & 1) << (bits - 1 - b);
+      rev[i] = r;
+    }
+    const half = n >> 1,
+      cos = new Float64Array(half),
+      sin = new Float64Array(half);
+    for (let i = 0; i < half; i++) {
+      cos[i] = Math.cos((2 * Math.PI * i) / n);
+      sin[i] = Math.sin((2 * Math.PI * i) / n);
+    }
     p = { rev, cos, sin };
     handPlans.set(n, p);
   }
@@ -102,18 +119,31 @@ function handRadix2(re, im, offset, stride, n, sign) {
   for (let i = 0; i < n; i++) {
     const j = rev[i];
     if (j > i) {
-      const a = offset + i * stride, b = offset + j * stride;
-      let t = re[a]; re[a] = re[b]; re[b] = t; t = im[a]; im[a] = im[b]; im[b] = t;
+      const a = offset + i * stride,
+        b = offset + j * stride;
+      let t = re[a];
+      re[a] = re[b];
+      re[b] = t;
+      t = im[a];
+      im[a] = im[b];
+      im[b] = t;
     }
   }
   for (let size = 2; size <= n; size <<= 1) {
-    const halfSize = size >> 1, step = n / size;
+    const halfSize = size >> 1,
+      step = n / size;
     for (let start = 0; start < n; start += size) {
       for (let k = 0; k < halfSize; k++) {
-        const wr = cos[k * step], wi = sign * sin[k * step];
-        const a = offset + (start + k) * stride, b = a + halfSize * stride;
-        const xr = re[b] * wr - im[b] * wi, xi = re[b] * wi + im[b] * wr;
-        re[b] = re[a] - xr; im[b] = im[a] - xi; re[a] = re[a] + xr; im[a] = im[a] + xi;
+        const wr = cos[k * step],
+          wi = sign * sin[k * step];
+        const a = offset + (start + k) * stride,
+          b = a + halfSize * stride;
+        const xr = re[b] * wr - im[b] * wi,
+          xi = re[b] * wi + im[b] * wr;
+        re[b] = re[a] - xr;
+        im[b] = im[a] - xi;
+        re[a] = re[a] + xr;
+        im[a] = im[a] + xi;
       }
     }
   }
@@ -129,8 +159,14 @@ export default async () => {
   const row = (name, r, reference, accOurs, accLib, accKind, decision) => {
     const ratio = r.o.median / r.l.median;
     rows.push({
-      group: "library or hand-written", name: `${name}: ours/library ${ratio.toFixed(2)}, ${accKind} error ours ${accOurs.toExponential(1)}, library ${accLib.toExponential(1)}`,
-      ours_ms: r.o.median, ours_spread: r.o.spread, reference, reference_ms: r.l.median, reference_spread: r.l.spread, ratio,
+      group: "library or hand-written",
+      name: `${name}: ours/library ${ratio.toFixed(2)}, ${accKind} error ours ${accOurs.toExponential(1)}, library ${accLib.toExponential(1)}`,
+      ours_ms: r.o.median,
+      ours_spread: r.o.spread,
+      reference,
+      reference_ms: r.l.median,
+      reference_spread: r.l.spread,
+      ratio,
       goal: `informational: ${decision}`,
     });
   };
@@ -144,8 +180,13 @@ export default async () => {
   const normP = [...pts(200, (u) => 1e-300 ** (1 - u) * 0.5), ...pts(200, (u) => 0.5 + 0.4999999 * u)];
   const tNu = [1, 2.5, 5, 30, 1000];
   const tP = [1e-10, 1e-4, 0.001, 0.025, 0.1, 0.3, 0.5, 0.7, 0.9, 0.975, 0.999, 0.99999];
-  const tx = [], tnu = [];
-  for (const nu of tNu) for (const p of tP) { tx.push(p); tnu.push(nu); }
+  const tx = [],
+    tnu = [];
+  for (const nu of tNu)
+    for (const p of tP) {
+      tx.push(p);
+      tnu.push(nu);
+    }
   const ref = pythonTiming(MP, {
     j0: { expr: "mp.besselj(0, x)", x: besselX },
     j1: { expr: "mp.besselj(1, x)", x: besselX },
@@ -157,7 +198,8 @@ export default async () => {
     // Student t quantile: solve CDF(t) = p with mpmath's regularized incomplete beta
     tq: {
       expr: "(lambda v, t0: mp.findroot(lambda t: (1 - mp.betainc(v/2, mp.mpf(1)/2, 0, v/(v+t*t), regularized=True)/2 if t > 0 else mp.betainc(v/2, mp.mpf(1)/2, 0, v/(v+t*t), regularized=True)/2) - x, t0))(mp.mpf(nu.split()[0]), mp.mpf(nu.split()[1]))",
-      x: tx, nu: tx.map((p, i) => `${tnu[i]} ${sTQ(p, tnu[i])}`),
+      x: tx,
+      nu: tx.map((p, i) => `${tnu[i]} ${sTQ(p, tnu[i])}`),
     },
   });
   const evalAll = (f, xs) => xs.map(f);
@@ -169,34 +211,123 @@ export default async () => {
   const te = Float64Array.from({ length: N }, (_, i) => -5 + (32 * i) / N);
   const tp = Float64Array.from({ length: N }, (_, i) => (i + 0.5) / N);
   let sink = 0;
-  const batch = (f, xs) => () => { let s = 0; for (let i = 0; i < xs.length; i++) s += f(xs[i]); sink += s; };
+  const batch = (f, xs) => () => {
+    let s = 0;
+    for (let i = 0; i < xs.length; i++) s += f(xs[i]);
+    sink += s;
+  };
 
-  row("Bessel J0, 20 000 points on (0, 100]", abab(batch(bessel.besselJ0, tb), batch(sJ0, tb)), "@stdlib/math-base-special-besselj0",
-    maxErr(evalAll(bessel.besselJ0, besselX), ref.j0, false), maxErr(evalAll(sJ0, besselX), ref.j0, false), "absolute",
-    "kept ours (see bessel.ts header)");
-  row("Bessel J1, 20 000 points on (0, 100]", abab(batch(bessel.besselJ1, tb), batch(sJ1, tb)), "@stdlib/math-base-special-besselj1",
-    maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false), maxErr(evalAll(sJ1, besselX), ref.j1, false), "absolute",
-    "kept ours (see bessel.ts header)");
+  row(
+    "Bessel J0, 20 000 points on (0, 100]",
+    abab(batch(bessel.besselJ0, tb), batch(sJ0, tb)),
+    "@stdlib/math-base-special-besselj0",
+    maxErr(evalAll(bessel.besselJ0, besselX), ref.j0, false),
+    maxErr(evalAll(sJ0, besselX), ref.j0, false),
+    "absolute",
+    "kept ours (see bessel.ts header)",
+  );
+  row(
+    "Bessel J1, 20 000 points on (0, 100]",
+    abab(batch(bessel.besselJ1, tb), batch(sJ1, tb)),
+    "@stdlib/math-base-special-besselj1",
+    maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false),
+    maxErr(evalAll(sJ1, besselX), ref.j1, false),
+    "absolute",
+    "kept ours (see bessel.ts header)",
+  );
   const j01 = new Float64Array(2);
-  row("Bessel J0 and J1 together (the Hankel-transform use), 20 000 points", abab(batch((x) => { bessel.besselJ01(x, j01); return j01[0] + j01[1]; }, tb), batch((x) => sJ0(x) + sJ1(x), tb)),
-    "@stdlib besselj0 + besselj1", Math.max(maxErr(evalAll(bessel.besselJ0, besselX), ref.j0, false), maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false)),
-    Math.max(maxErr(evalAll(sJ0, besselX), ref.j0, false), maxErr(evalAll(sJ1, besselX), ref.j1, false)), "absolute", "kept ours (see bessel.ts header)");
-  row("elliptic K(k) and E(k), 20 000 moduli in [0, 1)", abab(batch((k) => { const r = ell.completeEllipticIntegrals(k); return r.K + r.E; }, tk), batch((k) => sEllipK(k * k) + sEllipE(k * k), tk)),
+  row(
+    "Bessel J0 and J1 together (the Hankel-transform use), 20 000 points",
+    abab(
+      batch((x) => {
+        bessel.besselJ01(x, j01);
+        return j01[0] + j01[1];
+      }, tb),
+      batch((x) => sJ0(x) + sJ1(x), tb),
+    ),
+    "@stdlib besselj0 + besselj1",
+    Math.max(maxErr(evalAll(bessel.besselJ0, besselX), ref.j0, false), maxErr(evalAll(bessel.besselJ1, besselX), ref.j1, false)),
+    Math.max(maxErr(evalAll(sJ0, besselX), ref.j0, false), maxErr(evalAll(sJ1, besselX), ref.j1, false)),
+    "absolute",
+    "kept ours (see bessel.ts header)",
+  );
+  row(
+    "elliptic K(k) and E(k), 20 000 moduli in [0, 1)",
+    abab(
+      batch((k) => {
+        const r = ell.completeEllipticIntegrals(k);
+        return r.K + r.E;
+      }, tk),
+      batch((k) => sEllipK(k * k) + sEllipE(k * k), tk),
+    ),
     "@stdlib ellipk + ellipe (parameter m = k^2)",
     Math.max(maxErr(evalAll(ell.ellipticK, ellK), ref.K, true), maxErr(evalAll(ell.ellipticE, ellK), ref.E, true)),
-    Math.max(maxErr(evalAll((k) => sEllipK(k * k), ellK), ref.K, true), maxErr(evalAll((k) => sEllipE(k * k), ellK), ref.E, true)), "relative",
-    "kept ours (see ellipticIntegrals.ts header)");
-  row("erfc, 20 000 points on [-5, 27] (accuracy on [-5, 26.5])", abab(batch(dist.erfc, te), batch(sErfc, te)), "@stdlib/math-base-special-erfc",
-    maxErr(evalAll(dist.erfc, erfcX), ref.erfc, true), maxErr(evalAll(sErfc, erfcX), ref.erfc, true), "relative",
-    "kept ours, rewritten: 3e-16 below x = 6, 1.5e-15 above (distributions.ts header)");
-  row("normal quantile, 20 000 p in (0, 1)", abab(batch(dist.normalQuantile, tp), batch((p) => sNormQ(p, 0, 1), tp)), "@stdlib/stats-base-dists-normal-quantile",
-    maxErr(evalAll(dist.normalQuantile, normP), ref.normq, "mixed"), maxErr(evalAll((p) => sNormQ(p, 0, 1), normP), ref.normq, "mixed"), "relative (to max(|z|, 1))",
-    "kept ours: the library gives -Infinity below p of about 1e-100 (distributions.ts)");
+    Math.max(
+      maxErr(
+        evalAll((k) => sEllipK(k * k), ellK),
+        ref.K,
+        true,
+      ),
+      maxErr(
+        evalAll((k) => sEllipE(k * k), ellK),
+        ref.E,
+        true,
+      ),
+    ),
+    "relative",
+    "kept ours (see ellipticIntegrals.ts header)",
+  );
+  row(
+    "erfc, 20 000 points on [-5, 27] (accuracy on [-5, 26.5])",
+    abab(batch(dist.erfc, te), batch(sErfc, te)),
+    "@stdlib/math-base-special-erfc",
+    maxErr(evalAll(dist.erfc, erfcX), ref.erfc, true),
+    maxErr(evalAll(sErfc, erfcX), ref.erfc, true),
+    "relative",
+    "kept ours, rewritten: 3e-16 below x = 6, 1.5e-15 above (distributions.ts header)",
+  );
+  row(
+    "normal quantile, 20 000 p in (0, 1)",
+    abab(
+      batch(dist.normalQuantile, tp),
+      batch((p) => sNormQ(p, 0, 1), tp),
+    ),
+    "@stdlib/stats-base-dists-normal-quantile",
+    maxErr(evalAll(dist.normalQuantile, normP), ref.normq, "mixed"),
+    maxErr(
+      evalAll((p) => sNormQ(p, 0, 1), normP),
+      ref.normq,
+      "mixed",
+    ),
+    "relative (to max(|z|, 1))",
+    "kept ours: the library gives -Infinity below p of about 1e-100 (distributions.ts)",
+  );
   const tpSmall = tp.filter((_, i) => i % 10 === 0);
-  row("Student t quantile, 2 000 p x nu in {1, 2.5, 5, 30, 1000}", abab(() => { for (const nu of tNu) batch((p) => dist.studentTQuantile(p, nu), tpSmall)(); }, () => { for (const nu of tNu) batch((p) => sTQ(p, nu), tpSmall)(); }, { runs: 9, warmup: 2 }),
+  row(
+    "Student t quantile, 2 000 p x nu in {1, 2.5, 5, 30, 1000}",
+    abab(
+      () => {
+        for (const nu of tNu) batch((p) => dist.studentTQuantile(p, nu), tpSmall)();
+      },
+      () => {
+        for (const nu of tNu) batch((p) => sTQ(p, nu), tpSmall)();
+      },
+      { runs: 9, warmup: 2 },
+    ),
     "@stdlib/stats-base-dists-t-quantile",
-    maxErr(tx.map((p, i) => dist.studentTQuantile(p, tnu[i])), ref.tq, "mixed"), maxErr(tx.map((p, i) => sTQ(p, tnu[i])), ref.tq, "mixed"), "relative (to max(|t|, 1))",
-    "kept ours: the library (faster, more accurate) weighs about 190 kB minified (distributions.ts)");
+    maxErr(
+      tx.map((p, i) => dist.studentTQuantile(p, tnu[i])),
+      ref.tq,
+      "mixed",
+    ),
+    maxErr(
+      tx.map((p, i) => sTQ(p, tnu[i])),
+      ref.tq,
+      "mixed",
+    ),
+    "relative (to max(|t|, 1))",
+    "kept ours: the library (faster, more accurate) weighs about 190 kB minified (distributions.ts)",
+  );
 
   // ---- FFT, powers of two, complex input (numpy.fft as the accuracy reference)
   const fftIn = {};
@@ -208,17 +339,32 @@ export default async () => {
   const npf = pythonTiming(NUMPY_FFT, fftIn);
   for (const n of sizes) {
     const [xr, xi] = fftIn[n];
-    const re = new Float64Array(n), im = new Float64Array(n);
+    const re = new Float64Array(n),
+      im = new Float64Array(n);
     // "ours" is the hand-written radix-2 that fft.ts had; the library side is lib's fft() as it is now
     // (fft.js behind our planar API, copies included) and fft.js alone on its interleaved arrays
-    const hand = () => { re.set(xr); im.set(xi); handRadix2(re, im, 0, 1, n, -1); };
-    const libApi = () => { re.set(xr); im.set(xi); fftMod.fft(re, im); };
+    const hand = () => {
+      re.set(xr);
+      im.set(xi);
+      handRadix2(re, im, 0, 1, n, -1);
+    };
+    const libApi = () => {
+      re.set(xr);
+      im.set(xi);
+      fftMod.fft(re, im);
+    };
     const f = new FFT(n);
-    const inter = f.createComplexArray(), out = f.createComplexArray();
-    for (let k = 0; k < n; k++) { inter[2 * k] = xr[k]; inter[2 * k + 1] = xi[k]; }
+    const inter = f.createComplexArray(),
+      out = f.createComplexArray();
+    for (let k = 0; k < n; k++) {
+      inter[2 * k] = xr[k];
+      inter[2 * k + 1] = xi[k];
+    }
     const libOnly = () => f.transform(out, inter);
     const reps = Math.max(1, Math.round(262144 / n));
-    const rep = (g) => () => { for (let q = 0; q < reps; q++) g(); };
+    const rep = (g) => () => {
+      for (let q = 0; q < reps; q++) g();
+    };
     const [rr, ri] = npf[n];
     const scale = Math.sqrt(n);
     hand();
@@ -226,9 +372,37 @@ export default async () => {
     libApi();
     const el = Math.max(maxErr(re, rr, false), maxErr(im, ri, false)) / scale;
     libOnly();
-    const el2 = Math.max(maxErr(out.filter((_, k) => k % 2 === 0), rr, false), maxErr(out.filter((_, k) => k % 2 === 1), ri, false)) / scale;
-    row(`FFT n = ${n} complex, ${reps} transforms a run, hand-written radix-2 vs lib fft() now (fft.js, planar copies included)`, abab(rep(hand), rep(libApi)), "lib fft() through fft.js 4", eo, el, "max |X - numpy| / sqrt(n)", "switched to fft.js (fft.ts header)");
-    row(`FFT n = ${n} complex, ${reps} transforms a run, hand-written radix-2 vs fft.js alone (interleaved arrays)`, abab(rep(hand), rep(libOnly)), "fft.js 4 transform()", eo, el2, "max |X - numpy| / sqrt(n)", "switched to fft.js (fft.ts header)");
+    const el2 =
+      Math.max(
+        maxErr(
+          out.filter((_, k) => k % 2 === 0),
+          rr,
+          false,
+        ),
+        maxErr(
+          out.filter((_, k) => k % 2 === 1),
+          ri,
+          false,
+        ),
+      ) / scale;
+    row(
+      `FFT n = ${n} complex, ${reps} transforms a run, hand-written radix-2 vs lib fft() now (fft.js, planar copies included)`,
+      abab(rep(hand), rep(libApi)),
+      "lib fft() through fft.js 4",
+      eo,
+      el,
+      "max |X - numpy| / sqrt(n)",
+      "switched to fft.js (fft.ts header)",
+    );
+    row(
+      `FFT n = ${n} complex, ${reps} transforms a run, hand-written radix-2 vs fft.js alone (interleaved arrays)`,
+      abab(rep(hand), rep(libOnly)),
+      "fft.js 4 transform()",
+      eo,
+      el2,
+      "max |X - numpy| / sqrt(n)",
+      "switched to fft.js (fft.ts header)",
+    );
   }
 
   // ---- Cholesky of SPD Gram matrices (the least-squares use: n = 4 ... 60)
@@ -236,37 +410,58 @@ export default async () => {
     const r3 = lcg(n + 7);
     const A = Array.from({ length: 3 * n * n }, () => r3() - 0.5);
     const G = new Float64Array(n * n);
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-      let s = 0;
-      for (let k = 0; k < 3 * n; k++) s += A[k * n + i] * A[k * n + j];
-      G[i + j * n] = s + (i === j ? 1e-3 : 0);
-    }
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j < n; j++) {
+        let s = 0;
+        for (let k = 0; k < 3 * n; k++) s += A[k * n + i] * A[k * n + j];
+        G[i + j * n] = s + (i === j ? 1e-3 : 0);
+      }
     const reps = Math.max(1, Math.round(20000 / (n * n)));
-    const ours = () => { for (let q = 0; q < reps; q++) dense.choleskyLower(G, n, 0); };
+    const ours = () => {
+      for (let q = 0; q < reps; q++) dense.choleskyLower(G, n, 0);
+    };
     const viaLib = () => {
       for (let q = 0; q < reps; q++) {
         const rowsArr = [];
-        for (let i = 0; i < n; i++) { const rw = new Array(n); for (let j = 0; j < n; j++) rw[j] = G[i + j * n]; rowsArr.push(rw); }
+        for (let i = 0; i < n; i++) {
+          const rw = new Array(n);
+          for (let j = 0; j < n; j++) rw[j] = G[i + j * n];
+          rowsArr.push(rw);
+        }
         const L = new CholeskyDecomposition(new Matrix(rowsArr)).lowerTriangularMatrix;
         const out = new Float64Array(n * n);
         for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) out[i + j * n] = L.get(i, j);
       }
     };
     const resid = (L) => {
-      let e = 0, g = 0;
-      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-        let s = 0;
-        for (let k = 0; k < n; k++) s += L(i, k) * L(j, k);
-        e = Math.max(e, Math.abs(s - G[i + j * n])); g = Math.max(g, Math.abs(G[i + j * n]));
-      }
+      let e = 0,
+        g = 0;
+      for (let i = 0; i < n; i++)
+        for (let j = 0; j < n; j++) {
+          let s = 0;
+          for (let k = 0; k < n; k++) s += L(i, k) * L(j, k);
+          e = Math.max(e, Math.abs(s - G[i + j * n]));
+          g = Math.max(g, Math.abs(G[i + j * n]));
+        }
       return e / g;
     };
     const Lo = dense.choleskyLower(G, n, 0);
     const rowsArr = [];
-    for (let i = 0; i < n; i++) { const rw = []; for (let j = 0; j < n; j++) rw.push(G[i + j * n]); rowsArr.push(rw); }
+    for (let i = 0; i < n; i++) {
+      const rw = [];
+      for (let j = 0; j < n; j++) rw.push(G[i + j * n]);
+      rowsArr.push(rw);
+    }
     const Ll = new CholeskyDecomposition(new Matrix(rowsArr)).lowerTriangularMatrix;
-    row(`Cholesky n = ${n}, ${reps} factorizations a run (column-major Float64Array in and out)`, abab(ours, viaLib), "ml-matrix 6 CholeskyDecomposition",
-      resid((i, k) => Lo[i + k * n]), resid((i, k) => Ll.get(i, k)), "max |L L^T - G| / max |G|", "kept ours (denseLinalg.ts choleskyLower)");
+    row(
+      `Cholesky n = ${n}, ${reps} factorizations a run (column-major Float64Array in and out)`,
+      abab(ours, viaLib),
+      "ml-matrix 6 CholeskyDecomposition",
+      resid((i, k) => Lo[i + k * n]),
+      resid((i, k) => Ll.get(i, k)),
+      "max |L L^T - G| / max |G|",
+      "kept ours (denseLinalg.ts choleskyLower)",
+    );
   }
   if (sink === 42) console.log("");
   return rows;

@@ -37,7 +37,10 @@ for line in sys.stdin:
  * fn(*args) and resolves to { ms, value } (ms timed inside Python); `close()` ends it.
  */
 export function pythonPeer() {
-  const child = spawn(systemPython, ["-c", SERVER], { stdio: ["pipe", "pipe", "inherit"], env: { ...process.env, OMP_NUM_THREADS: "1", OPENBLAS_NUM_THREADS: "1", MKL_NUM_THREADS: "1" } });
+  const child = spawn(systemPython, ["-c", SERVER], {
+    stdio: ["pipe", "pipe", "inherit"],
+    env: { ...process.env, OMP_NUM_THREADS: "1", OPENBLAS_NUM_THREADS: "1", MKL_NUM_THREADS: "1" },
+  });
   const lines = createInterface({ input: child.stdout });
   const waiting = [];
   lines.on("line", (l) => {
@@ -71,7 +74,10 @@ export async function interleavedWithPython(peer, ours, fn, args, { runs = 11, w
     oursValue = await ours();
     refValue = (await peer.call(fn, ...args)).value;
   }
-  const o = [], r = [], ow = [], rw = [];
+  const o = [],
+    r = [],
+    ow = [],
+    rw = [];
   for (let i = 0; i < runs; i++) {
     const c0 = process.cpuUsage();
     const t0 = performance.now();

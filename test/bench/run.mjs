@@ -20,7 +20,7 @@ for (const f of files) {
     const mod = await import(pathToFileURL(join(here, f)).href);
     for (const r of await mod.default()) rows.push({ file: f, ...r });
   } catch (err) {
-    rows.push({ file: f, group: f, name: "(failed)", error: String(err && err.stack || err) });
+    rows.push({ file: f, group: f, name: "(failed)", error: String((err && err.stack) || err) });
   }
 }
 const fmt = (v) => (v === undefined ? "" : typeof v === "number" ? (Math.abs(v) >= 100 ? v.toFixed(0) : v.toPrecision(3)) : String(v));
@@ -51,8 +51,15 @@ for (const r of rows) if (!r.error) r.verdict = verdictOf(r);
 const spread = (v) => (Array.isArray(v) ? ` [${fmt(v[0])}-${fmt(v[1])}]` : "");
 console.log(["group", "name", "ours (ms) [min-max]", "reference", "reference (ms) [min-max]", "ratio", "goal", "verdict"].join(" | "));
 for (const r of rows) {
-  if (r.error) { console.log(`${r.group} | FAILED | ${r.error.split("\n")[0]}`); continue; }
-  console.log([r.group, r.name, fmt(r.ours_ms) + spread(r.ours_spread), r.reference ?? "", fmt(r.reference_ms) + spread(r.reference_spread), fmt(r.ratio), r.goal ?? "", r.verdict].join(" | "));
+  if (r.error) {
+    console.log(`${r.group} | FAILED | ${r.error.split("\n")[0]}`);
+    continue;
+  }
+  console.log(
+    [r.group, r.name, fmt(r.ours_ms) + spread(r.ours_spread), r.reference ?? "", fmt(r.reference_ms) + spread(r.reference_spread), fmt(r.ratio), r.goal ?? "", r.verdict].join(
+      " | ",
+    ),
+  );
 }
 const out = join(here, "..", "..", "test-output");
 mkdirSync(out, { recursive: true });

@@ -76,9 +76,11 @@ export default async () => {
     rows.push({
       group: "startup",
       name: `helicoid calc ${id} --demo --json, cold process, CPU user+sys, interleaved x${RUNS} (RSS ${summary(ours.map((x) => x.rssMB)).median.toFixed(0)} MB vs ${summary(ref.map((x) => x.rssMB)).median.toFixed(0)} MB)`,
-      ours_ms: o.median, ours_spread: o.spread,
+      ours_ms: o.median,
+      ours_spread: o.spread,
       reference: `python3 + numpy + scipy script (startup/${id}_ref.py)${id === "skyrmion" ? ": one field, local magnetostatics (less work)" : ""}`,
-      reference_ms: p.median, reference_spread: p.spread,
+      reference_ms: p.median,
+      reference_spread: p.spread,
       ratio: o.median / p.median,
       goal: verdict(o.median <= p.median, "CPU <= the Python script's"),
     });
@@ -86,12 +88,22 @@ export default async () => {
 
   // the floor: an empty Node process and an empty Python process (what no library change can remove)
   {
-    const { ours, ref } = interleaved(() => timedChild([process.execPath, "-e", "0"]), () => timedChild([systemPython, "-c", "pass"]), RUNS);
+    const { ours, ref } = interleaved(
+      () => timedChild([process.execPath, "-e", "0"]),
+      () => timedChild([systemPython, "-c", "pass"]),
+      RUNS,
+    );
     const o = summary(ours.map((x) => x.cpu));
     const p = summary(ref.map((x) => x.cpu));
     rows.push({
-      group: "startup", name: `floor: empty process, CPU user+sys, interleaved x${RUNS}`,
-      ours_ms: o.median, ours_spread: o.spread, reference: "python3 -c pass", reference_ms: p.median, reference_spread: p.spread, ratio: o.median / p.median,
+      group: "startup",
+      name: `floor: empty process, CPU user+sys, interleaved x${RUNS}`,
+      ours_ms: o.median,
+      ours_spread: o.spread,
+      reference: "python3 -c pass",
+      reference_ms: p.median,
+      reference_spread: p.spread,
+      ratio: o.median / p.median,
       goal: "informational (node's own start-up)",
     });
   }
@@ -106,7 +118,8 @@ export default async () => {
   rows.push({
     group: "startup",
     name: `require("@helicoid/lib"), cold, CPU (then calc wall: ${summary(imports.map((x) => x.withWallMs)).median.toFixed(0)} ms; RSS ${summary(imports.map((x) => x.rssMB)).median.toFixed(0)} MB; mathjs loaded: ${imports.some((x) => x.mathjs)})`,
-    ours_ms: imp.median, ours_spread: imp.spread,
+    ours_ms: imp.median,
+    ours_spread: imp.spread,
     goal: verdict(imp.median < 300 && !imports.some((x) => x.mathjs), "< 300 ms, mathjs not loaded for SI numbers"),
   });
 
@@ -120,7 +133,8 @@ export default async () => {
   rows.push({
     group: "startup",
     name: `worker thread start (charge worker, new Worker to online), CPU of the process (wall ${summary(workers.map((x) => x.wallMs)).median.toFixed(0)} ms)`,
-    ours_ms: wk.median, ours_spread: wk.spread,
+    ours_ms: wk.median,
+    ours_spread: wk.spread,
     goal: verdict(wk.median < 200, "< 200 ms"),
   });
 
@@ -139,7 +153,8 @@ export default async () => {
   rows.push({
     group: "startup",
     name: `first notebook cell: import @helicoid/lib + calc wall, CPU of the kernel process over the cell (x${cells.length}, fresh kernel each)`,
-    ours_ms: cell.median, ours_spread: cell.spread,
+    ours_ms: cell.median,
+    ours_spread: cell.spread,
     goal: verdict(cell.median < 300, "< 300 ms"),
   });
   return rows;

@@ -73,15 +73,25 @@ export default async () => {
     const Q = lib.skyrmionNumber(field, { boundary: "periodic" }).Q;
     const np = pythonTiming(NUMPY_Q, { path, runs: 5 });
     rows.push({
-      group: "topology", name: `lattice Q ${n}x${n}, 1 thread (Q = ${Q.toFixed(6)}, numpy ${np.Q.toFixed(6)})`,
-      ours_ms: ours, reference: "numpy vectorized, same formula", reference_ms: np.ms, ratio: ours / np.ms, goal: "ratio <= 0.2",
+      group: "topology",
+      name: `lattice Q ${n}x${n}, 1 thread (Q = ${Q.toFixed(6)}, numpy ${np.Q.toFixed(6)})`,
+      ours_ms: ours,
+      reference: "numpy vectorized, same formula",
+      reference_ms: np.ms,
+      ratio: ours / np.ms,
+      goal: "ratio <= 0.2",
     });
     const shared = par.toSharedField(field);
     await par.parallelSkyrmionNumber(shared, { threads: 2 }); // start the pool
     const ours2 = await medianMs(() => par.parallelSkyrmionNumber(shared, { threads: 2, boundary: "periodic" }), { runs: 11, warmup: 2 });
     rows.push({
-      group: "topology", name: `lattice Q ${n}x${n}, 2 threads (worker_threads, shared memory)`,
-      ours_ms: ours2, reference: "numpy vectorized, same formula", reference_ms: np.ms, ratio: ours2 / np.ms, goal: "ratio <= 0.12",
+      group: "topology",
+      name: `lattice Q ${n}x${n}, 2 threads (worker_threads, shared memory)`,
+      ours_ms: ours2,
+      reference: "numpy vectorized, same formula",
+      reference_ms: np.ms,
+      ratio: ours2 / np.ms,
+      goal: "ratio <= 0.12",
     });
     await par.closeChargeWorkers();
 
@@ -89,8 +99,13 @@ export default async () => {
     // numpy's vectorized formula builds the same per-triangle arrays before summing
     const dens = await medianMs(() => lib.skyrmionNumber(field, { boundary: "periodic", density: true }), { runs: 7, warmup: 2 });
     rows.push({
-      group: "topology", name: `lattice Q with density map ${n}x${n}, 1 thread`,
-      ours_ms: dens, reference: "numpy vectorized, same formula", reference_ms: np.ms, ratio: dens / np.ms, goal: "(information)",
+      group: "topology",
+      name: `lattice Q with density map ${n}x${n}, 1 thread`,
+      ours_ms: dens,
+      reference: "numpy vectorized, same formula",
+      reference_ms: np.ms,
+      ratio: dens / np.ms,
+      goal: "(information)",
     });
 
     // the texture calculator as the explorer runs it (live sliders), and the size of its result
@@ -99,8 +114,10 @@ export default async () => {
       const t = await medianMs(() => lib.runCalculator(spec, { n: side }), { runs: side > 200 ? 5 : 21, warmup: 2 });
       const bytes = JSON.stringify(lib.runCalculator(spec, { n: side })).length;
       rows.push({
-        group: "topology", name: `texture calculator n = ${side}${side === 128 ? " (default)" : ""}: result ${(bytes / 1e3).toFixed(0)} kB as JSON`,
-        ours_ms: t, goal: side === 128 ? "live slider (<= 16 ms)" : "(information)",
+        group: "topology",
+        name: `texture calculator n = ${side}${side === 128 ? " (default)" : ""}: result ${(bytes / 1e3).toFixed(0)} kB as JSON`,
+        ours_ms: t,
+        goal: side === 128 ? "live slider (<= 16 ms)" : "(information)",
       });
     }
 
@@ -110,29 +127,52 @@ export default async () => {
     const mem = JSON.parse(child.stdout);
     const extra = mem.peak - Math.min(mem.base, mem.maxBefore);
     rows.push({
-      group: "topology", name: `peak memory: read .npy + Q, ${n}x${n} (${(extra / 2 ** 20).toFixed(0)} MiB over ${(mem.fieldBytes / 2 ** 20).toFixed(0)} MiB field)`,
-      ours_ms: undefined, reference: "field bytes", ratio: extra / mem.fieldBytes, goal: "ratio <= 2",
-      peak_bytes: extra, field_bytes: mem.fieldBytes,
+      group: "topology",
+      name: `peak memory: read .npy + Q, ${n}x${n} (${(extra / 2 ** 20).toFixed(0)} MiB over ${(mem.fieldBytes / 2 ** 20).toFixed(0)} MiB field)`,
+      ours_ms: undefined,
+      reference: "field bytes",
+      ratio: extra / mem.fieldBytes,
+      goal: "ratio <= 2",
+      peak_bytes: extra,
+      field_bytes: mem.fieldBytes,
     });
 
     // 200 MB .npy read
     rmSync(path);
     const side = 2888; // 2888^2 * 3 * 8 bytes = 200.2 MB
     const big = new Float64Array(3 * side * side);
-    for (let c = 0; c < side * side; c++) { const t = (c % side) * 0.01; big[3 * c] = Math.cos(t); big[3 * c + 1] = Math.sin(t); big[3 * c + 2] = 0.3; }
+    for (let c = 0; c < side * side; c++) {
+      const t = (c % side) * 0.01;
+      big[3 * c] = Math.cos(t);
+      big[3 * c + 1] = Math.sin(t);
+      big[3 * c + 2] = 0.3;
+    }
     const bigPath = join(dir, "field200MB.npy");
     writeFileSync(bigPath, lib.writeNpyVectorField({ nx: side, ny: side, nz: 1, m: big }));
     const bytes = big.byteLength;
     const read = await medianMs(() => rff.readVectorFieldFile(bigPath, { dx: 1e-9 }), { runs: 5, warmup: 1 });
     const npl = pythonTiming(NUMPY_LOAD, { path: bigPath, runs: 5 });
     rows.push({
-      group: "topology", name: `read ${(bytes / 1e6).toFixed(0)} MB .npy (normalize, mask) [goal: <= 1000 ms]`,
-      ours_ms: read, reference: "numpy.load + sum (no normalization)", reference_ms: npl.ms, ratio: read / npl.ms, goal: "ours <= 1000 ms",
+      group: "topology",
+      name: `read ${(bytes / 1e6).toFixed(0)} MB .npy (normalize, mask) [goal: <= 1000 ms]`,
+      ours_ms: read,
+      reference: "numpy.load + sum (no normalization)",
+      reference_ms: npl.ms,
+      ratio: read / npl.ms,
+      goal: "ours <= 1000 ms",
     });
     const { readVectorField } = lib;
     const { readFileSync } = await import("node:fs");
     const generic = await medianMs(() => readVectorField(new Uint8Array(readFileSync(bigPath)), { file: "big.npy", dx: 1e-9 }), { runs: 3, warmup: 1 });
-    rows.push({ group: "topology", name: "read the same file via readFile + lib reader (browser path)", ours_ms: generic, reference: "numpy.load + sum", reference_ms: npl.ms, ratio: generic / npl.ms, goal: "(information)" });
+    rows.push({
+      group: "topology",
+      name: "read the same file via readFile + lib reader (browser path)",
+      ours_ms: generic,
+      reference: "numpy.load + sum",
+      reference_ms: npl.ms,
+      ratio: generic / npl.ms,
+      goal: "(information)",
+    });
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

@@ -18,39 +18,88 @@ const root = join(here, "..", "..");
 const { exportNotebook } = require(join(root, "kernel-ext", "dist", "notebook", "export.js"));
 const { chromium } = require("playwright-core");
 
-const M = "@helicoid/widgets", V = "^0.1.0";
+const M = "@helicoid/widgets",
+  V = "^0.1.0";
 function notebook(widgets) {
   const state = {};
   const cells = [];
   widgets.forEach((w, k) => {
     const id = `b${k}`.padEnd(32, "0");
-    const entry = { model_name: w.model, model_module: M, model_module_version: V, state: { _model_name: w.model, _model_module: M, _model_module_version: V, _view_name: w.model.replace(/Model$/, "View"), _view_module: M, _view_module_version: V, ...w.state } };
-    if (w.buffers) entry.buffers = Object.entries(w.buffers).map(([k2, v]) => ({ path: [k2], encoding: "base64", data: Buffer.from(v.buffer, v.byteOffset, v.byteLength).toString("base64") }));
+    const entry = {
+      model_name: w.model,
+      model_module: M,
+      model_module_version: V,
+      state: {
+        _model_name: w.model,
+        _model_module: M,
+        _model_module_version: V,
+        _view_name: w.model.replace(/Model$/, "View"),
+        _view_module: M,
+        _view_module_version: V,
+        ...w.state,
+      },
+    };
+    if (w.buffers)
+      entry.buffers = Object.entries(w.buffers).map(([k2, v]) => ({ path: [k2], encoding: "base64", data: Buffer.from(v.buffer, v.byteOffset, v.byteLength).toString("base64") }));
     state[id] = entry;
-    cells.push({ cell_type: "code", metadata: {}, execution_count: k + 1, source: "// widget", outputs: [{ output_type: "display_data", metadata: {}, data: { "text/plain": w.model, "application/vnd.jupyter.widget-view+json": { version_major: 2, version_minor: 0, model_id: id } } }] });
+    cells.push({
+      cell_type: "code",
+      metadata: {},
+      execution_count: k + 1,
+      source: "// widget",
+      outputs: [
+        {
+          output_type: "display_data",
+          metadata: {},
+          data: { "text/plain": w.model, "application/vnd.jupyter.widget-view+json": { version_major: 2, version_minor: 0, model_id: id } },
+        },
+      ],
+    });
   });
   return { nbformat: 4, nbformat_minor: 5, metadata: { widgets: { "application/vnd.jupyter.widget-state+json": { version_major: 2, version_minor: 0, state } } }, cells };
 }
 
 function skyrmionField(n) {
-  const f = new Float32Array(3 * n * n), c = (n - 1) / 2, R = n / 6, w = n / 20;
-  for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-    const x = i - c, y = j - c, r = Math.hypot(x, y), th = 2 * Math.atan(Math.exp((R - r) / w)), p = Math.atan2(y, x), k = 3 * (j * n + i);
-    f[k] = Math.sin(th) * Math.cos(p); f[k + 1] = Math.sin(th) * Math.sin(p); f[k + 2] = Math.cos(th);
-  }
+  const f = new Float32Array(3 * n * n),
+    c = (n - 1) / 2,
+    R = n / 6,
+    w = n / 20;
+  for (let j = 0; j < n; j++)
+    for (let i = 0; i < n; i++) {
+      const x = i - c,
+        y = j - c,
+        r = Math.hypot(x, y),
+        th = 2 * Math.atan(Math.exp((R - r) / w)),
+        p = Math.atan2(y, x),
+        k = 3 * (j * n + i);
+      f[k] = Math.sin(th) * Math.cos(p);
+      f[k + 1] = Math.sin(th) * Math.sin(p);
+      f[k + 2] = Math.cos(th);
+    }
   return f;
 }
 
-const explorer = (id) => ({ model: "ExplorerModel", state: { calculator: id, spec: null, inputs: {}, sweep: lib.defaultSweep(lib.getCalculator(id), {}), result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" } });
-const texture = (n) => ({ model: "TextureModel", state: { nx: n, ny: n, dx: 1e-9, dy: 1e-9, title: `${n} x ${n}`, arrows: true, overlay: "none" }, buffers: { field: skyrmionField(n) } });
-const median = (a) => { const s = [...a].sort((x, y) => x - y); return s[Math.floor(s.length / 2)]; };
+const explorer = (id) => ({
+  model: "ExplorerModel",
+  state: { calculator: id, spec: null, inputs: {}, sweep: lib.defaultSweep(lib.getCalculator(id), {}), result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+});
+const texture = (n) => ({
+  model: "TextureModel",
+  state: { nx: n, ny: n, dx: 1e-9, dy: 1e-9, title: `${n} x ${n}`, arrows: true, overlay: "none" },
+  buffers: { field: skyrmionField(n) },
+});
+const median = (a) => {
+  const s = [...a].sort((x, y) => x - y);
+  return s[Math.floor(s.length / 2)];
+};
 
 export default async () => {
   const rows = [];
   const dir = mkdtempSync(join(tmpdir(), "helicoid-bench-"));
   const profile = mkdtempSync(join(tmpdir(), "helicoid-bench-chromium-"));
   const context = await chromium.launchPersistentContext(profile, {
-    executablePath: process.env.HELICOID_CHROMIUM ?? "/usr/bin/chromium", headless: true,
+    executablePath: process.env.HELICOID_CHROMIUM ?? "/usr/bin/chromium",
+    headless: true,
     args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
     viewport: { width: 1200, height: 900 },
   });
@@ -111,11 +160,38 @@ export default async () => {
     });
     const node = await medianMs(() => lib.runCalculator(spec, { D: samples[0].D }, { sweep }), { runs: 11, warmup: 2 });
     const total = median(samples.map((s) => s.total));
-    rows.push({ group: "widgets: explorer", name: "skyrmion slider input -> updated R(B) plot (200-point sweep), median", ours_ms: total, reference: "runCalculator in Node (same inputs)", reference_ms: node, ratio: total / node, goal: "<= 16 ms" });
+    rows.push({
+      group: "widgets: explorer",
+      name: "skyrmion slider input -> updated R(B) plot (200-point sweep), median",
+      ours_ms: total,
+      reference: "runCalculator in Node (same inputs)",
+      reference_ms: node,
+      ratio: total / node,
+      goal: "<= 16 ms",
+    });
     rows.push({ group: "widgets: explorer", name: "skyrmion slider input -> both plots and the table updated, median", ours_ms: median(samples.map((s) => s.all)) });
-    rows.push({ group: "widgets: explorer", name: "  of which: compute in the Web Worker, median", ours_ms: median(samples.map((s) => s.compute)), reference: "runCalculator in Node", reference_ms: node, ratio: median(samples.map((s) => s.compute)) / node });
-    rows.push({ group: "widgets: explorer", name: "  of which: result -> first plot drawn (table + in-place curve swap, or Plotly.react when the axes refit), median", ours_ms: median(samples.map((s) => s.plot)), reference: "Plotly.react alone, same plot", reference_ms: plotlyOnly, ratio: median(samples.map((s) => s.plot)) / plotlyOnly });
-    rows.push({ group: "widgets: explorer", name: "  front-end overhead (total - worker compute), median", ours_ms: median(samples.map((s) => s.total - s.compute)), goal: "<= 16 ms" });
+    rows.push({
+      group: "widgets: explorer",
+      name: "  of which: compute in the Web Worker, median",
+      ours_ms: median(samples.map((s) => s.compute)),
+      reference: "runCalculator in Node",
+      reference_ms: node,
+      ratio: median(samples.map((s) => s.compute)) / node,
+    });
+    rows.push({
+      group: "widgets: explorer",
+      name: "  of which: result -> first plot drawn (table + in-place curve swap, or Plotly.react when the axes refit), median",
+      ours_ms: median(samples.map((s) => s.plot)),
+      reference: "Plotly.react alone, same plot",
+      reference_ms: plotlyOnly,
+      ratio: median(samples.map((s) => s.plot)) / plotlyOnly,
+    });
+    rows.push({
+      group: "widgets: explorer",
+      name: "  front-end overhead (total - worker compute), median",
+      ours_ms: median(samples.map((s) => s.total - s.compute)),
+      goal: "<= 16 ms",
+    });
     await page.close();
 
     // --- texture view 1024 x 1024: first render and hover readout
@@ -129,8 +205,14 @@ export default async () => {
     rows.push({ group: "widgets: texture", name: "topological charge density and Q of 1024 x 1024 (after the first picture)", ours_ms: charge });
     const redraws = await tp.evaluate(async () => {
       const box = document.querySelector(".hx-charge-toggle");
-      for (let k = 0; k < 6; k++) { box.click(); await new Promise((r) => setTimeout(r, 20)); }
-      return performance.getEntriesByName("hx-texture-render").slice(1).map((e) => e.duration);
+      for (let k = 0; k < 6; k++) {
+        box.click();
+        await new Promise((r) => setTimeout(r, 20));
+      }
+      return performance
+        .getEntriesByName("hx-texture-render")
+        .slice(1)
+        .map((e) => e.duration);
     });
     rows.push({ group: "widgets: texture", name: "redraw 1024 x 1024 toggling the charge overlay, median", ours_ms: median(redraws) });
     const box = await tp.locator(".hx-texture-arrows").boundingBox();

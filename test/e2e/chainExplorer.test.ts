@@ -25,7 +25,12 @@ beforeAll(async () => {
   const nb = new NotebookBuilder();
   nb.markdown("# An Ising-like ring\n\nInvented exchange values; results are estimates.");
   for (const inputs of [small, large]) {
-    nb.widget("ExplorerModel", { calculator: "chain-dynamics", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("chain-dynamics")');
+    nb.widget(
+      "ExplorerModel",
+      { calculator: "chain-dynamics", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+      {},
+      'explore("chain-dynamics")',
+    );
   }
   const html = exportNotebook(nb.build(), { bundle, sourceName: "chain-explorer-test.ipynb" });
   mkdirSync(join(outputDir, "export"), { recursive: true });

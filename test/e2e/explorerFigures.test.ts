@@ -21,32 +21,48 @@ let page: Page;
 const sel = (id: string) => `.hx-explorer[data-calculator="${id}"][data-mode="browser"]`;
 
 async function settled(page: Page, explorer: string): Promise<void> {
-  await page.waitForFunction((s) => {
-    const root = document.querySelector(s) as HTMLElement | null;
-    return !!root && root.dataset.busy === "" && root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]");
-  }, explorer, { timeout: 60_000 });
+  await page.waitForFunction(
+    (s) => {
+      const root = document.querySelector(s) as HTMLElement | null;
+      return !!root && root.dataset.busy === "" && root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]");
+    },
+    explorer,
+    { timeout: 60_000 },
+  );
   await page.waitForTimeout(50);
 }
 
 interface PlotInfo {
   id: string;
-  xTitle: string; yTitle: string; xTitleShown: string; yTitleShown: string; legend: string[];
+  xTitle: string;
+  yTitle: string;
+  xTitleShown: string;
+  yTitleShown: string;
+  legend: string[];
   traces: Array<{ output: string; xOutput: string; xUnit: string; yUnit: string; xFactor: number }>;
-  xRange: [number, number]; shapes: Array<{ x0: number }>;
+  xRange: [number, number];
+  shapes: Array<{ x0: number }>;
 }
 
 async function plotsOf(page: Page, explorer: string): Promise<PlotInfo[]> {
   return page.evaluate((s) => {
     const out: PlotInfo[] = [];
     document.querySelectorAll(`${s} .hx-plot[data-drawn]`).forEach((gd) => {
-      const g = gd as unknown as { data: Array<{ name: string; meta: { output: string; xOutput: string; xUnit: string; yUnit: string; xFactor: number } }>; layout: { xaxis: { title: { text: string }; range: [number, number] }; yaxis: { title: { text: string } }; shapes?: Array<{ x0: number }> } };
+      const g = gd as unknown as {
+        data: Array<{ name: string; meta: { output: string; xOutput: string; xUnit: string; yUnit: string; xFactor: number } }>;
+        layout: { xaxis: { title: { text: string }; range: [number, number] }; yaxis: { title: { text: string } }; shapes?: Array<{ x0: number }> };
+      };
       out.push({
         id: (gd as HTMLElement).dataset.plot!,
-        xTitle: g.layout.xaxis.title.text, yTitle: g.layout.yaxis.title.text,
+        xTitle: g.layout.xaxis.title.text,
+        yTitle: g.layout.yaxis.title.text,
         // what the page shows (plotly's rendered SVG text)
-        xTitleShown: gd.querySelector(".g-xtitle")?.textContent ?? "", yTitleShown: gd.querySelector(".g-ytitle")?.textContent ?? "",
+        xTitleShown: gd.querySelector(".g-xtitle")?.textContent ?? "",
+        yTitleShown: gd.querySelector(".g-ytitle")?.textContent ?? "",
         legend: [...gd.querySelectorAll(".legendtext")].map((t) => t.textContent ?? ""),
-        traces: g.data.map((t) => ({ ...t.meta })), xRange: [...g.layout.xaxis.range] as [number, number], shapes: (g.layout.shapes ?? []).map((x) => ({ x0: x.x0 })),
+        traces: g.data.map((t) => ({ ...t.meta })),
+        xRange: [...g.layout.xaxis.range] as [number, number],
+        shapes: (g.layout.shapes ?? []).map((x) => ({ x0: x.x0 })),
       });
     });
     return out as never;
@@ -61,7 +77,7 @@ beforeAll(async () => {
     const spec = getCalculator(id);
     const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
     // skyrmion: a sweep that ends at 300 mT (the x axis must end there too)
-    const sweep = id === "skyrmion" ? { over: "B", from: 0.01, to: 0.3, points: 40 } : defaultSweep(spec, inputs) ?? null;
+    const sweep = id === "skyrmion" ? { over: "B", from: 0.01, to: 0.3, points: 40 } : (defaultSweep(spec, inputs) ?? null);
     nb.widget("ExplorerModel", { calculator: id, spec: null, inputs, sweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, `explore("${id}")`);
   }
   const html = exportNotebook(nb.build(), { bundle, sourceName: "figures-test.ipynb" });
@@ -108,12 +124,18 @@ describe("explorer figures", () => {
         if (xu && xu !== "1") expect(p.xTitleShown, where).toMatch(/\)$/);
       }
       // the swept input's mark: a line at its value, labelled right beside it (log axes too)
-      const marks = await page.evaluate((s) => [...document.querySelectorAll(`${s} .hx-plot[data-drawn]`)].flatMap((gd) => {
-        const line = gd.querySelector(".shapelayer path"), label = gd.querySelector(".annotation");
-        if (!line) return [];
-        const a = line.getBoundingClientRect(), b = label?.getBoundingClientRect();
-        return [{ line: a.left + a.width / 2, label: b ? b.left : null, text: label?.textContent ?? "" }];
-      }), sel(id));
+      const marks = await page.evaluate(
+        (s) =>
+          [...document.querySelectorAll(`${s} .hx-plot[data-drawn]`)].flatMap((gd) => {
+            const line = gd.querySelector(".shapelayer path"),
+              label = gd.querySelector(".annotation");
+            if (!line) return [];
+            const a = line.getBoundingClientRect(),
+              b = label?.getBoundingClientRect();
+            return [{ line: a.left + a.width / 2, label: b ? b.left : null, text: label?.textContent ?? "" }];
+          }),
+        sel(id),
+      );
       const sweptInput = getCalculator(id).sweep?.over[0];
       if (sweptInput) expect(marks.length, `${id}: no mark of ${sweptInput}`).toBeGreaterThan(0);
       for (const m of marks) {
@@ -171,10 +193,15 @@ describe("explorer figures", () => {
 describe("Reset", () => {
   it("restores the inputs and refits every plot's ranges", async () => {
     const s = sel("wall360");
-    const ranges = () => page.evaluate((q) => [...document.querySelectorAll(`${q} .hx-plot[data-drawn]`)].map((gd) => {
-      const l = (gd as unknown as { layout: { xaxis: { range: number[] }; yaxis: { range: number[] } } }).layout;
-      return [...l.xaxis.range, ...l.yaxis.range];
-    }), s);
+    const ranges = () =>
+      page.evaluate(
+        (q) =>
+          [...document.querySelectorAll(`${q} .hx-plot[data-drawn]`)].map((gd) => {
+            const l = (gd as unknown as { layout: { xaxis: { range: number[] }; yaxis: { range: number[] } } }).layout;
+            return [...l.xaxis.range, ...l.yaxis.range];
+          }),
+        s,
+      );
     await settled(page, s);
     await page.locator(`${s} .hx-reset`).click();
     await settled(page, s);
@@ -206,7 +233,7 @@ describe("figure export from the page", () => {
     await svgDownload.saveAs(svgPath);
     const svg = readFileSync(svgPath, "utf8");
     expect(svg).toMatch(/^<svg[^>]*width="321"[^>]*height="227"/);
-    expect(svg).toContain("class=\"scatterlayer");
+    expect(svg).toContain('class="scatterlayer');
     expect(svg).not.toMatch(/\\[a-z]/);
     await bar.locator(".hx-export-dpi").fill("300");
     const [pngDownload] = await Promise.all([page.waitForEvent("download"), bar.locator(".hx-export-png").click()]);
@@ -215,6 +242,6 @@ describe("figure export from the page", () => {
     const png = readFileSync(pngPath);
     // PNG header: width and height (big-endian) at bytes 16 and 20; 321 px x 300/96 = 1003 px.
     expect(png.subarray(1, 4).toString()).toBe("PNG");
-    expect(png.readUInt32BE(16)).toBe(Math.round(321 * 300 / 96));
+    expect(png.readUInt32BE(16)).toBe(Math.round((321 * 300) / 96));
   }, 60_000);
 });

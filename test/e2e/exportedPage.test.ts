@@ -26,7 +26,8 @@ async function tracesOf(page: Page, explorer: string): Promise<Array<{ output: s
     const root = document.querySelector(sel)!;
     const out: Array<{ output: string; xOutput: string; x: number[]; y: Array<number | null> }> = [];
     root.querySelectorAll(".hx-plot").forEach((gd) => {
-      for (const t of ((gd as unknown as { data?: Array<{ x: number[]; y: Array<number | null>; meta: { output: string; xOutput: string; xFactor: number; yFactor: number } }> }).data ?? [])) {
+      for (const t of (gd as unknown as { data?: Array<{ x: number[]; y: Array<number | null>; meta: { output: string; xOutput: string; xFactor: number; yFactor: number } }> })
+        .data ?? []) {
         out.push({ output: t.meta.output, xOutput: t.meta.xOutput, x: t.x.map((v) => v * t.meta.xFactor), y: t.y.map((v) => (v === null ? null : v * t.meta.yFactor)) });
       }
     });
@@ -36,22 +37,29 @@ async function tracesOf(page: Page, explorer: string): Promise<Array<{ output: s
 
 /** Move a range slider of an explorer to `position` (0..1000) as a person dragging it would. */
 async function moveSlider(page: Page, explorer: string, input: string, position: number): Promise<void> {
-  await page.evaluate(([sel, name, pos]) => {
-    const s = document.querySelector(`${sel} .hx-control[data-input="${name}"] input.hx-slider`) as HTMLInputElement;
-    s.value = String(pos);
-    s.dispatchEvent(new Event("input", { bubbles: true }));
-  }, [explorer, input, position] as const);
+  await page.evaluate(
+    ([sel, name, pos]) => {
+      const s = document.querySelector(`${sel} .hx-control[data-input="${name}"] input.hx-slider`) as HTMLInputElement;
+      s.value = String(pos);
+      s.dispatchEvent(new Event("input", { bubbles: true }));
+    },
+    [explorer, input, position] as const,
+  );
 }
 
 /** Wait until an explorer's plot reflects its current inputs (the worker answered and plotly drew). */
 async function settled(page: Page, explorer: string): Promise<void> {
-  const state = await page.waitForFunction((sel) => {
-    const root = document.querySelector(sel) as HTMLElement | null;
-    if (!root || root.dataset.busy !== "") return false;
-    const err = root.querySelector(".hx-results > .hx-error") as HTMLElement | null;
-    if (err && !err.hidden) return `error: ${err.textContent}`;
-    return root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]") ? "ok" : false;
-  }, explorer, { timeout: 30_000 });
+  const state = await page.waitForFunction(
+    (sel) => {
+      const root = document.querySelector(sel) as HTMLElement | null;
+      if (!root || root.dataset.busy !== "") return false;
+      const err = root.querySelector(".hx-results > .hx-error") as HTMLElement | null;
+      if (err && !err.hidden) return `error: ${err.textContent}`;
+      return root.dataset.drawing === "" && !!root.querySelector(".hx-plot[data-drawn]") ? "ok" : false;
+    },
+    explorer,
+    { timeout: 30_000 },
+  );
   const outcome = await state.jsonValue();
   if (outcome !== "ok") throw new Error(`explorer ${explorer} shows a calculator ${outcome}`);
   await page.waitForTimeout(50);
@@ -60,7 +68,9 @@ async function settled(page: Page, explorer: string): Promise<void> {
 async function inputsOf(page: Page, explorer: string): Promise<Record<string, number>> {
   return page.evaluate((sel) => {
     const o: Record<string, number> = {};
-    document.querySelectorAll(`${sel} .hx-control`).forEach((r) => { o[(r as HTMLElement).dataset.input!] = Number((r as HTMLElement).dataset.value); });
+    document.querySelectorAll(`${sel} .hx-control`).forEach((r) => {
+      o[(r as HTMLElement).dataset.input!] = Number((r as HTMLElement).dataset.value);
+    });
     return o;
   }, explorer);
 }
@@ -70,7 +80,10 @@ function maxRelativeDifference(plotted: Array<number | null>, node: number[]): n
   let worst = 0;
   plotted.forEach((v, i) => {
     const e = node[i]!;
-    if (v === null) { if (Number.isFinite(e)) worst = Infinity; return; }
+    if (v === null) {
+      if (Number.isFinite(e)) worst = Infinity;
+      return;
+    }
     worst = Math.max(worst, Math.abs(v - e) / Math.max(Math.abs(v), Math.abs(e)));
   });
   return worst;
@@ -85,39 +98,95 @@ beforeAll(async () => {
   const nb = new NotebookBuilder();
   nb.markdown("# Exported explorers\n\nAn **invented** film; values are estimates.\n\n| a | b |\n|---|---|\n| 1 | 2 |");
   const wallSweep = defaultSweep(testWallSpec, {})!;
-  nb.widget("ExplorerModel", { calculator: "test-wall-width", spec: null, inputs: {}, sweep: wallSweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("test-wall-width")');
+  nb.widget(
+    "ExplorerModel",
+    { calculator: "test-wall-width", spec: null, inputs: {}, sweep: wallSweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+    {},
+    'explore("test-wall-width")',
+  );
   {
     const spec = getCalculator("skyrmion");
     const sweep = defaultSweep(spec, {})!;
     const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
     // No saved result: the page computes the first one itself.
-    nb.widget("ExplorerModel", { calculator: "skyrmion", spec: null, inputs, sweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("skyrmion")');
+    nb.widget(
+      "ExplorerModel",
+      { calculator: "skyrmion", spec: null, inputs, sweep, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+      {},
+      'explore("skyrmion")',
+    );
   }
   const { compute: _c, ...specData } = testWallSpec;
-  nb.widget("ExplorerModel", {
-    calculator: "", spec: specData, function_name: "myWidth", inputs: { Ms: 1e6, A: 1e-11, Ku: 1e6 }, sweep: null,
-    result: runCalculator(testWallSpec, { Ms: 1e6, A: 1e-11, Ku: 1e6 }), error: "", compute_in: "kernel", kernel_version: "0.1.0",
-  }, {}, "explore(myWidth)");
+  nb.widget(
+    "ExplorerModel",
+    {
+      calculator: "",
+      spec: specData,
+      function_name: "myWidth",
+      inputs: { Ms: 1e6, A: 1e-11, Ku: 1e6 },
+      sweep: null,
+      result: runCalculator(testWallSpec, { Ms: 1e6, A: 1e-11, Ku: 1e6 }),
+      error: "",
+      compute_in: "kernel",
+      kernel_version: "0.1.0",
+    },
+    {},
+    "explore(myWidth)",
+  );
   nb.widget("FigureModel", { figure: { data: [{ type: "scatter", x: [0, 1, 2, 3], y: [0, 1, 4, 9], name: "invented" }], layout: { title: { text: "Figure widget" } } } });
   const n = 64;
   nb.widget("TextureModel", { nx: n, ny: n, dx: 1e-9, dy: 1e-9, title: "Invented skyrmion (64 x 64)", arrows: true, overlay: "charge", field: null }, { field: skyrmionField(n) });
   nb.widget("FitPanelModel", {
-    title: "Invented wall profile fit", x: [0, 1, 2, 3, 4], y: [0.1, 0.9, 2.1, 2.9, 4.2], model_y: [0, 1, 2, 3, 4], residuals: [0.1, -0.1, 0.1, -0.1, 0.2],
-    parameters: [{ name: "slope", unit: "", value: 1.02, uncertainty: 0.03 }], status: "done", progress: 1, iterations: 7, reduced_chi2: 1.1, message: "converged",
+    title: "Invented wall profile fit",
+    x: [0, 1, 2, 3, 4],
+    y: [0.1, 0.9, 2.1, 2.9, 4.2],
+    model_y: [0, 1, 2, 3, 4],
+    residuals: [0.1, -0.1, 0.1, -0.1, 0.2],
+    parameters: [{ name: "slope", unit: "", value: 1.02, uncertainty: 0.03 }],
+    status: "done",
+    progress: 1,
+    iterations: 7,
+    reduced_chi2: 1.1,
+    message: "converged",
   });
-  nb.code("figure({...})", [{ output_type: "display_data", metadata: {}, data: { "application/vnd.plotly.v1+json": { data: [{ type: "bar", x: ["a", "b"], y: [2, 3] }], layout: { title: { text: "plotly output" } } }, "text/plain": "Figure(1 trace)" } }]);
+  nb.code("figure({...})", [
+    {
+      output_type: "display_data",
+      metadata: {},
+      data: {
+        "application/vnd.plotly.v1+json": { data: [{ type: "bar", x: ["a", "b"], y: [2, 3] }], layout: { title: { text: "plotly output" } } },
+        "text/plain": "Figure(1 trace)",
+      },
+    },
+  ]);
   const sliderId = nb.model("FloatSliderModel", "@jupyter-widgets/controls", "2.0.0", {
-    _model_name: "FloatSliderModel", _model_module: "@jupyter-widgets/controls", _model_module_version: "2.0.0",
-    _view_name: "FloatSliderView", _view_module: "@jupyter-widgets/controls", _view_module_version: "2.0.0",
-    value: 3, min: 0, max: 10, step: 0.5, description: "x",
+    _model_name: "FloatSliderModel",
+    _model_module: "@jupyter-widgets/controls",
+    _model_module_version: "2.0.0",
+    _view_name: "FloatSliderView",
+    _view_module: "@jupyter-widgets/controls",
+    _view_module_version: "2.0.0",
+    value: 3,
+    min: 0,
+    max: 10,
+    step: 0.5,
+    description: "x",
   });
   nb.code("slider({ value: 3 })", [nb.viewOutput(sliderId, "FloatSlider(value=3)")]);
   const outputId = nb.model("OutputModel", "@jupyter-widgets/output", "1.0.0", {
-    _model_name: "OutputModel", _model_module: "@jupyter-widgets/output", _model_module_version: "1.0.0",
-    _view_name: "OutputView", _view_module: "@jupyter-widgets/output", _view_module_version: "1.0.0",
+    _model_name: "OutputModel",
+    _model_module: "@jupyter-widgets/output",
+    _model_module_version: "1.0.0",
+    _view_name: "OutputView",
+    _view_module: "@jupyter-widgets/output",
+    _view_module_version: "1.0.0",
     outputs: [
       { output_type: "display_data", metadata: {}, data: { "text/markdown": "width **5.5 nm** (invented)", "text/plain": "width 5.5 nm" } },
-      { output_type: "display_data", metadata: {}, data: { "application/vnd.plotly.v1+json": { data: [{ type: "scatter", y: [3, 1, 2] }], layout: { height: 250 } }, "text/plain": "Figure(1 trace)" } },
+      {
+        output_type: "display_data",
+        metadata: {},
+        data: { "application/vnd.plotly.v1+json": { data: [{ type: "scatter", y: [3, 1, 2] }], layout: { height: 250 } }, "text/plain": "Figure(1 trace)" },
+      },
     ],
   });
   nb.code("controlPanel(...)", [nb.viewOutput(outputId, "Output()")]);
@@ -189,7 +258,7 @@ describe("exported page", () => {
     const msg = page.locator(`${wall} .hx-control[data-input="A"] .hx-entry-error`);
     await expect.poll(() => msg.isVisible()).toBe(true);
     const text = (await msg.textContent())!;
-    expect(text).toContain("A = \"12 mT\"");
+    expect(text).toContain('A = "12 mT"');
     expect(text).toContain("J/m");
     expect((await inputsOf(page, wall)).A).toBe(before.A);
     await screenshot(page, "explorer-bad-entry", wall);
@@ -220,7 +289,12 @@ describe("exported page", () => {
     const snippet = (await page.locator(`${wall} .hx-snippet`).textContent())!;
     expect(snippet).toContain('getCalculator("test-wall-width")');
     const body = /\{\n([\s\S]*?)\n\}/.exec(snippet)![1]!;
-    const raw = Object.fromEntries(body.split("\n").map((l) => { const m = /^\s*(\w+): (.*),$/.exec(l)!; return [m[1], JSON.parse(m[2]!)]; }));
+    const raw = Object.fromEntries(
+      body.split("\n").map((l) => {
+        const m = /^\s*(\w+): (.*),$/.exec(l)!;
+        return [m[1], JSON.parse(m[2]!)];
+      }),
+    );
     const inputs = await inputsOf(page, wall);
     const fromSnippet = runCalculator(testWallSpec, raw);
     const direct = runCalculator(testWallSpec, inputs);
@@ -231,7 +305,9 @@ describe("exported page", () => {
     const k = '.hx-explorer[data-mode="kernel"]';
     expect(await page.locator(`${k} .hx-badge`).textContent()).toContain("needs the running kernel");
     expect(await page.locator(`${k} input.hx-slider`).first().isDisabled()).toBe(true);
-    expect(await page.locator(`${k} tr[data-output="Delta"]`).getAttribute("data-value")).toBe(String(runCalculator(testWallSpec, { Ms: 1e6, A: 1e-11, Ku: 1e6 }).outputs.Delta!.value));
+    expect(await page.locator(`${k} tr[data-output="Delta"]`).getAttribute("data-value")).toBe(
+      String(runCalculator(testWallSpec, { Ms: 1e6, A: 1e-11, Ku: 1e6 }).outputs.Delta!.value),
+    );
     await screenshot(page, "explorer-kernel-function", k);
   });
 
@@ -319,10 +395,18 @@ describe("exported page", () => {
     await settled(page, sk);
     await page.waitForTimeout(200);
     await settled(page, sk);
-    const drawn = await page.evaluate((sel) => Array.from(document.querySelector(sel)!.querySelectorAll(".hx-plot")[0]!.querySelectorAll(".scatterlayer > .trace path.js-line")).map((p) => p.getAttribute("d") ?? ""), sk);
+    const drawn = await page.evaluate(
+      (sel) =>
+        Array.from(document.querySelector(sel)!.querySelectorAll(".hx-plot")[0]!.querySelectorAll(".scatterlayer > .trace path.js-line")).map((p) => p.getAttribute("d") ?? ""),
+      sk,
+    );
     // Source: plotly.js's own drawing of the same data and axes (it keeps a subset of the points
     // after its line simplification): every vertex plotly drew is a vertex of the swapped path.
-    const vertices = (d: string) => d.split(/[ML]/).filter(Boolean).map((p) => p.split(",").map(Number) as [number, number]);
+    const vertices = (d: string) =>
+      d
+        .split(/[ML]/)
+        .filter(Boolean)
+        .map((p) => p.split(",").map(Number) as [number, number]);
     expect(drawn.length).toBe(swapped!.length);
     drawn.forEach((d, k) => {
       const ours = vertices(swapped![k]!);

@@ -22,14 +22,16 @@ describe("gallery pages", () => {
 
   beforeAll(async () => {
     rmSync(out, { recursive: true, force: true });
-     
+
     const { buildGallery, galleryIndex } = require(startJs);
     entries = await buildGallery(join(repoRoot, "notebooks"), out, () => {});
     require("node:fs").writeFileSync(join(out, "index.html"), galleryIndex(entries));
     browser = await launchBrowser();
   }, 600_000);
 
-  afterAll(async () => { await browser?.close(); });
+  afterAll(async () => {
+    await browser?.close();
+  });
 
   it("every example notebook runs and its page renders its widgets offline without page errors", async () => {
     const notebooks = readdirSync(join(repoRoot, "notebooks")).filter((f) => f.endsWith(".ipynb"));

@@ -19,15 +19,7 @@ export const repoRoot = resolve(__dirname, "..", "..");
 export const outputDir = join(repoRoot, "test-output");
 export const chromiumPath = process.env.HELICOID_CHROMIUM ?? "/usr/bin/chromium";
 
-export const CHROMIUM_FLAGS = [
-  "--headless",
-  "--no-sandbox",
-  "--disable-gpu",
-  "--no-first-run",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-];
+export const CHROMIUM_FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"];
 
 export interface Browser {
   context: BrowserContext;
@@ -92,7 +84,9 @@ export interface JupyterServer {
  * Start Debian's jupyter-server. `dataDir` (a Jupyter data directory holding kernels/ and
  * labextensions/) goes first on JUPYTER_PATH so its kernelspecs are found.
  */
-export async function startJupyterServer(options: { dataDir?: string; cwd?: string; env?: Record<string, string>; staticDir?: string; staticPaths?: string[] } = {}): Promise<JupyterServer> {
+export async function startJupyterServer(
+  options: { dataDir?: string; cwd?: string; env?: Record<string, string>; staticDir?: string; staticPaths?: string[] } = {},
+): Promise<JupyterServer> {
   const port = await freePort();
   const token = randomBytes(16).toString("hex");
   const runtime = mkdtempSync(join(tmpdir(), "helicoid-jupyter-runtime-"));
@@ -112,7 +106,9 @@ export async function startJupyterServer(options: { dataDir?: string; cwd?: stri
     "--ServerApp.open_browser=False",
     ...(options.cwd ? [`--ServerApp.root_dir=${options.cwd}`] : []),
     // Test pages served at /static/<file> from the server's own origin (no sandboxing, unlike /files/).
-    ...(options.staticDir || options.staticPaths ? [`--ServerApp.extra_static_paths=${JSON.stringify([...(options.staticDir ? [options.staticDir] : []), ...(options.staticPaths ?? [])])}`] : []),
+    ...(options.staticDir || options.staticPaths
+      ? [`--ServerApp.extra_static_paths=${JSON.stringify([...(options.staticDir ? [options.staticDir] : []), ...(options.staticPaths ?? [])])}`]
+      : []),
   ];
   const proc = spawn("/usr/bin/jupyter-server", args, { env, cwd: options.cwd ?? repoRoot, stdio: ["ignore", "pipe", "pipe"] });
   let log = "";
@@ -125,16 +121,34 @@ export async function startJupyterServer(options: { dataDir?: string; cwd?: stri
     try {
       const r = await fetch(`${url}/api/status`, { headers: { Authorization: `token ${token}` } });
       if (r.ok) break;
-    } catch { /* not yet */ }
-    if (Date.now() > deadline) { proc.kill("SIGTERM"); throw new Error(`jupyter-server did not answer within 30 s:\n${log}`); }
+    } catch {
+      /* not yet */
+    }
+    if (Date.now() > deadline) {
+      proc.kill("SIGTERM");
+      throw new Error(`jupyter-server did not answer within 30 s:\n${log}`);
+    }
     await new Promise((r) => setTimeout(r, 200));
   }
   return {
-    url, port, token, process: proc, log: () => log,
+    url,
+    port,
+    token,
+    process: proc,
+    log: () => log,
     stop: async () => {
       if (proc.exitCode === null) {
         proc.kill("SIGTERM");
-        await new Promise<void>((r) => { const t = setTimeout(() => { proc.kill("SIGKILL"); r(); }, 5000); proc.once("exit", () => { clearTimeout(t); r(); }); });
+        await new Promise<void>((r) => {
+          const t = setTimeout(() => {
+            proc.kill("SIGKILL");
+            r();
+          }, 5000);
+          proc.once("exit", () => {
+            clearTimeout(t);
+            r();
+          });
+        });
       }
       rmSync(runtime, { recursive: true, force: true });
     },
@@ -146,10 +160,19 @@ const cssInject: esbuild.Plugin = {
   name: "css-inject",
   setup(build) {
     build.onLoad({ filter: /\.css$/ }, async (a) => {
-      const out = await esbuild.build({ entryPoints: [a.path], bundle: true, write: false, minify: true, logLevel: "silent",
-        loader: { ".svg": "dataurl", ".png": "dataurl", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".gif": "dataurl" } });
+      const out = await esbuild.build({
+        entryPoints: [a.path],
+        bundle: true,
+        write: false,
+        minify: true,
+        logLevel: "silent",
+        loader: { ".svg": "dataurl", ".png": "dataurl", ".woff": "dataurl", ".woff2": "dataurl", ".ttf": "dataurl", ".eot": "dataurl", ".gif": "dataurl" },
+      });
       const css = out.outputFiles[0]!.text;
-      return { loader: "js", contents: `const c = ${JSON.stringify(css)}; const s = document.createElement("style"); s.textContent = c; document.head.appendChild(s); export default c;` };
+      return {
+        loader: "js",
+        contents: `const c = ${JSON.stringify(css)}; const s = document.createElement("style"); s.textContent = c; document.head.appendChild(s); export default c;`,
+      };
     });
   },
 };
@@ -160,8 +183,15 @@ const workerSource: esbuild.Plugin = {
   setup(build) {
     build.onResolve({ filter: /^helicoid:worker-source$/ }, () => ({ path: "w", namespace: "helicoid" }));
     build.onLoad({ filter: /.*/, namespace: "helicoid" }, async () => {
-      const w = await esbuild.build({ entryPoints: [join(repoRoot, "widgets", "src", "compute", "worker.ts")], bundle: true, write: false, format: "iife", minify: true,
-        alias: { "@helicoid/lib": join(repoRoot, "lib", "src", "index.ts") }, logLevel: "silent" });
+      const w = await esbuild.build({
+        entryPoints: [join(repoRoot, "widgets", "src", "compute", "worker.ts")],
+        bundle: true,
+        write: false,
+        format: "iife",
+        minify: true,
+        alias: { "@helicoid/lib": join(repoRoot, "lib", "src", "index.ts") },
+        logLevel: "silent",
+      });
       return { loader: "js", contents: `export default ${JSON.stringify(w.outputFiles[0]!.text)};` };
     });
   },
@@ -170,7 +200,12 @@ const workerSource: esbuild.Plugin = {
 /** Bundle a browser page script (IIFE) and return its source text. */
 export async function buildPage(entry: string, options: { alias?: Record<string, string> } = {}): Promise<string> {
   const r = await esbuild.build({
-    entryPoints: [entry], bundle: true, write: false, format: "iife", target: "es2020", minify: true,
+    entryPoints: [entry],
+    bundle: true,
+    write: false,
+    format: "iife",
+    target: "es2020",
+    minify: true,
     define: { __webpack_public_path__: '""', "process.env.NODE_ENV": '"production"', global: "globalThis" },
     loader: { ".svg": "text" },
     plugins: [cssInject, workerSource],
@@ -184,7 +219,9 @@ export async function buildPage(entry: string, options: { alias?: Record<string,
 export async function buildTestWidgets(): Promise<string> {
   const out = join(outputDir, "e2e-widgets");
   const r = await new Promise<{ code: number | null; log: string }>((res) => {
-    const p = spawn(process.execPath, [join(repoRoot, "widgets", "build.mjs"), "--extra-specs", join(repoRoot, "test", "widgets", "fixtures", "testSpecs.ts"), "--out", out], { stdio: ["ignore", "pipe", "pipe"] });
+    const p = spawn(process.execPath, [join(repoRoot, "widgets", "build.mjs"), "--extra-specs", join(repoRoot, "test", "widgets", "fixtures", "testSpecs.ts"), "--out", out], {
+      stdio: ["ignore", "pipe", "pipe"],
+    });
     let log = "";
     p.stdout!.on("data", (d) => (log += d));
     p.stderr!.on("data", (d) => (log += d));

@@ -21,7 +21,9 @@ import { ensureLabFrontend, prepareLabSite, type LabSite } from "../../kernel-ex
 import { getCalculator, runCalculator } from "../../lib/src/index";
 
 const bin = join(repoRoot, "kernel-ext", "bin", "helicoid.js");
-const examples = readdirSync(join(repoRoot, "notebooks")).filter((f) => f.endsWith(".ipynb")).sort();
+const examples = readdirSync(join(repoRoot, "notebooks"))
+  .filter((f) => f.endsWith(".ipynb"))
+  .sort();
 
 let prefix: string;
 let work: string;
@@ -42,29 +44,34 @@ async function launchWithRetry(): Promise<Browser> {
 /** A notebook of the checks below (nbformat 4), written by the test into the served folder. */
 function checksNotebook(): string {
   const code = (source: string) => ({ cell_type: "code", execution_count: null, metadata: {}, outputs: [], source });
-  return JSON.stringify({
-    nbformat: 4, nbformat_minor: 5,
-    metadata: { kernelspec: { name: "helicoid", display_name: "TypeScript (Helicoid)", language: "typescript" }, language_info: { name: "typescript" } },
-    cells: [
-      code(`import { slider, html, vbox, explore, controlPanel, fitPanel, textureView } from "@helicoid/kernel";
+  return JSON.stringify(
+    {
+      nbformat: 4,
+      nbformat_minor: 5,
+      metadata: { kernelspec: { name: "helicoid", display_name: "TypeScript (Helicoid)", language: "typescript" }, language_info: { name: "typescript" } },
+      cells: [
+        code(`import { slider, html, vbox, explore, controlPanel, fitPanel, textureView } from "@helicoid/kernel";
 import { textureOfObjects } from "@helicoid/lib";
 const s = slider({ min: 0, max: 10, value: 1, step: 1, description: "x" });
 const sq = html("x squared = 1");
 s.onChange("value", (v) => sq.set({ value: "x squared = " + (v * v) }));
 vbox([s, sq])`),
-      code(`const ex = explore("wall");
+        code(`const ex = explore("wall");
 ex`),
-      code(`const panelRuns: number[] = [];
+        code(`const panelRuns: number[] = [];
 controlPanel(({ k }) => { panelRuns.push(k); return "k cubed = " + k * k * k; }, { k: [0, 10, 1] }, { title: "cube" })`),
-      code(`const heard: string[] = [];
+        code(`const heard: string[] = [];
 const fp = fitPanel({ title: "invented profile", x: [0, 1, 2], y: [0, 1, 4] });
 fp.onStart((p) => { heard.push("start"); p.update({ status: "running", progress: 0.5, message: "iterating" }); });
 fp`),
-      code(`const nm = 1e-9;
+        code(`const nm = 1e-9;
 const one = textureOfObjects({ nx: 64, ny: 64, dx: 1 * nm, periodic: false }, [{ x: 32 * nm, y: 32 * nm, R: 10 * nm, w: 3 * nm, helicity: 0 }]);
 textureView(one.m, 64, 64, { dx: nm, dy: nm, title: "one skyrmion" })`),
-    ],
-  }, null, 1);
+      ],
+    },
+    null,
+    1,
+  );
 }
 
 async function openNotebook(path: string, extra = ""): Promise<Page> {
@@ -90,7 +97,12 @@ async function kernel(page: Page, code: string): Promise<string> {
 
 describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-server", () => {
   beforeAll(async () => {
-    for (const [what, path] of [["the kernel build (npm run build)", join(repoRoot, "kernel-ext", "dist", "cli", "main.js")], ["the prebuilt extension (npm run build)", join(repoRoot, "widgets", "labextension", "package.json")], ["Debian's jupyter-server (apt-get install jupyter-server)", "/usr/bin/jupyter-server"], ["Debian's chromium (apt-get install chromium)", chromiumPath]] as const) {
+    for (const [what, path] of [
+      ["the kernel build (npm run build)", join(repoRoot, "kernel-ext", "dist", "cli", "main.js")],
+      ["the prebuilt extension (npm run build)", join(repoRoot, "widgets", "labextension", "package.json")],
+      ["Debian's jupyter-server (apt-get install jupyter-server)", "/usr/bin/jupyter-server"],
+      ["Debian's chromium (apt-get install chromium)", chromiumPath],
+    ] as const) {
       if (!existsSync(path)) throw new Error(`missing ${what}: ${path}`);
     }
     ensureLabFrontend((s) => process.stderr.write(`[lab-frontend] ${s}`));
@@ -115,33 +127,37 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
     if (prefix) rmSync(prefix, { recursive: true, force: true });
   });
 
-  it.each(examples)("runs the example notebook %s with no error output and renders its widgets", async (name) => {
-    const page = await openNotebook(`notebooks/${name}`);
-    try {
-      const r = await runAll(page);
-      expect(r.errors).toEqual([]);
-      expect(r.ok).toBe(true);
-      // Every cell with a widget output shows a rendered widget view (not the text fallback, not an error).
-      const cells = await page.evaluate(() => {
-        const panel = (window as any).helicoidLab.panel;
-        const out: { cell: number; rendered: boolean }[] = [];
-        panel.content.widgets.forEach((cell: any, i: number) => {
-          if (cell.model.type !== "code") return;
-          const outputs = cell.model.outputs.toJSON();
-          if (!outputs.some((o: any) => o.data && o.data["application/vnd.jupyter.widget-view+json"])) return;
-          out.push({ cell: i, rendered: cell.node.querySelector(".jp-OutputArea-output .jupyter-widgets") !== null });
+  it.each(examples)(
+    "runs the example notebook %s with no error output and renders its widgets",
+    async (name) => {
+      const page = await openNotebook(`notebooks/${name}`);
+      try {
+        const r = await runAll(page);
+        expect(r.errors).toEqual([]);
+        expect(r.ok).toBe(true);
+        // Every cell with a widget output shows a rendered widget view (not the text fallback, not an error).
+        const cells = await page.evaluate(() => {
+          const panel = (window as any).helicoidLab.panel;
+          const out: { cell: number; rendered: boolean }[] = [];
+          panel.content.widgets.forEach((cell: any, i: number) => {
+            if (cell.model.type !== "code") return;
+            const outputs = cell.model.outputs.toJSON();
+            if (!outputs.some((o: any) => o.data && o.data["application/vnd.jupyter.widget-view+json"])) return;
+            out.push({ cell: i, rendered: cell.node.querySelector(".jp-OutputArea-output .jupyter-widgets") !== null });
+          });
+          return out;
         });
-        return out;
-      });
-      expect(cells.filter((c) => !c.rendered)).toEqual([]);
-      expect(await page.getByText("Error displaying widget").count()).toBe(0);
-      expect(cells.length).toBeGreaterThan(0); // every example notebook shows widgets
-      await expect.poll(() => page.locator(".hx-missing-manager").count()).toBe(0);
-      await screenshot(page, `jupyterlab-${name.replace(/\.ipynb$/, "")}`);
-    } finally {
-      await page.close();
-    }
-  }, 300_000);
+        expect(cells.filter((c) => !c.rendered)).toEqual([]);
+        expect(await page.getByText("Error displaying widget").count()).toBe(0);
+        expect(cells.length).toBeGreaterThan(0); // every example notebook shows widgets
+        await expect.poll(() => page.locator(".hx-missing-manager").count()).toBe(0);
+        await screenshot(page, `jupyterlab-${name.replace(/\.ipynb$/, "")}`);
+      } finally {
+        await page.close();
+      }
+    },
+    300_000,
+  );
 
   describe("widgets respond in the page", () => {
     let page: Page;
@@ -150,7 +166,9 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
       const r = await runAll(page);
       expect(r.errors).toEqual([]);
     }, 240_000);
-    afterAll(async () => { await page?.close(); });
+    afterAll(async () => {
+      await page?.close();
+    });
 
     it("a standard slider dragged with the mouse runs a kernel observer", async () => {
       const handle = page.locator(".jp-Cell").nth(0).locator(".widget-slider .noUi-handle").first();
@@ -219,12 +237,15 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
       // the m_z panel: one s x s block of one colour per cell (s = the picture's scale)
       const scale = Number(await view.locator(".hx-texture-picture").getAttribute("data-scale"));
       expect(scale).toBeGreaterThanOrEqual(1);
-      const pixels = await view.locator("canvas.hx-texture-canvas").first().evaluate((c) => {
-        const canvas = c as HTMLCanvasElement;
-        const d = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height).data;
-        const at = (i: number, j: number) => Array.from(d.slice(4 * (j * canvas.width + i), 4 * (j * canvas.width + i) + 4));
-        return { centre: at(canvas.width >> 1, canvas.height >> 1), corner: at(1, 1), w: canvas.width };
-      });
+      const pixels = await view
+        .locator("canvas.hx-texture-canvas")
+        .first()
+        .evaluate((c) => {
+          const canvas = c as HTMLCanvasElement;
+          const d = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height).data;
+          const at = (i: number, j: number) => Array.from(d.slice(4 * (j * canvas.width + i), 4 * (j * canvas.width + i) + 4));
+          return { centre: at(canvas.width >> 1, canvas.height >> 1), corner: at(1, 1), w: canvas.width };
+        });
       expect(pixels.w).toBe(64 * scale);
       expect(pixels.corner[3]).toBe(255);
       // The core (m down) and the background (m up) are drawn in different colours.

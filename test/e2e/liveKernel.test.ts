@@ -46,18 +46,28 @@ describe("widgets with a live helicoid kernel", () => {
     page = await browser.newPage();
     // The page is served by the server itself (a static path), so it has the
     // server's own loopback origin, as JupyterLab has: no CORS or local-network exceptions needed.
-    writeFileSync(join(prefix, "pages", "helicoid-live.html"), `<!DOCTYPE html><html><head><meta charset="utf-8"></head><body><div id="outputs"></div><script>window.hxToken=${JSON.stringify(server.token)};</script><script>${script.replace(/<\/script/g, "<\\/script")}</script></body></html>`);
+    writeFileSync(
+      join(prefix, "pages", "helicoid-live.html"),
+      `<!DOCTYPE html><html><head><meta charset="utf-8"></head><body><div id="outputs"></div><script>window.hxToken=${JSON.stringify(server.token)};</script><script>${script.replace(/<\/script/g, "<\\/script")}</script></body></html>`,
+    );
     await page.goto(`${server.url}/static/helicoid-live.html`);
     const impl = await Promise.race([
       page.evaluate(() => (window as any).hxLive.start("helicoid")),
       new Promise((_, rej) => setTimeout(() => rej(new Error(`kernel did not start in the page within 60 s; server log:\n${server.log()}`)), 60_000)),
     ]);
     expect(typeof impl).toBe("string");
-    if (process.env.HELICOID_E2E_DEBUG) await page.evaluate(() => { (window as any).hxDebug = true; });
+    if (process.env.HELICOID_E2E_DEBUG)
+      await page.evaluate(() => {
+        (window as any).hxDebug = true;
+      });
   }, 180_000);
 
   afterAll(async () => {
-    try { await page?.evaluate(() => (window as any).hxLive.shutdown()); } catch { /* closing */ }
+    try {
+      await page?.evaluate(() => (window as any).hxLive.shutdown());
+    } catch {
+      /* closing */
+    }
     await browser?.close();
     await server?.stop();
     if (prefix) rmSync(prefix, { recursive: true, force: true });

@@ -36,9 +36,16 @@ describe("exported page: inline sanitizer of widget descriptions", () => {
     ];
     descriptions.forEach((d, k) => {
       const id = nb.model("CheckboxModel", "@jupyter-widgets/controls", "2.0.0", {
-        _model_name: "CheckboxModel", _model_module: "@jupyter-widgets/controls", _model_module_version: "2.0.0",
-        _view_name: "CheckboxView", _view_module: "@jupyter-widgets/controls", _view_module_version: "2.0.0",
-        value: false, description: d, description_allow_html: true, indent: true,
+        _model_name: "CheckboxModel",
+        _model_module: "@jupyter-widgets/controls",
+        _model_module_version: "2.0.0",
+        _view_name: "CheckboxView",
+        _view_module: "@jupyter-widgets/controls",
+        _view_module_version: "2.0.0",
+        value: false,
+        description: d,
+        description_allow_html: true,
+        indent: true,
       });
       nb.code(`checkbox ${k}`, [nb.viewOutput(id, "Checkbox()")]);
     });
@@ -50,8 +57,17 @@ describe("exported page: inline sanitizer of widget descriptions", () => {
     await page.goto(`file://${file}`);
     await page.waitForSelector("body[data-helicoid-ready]", { timeout: 60_000 });
     await page.waitForTimeout(300);
-    for (const sel of [".js-link", ".kept-span", ".bg"]) await page.locator(sel).first().hover({ timeout: 2000, force: true }).catch(() => undefined);
-    await page.locator(".js-link").first().click({ timeout: 2000, force: true }).catch(() => undefined);
+    for (const sel of [".js-link", ".kept-span", ".bg"])
+      await page
+        .locator(sel)
+        .first()
+        .hover({ timeout: 2000, force: true })
+        .catch(() => undefined);
+    await page
+      .locator(".js-link")
+      .first()
+      .click({ timeout: 2000, force: true })
+      .catch(() => undefined);
     await page.waitForTimeout(300);
     const seen = await page.evaluate(() => ({
       pwned: (window as unknown as { __pwned?: number[] }).__pwned ?? [],

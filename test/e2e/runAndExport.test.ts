@@ -29,14 +29,19 @@ describe("helicoid run + helicoid export + browser", () => {
   beforeAll(async () => {
     mkdirSync(dir, { recursive: true });
     const nb = {
-      nbformat: 4, nbformat_minor: 5,
+      nbformat: 4,
+      nbformat_minor: 5,
       metadata: { kernelspec: { name: "helicoid", display_name: "TypeScript (Helicoid)", language: "typescript" } },
       cells: [
         { cell_type: "markdown", metadata: {}, source: "# Skyrmion radius on an invented film\n\nAll parameters are **invented**; results are estimates." },
         code('import { explore, textureView, figureWidget, fitPanel } from "@helicoid/kernel";\nconst ex = explore("skyrmion", { D: "2.6 mJ/m^2" });\nex'),
-        code("const n = 64; const f = new Float32Array(3 * n * n);\nfor (let j = 0; j < n; j++) for (let i = 0; i < n; i++) { const x = i - 31.5, y = j - 31.5, r = Math.hypot(x, y), th = 2 * Math.atan(Math.exp((10 - r) / 3)), p = Math.atan2(y, x), k = 3 * (j * n + i); f[k] = Math.sin(th) * Math.cos(p); f[k + 1] = Math.sin(th) * Math.sin(p); f[k + 2] = Math.cos(th); }\ntextureView(f, n, n, { title: \"invented skyrmion\", overlay: \"charge\" })"),
+        code(
+          'const n = 64; const f = new Float32Array(3 * n * n);\nfor (let j = 0; j < n; j++) for (let i = 0; i < n; i++) { const x = i - 31.5, y = j - 31.5, r = Math.hypot(x, y), th = 2 * Math.atan(Math.exp((10 - r) / 3)), p = Math.atan2(y, x), k = 3 * (j * n + i); f[k] = Math.sin(th) * Math.cos(p); f[k + 1] = Math.sin(th) * Math.sin(p); f[k + 2] = Math.cos(th); }\ntextureView(f, n, n, { title: "invented skyrmion", overlay: "charge" })',
+        ),
         code('figureWidget({ data: [{ type: "scatter", y: [1, 4, 9] }], layout: { title: { text: "live figure" } } })'),
-        code('fitPanel({ title: "invented fit", x: [0, 1, 2], y: [0, 1.1, 1.9], model_y: [0, 1, 2], residuals: [0, 0.1, -0.1], status: "done", parameters: [{ name: "slope", value: 0.98, uncertainty: 0.05 }] })'),
+        code(
+          'fitPanel({ title: "invented fit", x: [0, 1, 2], y: [0, 1.1, 1.9], model_y: [0, 1, 2], residuals: [0, 0.1, -0.1], status: "done", parameters: [{ name: "slope", value: 0.98, uncertainty: 0.05 }] })',
+        ),
         code("ex.result.outputs.radius.value"),
       ],
     };
@@ -54,7 +59,9 @@ describe("helicoid run + helicoid export + browser", () => {
     await page.waitForSelector("body[data-helicoid-ready]", { timeout: 60_000 });
   }, 240_000);
 
-  afterAll(async () => { await browser?.close(); });
+  afterAll(async () => {
+    await browser?.close();
+  });
 
   it("shows all four widgets from the state the runner saved", async () => {
     expect(await page.evaluate(() => document.body.dataset.helicoidWidgets)).toBe("4");
@@ -67,19 +74,32 @@ describe("helicoid run + helicoid export + browser", () => {
 
   it("moving the skyrmion explorer's D slider replots R(B) as @helicoid/lib computes it in Node (1e-9 relative)", async () => {
     const sk = '.hx-explorer[data-calculator="skyrmion"]';
-    const settled = () => page.waitForFunction((sel) => { const r = document.querySelector(sel) as HTMLElement; return r.dataset.busy === "" && r.dataset.drawing === "" && !!r.querySelector(".hx-plot[data-drawn]"); }, sk, { timeout: 60_000 });
+    const settled = () =>
+      page.waitForFunction(
+        (sel) => {
+          const r = document.querySelector(sel) as HTMLElement;
+          return r.dataset.busy === "" && r.dataset.drawing === "" && !!r.querySelector(".hx-plot[data-drawn]");
+        },
+        sk,
+        { timeout: 60_000 },
+      );
     await settled();
-    const read = () => page.evaluate((sel) => {
-      const root = document.querySelector(sel)!;
-      const inputs: Record<string, number> = {};
-      root.querySelectorAll(".hx-control").forEach((r) => { inputs[(r as HTMLElement).dataset.input!] = Number((r as HTMLElement).dataset.value); });
-      let trace: { x: number[]; y: Array<number | null> } | null = null;
-      root.querySelectorAll(".hx-plot").forEach((gd) => {
-        for (const t of ((gd as any).data ?? [])) if (t.meta.output === "radiusSweep") trace = { x: t.x.map((v: number) => v * t.meta.xFactor), y: t.y.map((v: number | null) => (v === null ? null : v * t.meta.yFactor)) };
-      });
-      const sweep = JSON.parse((root as HTMLElement).dataset.sweep || "null");
-      return { inputs, sweep, trace: trace! };
-    }, sk);
+    const read = () =>
+      page.evaluate((sel) => {
+        const root = document.querySelector(sel)!;
+        const inputs: Record<string, number> = {};
+        root.querySelectorAll(".hx-control").forEach((r) => {
+          inputs[(r as HTMLElement).dataset.input!] = Number((r as HTMLElement).dataset.value);
+        });
+        let trace: { x: number[]; y: Array<number | null> } | null = null;
+        root.querySelectorAll(".hx-plot").forEach((gd) => {
+          for (const t of (gd as any).data ?? [])
+            if (t.meta.output === "radiusSweep")
+              trace = { x: t.x.map((v: number) => v * t.meta.xFactor), y: t.y.map((v: number | null) => (v === null ? null : v * t.meta.yFactor)) };
+        });
+        const sweep = JSON.parse((root as HTMLElement).dataset.sweep || "null");
+        return { inputs, sweep, trace: trace! };
+      }, sk);
     const before = await read();
     expect(before.inputs.D).toBeCloseTo(2.6e-3, 12);
     await page.evaluate((sel) => {
@@ -105,7 +125,10 @@ describe("helicoid run + helicoid export + browser", () => {
     let worst = 0;
     after.trace.y.forEach((v, i) => {
       const e = ys[i]!;
-      if (v === null) { if (Number.isFinite(e)) worst = Infinity; return; }
+      if (v === null) {
+        if (Number.isFinite(e)) worst = Infinity;
+        return;
+      }
       worst = Math.max(worst, Math.abs(v - e) / Math.max(Math.abs(v), Math.abs(e)));
     });
     expect(worst).toBeLessThanOrEqual(1e-9);

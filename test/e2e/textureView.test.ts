@@ -33,13 +33,30 @@ beforeAll(async () => {
   const nb = new NotebookBuilder();
   nb.markdown("# Texture view\n\nAn **invented** skyrmion texture.");
   // The skyrmion fixture is centred at ((n - 1)/2, (n - 1)/2) cells = 15.5 nm for 1 nm cells.
-  nb.widget("TextureModel", {
-    nx: n, ny: n, dx: 1e-9, dy: 1e-9, title: "Invented skyrmion (32 x 32)", arrows: true, overlay: "charge", field: null,
-    objects: { x: [15.5e-9], y: [15.5e-9], charge: [-1] }, display_size: 480,
-  }, { field });
+  nb.widget(
+    "TextureModel",
+    {
+      nx: n,
+      ny: n,
+      dx: 1e-9,
+      dy: 1e-9,
+      title: "Invented skyrmion (32 x 32)",
+      arrows: true,
+      overlay: "charge",
+      field: null,
+      objects: { x: [15.5e-9], y: [15.5e-9], charge: [-1] },
+      display_size: 480,
+    },
+    { field },
+  );
   const spec = getCalculator("texture");
   const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
-  nb.widget("ExplorerModel", { calculator: "texture", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("texture")');
+  nb.widget(
+    "ExplorerModel",
+    { calculator: "texture", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+    {},
+    'explore("texture")',
+  );
   const html = exportNotebook(nb.build(), { sourceName: "texture-test.ipynb" });
   mkdirSync(join(outputDir, "export"), { recursive: true });
   const path = join(outputDir, "export", "texture-test.html");
@@ -48,7 +65,9 @@ beforeAll(async () => {
   page = await browser.newPage();
   await page.goto(`file://${path}`);
   await page.waitForSelector(".hx-texture[data-charge]", { timeout: 60_000 });
-  await page.evaluate(() => { (document.querySelectorAll(".hx-texture:not(.hx-explorer-texture)")[0] as HTMLElement).dataset.testid = "view"; });
+  await page.evaluate(() => {
+    (document.querySelectorAll(".hx-texture:not(.hx-explorer-texture)")[0] as HTMLElement).dataset.testid = "view";
+  });
 }, 180_000);
 
 afterAll(async () => {
@@ -64,26 +83,30 @@ function mzColour(mz: number): number[] {
 describe("texture view in chromium", () => {
   it("draws each cell as one block of one colour (whole pixels per cell), with Moreland's colours for m_z", async () => {
     // The page reports each cell's colour (its top-left pixel) and how many pixels of its block differ from it.
-    const got = await page.evaluate(([sel, nn]) => {
-      const c = document.querySelector(`${sel} .hx-texture-canvas`) as HTMLCanvasElement;
-      const s = Number((document.querySelector(`${sel} .hx-texture-picture`) as HTMLElement).dataset.scale);
-      const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
-      const w = c.width;
-      const cells: number[] = [];
-      let nonUniform = 0;
-      for (let j = 0; j < nn; j++) {
-        for (let i = 0; i < nn; i++) {
-          const row = nn - 1 - j; // y up
-          const p0 = 4 * (row * s * w + i * s);
-          cells.push(d[p0]!, d[p0 + 1]!, d[p0 + 2]!);
-          for (let b = 0; b < s; b++) for (let a = 0; a < s; a++) {
-            const p = 4 * ((row * s + b) * w + i * s + a);
-            if (d[p] !== d[p0] || d[p + 1] !== d[p0 + 1] || d[p + 2] !== d[p0 + 2]) nonUniform++;
+    const got = await page.evaluate(
+      ([sel, nn]) => {
+        const c = document.querySelector(`${sel} .hx-texture-canvas`) as HTMLCanvasElement;
+        const s = Number((document.querySelector(`${sel} .hx-texture-picture`) as HTMLElement).dataset.scale);
+        const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
+        const w = c.width;
+        const cells: number[] = [];
+        let nonUniform = 0;
+        for (let j = 0; j < nn; j++) {
+          for (let i = 0; i < nn; i++) {
+            const row = nn - 1 - j; // y up
+            const p0 = 4 * (row * s * w + i * s);
+            cells.push(d[p0]!, d[p0 + 1]!, d[p0 + 2]!);
+            for (let b = 0; b < s; b++)
+              for (let a = 0; a < s; a++) {
+                const p = 4 * ((row * s + b) * w + i * s + a);
+                if (d[p] !== d[p0] || d[p + 1] !== d[p0 + 1] || d[p + 2] !== d[p0 + 2]) nonUniform++;
+              }
           }
         }
-      }
-      return { w, h: c.height, cssW: c.getBoundingClientRect().width, rendering: getComputedStyle(c).imageRendering, s, cells, nonUniform };
-    }, [view, n] as const);
+        return { w, h: c.height, cssW: c.getBoundingClientRect().width, rendering: getComputedStyle(c).imageRendering, s, cells, nonUniform };
+      },
+      [view, n] as const,
+    );
     // Common practice, no source: a crisp picture has an integer number of pixels per cell.
     expect(got.s).toBe(Math.round(480 / n));
     expect(got.w).toBe(n * got.s);
@@ -99,34 +122,45 @@ describe("texture view in chromium", () => {
     expect(worstColour).toBeLessThanOrEqual(1);
     // The core (m_z = -1) is Moreland's blue end, the background (m_z = +1) his red end.
     // Source: K. Moreland, Diverging Color Maps for Scientific Visualization (ISVC 2009): cool-warm ends (59, 76, 192), (180, 4, 38).
-    const centre = 3 * ((n / 2) * n + n / 2), corner = 0;
+    const centre = 3 * ((n / 2) * n + n / 2),
+      corner = 0;
     expect(Math.abs(got.cells[centre + 2]! - 192)).toBeLessThan(12);
     expect(got.cells[corner]).toBeGreaterThan(170);
     expect(got.cells[corner + 2]).toBeLessThan(50);
   });
 
   it("on screen, two adjacent cells of different colour meet with no blended pixel (screenshot)", async () => {
-    await page.evaluate((sel) => { (document.querySelector(`${sel} .hx-texture-arrows`) as HTMLElement).style.visibility = "hidden"; }, view);
+    await page.evaluate((sel) => {
+      (document.querySelector(`${sel} .hx-texture-arrows`) as HTMLElement).style.visibility = "hidden";
+    }, view);
     const canvas = page.locator(`${view} .hx-texture-canvas`);
     const png = await canvas.screenshot();
-    await page.evaluate((sel) => { (document.querySelector(`${sel} .hx-texture-arrows`) as HTMLElement).style.visibility = ""; }, view);
+    await page.evaluate((sel) => {
+      (document.querySelector(`${sel} .hx-texture-arrows`) as HTMLElement).style.visibility = "";
+    }, view);
     // Decode the screenshot with the browser's own PNG decoder.
     const s = Math.round(480 / n);
     // The middle row of cells j = 16 crosses the wall; take cells i = 20, 21 (m_z changes fast there).
-    const jRow = 16, yPix = (n - 1 - jRow) * s + Math.floor(s / 2);
-    const px = await page.evaluate(async ([b64, y]) => {
-      const img = new Image();
-      img.src = `data:image/png;base64,${b64}`;
-      await img.decode();
-      const c = document.createElement("canvas");
-      c.width = img.width; c.height = img.height;
-      const ctx = c.getContext("2d")!;
-      ctx.drawImage(img, 0, 0);
-      return { w: img.width, h: img.height, d: Array.from(ctx.getImageData(0, y, img.width, 1).data) };
-    }, [png.toString("base64"), yPix] as const);
+    const jRow = 16,
+      yPix = (n - 1 - jRow) * s + Math.floor(s / 2);
+    const px = await page.evaluate(
+      async ([b64, y]) => {
+        const img = new Image();
+        img.src = `data:image/png;base64,${b64}`;
+        await img.decode();
+        const c = document.createElement("canvas");
+        c.width = img.width;
+        c.height = img.height;
+        const ctx = c.getContext("2d")!;
+        ctx.drawImage(img, 0, 0);
+        return { w: img.width, h: img.height, d: Array.from(ctx.getImageData(0, y, img.width, 1).data) };
+      },
+      [png.toString("base64"), yPix] as const,
+    );
     expect(px.w).toBe(n * s);
     const colourAt = (x: number) => px.d.slice(4 * x, 4 * x + 3);
-    const left = colourAt(20 * s + 1), right = colourAt(21 * s + s - 2);
+    const left = colourAt(20 * s + 1),
+      right = colourAt(21 * s + s - 2);
     const dist = (a: number[], b: number[]) => Math.max(...a.map((v, k) => Math.abs(v - b[k]!)));
     expect(dist(left, right)).toBeGreaterThan(10);
     for (let x = 20 * s; x < 22 * s; x++) {
@@ -141,7 +175,8 @@ describe("texture view in chromium", () => {
     const info = await page.evaluate((sel) => {
       const root = document.querySelector(sel)!;
       const bars = Array.from(root.querySelectorAll(".hx-colourbar")).map((b) => ({
-        symbol: b.getAttribute("data-symbol"), unit: b.getAttribute("data-unit"),
+        symbol: b.getAttribute("data-symbol"),
+        unit: b.getAttribute("data-unit"),
         ticks: Array.from(b.querySelectorAll("text.hx-tick")).map((t) => t.textContent),
         title: b.querySelector("text.hx-axis-title")?.textContent,
       }));
@@ -153,7 +188,15 @@ describe("texture view in chromium", () => {
       }));
       const sb = root.querySelector(".hx-scalebar")!;
       const bar = sb.querySelectorAll("rect")[1]!.getBoundingClientRect();
-      return { bars, titles, xTicks, subs: root.querySelectorAll("tspan[baseline-shift=sub], sub").length, text: root.textContent, scale: { nm: Number(sb.getAttribute("data-length-nm")), px: bar.width, label: sb.querySelector("text")!.textContent }, legend: root.querySelector(".hx-legend")!.textContent };
+      return {
+        bars,
+        titles,
+        xTicks,
+        subs: root.querySelectorAll("tspan[baseline-shift=sub], sub").length,
+        text: root.textContent,
+        scale: { nm: Number(sb.getAttribute("data-length-nm")), px: bar.width, label: sb.querySelector("text")!.textContent },
+        legend: root.querySelector(".hx-legend")!.textContent,
+      };
     }, view);
     expect(info.bars.map((b) => b.symbol)).toEqual(["m_z", "ρ_Q"]);
     expect(info.bars[0]!.ticks).toEqual(["−1", "−0.5", "0", "0.5", "1"]);
@@ -212,7 +255,9 @@ describe("texture explorer in chromium", () => {
     const spec = getCalculator("texture");
     const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
     const node = runCalculator(spec, inputs);
-    const xs = node.outputs.objectX!.value as number[], ys = node.outputs.objectY!.value as number[], qs = node.outputs.objectCharge!.value as number[];
+    const xs = node.outputs.objectX!.value as number[],
+      ys = node.outputs.objectY!.value as number[],
+      qs = node.outputs.objectCharge!.value as number[];
     const size = node.outputs.previewSize!.value as number;
     const info = await page.evaluate((sel) => {
       const r = document.querySelector(sel) as HTMLElement;
@@ -221,7 +266,9 @@ describe("texture explorer in chromium", () => {
         canvasW: (r.querySelector(".hx-texture-canvas") as HTMLCanvasElement).width,
         chargeShown: !(r.querySelector('[data-panel="charge"]') as HTMLElement).hidden,
         markers: r.querySelectorAll('[data-panel="mz"] .hx-object-marker').length,
-        rows: Array.from(r.querySelectorAll("table.hx-objects tr")).slice(1).map((t) => Array.from(t.children).map((c) => c.textContent)),
+        rows: Array.from(r.querySelectorAll("table.hx-objects tr"))
+          .slice(1)
+          .map((t) => Array.from(t.children).map((c) => c.textContent)),
         axes: Array.from(r.querySelectorAll(".hx-axis-title")).map((t) => t.textContent),
         plots: Array.from(document.querySelectorAll(`${sel.split(" ")[0]} .hx-plot-title`)).map((t) => t.textContent),
       };
@@ -247,33 +294,45 @@ describe("texture explorer in chromium", () => {
     const spec = getCalculator("texture");
     const inputs = { ...Object.fromEntries(spec.inputs.map((i) => [i.name, i.default])), kind: 3 };
     const node = runCalculator(spec, inputs);
-    const xs = node.outputs.objectX!.value as number[], ys = node.outputs.objectY!.value as number[], qs = node.outputs.objectCharge!.value as number[];
+    const xs = node.outputs.objectX!.value as number[],
+      ys = node.outputs.objectY!.value as number[],
+      qs = node.outputs.objectCharge!.value as number[];
     expect(xs.length).toBeGreaterThan(3);
     const fmt = (v: number, d: number) => v.toFixed(d).replace("-", "−");
     const want = xs.map((x, k) => [String(k + 1), fmt(qs[k]!, 3), fmt(x * 1e9, 1), fmt(ys[k]! * 1e9, 1)]);
     await page.waitForFunction(([sel, count]) => document.querySelectorAll(`${sel} table.hx-objects tr`).length === count + 1, [root, xs.length] as const, { timeout: 60_000 });
-    const rows = await page.evaluate((sel) => Array.from(document.querySelectorAll(`${sel} table.hx-objects tr`)).slice(1).map((t) => Array.from(t.children).map((c) => c.textContent)), root);
+    const rows = await page.evaluate(
+      (sel) =>
+        Array.from(document.querySelectorAll(`${sel} table.hx-objects tr`))
+          .slice(1)
+          .map((t) => Array.from(t.children).map((c) => c.textContent)),
+      root,
+    );
     expect(rows).toEqual(want);
     const markers = await page.locator(`${root} [data-panel="charge"] .hx-object-marker`).count();
     expect(markers).toBe(xs.length);
     // Orientation check on a picture without mirror symmetry about the marker: the colour under each
     // marker's centre is the colour of the preview cell nearest to that object's (x_c, y_c).
-    const size = node.outputs.previewSize!.value as number, cell = node.outputs.previewCell!.value as number;
+    const size = node.outputs.previewSize!.value as number,
+      cell = node.outputs.previewCell!.value as number;
     const m = node.outputs.fieldPreview!.value as number[];
     const under = await page.evaluate((sel) => {
       const r = document.querySelector(sel)!;
       const c = r.querySelector(".hx-texture-canvas") as HTMLCanvasElement;
-      const box = c.getBoundingClientRect(), ctx = c.getContext("2d")!;
+      const box = c.getBoundingClientRect(),
+        ctx = c.getContext("2d")!;
       return Array.from(r.querySelectorAll('[data-panel="mz"] .hx-object-marker circle:first-child')).map((circle) => {
         const b = circle.getBoundingClientRect();
-        const x = Math.floor(b.left + b.width / 2 - box.left), y = Math.floor(b.top + b.height / 2 - box.top);
+        const x = Math.floor(b.left + b.width / 2 - box.left),
+          y = Math.floor(b.top + b.height / 2 - box.top);
         return Array.from(ctx.getImageData(x, y, 1, 1).data.slice(0, 3));
       });
     }, root);
     expect(under).toHaveLength(xs.length);
     let matched = 0;
     xs.forEach((x, k) => {
-      const i = Math.round(x / cell), j = Math.round(ys[k]! / cell);
+      const i = Math.round(x / cell),
+        j = Math.round(ys[k]! / cell);
       if (i >= size || j >= size) return;
       const want = mzColour(m[3 * (j * size + i) + 2]!);
       if (Math.max(...want.map((v, c) => Math.abs(v - under[k]![c]!))) <= 1) matched++;

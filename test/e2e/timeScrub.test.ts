@@ -22,7 +22,12 @@ beforeAll(async () => {
   nb.markdown("# A wall trace\n\nInvented film; values are estimates.");
   const spec = getCalculator("wall-trace");
   const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
-  nb.widget("ExplorerModel", { calculator: "wall-trace", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("wall-trace")');
+  nb.widget(
+    "ExplorerModel",
+    { calculator: "wall-trace", spec: null, inputs, sweep: null, result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+    {},
+    'explore("wall-trace")',
+  );
   const html = exportNotebook(nb.build(), { bundle, sourceName: "time-scrub-test.ipynb" });
   mkdirSync(join(outputDir, "export"), { recursive: true });
   const pagePath = join(outputDir, "export", "time-scrub-test.html");
@@ -83,7 +88,8 @@ describe("time traces: scrub and play", () => {
     // it ends at the trace's end and the button offers Play again
     await page.waitForFunction(
       (b) => (document.querySelector(`${b} .hx-scrub-range`) as HTMLInputElement).value === "1000" && document.querySelector(`${b} .hx-scrub-play`)!.textContent === "Play",
-      bar, { timeout: 20_000 },
+      bar,
+      { timeout: 20_000 },
     );
     const spec2 = getCalculator("wall-trace");
     const r = runCalculator(spec2, Object.fromEntries(spec2.inputs.map((i) => [i.name, i.default])));

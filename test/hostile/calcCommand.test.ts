@@ -18,8 +18,16 @@ function calcProcess(...args: string[]) {
 
 /** The same command in this process (same code path, no process start per case). */
 async function calc(...args: string[]) {
-  let stdout = "", stderr = "";
-  const status = await calcCommand(args, { stdout: (s) => { stdout += s; }, stderr: (s) => { stderr += s; } });
+  let stdout = "",
+    stderr = "";
+  const status = await calcCommand(args, {
+    stdout: (s) => {
+      stdout += s;
+    },
+    stderr: (s) => {
+      stderr += s;
+    },
+  });
   return { status, stdout, stderr };
 }
 
@@ -58,7 +66,10 @@ describe("helicoid calc refuses nonsense with one line (exit 2)", () => {
   }
 
   it("as a process: one line on stderr, no stack trace, for a refusal and for a budget refusal", () => {
-    for (const args of [["wall", "A=1e300", "--si"], ["texture", "kind=3", "a=1pm"]]) {
+    for (const args of [
+      ["wall", "A=1e300", "--si"],
+      ["texture", "kind=3", "a=1pm"],
+    ]) {
       const r = calcProcess(...args);
       expect(r.status, r.stderr).toBe(2);
       expect(r.stderr.trim().split("\n"), r.stderr).toHaveLength(1);

@@ -15,18 +15,12 @@
  */
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  catalogue, runCalculator, InputError, ConvergenceError, COMPUTE_BUDGET, type CalculatorSpec,
-} from "@helicoid/lib";
+import { catalogue, runCalculator, InputError, ConvergenceError, COMPUTE_BUDGET, type CalculatorSpec } from "@helicoid/lib";
 
 const hostileNumbers = [NaN, Infinity, -Infinity, 1e300, -1e300, 1e-300, -1e-300, 0, -0, -1, 1e9, 2 ** 53, -(2 ** 31), 2.5, 1e-9];
 const hostileStrings = ["abc", "", "  ", "1e309", "-1e309", "NaN", "Infinity", "5 kg", "3 s", "1e-400 m", "0x10", "1,5", "2e2e2", "12 pJ/m pJ"];
 
-const hostileValue = fc.oneof(
-  fc.constantFrom<number | string>(...hostileNumbers, ...hostileStrings),
-  fc.double({ noNaN: false }),
-  fc.integer({ min: -(2 ** 40), max: 2 ** 40 }),
-);
+const hostileValue = fc.oneof(fc.constantFrom<number | string>(...hostileNumbers, ...hostileStrings), fc.double({ noNaN: false }), fc.integer({ min: -(2 ** 40), max: 2 ** 40 }));
 
 /** Which inputs to spoil in one request: one to three of them, each with a hostile value. */
 function hostileRequest(spec: CalculatorSpec) {
@@ -59,8 +53,7 @@ function answerOf(spec: CalculatorSpec, raw: Record<string, number | string>): "
       const fine = (x: unknown) => typeof x === "number" && (Number.isFinite(x) || (gaps && Number.isNaN(x)));
       expect(v.every(fine), `${spec.id}.${name} for ${JSON.stringify(raw)}`).toBe(true);
       if (v.some((x) => Number.isNaN(x))) expect(result.status).toBe("warning");
-    }
-    else expect(typeof v).toBe("string");
+    } else expect(typeof v).toBe("string");
   }
   return "ok";
 }
@@ -82,7 +75,10 @@ describe("hostile inputs: every calculator answers with a refusal, a failure or 
     });
 
     it(`${spec.id}: random hostile requests (fast-check)`, () => {
-      fc.assert(fc.property(hostileRequest(spec), (raw) => void answerOf(spec, raw)), { numRuns: runsFor(spec.id), seed: 20261202 });
+      fc.assert(
+        fc.property(hostileRequest(spec), (raw) => void answerOf(spec, raw)),
+        { numRuns: runsFor(spec.id), seed: 20261202 },
+      );
     });
   }
 

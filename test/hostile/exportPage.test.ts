@@ -52,14 +52,23 @@ function hostileNotebook(): unknown {
   nb.code("png", [out({ "image/png": `iVBORw0KGgo=" onerror="${P(19)}" x="`, "text/plain": "png" })]);
   nb.code("jpeg", [out({ "image/jpeg": `"><script>${P(20)}</script>`, "text/plain": "jpeg" })]);
   const htmlId = nb.model("HTMLModel", "@jupyter-widgets/controls", "2.0.0", {
-    _model_name: "HTMLModel", _model_module: "@jupyter-widgets/controls", _model_module_version: "2.0.0",
-    _view_name: "HTMLView", _view_module: "@jupyter-widgets/controls", _view_module_version: "2.0.0",
-    value: `<img src="x" onerror="${P(21)}"><b class="html-widget">kept</b>`, description: "",
+    _model_name: "HTMLModel",
+    _model_module: "@jupyter-widgets/controls",
+    _model_module_version: "2.0.0",
+    _view_name: "HTMLView",
+    _view_module: "@jupyter-widgets/controls",
+    _view_module_version: "2.0.0",
+    value: `<img src="x" onerror="${P(21)}"><b class="html-widget">kept</b>`,
+    description: "",
   });
   nb.code("html widget", [nb.viewOutput(htmlId, "HTML()")]);
   const outputId = nb.model("OutputModel", "@jupyter-widgets/output", "1.0.0", {
-    _model_name: "OutputModel", _model_module: "@jupyter-widgets/output", _model_module_version: "1.0.0",
-    _view_name: "OutputView", _view_module: "@jupyter-widgets/output", _view_module_version: "1.0.0",
+    _model_name: "OutputModel",
+    _model_module: "@jupyter-widgets/output",
+    _model_module_version: "1.0.0",
+    _view_name: "OutputView",
+    _view_module: "@jupyter-widgets/output",
+    _view_module_version: "1.0.0",
     outputs: [
       out({ "text/html": `<img src="x" onerror="${P(22)}"><script>${P(22)}</script>`, "text/plain": "x" }),
       out({ "text/markdown": `width **5.5 nm** (invented) <img src=x onerror="${P(22)}">`, "text/plain": "width" }),
@@ -67,11 +76,21 @@ function hostileNotebook(): unknown {
   });
   nb.code("output widget", [nb.viewOutput(outputId, "Output()")]);
   // Helicoid's own outputs keep working: a table's HTML, a valid PNG, a catalogue explorer.
-  nb.code("table", [out({ "text/html": '<div class="helicoid-table"><table><thead><tr><th>quantity</th></tr></thead><tbody><tr><td title="m">w</td></tr></tbody></table></div>', "text/plain": "table" })]);
+  nb.code("table", [
+    out({
+      "text/html": '<div class="helicoid-table"><table><thead><tr><th>quantity</th></tr></thead><tbody><tr><td title="m">w</td></tr></tbody></table></div>',
+      "text/plain": "table",
+    }),
+  ]);
   nb.code("png", [out({ "image/png": "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8DwHwAFBQIAX8jx0gAAAABJRU5ErkJggg==", "text/plain": "png" })]);
   const spec = getCalculator("wall360");
   const inputs = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
-  nb.widget("ExplorerModel", { calculator: "wall360", spec: null, inputs, sweep: defaultSweep(spec, {}), result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" }, {}, 'explore("wall360")');
+  nb.widget(
+    "ExplorerModel",
+    { calculator: "wall360", spec: null, inputs, sweep: defaultSweep(spec, {}), result: null, error: "", compute_in: "browser", kernel_version: "0.1.0" },
+    {},
+    'explore("wall360")',
+  );
   return nb.build();
 }
 
@@ -136,16 +155,23 @@ describe("helicoid export of an untrusted notebook", () => {
     await page.waitForSelector(`${ex} .hx-plot[data-drawn]`, { timeout: 30_000 });
     const first = await page.evaluate((sel) => JSON.stringify((document.querySelector(`${sel} .hx-plot`) as unknown as { data: unknown[] }).data), ex);
     const name = await page.evaluate((sel) => (document.querySelector(`${sel} .hx-control input.hx-slider`)!.closest(".hx-control") as HTMLElement).dataset.input!, ex);
-    await page.evaluate(([sel, n]) => {
-      const s = document.querySelector(`${sel} .hx-control[data-input="${n}"] input.hx-slider`) as HTMLInputElement;
-      s.value = String(Number(s.value) > 500 ? 200 : 800);
-      s.dispatchEvent(new Event("input", { bubbles: true }));
-    }, [ex, name] as const);
-    await page.waitForFunction(([sel, before]) => {
-      const root = document.querySelector(sel) as HTMLElement;
-      const plot = root.querySelector(".hx-plot") as unknown as { data?: unknown[] } | null;
-      return root.dataset.busy === "" && !!plot?.data && JSON.stringify(plot.data) !== before;
-    }, [ex, first] as const, { timeout: 30_000 });
+    await page.evaluate(
+      ([sel, n]) => {
+        const s = document.querySelector(`${sel} .hx-control[data-input="${n}"] input.hx-slider`) as HTMLInputElement;
+        s.value = String(Number(s.value) > 500 ? 200 : 800);
+        s.dispatchEvent(new Event("input", { bubbles: true }));
+      },
+      [ex, name] as const,
+    );
+    await page.waitForFunction(
+      ([sel, before]) => {
+        const root = document.querySelector(sel) as HTMLElement;
+        const plot = root.querySelector(".hx-plot") as unknown as { data?: unknown[] } | null;
+        return root.dataset.busy === "" && !!plot?.data && JSON.stringify(plot.data) !== before;
+      },
+      [ex, first] as const,
+      { timeout: 30_000 },
+    );
     expect(await page.evaluate(() => ((window as unknown as { __pwned?: number[] }).__pwned ?? []).length)).toBe(0);
     await page.close();
   });

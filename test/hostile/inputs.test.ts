@@ -78,7 +78,11 @@ describe("large files end in a result or exit 2 with one line and the estimate",
     // Source: Q = -1 per skyrmion of the generator's lattice (four in this box).
     const f = skyrmionLatticeTexture({ nx: 64, ny: 64, dx: 1e-9 }, { a: 32e-9, R: 7e-9, w: 2e-9 });
     const rows = ["x (nm)\ty (nm)\tmx\tmy\tmz"];
-    for (let j = 0; j < 64; j++) for (let i = 0; i < 64; i++) { const c = 3 * (j * 64 + i); rows.push(`${i}\t${j}\t${f.m[c]}\t${f.m[c + 1]}\t${f.m[c + 2]}`); }
+    for (let j = 0; j < 64; j++)
+      for (let i = 0; i < 64; i++) {
+        const c = 3 * (j * 64 + i);
+        rows.push(`${i}\t${j}\t${f.m[c]}\t${f.m[c + 1]}\t${f.m[c + 2]}`);
+      }
     const p = join(dir, "lattice.tsv");
     writeFileSync(p, rows.join("\r\n") + "\r\n");
     const r = helicoid(["charge", p, "--json", "--boundary", "periodic"]);
@@ -89,7 +93,12 @@ describe("large files end in a result or exit 2 with one line and the estimate",
   it("a .npy in any byte order, width and memory order (written by numpy) gives the same charge, read in chunks", () => {
     // Source: Q = -1 per skyrmion of the generator's lattice (four in this box); numpy writes the files.
     const f = skyrmionLatticeTexture({ nx: 64, ny: 64, dx: 1e-9 }, { a: 32e-9, R: 7e-9, w: 2e-9 });
-    const variants = [["<f8", false], [">f8", true], [">f4", false], ["<f4", true]] as const;
+    const variants = [
+      ["<f8", false],
+      [">f8", true],
+      [">f4", false],
+      ["<f4", true],
+    ] as const;
     const files = runPython<string[]>(
       `import json, sys, numpy as np
 d = json.load(sys.stdin)
@@ -147,7 +156,10 @@ describe("fit CSVs: the file line of a bad cell, decimal numbers only, clear ans
     // Source: the data are m_z = -tanh((x - 75 nm)/5 nm) exactly, so the fit returns x0 = 75 nm, Delta = 5 nm.
     const n = 150_000;
     const order = Array.from({ length: n }, (_, i) => i);
-    for (let i = n - 1; i > 0; i--) { const j = (i * 7919 + 13) % (i + 1); [order[i], order[j]] = [order[j]!, order[i]!]; }
+    for (let i = n - 1; i > 0; i--) {
+      const j = (i * 7919 + 13) % (i + 1);
+      [order[i], order[j]] = [order[j]!, order[i]!];
+    }
     const f = join(dir, "unsorted.csv");
     writeFileSync(f, "x (nm),mz\n" + order.map((k) => `${k / 1000},${-Math.tanh((k / 1000 - 75) / 5)}\n`).join(""));
     const r = helicoid(["fit", f, "--model", "wall180-mz", "--json"]);
@@ -199,14 +211,21 @@ describe("strict options and short messages", () => {
 
 describe("whole answers", () => {
   it("--json to a pipe that is read late is complete (166 kB, not cut at 65,536 bytes)", () => {
-    const r = spawnSync("/bin/sh", ["-c", `"${process.execPath}" "${helicoidBin}" calc wall-fit R=90nm w=2nm points=2000 --json | (sleep 2; cat)`], { encoding: "utf8", maxBuffer: 1 << 26, timeout: 120_000 });
+    const r = spawnSync("/bin/sh", ["-c", `"${process.execPath}" "${helicoidBin}" calc wall-fit R=90nm w=2nm points=2000 --json | (sleep 2; cat)`], {
+      encoding: "utf8",
+      maxBuffer: 1 << 26,
+      timeout: 120_000,
+    });
     expect(r.stdout.length).toBeGreaterThan(65_536);
     expect(() => JSON.parse(r.stdout)).not.toThrow();
   });
 
   it("export of a notebook with a null output gives a page and no stack trace; a link to the input is refused", () => {
     const nb = join(dir, "null.ipynb");
-    writeFileSync(nb, JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", source: "1", metadata: {}, outputs: [null], execution_count: 1 }, null] }));
+    writeFileSync(
+      nb,
+      JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", source: "1", metadata: {}, outputs: [null], execution_count: 1 }, null] }),
+    );
     const before = sha(nb);
     const r = helicoid(["export", nb, "-o", join(dir, "null.html")]);
     expect(r.status).toBe(0);

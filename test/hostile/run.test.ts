@@ -28,7 +28,12 @@ function run(args: string[]) {
   return spawnSync(process.execPath, [helicoidBin, "run", ...args, "--quiet"], { encoding: "utf8", cwd: dir, timeout: 90_000 });
 }
 
-interface Out { output_type: string; ename?: string; evalue?: string; text?: string[] }
+interface Out {
+  output_type: string;
+  ename?: string;
+  evalue?: string;
+  text?: string[];
+}
 function outputsOf(path: string): Out[][] {
   const nb = JSON.parse(readFileSync(path, "utf8")) as { cells: Array<{ outputs?: Out[] }> };
   return nb.cells.map((c) => c.outputs ?? []);
@@ -36,7 +41,11 @@ function outputsOf(path: string): Out[][] {
 function runInfo(path: string): { status: string; cell: number; reason: string } | undefined {
   return (JSON.parse(readFileSync(path, "utf8")) as { metadata: { helicoid_run?: { status: string; cell: number; reason: string } } }).metadata.helicoid_run;
 }
-const oneLine = (s: string) => s.trim().split("\n").filter((l) => !/^partial output written/.test(l));
+const oneLine = (s: string) =>
+  s
+    .trim()
+    .split("\n")
+    .filter((l) => !/^partial output written/.test(l));
 
 describe("helicoid run keeps the work of a notebook that fails in hostile ways", () => {
   it.each([

@@ -203,15 +203,17 @@ describe("comm and widget protocol over ZeroMQ", () => {
     const children = readFileSync(`/proc/${pid}/task/${pid}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number);
     expect(children.length).toBeGreaterThanOrEqual(1);
     const inodes = new Set(
-      [pid, ...children].flatMap((p) =>
-        readdirSync(`/proc/${p}/fd`).map((fd) => {
-          try {
-            return /socket:\[(\d+)\]/.exec(readlinkSync(`/proc/${p}/fd/${fd}`))?.[1];
-          } catch {
-            return undefined;
-          }
-        }),
-      ).filter(Boolean),
+      [pid, ...children]
+        .flatMap((p) =>
+          readdirSync(`/proc/${p}/fd`).map((fd) => {
+            try {
+              return /socket:\[(\d+)\]/.exec(readlinkSync(`/proc/${p}/fd/${fd}`))?.[1];
+            } catch {
+              return undefined;
+            }
+          }),
+        )
+        .filter(Boolean),
     );
     const listening: string[] = [];
     for (const table of ["/proc/net/tcp", "/proc/net/tcp6"]) {
@@ -219,7 +221,14 @@ describe("comm and widget protocol over ZeroMQ", () => {
         const f = line.trim().split(/\s+/);
         if (f.length < 10 || f[3] !== "0A" || !inodes.has(f[9])) continue;
         const [hexIp, hexPort] = f[1]!.split(":");
-        const ip = hexIp!.length === 8 ? hexIp!.match(/../g)!.reverse().map((h) => parseInt(h, 16)).join(".") : `v6:${hexIp}`;
+        const ip =
+          hexIp!.length === 8
+            ? hexIp!
+                .match(/../g)!
+                .reverse()
+                .map((h) => parseInt(h, 16))
+                .join(".")
+            : `v6:${hexIp}`;
         listening.push(`${ip}:${parseInt(hexPort!, 16)}`);
       }
     }

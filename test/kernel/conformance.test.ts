@@ -104,7 +104,17 @@ describe("kernel conformance (jupyter_kernel_test)", () => {
     expect(summary!.skipped, log).toEqual([]);
     expect(summary!.failures + summary!.errors, log).toBe(0);
     expect(summary!.run, log).toBeGreaterThanOrEqual(13);
-    for (const t of ["test_comm_info", "test_execute_result", "test_display_data", "test_history", "test_pager", "test_is_complete", "test_inspect", "test_completion", "test_clear_output"]) {
+    for (const t of [
+      "test_comm_info",
+      "test_execute_result",
+      "test_display_data",
+      "test_history",
+      "test_pager",
+      "test_is_complete",
+      "test_inspect",
+      "test_completion",
+      "test_clear_output",
+    ]) {
       expect(log).toMatch(new RegExp(`${t} .* ok`));
     }
   });

@@ -140,7 +140,9 @@ describe("widget state from the front end is validated", () => {
 
   it("refuses a dropdown index outside its options and a text value that is not text", async () => {
     const from = k.client.iopubMessages.length;
-    await value('import { dropdown, textBox } from "@helicoid/kernel";\nconst dd = dropdown({ options: ["Bloch", "Neel", "mixed"], value: "Neel" });\nconst tb = textBox({ value: "film" });\n[dd.id, tb.id]');
+    await value(
+      'import { dropdown, textBox } from "@helicoid/kernel";\nconst dd = dropdown({ options: ["Bloch", "Neel", "mixed"], value: "Neel" });\nconst tb = textBox({ value: "film" });\n[dd.id, tb.id]',
+    );
     const opens = since(from, "comm_open");
     const ddId = opens.find((m) => m.content.data.state._model_name === "DropdownModel")!.content.comm_id;
     const tbId = opens.find((m) => m.content.data.state._model_name === "TextModel")!.content.comm_id;
@@ -165,7 +167,9 @@ describe("widget state from the front end is validated", () => {
       const msgs = await update(cid, {}, { buffer_paths: [path], buffers: [Buffer.from([1, 2, 3])] });
       expect(msgs.find((m) => m.header.msg_type === "error")?.content.evalue, JSON.stringify(path)).toMatch(/refused|not an attribute|does not lead/);
     }
-    expect(await value("[typeof Object.prototype.toString, String({}), 'polluted' in Object.prototype, ({} as any).x === undefined]")).toBe("[ 'function', '[object Object]', false, true ]");
+    expect(await value("[typeof Object.prototype.toString, String({}), 'polluted' in Object.prototype, ({} as any).x === undefined]")).toBe(
+      "[ 'function', '[object Object]', false, true ]",
+    );
     // A state key named __proto__ is refused as data, never applied as a prototype.
     await update(cid, JSON.parse('{"__proto__": {"polluted": 1}}'));
     expect(await value("[Object.getPrototypeOf(v.getState()) === Object.prototype, 'polluted' in ({} as any)]")).toBe("[ true, false ]");
@@ -334,7 +338,9 @@ describe("interrupting asynchronous work", () => {
 
 describe("errors thrown later by a cell", () => {
   it("are shown under the cell they came from, and the kernel lives on", async () => {
-    const { reply } = await k.client.execute('setTimeout(() => { throw new Error("late from a timer"); }, 30);\nPromise.reject(new Error("late rejection"));\nsetImmediate(() => { throw new RangeError("late immediate"); });\n1');
+    const { reply } = await k.client.execute(
+      'setTimeout(() => { throw new Error("late from a timer"); }, 30);\nPromise.reject(new Error("late rejection"));\nsetImmediate(() => { throw new RangeError("late immediate"); });\n1',
+    );
     expect(reply.content.status).toBe("ok");
     await sleep(600);
     const errs = k.client.iopubMessages.filter((m) => m.header.msg_type === "error" && m.parent_header.msg_id === reply.requestId);
@@ -363,7 +369,10 @@ describe("stream output", () => {
     const { reply, outputs } = await k.client.execute('for (let i = 0; i < 5000; i++) console.log("line " + i);\nconsole.error("done");\n"end"');
     expect(reply.content.status).toBe("ok");
     const streams = outputs.filter((m) => m.header.msg_type === "stream");
-    const out = streams.filter((m) => m.content.name === "stdout").map((m) => m.content.text).join("");
+    const out = streams
+      .filter((m) => m.content.name === "stdout")
+      .map((m) => m.content.text)
+      .join("");
     expect(out).toBe(Array.from({ length: 5000 }, (_, i) => `line ${i}\n`).join(""));
     expect(streams.length).toBeLessThan(10);
     // The order of messages is kept: stdout, then stderr, then the result.

@@ -28,8 +28,9 @@ function installedExtension(): string {
   return join(prefix, "share", "jupyter", "labextensions", "@helicoid", "widgets");
 }
 const ext = installedExtension();
-afterAll(() => { if (ext !== built) rmSync(join(ext, "..", "..", "..", "..", ".."), { recursive: true, force: true }); });
-
+afterAll(() => {
+  if (ext !== built) rmSync(join(ext, "..", "..", "..", "..", ".."), { recursive: true, force: true });
+});
 
 describe("prebuilt JupyterLab extension", () => {
   it("has the metadata and entry files JupyterLab 4 loads", () => {

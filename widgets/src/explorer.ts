@@ -166,10 +166,15 @@ export class ExplorerView extends DOMWidgetView {
       // a time trace (x in seconds) gets a scrubber: a time slider, Play, and the values at that time
       const xo = spec.outputs.find((o) => o.name === p.x);
       if (xo && xo.unit === "s") {
-        const scrub = new TimeScrubber(p, spec.outputs, () => this.model.get("result") as CalculatorResult | null, () => {
-          const r = this.model.get("result") as CalculatorResult | null;
-          if (r) void this.drawPlot(k, r);
-        });
+        const scrub = new TimeScrubber(
+          p,
+          spec.outputs,
+          () => this.model.get("result") as CalculatorResult | null,
+          () => {
+            const r = this.model.get("result") as CalculatorResult | null;
+            if (r) void this.drawPlot(k, r);
+          },
+        );
         this.scrubbers[k] = scrub;
         plots.append(scrub.el);
       }
@@ -202,8 +207,14 @@ export class ExplorerView extends DOMWidgetView {
     }
     this.updateStatus();
 
-    this.listenTo(this.model, "change:inputs", () => { this.syncControls(); if (this.local) this.recompute(); });
-    this.listenTo(this.model, "change:sweep", () => { this.syncControls(); if (this.local) this.recompute(); });
+    this.listenTo(this.model, "change:inputs", () => {
+      this.syncControls();
+      if (this.local) this.recompute();
+    });
+    this.listenTo(this.model, "change:sweep", () => {
+      this.syncControls();
+      if (this.local) this.recompute();
+    });
     this.listenTo(this.model, "change:result", () => this.renderResult());
     this.listenTo(this.model, "change:error", () => this.renderResult());
     this.listenTo(this.model, "change:kernel_version", () => this.updateNotice(resolved.note));
@@ -218,8 +229,10 @@ export class ExplorerView extends DOMWidgetView {
           if (!p.dataset.drawn || p.offsetParent === null) return;
           // A plot with swapped curves is redrawn by plotly first (its own data are older).
           const fig = this.stalePlots.get(k);
-          if (fig) { this.stalePlots.delete(k); void this.plotlyDraw(k, fig).then(() => Plotly.Plots.resize(p)); }
-          else void Plotly.Plots.resize(p);
+          if (fig) {
+            this.stalePlots.delete(k);
+            void this.plotlyDraw(k, fig).then(() => Plotly.Plots.resize(p));
+          } else void Plotly.Plots.resize(p);
         });
       });
       this.resizeObserver.observe(this.el);
@@ -306,7 +319,14 @@ export class ExplorerView extends DOMWidgetView {
         this.syncControls();
       };
       entry.addEventListener("change", commit);
-      entry.addEventListener("keydown", (e) => { if (e.key === "Enter") commit(); if (e.key === "Escape") { message.hidden = true; row.classList.remove("hx-refused"); this.syncControls(); } });
+      entry.addEventListener("keydown", (e) => {
+        if (e.key === "Enter") commit();
+        if (e.key === "Escape") {
+          message.hidden = true;
+          row.classList.remove("hx-refused");
+          this.syncControls();
+        }
+      });
       row.append(slider, entry);
     }
     row.append(message);
@@ -324,7 +344,11 @@ export class ExplorerView extends DOMWidgetView {
       this.sweepSelect.append(el("option", { value: NO_SWEEP, text: "no sweep" }));
       this.sweepSelect.addEventListener("change", () => {
         const over = this.sweepSelect!.value;
-        if (over === NO_SWEEP) { this.model.set("sweep", { over: NO_SWEEP, from: 0, to: 0, points: 0 }); this.touch(); return; }
+        if (over === NO_SWEEP) {
+          this.model.set("sweep", { over: NO_SWEEP, from: 0, to: 0, points: 0 });
+          this.touch();
+          return;
+        }
         const input = spec.inputs.find((i) => i.name === over)!;
         const points = this.sweepState()?.points ?? spec.sweep!.points;
         this.model.set("sweep", { over, from: input.min, to: input.max, points });
@@ -333,10 +357,17 @@ export class ExplorerView extends DOMWidgetView {
       label.append(this.sweepSelect);
       bar.append(label);
     }
-    const reset = el("button", { class: "hx-button hx-reset", text: "Reset", title: "Reset every input to the value the explorer was opened with (the calculator's default where none was given)" });
+    const reset = el("button", {
+      class: "hx-button hx-reset",
+      text: "Reset",
+      title: "Reset every input to the value the explorer was opened with (the calculator's default where none was given)",
+    });
     reset.addEventListener("click", () => {
       const defaults = Object.fromEntries(spec.inputs.map((i) => [i.name, i.default]));
-      for (const r of this.rows.values()) { r.message.hidden = true; r.row.classList.remove("hx-refused"); }
+      for (const r of this.rows.values()) {
+        r.message.hidden = true;
+        r.row.classList.remove("hx-refused");
+      }
       this.model.set("inputs", { ...defaults, ...(this.openedWith?.inputs ?? {}) });
       // Reset also forgets the kept axis ranges: every plot is refitted to its new data.
       this.plotState = [];
@@ -394,7 +425,9 @@ export class ExplorerView extends DOMWidgetView {
       if (r.select) r.select.value = String(v);
       if (r.entry && !r.row.classList.contains("hx-refused") && document.activeElement !== r.entry) {
         r.entry.value = entryText(r.input, v);
-        r.entry.title = swept ? `swept from ${entryText(r.input, sweep!.from)} to ${entryText(r.input, sweep!.to)} in the plots; this value is the marked point and the table's` : "";
+        r.entry.title = swept
+          ? `swept from ${entryText(r.input, sweep!.from)} to ${entryText(r.input, sweep!.to)} in the plots; this value is the marked point and the table's`
+          : "";
       }
       if (r.entry && document.activeElement === r.entry && !r.row.classList.contains("hx-refused")) {
         // keep what the person is typing
@@ -430,7 +463,9 @@ export class ExplorerView extends DOMWidgetView {
   private updateStatus(busy = false): void {
     const where = this.local
       ? `computed in this page (${this.coalescer?.where === "worker" ? "Web Worker" : "main thread"})`
-      : isStaticPage(this) ? "kernel function: needs the running kernel; showing its last state" : "computed by the kernel";
+      : isStaticPage(this)
+        ? "kernel function: needs the running kernel; showing its last state"
+        : "computed by the kernel";
     this.statusEl.textContent = busy ? `${where} · computing…` : where;
     this.statusEl.classList.toggle("hx-needs-kernel", !this.local);
     this.el.dataset.busy = busy ? "1" : "";
@@ -519,13 +554,31 @@ export class ExplorerView extends DOMWidgetView {
     if (fig.sweptRange && (!plot.xLog || fig.sweptRange[0] > 0)) xr = toAxis(fig.sweptRange);
     else if (plot.mode !== "markers") {
       let ext: [number, number] | null = null;
-      for (const t of fig.data) { const e = dataExtent(t.x as number[], !!plot.xLog); if (e) ext = ext ? [Math.min(ext[0], e[0]), Math.max(ext[1], e[1])] : e; }
+      for (const t of fig.data) {
+        const e = dataExtent(t.x as number[], !!plot.xLog);
+        if (e) ext = ext ? [Math.min(ext[0], e[0]), Math.max(ext[1], e[1])] : e;
+      }
       xr = ext && ext[1] > ext[0] ? ext : ext ? paddedRange(ext) : null;
-    } else xr = axis("xaxis", fig.data.map((t) => t.x as number[]), !!plot.xLog);
-    const yr = axis("yaxis", fig.data.map((t) => t.y as Array<number | null>), !!plot.yLog);
+    } else
+      xr = axis(
+        "xaxis",
+        fig.data.map((t) => t.x as number[]),
+        !!plot.xLog,
+      );
+    const yr = axis(
+      "yaxis",
+      fig.data.map((t) => t.y as Array<number | null>),
+      !!plot.yLog,
+    );
     const layout = fig.layout as { xaxis: Record<string, unknown>; yaxis: Record<string, unknown> };
-    if (xr) { layout.xaxis.range = xr; layout.xaxis.autorange = false; }
-    if (yr) { layout.yaxis.range = yr; layout.yaxis.autorange = false; }
+    if (xr) {
+      layout.xaxis.range = xr;
+      layout.xaxis.autorange = false;
+    }
+    if (yr) {
+      layout.yaxis.range = yr;
+      layout.yaxis.autorange = false;
+    }
     const sameX = !!prev && !!xr && !!prev.xaxis && prev.xaxis[0] === xr[0] && prev.xaxis[1] === xr[1];
     this.plotState[k] = { shape, xaxis: sameX ? prev!.xaxis : xr, yaxis: yr, swappable: same && sameX && prev!.yaxis === yr };
     return fig;
@@ -542,9 +595,7 @@ export class ExplorerView extends DOMWidgetView {
       Plotly.purge(target);
       delete target.dataset.drawn;
       this.stalePlots.delete(k);
-      const why = !this.effectiveSweep() && this.spec!.sweep?.over.length
-        ? "no sweep chosen: pick an input under Sweep to draw this plot"
-        : fig.problem;
+      const why = !this.effectiveSweep() && this.spec!.sweep?.over.length ? "no sweep chosen: pick an input under Sweep to draw this plot" : fig.problem;
       target.replaceChildren(el("div", { class: "hx-error hx-plot-message", text: `Plot '${plot.title}': ${why}` }));
       return Promise.resolve(false);
     }
@@ -576,7 +627,10 @@ export class ExplorerView extends DOMWidgetView {
 
   private exactRedraw(): void {
     this.exactTimer = null;
-    if (this.coalescer?.busy || this.pendingMark) { this.scheduleExactRedraw(); return; }
+    if (this.coalescer?.busy || this.pendingMark) {
+      this.scheduleExactRedraw();
+      return;
+    }
     const token = this.drawingToken;
     const jobs = [...this.stalePlots].map(([k, fig]) => this.plotlyDraw(k, fig));
     this.stalePlots.clear();
@@ -654,7 +708,9 @@ export class ExplorerView extends DOMWidgetView {
     try {
       performance.measure("hx-slider-to-plot", this.pendingMark, `${this.pendingMark}-first`);
       performance.measure("hx-result-to-plot", "hx-result-arrived", `${this.pendingMark}-first`);
-    } catch { /* marks cleared */ }
+    } catch {
+      /* marks cleared */
+    }
   }
 
   /** Every plot and the table show it: "hx-slider-to-all-plots". */
@@ -662,8 +718,15 @@ export class ExplorerView extends DOMWidgetView {
     if (!this.pendingMark) return;
     const start = this.pendingMark;
     this.pendingMark = null;
-    if (this.coalescer?.busy) { this.pendingMark = start; return; }
+    if (this.coalescer?.busy) {
+      this.pendingMark = start;
+      return;
+    }
     performance.mark(`${start}-done`);
-    try { performance.measure("hx-slider-to-all-plots", start, `${start}-done`); } catch { /* marks cleared */ }
+    try {
+      performance.measure("hx-slider-to-all-plots", start, `${start}-done`);
+    } catch {
+      /* marks cleared */
+    }
   }
 }

@@ -44,7 +44,9 @@ export class FigureView extends DOMWidgetView {
     this.listenTo(this.model, "change:figure", () => this.draw());
     this.draw();
     if (typeof ResizeObserver !== "undefined") {
-      this.observer = new ResizeObserver(() => { if (this.draws > 0 && this.plotEl.offsetParent !== null) Plotly.Plots.resize(this.plotEl); });
+      this.observer = new ResizeObserver(() => {
+        if (this.draws > 0 && this.plotEl.offsetParent !== null) Plotly.Plots.resize(this.plotEl);
+      });
       this.observer.observe(this.el);
     }
   }

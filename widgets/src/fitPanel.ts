@@ -33,9 +33,23 @@ export class FitPanelModel extends DOMWidgetModel {
       _view_module: MODULE_NAME,
       _view_module_version: MODULE_VERSION,
       title: "Fit",
-      x: [], y: [], y_err: null, model_x: null, model_y: null, residuals: null,
-      x_label: "x", y_label: "y", x_unit: "", y_unit: "",
-      parameters: [], status: "idle", progress: 0, message: "", iterations: 0, chi2: null, reduced_chi2: null,
+      x: [],
+      y: [],
+      y_err: null,
+      model_x: null,
+      model_y: null,
+      residuals: null,
+      x_label: "x",
+      y_label: "y",
+      x_unit: "",
+      y_unit: "",
+      parameters: [],
+      status: "idle",
+      progress: 0,
+      message: "",
+      iterations: 0,
+      chi2: null,
+      reduced_chi2: null,
     };
   }
 }
@@ -67,7 +81,9 @@ export class FitPanelView extends DOMWidgetView {
     this.plotEl = el("div", { class: "hx-fit-plot" });
     this.tableEl = el("div", { class: "hx-fit-table" });
     this.el.append(this.bar, this.statusEl, this.plotEl, this.tableEl);
-    const sync = () => { title.textContent = this.model.get("title") as string; };
+    const sync = () => {
+      title.textContent = this.model.get("title") as string;
+    };
     this.listenTo(this.model, "change:title", sync);
     this.listenTo(this.model, "change:status change:progress change:message change:iterations change:chi2 change:reduced_chi2", () => this.renderStatus());
     this.listenTo(this.model, "change:x change:y change:y_err change:model_x change:model_y change:residuals change:x_label change:y_label", () => this.renderPlot());
@@ -78,7 +94,9 @@ export class FitPanelView extends DOMWidgetView {
     this.renderTable();
     // Follow the cell's width (the first drawing may happen before the view is attached).
     if (typeof ResizeObserver !== "undefined") {
-      this.observer = new ResizeObserver(() => { if (this.plotEl.offsetParent !== null && this.plotEl.querySelector(".main-svg")) Plotly.Plots.resize(this.plotEl); });
+      this.observer = new ResizeObserver(() => {
+        if (this.plotEl.offsetParent !== null && this.plotEl.querySelector(".main-svg")) Plotly.Plots.resize(this.plotEl);
+      });
       this.observer.observe(this.el);
     }
   }
@@ -111,7 +129,8 @@ export class FitPanelView extends DOMWidgetView {
   }
 
   private renderPlot(): void {
-    const x = nums(this.model.get("x")), y = nums(this.model.get("y"));
+    const x = nums(this.model.get("x")),
+      y = nums(this.model.get("y"));
     const err = nums(this.model.get("y_err"));
     const mx = nums(this.model.get("model_x") ?? this.model.get("x"));
     const my = nums(this.model.get("model_y"));
@@ -127,13 +146,23 @@ export class FitPanelView extends DOMWidgetView {
     const [ru, rf] = scale(res, this.model.get("y_unit") as string);
     const sx = (a: number[]) => a.map((v) => v / xf);
     const data: Array<Record<string, unknown>> = [
-      { type: "scatter", mode: "markers", name: "data", x: sx(x), y: y.map((v) => v / yf), marker: { size: 5 }, ...(err.length === y.length && err.length ? { error_y: { type: "data", array: err.map((v) => v / yf), visible: true } } : {}) },
+      {
+        type: "scatter",
+        mode: "markers",
+        name: "data",
+        x: sx(x),
+        y: y.map((v) => v / yf),
+        marker: { size: 5 },
+        ...(err.length === y.length && err.length ? { error_y: { type: "data", array: err.map((v) => v / yf), visible: true } } : {}),
+      },
     ];
     if (my.length) data.push({ type: "scatter", mode: "lines", name: "model", x: sx(mx.length === my.length ? mx : x), y: my.map((v) => v / yf) });
     if (res.length) data.push({ type: "scatter", mode: "markers", name: "residuals", x: sx(x), y: res.map((v) => v / rf), xaxis: "x", yaxis: "y2", marker: { size: 4 } });
     const label = (name: string, unit: string) => `${name}${unit && unit !== "1" ? ` (${displayUnit(unit)})` : ""}`;
     const layout = {
-      height: 380, autosize: true, margin: { l: 60, r: 20, t: 20, b: 50 },
+      height: 380,
+      autosize: true,
+      margin: { l: 60, r: 20, t: 20, b: 50 },
       // One x axis at the bottom (under the residuals), shared by both panels.
       xaxis: { title: { text: label(this.model.get("x_label") as string, xu) }, anchor: "y2" },
       yaxis: { title: { text: label(this.model.get("y_label") as string, yu) }, domain: [0.34, 1], anchor: "x" },

@@ -9,8 +9,19 @@ export { Plotly };
 
 /** Trace types the cartesian bundle draws. */
 export const supportedTraceTypes = new Set([
-  "scatter", "scattergl", "bar", "box", "heatmap", "histogram", "histogram2d", "histogram2dcontour",
-  "contour", "pie", "image", "violin", "scatterternary",
+  "scatter",
+  "scattergl",
+  "bar",
+  "box",
+  "heatmap",
+  "histogram",
+  "histogram2d",
+  "histogram2dcontour",
+  "contour",
+  "pie",
+  "image",
+  "violin",
+  "scatterternary",
 ]);
 
 /** Names of trace types in `data` that this bundle cannot draw. */

@@ -85,11 +85,23 @@ export class TextureView extends DOMWidgetView {
       arrowsBox.checked = !!this.model.get("arrows");
       chargeBox.checked = this.model.get("overlay") === "charge";
     };
-    arrowsBox.addEventListener("change", () => { this.model.set("arrows", arrowsBox.checked); this.touch(); });
-    chargeBox.addEventListener("change", () => { this.model.set("overlay", chargeBox.checked ? "charge" : "none"); this.touch(); });
+    arrowsBox.addEventListener("change", () => {
+      this.model.set("arrows", arrowsBox.checked);
+      this.touch();
+    });
+    chargeBox.addEventListener("change", () => {
+      this.model.set("overlay", chargeBox.checked ? "charge" : "none");
+      this.touch();
+    });
     this.picture.mz.canvas.addEventListener("mousemove", (e) => this.hover(e));
-    this.listenTo(this.model, "change:field change:nx change:ny change:density", () => { this.density = null; this.draw(); });
-    this.listenTo(this.model, "change:arrows change:overlay change:display_size change:objects change:dx change:dy", () => { sync(); this.draw(); });
+    this.listenTo(this.model, "change:field change:nx change:ny change:density", () => {
+      this.density = null;
+      this.draw();
+    });
+    this.listenTo(this.model, "change:arrows change:overlay change:display_size change:objects change:dx change:dy", () => {
+      sync();
+      this.draw();
+    });
     this.listenTo(this.model, "change:title", sync);
     sync();
     this.draw();
@@ -97,16 +109,22 @@ export class TextureView extends DOMWidgetView {
 
   private legend(): HTMLElement {
     const legend = el("div", { class: "hx-legend" });
-    richText(legend,
+    richText(
+      legend,
       "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane direction, length ∝ |m_{xy}|; " +
-      "ρ_Q = q / (Δx Δy) per plaquette (Berg–Lüscher solid angles), green < 0 < purple, symmetric about 0; rings: found objects");
+        "ρ_Q = q / (Δx Δy) per plaquette (Berg–Lüscher solid angles), green < 0 < purple, symmetric about 0; rings: found objects",
+    );
     return legend;
   }
 
   private fieldOrNull(): { field: Float32Array; nx: number; ny: number } | null {
-    const nx = this.model.get("nx") as number, ny = this.model.get("ny") as number;
+    const nx = this.model.get("nx") as number,
+      ny = this.model.get("ny") as number;
     const field = asFloat32(this.model.get("field"));
-    if (!field || !(nx > 0) || !(ny > 0)) { this.fail("no field in the widget state"); return null; }
+    if (!field || !(nx > 0) || !(ny > 0)) {
+      this.fail("no field in the widget state");
+      return null;
+    }
     if (field.length !== 3 * nx * ny) {
       this.fail(`field has ${field.length} numbers; expected 3 * nx * ny = ${3 * nx * ny} (mx, my, mz interleaved, x fastest)`);
       return null;
@@ -126,11 +144,16 @@ export class TextureView extends DOMWidgetView {
     const f = this.fieldOrNull();
     if (!f) return;
     const { field, nx, ny } = f;
-    const dx = this.model.get("dx") as number, dy = this.model.get("dy") as number;
+    const dx = this.model.get("dx") as number,
+      dy = this.model.get("dy") as number;
     const given = asFloat32(this.model.get("density"));
     if (!this.density && given && given.length === (nx - 1) * (ny - 1)) this.density = given;
     const density = this.picture.draw({
-      field, nx, ny, dx, dy,
+      field,
+      nx,
+      ny,
+      dx,
+      dy,
       density: this.density,
       objects: (this.model.get("objects") as TextureObjects | null) ?? null,
       arrows: !!this.model.get("arrows"),
@@ -156,24 +179,34 @@ export class TextureView extends DOMWidgetView {
         this.picture.drawCharge(this.density);
         showTotal(this.density);
         performance.mark("hx-charge-end");
-        try { performance.measure("hx-texture-charge", "hx-charge-start", "hx-charge-end"); } catch { /* ignore */ }
+        try {
+          performance.measure("hx-texture-charge", "hx-charge-start", "hx-charge-end");
+        } catch {
+          /* ignore */
+        }
       }, 0);
     }
     performance.mark("hx-texture-end");
-    try { performance.measure("hx-texture-render", "hx-texture-start", "hx-texture-end"); } catch { /* ignore */ }
+    try {
+      performance.measure("hx-texture-render", "hx-texture-start", "hx-texture-end");
+    } catch {
+      /* ignore */
+    }
   }
 
   /** Hover readout: position and m of the cell under the pointer. */
   hover(e: MouseEvent): void {
     performance.mark("hx-hover-start");
-    const nx = this.model.get("nx") as number, ny = this.model.get("ny") as number;
+    const nx = this.model.get("nx") as number,
+      ny = this.model.get("ny") as number;
     const field = asFloat32(this.model.get("field"));
     if (!field || field.length !== 3 * nx * ny) return;
     const cell = this.picture.cellAt(e.clientX, e.clientY, nx, ny);
     if (!cell) return;
     const [i, j] = cell;
     const k = 3 * (j * nx + i);
-    const dx = this.model.get("dx") as number, dy = this.model.get("dy") as number;
+    const dx = this.model.get("dx") as number,
+      dy = this.model.get("dy") as number;
     const q = this.density && i < nx - 1 && j < ny - 1 ? this.density[j * (nx - 1) + i]! : NaN;
     this.readout.textContent =
       `cell (${i}, ${j})  x = ${formatQuantity(i * dx, "m")}, y = ${formatQuantity(j * dy, "m")}  ` +
@@ -181,6 +214,10 @@ export class TextureView extends DOMWidgetView {
       (Number.isFinite(q) ? `  q = ${q.toExponential(2)}` : "");
     this.readout.dataset.cell = `${i},${j}`;
     performance.mark("hx-hover-end");
-    try { performance.measure("hx-hover", "hx-hover-start", "hx-hover-end"); } catch { /* ignore */ }
+    try {
+      performance.measure("hx-hover", "hx-hover-start", "hx-hover-end");
+    } catch {
+      /* ignore */
+    }
   }
 }

@@ -11,7 +11,25 @@
  * calculator that has none), 1 when a computation failed; with --json the error is also a JSON
  * object on stdout: {"id", "status": "error", "error": {"type", "message", "parameter", "value", "expected"}}.
  */
-import { catalogue, coerceInputs, customaryUnit, formatQuantity, getCalculator, InputError, inUncertainForm, isPlainNumber, parseQuantity, runCalculator, ConvergenceError, loadFilm, filmInputsFor, MC_MAX_SAMPLES, type CalculatorSpec, type ComputeOptions, type UncertaintyOptions } from "@helicoid/lib";
+import {
+  catalogue,
+  coerceInputs,
+  customaryUnit,
+  formatQuantity,
+  getCalculator,
+  InputError,
+  inUncertainForm,
+  isPlainNumber,
+  parseQuantity,
+  runCalculator,
+  ConvergenceError,
+  loadFilm,
+  filmInputsFor,
+  MC_MAX_SAMPLES,
+  type CalculatorSpec,
+  type ComputeOptions,
+  type UncertaintyOptions,
+} from "@helicoid/lib";
 import { groupedRows, textRows } from "../display/table.js";
 import { saveFigure } from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
@@ -21,7 +39,7 @@ export const calcUsage = [
   "       helicoid calc --list [--json]",
   "       helicoid calc ID --help      what ID computes: its inputs (unit, default, range, meaning) and outputs",
   "  name=value            an input of the calculator with its unit (A=15pJ/m, B=50mT); each at most once;",
-  "                        with a standard uncertainty: A=15+-1pJ/m or A=\"15 ± 1 pJ/m\"",
+  '                        with a standard uncertainty: A=15+-1pJ/m or A="15 ± 1 pJ/m"',
   "                        a film calculator needs the film: Ms, A, Ku, D and t (those it takes) are required,",
   "                        as name=value or from --film FILE",
   "  --film FILE           inputs from a film file (JSON: name, notes, values with units and optional",
@@ -35,14 +53,14 @@ export const calcUsage = [
   "                        material); the result says which values were filled in",
   "  --sweep NAME=FROM:TO:POINTS   sweep a sweepable input (B=0mT:200mT:200); --list shows which",
   "  --plot FILE.svg|.png  write the calculator's first plot (one journal column, 8.5 cm wide)",
-  "  --json                SI JSON on stdout (on an error too: {id, status: \"error\", error})",
+  '  --json                SI JSON on stdout (on an error too: {id, status: "error", error})',
   "  --progress            progress of long computations on stderr (drawn in place on a terminal, where it is",
   "                        on by default; as lines otherwise); stdout and --json are unaffected",
   "  --list                the calculators with their inputs and outputs",
   "Outputs computed from uncertain inputs print as value ± uncertainty (one standard deviation, two",
   "significant digits); --json gives outputs.NAME.uncertainty (SI) and the method and flags under",
-  "\"uncertainty\". An output whose uncertainty is not trustworthy (nonlinear within the uncertainty,",
-  "or no state at some input within it) is flagged in a note and the status is \"warning\".",
+  '"uncertainty". An output whose uncertainty is not trustworthy (nonlinear within the uncertainty,',
+  'or no state at some input within it) is flagged in a note and the status is "warning".',
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
   "Examples:",
   "  helicoid calc wall A=15pJ/m Ku=0.8MJ/m^3 D=1.5mJ/m^2",
@@ -51,7 +69,16 @@ export const calcUsage = [
   "  helicoid calc skyrmion --help",
 ].join("\n");
 
-const OPTIONS = { flags: ["--json", "--list", "--help", "-h", "--progress", "--si", "--demo"], valued: { "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200", "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg", "--film": "a film file (JSON), such as my-film.json", "--monte-carlo": "a number of draws, such as 400", "--seed": "a whole number, such as 7" } };
+const OPTIONS = {
+  flags: ["--json", "--list", "--help", "-h", "--progress", "--si", "--demo"],
+  valued: {
+    "--sweep": "NAME=FROM:TO:POINTS, such as B=0mT:200mT:200",
+    "--plot": "a file name ending in .svg or .png, such as r-vs-b.svg",
+    "--film": "a film file (JSON), such as my-film.json",
+    "--monte-carlo": "a number of draws, such as 400",
+    "--seed": "a whole number, such as 7",
+  },
+};
 
 export async function calcCommand(args: string[], io: CommandIO): Promise<number> {
   const json = args.includes("--json");
@@ -79,7 +106,11 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       sweep: s.sweep ?? null,
     }));
     if (json) io.stdout(JSON.stringify(list, null, 2) + "\n");
-    else for (const s of list) io.stdout(`${s.id.padEnd(18)} ${s.title}\n${"".padEnd(19)}inputs: ${s.inputs.map((i) => `${i.name} [${i.unit || "-"}]`).join(", ")}${s.sweep?.over.length ? `; sweepable: ${s.sweep.over.join(", ")}` : ""}\n`);
+    else
+      for (const s of list)
+        io.stdout(
+          `${s.id.padEnd(18)} ${s.title}\n${"".padEnd(19)}inputs: ${s.inputs.map((i) => `${i.name} [${i.unit || "-"}]`).join(", ")}${s.sweep?.over.length ? `; sweepable: ${s.sweep.over.join(", ")}` : ""}\n`,
+        );
     return 0;
   }
   if (a.flags.has("--help") || a.flags.has("-h")) {
@@ -177,10 +208,17 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     const defaults = spec.inputs.map((i) => i.name).filter((n) => given[n] === undefined && options.sweep?.over !== n);
     if (missing.length) {
       result.status = "warning";
-      result.notes.unshift(`demo values (--demo): ${missing.map((n) => `${n} = ${showInput(spec, n, result.inputs[n]!.value)}`).join(", ")} are the invented demo film's, not a real material's`);
+      result.notes.unshift(
+        `demo values (--demo): ${missing.map((n) => `${n} = ${showInput(spec, n, result.inputs[n]!.value)}`).join(", ")} are the invented demo film's, not a real material's`,
+      );
     }
     if (plotPath !== undefined) {
-      try { await saveFigure(result, plotPath); } catch (err) { if (err instanceof InputError) throw err; return fail(err as Error, 1); }
+      try {
+        await saveFigure(result, plotPath);
+      } catch (err) {
+        if (err instanceof InputError) throw err;
+        return fail(err as Error, 1);
+      }
       io.stderr(`helicoid calc: wrote ${plotPath} (${spec.plots[0]!.title})\n`);
     }
     if (json) io.stdout(JSON.stringify({ ...result, defaults, demo: missing }) + "\n");
@@ -252,9 +290,13 @@ function refuseBareNumber(spec: CalculatorSpec, name: string, value: string, par
   if (!input || !input.unit || input.kind === "choice" || input.kind === "integer" || !isPlainNumber(value)) return;
   if (Number(value) === 0) return; // zero is zero in every unit
   const v = Number(value);
-  const hint = input.unit === "rad" ? `${value}deg or ${value}rad` : `${typed(Number.isFinite(v) && v !== 0 ? v * customaryUnit(input.default || input.max, input.unit)[1] : input.default, input.unit)}`;
+  const hint =
+    input.unit === "rad"
+      ? `${value}deg or ${value}rad`
+      : `${typed(Number.isFinite(v) && v !== 0 ? v * customaryUnit(input.default || input.max, input.unit)[1] : input.default, input.unit)}`;
   throw new InputError(
-    parameter, parameter === name ? value : `${name}: ${value}`,
+    parameter,
+    parameter === name ? value : `${name}: ${value}`,
     `a value with its unit (such as ${name}=${hint})`,
     `A bare number is refused for a quantity with a unit; add --si to read bare numbers in SI (${value} ${input.unit})`,
   );
@@ -267,7 +309,8 @@ function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   const lines = [`${spec.id}: ${spec.title}`, "", spec.summary, "", "inputs (name=value with a unit; defaults in brackets):"];
   if (film.length) lines.push(`  required: the film's ${film.join(", ")} (or --demo: the invented demo film's values, in brackets as "demo")`);
   for (const i of spec.inputs) {
-    const range = i.kind === "choice" && i.choices ? `one of ${i.choices.map((c) => `${c.value} (${c.label})`).join(", ")}` : `usual range ${q(i.min, i.unit)} to ${q(i.max, i.unit)}`;
+    const range =
+      i.kind === "choice" && i.choices ? `one of ${i.choices.map((c) => `${c.value} (${c.label})`).join(", ")}` : `usual range ${q(i.min, i.unit)} to ${q(i.max, i.unit)}`;
     lines.push(`  ${i.name.padEnd(12)} [${film.includes(i.name) ? "demo " : ""}${q(i.default, i.unit)}]  ${i.meaning}; ${range}`);
   }
   lines.push("", "outputs:");

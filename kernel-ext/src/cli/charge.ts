@@ -15,8 +15,19 @@
  * `helicoid calc --json`'s: {"id": "charge", "file", "status": "error", "error": {"type", "message", ...}}.
  */
 import {
-  BOUNDARIES, ConvergenceError, InputError, LATTICE_Q_SOURCES, OBJECT_DEFINITIONS, continuumSkyrmionNumber, findBlochPoints,
-  findObjects, findVortices, parseQuantity, skyrmionNumber, type Boundary, type VectorField,
+  BOUNDARIES,
+  ConvergenceError,
+  InputError,
+  LATTICE_Q_SOURCES,
+  OBJECT_DEFINITIONS,
+  continuumSkyrmionNumber,
+  findBlochPoints,
+  findObjects,
+  findVortices,
+  parseQuantity,
+  skyrmionNumber,
+  type Boundary,
+  type VectorField,
 } from "@helicoid/lib";
 import { readVectorFieldFile } from "../io/readFieldFile.js";
 import { errorJson, fileReason, inputFileReason, isFileSystemError, parseStrict, UsageError, type CommandIO } from "./args.js";
@@ -63,7 +74,9 @@ function cellOptions(o: Map<string, string>): { dx?: number; dy?: number; dz?: n
   const given = (["dx", "dy", "dz"] as const).filter((k) => o.has(`--${k}`));
   if (cell === undefined && given.length > 0 && given.length < 3) {
     const missing = (["dx", "dy", "dz"] as const).filter((k) => !o.has(`--${k}`)).map((k) => `--${k}`);
-    throw new UsageError(`${given.map((k) => `--${k}`).join(" and ")} without ${missing.join(" and ")}: give ${missing.join(" and ")} too, or --cell LEN (with --dx/--dy/--dz to override single edges)`);
+    throw new UsageError(
+      `${given.map((k) => `--${k}`).join(" and ")} without ${missing.join(" and ")}: give ${missing.join(" and ")} too, or --cell LEN (with --dx/--dy/--dz to override single edges)`,
+    );
   }
   for (const k of given) out[k] = length(`--${k}`, o.get(`--${k}`)!);
   return out;
@@ -100,13 +113,15 @@ export async function chargeCommand(args: string[], io: CommandIO): Promise<numb
     if (mode !== "cores" && mode !== "density") throw new InputError("--mode", mode, '"cores" or "density"');
     const layerArg = a.options.get("--layer");
     const layer = layerArg === undefined ? 0 : Number(layerArg);
-    if (layerArg !== undefined && (!/^\d+$/.test(layerArg.trim()) || !Number.isInteger(layer))) throw new InputError("--layer", layerArg, "a whole number from 0 (the first layer)");
+    if (layerArg !== undefined && (!/^\d+$/.test(layerArg.trim()) || !Number.isInteger(layer)))
+      throw new InputError("--layer", layerArg, "a whole number from 0 (the first layer)");
     const problem = inputFileReason(file);
     if (problem !== null) throw new InputError("file", file, "an existing, readable vector field file", problem);
     const { field, info } = readVectorFieldFile(file, readOpts);
     const notes = info.notes.map(commandLineNote);
     const boundary = (bArg ?? info.boundary ?? "open") as Boundary;
-    if (layer >= field.nz) throw new InputError("--layer", layerArg, field.nz === 1 ? "0: the field has one layer" : `a whole number from 0 to ${field.nz - 1} (the field has ${field.nz} layers)`);
+    if (layer >= field.nz)
+      throw new InputError("--layer", layerArg, field.nz === 1 ? "0: the field has one layer" : `a whole number from 0 to ${field.nz - 1} (the field has ${field.nz} layers)`);
     const report = analyse(field, boundary, layer, mode);
     const assumptions = [
       "|m| = 1 (vectors normalized on reading); zero, tiny or NaN vectors are vacuum",
@@ -155,8 +170,14 @@ function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "c
     if (field.nz > 1) layers.push({ layer: k, skyrmionNumber: o.Q });
     for (const ob of o.objects) {
       const entry: Record<string, unknown> = {
-        charge: ob.charge, center: ob.center, radius: ob.radius, helicity: ob.helicity, vorticity: ob.vorticity,
-        kind: ob.kind, area: ob.area, corePolarity: ob.corePolarity,
+        charge: ob.charge,
+        center: ob.center,
+        radius: ob.radius,
+        helicity: ob.helicity,
+        vorticity: ob.vorticity,
+        kind: ob.kind,
+        area: ob.area,
+        corePolarity: ob.corePolarity,
       };
       if (field.nz > 1) entry.layer = k;
       if (ob.note) entry.note = ob.note;
@@ -202,9 +223,13 @@ function summary(r: Record<string, unknown>): string {
   const objs = r.objects as Array<{ kind: string; charge: number; center: number[]; radius: number; vorticity: number | null; helicity: number | null; layer?: number }>;
   lines.push(`objects: ${objs.length}`);
   if (objs.length > 0) {
-    lines.push(`  ${"#".padStart(3)}  ${"kind".padEnd(22)} ${"charge".padStart(8)}  ${"centre (nm)".padEnd(20)} ${"radius (nm)".padStart(11)} ${"vorticity".padStart(9)} ${"helicity (deg)".padStart(14)}`);
+    lines.push(
+      `  ${"#".padStart(3)}  ${"kind".padEnd(22)} ${"charge".padStart(8)}  ${"centre (nm)".padEnd(20)} ${"radius (nm)".padStart(11)} ${"vorticity".padStart(9)} ${"helicity (deg)".padStart(14)}`,
+    );
     objs.slice(0, 50).forEach((o, k) => {
-      lines.push(`  ${String(k).padStart(3)}  ${(o.kind + (o.layer !== undefined ? ` (layer ${o.layer})` : "")).padEnd(22)} ${o.charge.toFixed(3).padStart(8)}  ${`(${nm(o.center[0]!)}, ${nm(o.center[1]!)})`.padEnd(20)} ${nm(o.radius).padStart(11)} ${String(o.vorticity ?? "-").padStart(9)} ${deg(o.helicity).padStart(14)}`);
+      lines.push(
+        `  ${String(k).padStart(3)}  ${(o.kind + (o.layer !== undefined ? ` (layer ${o.layer})` : "")).padEnd(22)} ${o.charge.toFixed(3).padStart(8)}  ${`(${nm(o.center[0]!)}, ${nm(o.center[1]!)})`.padEnd(20)} ${nm(o.radius).padStart(11)} ${String(o.vorticity ?? "-").padStart(9)} ${deg(o.helicity).padStart(14)}`,
+      );
     });
     if (objs.length > 50) lines.push(`  ... ${objs.length - 50} more (use --json)`);
   }

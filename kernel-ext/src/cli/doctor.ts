@@ -14,16 +14,7 @@ import { join } from "node:path";
 import { KERNEL_VERSION } from "../version.js";
 import { parseStrict, UsageError, type CommandIO } from "./args.js";
 import { binPath, KERNEL_NAME, LAB_EXTENSION_NAME, labExtensionSource } from "./install.js";
-import {
-  findLabExtensions,
-  JUPYTERLAB_MAJOR,
-  jupyterCommand,
-  jupyterDataDirs,
-  jupyterVersions,
-  majorOf,
-  WIDGET_MANAGER,
-  widgetManagerProblem,
-} from "./jupyterEnv.js";
+import { findLabExtensions, JUPYTERLAB_MAJOR, jupyterCommand, jupyterDataDirs, jupyterVersions, majorOf, WIDGET_MANAGER, widgetManagerProblem } from "./jupyterEnv.js";
 
 export type Status = "ok" | "warning" | "problem";
 
@@ -110,8 +101,11 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
   const v = (k: string) => versions[k] ?? null;
   if (!jupyter) {
     checks.push({
-      name: "jupyter", status: "warning", found: "no `jupyter` command on PATH",
-      advice: "Helicoid runs and exports notebooks without Jupyter (`helicoid run`, `helicoid export`, `helicoid start`). For live notebooks install JupyterLab 4 (`pipx install jupyterlab` or `pip install jupyterlab`), then run `npx helicoid install`.",
+      name: "jupyter",
+      status: "warning",
+      found: "no `jupyter` command on PATH",
+      advice:
+        "Helicoid runs and exports notebooks without Jupyter (`helicoid run`, `helicoid export`, `helicoid start`). For live notebooks install JupyterLab 4 (`pipx install jupyterlab` or `pip install jupyterlab`), then run `npx helicoid install`.",
     });
   } else {
     const list = ["jupyter_server", "jupyterlab", "notebook", "nbconvert", "jupyter_client", "ipywidgets"].map((k) => `${k} ${v(k) ?? "not installed"}`).join(", ");
@@ -125,12 +119,23 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
     const labOk = majorOf(lab) === JUPYTERLAB_MAJOR;
     const nb7 = (majorOf(nb) ?? 0) >= 7;
     if (labOk || nb7) {
-      checks.push({ name: "front end", status: "ok", found: [labOk ? `JupyterLab ${lab}` : "", nb7 ? `Notebook ${nb}` : ""].filter(Boolean).join(" and ") + " (shows Helicoid's widgets)", advice: "" });
-    } else {
-      const what = [lab ? `JupyterLab ${lab} (Helicoid's extension is built for ${JUPYTERLAB_MAJOR}.x)` : "", nb ? `classic Notebook ${nb}, which renders no Helicoid widget` : ""].filter(Boolean).join("; ") || "no JupyterLab and no Notebook";
       checks.push({
-        name: "front end", status: "warning", found: what,
-        advice: "Use JupyterLab 4 or Notebook 7 for live widgets (`pipx install jupyterlab`); meanwhile `helicoid run` + `helicoid export` give pages whose catalogue explorers stay live.",
+        name: "front end",
+        status: "ok",
+        found: [labOk ? `JupyterLab ${lab}` : "", nb7 ? `Notebook ${nb}` : ""].filter(Boolean).join(" and ") + " (shows Helicoid's widgets)",
+        advice: "",
+      });
+    } else {
+      const what =
+        [lab ? `JupyterLab ${lab} (Helicoid's extension is built for ${JUPYTERLAB_MAJOR}.x)` : "", nb ? `classic Notebook ${nb}, which renders no Helicoid widget` : ""]
+          .filter(Boolean)
+          .join("; ") || "no JupyterLab and no Notebook";
+      checks.push({
+        name: "front end",
+        status: "warning",
+        found: what,
+        advice:
+          "Use JupyterLab 4 or Notebook 7 for live widgets (`pipx install jupyterlab`); meanwhile `helicoid run` + `helicoid export` give pages whose catalogue explorers stay live.",
       });
     }
   }
@@ -147,15 +152,32 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
     const argv = first.spec.argv;
     const missing = [argv[0], argv[1]].filter((p): p is string => !!p && !existsSync(p));
     if (missing.length > 0) {
-      checks.push({ name: "kernelspec", status: "problem", found: `${first.dir}: its command points at ${missing.join(" and ")}, which does not exist (moved or uninstalled Helicoid or Node)`, advice: INSTALL });
+      checks.push({
+        name: "kernelspec",
+        status: "problem",
+        found: `${first.dir}: its command points at ${missing.join(" and ")}, which does not exist (moved or uninstalled Helicoid or Node)`,
+        advice: INSTALL,
+      });
     } else {
       kernelArgv = argv;
       const here = realOr(argv[1]!) === realOr(binPath);
       const ver = first.spec.metadata?.helicoid_version;
-      const notes = [here ? "this install" : `another install (${argv[1]}; this one is ${binPath})`, ver && ver !== KERNEL_VERSION ? `written by Helicoid ${ver}, this is ${KERNEL_VERSION}` : ""].filter(Boolean).join("; ");
-      const shadowed = specs.length > 1 ? `; also in ${specs.slice(1).map((s) => s.dir).join(", ")} (not used: Jupyter takes the first)` : "";
+      const notes = [
+        here ? "this install" : `another install (${argv[1]}; this one is ${binPath})`,
+        ver && ver !== KERNEL_VERSION ? `written by Helicoid ${ver}, this is ${KERNEL_VERSION}` : "",
+      ]
+        .filter(Boolean)
+        .join("; ");
+      const shadowed =
+        specs.length > 1
+          ? `; also in ${specs
+              .slice(1)
+              .map((s) => s.dir)
+              .join(", ")} (not used: Jupyter takes the first)`
+          : "";
       checks.push({
-        name: "kernelspec", status: here && (!ver || ver === KERNEL_VERSION) ? "ok" : "warning",
+        name: "kernelspec",
+        status: here && (!ver || ver === KERNEL_VERSION) ? "ok" : "warning",
         found: `${first.dir} runs ${argv[0]} ${argv[1]} (${notes})${shadowed}`,
         advice: here ? "" : `to use this install, ${INSTALL}`,
       });
@@ -163,20 +185,31 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
   }
   if (opts.startKernel && kernelArgv) {
     const r = await tryKernel(kernelArgv);
-    checks.push({ name: "kernel", status: r.ok ? "ok" : "problem", found: r.text, advice: r.ok ? "" : "run `helicoid kernel --connection-file FILE` by hand to see its error, or reinstall" });
+    checks.push({
+      name: "kernel",
+      status: r.ok ? "ok" : "problem",
+      found: r.text,
+      advice: r.ok ? "" : "run `helicoid kernel --connection-file FILE` by hand to see its error, or reinstall",
+    });
   }
 
   // Our extension and the widget manager
   const ours = findLabExtensions(LAB_EXTENSION_NAME, data.dirs);
   if (ours.length === 0) {
-    checks.push({ name: "extension", status: "problem", found: `Helicoid's JupyterLab extension (${LAB_EXTENSION_NAME}) is in none of ${data.dirs.map((d) => join(d, "labextensions")).join(", ")}`, advice: INSTALL });
+    checks.push({
+      name: "extension",
+      status: "problem",
+      found: `Helicoid's JupyterLab extension (${LAB_EXTENSION_NAME}) is in none of ${data.dirs.map((d) => join(d, "labextensions")).join(", ")}`,
+      advice: INSTALL,
+    });
   } else if (!ours[0]!.loadable) {
     checks.push({ name: "extension", status: "problem", found: `${ours[0]!.dir} has no built remoteEntry`, advice: INSTALL });
   } else {
     const shipped = shippedExtensionVersion();
     const stale = shipped !== null && ours[0]!.version !== shipped;
     checks.push({
-      name: "extension", status: stale ? "warning" : "ok",
+      name: "extension",
+      status: stale ? "warning" : "ok",
       found: `${LAB_EXTENSION_NAME} ${ours[0]!.version} in ${ours[0]!.dir}${stale ? ` (this install ships ${shipped})` : ""}`,
       advice: stale ? INSTALL : "",
     });
@@ -185,7 +218,8 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
   const used = managers[0];
   if (!used) {
     checks.push({
-      name: "widget manager", status: "problem",
+      name: "widget manager",
+      status: "problem",
       found: `no widget manager (${WIDGET_MANAGER}, from jupyterlab_widgets) in any labextensions folder: JupyterLab cannot load Helicoid's extension ("Shared module @jupyter-widgets/base doesn't exist in shared scope") and shows every widget as text`,
       advice: "run `npx helicoid install` (it installs the prebuilt one Helicoid ships), or `pip install jupyterlab_widgets` in your JupyterLab's Python",
     });
@@ -193,8 +227,11 @@ export async function diagnose(opts: { prefix?: string; startKernel?: boolean } 
     const problem = widgetManagerProblem(used);
     const byUs = existsSync(join(used.dir, "installed-by-helicoid.json"));
     checks.push({
-      name: "widget manager", status: problem ? "problem" : "ok",
-      found: problem ? `the widget manager Jupyter uses is not compatible: ${problem}` : `${WIDGET_MANAGER} ${used.version} in ${used.dir}${byUs ? " (installed by helicoid install)" : ""}`,
+      name: "widget manager",
+      status: problem ? "problem" : "ok",
+      found: problem
+        ? `the widget manager Jupyter uses is not compatible: ${problem}`
+        : `${WIDGET_MANAGER} ${used.version} in ${used.dir}${byUs ? " (installed by helicoid install)" : ""}`,
       advice: problem ? "`pip install -U jupyterlab_widgets` (ipywidgets 8), or remove it and run `npx helicoid install`" : "",
     });
   }
@@ -215,7 +252,12 @@ export function formatReport(r: DoctorReport): string {
     lines.push(`${mark[c.status]}  ${c.name}: ${c.found}`);
     if (c.advice) lines.push(`         what to do: ${c.advice}`);
   }
-  lines.push("", r.problems === 0 ? `no problems${r.warnings ? ` (${r.warnings} warning${r.warnings > 1 ? "s" : ""})` : ""}` : `${r.problems} problem${r.problems > 1 ? "s" : ""}, ${r.warnings} warning${r.warnings === 1 ? "" : "s"}`);
+  lines.push(
+    "",
+    r.problems === 0
+      ? `no problems${r.warnings ? ` (${r.warnings} warning${r.warnings > 1 ? "s" : ""})` : ""}`
+      : `${r.problems} problem${r.problems > 1 ? "s" : ""}, ${r.warnings} warning${r.warnings === 1 ? "" : "s"}`,
+  );
   return lines.join("\n") + "\n";
 }
 

@@ -14,7 +14,18 @@
 import { readFileSync, statSync } from "node:fs";
 import { seriesUsage, fitSeriesCommand } from "./fitSeries.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
-import { readProfileCsv, fitProfile, profileModels, getProfileModel, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError } from "@helicoid/lib";
+import {
+  readProfileCsv,
+  fitProfile,
+  profileModels,
+  getProfileModel,
+  parseQuantity,
+  formatQuantity,
+  formatWithError,
+  isPlainNumber,
+  InputError,
+  ConvergenceError,
+} from "@helicoid/lib";
 
 export interface FitIo {
   stdout: (s: string) => void;
@@ -50,7 +61,12 @@ export const PROFILE_FILE_LIMIT = 256e6;
 export function readProfileText(file: string): string {
   const size = statSync(file).size;
   if (size > PROFILE_FILE_LIMIT) {
-    throw new InputError("FILE", file, `a profile CSV of at most ${PROFILE_FILE_LIMIT / 1e6} MB`, `This file has ${(size / 1e6).toFixed(0)} MB; reading it as text would need about ${((6 * size) / 1e9).toFixed(1)} GB of memory (budget 2 GB)`);
+    throw new InputError(
+      "FILE",
+      file,
+      `a profile CSV of at most ${PROFILE_FILE_LIMIT / 1e6} MB`,
+      `This file has ${(size / 1e6).toFixed(0)} MB; reading it as text would need about ${((6 * size) / 1e9).toFixed(1)} GB of memory (budget 2 GB)`,
+    );
   }
   return readFileSync(file, "utf8");
 }
@@ -58,8 +74,13 @@ export function readProfileText(file: string): string {
 const FIT_OPTIONS: StrictSpec = {
   flags: ["--json", "--list", "--drop-nan", "--profile", "--help", "-h"],
   valued: {
-    "--model": "a model id (helicoid fit --list)", "-m": "a model id (helicoid fit --list)", "--x-unit": "a length unit such as nm", "--y-unit": "a unit of the signal",
-    "--start": "name=value", "--fix": "name or name=value", "--free": "a parameter name",
+    "--model": "a model id (helicoid fit --list)",
+    "-m": "a model id (helicoid fit --list)",
+    "--x-unit": "a length unit such as nm",
+    "--y-unit": "a unit of the signal",
+    "--start": "name=value",
+    "--fix": "name or name=value",
+    "--free": "a parameter name",
   },
   repeatable: ["--start", "--fix", "--free"],
   aliases: [["--model", "-m"]],
@@ -113,10 +134,23 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     if (a.positional.length > 1) throw new InputError("FILE", a.positional.join(", "), "a single input file");
     file = a.positional[0];
     if (list) {
-      if (json) io.stdout(JSON.stringify(profileModels.map((m) => ({ id: m.id, title: m.title, signalUnit: m.signalUnit, parameters: m.parameters.map((p) => ({ name: p.name, unit: p.unit ?? "", default: p.value, fixed: !!p.fixed })) })), null, 2) + "\n");
+      if (json)
+        io.stdout(
+          JSON.stringify(
+            profileModels.map((m) => ({
+              id: m.id,
+              title: m.title,
+              signalUnit: m.signalUnit,
+              parameters: m.parameters.map((p) => ({ name: p.name, unit: p.unit ?? "", default: p.value, fixed: !!p.fixed })),
+            })),
+            null,
+            2,
+          ) + "\n",
+        );
       else {
         io.stdout("Fit models (helicoid fit FILE --model ID):\n");
-        for (const m of profileModels) io.stdout(`  ${m.id.padEnd(16)} ${m.title}\n${" ".repeat(19)}parameters: ${m.parameters.map((p) => p.name + (p.fixed ? " (fixed)" : "")).join(", ")}\n`);
+        for (const m of profileModels)
+          io.stdout(`  ${m.id.padEnd(16)} ${m.title}\n${" ".repeat(19)}parameters: ${m.parameters.map((p) => p.name + (p.fixed ? " (fixed)" : "")).join(", ")}\n`);
       }
       return 0;
     }
@@ -162,10 +196,20 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
     // the same call as fitProfile(csv, model) in a notebook (it carries the file's notes and says when there is no sigma column)
     const r = fitProfile(csv, model, { start, fixed, profile });
     const notes = [...inputNotes, ...r.notes];
-    const parameters: Record<string, { value: number; stderr: number | null; unit: string; fixed?: boolean; interval?: [number, number] | null; clipped?: string[]; profileInterval?: [number, number] | null }> = {};
+    const parameters: Record<
+      string,
+      { value: number; stderr: number | null; unit: string; fixed?: boolean; interval?: [number, number] | null; clipped?: string[]; profileInterval?: [number, number] | null }
+    > = {};
     for (const [name, p] of Object.entries(r.parameters)) {
       const unit = p.unit === "" && (name === "offset" || name === "contrast") ? csv.yUnit : p.unit;
-      parameters[name] = { value: p.value, stderr: p.stderr, unit, ...(p.fixed ? { fixed: true } : { interval: p.interval }), ...(p.clipped ? { clipped: p.clipped } : {}), ...(p.profileInterval !== undefined ? { profileInterval: p.profileInterval } : {}) };
+      parameters[name] = {
+        value: p.value,
+        stderr: p.stderr,
+        unit,
+        ...(p.fixed ? { fixed: true } : { interval: p.interval }),
+        ...(p.clipped ? { clipped: p.clipped } : {}),
+        ...(p.profileInterval !== undefined ? { profileInterval: p.profileInterval } : {}),
+      };
     }
     const residualRms = Math.sqrt(r.residuals.reduce((a, v) => a + v * v, 0) / Math.max(1, r.residuals.length));
     const out = {
@@ -200,9 +244,11 @@ export async function fitCommand(args: string[], io: FitIo): Promise<number> {
         io.stdout(`  ${name.padEnd(10)} ${ve}${iv}\n`);
       }
       const rms = csv.yUnit ? formatQuantity(residualRms, csv.yUnit) : residualRms.toPrecision(3);
-      io.stdout(r.sigmaKnown
-        ? `goodness of fit: reduced chi-square ${r.chiSquareReduced.toPrecision(4)} (about 1 when the sigmas and the model are right), residual RMS ${rms}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`
-        : `goodness of fit: residual RMS ${rms} (no sigma column: no reduced chi-square), AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`);
+      io.stdout(
+        r.sigmaKnown
+          ? `goodness of fit: reduced chi-square ${r.chiSquareReduced.toPrecision(4)} (about 1 when the sigmas and the model are right), residual RMS ${rms}, AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`
+          : `goodness of fit: residual RMS ${rms} (no sigma column: no reduced chi-square), AIC ${r.aic.toFixed(2)}, BIC ${r.bic.toFixed(2)}, ${r.points} points\n`,
+      );
       for (const n of notes) io.stdout(`note: ${n}\n`);
       if (r.assumptions.length) io.stdout(`assumptions: ${r.assumptions.join("; ")}\n`);
     }

@@ -17,7 +17,20 @@
  * the value and what was expected).
  */
 
-import { readProfileCsv, profileField, fitFieldSeries, makeFilm, parseQuantity, formatQuantity, formatWithError, isPlainNumber, InputError, ConvergenceError, type FieldSeriesProfile, type FieldSeriesResult } from "@helicoid/lib";
+import {
+  readProfileCsv,
+  profileField,
+  fitFieldSeries,
+  makeFilm,
+  parseQuantity,
+  formatQuantity,
+  formatWithError,
+  isPlainNumber,
+  InputError,
+  ConvergenceError,
+  type FieldSeriesProfile,
+  type FieldSeriesResult,
+} from "@helicoid/lib";
 import { readProfileText } from "./fit.js";
 import { fileReason, parseStrict, UsageError, type StrictSpec } from "./args.js";
 
@@ -37,7 +50,10 @@ type FilmKey = keyof typeof FILM_KEYS;
 /** "Ms=0.6MA/m,t=1.5nm,..." -> SI numbers, every key required. */
 export function parseFilmOption(raw: string): Record<FilmKey, number> {
   const out: Partial<Record<FilmKey, number>> = {};
-  for (const part of raw.split(",").map((s) => s.trim()).filter((s) => s !== "")) {
+  for (const part of raw
+    .split(",")
+    .map((s) => s.trim())
+    .filter((s) => s !== "")) {
     const k = part.indexOf("=");
     if (k < 1) throw new InputError("--film", part, "name=value pairs separated by commas, e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
     const name = part.slice(0, k).trim();
@@ -46,7 +62,11 @@ export function parseFilmOption(raw: string): Record<FilmKey, number> {
     // Film parameters span many decades in SI (Ms ~ 1e6 A/m, A ~ 1e-11 J/m): a bare number is
     // almost always a unit left out, so it is refused rather than read as SI.
     if (isPlainNumber(value)) {
-      throw new InputError(`--film ${name}`, value, `a quantity with its unit, e.g. ${name}=${{ Ms: "0.6MA/m", t: "1.5nm", A: "12pJ/m", D: "1.45mJ/m^2", Ku: "0.35MJ/m^3" }[name as FilmKey]} (a bare number would be ${value} ${FILM_KEYS[name as FilmKey]})`);
+      throw new InputError(
+        `--film ${name}`,
+        value,
+        `a quantity with its unit, e.g. ${name}=${{ Ms: "0.6MA/m", t: "1.5nm", A: "12pJ/m", D: "1.45mJ/m^2", Ku: "0.35MJ/m^3" }[name as FilmKey]} (a bare number would be ${value} ${FILM_KEYS[name as FilmKey]})`,
+      );
     }
     out[name as FilmKey] = parseQuantity(`--film ${name}`, value, FILM_KEYS[name as FilmKey]);
   }
@@ -115,7 +135,9 @@ export function seriesJson(r: FieldSeriesResult, files: string[]) {
 
 function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
   const q = (v: number | null, unit: string) => (v === null || !Number.isFinite(v) ? (v === null ? "n/a" : v > 0 ? "+inf" : "-inf") : formatQuantity(v, unit));
-  io.stdout(`Field series (${r.approach}), ${r.profiles.length} profiles; film Ms = ${formatQuantity(r.film.Ms, "A/m")}, t = ${formatQuantity(r.film.t, "m")}, ${r.film.dmi} DMI\n`);
+  io.stdout(
+    `Field series (${r.approach}), ${r.profiles.length} profiles; film Ms = ${formatQuantity(r.film.Ms, "A/m")}, t = ${formatQuantity(r.film.t, "m")}, ${r.film.dmi} DMI\n`,
+  );
   io.stdout(`status: ${r.status} (${r.message})\n`);
   const pct = `${+(100 * r.confidence).toPrecision(4)} %`;
   for (const [name, p] of Object.entries(r.parameters)) {
@@ -127,11 +149,15 @@ function printTable(r: FieldSeriesResult, files: string[], io: FitSeriesIo) {
     io.stdout(line + "\n");
   }
   io.stdout(`Ku: ${r.kuDecision.reason}\n`);
-  io.stdout(`chi-square ${r.chiSquare.toPrecision(4)} for ${r.dof} degrees of freedom (reduced ${Number.isFinite(r.chiSquareReduced) ? r.chiSquareReduced.toPrecision(4) : "n/a"})${r.approach === "two-stage" ? ", energy model against the stage-1 R, w" : ""}\n`);
+  io.stdout(
+    `chi-square ${r.chiSquare.toPrecision(4)} for ${r.dof} degrees of freedom (reduced ${Number.isFinite(r.chiSquareReduced) ? r.chiSquareReduced.toPrecision(4) : "n/a"})${r.approach === "two-stage" ? ", energy model against the stage-1 R, w" : ""}\n`,
+  );
   const width = Math.max(4, ...files.map((f) => f.length));
   io.stdout(`  ${"file".padEnd(width)}  ${"B".padStart(8)}  ${"R".padStart(20)}  ${"w".padStart(20)}  pull R  pull w\n`);
   r.profiles.forEach((p, i) => {
-    io.stdout(`  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${formatWithError(p.R, p.stderrR, "m").padStart(20)}  ${formatWithError(p.w, p.stderrW, "m").padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`);
+    io.stdout(
+      `  ${files[i].padEnd(width)}  ${formatQuantity(p.B, "T").padStart(8)}  ${formatWithError(p.R, p.stderrR, "m").padStart(20)}  ${formatWithError(p.w, p.stderrW, "m").padStart(20)}  ${p.pullR.toFixed(2).padStart(6)}  ${p.pullW.toFixed(2).padStart(6)}\n`,
+    );
   });
   for (const a of r.assumptions) io.stdout(`assumption: ${a}\n`);
   for (const n of r.notes) io.stdout(`note: ${n}\n`);
@@ -145,9 +171,16 @@ function oneOf<T extends string>(option: string, v: string, allowed: readonly T[
 const SERIES_OPTIONS: StrictSpec = {
   flags: ["--series", "--json", "--profile", "--drop-nan", "--help", "-h"],
   valued: {
-    "--film": "Ms=..,t=..,A=..,D=..,Ku=..", "--dmi": "interfacial or bulk", "--fit-ku": "auto, yes or no", "--method": "two-stage or global",
-    "--texture": "skyrmion or wall360", "--model": "a model id", "-m": "a model id", "--confidence": "a level such as 0.95",
-    "--x-unit": "a length unit such as nm", "--y-unit": "a unit of the signal",
+    "--film": "Ms=..,t=..,A=..,D=..,Ku=..",
+    "--dmi": "interfacial or bulk",
+    "--fit-ku": "auto, yes or no",
+    "--method": "two-stage or global",
+    "--texture": "skyrmion or wall360",
+    "--model": "a model id",
+    "-m": "a model id",
+    "--confidence": "a level such as 0.95",
+    "--x-unit": "a length unit such as nm",
+    "--y-unit": "a unit of the signal",
   },
   aliases: [["--model", "-m"]],
 };
@@ -200,8 +233,9 @@ export async function fitSeriesCommand(args: string[], io: FitSeriesIo): Promise
     xUnit = opt("--x-unit");
     yUnit = opt("--y-unit");
     inputs.push(...a.positional);
-    if (inputs.length === 0) throw new InputError("FILE", "(missing)", "two or more CSV profiles, each FILE@<field> or with a \"field:\" header line");
-    if (filmRaw === undefined) throw new InputError("--film", "(missing)", "Ms=..,t=..,A=..,D=..,Ku=.. (Ms and t held; A, D, Ku start values), e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
+    if (inputs.length === 0) throw new InputError("FILE", "(missing)", 'two or more CSV profiles, each FILE@<field> or with a "field:" header line');
+    if (filmRaw === undefined)
+      throw new InputError("--film", "(missing)", "Ms=..,t=..,A=..,D=..,Ku=.. (Ms and t held; A, D, Ku start values), e.g. Ms=0.6MA/m,t=1.5nm,A=12pJ/m,D=1.45mJ/m^2,Ku=0.35MJ/m^3");
     const film = makeFilm({ ...parseFilmOption(filmRaw), dmi });
     const files: string[] = [];
     const profiles: FieldSeriesProfile[] = [];

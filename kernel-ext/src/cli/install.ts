@@ -83,29 +83,47 @@ export function ensureWidgetManager(dataDir: string, searchDirs: string[]): Widg
   const ownTarget = join(dataDir, "labextensions", ...WIDGET_MANAGER.split("/"));
   const existingThere = found.find((f) => f.dir === ownTarget);
   if (existingThere && !existsSync(join(ownTarget, OURS)) && widgetManagerProblem(existingThere) === null) {
-    return { action: "found", dir: ownTarget, version: existingThere.version, message: `widget manager ${WIDGET_MANAGER} ${existingThere.version} found in ${ownTarget} (compatible)` };
+    return {
+      action: "found",
+      dir: ownTarget,
+      version: existingThere.version,
+      message: `widget manager ${WIDGET_MANAGER} ${existingThere.version} found in ${ownTarget} (compatible)`,
+    };
   }
   const shipped = shippedWidgetManager();
   const problems = found.map((f) => widgetManagerProblem(f)).filter((p): p is string => p !== null);
   if (!shipped) {
     return {
-      action: "missing", dir: null, version: null,
-      message: `no compatible widget manager found${problems.length ? ` (${problems.join("; ")})` : ""} and this install of @helicoid/widgets has no prebuilt one (widget-manager/). ` +
+      action: "missing",
+      dir: null,
+      version: null,
+      message:
+        `no compatible widget manager found${problems.length ? ` (${problems.join("; ")})` : ""} and this install of @helicoid/widgets has no prebuilt one (widget-manager/). ` +
         "Widgets will show as text in JupyterLab. Install one: `pip install jupyterlab_widgets` (or `ipywidgets>=8`) in the Python environment of your JupyterLab" +
         " (or, in a checkout of Helicoid, build ours with `npm run build:manager -w @helicoid/widgets` and run `helicoid install` again).",
     };
   }
   if (existingThere && !existsSync(join(ownTarget, OURS))) {
-    return { action: "missing", dir: ownTarget, version: existingThere.version, message: `an incompatible widget manager is in ${ownTarget} (${widgetManagerProblem(existingThere)}); not replaced because Helicoid did not install it. Upgrade it: \`pip install -U jupyterlab_widgets\`.` };
+    return {
+      action: "missing",
+      dir: ownTarget,
+      version: existingThere.version,
+      message: `an incompatible widget manager is in ${ownTarget} (${widgetManagerProblem(existingThere)}); not replaced because Helicoid did not install it. Upgrade it: \`pip install -U jupyterlab_widgets\`.`,
+    };
   }
   rmSync(ownTarget, { recursive: true, force: true });
   mkdirSync(ownTarget, { recursive: true });
   cpSync(shipped, ownTarget, { recursive: true });
   const version = (JSON.parse(readFileSync(join(shipped, "package.json"), "utf8")) as { version: string }).version;
   writeFileSync(join(ownTarget, OURS), JSON.stringify({ by: "@helicoid/kernel", version: KERNEL_VERSION, from: shipped }, null, 2) + "\n");
-  const shadow = first && first.dir !== ownTarget && widgetManagerProblem(first) !== null ? `; note: ${first.dir} comes first in Jupyter's path and is incompatible, remove or upgrade it (\`pip install -U jupyterlab_widgets\`)` : "";
+  const shadow =
+    first && first.dir !== ownTarget && widgetManagerProblem(first) !== null
+      ? `; note: ${first.dir} comes first in Jupyter's path and is incompatible, remove or upgrade it (\`pip install -U jupyterlab_widgets\`)`
+      : "";
   return {
-    action: "installed", dir: ownTarget, version,
+    action: "installed",
+    dir: ownTarget,
+    version,
     message: `no compatible widget manager found${problems.length ? ` (${problems.join("; ")})` : ""}; installed the one Helicoid built from the npm package ${WIDGET_MANAGER} ${version} in ${ownTarget}${shadow}`,
   };
 }
@@ -128,7 +146,10 @@ export function install(opts: { user?: boolean; prefix?: string; widgetManager?:
     const jupyter = jupyterCommand();
     const versions = jupyterVersions(jupyter);
     const lab = versions.jupyterlab ?? null;
-    if (lab && majorOf(lab) !== JUPYTERLAB_MAJOR) warnings.push(`JupyterLab ${lab} found: Helicoid's extension and widget manager are built for JupyterLab ${JUPYTERLAB_MAJOR} (or Notebook 7); upgrade JupyterLab to see widgets`);
+    if (lab && majorOf(lab) !== JUPYTERLAB_MAJOR)
+      warnings.push(
+        `JupyterLab ${lab} found: Helicoid's extension and widget manager are built for JupyterLab ${JUPYTERLAB_MAJOR} (or Notebook 7); upgrade JupyterLab to see widgets`,
+      );
     widgetManager = ensureWidgetManager(dataDir, jupyterDataDirs([dataDir], jupyter).dirs);
   } else {
     widgetManager = { action: "skipped", dir: null, version: null, message: "widget manager not checked (--no-widget-manager)" };
@@ -164,7 +185,11 @@ export async function installCommand(args: string[], io: CommandIO): Promise<num
   }
   const r = install({ user: a.flags.has("--user"), prefix: a.options.get("--prefix"), widgetManager: !a.flags.has("--no-widget-manager") });
   io.stdout(`installed kernelspec '${KERNEL_NAME}' ("${DISPLAY_NAME}") in ${r.kernelDir}\n`);
-  io.stdout(r.labExtensionDir ? `installed JupyterLab extension ${LAB_EXTENSION_NAME} in ${r.labExtensionDir}\n` : `JupyterLab extension not built yet (run npm run build); only the kernelspec was installed\n`);
+  io.stdout(
+    r.labExtensionDir
+      ? `installed JupyterLab extension ${LAB_EXTENSION_NAME} in ${r.labExtensionDir}\n`
+      : `JupyterLab extension not built yet (run npm run build); only the kernelspec was installed\n`,
+  );
   if (r.widgetManager) io.stdout(`${r.widgetManager.message}\n`);
   for (const w of r.warnings) io.stdout(`warning: ${w}\n`);
   io.stdout("check everything with: helicoid doctor\n");

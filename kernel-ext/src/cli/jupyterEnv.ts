@@ -113,6 +113,7 @@ export function findLabExtensions(name: string, dataDirs: string[]): LabExtensio
 export function widgetManagerProblem(ext: LabExtension): string | null {
   if (!ext.loadable) return `${ext.dir} has no loadable prebuilt extension (package.json without a built remoteEntry)`;
   const major = majorOf(ext.version);
-  if (major !== WIDGET_MANAGER_MAJOR) return `version ${ext.version ?? "unknown"} at ${ext.dir}; Helicoid's widgets need ${WIDGET_MANAGER_MAJOR}.x (ipywidgets 8, @jupyter-widgets/base 6)`;
+  if (major !== WIDGET_MANAGER_MAJOR)
+    return `version ${ext.version ?? "unknown"} at ${ext.dir}; Helicoid's widgets need ${WIDGET_MANAGER_MAJOR}.x (ipywidgets 8, @jupyter-widgets/base 6)`;
   return null;
 }

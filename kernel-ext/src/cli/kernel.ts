@@ -10,10 +10,15 @@ import { parseStrict, UsageError, type CommandIO } from "./args.js";
 export async function kernelCommand(args: string[], io: CommandIO): Promise<number> {
   let file: string | undefined;
   try {
-    const a = parseStrict(args, { flags: [], valued: { "--connection-file": "the connection file Jupyter wrote", "-f": "the connection file Jupyter wrote" }, aliases: [["--connection-file", "-f"]] });
+    const a = parseStrict(args, {
+      flags: [],
+      valued: { "--connection-file": "the connection file Jupyter wrote", "-f": "the connection file Jupyter wrote" },
+      aliases: [["--connection-file", "-f"]],
+    });
     if (a.positional.length > 1) throw new UsageError(`one connection file expected, ${a.positional.length} given`);
     file = a.options.get("--connection-file") ?? a.options.get("-f") ?? a.positional[0];
-    if (file !== undefined && a.positional.length > 0 && (a.options.has("--connection-file") || a.options.has("-f"))) throw new UsageError("the connection file given twice: give it once");
+    if (file !== undefined && a.positional.length > 0 && (a.options.has("--connection-file") || a.options.has("-f")))
+      throw new UsageError("the connection file given twice: give it once");
   } catch (err) {
     if (!(err instanceof UsageError)) throw err;
     io.stderr(`helicoid kernel: ${err.message}\n`);

@@ -16,7 +16,11 @@ import { parseStrict, UsageError, type CommandIO } from "./args.js";
 import { ensureLabFrontend, labFrontendState, prepareLabSite } from "./labFrontend.js";
 import { checkoutRoot } from "./places.js";
 
-export interface Tool { cmd: string; args: string[]; version: string }
+export interface Tool {
+  cmd: string;
+  args: string[];
+  version: string;
+}
 export interface LabChoice {
   kind: "lab" | "notebook" | "frontend" | "none";
   tool: Tool | null;
@@ -41,11 +45,20 @@ function find(candidates: Array<[string, string[]]>): Tool | null {
 
 /** Any Jupyter that can open notebooks with this kernel (used by `helicoid start` to suggest `helicoid lab`). */
 export function findJupyter(): { cmd: string; args: string[]; kind: "lab" | "notebook" | "server" } | null {
-  const lab = find([["jupyter-lab", []], ["jupyter", ["lab"]]]);
+  const lab = find([
+    ["jupyter-lab", []],
+    ["jupyter", ["lab"]],
+  ]);
   if (lab) return { cmd: lab.cmd, args: lab.args, kind: "lab" };
-  const nb = find([["jupyter-notebook", []], ["jupyter", ["notebook"]]]);
+  const nb = find([
+    ["jupyter-notebook", []],
+    ["jupyter", ["notebook"]],
+  ]);
   if (nb) return { cmd: nb.cmd, args: nb.args, kind: "notebook" };
-  const server = find([["jupyter-server", []], ["jupyter", ["server"]]]);
+  const server = find([
+    ["jupyter-server", []],
+    ["jupyter", ["server"]],
+  ]);
   return server ? { cmd: server.cmd, args: server.args, kind: "server" } : null;
 }
 
@@ -53,12 +66,32 @@ const major = (v: string) => Number(v.split(".")[0]);
 
 /** Decide which front end to use on this machine, with the reason in a sentence. */
 export function chooseFrontEnd(): LabChoice {
-  const lab = find([["jupyter-lab", []], ["jupyter", ["lab"]]]);
-  if (lab && major(lab.version) >= 4) return { kind: "lab", tool: lab, reason: `JupyterLab ${lab.version} found: it renders live widgets with the widget manager (jupyterlab_widgets)` };
-  const nb = find([["jupyter-notebook", []], ["jupyter", ["notebook"]]]);
-  if (nb && major(nb.version) >= 7) return { kind: "notebook", tool: nb, reason: `Notebook ${nb.version} found${lab ? ` (JupyterLab ${lab.version} is older than 4)` : ""}: it renders live widgets with the widget manager (jupyterlab_widgets)` };
-  const server = find([["jupyter-server", []], ["jupyter", ["server"]]]);
-  const older = [lab ? `JupyterLab ${lab.version} is older than 4 and cannot load Helicoid's extension` : "", nb ? `Classic Notebook ${nb.version} found: it renders no widgets` : ""].filter(Boolean).join("; ");
+  const lab = find([
+    ["jupyter-lab", []],
+    ["jupyter", ["lab"]],
+  ]);
+  if (lab && major(lab.version) >= 4)
+    return { kind: "lab", tool: lab, reason: `JupyterLab ${lab.version} found: it renders live widgets with the widget manager (jupyterlab_widgets)` };
+  const nb = find([
+    ["jupyter-notebook", []],
+    ["jupyter", ["notebook"]],
+  ]);
+  if (nb && major(nb.version) >= 7)
+    return {
+      kind: "notebook",
+      tool: nb,
+      reason: `Notebook ${nb.version} found${lab ? ` (JupyterLab ${lab.version} is older than 4)` : ""}: it renders live widgets with the widget manager (jupyterlab_widgets)`,
+    };
+  const server = find([
+    ["jupyter-server", []],
+    ["jupyter", ["server"]],
+  ]);
+  const older = [
+    lab ? `JupyterLab ${lab.version} is older than 4 and cannot load Helicoid's extension` : "",
+    nb ? `Classic Notebook ${nb.version} found: it renders no widgets` : "",
+  ]
+    .filter(Boolean)
+    .join("; ");
   if (server) {
     return {
       kind: "frontend",
@@ -66,7 +99,13 @@ export function chooseFrontEnd(): LabChoice {
       reason: `${older || "no JupyterLab 4 or Notebook 7 found"}; serving Helicoid's JupyterLab-based front end instead, on jupyter-server ${server.version}`,
     };
   }
-  return { kind: "none", tool: null, reason: older ? `${older}; no jupyter-server to serve Helicoid's own front end either` : "no Jupyter found (looked for jupyter-lab, jupyter-notebook, jupyter-server and the jupyter command)" };
+  return {
+    kind: "none",
+    tool: null,
+    reason: older
+      ? `${older}; no jupyter-server to serve Helicoid's own front end either`
+      : "no Jupyter found (looked for jupyter-lab, jupyter-notebook, jupyter-server and the jupyter command)",
+  };
 }
 
 function freePort(): Promise<number> {
@@ -94,10 +133,14 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   const root = checkoutRoot();
   const dir = resolve(a.options.get("--notebook-dir") ?? (root ? join(root, "notebooks") : process.cwd()));
   if (a.flags.has("--dry-run")) {
-    io.stdout(`helicoid lab would use: ${choice.kind === "none" ? "nothing" : choice.kind === "frontend" ? "Helicoid's JupyterLab-based front end" : choice.kind === "lab" ? "JupyterLab" : "Notebook"}\n${choice.reason}\n`);
+    io.stdout(
+      `helicoid lab would use: ${choice.kind === "none" ? "nothing" : choice.kind === "frontend" ? "Helicoid's JupyterLab-based front end" : choice.kind === "lab" ? "JupyterLab" : "Notebook"}\n${choice.reason}\n`,
+    );
     if (choice.kind === "frontend") {
       const s = labFrontendState();
-      io.stdout(`front end (lab-frontend/): npm packages ${s.installed ? "installed" : "not installed yet (would run npm ci --prefix lab-frontend, about 360 MB)"}, bundle ${s.built ? "built" : "to build"}\n`);
+      io.stdout(
+        `front end (lab-frontend/): npm packages ${s.installed ? "installed" : "not installed yet (would run npm ci --prefix lab-frontend, about 360 MB)"}, bundle ${s.built ? "built" : "to build"}\n`,
+      );
     }
     io.stdout(`notebooks: ${dir}\n`);
     return choice.kind === "none" ? 1 : 0;
@@ -119,16 +162,22 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   if (portOpt !== undefined && !/^\d+$/.test(portOpt)) throw new UsageError(`--port expects a port number, got '${portOpt}'`);
 
   if (choice.kind !== "frontend") {
-    const child = spawn(choice.tool.cmd, [...choice.tool.args, `--notebook-dir=${dir}`, "--ServerApp.ip=127.0.0.1", ...(portOpt ? [`--ServerApp.port=${portOpt}`] : []), ...a.positional], { stdio: "inherit" });
+    const child = spawn(
+      choice.tool.cmd,
+      [...choice.tool.args, `--notebook-dir=${dir}`, "--ServerApp.ip=127.0.0.1", ...(portOpt ? [`--ServerApp.port=${portOpt}`] : []), ...a.positional],
+      { stdio: "inherit" },
+    );
     return new Promise((res) => child.on("exit", (code) => res(code ?? 0)));
   }
 
   try {
     ensureLabFrontend((s) => io.stdout(s));
   } catch (err) {
-    io.stderr(`helicoid lab: cannot prepare Helicoid's front end: ${(err as Error).message}\n` +
-      "It ships with the Helicoid repository (lab-frontend/) and inside @helicoid/kernel. Alternatively install JupyterLab 4 with the widget manager\n" +
-      "(for example `pipx install jupyterlab` and `pipx inject jupyterlab jupyterlab_widgets`) and run `helicoid lab` again.\n");
+    io.stderr(
+      `helicoid lab: cannot prepare Helicoid's front end: ${(err as Error).message}\n` +
+        "It ships with the Helicoid repository (lab-frontend/) and inside @helicoid/kernel. Alternatively install JupyterLab 4 with the widget manager\n" +
+        "(for example `pipx install jupyterlab` and `pipx inject jupyterlab jupyterlab_widgets`) and run `helicoid lab` again.\n",
+    );
     return 1;
   }
   if (!r.labExtensionDir) io.stderr("helicoid lab: Helicoid's JupyterLab extension is not built (run npm run build): widgets will show as text\n");
@@ -156,10 +205,12 @@ export async function labCommand(args: string[], io: CommandIO): Promise<number>
   const stop = () => server.kill("SIGTERM");
   process.once("SIGINT", stop);
   process.once("SIGTERM", stop);
-  return new Promise((res) => server.on("exit", (code) => {
-    process.off("SIGINT", stop);
-    process.off("SIGTERM", stop);
-    rmSync(site.siteDir, { recursive: true, force: true });
-    res(code ?? 0);
-  }));
+  return new Promise((res) =>
+    server.on("exit", (code) => {
+      process.off("SIGINT", stop);
+      process.off("SIGTERM", stop);
+      rmSync(site.siteDir, { recursive: true, force: true });
+      res(code ?? 0);
+    }),
+  );
 }

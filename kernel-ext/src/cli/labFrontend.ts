@@ -38,7 +38,12 @@ function packageVersion(): string {
   }
 }
 
-export interface FederatedExtension { name: string; load: string; extension: string; style?: string }
+export interface FederatedExtension {
+  name: string;
+  load: string;
+  extension: string;
+  style?: string;
+}
 
 /** Newest modification time under `dir` (files only), 0 when it does not exist. */
 function newest(path: string): number {
@@ -132,6 +137,9 @@ export function prepareLabSite(opts: { labextensionsDir: string; widgetManager?:
   };
   const template = readFileSync(join(frontend, "index.template.html"), "utf8");
   const json = JSON.stringify(config).replace(/</g, "\\u003c");
-  writeFileSync(join(page, "index.html"), template.replace("__PAGE_CONFIG__", () => json));
+  writeFileSync(
+    join(page, "index.html"),
+    template.replace("__PAGE_CONFIG__", () => json),
+  );
   return { staticPaths: [siteDir, opts.labextensionsDir], pagePath: `${baseUrl.replace(/\/$/, "")}/static/helicoid-lab/index.html`, extensions, siteDir };
 }

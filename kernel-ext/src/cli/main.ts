@@ -22,17 +22,34 @@ type Command = (args: string[], io: CommandIO) => Promise<number>;
 
 /** Commands load on demand, so `helicoid calc` does not pay for the kernel's start-up. */
 const commands: Record<string, { load: () => Command; help: string; ownHelp?: boolean }> = {
-  install: { load: () => require("./install.js").installCommand, help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension (and a widget manager if none)" },
+  install: {
+    load: () => require("./install.js").installCommand,
+    help: "install [--user|--prefix DIR]     write the kernelspec and the JupyterLab extension (and a widget manager if none)",
+  },
   uninstall: { load: () => require("./install.js").uninstallCommand, help: "uninstall [--prefix DIR]          remove them" },
   doctor: { load: () => require("./doctor.js").doctorCommand, help: "doctor [--json] [--start-kernel]  check Jupyter, the kernelspec, the extension and the widget manager" },
   kernel: { load: () => require("./kernel.js").kernelCommand, help: "kernel --connection-file FILE     run the kernel (Jupyter starts this)" },
   run: { load: () => require("./run.js").runCommand, help: "run NOTEBOOK [-o OUT] [--timeout S] execute a notebook, no Jupyter needed" },
-  export: { load: () => require("../notebook/export.js").exportCommand, help: "export NOTEBOOK -o PAGE.html [--trusted]  a self-contained page; catalogue explorers stay live", ownHelp: true },
-  lab: { load: () => require("./lab.js").labCommand, help: "lab [--dry-run] [--notebook-dir DIR] [--port N]\n                                    open notebooks in JupyterLab 4, Notebook 7, or our JupyterLab-based\n                                    front end on jupyter-server; --dry-run says which and why" },
-  start: { load: () => require("./start.js").startCommand, help: "start [--port N] [--no-serve] [--fresh] [--timeout S]  serve the gallery on 127.0.0.1 and run the examples into it (unchanged ones are kept)" },
+  export: {
+    load: () => require("../notebook/export.js").exportCommand,
+    help: "export NOTEBOOK -o PAGE.html [--trusted]  a self-contained page; catalogue explorers stay live",
+    ownHelp: true,
+  },
+  lab: {
+    load: () => require("./lab.js").labCommand,
+    help: "lab [--dry-run] [--notebook-dir DIR] [--port N]\n                                    open notebooks in JupyterLab 4, Notebook 7, or our JupyterLab-based\n                                    front end on jupyter-server; --dry-run says which and why",
+  },
+  start: {
+    load: () => require("./start.js").startCommand,
+    help: "start [--port N] [--no-serve] [--fresh] [--timeout S]  serve the gallery on 127.0.0.1 and run the examples into it (unchanged ones are kept)",
+  },
   calc: { load: () => require("./calc.js").calcCommand, help: "calc ID name=value ... [--json]   run a catalogue calculator (--list shows them)", ownHelp: true },
   charge: { load: () => require("./charge.js").chargeCommand, help: "charge FILE [--json]              skyrmion number and objects of a vector field", ownHelp: true },
-  fit: { load: () => require("./fit.js").fitCommand, help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields", ownHelp: true },
+  fit: {
+    load: () => require("./fit.js").fitCommand,
+    help: "fit FILE --model ID [--json]      fit a line profile (--list shows the models)\n  fit --series FILE@FIELD ... --film Ms=..,t=..,A=..,D=..,Ku=.. [--json]\n                                    A, D (Ku) from skyrmion profiles at several fields",
+    ownHelp: true,
+  },
 };
 
 /** The command names, in the order of the overview (for tests and completion). */

@@ -93,7 +93,13 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
       else if (m.t === "done") {
         disarm();
         if (grace) clearTimeout(grace);
-        done = { notebook: m.notebook as Notebook, failure: m.failure as RunFailure | null, cellsRun: m.cellsRun as number, seconds: m.seconds as number, pendingTimers: m.pendingTimers as number | undefined };
+        done = {
+          notebook: m.notebook as Notebook,
+          failure: m.failure as RunFailure | null,
+          cellsRun: m.cellsRun as number,
+          seconds: m.seconds as number,
+          pendingTimers: m.pendingTimers as number | undefined,
+        };
       } else if (m.t === "fatal") done = { notebook: null, failure: null, cellsRun: 0, seconds: 0, fatal: m.message as string };
     });
     // Ctrl-C reaches the child too (same process group): it interrupts its cell and writes; a
@@ -105,7 +111,8 @@ function runInChild(file: string, nb: Notebook, timeout: number, onCell?: (index
     process.on("SIGINT", onSigint);
     // A failed send (the child already gone) or spawn is reported by its exit, or here.
     child.on("error", (err) => {
-      if (child.exitCode === null && child.signalCode === null && !child.pid) res({ notebook: null, failure: null, cellsRun: 0, seconds: 0, fatal: `the notebook process could not start: ${err.message}` });
+      if (child.exitCode === null && child.signalCode === null && !child.pid)
+        res({ notebook: null, failure: null, cellsRun: 0, seconds: 0, fatal: `the notebook process could not start: ${err.message}` });
     });
     child.on("exit", (code, signal) => {
       disarm();
@@ -181,7 +188,9 @@ export async function runCommand(args: string[], io: CommandIO): Promise<number>
   }
   if (out !== undefined) {
     if (sameFile(out, input)) {
-      io.stderr(`helicoid run: -o ${given}: the output path is the input notebook (the same file, or a link to it); choose another -o path (the input is never modified; nothing was run)\n`);
+      io.stderr(
+        `helicoid run: -o ${given}: the output path is the input notebook (the same file, or a link to it); choose another -o path (the input is never modified; nothing was run)\n`,
+      );
       return 2;
     }
     const problem = outputFileProblem(given!);
@@ -216,8 +225,10 @@ export async function runCommand(args: string[], io: CommandIO): Promise<number>
     if (given) io.stderr(`partial output written to ${given}\n`);
     return 1;
   }
-  if (r.pendingTimers) io.stderr(`${input}: note: ${r.pendingTimers} timer(s) the cells started were still pending ${SETTLE_MS / 1000} s after the last cell and were stopped (await them in a cell to keep their work)\n`);
+  if (r.pendingTimers)
+    io.stderr(
+      `${input}: note: ${r.pendingTimers} timer(s) the cells started were still pending ${SETTLE_MS / 1000} s after the last cell and were stopped (await them in a cell to keep their work)\n`,
+    );
   if (!quiet) io.stderr(`${input}: ${r.cellsRun} code cells ran in ${r.seconds.toFixed(1)} s${given ? `; wrote ${given}` : ""}\n`);
   return 0;
 }
-

@@ -22,7 +22,6 @@ import { binPath, install } from "./install.js";
 import { findJupyter } from "./lab.js";
 import { defaultGalleryDir, exampleNotebooksDir } from "./places.js";
 
-
 /** The time limit of one cell of an example notebook in `helicoid start` (seconds). */
 export const START_CELL_TIMEOUT = 300;
 
@@ -84,9 +83,17 @@ function titleOf(nb: { cells?: Array<{ cell_type: string; source: string | strin
 }
 
 /** Execute and export every notebook of `notebooksDir` into `outDir`; returns what happened to each. */
-export async function buildGallery(notebooksDir: string, outDir: string, log: (s: string) => void, timeout = START_CELL_TIMEOUT, options: GalleryOptions = {}): Promise<GalleryEntry[]> {
+export async function buildGallery(
+  notebooksDir: string,
+  outDir: string,
+  log: (s: string) => void,
+  timeout = START_CELL_TIMEOUT,
+  options: GalleryOptions = {},
+): Promise<GalleryEntry[]> {
   mkdirSync(outDir, { recursive: true });
-  const names = readdirSync(notebooksDir).filter((f) => f.endsWith(".ipynb")).sort();
+  const names = readdirSync(notebooksDir)
+    .filter((f) => f.endsWith(".ipynb"))
+    .sort();
   // Each notebook runs in its own process: as many at a time as the machine has cores (at most 4),
   // the entries kept in the notebooks' order.
   const entries: GalleryEntry[] = names.map((name) => ({ name, title: name.replace(/\.ipynb$/, ""), page: null, executed: null, error: null, seconds: 0, state: "queued" }));
@@ -97,15 +104,17 @@ export async function buildGallery(notebooksDir: string, outDir: string, log: (s
   changed();
   let next = 0;
   const workers = Math.max(1, Math.min(4, availableParallelism(), names.length));
-  await Promise.all(Array.from({ length: workers }, async () => {
-    while (next < names.length) {
-      const k = next++;
-      entries[k]!.state = "running";
-      changed();
-      entries[k] = await galleryEntry(names[k]!);
-      changed();
-    }
-  }));
+  await Promise.all(
+    Array.from({ length: workers }, async () => {
+      while (next < names.length) {
+        const k = next++;
+        entries[k]!.state = "running";
+        changed();
+        entries[k] = await galleryEntry(names[k]!);
+        changed();
+      }
+    }),
+  );
   return entries;
 
   async function galleryEntry(name: string): Promise<GalleryEntry> {
@@ -180,7 +189,14 @@ zero temperature unless stated).</p>
 `;
 }
 
-const mime: Record<string, string> = { ".html": "text/html; charset=utf-8", ".ipynb": "application/x-ipynb+json", ".json": "application/json", ".js": "text/javascript", ".css": "text/css", ".png": "image/png" };
+const mime: Record<string, string> = {
+  ".html": "text/html; charset=utf-8",
+  ".ipynb": "application/x-ipynb+json",
+  ".json": "application/json",
+  ".js": "text/javascript",
+  ".css": "text/css",
+  ".png": "image/png",
+};
 
 /** Serve `dir` read-only on 127.0.0.1 (never outside it). Port 0 picks a free port. */
 export function serveDirectory(dir: string, port: number): Promise<Server> {
@@ -215,7 +231,10 @@ export async function startCommand(args: string[], io: CommandIO): Promise<numbe
   let a: ReturnType<typeof parseStrict>;
   let timeout = START_CELL_TIMEOUT;
   try {
-    a = parseStrict(args, { flags: ["--no-serve", "--fresh"], valued: { "--port": "a port number such as 8765", "--out": "a directory", "--notebooks": "a directory of .ipynb files", "--timeout": "seconds per cell, such as 300" } });
+    a = parseStrict(args, {
+      flags: ["--no-serve", "--fresh"],
+      valued: { "--port": "a port number such as 8765", "--out": "a directory", "--notebooks": "a directory of .ipynb files", "--timeout": "seconds per cell, such as 300" },
+    });
     if (a.positional.length > 0) throw new UsageError(`unexpected argument ${shorten(a.positional[0])}`);
     if (a.options.has("--timeout")) timeout = parseTimeout(a.options.get("--timeout")!);
     const p = a.options.get("--port");

@@ -148,7 +148,13 @@ export class KernelClient {
     for (;;) {
       for (; scanned < this.iopubMessages.length; scanned++) if (pred(this.iopubMessages[scanned]!)) return this.iopubMessages[scanned]!;
       const left = deadline - Date.now();
-      if (left <= 0) throw new Error(`iopub message not seen within ${timeoutMs} ms; got: ${this.iopubMessages.slice(from).map((m) => m.header.msg_type).join(", ")}`);
+      if (left <= 0)
+        throw new Error(
+          `iopub message not seen within ${timeoutMs} ms; got: ${this.iopubMessages
+            .slice(from)
+            .map((m) => m.header.msg_type)
+            .join(", ")}`,
+        );
       await new Promise<void>((res) => {
         const t = setTimeout(res, Math.min(left, 200));
         this.waiters.push(() => {

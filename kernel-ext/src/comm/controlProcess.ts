@@ -27,11 +27,7 @@ export interface ControlProcessData {
 
 /** Messages from the control process to the kernel. */
 export type FromControl =
-  | { kind: "ready" }
-  | { kind: "message"; frames: Uint8Array[] }
-  | { kind: "log"; text: string }
-  | { kind: "bind-error"; text: string }
-  | { kind: "interrupt"; id: number };
+  { kind: "ready" } | { kind: "message"; frames: Uint8Array[] } | { kind: "log"; text: string } | { kind: "bind-error"; text: string } | { kind: "interrupt"; id: number };
 /** Messages from the kernel to the control process. */
 export type ToControl = { kind: "send"; frames: Uint8Array[] } | { kind: "close" } | { kind: "interrupt-ack"; id: number };
 
@@ -89,42 +85,42 @@ async function main(): Promise<void> {
   })().catch(() => {});
   try {
     for await (const frames of control) {
-    let msg;
-    try {
-      msg = parseMessage(data.key, frames as Buffer[]);
-    } catch (err) {
-      post({ kind: "log", text: `control message dropped: ${err instanceof WireError ? err.message : String(err)}` });
-      continue;
-    }
-    if (!replay.admit(msg.signature ?? "")) {
-      post({ kind: "log", text: `control message dropped: replayed signature (msg_id ${msg.header.msg_id}, ${msg.header.msg_type})` });
-      continue;
-    }
-    if (msg.header.msg_type === "interrupt_request") {
-      const id = ++interruptIds;
-      pendingInterrupts.set(
-        id,
-        setTimeout(() => {
-          pendingInterrupts.delete(id);
-          try {
-            process.kill(kernelPid, "SIGINT");
-          } catch {
-            // the kernel has ended
-          }
-        }, INTERRUPT_BY_MESSAGE_MS),
-      );
-      post({ kind: "interrupt", id });
-      send(
-        serializeMessage(data.key, {
-          identities: msg.identities,
-          header: makeHeader("interrupt_reply", msg.header),
-          parent_header: msg.header,
-          content: { status: "ok" },
-        }),
-      );
-      continue;
-    }
-    post({ kind: "message", frames: frames as Buffer[] });
+      let msg;
+      try {
+        msg = parseMessage(data.key, frames as Buffer[]);
+      } catch (err) {
+        post({ kind: "log", text: `control message dropped: ${err instanceof WireError ? err.message : String(err)}` });
+        continue;
+      }
+      if (!replay.admit(msg.signature ?? "")) {
+        post({ kind: "log", text: `control message dropped: replayed signature (msg_id ${msg.header.msg_id}, ${msg.header.msg_type})` });
+        continue;
+      }
+      if (msg.header.msg_type === "interrupt_request") {
+        const id = ++interruptIds;
+        pendingInterrupts.set(
+          id,
+          setTimeout(() => {
+            pendingInterrupts.delete(id);
+            try {
+              process.kill(kernelPid, "SIGINT");
+            } catch {
+              // the kernel has ended
+            }
+          }, INTERRUPT_BY_MESSAGE_MS),
+        );
+        post({ kind: "interrupt", id });
+        send(
+          serializeMessage(data.key, {
+            identities: msg.identities,
+            header: makeHeader("interrupt_reply", msg.header),
+            parent_header: msg.header,
+            content: { status: "ok" },
+          }),
+        );
+        continue;
+      }
+      post({ kind: "message", frames: frames as Buffer[] });
     }
   } catch {
     // the socket was closed: the kernel is shutting down

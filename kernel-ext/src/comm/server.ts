@@ -162,7 +162,14 @@ export class HelicoidServer extends ZmqServer {
         default:
           this.log(`unknown message type '${type}' ignored`);
           if (type.endsWith("_request")) {
-            await this.withStatus(msg, () => this.reply(sock, msg, type.replace(/_request$/, "_reply"), { status: "error", ename: "UnknownRequest", evalue: `this kernel does not handle '${type}'`, traceback: [] }));
+            await this.withStatus(msg, () =>
+              this.reply(sock, msg, type.replace(/_request$/, "_reply"), {
+                status: "error",
+                ename: "UnknownRequest",
+                evalue: `this kernel does not handle '${type}'`,
+                traceback: [],
+              }),
+            );
           }
       }
     } catch (err) {

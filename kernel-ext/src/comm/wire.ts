@@ -137,12 +137,9 @@ export interface OutgoingMessage {
 
 /** Serialize and sign a message into frames. Buffers are appended raw, unsigned, as the spec says. */
 export function serializeMessage(key: string, msg: OutgoingMessage): Buffer[] {
-  const body = [
-    JSON.stringify(msg.header),
-    JSON.stringify(msg.parent_header ?? {}),
-    JSON.stringify(msg.metadata ?? {}),
-    JSON.stringify(msg.content ?? {}),
-  ].map((s) => Buffer.from(s, "utf8"));
+  const body = [JSON.stringify(msg.header), JSON.stringify(msg.parent_header ?? {}), JSON.stringify(msg.metadata ?? {}), JSON.stringify(msg.content ?? {})].map((s) =>
+    Buffer.from(s, "utf8"),
+  );
   const frames: Buffer[] = [...(msg.identities ?? []), DELIMITER, Buffer.from(sign(key, body), "ascii"), ...body];
   for (const b of msg.buffers ?? []) frames.push(toBuffer(b));
   return frames;

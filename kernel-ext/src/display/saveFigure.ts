@@ -95,7 +95,10 @@ async function svgToPng(svg: string, width: number, height: number, scale: numbe
     throw new Error("saveFigure: a PNG needs playwright-core (npm i playwright-core) and Debian's chromium; save as .svg instead");
   }
   if (!exe) throw new Error("saveFigure: a PNG needs chromium on PATH (apt-get install chromium); save as .svg instead");
-  const browser = await pw.chromium.launch({ executablePath: exe, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+  const browser = await pw.chromium.launch({
+    executablePath: exe,
+    args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  });
   try {
     const page = await browser.newPage({ viewport: { width, height }, deviceScaleFactor: scale });
     await page.setContent(`<html><body style="margin:0">${svg.replace(/^<\?xml[^>]*>\s*/, "")}</body></html>`);

@@ -3,7 +3,16 @@
  * in Markdown, LaTeX, HTML and plain text, with the result's assumptions, method and sources below
  * it, so a notebook documents an analysis with no extra typing.
  */
-import { catalogue, formatQuantity, formatWithError, isDocumentedResult, symbolHtml as libSymbolHtml, type CalculatorResult, type CalculatorSpec, type DocumentedResult } from "@helicoid/lib";
+import {
+  catalogue,
+  formatQuantity,
+  formatWithError,
+  isDocumentedResult,
+  symbolHtml as libSymbolHtml,
+  type CalculatorResult,
+  type CalculatorSpec,
+  type DocumentedResult,
+} from "@helicoid/lib";
 import { mimeBundle, type Displayable } from "./bundle.js";
 import type { MimeBundle } from "./output.js";
 
@@ -62,7 +71,11 @@ export function formatEntry(e: Entry): string {
 export function headlineOutputs(spec: CalculatorSpec, outputs: Record<string, Entry>): string[] {
   if (spec.headline?.length) return spec.headline.filter((n) => n in outputs);
   const uncertainties = new Set(spec.outputs.map((o) => o.uncertainty).filter(Boolean));
-  return spec.outputs.filter((o) => !uncertainties.has(o.name)).filter((o) => (o.kind ?? "scalar") === "scalar" && o.name in outputs && typeof outputs[o.name]?.value === "number").slice(0, 4).map((o) => o.name);
+  return spec.outputs
+    .filter((o) => !uncertainties.has(o.name))
+    .filter((o) => (o.kind ?? "scalar") === "scalar" && o.name in outputs && typeof outputs[o.name]?.value === "number")
+    .slice(0, 4)
+    .map((o) => o.name);
 }
 
 /**
@@ -95,9 +108,15 @@ export function groupedRows(result: CalculatorResult): { rows: Row[]; statements
   for (const [name, e] of Object.entries(result.outputs)) {
     if (uncertaintyOf.has(name)) continue;
     const d = def(spec?.outputs, name);
-    const u = (spec?.outputs.find((o) => o.name === name)?.uncertainty);
+    const u = spec?.outputs.find((o) => o.name === name)?.uncertainty;
     if (u && uncertaintyOf.get(u) === name) {
-      const row = { section: headline.has(name) ? "Results" : "Other results", name, symbol: d?.symbol ?? "", meaning: d?.meaning ?? name, value: formatWithError(e.value as number, result.outputs[u]!.value as number, e.unit) };
+      const row = {
+        section: headline.has(name) ? "Results" : "Other results",
+        name,
+        symbol: d?.symbol ?? "",
+        meaning: d?.meaning ?? name,
+        value: formatWithError(e.value as number, result.outputs[u]!.value as number, e.unit),
+      };
       (headline.has(name) ? top : other).push(row);
       continue;
     }
@@ -116,14 +135,69 @@ export function groupedRows(result: CalculatorResult): { rows: Row[]; statements
 /** A symbol as plain text with Unicode sub- and superscripts where they exist ("μ₀H", "K_eff"). */
 export function symbolPlain(tex: string): string {
   if (!tex) return "";
-  const sub: Record<string, string> = { "0": "₀", "1": "₁", "2": "₂", "3": "₃", "4": "₄", "5": "₅", "6": "₆", "7": "₇", "8": "₈", "9": "₉", "+": "₊", "−": "₋", "-": "₋", "(": "₍", ")": "₎", a: "ₐ", e: "ₑ", o: "ₒ", x: "ₓ", h: "ₕ", k: "ₖ", l: "ₗ", m: "ₘ", n: "ₙ", p: "ₚ", s: "ₛ", t: "ₜ", i: "ᵢ", r: "ᵣ", u: "ᵤ", v: "ᵥ" };
-  const sup: Record<string, string> = { "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹", "+": "⁺", "−": "⁻", "-": "⁻", "(": "⁽", ")": "⁾", n: "ⁿ", i: "ⁱ", "*": "*", "′": "′" };
-  const map = (t: string, table: Record<string, string>, mark: string) => ([...t].every((c) => c in table) ? [...t].map((c) => table[c]).join("") : `${mark}${t.length > 1 ? `{${t}}` : t}`);
+  const sub: Record<string, string> = {
+    "0": "₀",
+    "1": "₁",
+    "2": "₂",
+    "3": "₃",
+    "4": "₄",
+    "5": "₅",
+    "6": "₆",
+    "7": "₇",
+    "8": "₈",
+    "9": "₉",
+    "+": "₊",
+    "−": "₋",
+    "-": "₋",
+    "(": "₍",
+    ")": "₎",
+    a: "ₐ",
+    e: "ₑ",
+    o: "ₒ",
+    x: "ₓ",
+    h: "ₕ",
+    k: "ₖ",
+    l: "ₗ",
+    m: "ₘ",
+    n: "ₙ",
+    p: "ₚ",
+    s: "ₛ",
+    t: "ₜ",
+    i: "ᵢ",
+    r: "ᵣ",
+    u: "ᵤ",
+    v: "ᵥ",
+  };
+  const sup: Record<string, string> = {
+    "0": "⁰",
+    "1": "¹",
+    "2": "²",
+    "3": "³",
+    "4": "⁴",
+    "5": "⁵",
+    "6": "⁶",
+    "7": "⁷",
+    "8": "⁸",
+    "9": "⁹",
+    "+": "⁺",
+    "−": "⁻",
+    "-": "⁻",
+    "(": "⁽",
+    ")": "⁾",
+    n: "ⁿ",
+    i: "ⁱ",
+    "*": "*",
+    "′": "′",
+  };
+  const map = (t: string, table: Record<string, string>, mark: string) =>
+    [...t].every((c) => c in table) ? [...t].map((c) => table[c]).join("") : `${mark}${t.length > 1 ? `{${t}}` : t}`;
   return libSymbolHtml(tex)
     .replace(/<sub>(.*?)<\/sub>/g, (_m, t: string) => map(t, sub, "_"))
     .replace(/<sup>(.*?)<\/sup>/g, (_m, t: string) => map(t, sup, "^"))
     .replace(/<[^>]+>/g, "")
-    .replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&amp;/g, "&");
 }
 
 export class ResultTable implements Displayable {
@@ -133,7 +207,8 @@ export class ResultTable implements Displayable {
   /** Text outputs, shown as sentences under the table. */
   readonly statements: Array<{ name: string; meaning: string; text: string }> = [];
   constructor(readonly input: TableInput) {
-    if (!input || typeof input !== "object") throw new TypeError(`table: got ${typeof input}; expected a calculator result, a documented result (a fit ...) or a record of {value, unit}`);
+    if (!input || typeof input !== "object")
+      throw new TypeError(`table: got ${typeof input}; expected a calculator result, a documented result (a fit ...) or a record of {value, unit}`);
     this.rows = [];
     if (isResult(input)) {
       this.title = `${input.title}${input.status !== "ok" ? ` (${input.status})` : ""}`;
@@ -146,7 +221,13 @@ export class ResultTable implements Displayable {
       this.title = r.title ?? r.model ?? "";
       for (const [name, e] of Object.entries(r.inputs ?? {})) this.rows.push({ section: "Inputs", name, symbol: "", meaning: name, value: formatEntry(e) });
       for (const [name, p] of Object.entries(r.parameters ?? {})) {
-        this.rows.push({ section: "Results", name, symbol: "", meaning: p.fixed ? `${name} (fixed)` : name, value: p.fixed ? formatQuantity(p.value, p.unit) : formatWithError(p.value, p.stderr, p.unit) });
+        this.rows.push({
+          section: "Results",
+          name,
+          symbol: "",
+          meaning: p.fixed ? `${name} (fixed)` : name,
+          value: p.fixed ? formatQuantity(p.value, p.unit) : formatWithError(p.value, p.stderr, p.unit),
+        });
       }
       this.notes = storyOf(r);
     } else {
@@ -172,14 +253,22 @@ export class ResultTable implements Displayable {
     const lines: string[] = [];
     if (this.title) lines.push(`**${esc(this.title)}**`, "");
     lines.push("| Quantity | Symbol | Value |", "|---|---|---|");
-    lines.push(...this.grouped((s) => `| **${s}** | | |`, (r) => `| ${esc(r.meaning)} | ${r.symbol ? `$${r.symbol}$` : ""} | ${esc(r.value)} |`));
+    lines.push(
+      ...this.grouped(
+        (s) => `| **${s}** | | |`,
+        (r) => `| ${esc(r.meaning)} | ${r.symbol ? `$${r.symbol}$` : ""} | ${esc(r.value)} |`,
+      ),
+    );
     if (this.statements.length) lines.push("", ...this.statements.map((s) => `- ${esc(capital(s.meaning))}: ${esc(s.text)}`));
     if (this.notes.length) lines.push("", ...this.notes.map((n) => `- ${esc(n)}`));
     return lines.join("\n");
   }
 
   latex(): string {
-    const body = this.grouped((s) => `\\multicolumn{3}{l}{\\textbf{${texText(s)}}} \\\\`, (r) => `${texText(r.meaning)} & ${r.symbol ? `$${r.symbol}$` : ""} & ${texText(r.value)} \\\\`).join("\n");
+    const body = this.grouped(
+      (s) => `\\multicolumn{3}{l}{\\textbf{${texText(s)}}} \\\\`,
+      (r) => `${texText(r.meaning)} & ${r.symbol ? `$${r.symbol}$` : ""} & ${texText(r.value)} \\\\`,
+    ).join("\n");
     return `\\begin{tabular}{lll}\n\\hline\nQuantity & Symbol & Value \\\\\n\\hline\n${body}\n\\hline\n\\end{tabular}`;
   }
 
@@ -188,7 +277,9 @@ export class ResultTable implements Displayable {
       (s) => `<tr class="helicoid-group"><th colspan="3" style="text-align:left">${html(s)}</th></tr>`,
       (r) => `<tr data-name="${html(r.name)}"><td title="${html(r.name)}">${html(r.meaning)}</td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`,
     ).join("");
-    const statements = this.statements.length ? `<ul class="helicoid-statements">${this.statements.map((s) => `<li><b>${html(capital(s.meaning))}</b>: ${html(s.text)}</li>`).join("")}</ul>` : "";
+    const statements = this.statements.length
+      ? `<ul class="helicoid-statements">${this.statements.map((s) => `<li><b>${html(capital(s.meaning))}</b>: ${html(s.text)}</li>`).join("")}</ul>`
+      : "";
     const notes = this.notes.length ? `<ul>${this.notes.map((n) => `<li>${html(n)}</li>`).join("")}</ul>` : "";
     return `<div class="helicoid-table">${this.title ? `<b>${html(this.title)}</b>` : ""}<table><thead><tr><th>Quantity</th><th>Symbol</th><th>Value</th></tr></thead><tbody>${rows}</tbody></table>${statements}${notes}</div>`;
   }
@@ -251,5 +342,9 @@ function html(s: string): string {
   return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 }
 function texText(s: string): string {
-  return s.replace(/([&%$#_{}])/g, "\\$1").replace(/µ/g, "$\\mu$").replace(/²/g, "$^2$").replace(/³/g, "$^3$");
+  return s
+    .replace(/([&%$#_{}])/g, "\\$1")
+    .replace(/µ/g, "$\\mu$")
+    .replace(/²/g, "$^2$")
+    .replace(/³/g, "$^3$");
 }

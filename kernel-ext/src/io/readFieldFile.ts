@@ -13,8 +13,18 @@
 import { closeSync, openSync, readSync, fstatSync } from "node:fs";
 import { basename } from "node:path";
 import {
-  DelimitedFieldParser, InputError, adoptInterleaved, checkFieldBudget, formatBytes, parseNpyHeader, readNpyVectorField, readVectorField, isNpy,
-  FIELD_MEMORY_BUDGET, type ReadOptions, type ReadResult,
+  DelimitedFieldParser,
+  InputError,
+  adoptInterleaved,
+  checkFieldBudget,
+  formatBytes,
+  parseNpyHeader,
+  readNpyVectorField,
+  readVectorField,
+  isNpy,
+  FIELD_MEMORY_BUDGET,
+  type ReadOptions,
+  type ReadResult,
 } from "@helicoid/lib";
 
 export interface FileReadOptions extends Omit<ReadOptions, "file"> {
@@ -68,7 +78,8 @@ export function readVectorFieldFile(path: string, options: FileReadOptions = {})
       return readNpyChunked(fd, size, head, name, options);
     }
     const ext = /\.([a-z0-9]+)$/i.exec(name)?.[1]?.toLowerCase();
-    const json = ext === "json" || ((ext === undefined || !["csv", "tsv", "txt", "dat", "tab"].includes(ext)) && new TextDecoder().decode(head.subarray(0, 64)).trimStart().startsWith("{"));
+    const json =
+      ext === "json" || ((ext === undefined || !["csv", "tsv", "txt", "dat", "tab"].includes(ext)) && new TextDecoder().decode(head.subarray(0, 64)).trimStart().startsWith("{"));
     if (!json) return sharedIfAsked(readDelimitedStreaming(fd, size, name, options), options);
     if (size > TEXT_FILE_LIMIT) {
       throw new InputError(
@@ -105,7 +116,7 @@ function sharedIfAsked(result: ReadResult, options: FileReadOptions): ReadResult
 function readDelimitedStreaming(fd: number, size: number, name: string, options: FileReadOptions): ReadResult {
   const parser = new DelimitedFieldParser({ ...options, file: name }, size);
   const chunk = new Uint8Array(Math.min(CHUNK, Math.max(size, 1)));
-  for (let pos = 0; pos < size; ) {
+  for (let pos = 0; pos < size;) {
     const n = readSync(fd, chunk, 0, Math.min(chunk.length, size - pos), pos);
     if (n <= 0) break;
     pos += n;
@@ -154,7 +165,10 @@ function readNpyChunked(fd: number, size: number, head: Uint8Array, name: string
     const chunk = new Uint8Array(chunkElems * width);
     const view = new DataView(chunk.buffer);
     // Fortran order: element (k, j, i, c) of shape (nz, ny, nx, 3) is at source index k + nz*(j + ny*(i + nx*c)).
-    let k = 0, j = 0, i = 0, c = 0;
+    let k = 0,
+      j = 0,
+      i = 0,
+      c = 0;
     for (let src = 0; src < count; src += chunkElems) {
       const n = Math.min(chunkElems, count - src);
       const part = chunk.subarray(0, n * width);
@@ -164,7 +178,16 @@ function readNpyChunked(fd: number, size: number, head: Uint8Array, name: string
         if (!h.fortranOrder) out[src + e] = v;
         else {
           out[3 * ((k * ny + j) * nx + i) + c] = v;
-          if (++k === nz) { k = 0; if (++j === ny) { j = 0; if (++i === nx) { i = 0; c++; } } }
+          if (++k === nz) {
+            k = 0;
+            if (++j === ny) {
+              j = 0;
+              if (++i === nx) {
+                i = 0;
+                c++;
+              }
+            }
+          }
         }
       }
     }

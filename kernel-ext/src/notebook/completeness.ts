@@ -31,7 +31,9 @@ export function helpTarget(code: string): string | null {
 export function isCompleteCode(code: string): Completeness {
   if (helpTarget(code) !== null) return { status: "complete" };
   const t = ts();
-  const src = t.createSourceFile("cell.ts", code, t.ScriptTarget.Latest, false, t.ScriptKind.TSX) as unknown as { parseDiagnostics?: Array<{ start: number; length: number; messageText: unknown; code: number }> };
+  const src = t.createSourceFile("cell.ts", code, t.ScriptTarget.Latest, false, t.ScriptKind.TSX) as unknown as {
+    parseDiagnostics?: Array<{ start: number; length: number; messageText: unknown; code: number }>;
+  };
   const diags = src.parseDiagnostics ?? [];
   const end = code.replace(/\s+$/, "").length;
   let atEnd = false;

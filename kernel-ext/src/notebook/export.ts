@@ -61,7 +61,7 @@ let markdownRenderer: ((s: string) => string) | null = null;
 function renderMarkdown(source: string): string {
   if (!markdownRenderer) {
     readBuilt("markdown.cjs"); // clear error when missing
-     
+
     markdownRenderer = (require(join(widgetsDir(), "dist", "markdown.cjs")) as { renderMarkdown: (s: string) => string }).renderMarkdown;
   }
   return markdownRenderer(source);
@@ -73,7 +73,10 @@ export function escapeHtml(s: string): string {
 
 /** JSON inside a <script> element: "</" and "<!--" must not appear. */
 function scriptJson(value: unknown): string {
-  return JSON.stringify(value).replace(/</g, "\\u003c").replace(/\u2028/g, "\\u2028").replace(/\u2029/g, "\\u2029");
+  return JSON.stringify(value)
+    .replace(/</g, "\\u003c")
+    .replace(/\u2028/g, "\\u2028")
+    .replace(/\u2029/g, "\\u2029");
 }
 
 function scriptSource(js: string): string {
@@ -116,14 +119,16 @@ function imageTag(mime: string, value: unknown): string {
 }
 
 function renderOutput(out: Json, widgetIds: Set<string>, counters: RenderState): string {
-  if (!out || typeof out !== "object" || Array.isArray(out)) return `<pre class="hx-out hx-plain"><em>(an output that is not an object: ${escapeHtml(shorten(JSON.stringify(out) ?? String(out)))}; skipped)</em></pre>`;
+  if (!out || typeof out !== "object" || Array.isArray(out))
+    return `<pre class="hx-out hx-plain"><em>(an output that is not an object: ${escapeHtml(shorten(JSON.stringify(out) ?? String(out)))}; skipped)</em></pre>`;
   const type = out.output_type;
   if (type === "stream") {
     const name = out.name === "stderr" ? "stderr" : "stdout";
     return `<pre class="hx-out hx-stream hx-${name}">${escapeHtml(stripAnsi(text(out.text)))}</pre>`;
   }
   if (type === "error") {
-    const tb = Array.isArray(out.traceback) && out.traceback.length ? (out.traceback as unknown[]).map((l) => stripAnsi(text(l))).join("\n") : `${text(out.ename)}: ${text(out.evalue)}`;
+    const tb =
+      Array.isArray(out.traceback) && out.traceback.length ? (out.traceback as unknown[]).map((l) => stripAnsi(text(l))).join("\n") : `${text(out.ename)}: ${text(out.evalue)}`;
     return `<pre class="hx-out hx-error-output">${escapeHtml(tb)}</pre>`;
   }
   if (type !== "display_data" && type !== "execute_result" && type !== "update_display_data") return "";
@@ -261,7 +266,9 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
       const outputs = Array.isArray(cell.outputs) ? (cell.outputs as Json[]).map((o) => renderOutput(o, ids, counters)).join("\n") : "";
       parts.push(
         `<section class="hx-cell hx-code-cell">` +
-          (showCode && source.trim() ? `<div class="hx-input"><div class="hx-prompt">[${escapeHtml(count)}]:</div><pre class="hx-source"><code>${escapeHtml(source)}</code></pre></div>` : "") +
+          (showCode && source.trim()
+            ? `<div class="hx-input"><div class="hx-prompt">[${escapeHtml(count)}]:</div><pre class="hx-source"><code>${escapeHtml(source)}</code></pre></div>`
+            : "") +
           (outputs ? `<div class="hx-outputs-area">${outputs}</div>` : "") +
           `</section>`,
       );
@@ -271,10 +278,11 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
   }
   const title = options.title ?? firstHeading(cells) ?? "Helicoid notebook";
   const needsScript = counters.widgets > 0 || counters.plots > 0;
-  const bundle = needsScript ? options.bundle ?? readBuilt("export.js") : "";
-  const note = counters.widgets > 0
-    ? `<p class="hx-page-note">Exported notebook. Explorers of catalogue calculators compute in this page: move their sliders. Widgets that need the kernel show their last state.</p>`
-    : "";
+  const bundle = needsScript ? (options.bundle ?? readBuilt("export.js")) : "";
+  const note =
+    counters.widgets > 0
+      ? `<p class="hx-page-note">Exported notebook. Explorers of catalogue calculators compute in this page: move their sliders. Widgets that need the kernel show their last state.</p>`
+      : "";
   return (
     `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n` +
     `<meta name="generator" content="helicoid export">\n<title>${escapeHtml(title)}</title>\n<style>${PAGE_CSS}</style>\n</head>\n<body>\n<main>\n` +
@@ -287,7 +295,8 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
   );
 }
 
-const USAGE = "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code] [--trusted]\n  --trusted  keep the notebook's raw HTML and scripts (only for notebooks you trust; by default HTML and Markdown are sanitized)\nExit status: 0 done, 2 bad input or usage (a missing or malformed notebook, an unwritable output path), 1 a failed export.";
+const USAGE =
+  "usage: helicoid export NOTEBOOK.ipynb [-o PAGE.html] [--title TEXT] [--no-code] [--trusted]\n  --trusted  keep the notebook's raw HTML and scripts (only for notebooks you trust; by default HTML and Markdown are sanitized)\nExit status: 0 done, 2 bad input or usage (a missing or malformed notebook, an unwritable output path), 1 a failed export.";
 
 type Out = ((s: string) => unknown) | { write(s: string): unknown };
 
@@ -299,16 +308,26 @@ type Out = ((s: string) => unknown) | { write(s: string): unknown };
 export async function exportCommand(args: string[], cio: { stdout: Out; stderr: Out }): Promise<number> {
   const w = (o: Out) => ({ write: (s: string) => (typeof o === "function" ? o(s) : o.write(s)) });
   const io = { stdout: w(cio.stdout), stderr: w(cio.stderr) };
-  const usage = (message: string) => { io.stderr.write(`helicoid export: ${message}\n${USAGE}\n`); return 2; };
+  const usage = (message: string) => {
+    io.stderr.write(`helicoid export: ${message}\n${USAGE}\n`);
+    return 2;
+  };
   let a: ReturnType<typeof parseStrict>;
   try {
-    a = parseStrict(args, { flags: ["--no-code", "--trusted", "-h", "--help"], valued: { "-o": "a file name such as PAGE.html", "--output": "a file name such as PAGE.html", "--title": "the page title" } });
+    a = parseStrict(args, {
+      flags: ["--no-code", "--trusted", "-h", "--help"],
+      valued: { "-o": "a file name such as PAGE.html", "--output": "a file name such as PAGE.html", "--title": "the page title" },
+    });
   } catch (err) {
     if (err instanceof UsageError) return usage(err.message);
     throw err;
   }
-  if (a.flags.has("-h") || a.flags.has("--help")) { io.stdout.write(USAGE + "\n"); return 0; }
-  if (a.options.has("-o") && a.options.has("--output")) return usage(`-o and --output both given (${shorten(a.options.get("-o"))}, ${shorten(a.options.get("--output"))}): give one`);
+  if (a.flags.has("-h") || a.flags.has("--help")) {
+    io.stdout.write(USAGE + "\n");
+    return 0;
+  }
+  if (a.options.has("-o") && a.options.has("--output"))
+    return usage(`-o and --output both given (${shorten(a.options.get("-o"))}, ${shorten(a.options.get("--output"))}): give one`);
   if (a.positional.length > 1) return usage(`more than one notebook given (${shorten(a.positional.join(", "))})`);
   const input = a.positional[0];
   const output = a.options.get("-o") ?? a.options.get("--output");
@@ -334,11 +353,16 @@ export async function exportCommand(args: string[], cio: { stdout: Out; stderr: 
     nb = JSON.parse(raw);
     checkNotebook(nb, input);
   } catch (err) {
-    io.stderr.write(`helicoid export: ${err instanceof ExportError ? err.message : `${input}: not valid JSON (${err instanceof RangeError ? "nested too deeply to read" : shorten((err as Error).message)})`}\n`);
+    io.stderr.write(
+      `helicoid export: ${err instanceof ExportError ? err.message : `${input}: not valid JSON (${err instanceof RangeError ? "nested too deeply to read" : shorten((err as Error).message)})`}\n`,
+    );
     return 2;
   }
   const problem = outputFileProblem(out);
-  if (problem !== null) { io.stderr.write(`helicoid export: cannot write ${problem}\n`); return 2; }
+  if (problem !== null) {
+    io.stderr.write(`helicoid export: cannot write ${problem}\n`);
+    return 2;
+  }
   let html: string;
   try {
     html = exportNotebook(nb, { title, showCode, trusted, sourceName: input });

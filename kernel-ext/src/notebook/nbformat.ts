@@ -49,7 +49,8 @@ export function checkNotebook(raw: unknown, file: string): Notebook {
     const where = `cell ${i + 1}`;
     if (!c || typeof c !== "object") throw new NotebookError(file, `${where} is not an object`);
     const cell = c as Record<string, unknown>;
-    if (!["code", "markdown", "raw"].includes(cell.cell_type as string)) throw new NotebookError(file, `${where} has cell_type ${JSON.stringify(cell.cell_type)}; expected "code", "markdown" or "raw"`);
+    if (!["code", "markdown", "raw"].includes(cell.cell_type as string))
+      throw new NotebookError(file, `${where} has cell_type ${JSON.stringify(cell.cell_type)}; expected "code", "markdown" or "raw"`);
     if (!(typeof cell.source === "string" || (Array.isArray(cell.source) && cell.source.every((s) => typeof s === "string")))) {
       throw new NotebookError(file, `${where} has a source that is not text (a string or a list of strings)`);
     }
@@ -58,7 +59,10 @@ export function checkNotebook(raw: unknown, file: string): Notebook {
   try {
     copy = structuredClone(nb) as unknown as Notebook;
   } catch (err) {
-    throw new NotebookError(file, err instanceof RangeError ? "nested too deeply to read (a notebook is a few levels of JSON)" : `cannot be copied (${String((err as Error)?.message).slice(0, 200)})`);
+    throw new NotebookError(
+      file,
+      err instanceof RangeError ? "nested too deeply to read (a notebook is a few levels of JSON)" : `cannot be copied (${String((err as Error)?.message).slice(0, 200)})`,
+    );
   }
   copy.metadata = copy.metadata && typeof copy.metadata === "object" ? copy.metadata : {};
   copy.nbformat_minor = typeof copy.nbformat_minor === "number" ? copy.nbformat_minor : 4;

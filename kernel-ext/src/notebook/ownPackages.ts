@@ -76,7 +76,7 @@ export function exposeOwnPackages(rootDir: string): void {
   }
   if (forwarded.size === 0) return;
   const scopeUnderRoot = join(rootDir, "node_modules", "@helicoid");
-   
+
   const ts = require("@tslab/typescript-for-tslab") as { sys: Record<string, (...a: never[]) => unknown> };
   const sys = ts.sys as unknown as {
     fileExists(p: string): boolean;

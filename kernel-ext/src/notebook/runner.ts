@@ -13,7 +13,17 @@ import { comms } from "../comm/comms.js";
 import { resetPlotlyEmbedding } from "../display/figure.js";
 import { currentContext, describeError, hookProcessStreams, realStderr, setFallbackContext, type OutputContext, type OutputSink } from "../display/output.js";
 import { widgetStateDocument } from "../widgets/widget.js";
-import { cellSource, helicoidKernelspec, NotebookError, parseNotebook, splitLines, typescriptLanguageInfo, WIDGET_STATE_MIME, type Notebook, type NotebookCell } from "./nbformat.js";
+import {
+  cellSource,
+  helicoidKernelspec,
+  NotebookError,
+  parseNotebook,
+  splitLines,
+  typescriptLanguageInfo,
+  WIDGET_STATE_MIME,
+  type Notebook,
+  type NotebookCell,
+} from "./nbformat.js";
 import { ExecutionSession } from "./session.js";
 
 export interface RunFailure {
@@ -64,10 +74,7 @@ function cellSink(outputs: Output[], count: number): OutputSink {
   };
 }
 
-export async function runNotebookFile(
-  input: string,
-  options: { out?: string; onCell?: (index: number, total: number) => void } = {},
-): Promise<RunResult> {
+export async function runNotebookFile(input: string, options: { out?: string; onCell?: (index: number, total: number) => void } = {}): Promise<RunResult> {
   const file = resolve(input);
   if (!existsSync(file)) throw new NotebookError(input, "no such file");
   const nb = parseNotebook(readFileSync(file, "utf8"), input);

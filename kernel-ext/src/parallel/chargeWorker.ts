@@ -17,8 +17,9 @@ export interface ChargeJob {
 }
 
 parentPort?.on("message", (job: ChargeJob) => {
-  const sum = job.vacuum === null && !job.triangular
-    ? solidAngleSumSquare(job.m, job.nx, job.ny, job.base, job.j0, job.j1, job.wrapX)
-    : solidAngleSumGeneral(job.m, job.vacuum, job.nx, job.ny, job.base, job.j0, job.j1, job.wrapX, job.triangular, null, null);
+  const sum =
+    job.vacuum === null && !job.triangular
+      ? solidAngleSumSquare(job.m, job.nx, job.ny, job.base, job.j0, job.j1, job.wrapX)
+      : solidAngleSumGeneral(job.m, job.vacuum, job.nx, job.ny, job.base, job.j0, job.j1, job.wrapX, job.triangular, null, null);
   parentPort!.postMessage({ id: job.id, sum });
 });

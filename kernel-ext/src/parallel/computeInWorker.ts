@@ -33,7 +33,11 @@ export interface WorkerComputeOptions extends ComputeOptions {
 /** A calculator of the catalogue by id: typed inputs (a film accepted) and a typed result, as `runCalculator`. */
 export function computeInWorker<Id extends CalculatorId>(id: Id, inputs?: CalculatorInputs<SpecById<Id>>, options?: WorkerComputeOptions): Promise<ResultOf<SpecById<Id>>>;
 /** An id held in a `string` variable (a literal id must be one of the catalogue's). */
-export function computeInWorker<T extends string>(id: string extends T ? T : never, inputs?: Record<string, QuantityInput | undefined>, options?: WorkerComputeOptions): Promise<CalculatorResult>;
+export function computeInWorker<T extends string>(
+  id: string extends T ? T : never,
+  inputs?: Record<string, QuantityInput | undefined>,
+  options?: WorkerComputeOptions,
+): Promise<CalculatorResult>;
 export function computeInWorker(id: string, inputs: object = {}, options: WorkerComputeOptions = {}): Promise<CalculatorResult> {
   const { progress = true, ...compute } = options;
   const ctx = currentContext();

@@ -11,8 +11,16 @@
  */
 import { cpus } from "node:os";
 import {
-  InputError, checkChernInput, chernStrip, combineChernStrips, tightBindingModel,
-  type ChernOptions, type ChernPartial, type ChernResult, type TightBindingSpec, type TightBindingModel,
+  InputError,
+  checkChernInput,
+  chernStrip,
+  combineChernStrips,
+  tightBindingModel,
+  type ChernOptions,
+  type ChernPartial,
+  type ChernResult,
+  type TightBindingSpec,
+  type TightBindingModel,
 } from "@helicoid/lib";
 import type { ChernJob, ChernReply } from "./chernWorker.js";
 import { WorkerPool } from "./workerPool.js";
@@ -32,7 +40,11 @@ export interface ParallelChernOptions extends ChernOptions {
 export async function parallelChernNumbers(model: TightBindingSpec | TightBindingModel, options: ParallelChernOptions = {}): Promise<ChernResult & { threads: number }> {
   const spec: TightBindingSpec | undefined = "spec" in model ? model.spec : "hoppings" in model ? model : undefined;
   if (!spec) {
-    throw new InputError("model", `a model without a tight-binding spec (${(model as { name?: string }).name ?? "unnamed"})`, "a tight-binding spec or a model made by tightBindingModel / supercellModel / haldaneModel (a model given as a function cannot be sent to worker threads: use chernNumbers)");
+    throw new InputError(
+      "model",
+      `a model without a tight-binding spec (${(model as { name?: string }).name ?? "unnamed"})`,
+      "a tight-binding spec or a model made by tightBindingModel / supercellModel / haldaneModel (a model given as a function cannot be sent to worker threads: use chernNumbers)",
+    );
   }
   const { threads: threadsOpt, ...chernOptions } = options;
   const threads = threadsOpt ?? Math.max(1, cpus().length);

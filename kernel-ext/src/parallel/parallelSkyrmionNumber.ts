@@ -6,9 +6,7 @@
  * (use readVectorFieldFile(path, { shared: true }) or toSharedField to avoid it).
  */
 import { cpus } from "node:os";
-import {
-  InputError, wrapFlags, requireAtLeast, requireSomeMatter, solidAngleSumGeneral, solidAngleSumSquare, type Boundary, type VectorField,
-} from "@helicoid/lib";
+import { InputError, wrapFlags, requireAtLeast, requireSomeMatter, solidAngleSumGeneral, solidAngleSumSquare, type Boundary, type VectorField } from "@helicoid/lib";
 import type { ChargeJob } from "./chargeWorker.js";
 import { WorkerPool } from "./workerPool.js";
 
@@ -38,10 +36,7 @@ export interface ParallelChargeResult {
   copied: boolean;
 }
 
-export async function parallelSkyrmionNumber(
-  field: VectorField,
-  options: { boundary?: Boundary; layer?: number; threads?: number } = {},
-): Promise<ParallelChargeResult> {
+export async function parallelSkyrmionNumber(field: VectorField, options: { boundary?: Boundary; layer?: number; threads?: number } = {}): Promise<ParallelChargeResult> {
   const { wrapX, wrapY } = wrapFlags(options.boundary);
   const layer = options.layer ?? 0;
   if (!Number.isInteger(layer) || layer < 0 || layer >= field.nz) throw new InputError("layer", options.layer, `a whole number from 0 to ${field.nz - 1}`);

@@ -72,7 +72,12 @@ export function putBuffers(state: Record<string, unknown>, paths: unknown, buffe
       obj = next as Record<string | number, unknown>;
     }
     const b = buffers[i]!;
-    Object.defineProperty(obj, path[path.length - 1] as string, { value: new DataView(b.buffer, b.byteOffset, b.byteLength), enumerable: true, writable: true, configurable: true });
+    Object.defineProperty(obj, path[path.length - 1] as string, {
+      value: new DataView(b.buffer, b.byteOffset, b.byteLength),
+      enumerable: true,
+      writable: true,
+      configurable: true,
+    });
   });
   return problems;
 }

@@ -289,7 +289,16 @@ export class FloatProgress extends BoundedNumber {
     const { min, max } = checkRange("progress", o, { min: 0, max: 1 });
     super(
       "FloatProgress",
-      { value: clamp(o.value ?? min, min, max), min, max, step: 0, description: o.description ?? "", description_allow_html: false, bar_style: o.bar_style ?? "", orientation: "horizontal" },
+      {
+        value: clamp(o.value ?? min, min, max),
+        min,
+        max,
+        step: 0,
+        description: o.description ?? "",
+        description_allow_html: false,
+        bar_style: o.bar_style ?? "",
+        orientation: "horizontal",
+      },
       "Progress",
     );
   }
@@ -300,7 +309,16 @@ export class IntProgress extends BoundedNumber {
     const { min, max } = checkRange("intProgress", o, { min: 0, max: 100 });
     super(
       "IntProgress",
-      { value: Math.round(clamp(o.value ?? min, min, max)), min, max, step: 1, description: o.description ?? "", description_allow_html: false, bar_style: o.bar_style ?? "", orientation: "horizontal" },
+      {
+        value: Math.round(clamp(o.value ?? min, min, max)),
+        min,
+        max,
+        step: 1,
+        description: o.description ?? "",
+        description_allow_html: false,
+        bar_style: o.bar_style ?? "",
+        orientation: "horizontal",
+      },
       "Progress",
     );
   }

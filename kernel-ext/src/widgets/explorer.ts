@@ -10,8 +10,18 @@
  * spec (errors name the input). Kernel-side changes move the page's controls.
  */
 import {
-  catalogue, coerceInputs, defaultSweep, getCalculator, runCalculator, InputError,
-  type CalculatorResult, type CalculatorSpec, type ComputeOutput, type InputSpec, type InputValues, type OutputSpec,
+  catalogue,
+  coerceInputs,
+  defaultSweep,
+  getCalculator,
+  runCalculator,
+  InputError,
+  type CalculatorResult,
+  type CalculatorSpec,
+  type ComputeOutput,
+  type InputSpec,
+  type InputValues,
+  type OutputSpec,
 } from "@helicoid/lib";
 import type { Film, QuantityInput, SweepRange } from "@helicoid/lib";
 import { KERNEL_VERSION } from "../version.js";
@@ -65,18 +75,28 @@ function specOfFunction(fn: PlainFunction, d: FunctionDescription | undefined): 
     const dflt = i.default;
     const span = Math.abs(dflt) || 1;
     return {
-      name: i.name, symbol: i.symbol ?? i.name, unit: i.unit ?? "", default: dflt,
-      min: i.min ?? (dflt > 0 ? 0 : dflt - span), max: i.max ?? (dflt > 0 ? 2 * dflt : dflt + span),
-      scale: i.scale ?? "linear", meaning: i.meaning ?? i.name, ...(i.kind ? { kind: i.kind } : {}), ...(i.choices ? { choices: i.choices } : {}),
+      name: i.name,
+      symbol: i.symbol ?? i.name,
+      unit: i.unit ?? "",
+      default: dflt,
+      min: i.min ?? (dflt > 0 ? 0 : dflt - span),
+      max: i.max ?? (dflt > 0 ? 2 * dflt : dflt + span),
+      scale: i.scale ?? "linear",
+      meaning: i.meaning ?? i.name,
+      ...(i.kind ? { kind: i.kind } : {}),
+      ...(i.choices ? { choices: i.choices } : {}),
     };
   });
-  let outputs: OutputSpec[] | null = d.outputs?.map((o) => ({ name: o.name, symbol: o.symbol ?? o.name, unit: o.unit ?? "", meaning: o.meaning ?? o.name, ...(o.kind ? { kind: o.kind } : {}) })) ?? null;
+  let outputs: OutputSpec[] | null =
+    d.outputs?.map((o) => ({ name: o.name, symbol: o.symbol ?? o.name, unit: o.unit ?? "", meaning: o.meaning ?? o.name, ...(o.kind ? { kind: o.kind } : {}) })) ?? null;
   const spec: CalculatorSpec = {
     id: fn.name || "function",
     title: d.title ?? (fn.name ? `${fn.name}(…)` : "Explored function"),
     summary: d.summary ?? "A function defined in the notebook, computed by the kernel.",
     inputs,
-    get outputs() { return outputs ?? []; },
+    get outputs() {
+      return outputs ?? [];
+    },
     plots: d.plots ?? [],
     ...(d.sweep ? { sweep: d.sweep } : {}),
     assumptions: d.assumptions ?? [],
@@ -86,7 +106,13 @@ function specOfFunction(fn: PlainFunction, d: FunctionDescription | undefined): 
       const r = fn(values);
       const out = (r && typeof r === "object" && "values" in r && typeof (r as ComputeOutput).values === "object" ? r : { values: r }) as ComputeOutput;
       if (!outputs) {
-        outputs = Object.entries(out.values).map(([name, v]) => ({ name, symbol: name, unit: "", meaning: name, kind: Array.isArray(v) ? "array" : typeof v === "string" ? "text" : "scalar" }));
+        outputs = Object.entries(out.values).map(([name, v]) => ({
+          name,
+          symbol: name,
+          unit: "",
+          meaning: name,
+          kind: Array.isArray(v) ? "array" : typeof v === "string" ? "text" : "scalar",
+        }));
       }
       return out;
     },
@@ -120,8 +146,8 @@ export class Explorer extends Widget<ExplorerState> {
       throw new InputError("calculator", calculator, "a catalogue id, a CalculatorSpec, or a function with options.describe");
     }
     const inputs = coerceInputs(spec, overrides as Record<string, QuantityInput | undefined>);
-    const sweep = options.sweep === undefined ? defaultSweep(spec, inputs) ?? null : options.sweep;
-    const computeIn = catalogueId ? options.computeIn ?? "browser" : "kernel";
+    const sweep = options.sweep === undefined ? (defaultSweep(spec, inputs) ?? null) : options.sweep;
+    const computeIn = catalogueId ? (options.computeIn ?? "browser") : "kernel";
     let result: CalculatorResult | null = null;
     let error = "";
     try {

@@ -37,9 +37,24 @@ export interface FitPanelState extends WidgetState {
 }
 
 const defaults: FitPanelState = {
-  title: "Fit", x: [], y: [], y_err: null, model_x: null, model_y: null, residuals: null,
-  x_label: "x", y_label: "y", x_unit: "", y_unit: "", parameters: [], status: "idle", progress: 0,
-  message: "", iterations: 0, chi2: null, reduced_chi2: null,
+  title: "Fit",
+  x: [],
+  y: [],
+  y_err: null,
+  model_x: null,
+  model_y: null,
+  residuals: null,
+  x_label: "x",
+  y_label: "y",
+  x_unit: "",
+  y_unit: "",
+  parameters: [],
+  status: "idle",
+  progress: 0,
+  message: "",
+  iterations: 0,
+  chi2: null,
+  reduced_chi2: null,
 };
 
 const arr = (v: ArrayLike<number> | null | undefined): number[] | null => (v == null ? null : Array.from(v));
@@ -62,12 +77,16 @@ export class FitPanel extends Widget<FitPanelState> {
 
   /** The page's "Start fit" button. */
   onStart(cb: (panel: FitPanel) => void): () => void {
-    return this.onCustom((content) => { if ((content as { event?: string })?.event === "start") cb(this); });
+    return this.onCustom((content) => {
+      if ((content as { event?: string })?.event === "start") cb(this);
+    });
   }
 
   /** The page's "Stop" button. */
   onStop(cb: (panel: FitPanel) => void): () => void {
-    return this.onCustom((content) => { if ((content as { event?: string })?.event === "stop") cb(this); });
+    return this.onCustom((content) => {
+      if ((content as { event?: string })?.event === "stop") cb(this);
+    });
   }
 
   override describe(): string {

@@ -22,7 +22,11 @@ export class ControlPanel<T extends Record<string, ParamSpec>> extends Box {
   private running: Promise<void> | null = null;
   private again = false;
 
-  constructor(private readonly fn: (values: PanelValues<T>) => unknown, params: T, options: { title?: string } = {}) {
+  constructor(
+    private readonly fn: (values: PanelValues<T>) => unknown,
+    params: T,
+    options: { title?: string } = {},
+  ) {
     const controls = {} as Record<keyof T, Widget>;
     for (const [name, spec] of Object.entries(params)) controls[name as keyof T] = makeControl(name, spec);
     const output = new Output();

@@ -47,10 +47,11 @@ function objectsOf(o: TextureOptions["objects"]): TextureState["objects"] {
   if (typeof n !== "number" || o.y?.length !== n || o.charge?.length !== n) {
     throw new InputError("objects", o, "{ x, y, charge }: three arrays of the same length (centres in m, charges)");
   }
-  const pick = (name: string, a: ArrayLike<number>) => Array.from(a, (v, i) => {
-    if (!Number.isFinite(v)) throw new InputError(`objects.${name}[${i}]`, v, "a finite number");
-    return v;
-  });
+  const pick = (name: string, a: ArrayLike<number>) =>
+    Array.from(a, (v, i) => {
+      if (!Number.isFinite(v)) throw new InputError(`objects.${name}[${i}]`, v, "a finite number");
+      return v;
+    });
   return { x: pick("x", o.x), y: pick("y", o.y), charge: pick("charge", o.charge) };
 }
 
@@ -80,7 +81,8 @@ export class TextureView extends Widget<TextureState> {
     super({
       ...ourModel("Texture"),
       state: {
-        nx, ny,
+        nx,
+        ny,
         field: toFloat32("field", field, 3 * nx * ny, "mx, my, mz interleaved, x fastest"),
         density: o.density ? toFloat32("density", o.density, (nx - 1) * (ny - 1), "one charge per plaquette") : null,
         dx: positive("dx", o.dx, 1e-9),
@@ -96,7 +98,8 @@ export class TextureView extends Widget<TextureState> {
 
   /** Show a new field of the same size (e.g. the next step of a relaxation). */
   setField(field: ArrayLike<number>, density: ArrayLike<number> | null = null): this {
-    const nx = this.get("nx"), ny = this.get("ny");
+    const nx = this.get("nx"),
+      ny = this.get("ny");
     return this.set({
       field: toFloat32("field", field, 3 * nx * ny, "mx, my, mz interleaved, x fastest"),
       density: density ? toFloat32("density", density, (nx - 1) * (ny - 1), "one charge per plaquette") : null,

@@ -168,9 +168,7 @@ export class Widget<S extends WidgetState = WidgetState> implements Displayable 
       changed.push([k, v, old]);
     }
     if (changed.length === 0) return;
-    const toSend = changed
-      .map(([k]) => k)
-      .filter((k) => !(this.lockedValues && k in this.lockedValues && this.lockedValues[k] === fingerprint(this.state[k])));
+    const toSend = changed.map(([k]) => k).filter((k) => !(this.lockedValues && k in this.lockedValues && this.lockedValues[k] === fingerprint(this.state[k])));
     if (toSend.length > 0 && !this.comm.closed) {
       const { state, buffer_paths, buffers } = this.serializedState(toSend);
       this.comm.send({ method: "update", state, buffer_paths }, {}, buffers);
@@ -369,7 +367,16 @@ function sameValue(a: unknown, b: unknown): boolean {
 export function widgetStateDocument(): {
   version_major: 2;
   version_minor: 0;
-  state: Record<string, { model_name: string; model_module: string; model_module_version: string; state: WidgetState; buffers?: Array<{ path: Array<string | number>; data: string; encoding: "base64" }> }>;
+  state: Record<
+    string,
+    {
+      model_name: string;
+      model_module: string;
+      model_module_version: string;
+      state: WidgetState;
+      buffers?: Array<{ path: Array<string | number>; data: string; encoding: "base64" }>;
+    }
+  >;
 } {
   const state: ReturnType<typeof widgetStateDocument>["state"] = {};
   for (const [id, w] of openWidgets) {

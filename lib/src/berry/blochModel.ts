@@ -87,9 +87,12 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
   const idx2 = Int32Array.from(uniqueR.map((r) => (r[1] === 0 ? -1 : abs2.indexOf(Math.abs(r[1])))));
   const sgn1 = Float64Array.from(uniqueR.map((r) => (r[0] < 0 ? -1 : 1)));
   const sgn2 = Float64Array.from(uniqueR.map((r) => (r[1] < 0 ? -1 : 1)));
-  const a1 = Float64Array.from(abs1), a2 = Float64Array.from(abs2);
-  const e1r = new Float64Array(abs1.length), e1i = new Float64Array(abs1.length);
-  const e2r = new Float64Array(abs2.length), e2i = new Float64Array(abs2.length);
+  const a1 = Float64Array.from(abs1),
+    a2 = Float64Array.from(abs2);
+  const e1r = new Float64Array(abs1.length),
+    e1i = new Float64Array(abs1.length);
+  const e2r = new Float64Array(abs2.length),
+    e2i = new Float64Array(abs2.length);
   const lastK2 = new Float64Array([NaN]); // typed-array slot: a captured `let` double would be boxed
   const A = Int32Array.from(hops.map((h) => h.a));
   const B = Int32Array.from(hops.map((h) => h.b));
@@ -117,9 +120,12 @@ export function tightBindingModel(spec: TightBindingSpec): TightBindingModel {
         lastK2[0] = k2;
       }
       for (let u = 0; u < cr.length; u++) {
-        const q1 = idx1[u]!, q2 = idx2[u]!;
-        const xr = q1 < 0 ? 1 : e1r[q1]!, xi = q1 < 0 ? 0 : sgn1[u]! * e1i[q1]!;
-        const yr = q2 < 0 ? 1 : e2r[q2]!, yi = q2 < 0 ? 0 : sgn2[u]! * e2i[q2]!;
+        const q1 = idx1[u]!,
+          q2 = idx2[u]!;
+        const xr = q1 < 0 ? 1 : e1r[q1]!,
+          xi = q1 < 0 ? 0 : sgn1[u]! * e1i[q1]!;
+        const yr = q2 < 0 ? 1 : e2r[q2]!,
+          yi = q2 < 0 ? 0 : sgn2[u]! * e2i[q2]!;
         cr[u] = xr * yr - xi * yi;
         ci[u] = xr * yi + xi * yr;
       }
@@ -159,26 +165,33 @@ export function supercellModel(spec: TightBindingSpec, m1: number, m2: number): 
   const positions: Array<[number, number]> = [];
   const hoppings: Hopping[] = [];
   const mod = (x: number, m: number) => ((x % m) + m) % m;
-  for (let s2 = 0; s2 < m2; s2++) for (let s1 = 0; s1 < m1; s1++) for (let a = 0; a < n; a++) {
-    onsite[idx(a, s1, s2)] = spec.onsite[a]!;
-    const p = spec.positions?.[a] ?? [0, 0];
-    positions[idx(a, s1, s2)] = [(p[0] + s1) / m1, (p[1] + s2) / m2];
-  }
-  for (let s2 = 0; s2 < m2; s2++) for (let s1 = 0; s1 < m1; s1++) {
-    for (const h of spec.hoppings) {
-      const t1 = s1 + h.R[0];
-      const t2 = s2 + h.R[1];
-      hoppings.push({
-        from: idx(h.from, s1, s2),
-        to: idx(h.to, mod(t1, m1), mod(t2, m2)),
-        R: [Math.floor(t1 / m1), Math.floor(t2 / m2)],
-        t: h.t,
-      });
+  for (let s2 = 0; s2 < m2; s2++)
+    for (let s1 = 0; s1 < m1; s1++)
+      for (let a = 0; a < n; a++) {
+        onsite[idx(a, s1, s2)] = spec.onsite[a]!;
+        const p = spec.positions?.[a] ?? [0, 0];
+        positions[idx(a, s1, s2)] = [(p[0] + s1) / m1, (p[1] + s2) / m2];
+      }
+  for (let s2 = 0; s2 < m2; s2++)
+    for (let s1 = 0; s1 < m1; s1++) {
+      for (const h of spec.hoppings) {
+        const t1 = s1 + h.R[0];
+        const t2 = s2 + h.R[1];
+        hoppings.push({
+          from: idx(h.from, s1, s2),
+          to: idx(h.to, mod(t1, m1), mod(t2, m2)),
+          R: [Math.floor(t1 / m1), Math.floor(t2 / m2)],
+          t: h.t,
+        });
+      }
     }
-  }
   const lv = spec.latticeVectors;
   const out: TightBindingSpec = { orbitals: n * m1 * m2, onsite, hoppings, positions, name: `${spec.name ?? "model"} (${m1} x ${m2} supercell)` };
-  if (lv) out.latticeVectors = [[lv[0][0] * m1, lv[0][1] * m1], [lv[1][0] * m2, lv[1][1] * m2]];
+  if (lv)
+    out.latticeVectors = [
+      [lv[0][0] * m1, lv[0][1] * m1],
+      [lv[1][0] * m2, lv[1][1] * m2],
+    ];
   return tightBindingModel(out);
 }
 
@@ -195,7 +208,11 @@ export function haldaneSpec(p: { t1?: number; t2: number; phi: number; M: number
   for (const [k, v] of Object.entries({ t1, t2, phi, M })) if (!Number.isFinite(v)) throw new InputError(k, v, "a finite number");
   const ea: [number, number] = [t2 * Math.cos(phi), t2 * Math.sin(phi)];
   const eb: [number, number] = [t2 * Math.cos(phi), -t2 * Math.sin(phi)];
-  const b: Array<[number, number]> = [[-1, 1], [0, -1], [1, 0]];
+  const b: Array<[number, number]> = [
+    [-1, 1],
+    [0, -1],
+    [1, 0],
+  ];
   const s3 = Math.sqrt(3);
   return {
     orbitals: 2,
@@ -207,8 +224,14 @@ export function haldaneSpec(p: { t1?: number; t2: number; phi: number; M: number
       ...b.map((R) => ({ from: 0, to: 0, R, t: ea })),
       ...b.map((R) => ({ from: 1, to: 1, R, t: eb })),
     ],
-    positions: [[0, 0], [1 / 3, 1 / 3]],
-    latticeVectors: [[s3 / 2, 1.5], [-s3 / 2, 1.5]],
+    positions: [
+      [0, 0],
+      [1 / 3, 1 / 3],
+    ],
+    latticeVectors: [
+      [s3 / 2, 1.5],
+      [-s3 / 2, 1.5],
+    ],
     name: "Haldane model",
   };
 }
@@ -221,4 +244,3 @@ export function haldaneModel(p: { t1?: number; t2: number; phi: number; M: numbe
 export function haldaneCriticalMass(t2: number, phi: number): number {
   return 3 * Math.sqrt(3) * Math.abs(t2 * Math.sin(phi));
 }
-

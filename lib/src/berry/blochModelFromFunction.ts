@@ -10,10 +10,7 @@ import { toPlanarMatrix } from "../numeric/complexMatrix.js";
 import type { BlochModel } from "./blochModel.js";
 
 /** A Bloch model from a function (k1, k2) -> matrix or a mathjs formula in k1, k2. */
-export function blochModelFromFunction(
-  h: ((k1: number, k2: number) => unknown) | string,
-  parameters: Record<string, number> = {},
-): BlochModel {
+export function blochModelFromFunction(h: ((k1: number, k2: number) => unknown) | string, parameters: Record<string, number> = {}): BlochModel {
   let f: (k1: number, k2: number) => unknown;
   if (typeof h === "string") {
     f = compileFormula(h, parameters);

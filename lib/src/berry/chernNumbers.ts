@@ -217,7 +217,10 @@ function chernSetup(model: BlochModel, options: ChernOptions): ChernSetup {
   const n = model.bands;
   const n1 = options.n1 ?? 60;
   const n2 = options.n2 ?? n1;
-  for (const [name, v] of [["n1", n1], ["n2", n2]] as const) {
+  for (const [name, v] of [
+    ["n1", n1],
+    ["n2", n2],
+  ] as const) {
     if (!Number.isInteger(v) || v < 3 || v > 4096) throw new InputError(name, v, "a whole number of grid points from 3 to 4096");
   }
   const groups = options.groups ?? Array.from({ length: n }, (_, b) => [b]);
@@ -238,20 +241,31 @@ function chernSetup(model: BlochModel, options: ChernOptions): ChernSetup {
     for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(re[i]!), Math.abs(im[i]!));
     return { re: Float64Array.from(re), im: Float64Array.from(im) };
   };
-  for (const [a, b] of [[0.137, 0.291], [0.733, 0.518]] as const) {
+  for (const [a, b] of [
+    [0.137, 0.291],
+    [0.733, 0.518],
+  ] as const) {
     const h0 = sample(a, b);
-    for (const [c, d] of [[a + 1, b], [a, b + 1]] as const) {
+    for (const [c, d] of [
+      [a + 1, b],
+      [a, b + 1],
+    ] as const) {
       const h1 = sample(c, d);
       let diff = 0;
       for (let i = 0; i < n * n; i++) diff = Math.max(diff, Math.abs(h0.re[i]! - h1.re[i]!), Math.abs(h0.im[i]! - h1.im[i]!));
       if (diff > 1e-9 * Math.max(scale, 1e-300)) {
-        throw new InputError("H", `H(${c}, ${d}) - H(${a}, ${b}) of size ${diff.toExponential(3)}`, "a Bloch Hamiltonian periodic in the fractional wave vector: H(k1 + 1, k2) = H(k1, k2 + 1) = H(k1, k2) (use the lattice-vector gauge)");
+        throw new InputError(
+          "H",
+          `H(${c}, ${d}) - H(${a}, ${b}) of size ${diff.toExponential(3)}`,
+          "a Bloch Hamiltonian periodic in the fractional wave vector: H(k1 + 1, k2) = H(k1, k2 + 1) = H(k1, k2) (use the lattice-vector gauge)",
+        );
       }
     }
   }
   const gapTol = (options.gapTolerance ?? 1e-9) * Math.max(scale, 1e-300);
   const G0 = groups.length;
-  const gLo0 = groups.map((g) => g[0]!), gK0 = groups.map((g) => g.length);
+  const gLo0 = groups.map((g) => g[0]!),
+    gK0 = groups.map((g) => g.length);
   // Complementary pair: links of the smaller group only; the other follows (F_B = -F_A).
   let derived = -1;
   if ((options.complement ?? true) && G0 === 2 && gK0[0]! + gK0[1]! === n && (gLo0[0] === 0 ? gLo0[1] === gK0[0] : gLo0[0] === gK0[1])) {
@@ -265,8 +279,10 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const re = new Float64Array(n * n);
   const im = new Float64Array(n * n);
   // Embedding phases per orbital for steps 1/n1 and 1/n2: exp(-2 pi i r / n).
-  const p1r = new Float64Array(n).fill(1), p1i = new Float64Array(n);
-  const p2r = new Float64Array(n).fill(1), p2i = new Float64Array(n);
+  const p1r = new Float64Array(n).fill(1),
+    p1i = new Float64Array(n);
+  const p2r = new Float64Array(n).fill(1),
+    p2i = new Float64Array(n);
   if (usePos && model.positions) {
     for (let a = 0; a < n; a++) {
       const r = model.positions[a] ?? [0, 0];
@@ -284,12 +300,26 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const G = groups.length;
   const stripRows = rowTo - rowFrom;
   const energiesOut = options.energies ? new Float64Array(n1 * stripRows * n) : undefined;
-  interface Row { E: Float64Array; Vr: Float64Array; Vi: Float64Array; u1r: Float64Array; u1i: Float64Array }
-  const newRow = (): Row => ({ E: new Float64Array(n1 * n), Vr: new Float64Array(n1 * vStride), Vi: new Float64Array(n1 * vStride), u1r: new Float64Array(G * n1), u1i: new Float64Array(G * n1) });
-  let vFirst = 0, vCount = n;
+  interface Row {
+    E: Float64Array;
+    Vr: Float64Array;
+    Vi: Float64Array;
+    u1r: Float64Array;
+    u1i: Float64Array;
+  }
+  const newRow = (): Row => ({
+    E: new Float64Array(n1 * n),
+    Vr: new Float64Array(n1 * vStride),
+    Vi: new Float64Array(n1 * vStride),
+    u1r: new Float64Array(G * n1),
+    u1i: new Float64Array(G * n1),
+  });
+  let vFirst = 0,
+    vCount = n;
   // Vector rows kept per k-point: vStride numbers from band vBase on (only the computed rows; the
   // closed two-band form writes both vectors).
-  let vStride = nn, vBase = 0;
+  let vStride = nn,
+    vBase = 0;
   const computeRow = (j: number, row: Row) => {
     const k2 = j / n2;
     const { E, Vr, Vi } = row;
@@ -302,10 +332,13 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     }
   };
   const kmax = Math.max(...groups.map((g) => g.length));
-  const mr = new Float64Array(kmax * kmax), mi = new Float64Array(kmax * kmax);
-  const sr0 = new Float64Array(kmax * kmax), si0 = new Float64Array(kmax * kmax);
+  const mr = new Float64Array(kmax * kmax),
+    mi = new Float64Array(kmax * kmax);
+  const sr0 = new Float64Array(kmax * kmax),
+    si0 = new Float64Array(kmax * kmax);
   // Phased copy of the second point's group vectors (k rows of n), when the embedding phases are not all 1.
-  const yr = new Float64Array(kmax * n), yi = new Float64Array(kmax * n);
+  const yr = new Float64Array(kmax * n),
+    yi = new Float64Array(kmax * n);
   const phased1 = !Array.from(p1r).every((x, a) => x === 1 && p1i[a] === 0);
   const phased2 = !Array.from(p2r).every((x, a) => x === 1 && p2i[a] === 0);
   // Link result and smallest overlap in a typed array, not in captured `let`s: V8 boxes a double
@@ -313,15 +346,31 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const out = new Float64Array(3); // [linkRe, linkIm, minLinkOverlap]
   out[2] = Infinity;
   /** Normalized link of group (lo, k) from vector set A (offset oa) to B (offset ob); sets out[0], out[1]. */
-  const link = (lo: number, k: number, Ar: Float64Array, Ai: Float64Array, oa: number, Br: Float64Array, Bi: Float64Array, ob: number, pr: Float64Array, pi: Float64Array, phased: boolean): void => {
+  const link = (
+    lo: number,
+    k: number,
+    Ar: Float64Array,
+    Ai: Float64Array,
+    oa: number,
+    Br: Float64Array,
+    Bi: Float64Array,
+    ob: number,
+    pr: Float64Array,
+    pi: Float64Array,
+    phased: boolean,
+  ): void => {
     let dr: number, di: number;
-    let Yr = Br, Yi = Bi, oy = ob + (lo - vBase) * n;
+    let Yr = Br,
+      Yi = Bi,
+      oy = ob + (lo - vBase) * n;
     if (phased) {
       for (let b = 0; b < k; b++) {
         const src = ob + (lo - vBase + b) * n;
         for (let s = 0; s < n; s++) {
-          const vr = Br[src + s]!, vi = Bi[src + s]!;
-          const fr = pr[s]!, fi = pi[s]!;
+          const vr = Br[src + s]!,
+            vi = Bi[src + s]!;
+          const fr = pr[s]!,
+            fi = pi[s]!;
           yr[b * n + s] = vr * fr - vi * fi;
           yi[b * n + s] = vr * fi + vi * fr;
         }
@@ -334,15 +383,26 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     if (k === 3) {
       // M = A^H Y for three vectors: one pass over the components per row of A, the three
       // products accumulated together (8 loads per 24 flops instead of 4 per 8).
-      const r0 = oy, r1 = oy + n, r2 = oy + 2 * n;
+      const r0 = oy,
+        r1 = oy + n,
+        r2 = oy + 2 * n;
       for (let a = 0; a < 3; a++) {
         const ra = oA + a * n;
-        let s0r = 0, s0i = 0, s1r = 0, s1i = 0, s2r = 0, s2i = 0;
+        let s0r = 0,
+          s0i = 0,
+          s1r = 0,
+          s1i = 0,
+          s2r = 0,
+          s2i = 0;
         for (let s = 0; s < n; s++) {
-          const xr = Ar[ra + s]!, xi = Ai[ra + s]!;
-          const z0r = Yr[r0 + s]!, z0i = Yi[r0 + s]!;
-          const z1r = Yr[r1 + s]!, z1i = Yi[r1 + s]!;
-          const z2r = Yr[r2 + s]!, z2i = Yi[r2 + s]!;
+          const xr = Ar[ra + s]!,
+            xi = Ai[ra + s]!;
+          const z0r = Yr[r0 + s]!,
+            z0i = Yi[r0 + s]!;
+          const z1r = Yr[r1 + s]!,
+            z1i = Yi[r1 + s]!;
+          const z2r = Yr[r2 + s]!,
+            z2i = Yi[r2 + s]!;
           s0r += xr * z0r + xi * z0i;
           s0i += xr * z0i - xi * z0r;
           s1r += xr * z1r + xi * z1i;
@@ -350,25 +410,32 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
           s2r += xr * z2r + xi * z2i;
           s2i += xr * z2i - xi * z2r;
         }
-        mr[3 * a] = s0r; mi[3 * a] = s0i;
-        mr[3 * a + 1] = s1r; mi[3 * a + 1] = s1i;
-        mr[3 * a + 2] = s2r; mi[3 * a + 2] = s2i;
+        mr[3 * a] = s0r;
+        mi[3 * a] = s0i;
+        mr[3 * a + 1] = s1r;
+        mi[3 * a + 1] = s1i;
+        mr[3 * a + 2] = s2r;
+        mi[3 * a + 2] = s2i;
       }
-    } else for (let a = 0; a < k; a++) {
-      const ra = oA + a * n;
-      for (let b = 0; b < k; b++) {
-        const rb = oy + b * n;
-        let sr = 0, si = 0;
-        for (let s = 0; s < n; s++) {
-          const xr = Ar[ra + s]!, xi = Ai[ra + s]!;
-          const zr = Yr[rb + s]!, zi = Yi[rb + s]!;
-          sr += xr * zr + xi * zi;
-          si += xr * zi - xi * zr;
+    } else
+      for (let a = 0; a < k; a++) {
+        const ra = oA + a * n;
+        for (let b = 0; b < k; b++) {
+          const rb = oy + b * n;
+          let sr = 0,
+            si = 0;
+          for (let s = 0; s < n; s++) {
+            const xr = Ar[ra + s]!,
+              xi = Ai[ra + s]!;
+            const zr = Yr[rb + s]!,
+              zi = Yi[rb + s]!;
+            sr += xr * zr + xi * zi;
+            si += xr * zi - xi * zr;
+          }
+          mr[a * k + b] = sr;
+          mi[a * k + b] = si;
         }
-        mr[a * k + b] = sr;
-        mi[a * k + b] = si;
       }
-    }
     if (k === 1) {
       dr = mr[0]!;
       di = mi[0]!;
@@ -410,14 +477,16 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
   const gLo = Int32Array.from(groups.map((g) => g[0]!));
   const gK = Int32Array.from(groups.map((g) => g.length));
   const gapAt = (gi: number, E: Float64Array, i: number) => {
-    const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
+    const lo = gLo[gi]!,
+      hi = lo + gK[gi]! - 1;
     let gap = Infinity;
     if (lo > 0) gap = Math.min(gap, E[i * n + lo]! - E[i * n + lo - 1]!);
     if (hi < n - 1) gap = Math.min(gap, E[i * n + hi + 1]! - E[i * n + hi]!);
     return gap;
   };
   const checkLink = (gi: number, EA: Float64Array, ia: number, EB: Float64Array, ib: number) => {
-    const lo = gLo[gi]!, hi = lo + gK[gi]! - 1;
+    const lo = gLo[gi]!,
+      hi = lo + gK[gi]! - 1;
     if (lo > 0) {
       const dE = Math.abs(EA[ia * n + lo]! - EB[ib * n + lo]!) + Math.abs(EA[ia * n + lo - 1]! - EB[ib * n + lo - 1]!);
       const gl = Math.min(EA[ia * n + lo]! - EA[ia * n + lo - 1]!, EB[ib * n + lo]! - EB[ib * n + lo - 1]!);
@@ -434,7 +503,8 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     const { E, Vr, Vi, u1r, u1i } = row;
     for (let gi = 0; gi < G; gi++) {
       if (gi === derived) continue;
-      const lo = gLo[gi]!, k = gK[gi]!;
+      const lo = gLo[gi]!,
+        k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         const ip = i + 1 === n1 ? 0 : i + 1;
         link(lo, k, Vr, Vi, i * vStride, Vr, Vi, ip * vStride, p1r, p1i, phased1);
@@ -446,9 +516,11 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
       }
     }
   };
-  const u2r = new Float64Array(n1), u2i = new Float64Array(n1);
+  const u2r = new Float64Array(n1),
+    u2i = new Float64Array(n1);
   // Eigenvectors needed: the bands of the groups whose links are computed.
-  let vLo = n, vHi = -1;
+  let vLo = n,
+    vHi = -1;
   for (let gi = 0; gi < G; gi++) {
     if (gi === derived) continue;
     vLo = Math.min(vLo, gLo[gi]!);
@@ -476,16 +548,22 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     } else upper = row0;
     for (let gi = 0; gi < G; gi++) {
       if (gi === derived) continue;
-      const lo = gLo[gi]!, k = gK[gi]!;
+      const lo = gLo[gi]!,
+        k = gK[gi]!;
       for (let i = 0; i < n1; i++) {
         link(lo, k, lower.Vr, lower.Vi, i * vStride, upper.Vr, upper.Vi, i * vStride, p2r, p2i, phased2);
         u2r[i] = out[0]!;
         u2i[i] = out[1]!;
         checkLink(gi, lower.E, i, upper.E, i);
       }
-      const Lr = lower.u1r, Li = lower.u1i, Ur = upper.u1r, Ui = upper.u1i;
+      const Lr = lower.u1r,
+        Li = lower.u1i,
+        Ur = upper.u1r,
+        Ui = upper.u1i;
       const o = gi * n1;
-      let sum = sums[gi]!, comp = comps[gi]!, mx = maxFlux[gi]!;
+      let sum = sums[gi]!,
+        comp = comps[gi]!,
+        mx = maxFlux[gi]!;
       const fmap = fluxMaps ? fluxMaps[gi]! : null;
       for (let i = 0; i < n1; i++) {
         const ip = i + 1 === n1 ? 0 : i + 1;
@@ -516,9 +594,16 @@ function stripFluxes(model: BlochModel, options: ChernOptions, setup: ChernSetup
     }
   }
   const part: ChernPartial = {
-    n1, n2, rowFrom, rowTo,
-    sums: Array.from(sums), comps: Array.from(comps), maxFlux: Array.from(maxFlux), minGap: Array.from(minGap),
-    hiddenClosing: hiddenClosing.slice(), minLinkOverlap: out[2]!,
+    n1,
+    n2,
+    rowFrom,
+    rowTo,
+    sums: Array.from(sums),
+    comps: Array.from(comps),
+    maxFlux: Array.from(maxFlux),
+    minGap: Array.from(minGap),
+    hiddenClosing: hiddenClosing.slice(),
+    minLinkOverlap: out[2]!,
   };
   if (fluxMaps) part.flux = fluxMaps;
   if (energiesOut) part.energies = energiesOut;
@@ -554,7 +639,8 @@ function combine(model: BlochModel, options: ChernOptions, setup: ChernSetup, pa
     minGap[derived] = minGap[c]!;
     hiddenClosing[derived] = hiddenClosing[c]!;
     if (fluxMaps) {
-      const src = fluxMaps[c]!, dst = fluxMaps[derived]!;
+      const src = fluxMaps[c]!,
+        dst = fluxMaps[derived]!;
       for (let q = 0; q < src.length; q++) dst[q] = -src[q]!;
     }
   }
@@ -569,15 +655,17 @@ function combine(model: BlochModel, options: ChernOptions, setup: ChernSetup, pa
     const label = groups[gi]!.length === 1 ? `band ${groups[gi]![0]}` : `bands ${groups[gi]!.join(", ")}`;
     const why: string[] = [];
     if (minGap[gi]! < gapTol) why.push(`the gap to a neighbouring band vanishes on the grid (minimum ${minGap[gi]!.toExponential(2)})`);
-    if (maxFlux[gi]! > fluxLimit) why.push(`a plaquette carries a Berry flux of ${maxFlux[gi]!.toFixed(3)} rad (> ${fluxLimit}): the curvature is concentrated below the grid spacing`);
+    if (maxFlux[gi]! > fluxLimit)
+      why.push(`a plaquette carries a Berry flux of ${maxFlux[gi]!.toFixed(3)} rad (> ${fluxLimit}): the curvature is concentrated below the grid spacing`);
     if (hiddenClosing[gi]) why.push("the gap is smaller than the change of the band energies across a grid step, so it may close between grid points");
     resolved.push(why.length === 0);
-    if (why.length) notes.push(`${label}: not resolved on the ${n1} x ${n2} grid: ${why.join("; ")}. Refine the grid (or group the touching bands); a gapless model has no Chern number.`);
+    if (why.length)
+      notes.push(`${label}: not resolved on the ${n1} x ${n2} grid: ${why.join("; ")}. Refine the grid (or group the touching bands); a gapless model has no Chern number.`);
   }
   if (minLinkOverlap < 1e-8) notes.push(`a link overlap nearly vanishes (${minLinkOverlap.toExponential(2)}): states change completely between neighbouring points`);
   const status: ChernResult["status"] = resolved.every(Boolean) ? "ok" : "unresolved";
   if (status === "unresolved" && (options.onUnresolved ?? "throw") === "throw") {
-    throw new InputError("n1", n1, "a grid fine enough to resolve the band gaps (or onUnresolved: \"report\")", notes.join(" "));
+    throw new InputError("n1", n1, 'a grid fine enough to resolve the band gaps (or onUnresolved: "report")', notes.join(" "));
   }
   const result: ChernResult = {
     chern,
@@ -607,7 +695,10 @@ function combine(model: BlochModel, options: ChernOptions, setup: ChernSetup, pa
  * Common practice, no source (the projector form of the 2 x 2 eigenproblem).
  */
 export function twoBandEigen(re: ArrayLike<number>, im: ArrayLike<number>, E: Float64Array, eo: number, Vr: Float64Array, Vi: Float64Array, vo: number): void {
-  const a = re[0]!, d = re[3]!, cr = re[2]!, ci = im[2]!;
+  const a = re[0]!,
+    d = re[3]!,
+    cr = re[2]!,
+    ci = im[2]!;
   const mean = 0.5 * (a + d);
   const dz = 0.5 * (a - d);
   const c2 = cr * cr + ci * ci;
@@ -615,21 +706,39 @@ export function twoBandEigen(re: ArrayLike<number>, im: ArrayLike<number>, E: Fl
   E[eo] = mean - r;
   E[eo + 1] = mean + r;
   if (r === 0) {
-    Vr[vo] = 1; Vi[vo] = 0; Vr[vo + 1] = 0; Vi[vo + 1] = 0;
-    Vr[vo + 2] = 0; Vi[vo + 2] = 0; Vr[vo + 3] = 1; Vi[vo + 3] = 0;
+    Vr[vo] = 1;
+    Vi[vo] = 0;
+    Vr[vo + 1] = 0;
+    Vi[vo + 1] = 0;
+    Vr[vo + 2] = 0;
+    Vi[vo + 2] = 0;
+    Vr[vo + 3] = 1;
+    Vi[vo + 3] = 0;
     return;
   }
   if (dz >= 0) {
     // lower: column 1 of (lambda+ - H) = (-conj(c), r + dz); upper: column 0 of (H - lambda-) = (r + dz, c)
     const w = r + dz;
     const inv = 1 / Math.sqrt(c2 + w * w);
-    Vr[vo] = -cr * inv; Vi[vo] = ci * inv; Vr[vo + 1] = w * inv; Vi[vo + 1] = 0;
-    Vr[vo + 2] = w * inv; Vi[vo + 2] = 0; Vr[vo + 3] = cr * inv; Vi[vo + 3] = ci * inv;
+    Vr[vo] = -cr * inv;
+    Vi[vo] = ci * inv;
+    Vr[vo + 1] = w * inv;
+    Vi[vo + 1] = 0;
+    Vr[vo + 2] = w * inv;
+    Vi[vo + 2] = 0;
+    Vr[vo + 3] = cr * inv;
+    Vi[vo + 3] = ci * inv;
   } else {
     // lower: column 0 of (lambda+ - H) = (r - dz, -c); upper: column 1 of (H - lambda-) = (conj(c), r - dz)
     const w = r - dz;
     const inv = 1 / Math.sqrt(c2 + w * w);
-    Vr[vo] = w * inv; Vi[vo] = 0; Vr[vo + 1] = -cr * inv; Vi[vo + 1] = -ci * inv;
-    Vr[vo + 2] = cr * inv; Vi[vo + 2] = -ci * inv; Vr[vo + 3] = w * inv; Vi[vo + 3] = 0;
+    Vr[vo] = w * inv;
+    Vi[vo] = 0;
+    Vr[vo + 1] = -cr * inv;
+    Vi[vo + 1] = -ci * inv;
+    Vr[vo + 2] = cr * inv;
+    Vi[vo + 2] = -ci * inv;
+    Vr[vo + 3] = w * inv;
+    Vi[vo + 3] = 0;
   }
 }

@@ -71,7 +71,8 @@ export function easyPlaneMagnetization(S: number, D: number, b: number, T: numbe
     const m = S - i;
     emin = Math.min(emin, D * m * m - b * m);
   }
-  let z = 0, zm = 0;
+  let z = 0,
+    zm = 0;
   for (let i = 0; i <= twoS; i++) {
     const m = S - i;
     const w = Math.exp(-beta * (D * m * m - b * m - emin));
@@ -113,9 +114,11 @@ export function rotorMagnetization(D: number, b: number, T: number, halfInteger:
     return { value: r.value, terms: r.terms, series: "direct" };
   }
   // Dual series: q = exp(-pi^2 / beta D) <= exp(-pi), theta >= 1 - 2 q / (1 - q) > 0.9, no cancellation.
-  const lnq = -Math.PI * Math.PI / bD;
+  const lnq = (-Math.PI * Math.PI) / bD;
   const z = Math.PI * x;
-  let th = 1, dth = 0, k = 1;
+  let th = 1,
+    dth = 0,
+    k = 1;
   for (; k < 1000; k++) {
     const w = Math.exp(lnq * k * k);
     if (k * w < 1e-19) break;
@@ -134,9 +137,12 @@ export function rotorMagnetization(D: number, b: number, T: number, halfInteger:
 function rotorDirectSum(bD: number, x: number, nu: number): { value: number; terms: number } {
   const m0 = Math.round(x - nu) + nu;
   const d0 = m0 - x;
-  let z = 1, zm = d0, j = 1;
+  let z = 1,
+    zm = d0,
+    j = 1;
   for (; j < 1_000_000; j++) {
-    const dp = d0 + j, dm = d0 - j;
+    const dp = d0 + j,
+      dm = d0 - j;
     const wp = Math.exp(-bD * (dp * dp - d0 * d0));
     const wm = Math.exp(-bD * (dm * dm - d0 * d0));
     z += wp + wm;

@@ -30,7 +30,9 @@ export function closedLoopVertices(points: ArrayLike<ArrayLike<number>>, options
   for (let i = 0; i < n0; i++) {
     const p = points[i]!;
     if (!p || p.length !== 3) throw new InputError(`${name}[${i}]`, p, "a direction vector [x, y, z]");
-    const x = p[0]!, y = p[1]!, z = p[2]!;
+    const x = p[0]!,
+      y = p[1]!,
+      z = p[2]!;
     const r = Math.sqrt(x * x + y * y + z * z);
     if (!Number.isFinite(r) || r === 0) throw new InputError(`${name}[${i}]`, p, "a finite, non-zero direction vector");
     v[3 * i] = x / r;
@@ -54,7 +56,11 @@ export function closedLoopVertices(points: ArrayLike<ArrayLike<number>>, options
     const j = (i + 1) % n;
     const dot = out[3 * i]! * out[3 * j]! + out[3 * i + 1]! * out[3 * j + 1]! + out[3 * i + 2]! * out[3 * j + 2]!;
     if (dot < -1 + 1e-12) {
-      throw new InputError(`${name}[${i}], ${name}[${j}]`, [Array.from(out.subarray(3 * i, 3 * i + 3)), Array.from(out.subarray(3 * j, 3 * j + 3))], "consecutive points that are not antipodal (the geodesic between antipodes is undefined); add an intermediate point");
+      throw new InputError(
+        `${name}[${i}], ${name}[${j}]`,
+        [Array.from(out.subarray(3 * i, 3 * i + 3)), Array.from(out.subarray(3 * j, 3 * j + 3))],
+        "consecutive points that are not antipodal (the geodesic between antipodes is undefined); add an intermediate point",
+      );
     }
   }
   return out;

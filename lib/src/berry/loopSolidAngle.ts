@@ -32,8 +32,20 @@ export interface LoopSolidAngle {
 
 const r3 = 1 / Math.sqrt(3);
 const candidates: Array<[number, number, number]> = [
-  [1, 0, 0], [-1, 0, 0], [0, 1, 0], [0, -1, 0], [0, 0, 1], [0, 0, -1],
-  [r3, r3, r3], [r3, r3, -r3], [r3, -r3, r3], [r3, -r3, -r3], [-r3, r3, r3], [-r3, r3, -r3], [-r3, -r3, r3], [-r3, -r3, -r3],
+  [1, 0, 0],
+  [-1, 0, 0],
+  [0, 1, 0],
+  [0, -1, 0],
+  [0, 0, 1],
+  [0, 0, -1],
+  [r3, r3, r3],
+  [r3, r3, -r3],
+  [r3, -r3, r3],
+  [r3, -r3, -r3],
+  [-r3, r3, r3],
+  [-r3, r3, -r3],
+  [-r3, -r3, r3],
+  [-r3, -r3, -r3],
 ];
 
 export function loopSolidAngle(points: ArrayLike<ArrayLike<number>>, options: LoopOptions = {}): LoopSolidAngle {
@@ -50,10 +62,14 @@ export function solidAngleOfVertices(v: Float64Array): LoopSolidAngle {
     let clear = Infinity;
     for (let i = 0; i < n && clear > bestClear; i++) {
       const j = (i + 1) % n;
-      const x = v[3 * i]!, y = v[3 * i + 1]!, z = v[3 * i + 2]!;
+      const x = v[3 * i]!,
+        y = v[3 * i + 1]!,
+        z = v[3 * i + 2]!;
       // squared distances from the antipode of the vertex and of the edge midpoint direction
       clear = Math.min(clear, (a[0] + x) ** 2 + (a[1] + y) ** 2 + (a[2] + z) ** 2);
-      const mx = x + v[3 * j]!, my = y + v[3 * j + 1]!, mz = z + v[3 * j + 2]!;
+      const mx = x + v[3 * j]!,
+        my = y + v[3 * j + 1]!,
+        mz = z + v[3 * j + 2]!;
       const mr = Math.sqrt(mx * mx + my * my + mz * mz);
       if (mr > 0) clear = Math.min(clear, (a[0] + mx / mr) ** 2 + (a[1] + my / mr) ** 2 + (a[2] + mz / mr) ** 2);
     }

@@ -47,7 +47,8 @@ function check(p: HoneycombMagnonParams): void {
   if (!(p.J > 0) || !Number.isFinite(p.J)) throw new InputError("J", p.J, "a positive exchange energy (ferromagnet), in J");
   if (!Number.isFinite(p.D)) throw new InputError("D", p.D, "a finite DMI energy in J");
   if (!(p.S > 0) || Math.abs(2 * p.S - Math.round(2 * p.S)) > 1e-12) throw new InputError("S", p.S, "a positive multiple of 1/2");
-  if (p.zeeman !== undefined && (!(p.zeeman >= 0) || !Number.isFinite(p.zeeman))) throw new InputError("zeeman", p.zeeman, "a Zeeman energy g muB B >= 0 (field along the magnetization)");
+  if (p.zeeman !== undefined && (!(p.zeeman >= 0) || !Number.isFinite(p.zeeman)))
+    throw new InputError("zeeman", p.zeeman, "a Zeeman energy g muB B >= 0 (field along the magnetization)");
 }
 
 export function honeycombMagnonModel(p: HoneycombMagnonParams): TightBindingModel {
@@ -60,8 +61,10 @@ export function honeycombMagnonModel(p: HoneycombMagnonParams): TightBindingMode
 /** Closed-form bands E-(k), E+(k) at a fractional k (for checks and plots). */
 export function honeycombMagnonBands(p: HoneycombMagnonParams, k1: number, k2: number): [number, number] {
   check(p);
-  const t1 = 2 * Math.PI * k1, t2 = 2 * Math.PI * k2;
-  const fr = 1 + Math.cos(t1) + Math.cos(t2), fi = -Math.sin(t1) - Math.sin(t2);
+  const t1 = 2 * Math.PI * k1,
+    t2 = 2 * Math.PI * k2;
+  const fr = 1 + Math.cos(t1) + Math.cos(t2),
+    fi = -Math.sin(t1) - Math.sin(t2);
   const s = Math.sin(t2 - t1) + Math.sin(-t2) + Math.sin(t1);
   const e0 = 3 * p.J * p.S + (p.zeeman ?? 0);
   const r = Math.sqrt(p.J * p.J * p.S * p.S * (fr * fr + fi * fi) + 4 * p.D * p.D * p.S * p.S * s * s);
@@ -120,7 +123,8 @@ export function honeycombMagnonHall(p: HoneycombMagnonParams, temperatures: numb
     notes.push("D = 0: the two magnon bands touch at K and K' (Dirac magnons); the Chern numbers are not defined, the Berry curvature vanishes away from K, K' and kappa_xy = 0");
   }
   const E = res.energies!;
-  let lo = Infinity, hi = -Infinity;
+  let lo = Infinity,
+    hi = -Infinity;
   for (let i = 0; i < E.length; i++) {
     lo = Math.min(lo, E[i]!);
     hi = Math.max(hi, E[i]!);
@@ -137,23 +141,25 @@ export function honeycombMagnonHall(p: HoneycombMagnonParams, temperatures: numb
   const G = new Float64Array(n * n * 2);
   for (let b = 0; b < 2; b++) {
     const F = res.flux![b]!;
-    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-      const f = F[j * n + i]!;
-      // At D = 0 the plaquettes around K, K' carry an ambiguous flux near +-pi: leave them out
-      // (the curvature is singular there and zero elsewhere).
-      const ip = (i + 1) % n, jp = (j + 1) % n;
-      if (p.D === 0 && (Math.abs(f) > fluxLimit || degenerate[j * n + i] || degenerate[j * n + ip] || degenerate[jp * n + i] || degenerate[jp * n + ip])) continue;
-      const q = 0.25 * f;
-      G[(j * n + i) * 2 + b] = G[(j * n + i) * 2 + b]! + q;
-      G[(j * n + ip) * 2 + b] = G[(j * n + ip) * 2 + b]! + q;
-      G[(jp * n + i) * 2 + b] = G[(jp * n + i) * 2 + b]! + q;
-      G[(jp * n + ip) * 2 + b] = G[(jp * n + ip) * 2 + b]! + q;
-    }
+    for (let j = 0; j < n; j++)
+      for (let i = 0; i < n; i++) {
+        const f = F[j * n + i]!;
+        // At D = 0 the plaquettes around K, K' carry an ambiguous flux near +-pi: leave them out
+        // (the curvature is singular there and zero elsewhere).
+        const ip = (i + 1) % n,
+          jp = (j + 1) % n;
+        if (p.D === 0 && (Math.abs(f) > fluxLimit || degenerate[j * n + i] || degenerate[j * n + ip] || degenerate[jp * n + i] || degenerate[jp * n + ip])) continue;
+        const q = 0.25 * f;
+        G[(j * n + i) * 2 + b] = G[(j * n + i) * 2 + b]! + q;
+        G[(j * n + ip) * 2 + b] = G[(j * n + ip) * 2 + b]! + q;
+        G[(jp * n + i) * 2 + b] = G[(jp * n + i) * 2 + b]! + q;
+        G[(jp * n + ip) * 2 + b] = G[(jp * n + ip) * 2 + b]! + q;
+      }
   }
   for (const T of temperatures) {
     const red = kappaReducedOnGrid(G, E, T);
     kappaXYReduced.push(red + 0);
-    kappaXY.push(((red * kB * kB * T) / hbar) + 0);
+    kappaXY.push((red * kB * kB * T) / hbar + 0);
   }
   const out: HoneycombMagnonResult = { chern, status, notes, temperatures: temperatures.slice(), kappaXY, kappaXYReduced, gapAtK, bandBottom: lo, bandTop: hi, chernResult: res };
   gridWeights.set(out, G);
@@ -205,7 +211,10 @@ export function honeycombMagnonHallConverged(
   options: { n0?: number; maxN?: number; rtol?: number; atol?: number } = {},
 ): ConvergedMagnonHall {
   check(p);
-  const n0 = options.n0 ?? 40, maxN = options.maxN ?? 640, rtol = options.rtol ?? 1e-3, atol = options.atol ?? 1e-9;
+  const n0 = options.n0 ?? 40,
+    maxN = options.maxN ?? 640,
+    rtol = options.rtol ?? 1e-3,
+    atol = options.atol ?? 1e-9;
   if (!Number.isInteger(n0) || n0 < 6) throw new InputError("n0", n0, "a whole number of grid points >= 6");
   if (!Number.isInteger(maxN) || maxN < 4 * n0 || maxN > 2048) throw new InputError("maxN", maxN, `a whole number from 4 n0 = ${4 * n0} to 2048 (the work bound)`);
   if (!(rtol > 0) || !(atol >= 0)) throw new InputError("rtol, atol", [rtol, atol], "a positive relative and a non-negative absolute tolerance");
@@ -222,7 +231,8 @@ export function honeycombMagnonHallConverged(
   prevR = new Array(nT).fill(NaN);
   for (let n = n0; n <= maxN; n *= 2) {
     const r = honeycombMagnonHall(p, [], n);
-    const G = gridWeights.get(r)!, E = r.chernResult.energies!;
+    const G = gridWeights.get(r)!,
+      E = r.chernResult.energies!;
     grids.push(n);
     runs.push(r);
     const g = values.length;

@@ -86,7 +86,8 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   const twoS = dim - 1;
   // States at each vertex; the product of overlaps is kept as a unit phase times a magnitude
   // (renormalized) so that it never underflows.
-  let zr = 1, zi = 0;
+  let zr = 1,
+    zi = 0;
   let logMag = 0;
   let magProd = 1;
   const d = new Float64Array(dim);
@@ -99,7 +100,9 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   let lastTheta = NaN;
   let lastZ = NaN;
   const state = (i: number, re: Float64Array, im: Float64Array) => {
-    const x = v[3 * i]!, y = v[3 * i + 1]!, z = v[3 * i + 2]!;
+    const x = v[3 * i]!,
+      y = v[3 * i + 1]!,
+      z = v[3 * i + 2]!;
     const rho = Math.sqrt(x * x + y * y);
     if (z !== lastZ) {
       // the small-d column depends on the polar angle only (constant along a cone)
@@ -173,7 +176,8 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     }
     // running product of the normalized overlaps (its argument is the phase sum mod 2 pi) and of
     // the magnitudes (renormalized before it can underflow)
-    const wr = sr / mag, wi = si / mag;
+    const wr = sr / mag,
+      wi = si / mag;
     const nzr = zr * wr - zi * wi;
     zi = zr * wi + zi * wr;
     zr = nzr;
@@ -200,12 +204,19 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
   {
     const dd = new Float64Array(dim);
     const col = Math.round(S - m);
-    let lastAlpha = NaN, lastF = NaN;
+    let lastAlpha = NaN,
+      lastF = NaN;
     for (let i = 0; i < n; i++) {
       const j = (i + 1) % n;
-      const ax = v[3 * i]!, ay = v[3 * i + 1]!, az = v[3 * i + 2]!;
-      const bx = v[3 * j]!, by = v[3 * j + 1]!, bz = v[3 * j + 2]!;
-      const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
+      const ax = v[3 * i]!,
+        ay = v[3 * i + 1]!,
+        az = v[3 * i + 2]!;
+      const bx = v[3 * j]!,
+        by = v[3 * j + 1]!,
+        bz = v[3 * j + 2]!;
+      const cx = ay * bz - az * by,
+        cy = az * bx - ax * bz,
+        cz = ax * by - ay * bx;
       const alpha = Math.atan2(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz);
       // short edges: d^S_mm(alpha) >= 1 - alpha^2 <Sy^2> / 2 = 1 - alpha^2 (S(S+1) - m^2) / 4 (cos x >= 1 - x^2/2
       // on the spectral decomposition of Sy), so it is positive and the bound serves as its size
@@ -235,10 +246,6 @@ export function spinBerryPhase(points: ArrayLike<ArrayLike<number>>, S: number, 
     minEdgeFactor,
     edges: n,
     method: "geometric -m Omega (Van Oosterom-Strackee fan) and discrete product of overlaps of rotated spin-S states",
-    sources: [
-      "M. Berry, Proc. R. Soc. A 392, 45 (1984)",
-      "R. Resta, Rev. Mod. Phys. 66, 899 (1994)",
-      "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)",
-    ],
+    sources: ["M. Berry, Proc. R. Soc. A 392, 45 (1984)", "R. Resta, Rev. Mod. Phys. 66, 899 (1994)", "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)"],
   };
 }

@@ -63,14 +63,19 @@ export function compileMatrixFamily(family: MatrixFamily, variable = "lambda", p
     try {
       code = mathExpressions().compile(family) as EvalFunction;
     } catch (err) {
-      throw new InputError("H", family, "a mathjs matrix expression such as \"[[cos(lambda), sin(lambda)], [sin(lambda), -cos(lambda)]]\"", (err as Error).message);
+      throw new InputError("H", family, 'a mathjs matrix expression such as "[[cos(lambda), sin(lambda)], [sin(lambda), -cos(lambda)]]"', (err as Error).message);
     }
     return (x: number) => {
       let value: unknown;
       try {
         value = code.evaluate({ ...parameters, [variable]: x });
       } catch (err) {
-        throw new InputError("H", family, `an expression that evaluates with ${variable} = ${x}${Object.keys(parameters).length ? " and " + Object.keys(parameters).join(", ") : ""}`, (err as Error).message);
+        throw new InputError(
+          "H",
+          family,
+          `an expression that evaluates with ${variable} = ${x}${Object.keys(parameters).length ? " and " + Object.keys(parameters).join(", ") : ""}`,
+          (err as Error).message,
+        );
       }
       return toPlanarMatrix(value, "H");
     };
@@ -99,7 +104,11 @@ export function wilsonLoop(family: MatrixFamily, options: WilsonLoopOptions = {}
   const scale = Math.max(maxAbsEntry(h0), 1e-300);
   const closure = maxAbsDifference(h0, hEnd) / scale;
   if (closure > (options.closureTolerance ?? 1e-9)) {
-    throw new InputError("H", `H(${to}) - H(${from}) of relative size ${closure.toExponential(3)}`, "a closed loop: H(to) equal to H(from) (an open path has no gauge-invariant Berry phase)");
+    throw new InputError(
+      "H",
+      `H(${to}) - H(${from}) of relative size ${closure.toExponential(3)}`,
+      "a closed loop: H(to) equal to H(from) (an open path has no gauge-invariant Berry phase)",
+    );
   }
   const k = bands.length;
   const lo = bands[0]!;
@@ -109,10 +118,11 @@ export function wilsonLoop(family: MatrixFamily, options: WilsonLoopOptions = {}
     solver.solve(m.re, m.im, true);
     const ur = new Float64Array(n * k);
     const ui = new Float64Array(n * k);
-    for (let i = 0; i < n; i++) for (let b = 0; b < k; b++) {
-      ur[i * k + b] = solver.vectorsRe[i * n + lo + b]!;
-      ui[i * k + b] = solver.vectorsIm[i * n + lo + b]!;
-    }
+    for (let i = 0; i < n; i++)
+      for (let b = 0; b < k; b++) {
+        ur[i * k + b] = solver.vectorsRe[i * n + lo + b]!;
+        ui[i * k + b] = solver.vectorsIm[i * n + lo + b]!;
+      }
     let gap = Infinity;
     if (lo > 0) gap = Math.min(gap, solver.values[lo]! - solver.values[lo - 1]!);
     if (hi < n - 1) gap = Math.min(gap, solver.values[hi + 1]! - solver.values[hi]!);
@@ -139,33 +149,37 @@ export function wilsonLoop(family: MatrixFamily, options: WilsonLoopOptions = {}
       minGap = Math.min(minGap, cur.gap);
     }
     // M = U_prev^H U_cur
-    for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) {
-      let sr = 0;
-      let si = 0;
-      for (let i = 0; i < n; i++) {
-        const xr = prev.ur[i * k + a]!, xi = prev.ui[i * k + a]!;
-        const yr = cur.ur[i * k + b]!, yi = cur.ui[i * k + b]!;
-        sr += xr * yr + xi * yi;
-        si += xr * yi - xi * yr;
+    for (let a = 0; a < k; a++)
+      for (let b = 0; b < k; b++) {
+        let sr = 0;
+        let si = 0;
+        for (let i = 0; i < n; i++) {
+          const xr = prev.ur[i * k + a]!,
+            xi = prev.ui[i * k + a]!;
+          const yr = cur.ur[i * k + b]!,
+            yi = cur.ui[i * k + b]!;
+          sr += xr * yr + xi * yi;
+          si += xr * yi - xi * yr;
+        }
+        mr[a * k + b] = sr;
+        mi[a * k + b] = si;
       }
-      mr[a * k + b] = sr;
-      mi[a * k + b] = si;
-    }
     const [dr, di] = complexDeterminant(k, mr, mi);
     phase += Math.atan2(di, dr);
     logMag += Math.log(Math.hypot(dr, di) || 1e-300);
     const nr = new Float64Array(k * k);
     const ni = new Float64Array(k * k);
-    for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) {
-      let sr = 0;
-      let si = 0;
-      for (let c = 0; c < k; c++) {
-        sr += wr[a * k + c]! * mr[c * k + b]! - wi[a * k + c]! * mi[c * k + b]!;
-        si += wr[a * k + c]! * mi[c * k + b]! + wi[a * k + c]! * mr[c * k + b]!;
+    for (let a = 0; a < k; a++)
+      for (let b = 0; b < k; b++) {
+        let sr = 0;
+        let si = 0;
+        for (let c = 0; c < k; c++) {
+          sr += wr[a * k + c]! * mr[c * k + b]! - wi[a * k + c]! * mi[c * k + b]!;
+          si += wr[a * k + c]! * mi[c * k + b]! + wi[a * k + c]! * mr[c * k + b]!;
+        }
+        nr[a * k + b] = sr;
+        ni[a * k + b] = si;
       }
-      nr[a * k + b] = sr;
-      ni[a * k + b] = si;
-    }
     wr = nr;
     wi = ni;
     prev = cur;

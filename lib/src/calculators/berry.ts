@@ -19,7 +19,11 @@ import { honeycombMagnonHallConverged } from "../berry/magnonHoneycomb.js";
 import { hardAxisQuenchingFields, hardAxisTunnelSplitting, gargQuenchingPeriod, giantSpinLevels, splittingMinima, tunnelSplittingAnyField } from "../berry/giantSpin.js";
 import { easyPlaneCrossings, easyPlaneGroundM, easyPlaneMagnetization, rotorMagnetization, rotorTruncation } from "../berry/easyPlaneSpin.js";
 
-const berrySources = ["M. Berry, Proc. R. Soc. A 392, 45 (1984)", "R. Resta, Rev. Mod. Phys. 66, 899 (1994)", "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)"];
+const berrySources = [
+  "M. Berry, Proc. R. Soc. A 392, 45 (1984)",
+  "R. Resta, Rev. Mod. Phys. 66, 899 (1994)",
+  "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)",
+];
 
 // ---------------------------------------------------------------- berry-loop
 function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -33,7 +37,8 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
   const exact: number[] = [];
   let omega = 0;
   const shifted: number[] = [];
-  let residual = 0, minFactor = Infinity;
+  let residual = 0,
+    minFactor = Infinity;
   for (let k = 0; k <= v.twoS!; k++) {
     const m = S - k;
     const r = spinBerryPhase(loop, S, m);
@@ -50,9 +55,14 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
   const alpha = 2 * Math.asin(Math.min(1, Math.sin(theta) * Math.sin(Math.PI / N)));
   const loopNotes: string[] = [];
   if (shifted.length) {
-    loopNotes.push(`The discrete phase of m = ${shifted.join(", ")} is off by exactly pi: for edges of arc ${alpha.toFixed(4)} rad the product of the diagonal Wigner elements d^S_mm(alpha) over the ${N} edges is negative (a loop too coarse for these states, not a numerical error). More edges (or an even number) remove it.`);
+    loopNotes.push(
+      `The discrete phase of m = ${shifted.join(", ")} is off by exactly pi: for edges of arc ${alpha.toFixed(4)} rad the product of the diagonal Wigner elements d^S_mm(alpha) over the ${N} edges is negative (a loop too coarse for these states, not a numerical error). More edges (or an even number) remove it.`,
+    );
   }
-  if (minFactor < 1e-8) loopNotes.push(`An edge factor d^S_mm(alpha) is ${minFactor.toExponential(1)}: neighbouring states are nearly orthogonal and the discrete phase of that m is ill-defined; use more edges.`);
+  if (minFactor < 1e-8)
+    loopNotes.push(
+      `An edge factor d^S_mm(alpha) is ${minFactor.toExponential(1)}: neighbouring states are nearly orthogonal and the discrete phase of that m is ill-defined; use more edges.`,
+    );
   const values: ComputeOutput["values"] = {
     solidAngle: omega,
     capSolidAngle: 2 * Math.PI * (1 - Math.cos(theta)),
@@ -70,7 +80,9 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
   };
   if (options.sweep) {
     const ts = sweepValues(berryLoopSpec, options.sweep);
-    const g1: number[] = [], g2: number[] = [], g3: number[] = [];
+    const g1: number[] = [],
+      g2: number[] = [],
+      g3: number[] = [];
     for (const t of ts) {
       const r = spinBerryPhase(coneLoop(t, N), S, S);
       g1.push(r.geometric);
@@ -95,7 +107,8 @@ function computeBerryLoop(v: InputValues, options: ComputeOptions = {}): Compute
 export const berryLoopSpec = defineCalculator({
   id: "berry-loop",
   title: "Spin Berry phase around a cone",
-  summary: "Berry phase of a spin S in each state m along its axis when the axis runs once counterclockwise (seen from +z) around a cone of half-angle theta: geometric -m Omega and the gauge-invariant product of overlaps of rotated spin-S states, against -m 2 pi (1 - cos theta).",
+  summary:
+    "Berry phase of a spin S in each state m along its axis when the axis runs once counterclockwise (seen from +z) around a cone of half-angle theta: geometric -m Omega and the gauge-invariant product of overlaps of rotated spin-S states, against -m 2 pi (1 - cos theta).",
   inputs: [
     { name: "twoS", symbol: "2S", unit: "", default: 3, min: 1, max: 12, scale: "linear", kind: "integer", meaning: "twice the spin (1 for S = 1/2)" },
     { name: "theta", symbol: "\\theta", unit: "rad", default: 1.0, min: 0.05, max: 3.09, scale: "linear", meaning: "cone half-angle (rad)" },
@@ -122,7 +135,13 @@ export const berryLoopSpec = defineCalculator({
   ],
   plots: [
     { id: "phase-vs-m", title: "Berry phase of each m", x: "mValues", y: ["gammaGeometric", "gammaDiscrete", "gammaCircle"], mode: "markers" },
-    { id: "phase-vs-theta", title: "Berry phase of m = S against the cone angle", x: "thetaSweep", y: ["gammaTopSweep", "gammaTopDiscreteSweep", "gammaTopCircleSweep"], yPeriod: 2 * Math.PI },
+    {
+      id: "phase-vs-theta",
+      title: "Berry phase of m = S against the cone angle",
+      x: "thetaSweep",
+      y: ["gammaTopSweep", "gammaTopDiscreteSweep", "gammaTopCircleSweep"],
+      yPeriod: 2 * Math.PI,
+    },
   ],
   sweep: { over: ["theta"], points: 24 },
   assumptions: [
@@ -134,9 +153,16 @@ export const berryLoopSpec = defineCalculator({
   method: "Van Oosterom-Strackee solid angle of the geodesic polygon; Wigner-D spin-S states and the discrete product of overlaps",
   cost: (v, o) => {
     // per vertex a rotated spin-S basis ((2S+1)^2 entries, O(2S) each), per m an overlap chain
-    const d = v.twoS! + 1, N = v.segments!, sweep = o.sweep?.points ?? 0;
+    const d = v.twoS! + 1,
+      N = v.segments!,
+      sweep = o.sweep?.points ?? 0;
     const driver = N / 4000 > d / 13 ? "segments" : "twoS";
-    return { bytes: 16 * d * d * (N + 2) + 64 * N, steps: 20 * d * d * d * (N + sweep) + 50 * N, parameter: driver, what: `${N} loop vertices with ${d} x ${d} rotated spin states each` };
+    return {
+      bytes: 16 * d * d * (N + 2) + 64 * N,
+      steps: 20 * d * d * d * (N + sweep) + 50 * N,
+      parameter: driver,
+      what: `${N} loop vertices with ${d} x ${d} rotated spin states each`,
+    };
   },
   compute: computeBerryLoop,
 });
@@ -175,7 +201,10 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
     // boundary are reported, never guessed, so a coarse grid costs resolution, not correctness.
     const ns = v.sweepGrid === undefined ? 24 : requireWholeAtLeast(v, "sweepGrid", 3, "grid points per direction of the phase diagram");
     const Ms = sweepValues(chernSpec, options.sweep);
-    const xs: number[] = [], cs: number[] = [], cf: number[] = [], un: number[] = [];
+    const xs: number[] = [],
+      cs: number[] = [],
+      cf: number[] = [],
+      un: number[] = [];
     for (const M of Ms) {
       const s = chernNumbers(model(M), { n1: ns, onUnresolved: "report" });
       if (s.status === "ok") {
@@ -189,7 +218,10 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
     values.MResolved = xs;
     values.chernSweep = cs;
     values.MUnresolved = un;
-    if (un.length) notes.push(`${un.length} sweep points near |M| = ${Mc.toPrecision(4)} are not resolved on the ${ns} x ${ns} sweep grid and are left out of chernSweep (raise sweepGrid to resolve them).`);
+    if (un.length)
+      notes.push(
+        `${un.length} sweep points near |M| = ${Mc.toPrecision(4)} are not resolved on the ${ns} x ${ns} sweep grid and are left out of chernSweep (raise sweepGrid to resolve them).`,
+      );
   }
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
 }
@@ -197,13 +229,34 @@ function computeChern(v: InputValues, options: ComputeOptions = {}): ComputeOutp
 export const chernSpec = defineCalculator({
   id: "chern",
   title: "Chern numbers of the Haldane model",
-  summary: "Chern numbers of the two bands of the Haldane model (honeycomb lattice, NN hopping t1 = 1, complex NNN hopping t2 e^{+-i phi}, sublattice mass M) by link variables on an n x n zone grid, the phase diagram against M, and the closed-form boundary |M| = 3 sqrt(3) |t2 sin phi|. Points the grid cannot resolve are reported, never guessed.",
+  summary:
+    "Chern numbers of the two bands of the Haldane model (honeycomb lattice, NN hopping t1 = 1, complex NNN hopping t2 e^{+-i phi}, sublattice mass M) by link variables on an n x n zone grid, the phase diagram against M, and the closed-form boundary |M| = 3 sqrt(3) |t2 sin phi|. Points the grid cannot resolve are reported, never guessed.",
   inputs: [
     { name: "t2", symbol: "t_2", unit: "", default: 0.1, min: 0.02, max: 0.3, scale: "linear", meaning: "next-nearest-neighbour hopping (units of t1)" },
     { name: "phi", symbol: "\\phi", unit: "rad", default: Math.PI / 2, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "phase of the NNN hopping (rad)" },
     { name: "M", symbol: "M", unit: "", default: 0.2, min: -1.5, max: 1.5, scale: "linear", meaning: "sublattice (Semenoff) mass (units of t1)" },
-    { name: "grid", symbol: "n", unit: "", default: 30, min: 12, max: 120, scale: "linear", kind: "integer", meaning: "first grid (points per reciprocal direction) for the Chern numbers at M; refined until resolved" },
-    { name: "sweepGrid", symbol: "n_{sweep}", unit: "", default: 24, min: 12, max: 72, scale: "linear", kind: "integer", meaning: "grid points per direction for the phase diagram against M (refine to resolve points near the boundary)" },
+    {
+      name: "grid",
+      symbol: "n",
+      unit: "",
+      default: 30,
+      min: 12,
+      max: 120,
+      scale: "linear",
+      kind: "integer",
+      meaning: "first grid (points per reciprocal direction) for the Chern numbers at M; refined until resolved",
+    },
+    {
+      name: "sweepGrid",
+      symbol: "n_{sweep}",
+      unit: "",
+      default: 24,
+      min: 12,
+      max: 72,
+      scale: "linear",
+      kind: "integer",
+      meaning: "grid points per direction for the phase diagram against M (refine to resolve points near the boundary)",
+    },
   ],
   outputs: [
     { name: "chernLower", symbol: "C_-", unit: "", meaning: "Chern number of the lower band (omitted if unresolved)" },
@@ -230,11 +283,19 @@ export const chernSpec = defineCalculator({
     "Chern number in the (k1, k2) orientation of the right-handed basis a1 = (sqrt3/2, 3/2), a2 = (-sqrt3/2, 3/2); C = (1/2pi) int Omega with Omega = -2 Im <d1u|d2u>.",
   ],
   sources: ["F. D. M. Haldane, PRL 61, 2015 (1988)", "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)"],
-  method: "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux below 1 rad, gap vs band change per step), the grid refined until they hold (up to 1024 x 1024, the work bound); two-band eigenvectors in closed form",
+  method:
+    "Fukui-Hatsugai-Suzuki link variables with resolution checks (gap, plaquette flux below 1 rad, gap vs band change per step), the grid refined until they hold (up to 1024 x 1024, the work bound); two-band eigenvectors in closed form",
   cost: (v, o) => {
-    const g = v.grid!, sg = v.sweepGrid!, sweep = o.sweep?.points ?? 0;
+    const g = v.grid!,
+      sg = v.sweepGrid!,
+      sweep = o.sweep?.points ?? 0;
     const cells = g * g + sweep * sg * sg;
-    return { bytes: 200 * g * g + 80 * sg * sg, steps: 400 * cells, parameter: sweep * sg * sg > g * g ? "sweepGrid" : "grid", what: `${g}^2 k-points, plus ${sweep} sweep points of ${sg}^2` };
+    return {
+      bytes: 200 * g * g + 80 * sg * sg,
+      steps: 400 * cells,
+      parameter: sweep * sg * sg > g * g ? "sweepGrid" : "grid",
+      what: `${g}^2 k-points, plus ${sweep} sweep points of ${sg}^2`,
+    };
   },
   compute: computeChern,
 });
@@ -252,7 +313,11 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
     gapAtK: r.gapAtK / kB,
     bandBottom: r.bandBottom / kB,
     bandTop: r.bandTop / kB,
-    chernText: r.chern ? `C = (${r.chern[0]}, ${r.chern[1]}) for the (lower, upper) band` : r.status === "gapless" ? "undefined: the bands touch at K and K' (D = 0)" : "not resolved on the grid",
+    chernText: r.chern
+      ? `C = (${r.chern[0]}, ${r.chern[1]}) for the (lower, upper) band`
+      : r.status === "gapless"
+        ? "undefined: the bands touch at K and K' (D = 0)"
+        : "not resolved on the grid",
     zoneGrid: c.grids.at(-1)!,
     magnonDepletion: c.depletion[0]!,
   };
@@ -261,9 +326,13 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
     values.kappaXYReduced = c.kappaXYReduced[0]!;
     values.kappaXYReducedError = c.errorReduced[0]!;
   } else if (r.status === "unresolved") {
-    notes.push(`kappa_xy is not given: the Berry curvature is not resolved on the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (gap too small), so the weighted zone sum cannot be trusted.`);
+    notes.push(
+      `kappa_xy is not given: the Berry curvature is not resolved on the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (gap too small), so the weighted zone sum cannot be trusted.`,
+    );
   } else {
-    notes.push(`kappa_xy is not given: it did not converge to the relative tolerance ${rtol} by the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (last change ${c.errorReduced[0]!.toExponential(2)} in units of k_B^2 T / hbar); the integrand is concentrated near the band bottom at this temperature.`);
+    notes.push(
+      `kappa_xy is not given: it did not converge to the relative tolerance ${rtol} by the ${c.grids.at(-1)} x ${c.grids.at(-1)} zone grid (last change ${c.errorReduced[0]!.toExponential(2)} in units of k_B^2 T / hbar); the integrand is concentrated near the band bottom at this temperature.`,
+    );
   }
   if (r.chern) {
     values.chernLower = r.chern[0];
@@ -271,9 +340,14 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
   }
   const width = (r.bandTop - r.bandBottom) / kB;
   if (kB * v.T! > 0.1 * (r.bandTop - r.bandBottom)) {
-    notes.push(`k_B T = ${v.T!.toPrecision(3)} K is not small against the magnon band width ${width.toPrecision(3)} K: linear spin waves (non-interacting magnons) are not reliable here.`);
+    notes.push(
+      `k_B T = ${v.T!.toPrecision(3)} K is not small against the magnon band width ${width.toPrecision(3)} K: linear spin waves (non-interacting magnons) are not reliable here.`,
+    );
   }
-  if (c.depletion[0]! > 0.1) notes.push(`The thermal magnon population reduces the ordered moment by ${(100 * c.depletion[0]!).toPrecision(3)} % (delta S / S in LSWT): the spin-wave description of the ordered state is failing.`);
+  if (c.depletion[0]! > 0.1)
+    notes.push(
+      `The thermal magnon population reduces the ordered moment by ${(100 * c.depletion[0]!).toPrecision(3)} % (delta S / S in LSWT): the spin-wave description of the ordered state is failing.`,
+    );
   notes.push(
     "A single 2D layer: with isotropic exchange there is no long-range order at T > 0 (Mermin-Wagner); the ordered state assumed here is held by the magnon gap g muB B (or an anisotropy gap, or interlayer coupling in a crystal), and the magnon depletion grows like ln(k_B T / gap) as that gap closes.",
   );
@@ -294,11 +368,23 @@ function computeMagnonHall(v: InputValues, options: ComputeOptions = {}): Comput
 export const magnonHallSpec = defineCalculator({
   id: "magnon-hall",
   title: "Topological magnons and thermal Hall effect of a honeycomb ferromagnet",
-  summary: "Linear spin waves of a honeycomb ferromagnet with exchange J, next-nearest-neighbour DMI D (along z) and a field B along the magnetization: band range, gap at K, Chern numbers of the two bands, and the magnon thermal Hall conductivity kappa_xy per layer against temperature.",
+  summary:
+    "Linear spin waves of a honeycomb ferromagnet with exchange J, next-nearest-neighbour DMI D (along z) and a field B along the magnetization: band range, gap at K, Chern numbers of the two bands, and the magnon thermal Hall conductivity kappa_xy per layer against temperature.",
   inputs: [
     { name: "J", symbol: "J/k_B", unit: "K", default: 14, min: 2, max: 60, scale: "linear", meaning: "nearest-neighbour ferromagnetic exchange, J / k_B" },
     { name: "D", symbol: "D/k_B", unit: "K", default: 2.2, min: -10, max: 10, scale: "linear", meaning: "next-nearest-neighbour DMI, D / k_B (sign flips the Chern numbers)" },
-    { name: "S", symbol: "S", unit: "", default: 2, min: 0.5, max: 3.5, scale: "linear", kind: "choice", choices: [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map((s) => ({ value: s, label: `S = ${s}` })), meaning: "spin length" },
+    {
+      name: "S",
+      symbol: "S",
+      unit: "",
+      default: 2,
+      min: 0.5,
+      max: 3.5,
+      scale: "linear",
+      kind: "choice",
+      choices: [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map((s) => ({ value: s, label: `S = ${s}` })),
+      meaning: "spin length",
+    },
     { name: "B", symbol: "B", unit: "T", default: 0.5, min: 0.01, max: 10, scale: "log", meaning: "field along the magnetization (gaps the Goldstone mode)" },
     { name: "T", symbol: "T", unit: "K", default: 10, min: 0.5, max: 100, scale: "log", meaning: "temperature" },
   ],
@@ -311,7 +397,12 @@ export const magnonHallSpec = defineCalculator({
     { name: "bandTop", symbol: "E_{max}/k_B", unit: "K", meaning: "highest magnon energy" },
     { name: "kappaXY", symbol: "\\kappa_{xy}^{2D}", unit: "W/K", meaning: "thermal Hall conductivity per layer at T" },
     { name: "kappaXYReduced", symbol: "\\kappa_{xy}^{2D} \\hbar / (k_B^2 T)", unit: "", meaning: "the same in units of k_B^2 T / hbar", uncertainty: "kappaXYReducedError" },
-    { name: "kappaXYReducedError", symbol: "\\delta(\\kappa_{xy} \\hbar / k_B^2 T)", unit: "", meaning: "error estimate of the reduced value (change between the last two Richardson values)" },
+    {
+      name: "kappaXYReducedError",
+      symbol: "\\delta(\\kappa_{xy} \\hbar / k_B^2 T)",
+      unit: "",
+      meaning: "error estimate of the reduced value (change between the last two Richardson values)",
+    },
     { name: "zoneGrid", symbol: "n_k", unit: "", meaning: "finest zone grid used (points per direction)" },
     { name: "magnonDepletion", symbol: "\\delta S / S", unit: "", meaning: "thermal reduction of the ordered moment in LSWT at T (small for the theory to hold)" },
     { name: "TSweep", symbol: "T", unit: "K", kind: "array", meaning: "temperatures of the sweep" },
@@ -333,7 +424,8 @@ export const magnonHallSpec = defineCalculator({
     "S. K. Kim, H. Ochoa, R. Zarzuela, Y. Tserkovnyak, PRL 117, 227201 (2016)",
     "T. Fukui, Y. Hatsugai, H. Suzuki, J. Phys. Soc. Jpn. 74, 1674 (2005)",
   ],
-  method: "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum on doubling grids with Richardson extrapolation to a stated tolerance",
+  method:
+    "Holstein-Primakoff LSWT (Haldane-type two-band model), link-variable Berry curvature, c2-weighted zone sum on doubling grids with Richardson extrapolation to a stated tolerance",
   limits: {
     J: { above: 0, why: "a ferromagnetic exchange J/k_B" },
     B: { above: 0, why: "a field that gaps the Goldstone magnon" },
@@ -362,8 +454,14 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
     if (q.spacings.length) {
       values.meanPeriod = q.meanPeriod;
       values.deviation = q.deviation;
-      if (p.C === 0) notes.push("For C = 0 the zeros are exact and equally spaced with exactly Garg's period (Kececioglu and Garg, PRB 63, 064422 (2001)): `deviation` is rounding of the numerics, not a physical correction.");
-      else notes.push(`C != 0: Garg's period is that of the quadratic Hamiltonian; the deviation ${(q.deviation * 100).toPrecision(3)} % is the effect of the fourth-order term (spacings from ${Math.min(...q.spacings).toPrecision(5)} to ${Math.max(...q.spacings).toPrecision(5)} T).`);
+      if (p.C === 0)
+        notes.push(
+          "For C = 0 the zeros are exact and equally spaced with exactly Garg's period (Kececioglu and Garg, PRB 63, 064422 (2001)): `deviation` is rounding of the numerics, not a physical correction.",
+        );
+      else
+        notes.push(
+          `C != 0: Garg's period is that of the quadratic Hamiltonian; the deviation ${(q.deviation * 100).toPrecision(3)} % is the effect of the fourth-order term (spacings from ${Math.min(...q.spacings).toPrecision(5)} to ${Math.max(...q.spacings).toPrecision(5)} T).`,
+        );
     } else notes.push("fewer than two quenching fields below Bmax: raise Bmax to measure the period");
   } else {
     const mins = splittingMinima(p, v.Bmax!, dir, 120);
@@ -372,8 +470,11 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
     values.minimumFields = mins.fields;
     dips = mins.fields;
     values.minimumSplittings = mins.splittings.map((x) => x / kB);
-    notes.push(`The field is ${phiB.toPrecision(3)} rad off the hard axis: the parity symmetry is broken, so the splitting has minima of finite depth instead of zeros (minimumFields, minimumSplittings).`);
-    if (mins.splittings.some((x, i) => x < 10 * mins.resolution[i]!)) notes.push("Some minima are within 10x the double-precision resolution of the splitting and cannot be told from zero.");
+    notes.push(
+      `The field is ${phiB.toPrecision(3)} rad off the hard axis: the parity symmetry is broken, so the splitting has minima of finite depth instead of zeros (minimumFields, minimumSplittings).`,
+    );
+    if (mins.splittings.some((x, i) => x < 10 * mins.resolution[i]!))
+      notes.push("Some minima are within 10x the double-precision resolution of the splitting and cannot be told from zero.");
     if (mins.fields.length >= 2) {
       values.meanPeriod = (mins.fields.at(-1)! - mins.fields[0]!) / (mins.fields.length - 1);
       values.deviation = values.meanPeriod / (values.gargPeriod as number) - 1;
@@ -394,26 +495,37 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
       return Math.log10(Math.max(t.splitting, t.resolution) / kB);
     };
     const curve = new Map<number, number>();
-    const add = (B: number) => { if (B >= 0 && B <= Bmax && !curve.has(B)) curve.set(B, logAt(B)); };
+    const add = (B: number) => {
+      if (B >= 0 && B <= Bmax && !curve.has(B)) curve.set(B, logAt(B));
+    };
     for (let i = 0; i < 60; i++) add((Bmax * i) / 59);
     const scale = Number.isFinite(values.gargPeriod as number) && (values.gargPeriod as number) > 0 ? Math.min(values.gargPeriod as number, Bmax) : Bmax / 10;
     for (const z of dips) {
       add(z);
-      for (const f of [0.1, 0.03, 0.01, 3e-3, 1e-3, 3e-4, 1e-4]) { add(z - f * scale); add(z + f * scale); }
+      for (const f of [0.1, 0.03, 0.01, 3e-3, 1e-3, 3e-4, 1e-4]) {
+        add(z - f * scale);
+        add(z + f * scale);
+      }
     }
     const BUDGET = 640;
     for (let round = 0; round < 8 && curve.size < BUDGET; round++) {
       const xs = [...curve.keys()].sort((a, b) => a - b);
       let added = 0;
       for (let i = 1; i < xs.length && curve.size < BUDGET; i++) {
-        const a = xs[i - 1]!, b = xs[i]!;
-        if (b - a > 1e-7 * Bmax && Math.abs(curve.get(b)! - curve.get(a)!) > 0.4) { add((a + b) / 2); added++; }
+        const a = xs[i - 1]!,
+          b = xs[i]!;
+        if (b - a > 1e-7 * Bmax && Math.abs(curve.get(b)! - curve.get(a)!) > 0.4) {
+          add((a + b) / 2);
+          added++;
+        }
       }
       if (added === 0) break;
     }
     const Bs = [...curve.keys()].sort((a, b) => a - b);
     const logSplit = Bs.map((B) => curve.get(B)!);
-    const l0: number[] = [], l1: number[] = [], l2: number[] = [];
+    const l0: number[] = [],
+      l1: number[] = [],
+      l2: number[] = [];
     const levels = giantSpinLevels(p, Bs, dir);
     for (let i = 0; i < Bs.length; i++) {
       l0.push(levels[i]![0]! / kB);
@@ -433,19 +545,45 @@ function computeSpinTunnel(v: InputValues, options: ComputeOptions = {}): Comput
 export const spinTunnelSpec = defineCalculator({
   id: "spin-tunnel",
   title: "Quenching of spin tunnelling by a hard-axis field",
-  summary: "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B.S (B at azimuth phi_B from the hard axis x in the hard plane) by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
+  summary:
+    "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B.S (B at azimuth phi_B from the hard axis x in the hard plane) by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
   inputs: [
-    { name: "S", symbol: "S", unit: "", default: 9, min: 4, max: 12, scale: "linear", kind: "choice", choices: [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })), meaning: "spin of the molecule" },
+    {
+      name: "S",
+      symbol: "S",
+      unit: "",
+      default: 9,
+      min: 4,
+      max: 12,
+      scale: "linear",
+      kind: "choice",
+      choices: [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })),
+      meaning: "spin of the molecule",
+    },
     { name: "D", symbol: "D/k_B", unit: "K", default: 0.42, min: 0.05, max: 1, scale: "linear", meaning: "axial (easy-axis) anisotropy" },
     { name: "E", symbol: "E/k_B", unit: "K", default: 0.04, min: 0.005, max: 0.2, scale: "linear", meaning: "rhombic anisotropy (x hard axis)" },
     { name: "Bmax", symbol: "B_{max}", unit: "T", default: 1.5, min: 0.2, max: 3, scale: "linear", meaning: "largest hard-axis field searched" },
     { name: "C", symbol: "C/k_B", unit: "K", default: 0, min: -2e-4, max: 2e-4, scale: "linear", meaning: "fourth-order transverse anisotropy C (S+^4 + S-^4)" },
-    { name: "misalignment", symbol: "\\varphi_B", unit: "rad", default: 0, min: 0, max: 0.3, scale: "linear", meaning: "field azimuth from the hard axis x toward the medium axis y (rad)" },
+    {
+      name: "misalignment",
+      symbol: "\\varphi_B",
+      unit: "rad",
+      default: 0,
+      min: 0,
+      max: 0.3,
+      scale: "linear",
+      meaning: "field azimuth from the hard axis x toward the medium axis y (rad)",
+    },
   ],
   outputs: [
     { name: "gargPeriod", symbol: "\\Delta B_{Garg}", unit: "T", meaning: "semiclassical quenching period" },
     { name: "meanPeriod", symbol: "\\Delta B", unit: "T", meaning: "mean spacing of the zeros (of the minima for a misaligned field)" },
-    { name: "deviation", symbol: "\\Delta B/\\Delta B_{Garg} - 1", unit: "", meaning: "relative deviation from Garg: rounding for C = 0 (the zeros are exact), the effect of C otherwise" },
+    {
+      name: "deviation",
+      symbol: "\\Delta B/\\Delta B_{Garg} - 1",
+      unit: "",
+      meaning: "relative deviation from Garg: rounding for C = 0 (the zeros are exact), the effect of C otherwise",
+    },
     { name: "zeroCount", symbol: "n_0", unit: "", meaning: "number of zeros in (0, Bmax]" },
     { name: "zeros", symbol: "B_k", unit: "T", kind: "array", meaning: "quenching fields" },
     { name: "splittingZeroField", symbol: "\\Delta_0/k_B", unit: "K", meaning: "ground tunnel splitting at B = 0 (exactly 0 for half-integer S: Kramers)" },
@@ -487,7 +625,10 @@ function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): Compute
   const rotor = rotorMagnetization(D, b, v.T!, half).value;
   const trunc = rotorTruncation(S, D, b, v.T!);
   const notes: string[] = [];
-  if (trunc > 1e-12) notes.push(`outside the rotor limit: the levels beyond |m| = S carry ${trunc.toExponential(2)} of the rotor's Boltzmann weight, so the finite spin differs from the rotor form (rotorDifference is that difference, not an error of either)`);
+  if (trunc > 1e-12)
+    notes.push(
+      `outside the rotor limit: the levels beyond |m| = S carry ${trunc.toExponential(2)} of the rotor's Boltzmann weight, so the finite spin differs from the rotor form (rotorDifference is that difference, not an error of either)`,
+    );
   const values: ComputeOutput["values"] = {
     groundM: easyPlaneGroundM(S, D, b),
     szExact: exact,
@@ -509,7 +650,8 @@ function computeEasyPlane(v: InputValues, options: ComputeOptions = {}): Compute
 export const easyPlaneSpec = defineCalculator({
   id: "easy-plane",
   title: "Easy-plane spin in a hard-axis field: steps and rotor form",
-  summary: "H = D Sz^2 - g muB B Sz: level crossings at g muB B = D (2m + 1), the T = 0 magnetization staircase, and <Sz>(B, T) by the exact finite sum and by the rotor (Jacobi theta function) form; integer and half-integer spins differ by a half step.",
+  summary:
+    "H = D Sz^2 - g muB B Sz: level crossings at g muB B = D (2m + 1), the T = 0 magnetization staircase, and <Sz>(B, T) by the exact finite sum and by the rotor (Jacobi theta function) form; integer and half-integer spins differ by a half step.",
   inputs: [
     { name: "twoS", symbol: "2S", unit: "", default: 20, min: 1, max: 60, scale: "linear", kind: "integer", meaning: "twice the spin (odd = half-integer spin)" },
     { name: "D", symbol: "D/k_B", unit: "K", default: 1, min: 0.1, max: 5, scale: "linear", meaning: "easy-plane anisotropy (z hard axis)" },
@@ -532,14 +674,16 @@ export const easyPlaneSpec = defineCalculator({
   sweep: { over: ["B"], points: 200 },
   assumptions: ["Single spin, no transverse anisotropy (Sz conserved), g = 2, thermal equilibrium."],
   sources: ["E. T. Whittaker, G. N. Watson, A Course of Modern Analysis (1927), ch. 21"],
-  method: "exact Boltzmann sums; rotor form from whichever of its two equal series converges without cancellation: the direct sum over m for beta D >= pi, the Poisson-dual theta series x + (pi / 2 beta D) theta'/theta below (accurate to ~1e-15 (1 + |x|) at every beta D)",
+  method:
+    "exact Boltzmann sums; rotor form from whichever of its two equal series converges without cancellation: the direct sum over m for beta D >= pi, the Poisson-dual theta series x + (pi / 2 beta D) theta'/theta below (accurate to ~1e-15 (1 + |x|) at every beta D)",
   limits: {
     D: { above: 0, why: "an easy-plane anisotropy D/k_B" },
     T: { above: 0, why: "a temperature" },
   },
   cost: (v, o) => {
     // Boltzmann sums over the 2S+1 levels at each field, a few exponentials per level
-    const d = v.twoS! + 1, fields = (o.sweep?.points ?? 0) + 4;
+    const d = v.twoS! + 1,
+      fields = (o.sweep?.points ?? 0) + 4;
     return { bytes: 8 * (d + 4 * fields) + 8 * d, steps: 30 * d * fields, parameter: "twoS", what: `${d} levels at ${fields} fields` };
   },
   compute: computeEasyPlane,

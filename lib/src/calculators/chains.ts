@@ -40,8 +40,16 @@ const chainSources = [
 ];
 const wallSources = ["J. Villain, Physica B 79, 1 (1975)", "S. Ishimura, H. Shiba, Prog. Theor. Phys. 63, 743 (1980)"];
 
-const energyInput = <N extends string>(name: N, symbol: string, def: number, min: number, max: number, meaning: string) =>
-  ({ name, symbol, unit: "K", default: def, min, max, scale: "linear" as const, meaning: `${meaning} (E / k_B)` });
+const energyInput = <N extends string>(name: N, symbol: string, def: number, min: number, max: number, meaning: string) => ({
+  name,
+  symbol,
+  unit: "K",
+  default: def,
+  min,
+  max,
+  scale: "linear" as const,
+  meaning: `${meaning} (E / k_B)`,
+});
 
 const modelInputs = [
   energyInput("Jz", "J_z", 10, -20, 20, "Ising exchange; > 0 antiferromagnet"),
@@ -97,7 +105,9 @@ function spectrumModel(v: InputValues): ChainModel {
 function chainSpectrumCost(v: InputValues): ComputeCost {
   const model = spectrumModel(v);
   const levels = Math.max(1, Math.round(v.levels ?? 1));
-  let bytes = 0, steps = 0, states = 0;
+  let bytes = 0,
+    steps = 0,
+    states = 0;
   for (const { labels } of spectrumSectors(model)) {
     for (const label of labels) {
       const est = sectorMemoryEstimate(model.N, label, levels === 1 ? 4 : Math.max(2 * levels + 20, 40));
@@ -106,7 +116,12 @@ function chainSpectrumCost(v: InputValues): ComputeCost {
       states += est.dimension;
     }
   }
-  return { bytes, steps, parameter: "N", what: `${states} states in the symmetry sectors of a ${model.boundary === "periodic" ? "ring" : "chain"} of ${model.N} sites, Lanczos for ${levels} level(s) in each` };
+  return {
+    bytes,
+    steps,
+    parameter: "N",
+    what: `${states} states in the symmetry sectors of a ${model.boundary === "periodic" ? "ring" : "chain"} of ${model.N} sites, Lanczos for ${levels} level(s) in each`,
+  };
 }
 
 function computeChainSpectrum(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -130,7 +145,8 @@ function computeChainSpectrum(v: InputValues, options: ComputeOptions = {}): Com
   const total = dims.flat().reduce((a, b) => a + b, 0);
   let done = 0;
   groups.forEach(({ m, labels }, gi) => {
-    let best = Infinity, next = Infinity;
+    let best = Infinity,
+      next = Infinity;
     labels.forEach((label, li) => {
       const name = sectorName(N, label);
       const share = dims[gi]![li]! / total;
@@ -173,12 +189,16 @@ function computeChainSpectrum(v: InputValues, options: ComputeOptions = {}): Com
   };
   if (model.hx !== 0) notes.push("hx != 0: S^z is not conserved; each momentum sector holds all S^z");
   else notes.push(`S^z sectors computed: ${ups.map((u) => (u! - N / 2).toString()).join(", ")} (the lowest |S^z| and the next)`);
-  notes.push(`symmetry sectors: momentum${periodic ? "" : " (none: open chain)"}, reflection R = +-1 ${periodic ? "at k = 0 and pi" : "(sites j -> N - 1 - j)"}${groups[0]!.labels.some((l) => l.flip) ? ", spin inversion / pi rotation about x F = +-1" : ""}; levels at each k are the lowest of its sectors`);
+  notes.push(
+    `symmetry sectors: momentum${periodic ? "" : " (none: open chain)"}, reflection R = +-1 ${periodic ? "at k = 0 and pi" : "(sites j -> N - 1 - j)"}${groups[0]!.labels.some((l) => l.flip) ? ", spin inversion / pi rotation about x F = +-1" : ""}; levels at each k are the lowest of its sectors`,
+  );
   const Delta = model.Jperp > 0 ? model.Jz / model.Jperp : Infinity;
   if (model.Jz > 0 && model.Jperp > 0 && Delta >= 1 && model.hx === 0 && model.hz === 0) {
     values.e0BethePerSite = model.Jperp * xxzGroundEnergyPerSite(Delta);
     if (Delta > 1) values.gapBethe = model.Jperp * xxzGap(Delta);
-    notes.push("Bethe-ansatz values are for the infinite chain; a ring of N sites approaches them exponentially fast in the gapped regime (Delta > 1), slowly (1/N^2) at Delta = 1");
+    notes.push(
+      "Bethe-ansatz values are for the infinite chain; a ring of N sites approaches them exponentially fast in the gapped regime (Delta > 1), slowly (1/N^2) at Delta = 1",
+    );
   }
   if (model.Jperp === 0 && model.hz === 0 && periodic) {
     values.e0TransverseIsing = transverseIsingRing(N, model.Jz, model.hx).E0;
@@ -209,7 +229,21 @@ export const chainSpectrumSpec = defineCalculator({
   inputs: [
     { name: "N", symbol: "N", unit: "", default: 12, min: 4, max: 24, scale: "linear", kind: "integer", meaning: "number of sites (odd rings hold one domain wall)" },
     ...modelInputs,
-    { name: "boundary", symbol: "\\text{bc}", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "ring" }, { value: 1, label: "open" }], meaning: "periodic ring or open chain" },
+    {
+      name: "boundary",
+      symbol: "\\text{bc}",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "ring" },
+        { value: 1, label: "open" },
+      ],
+      meaning: "periodic ring or open chain",
+    },
     { name: "levels", symbol: "n_\\text{lev}", unit: "", default: 2, min: 1, max: 8, scale: "linear", kind: "integer", meaning: "Lanczos levels per sector" },
   ],
   outputs: [
@@ -225,7 +259,14 @@ export const chainSpectrumSpec = defineCalculator({
     { name: "kValues", symbol: "k", unit: "rad", kind: "array", meaning: "momenta (rad per site)" },
     { name: "levelLowest", symbol: "E_1(k) - E_0", unit: "K", kind: "array", meaning: "lowest level at each k above the ground state" },
     { name: "levelSecond", symbol: "E_2(k) - E_0", unit: "K", kind: "array", meaning: "second level at each k" },
-    { name: "wallBandFirstOrder", symbol: "E_w(k)", unit: "K", kind: "array", meaning: "first-order one-wall band on the same scale (odd antiferromagnetic rings)", optional: true },
+    {
+      name: "wallBandFirstOrder",
+      symbol: "E_w(k)",
+      unit: "K",
+      kind: "array",
+      meaning: "first-order one-wall band on the same scale (odd antiferromagnetic rings)",
+      optional: true,
+    },
     { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, lower bound (even rings)" },
     { name: "continuumUpper", symbol: "\\omega_+(q)", unit: "K", kind: "array", meaning: "first-order two-wall continuum, upper bound (even rings)" },
   ],
@@ -269,14 +310,25 @@ function chainDynamicsCost(v: InputValues): ComputeCost {
   const nq = Math.floor(N / 2) + 1;
   const terms = 2 * N;
   if (v.T! > 0) {
-    if (N > chainDynamicsMaxThermalED) throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
+    if (N > chainDynamicsMaxThermalED)
+      throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
     // dense diagonalization of N sectors, then the double sum over states (3 operators, 2 dots each)
     const steps = N * 10 * dim ** 3 + nq * N * dim * (3 * dim * N + dim * 12 * dim);
-    return { bytes: N * dim * dim * 16 * 2 + 3 * dim * dim * 8, steps, parameter: "N", what: `every level of ${N} momentum sectors of about ${Math.round(dim)} states and the double sum over states at ${nq} momenta` };
+    return {
+      bytes: N * dim * dim * 16 * 2 + 3 * dim * dim * 8,
+      steps,
+      parameter: "N",
+      what: `every level of ${N} momentum sectors of about ${Math.round(dim)} states and the double sum over states at ${nq} momenta`,
+    };
   }
   const d = dim / flip;
   const steps = (nq * flip + 1) * d * 2 * terms * 100 + nq * 5 * 200 * d * 2 * (terms + 6);
-  return { bytes: 4 * 2 ** N + 4 * d * terms * 20 + 10 * d * 16, steps, parameter: "N", what: `Lanczos ground state over ${nq * flip} sectors of about ${Math.round(d)} states and 5 continued fractions of depth 200 at ${nq} momenta` };
+  return {
+    bytes: 4 * 2 ** N + 4 * d * terms * 20 + 10 * d * 16,
+    steps,
+    parameter: "N",
+    what: `Lanczos ground state over ${nq * flip} sectors of about ${Math.round(d)} states and 5 continued fractions of depth 200 at ${nq} momenta`,
+  };
 }
 
 function computeChainDynamics(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
@@ -285,7 +337,8 @@ function computeChainDynamics(v: InputValues, options: ComputeOptions = {}): Com
   if (N > chainDynamicsMaxED) return thermodynamicLimitDynamics(v, N);
   const model = modelFrom(v, N);
   const T = v.T!;
-  if (T > 0 && N > chainDynamicsMaxThermalED) throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
+  if (T > 0 && N > chainDynamicsMaxThermalED)
+    throw new InputError("N", N, `at most ${chainDynamicsMaxThermalED} sites at T > 0 (full spectrum); the thermodynamic-limit model takes over above N = ${chainDynamicsMaxED}`);
   const omega = dynamicsOmega(v);
   const r = dynamicStructureFactor(model, {
     T,
@@ -334,7 +387,12 @@ function computeChainDynamics(v: InputValues, options: ComputeOptions = {}): Com
  */
 function thermodynamicLimitDynamics(v: InputValues, N: number): ComputeOutput {
   const p = { Jz: v.Jz!, Jperp: v.Jperp!, hx: v.hx!, hz: v.hz! };
-  if (!(p.Jz > 0)) throw new InputError("Jz", p.Jz, `an antiferromagnetic Jz > 0 above N = ${chainDynamicsMaxED} sites (the thermodynamic-limit model is the antiferromagnet's domain-wall picture)`);
+  if (!(p.Jz > 0))
+    throw new InputError(
+      "Jz",
+      p.Jz,
+      `an antiferromagnetic Jz > 0 above N = ${chainDynamicsMaxED} sites (the thermodynamic-limit model is the antiferromagnet's domain-wall picture)`,
+    );
   const T = v.T!;
   const eta = v.eta!;
   if (!(eta > 0)) throw new InputError("eta", eta, "a positive broadening (half width)");
@@ -397,9 +455,28 @@ export const chainDynamicsSpec = defineCalculator({
   summary:
     "S^{ab}(q, w) for a ring of N spins 1/2 in the xx, yy, zz channels and the chiral part C = i(S^yz - S^zy) seen by polarized neutrons; T = 0 by Lanczos continued fractions, T > 0 by sums over the full spectrum; Lorentzian broadening eta; sum rules (total weight, f-sum, chiral weight = -<S^x>, detailed balance) reported; first-order two-wall continuum and Villain edge for comparison.",
   inputs: [
-    { name: "N", symbol: "N", unit: "", default: 10, min: 4, max: 64, scale: "linear", kind: "integer", meaning: "number of sites (ring); exact diagonalization up to 16, the thermodynamic-limit domain-wall model above" },
+    {
+      name: "N",
+      symbol: "N",
+      unit: "",
+      default: 10,
+      min: 4,
+      max: 64,
+      scale: "linear",
+      kind: "integer",
+      meaning: "number of sites (ring); exact diagonalization up to 16, the thermodynamic-limit domain-wall model above",
+    },
     ...modelInputs.map((i) => (i.name === "hx" ? { ...i, default: 1 } : i)),
-    { name: "T", symbol: "T", unit: "K", default: 0, min: 0, max: 20, scale: "linear", meaning: "temperature (0: ground state; > 0 by exact diagonalization of the full spectrum within the work budget, about N <= 10; by the wall model above N = 16)" },
+    {
+      name: "T",
+      symbol: "T",
+      unit: "K",
+      default: 0,
+      min: 0,
+      max: 20,
+      scale: "linear",
+      meaning: "temperature (0: ground state; > 0 by exact diagonalization of the full spectrum within the work budget, about N <= 10; by the wall model above N = 16)",
+    },
     { name: "eta", symbol: "\\eta", unit: "K", default: 0.3, min: 0.01, max: 3, scale: "log", meaning: "Lorentzian half width (E / k_B)" },
     { name: "omegaMax", symbol: "\\omega_{max}", unit: "K", default: 20, min: 1, max: 100, scale: "linear", meaning: "largest energy transfer shown (E / k_B)" },
     { name: "points", symbol: "n_\\omega", unit: "", default: 201, min: 20, max: 2000, scale: "log", kind: "integer", meaning: "energy points" },
@@ -433,12 +510,9 @@ export const chainDynamicsSpec = defineCalculator({
     "S^{ab}(q, w) = sum p_m conj(<n|S^a_-q|m>) <n|S^b_-q|m> delta(w - E_n + E_m), S^a_q = N^-1/2 sum_j e^{-iqj} S^a_j; q from 0 to pi (S(-q) = S(q) by reflection).",
     "Maps at T = 0 refer to one ground state; a (nearly) degenerate ground state is said in the notes.",
   ],
-  sources: [
-    "E. Gagliano, C. Balseiro, PRL 59, 2999 (1987)",
-    "P. Hohenberg, W. Brinkman, PRB 10, 128 (1974)",
-    ...wallSources,
-  ],
-  method: "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors for N <= 16; above, the thermodynamic-limit domain-wall model (two-wall semicircle, Villain intraband scattering)",
+  sources: ["E. Gagliano, C. Balseiro, PRL 59, 2999 (1987)", "P. Hohenberg, W. Brinkman, PRB 10, 128 (1974)", ...wallSources],
+  method:
+    "Lanczos continued fractions (T = 0) or full exact-diagonalization sums (T > 0) in momentum sectors for N <= 16; above, the thermodynamic-limit domain-wall model (two-wall semicircle, Villain intraband scattering)",
   cost: chainDynamicsCost,
   compute: computeChainDynamics,
 });
@@ -527,7 +601,13 @@ export const wallBandSpec = defineCalculator({
     { name: "bandLower", symbol: "E_-(K)", unit: "K", kind: "array", meaning: "lower wall band" },
     { name: "bandUpper", symbol: "E_+(K)", unit: "K", kind: "array", meaning: "upper wall band" },
     { name: "chirality", symbol: "\\langle\\kappa^z\\rangle", unit: "", kind: "array", meaning: "vector chirality of the lower-band state" },
-    { name: "chiralityUpUpWall", symbol: "\\langle\\kappa^z\\rangle_{\\uparrow\\uparrow}", unit: "", kind: "array", meaning: "vector chirality of a pure up-up wall at K (the down-down wall carries the opposite; a transverse field mixes them)" },
+    {
+      name: "chiralityUpUpWall",
+      symbol: "\\langle\\kappa^z\\rangle_{\\uparrow\\uparrow}",
+      unit: "",
+      kind: "array",
+      meaning: "vector chirality of a pure up-up wall at K (the down-down wall carries the opposite; a transverse field mixes them)",
+    },
     { name: "spinCurrent", symbol: "j^z", unit: "K", kind: "array", meaning: "spin current of the lower-band state (Jperp kappa^z)" },
     { name: "q", symbol: "q", unit: "rad", kind: "array", meaning: "momentum transfer" },
     { name: "continuumLower", symbol: "\\omega_-(q)", unit: "K", kind: "array", meaning: "two-wall continuum, lower bound" },
@@ -552,7 +632,8 @@ export const wallBandSpec = defineCalculator({
     "Wall momentum K is the crystal momentum of the one-wall state; the Villain line shape uses the zero-field band and |q - pi| larger than the wall density.",
   ],
   sources: wallSources,
-  method: "degenerate first-order perturbation theory in the one-wall manifold (2 x 2 Bloch Hamiltonian), derived in lib/src/chains/wallBand.ts and checked against exact diagonalization",
+  method:
+    "degenerate first-order perturbation theory in the one-wall manifold (2 x 2 Bloch Hamiltonian), derived in lib/src/chains/wallBand.ts and checked against exact diagonalization",
   compute: computeWallBand,
 });
 

@@ -34,33 +34,70 @@ import {
 import { driftProfileOfFilm, thieleVelocity } from "../dynamics/skyrmionDrift.js";
 import { ansatzLocalIntegrals } from "../walls/skyrmionAnsatz.js";
 import { dmiHelicity } from "../walls/skyrmionEnergy.js";
-import {
-  dropletModel,
-  dropletStableRadius,
-  dropletState,
-  dropletThreshold,
-  dropletTrace,
-  slonczewskiRate,
-  thinWallFrequency,
-} from "../dynamics/precessingSkyrmion.js";
+import { dropletModel, dropletStableRadius, dropletState, dropletThreshold, dropletTrace, slonczewskiRate, thinWallFrequency } from "../dynamics/precessingSkyrmion.js";
 
 const demo = demoFilmHX1.film;
 
 const filmInputs = inputList([
   { name: "Ms", symbol: "M_s", unit: "A/m", default: demo.Ms, min: 0.4e6, max: 1.2e6, scale: "linear", meaning: "saturation magnetization" },
   { name: "A", symbol: "A", unit: "J/m", default: demo.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "exchange stiffness" },
-  { name: "Ku", symbol: "K_u", unit: "J/m^3", default: demo.Ku, min: 1.0e6, max: 3.0e6, scale: "linear", meaning: "uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)" },
-  { name: "D", symbol: "D", unit: "J/m^2", default: demo.D, min: 0, max: 3e-3, scale: "linear", meaning: "interfacial DMI constant (D > 0: Neel walls pointing toward the +z domain)" },
+  {
+    name: "Ku",
+    symbol: "K_u",
+    unit: "J/m^3",
+    default: demo.Ku,
+    min: 1.0e6,
+    max: 3.0e6,
+    scale: "linear",
+    meaning: "uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)",
+  },
+  {
+    name: "D",
+    symbol: "D",
+    unit: "J/m^2",
+    default: demo.D,
+    min: 0,
+    max: 3e-3,
+    scale: "linear",
+    meaning: "interfacial DMI constant (D > 0: Neel walls pointing toward the +z domain)",
+  },
   { name: "t", symbol: "t", unit: "m", default: demo.t, min: 0.4e-9, max: 3e-9, scale: "linear", meaning: "film thickness" },
   { name: "alpha", symbol: "\\alpha", unit: "", default: demo.alpha ?? 0.3, min: 0.01, max: 1, scale: "log", meaning: "Gilbert damping" },
 ]);
 
 const currentInputs = inputList([
-  { name: "j", symbol: "j", unit: "A/m^2", default: 0, min: 0, max: 3e12, scale: "linear", meaning: "current density along +x (electron flow along +x for the spin-transfer torque)" },
+  {
+    name: "j",
+    symbol: "j",
+    unit: "A/m^2",
+    default: 0,
+    min: 0,
+    max: 3e12,
+    scale: "linear",
+    meaning: "current density along +x (electron flow along +x for the spin-transfer torque)",
+  },
   { name: "P", symbol: "P", unit: "", default: 0.5, min: 0, max: 1, scale: "linear", meaning: "spin polarization of the current (spin-transfer torque)" },
   { name: "beta", symbol: "\\beta", unit: "", default: 0.1, min: 0, max: 1, scale: "linear", meaning: "non-adiabatic spin-transfer parameter" },
-  { name: "thetaSH", symbol: "\\theta_{SH}", unit: "", default: 0, min: -0.3, max: 0.3, scale: "linear", meaning: "spin Hall angle of the underlayer (damping-like spin-orbit torque; 0 switches it off)" },
-  { name: "fieldLike", symbol: "\\xi_{FL}", unit: "", default: 0, min: -2, max: 2, scale: "linear", meaning: "field-like spin-orbit field as a multiple of the damping-like one (along +y)" },
+  {
+    name: "thetaSH",
+    symbol: "\\theta_{SH}",
+    unit: "",
+    default: 0,
+    min: -0.3,
+    max: 0.3,
+    scale: "linear",
+    meaning: "spin Hall angle of the underlayer (damping-like spin-orbit torque; 0 switches it off)",
+  },
+  {
+    name: "fieldLike",
+    symbol: "\\xi_{FL}",
+    unit: "",
+    default: 0,
+    min: -2,
+    max: 2,
+    scale: "linear",
+    meaning: "field-like spin-orbit field as a multiple of the damping-like one (along +y)",
+  },
 ]);
 
 const wallInputs = inputList([
@@ -168,7 +205,12 @@ const wallScalarOutputs = outputList([
   { name: "regime", symbol: "", unit: "", kind: "text" as const, meaning: "steady or precessing" },
   { name: "precessionFrequency", symbol: "f_\\phi", unit: "Hz", meaning: "mean precession frequency of phi (0 below breakdown)" },
   { name: "wallAngle", symbol: "\\phi", unit: "rad", meaning: "in-plane angle of the wall moment from +x (steady angle, or the start angle when precessing)" },
-  { name: "walkerField", symbol: "\\mu_0 H_W", unit: "T", meaning: "Walker field (largest B_z with steady motion, other drives as given): exact maximum of the restoring torque over phi" },
+  {
+    name: "walkerField",
+    symbol: "\\mu_0 H_W",
+    unit: "T",
+    meaning: "Walker field (largest B_z with steady motion, other drives as given): exact maximum of the restoring torque over phi",
+  },
   { name: "walkerFieldLower", symbol: "\\mu_0 H_W^-", unit: "T", meaning: "most negative B_z with steady motion" },
   { name: "walkerVelocity", symbol: "v_W", unit: "m/s", meaning: "velocity at the Walker field" },
   { name: "width", symbol: "\\Delta", unit: "m", meaning: "wall width parameter sqrt(A / K_eff)" },
@@ -177,7 +219,12 @@ const wallScalarOutputs = outputList([
   { name: "driftVelocity", symbol: "u", unit: "m/s", meaning: "spin-drift velocity u = g muB P j / (2 e Ms)" },
   { name: "spinOrbitField", symbol: "\\mu_0 H_{DL}", unit: "T", meaning: "damping-like spin-orbit field hbar theta_SH j / (2 e Ms t)" },
   { name: "spinOrbitSaturation", symbol: "v_{sat}", unit: "m/s", meaning: "saturation speed under a large spin-orbit torque, (pi/2) gamma |D| / Ms" },
-  { name: "pinningCurrent", symbol: "j_c", unit: "A/m^2", meaning: "intrinsic-pinning current density (beta = 0, no field): below it spin-transfer torque alone does not move the wall" },
+  {
+    name: "pinningCurrent",
+    symbol: "j_c",
+    unit: "A/m^2",
+    meaning: "intrinsic-pinning current density (beta = 0, no field): below it spin-transfer torque alone does not move the wall",
+  },
   { name: "walkerCurrent", symbol: "j_W", unit: "A/m^2", meaning: "spin-transfer Walker current density for the given beta (absent when beta = alpha)" },
 ]);
 
@@ -203,7 +250,10 @@ function computeWallSweep(v: InputValues, over: "Bz" | "j", options: ComputeOpti
   values.sweepVelocity = vel;
   values.sweepFrequency = freq;
   const notes = [...s.notes];
-  if (!Number.isNaN(breakdown)) notes.push(`Breakdown along the sweep of ${sweep.over} near ${formatQuantity(breakdown, spec.inputs.find((i) => i.name === sweep.over)?.unit ?? "")} (first precessing point).`);
+  if (!Number.isNaN(breakdown))
+    notes.push(
+      `Breakdown along the sweep of ${sweep.over} near ${formatQuantity(breakdown, spec.inputs.find((i) => i.name === sweep.over)?.unit ?? "")} (first precessing point).`,
+    );
   return { values, status: s.notes.length ? "warning" : "ok", notes };
 }
 
@@ -226,7 +276,8 @@ const wallMotionSpec = defineCalculator({
   sweep: { over: ["Bz"], points: 200 },
   assumptions: wallAssumptions,
   sources: wallSources,
-  method: "Closed forms of the collective-coordinate equations: first zero of dphi/dt from the rest angle (steady), exact extremes of a degree-two trigonometric polynomial (Walker thresholds), periodic trapezoid with doubling to 1e-13 (period integrals above breakdown).",
+  method:
+    "Closed forms of the collective-coordinate equations: first zero of dphi/dt from the rest angle (steady), exact extremes of a degree-two trigonometric polynomial (Walker thresholds), periodic trapezoid with doubling to 1e-13 (period integrals above breakdown).",
   compute: (v, o = {}): ComputeOutput => computeWallSweep(v, "Bz", o, wallMotionSpec),
 });
 
@@ -382,7 +433,8 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
     });
     const sw = options.sweep ?? defaultSweep(skyrmionDriftSpec)!;
     const js = sweepValues(skyrmionDriftSpec, sw);
-    const vx: number[] = [], vy: number[] = [];
+    const vx: number[] = [],
+      vy: number[] = [];
     for (const j of js) {
       const r = thieleVelocity({ ...base, integrals, ...drive(j) });
       vx.push(r.vx);
@@ -395,7 +447,10 @@ function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): Com
   }
   // against radius: the ansatz with the wall width of this film (the solved w, or Delta)
   const w = prof && Number.isFinite(prof.wallWidth) ? prof.wallWidth : wallWidthParameter(film);
-  const radii: number[] = [], hallR: number[] = [], forceR: number[] = [], speedR: number[] = [];
+  const radii: number[] = [],
+    hallR: number[] = [],
+    forceR: number[] = [],
+    speedR: number[] = [];
   for (let i = 0; i < 60; i++) {
     const R = w * 0.5 * Math.pow(60, i / 59);
     const L = ansatzLocalIntegrals(R / w); // the ansatz's own integrals: I = I_ex, I_D = w I_D(a)
@@ -512,7 +567,10 @@ function computePrecessing(v: InputValues): ComputeOutput {
     values.state = "no balance: omega <= 0 at every radius (the field favours expansion)";
     notes.push("omega(R) <= 0 on the whole range: the torque cannot balance damping (status no-minimum).");
   }
-  const radii: number[] = [], freq: number[] = [], thin: number[] = [], balance: number[] = [];
+  const radii: number[] = [],
+    freq: number[] = [],
+    thin: number[] = [],
+    balance: number[] = [];
   const aHi = Math.max(6, m.rhoC / m.w + 10);
   for (let i = 0; i < 80; i++) {
     const R = m.w * 0.3 * Math.pow(aHi / 0.3, i / 79);
@@ -530,7 +588,10 @@ function computePrecessing(v: InputValues): ComputeOutput {
   values.time = tr.t;
   values.traceRadius = tr.R;
   values.traceAngle = tr.Phi;
-  values.traceStatus = tr.status === "collapsed" ? `collapsed at t = ${(tr.tEnd * 1e9).toPrecision(3)} ns (R < 0.1 Delta, where the ansatz no longer holds a skyrmion)` : "running at the end of the trace";
+  values.traceStatus =
+    tr.status === "collapsed"
+      ? `collapsed at t = ${(tr.tEnd * 1e9).toPrecision(3)} ns (R < 0.1 Delta, where the ansatz no longer holds a skyrmion)`
+      : "running at the end of the trace";
   if (balance.some((b) => b >= 1e3)) notes.push("balanceCurrent is capped at 1 kA where the contact sits in the saturated core (no balance).");
   return { values, status: notes.length ? "warning" : "ok", notes };
 }
@@ -577,7 +638,8 @@ const precessingSpec = defineCalculator({
     "J. Slonczewski, JMMM 159, L1 (1996)",
     "H.-B. Braun, PRB 50, 16501 (1994) (360-degree-wall ansatz)",
   ],
-  method: "Ansatz integrals and their R-derivatives by composite Gauss-Legendre; threshold by Brent minimization in ln R; stable radius by Brent root; R(t), Phi(t) by Dormand-Prince 5(4).",
+  method:
+    "Ansatz integrals and their R-derivatives by composite Gauss-Legendre; threshold by Brent minimization in ln R; stable radius by Brent root; R(t), Phi(t) by Dormand-Prince 5(4).",
   compute: (v) => computePrecessing(v),
 });
 

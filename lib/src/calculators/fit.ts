@@ -60,7 +60,17 @@ export const wallFitCalculator = defineCalculator({
     { name: "R", symbol: "R", unit: "m", default: 30 * nm, min: 10 * nm, max: 100 * nm, scale: "log", meaning: "true radius of the synthetic cut (m_z = 0)" },
     { name: "w", symbol: "w", unit: "m", default: 8 * nm, min: 2 * nm, max: 20 * nm, scale: "log", meaning: "true wall width of the ansatz" },
     { name: "noise", symbol: "\\sigma", unit: "", default: 0.03, min: 0.001, max: 0.1, scale: "log", meaning: "standard deviation of the Gaussian noise (signal contrast 0.9)" },
-    { name: "points", symbol: "N", unit: "", default: 301, min: 200, max: 2000, scale: "log", kind: "integer", meaning: "number of points over 2 (R + 8 w) (at least 200, so the thinnest wall is sampled)" },
+    {
+      name: "points",
+      symbol: "N",
+      unit: "",
+      default: 301,
+      min: 200,
+      max: 2000,
+      scale: "log",
+      kind: "integer",
+      meaning: "number of points over 2 (R + 8 w) (at least 200, so the thinnest wall is sampled)",
+    },
     { name: "seed", symbol: "s", unit: "", default: 1, min: 1, max: 1000, scale: "linear", kind: "integer", meaning: "seed of the noise" },
   ],
   outputs: [

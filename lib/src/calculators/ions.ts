@@ -8,17 +8,7 @@ import type { ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, h as planck, e as eCharge } from "../quantity/constants.js";
-import {
-  direction,
-  groundDoubletGTensor,
-  groupLevels,
-  ionSpectrum,
-  magnetization,
-  neutronTransitions,
-  schottkyHeat,
-  zeemanDiagram,
-  type IonModel,
-} from "../ions/singleIon.js";
+import { direction, groundDoubletGTensor, groupLevels, ionSpectrum, magnetization, neutronTransitions, schottkyHeat, zeemanDiagram, type IonModel } from "../ions/singleIon.js";
 import type { CrystalFieldTerm } from "../ions/stevens.js";
 
 const kelvinToMeV = (kB / eCharge) * 1e3;
@@ -112,14 +102,25 @@ function computeIonLevels(v: InputValues): ComputeOutput {
     `zero-field levels: ${levelText.join("; ")}. Ground doublet g = (${g.principal.map((x) => x.toPrecision(5)).join(", ")})` +
     `${g.kramers ? " (Kramers ion)" : " (non-Kramers ion)"}`;
   if (v.T! === 0) notes.push("T = 0: M(B) is the ground-state moment (averaged over a degenerate ground level); the heat curve is computed on its own temperature grid");
-  notes.push("transition intensities: (2/3) sum_a |<i|J_a|j>|^2 (powder average of the perpendicular part) times the initial level's population; no form factor, no Debye-Waller factor");
+  notes.push(
+    "transition intensities: (2/3) sum_a |<i|J_a|j>|^2 (powder average of the perpendicular part) times the initial level's population; no form factor, no Debye-Waller factor",
+  );
   const quartet = g.notes.some((n) => n.includes("more than two-fold"));
   return { values, status: quartet ? "warning" : "ok", notes };
 }
 
 const energyInput = (name: string, l: number, m: number, def: number, hint: string) => {
   const scale = l === 2 ? 5 : l === 4 ? 0.1 : 0.002;
-  return { name, symbol: `B_${l}^{${m}}`, unit: "K", default: def, min: -scale, max: scale, scale: "linear" as const, meaning: `crystal-field coefficient of O_${l}^${m} (${hint}), E / k_B` };
+  return {
+    name,
+    symbol: `B_${l}^{${m}}`,
+    unit: "K",
+    default: def,
+    min: -scale,
+    max: scale,
+    scale: "linear" as const,
+    meaning: `crystal-field coefficient of O_${l}^${m} (${hint}), E / k_B`,
+  };
 };
 
 export const ionLevelsSpec = defineCalculator({
@@ -128,7 +129,18 @@ export const ionLevelsSpec = defineCalculator({
   summary:
     "Exact levels of H = sum B_l^m O_l^m + g_J muB B . J for one ion of total angular momentum J (1/2 ... 8) with Stevens operators of ranks 2, 4, 6 (axial, orthorhombic, trigonal, tetragonal, hexagonal and cubic terms); the levels against a field along any direction, the ground-doublet g-tensor computed from the eigenstates, the Schottky heat, the magnetization along the field and the neutron dipole intensities (powder average).",
   inputs: [
-    { name: "J", symbol: "J", unit: "", default: 7.5, min: 0.5, max: 8, scale: "linear", kind: "choice", choices: jChoices, meaning: "total angular momentum of the ground multiplet" },
+    {
+      name: "J",
+      symbol: "J",
+      unit: "",
+      default: 7.5,
+      min: 0.5,
+      max: 8,
+      scale: "linear",
+      kind: "choice",
+      choices: jChoices,
+      meaning: "total angular momentum of the ground multiplet",
+    },
     { name: "gJ", symbol: "g_J", unit: "", default: 1.2, min: 0, max: 2.5, scale: "linear", meaning: "Lande factor of the multiplet" },
     ...termNames.map(([name, l, m, def, hint]) => energyInput(name, l, m, def, hint)),
     { name: "B", symbol: "B", unit: "T", default: 1, min: 0, max: 20, scale: "linear", meaning: "applied field magnitude (for the levels in field and M)" },
@@ -151,7 +163,13 @@ export const ionLevelsSpec = defineCalculator({
     { name: "levelsWavenumber", symbol: "E_i - E_0", unit: "", kind: "array", meaning: "zero-field levels in cm^-1" },
     { name: "levelsInField", symbol: "E_i(B) - E_0(B)", unit: "K", kind: "array", meaning: "levels at field B above the lowest" },
     { name: "fieldGrid", symbol: "B", unit: "T", kind: "array", meaning: "fields of the Zeeman diagram and M(B)" },
-    ...Array.from({ length: nZeeman }, (_, k) => ({ name: `zeeman${k + 1}`, symbol: `E_${k + 1}(B)`, unit: "K", kind: "array" as const, meaning: `level ${k + 1} (counted from the lowest) against field, relative to the zero-field ground level` })),
+    ...Array.from({ length: nZeeman }, (_, k) => ({
+      name: `zeeman${k + 1}`,
+      symbol: `E_${k + 1}(B)`,
+      unit: "K",
+      kind: "array" as const,
+      meaning: `level ${k + 1} (counted from the lowest) against field, relative to the zero-field ground level`,
+    })),
     { name: "temperatureGrid", symbol: "T", unit: "K", kind: "array", meaning: "temperatures of the heat curve (0.1 to 300 K, log)" },
     { name: "heat", symbol: "C/R", unit: "", kind: "array", meaning: "Schottky heat per mole of ions at field B, in units of R" },
     { name: "magnetizationCurve", symbol: "M(B)", unit: "", kind: "array", meaning: "moment per ion along the field direction against field at T, in muB" },

@@ -14,8 +14,25 @@ import { easyPlaneMeanField, mottLobeBoundary, mottLobeTip, orderingTemperature,
 const latticeNames = ["square", "triangular", "honeycomb"] as const;
 
 function dipolarPath(lat: Lattice2D): { labels: string[]; points: Array<[number, number]> } {
-  if (lat.name === "square") return { labels: ["G", "X", "M", "G"], points: [[0, 0], [0.5, 0], [0.5, 0.5], [0, 0]] };
-  return { labels: ["G", "M", "K", "G"], points: [[0, 0], [0.5, 0], [2 / 3, 1 / 3], [0, 0]] };
+  if (lat.name === "square")
+    return {
+      labels: ["G", "X", "M", "G"],
+      points: [
+        [0, 0],
+        [0.5, 0],
+        [0.5, 0.5],
+        [0, 0],
+      ],
+    };
+  return {
+    labels: ["G", "M", "K", "G"],
+    points: [
+      [0, 0],
+      [0.5, 0],
+      [2 / 3, 1 / 3],
+      [0, 0],
+    ],
+  };
 }
 
 function computeDipolar(v: InputValues): ComputeOutput {
@@ -61,7 +78,10 @@ function computeDipolar(v: InputValues): ComputeOutput {
   bands.forEach((b, i) => (values[`band${i + 1}`] = b));
   values.summary = `${name}: LT minimum lambda = ${lt.lambdaMin.toPrecision(7)} D at q = (${lt.fractional[0]!.map((x) => x.toFixed(4)).join(", ")}) b-coordinates, energy ${lt.energyPerSite.toPrecision(6)} D = ${(lt.energyPerSite * DK).toPrecision(4)} K per moment; spin-length spread ${lt.spinLengthSpread.toExponential(1)}; path ${path.labels.join("-")}`;
   const notes = [...lt.notes];
-  if (name === "honeycomb") notes.push("in-plane honeycomb: the LT state at K is not unique: a global phase of the K mode rotates the two sublattices in opposite senses at equal energy (continuous counter-rotating family)");
+  if (name === "honeycomb")
+    notes.push(
+      "in-plane honeycomb: the LT state at K is not unique: a global phase of the K mode rotates the two sublattices in opposite senses at equal energy (continuous counter-rotating family)",
+    );
   return { values, status: lt.spinLengthSpread > 1e-6 ? "warning" : "ok", notes };
 }
 
@@ -71,7 +91,22 @@ export const dipolarLatticeSpec = defineCalculator({
   summary:
     "J^{ab}(q) of classical point dipoles (three components, lattice in the plane) by two-dimensional Ewald summation for the square, triangular and honeycomb lattices; its eigen-bands along a path through the zone; the Luttinger-Tisza minimum over the zone with the spin-length check (the bound is the ground state when all moments come out of equal length).",
   inputs: [
-    { name: "lattice", symbol: "\\text{lattice}", unit: "", default: 2, min: 0, max: 2, scale: "linear", kind: "choice", choices: [{ value: 0, label: "square" }, { value: 1, label: "triangular" }, { value: 2, label: "honeycomb" }], meaning: "lattice preset (lengths in the nearest-neighbour distance d)" },
+    {
+      name: "lattice",
+      symbol: "\\text{lattice}",
+      unit: "",
+      default: 2,
+      min: 0,
+      max: 2,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "square" },
+        { value: 1, label: "triangular" },
+        { value: 2, label: "honeycomb" },
+      ],
+      meaning: "lattice preset (lengths in the nearest-neighbour distance d)",
+    },
     { name: "moment", symbol: "\\mu", unit: "", default: 7, min: 0.1, max: 12, scale: "linear", meaning: "moment per site in Bohr magnetons" },
     { name: "d", symbol: "d", unit: "m", default: 4e-10, min: 2e-10, max: 2e-9, scale: "log", meaning: "nearest-neighbour distance" },
     { name: "grid", symbol: "n_q", unit: "", default: 12, min: 4, max: 60, scale: "linear", kind: "integer", meaning: "zone points per direction of the LT search (then refined)" },
@@ -86,7 +121,13 @@ export const dipolarLatticeSpec = defineCalculator({
     { name: "degeneracy", symbol: "g", unit: "", meaning: "degeneracy of the lowest eigenvalue at q_min" },
     { name: "spinLengthSpread", symbol: "\\delta|S|", unit: "", meaning: "max |S| / min |S| - 1 of the LT state (0: the bound is reached)" },
     { name: "pathDistance", symbol: "|q|", unit: "", kind: "array", meaning: "distance along the zone path (1/d)" },
-    ...Array.from({ length: 6 }, (_, i) => ({ name: `band${i + 1}`, symbol: `\\lambda_${i + 1}(q)`, unit: "", kind: "array" as const, meaning: `band ${i + 1} of J(q), units D (bands beyond 3 x basis absent)` })),
+    ...Array.from({ length: 6 }, (_, i) => ({
+      name: `band${i + 1}`,
+      symbol: `\\lambda_${i + 1}(q)`,
+      unit: "",
+      kind: "array" as const,
+      meaning: `band ${i + 1} of J(q), units D (bands beyond 3 x basis absent)`,
+    })),
   ],
   plots: [{ id: "bands", title: "Dipolar bands along the zone path", x: "pathDistance", y: Array.from({ length: 6 }, (_, i) => `band${i + 1}`) }],
   assumptions: [
@@ -110,7 +151,8 @@ function computeFieldOrder(v: InputValues): ComputeOutput {
   const pts = 121;
   const fields = Array.from({ length: pts }, (_, i) => (v.Bmax! * i) / (pts - 1));
   const states: ReturnType<typeof easyPlaneMeanField>[] = [];
-  for (const B of fields) states.push(easyPlaneMeanField(p, zeemanK * B, states[states.length - 1] ? { mz: states[states.length - 1]!.mz, mPerp: states[states.length - 1]!.mPerp } : undefined));
+  for (const B of fields)
+    states.push(easyPlaneMeanField(p, zeemanK * B, states[states.length - 1] ? { mz: states[states.length - 1]!.mz, mPerp: states[states.length - 1]!.mPerp } : undefined));
   const mPerp = states.map((s) => s.mPerp);
   const mz = states.map((s) => s.mz);
   // ordered windows: runs with m_perp > 1e-6

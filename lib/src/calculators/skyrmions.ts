@@ -20,10 +20,28 @@ function filmInputs() {
   return inputList([
     { name: "Ms", symbol: "M_s", unit: "A/m", default: demo.Ms, min: 0.5e6, max: 1.3e6, scale: "linear", meaning: "Saturation magnetization" },
     { name: "A", symbol: "A", unit: "J/m", default: demo.A, min: 5e-12, max: 30e-12, scale: "linear", meaning: "Exchange stiffness" },
-    { name: "Ku", symbol: "K_u", unit: "J/m^3", default: demo.Ku, min: 0.9e6, max: 3e6, scale: "linear", meaning: "Uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)" },
+    {
+      name: "Ku",
+      symbol: "K_u",
+      unit: "J/m^3",
+      default: demo.Ku,
+      min: 0.9e6,
+      max: 3e6,
+      scale: "linear",
+      meaning: "Uniaxial perpendicular anisotropy (K_eff = Ku - mu0 Ms^2 / 2 must be > 0)",
+    },
     { name: "D", symbol: "D", unit: "J/m^2", default: demo.D, min: 0, max: 4e-3, scale: "linear", meaning: "Interfacial DMI constant (sign selects the Neel helicity)" },
     { name: "t", symbol: "t", unit: "m", default: demo.t, min: 0.4e-9, max: 4e-9, scale: "linear", meaning: "Film thickness" },
-    { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: -0.05, max: 0.3, scale: "linear", meaning: "Applied field along +z (the background direction; the core points along -z)" },
+    {
+      name: "B",
+      symbol: "\\mu_0 H",
+      unit: "T",
+      default: 0.05,
+      min: -0.05,
+      max: 0.3,
+      scale: "linear",
+      meaning: "Applied field along +z (the background direction; the core points along -z)",
+    },
   ]);
 }
 
@@ -76,7 +94,8 @@ function endText(e: BranchEnd, side: "lower" | "upper"): string {
   const where = `${fmtT(e.field)} (+- ${(e.resolution * 1e6).toPrecision(2)} uT)`;
   const beyond = side === "lower" ? "below" : "above";
   if (e.kind === "expansion") return `${beyond} ${where} the energy falls towards R = 100 w (run-away expansion, strip-out side; or a bubble larger than the ansatz window)`;
-  if (e.kind === "below-window") return `${beyond} ${where} the minimum shrinks below R = 0.3 w, the ansatz window (not a continuum collapse: the continuum energy approaches 8 pi A t as R -> 0)`;
+  if (e.kind === "below-window")
+    return `${beyond} ${where} the minimum shrinks below R = 0.3 w, the ansatz window (not a continuum collapse: the continuum energy approaches 8 pi A t as R -> 0)`;
   return `${beyond} ${where} the minimum merges with a saddle and disappears`;
 }
 
@@ -113,13 +132,16 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
           (m.radius >= Rvalid ? `valid (R >= ${VALIDITY_SPACINGS} a)` : `outside the continuum model's validity (R < ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)})`),
       )
       .join("\n");
-    if (r.radius < Rvalid) notes.push(`R = ${fmtM(r.radius)} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy there; the energy is ${r.energyOverBelavinPolyakov!.toPrecision(4)} x 8 pi A t (Belavin-Polyakov limit 1 as R -> 0).`);
+    if (r.radius < Rvalid)
+      notes.push(
+        `R = ${fmtM(r.radius)} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)} (a = ${fmtM(lattice)}): the continuum model is not trustworthy there; the energy is ${r.energyOverBelavinPolyakov!.toPrecision(4)} x 8 pi A t (Belavin-Polyakov limit 1 as R -> 0).`,
+      );
     if (r.phase.groundState !== "uniform") notes.push(r.phase.text);
     // angular stability: the exact profile of the local model at this field (the ansatz Hessian above
     // covers only R and w)
     try {
       const st = skyrmionStability(film, v.B!);
-      values.stability = `${(stabilityValues(st).stability as string)} (exact profile of the local model, R = ${fmtM(st.skyrmion.radius)}; non-local magnetostatics not in this analysis)`;
+      values.stability = `${stabilityValues(st).stability as string} (exact profile of the local model, R = ${fmtM(st.skyrmion.radius)}; non-local magnetostatics not in this analysis)`;
       if (!st.stable) notes.push(values.stability as string);
     } catch (e) {
       if (!(e instanceof ConvergenceError)) throw e;
@@ -152,7 +174,9 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
     let windowEnd: number | undefined;
     let res = 0;
     for (const b of br.branches) {
-      const parts = [`branch ${b.id} (${b.label}): ${b.fields.length} fields from ${fmtT(b.fields[0]!)} to ${fmtT(b.fields[b.fields.length - 1]!)}, R ${fmtM(b.states[0]!.radius)} .. ${fmtM(b.states[b.states.length - 1]!.radius)}`];
+      const parts = [
+        `branch ${b.id} (${b.label}): ${b.fields.length} fields from ${fmtT(b.fields[0]!)} to ${fmtT(b.fields[b.fields.length - 1]!)}, R ${fmtM(b.states[0]!.radius)} .. ${fmtM(b.states[b.states.length - 1]!.radius)}`,
+      ];
       if (b.lowerEnd) {
         parts.push(endText(b.lowerEnd, "lower"));
         if (b.lowerEnd.kind === "expansion" && (expansion === undefined || b.lowerEnd.field < expansion)) {
@@ -191,11 +215,16 @@ function computeSkyrmion(v: InputValues, options: ComputeOptions = {}): ComputeO
           } else hi = mid;
         }
         values.continuumLimitField = 0.5 * (lo + hi);
-        notes.push(`Above B = ${fmtT(0.5 * (lo + hi))} the radius of branch ${principal.id} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)}: the continuum model is not trustworthy there (a lattice model is needed).`);
+        notes.push(
+          `Above B = ${fmtT(0.5 * (lo + hi))} the radius of branch ${principal.id} is below ${VALIDITY_SPACINGS} a = ${fmtM(Rvalid)}: the continuum model is not trustworthy there (a lattice model is needed).`,
+        );
       }
     }
     const nFields = br.perField.filter((l) => l.length > 0).length;
-    if (nFields < n) notes.push(`The sweep from ${fmtT(sweep.from)} to ${fmtT(sweep.to)} has a verified minimum at ${nFields} of ${n} fields; the sweep arrays hold the principal branch only (all states: allFieldSweep, allRadiusSweep, allBranchSweep).`);
+    if (nFields < n)
+      notes.push(
+        `The sweep from ${fmtT(sweep.from)} to ${fmtT(sweep.to)} has a verified minimum at ${nFields} of ${n} fields; the sweep arrays hold the principal branch only (all states: allFieldSweep, allRadiusSweep, allBranchSweep).`,
+      );
     if (br.branches.length > 1) notes.push(`${br.branches.length} branches of minima in the sweep (see 'branches').`);
   }
   return { values, status: r.status === "ok" && notes.length === 0 ? "ok" : "warning", notes };
@@ -221,10 +250,28 @@ const skyrmionSpec = defineCalculator({
     { name: "validityRadius", symbol: "R_{min}", unit: "m", meaning: "5 a: below this radius the continuum model is not trustworthy" },
     { name: "belavinPolyakovEnergy", symbol: "8\\pi A t", unit: "J", meaning: "Belavin-Polyakov energy, the continuum limit of the skyrmion energy as R -> 0" },
     { name: "groundState", symbol: "", unit: "", kind: "text", meaning: "Ground state at this field and the place of the skyrmion" },
-    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips (360-degree wall energy zero)", optional: true },
+    {
+      name: "saturationField",
+      symbol: "B_{sat}",
+      unit: "T",
+      meaning: "For |D| > D_c: field above which the uniform film is lower than spiral or strips (360-degree wall energy zero)",
+      optional: true,
+    },
     { name: "spiralPeriod", symbol: "\\lambda", unit: "m", meaning: "Spin spiral period (only when |D| > D_c)", optional: true },
-    { name: "expansionField", symbol: "B_e", unit: "T", meaning: "Lowest field of the sweep range down to which a branch exists before it expands beyond R = 100 w", optional: true },
-    { name: "windowEndField", symbol: "B_w", unit: "T", meaning: "Field above which the smallest branch shrinks below R = 0.3 w (the ansatz window; not a collapse)", optional: true },
+    {
+      name: "expansionField",
+      symbol: "B_e",
+      unit: "T",
+      meaning: "Lowest field of the sweep range down to which a branch exists before it expands beyond R = 100 w",
+      optional: true,
+    },
+    {
+      name: "windowEndField",
+      symbol: "B_w",
+      unit: "T",
+      meaning: "Field above which the smallest branch shrinks below R = 0.3 w (the ansatz window; not a collapse)",
+      optional: true,
+    },
     { name: "continuumLimitField", symbol: "B_a", unit: "T", meaning: "Field above which the principal branch's radius is below 5 a", optional: true },
     { name: "boundaryResolution", symbol: "\\delta B", unit: "T", meaning: "Half-width of the brackets of the branch ends" },
     { name: "branchCount", symbol: "", unit: "", meaning: "Number of branches of minima in the sweep" },
@@ -259,7 +306,8 @@ const skyrmionSpec = defineCalculator({
     "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (saturation field above D_c; isolated skyrmions above it)",
     "A. Belavin, A. Polyakov, JETP Lett. 22, 245 (1975) (8 pi A t limit)",
   ],
-  method: "Global scan of the w-minimized ansatz energy over ln(R/w) (step 0.08), local searches and Newton polish, finite-difference verification; branches by continuation with step control up and down in field, ends by step halving. Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
+  method:
+    "Global scan of the w-minimized ansatz energy over ln(R/w) (step 0.08), local searches and Newton polish, finite-difference verification; branches by continuation with step control up and down in field, ends by step halving. Ansatz energy minimized over ln R and w (Brent, nested), helicity in closed form; magnetostatics from Hankel transforms by the lattice (2D trapezoid) rule, tabulated where the solves go and interpolated (6-point Lagrange, about 1e-6 relative).",
   limits: filmLimits,
   compute: computeSkyrmion,
 });
@@ -340,9 +388,7 @@ function validityText(R: number, lattice: number, eBP: number): string {
 function stabilityValues(st: SkyrmionStability): ComputeOutput["values"] {
   const lowest = st.modes.map((m) => (m.m === 1 ? m.eigenvalues[1] : m.eigenvalues[0]));
   const parts = st.modes.map((m) =>
-    m.m === 1
-      ? `m = 1: ${m.eigenvalues[0].toExponential(1)} (translation zero mode), next ${m.eigenvalues[1].toPrecision(4)}`
-      : `m = ${m.m}: ${m.eigenvalues[0].toPrecision(4)}`,
+    m.m === 1 ? `m = 1: ${m.eigenvalues[0].toExponential(1)} (translation zero mode), next ${m.eigenvalues[1].toPrecision(4)}` : `m = ${m.m}: ${m.eigenvalues[0].toPrecision(4)}`,
   );
   return {
     modeNumber: st.modes.map((m) => m.m),
@@ -358,7 +404,13 @@ function stabilityValues(st: SkyrmionStability): ComputeOutput["values"] {
 const stabilityOutputs = outputList([
   { name: "stability", symbol: "", unit: "", kind: "text", meaning: "Stable or unstable against angular deformations m = 0..4 of the exact profile, with the eigenvalues" },
   { name: "modeNumber", symbol: "m", unit: "", kind: "array", meaning: "Angular mode numbers 0..4" },
-  { name: "modeEigenvalue", symbol: "\\lambda_m", unit: "", kind: "array", meaning: "Lowest eigenvalue of each mode in units of K_eff (m = 1: the one above the translation zero mode)" },
+  {
+    name: "modeEigenvalue",
+    symbol: "\\lambda_m",
+    unit: "",
+    kind: "array",
+    meaning: "Lowest eigenvalue of each mode in units of K_eff (m = 1: the one above the translation zero mode)",
+  },
   { name: "translationEigenvalue", symbol: "\\lambda_T", unit: "", meaning: "m = 1 translation mode (zero up to discretization: a check)" },
   { name: "continuumEdge", symbol: "\\lambda_c", unit: "", meaning: "Edge of the spin-wave continuum 1 + Ms B / (2 K_eff), units of K_eff" },
   { name: "validity", symbol: "", unit: "", kind: "text", meaning: "Radius against 5 lattice constants; energy in units of 8 pi A t" },
@@ -421,7 +473,21 @@ const stabilitySpec = defineCalculator({
     // defaults: the demo film with a stronger DMI, where the skyrmion is several nm across
     ...filmInputs().map((i) => (i.name === "D" ? { ...i, default: 2.9e-3 } : i.name === "B" ? { ...i, default: 0.02 } : i)),
     latticeInput,
-    { name: "search", symbol: "", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "skip" }, { value: 1, label: "strip-out search" }], meaning: "Search down in field for the strip-out field (a few seconds)" },
+    {
+      name: "search",
+      symbol: "",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "skip" },
+        { value: 1, label: "strip-out search" },
+      ],
+      meaning: "Search down in field for the strip-out field (a few seconds)",
+    },
     { name: "Bmin", symbol: "B_{min}", unit: "T", default: -0.05, min: -0.3, max: 0.3, scale: "linear", meaning: "Lowest field of the strip-out search" },
   ],
   outputs: [
@@ -445,11 +511,11 @@ const stabilitySpec = defineCalculator({
     "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability of isolated skyrmions, strip-out; saturation field above D_c)",
     "S. Rohart, A. Thiaville, PRB 88, 184422 (2013) (radial Euler-Lagrange equation)",
   ],
-  method: "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
+  method:
+    "Finite volumes on cells (j - 1/2) h, grids h and h/2 with Richardson extrapolation; eigenvalues by bisection on the inertia of the block LDL^T factorization; strip-out by growing steps down in field, then Brent's root method (or bisection on existence).",
   limits: filmLimits,
   compute: computeStability,
 });
-
 
 const profileSpec = defineCalculator({
   id: "skyrmion-profile",
@@ -488,7 +554,8 @@ const profileSpec = defineCalculator({
     "H.-B. Braun, PRB 50, 16501 (1994); F. Buettner, I. Lemesh, G. Beach, Sci. Rep. 8, 4464 (2018) (ansatz)",
     "A. Bogdanov, A. Hubert, JMMM 138, 255 (1994) (stability against angular modes)",
   ],
-  method: "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
+  method:
+    "Finite differences (grids h, h/2, Richardson), Newton with tridiagonal Jacobian; ansatz by global scan and verified local minimization; stability by the radial fluctuation operator (finite volumes, inertia bisection, Richardson).",
   limits: filmLimits,
   compute: computeProfile,
 });

@@ -287,7 +287,9 @@ export interface CalculatorDefinition<Id extends string, N extends string, O ext
  *     const spec = defineCalculator({ id: "x", inputs: [{ name: "B", ... }], outputs: [{ name: "r", ... }], ... });
  *     runCalculator(spec, { B: "50 mT" }).outputs.r.value; // number
  */
-export function defineCalculator<const Id extends string, N extends string, const O extends OutputSpec>(spec: CalculatorDefinition<Id, N, O>): TypedCalculatorSpec<Id, N, OutputsOf<O>> {
+export function defineCalculator<const Id extends string, N extends string, const O extends OutputSpec>(
+  spec: CalculatorDefinition<Id, N, O>,
+): TypedCalculatorSpec<Id, N, OutputsOf<O>> {
   return spec as unknown as TypedCalculatorSpec<Id, N, OutputsOf<O>>;
 }
 
@@ -347,8 +349,10 @@ function checkPhysical(spec: CalculatorSpec, input: InputSpec, given: unknown, v
   const lim = spec.limits?.[input.name];
   if (lim) {
     const bad =
-      (lim.min !== undefined && v < lim.min) || (lim.max !== undefined && v > lim.max) ||
-      (lim.above !== undefined && !(v > lim.above)) || (lim.below !== undefined && !(v < lim.below));
+      (lim.min !== undefined && v < lim.min) ||
+      (lim.max !== undefined && v > lim.max) ||
+      (lim.above !== undefined && !(v > lim.above)) ||
+      (lim.below !== undefined && !(v < lim.below));
     if (bad) {
       const parts: string[] = [];
       if (lim.above !== undefined) parts.push(`> ${inUnit(lim.above)}`);
@@ -367,7 +371,8 @@ function checkPhysical(spec: CalculatorSpec, input: InputSpec, given: unknown, v
   else far = span > 0 && Math.abs(v) > f * span;
   if (far) {
     throw new InputError(
-      input.name, shown,
+      input.name,
+      shown,
       `a value within a factor ${f.toExponential(0)} of the usual range ${inUnit(input.min)} to ${inUnit(input.max)} (outside it the model has no meaning: check the value${input.unit ? " and its unit" : ""})`,
     );
   }
@@ -384,11 +389,7 @@ export function checkCost(spec: CalculatorSpec, inputs: InputValues, options: Co
   if (!(c.bytes <= COMPUTE_BUDGET.bytes)) over.push(`about ${fmtBytes(c.bytes)} of memory (budget ${fmtBytes(COMPUTE_BUDGET.bytes)})`);
   if (!(c.steps <= COMPUTE_BUDGET.steps)) over.push(`about ${c.steps.toExponential(1)} elementary steps (budget ${COMPUTE_BUDGET.steps.toExponential(0)}, about a minute)`);
   if (over.length === 0) return;
-  throw new InputError(
-    c.parameter, inputs[c.parameter],
-    `a request within the budget: this one needs ${over.join(" and ")}`,
-    `Estimate: ${c.what}`,
-  );
+  throw new InputError(c.parameter, inputs[c.parameter], `a request within the budget: this one needs ${over.join(" and ")}`, `Estimate: ${c.what}`);
 }
 
 function fmtBytes(b: number): string {
@@ -408,7 +409,8 @@ function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): str
     const v = values[o.name];
     if (v === undefined || typeof v === "string") continue;
     if (typeof v === "number") {
-      if (!Number.isFinite(v)) throw new ComputationError(spec.id, `output ${o.name} (${o.meaning}) came out ${v}, not a finite number: the inputs are outside what the method can handle`);
+      if (!Number.isFinite(v))
+        throw new ComputationError(spec.id, `output ${o.name} (${o.meaning}) came out ${v}, not a finite number: the inputs are outside what the method can handle`);
       continue;
     }
     if (!Array.isArray(v)) throw new ComputationError(spec.id, `output ${o.name} is neither a number, an array nor a text`);
@@ -467,7 +469,10 @@ export function checkSweep(spec: CalculatorSpec, sweep: SweepRange): void {
     const why = most < MAX_SWEEP_POINTS ? ` (at most ${most} points for '${spec.id}'${spec.sweep?.maxPointsWhy ? `: ${spec.sweep.maxPointsWhy}` : ""})` : "";
     throw new InputError("sweep.points", sweep.points, `a whole number of points from 2 to ${most}${why}`);
   }
-  for (const [end, v] of [["from", sweep.from], ["to", sweep.to]] as const) {
+  for (const [end, v] of [
+    ["from", sweep.from],
+    ["to", sweep.to],
+  ] as const) {
     if (typeof v !== "number") throw new InputError(`sweep ${end}`, v, `a number for ${input.name} in ${input.unit || "(no unit)"} (SI)`);
     try {
       checkPhysical(spec, input, v, v);
@@ -476,7 +481,8 @@ export function checkSweep(spec: CalculatorSpec, sweep: SweepRange): void {
       throw err;
     }
   }
-  if (sweep.from === sweep.to) throw new InputError("sweep", `${sweep.from} .. ${sweep.to}${input.unit ? ` ${input.unit}` : ""}`, `a sweep of ${input.name} over two different values`);
+  if (sweep.from === sweep.to)
+    throw new InputError("sweep", `${sweep.from} .. ${sweep.to}${input.unit ? ` ${input.unit}` : ""}`, `a sweep of ${input.name} over two different values`);
 }
 
 /**
@@ -518,9 +524,7 @@ function filmFieldsOf(spec: CalculatorSpec, raw: Record<string, unknown>): { ign
   }
   const ignored = FILM_FIELDS.filter((k) => !known.has(k) && raw[k] !== undefined);
   const unused = ignored.filter((k) => k !== "dmi" || dmi === "bulk");
-  const notes = unused.length
-    ? [`Film fields that are not inputs of '${spec.id}' were not used: ${unused.map((k) => `${k} = ${String(raw[k])}`).join(", ")}`]
-    : [];
+  const notes = unused.length ? [`Film fields that are not inputs of '${spec.id}' were not used: ${unused.map((k) => `${k} = ${String(raw[k])}`).join(", ")}`] : [];
   return { ignored: [...ignored], notes };
 }
 
@@ -561,7 +565,8 @@ export function runCalculator(specOrId: CalculatorSpec | string, rawGiven: objec
   if (rawGiven === null || typeof rawGiven !== "object" || Array.isArray(rawGiven)) {
     throw new InputError("inputs", rawGiven, `an object of inputs of '${spec.id}' by name (${spec.inputs.map((i) => i.name).join(", ")}) or a film`);
   }
-  if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm)) return runWithUncertainty(spec, rawGiven as Record<string, InputWithUncertainty>, options);
+  if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm))
+    return runWithUncertainty(spec, rawGiven as Record<string, InputWithUncertainty>, options);
   const raw = rawGiven as Record<string, QuantityInput | undefined>;
   const film = filmFieldsOf(spec, raw);
   const inputs = coerceInputs(spec, raw);
@@ -585,7 +590,7 @@ export function runCalculator(specOrId: CalculatorSpec | string, rawGiven: objec
   const result: CalculatorResult = {
     id: spec.id,
     title: spec.title,
-    status: gapNotes.length ? "warning" : computed.status ?? "ok",
+    status: gapNotes.length ? "warning" : (computed.status ?? "ok"),
     inputs: Object.fromEntries(spec.inputs.map((i) => [i.name, { value: inputs[i.name]!, unit: i.unit }])),
     outputs,
     method: spec.method,
@@ -647,7 +652,10 @@ function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | un
     }
     const span = Math.max(Math.abs(input.min), Math.abs(input.max));
     const far = input.scale === "log" && input.min > 0 && v > 0 ? v > 100 * input.max || v < input.min / 100 : span > 0 && Math.abs(v) > 100 * span;
-    if (far) notes.push(`${input.name} = ${formatQuantity(v, input.unit)} is far outside the usual range ${formatQuantity(input.min, input.unit)} to ${formatQuantity(input.max, input.unit)}: check the value and its unit`);
+    if (far)
+      notes.push(
+        `${input.name} = ${formatQuantity(v, input.unit)} is far outside the usual range ${formatQuantity(input.min, input.unit)} to ${formatQuantity(input.max, input.unit)}: check the value and its unit`,
+      );
   }
   return notes;
 }
@@ -660,7 +668,9 @@ function inputNotes(spec: CalculatorSpec, raw: Record<string, QuantityInput | un
 function explainComputeError(spec: CalculatorSpec, raw: Record<string, QuantityInput | undefined>, inputs: InputValues, err: InputError): InputError {
   const name = err.parameter;
   const input = spec.inputs.find((i) => i.name === name);
-  const givenList = Object.entries(raw).filter(([, v]) => v !== undefined).map(([k, v]) => `${k} = ${v}`);
+  const givenList = Object.entries(raw)
+    .filter(([, v]) => v !== undefined)
+    .map(([k, v]) => `${k} = ${v}`);
   const extra: string[] = [];
   let value: unknown = err.value;
   if (input) {

@@ -4,9 +4,7 @@ import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
 import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
 import { findVortices } from "../topology/vortices.js";
-import {
-  skyrmionLatticeTexture, skyrmionTexture, skyrmioniumTexture, vortexPairTexture, type GridSpec,
-} from "../topology/textures.js";
+import { skyrmionLatticeTexture, skyrmionTexture, skyrmioniumTexture, vortexPairTexture, type GridSpec } from "../topology/textures.js";
 import type { VectorField } from "../topology/field.js";
 
 const KINDS = [
@@ -26,13 +24,17 @@ export function textureFromInputs(v: InputValues, notes: string[] = []): VectorF
   const s = { R: v.R!, w: v.w!, helicity: v.helicity! };
   const L = n * v.cell!;
   switch (v.kind) {
-    case 1: return skyrmionTexture(grid, { ...s, vorticity: -1 }, { background: bg });
-    case 2: return skyrmioniumTexture(grid, { ...s, Rinner: s.R / 2 }, { background: bg });
+    case 1:
+      return skyrmionTexture(grid, { ...s, vorticity: -1 }, { background: bg });
+    case 2:
+      return skyrmioniumTexture(grid, { ...s, Rinner: s.R / 2 }, { background: bg });
     case 3: {
       // neighbouring cores must stay apart: a core of radius R with walls of width w fills about
       // R + 2w, and the centres of a triangular lattice are a apart
       if (s.R + 2 * s.w > v.a! / 2) {
-        notes.push(`the skyrmions of this lattice overlap: R + 2w = ${((s.R + 2 * s.w) * 1e9).toPrecision(3)} nm exceeds half the lattice constant a/2 = ${((v.a! / 2) * 1e9).toPrecision(3)} nm, so the reversed cores merge and the objects found are the islands between them; choose R + 2w < a/2 (for a = ${(v.a! * 1e9).toPrecision(3)} nm, R below ${((v.a! / 2 - 2 * s.w) * 1e9).toPrecision(3)} nm)`);
+        notes.push(
+          `the skyrmions of this lattice overlap: R + 2w = ${((s.R + 2 * s.w) * 1e9).toPrecision(3)} nm exceeds half the lattice constant a/2 = ${((v.a! / 2) * 1e9).toPrecision(3)} nm, so the reversed cores merge and the objects found are the islands between them; choose R + 2w < a/2 (for a = ${(v.a! * 1e9).toPrecision(3)} nm, R below ${((v.a! / 2 - 2 * s.w) * 1e9).toPrecision(3)} nm)`,
+        );
       }
       return skyrmionLatticeTexture(grid, { ...s, a: v.a! }, { background: bg });
     }
@@ -48,9 +50,13 @@ export function textureFromInputs(v: InputValues, notes: string[] = []): VectorF
       return vortexPairTexture(grid, {
         vortex: [L / 3 + 0.3 * v.cell!, L / 2 + 0.2 * v.cell!],
         antivortex: [(2 * L) / 3 + 0.1 * v.cell!, L / 2 + 0.4 * v.cell!],
-        coreRadius: v.w!, vortexPolarity: 1, antivortexPolarity: v.pairPolarity === 1 ? -1 : 1, angle: v.helicity!,
+        coreRadius: v.w!,
+        vortexPolarity: 1,
+        antivortexPolarity: v.pairPolarity === 1 ? -1 : 1,
+        angle: v.helicity!,
       });
-    default: return skyrmionTexture(grid, s, { background: bg });
+    default:
+      return skyrmionTexture(grid, s, { background: bg });
   }
 }
 
@@ -82,12 +88,14 @@ export function fieldPreview(m: Float64Array, n: number, cell: number): { size: 
  * object record per lattice site ((n cell / a)^2 sites: a = 1 pm on 128 nm is 1.9e10 of them).
  */
 function textureCost(v: InputValues): ComputeCost {
-  const n = v.n!, cells = n * n;
+  const n = v.n!,
+    cells = n * n;
   const sites = v.kind === 3 ? (2 / Math.sqrt(3)) * ((n * v.cell!) / v.a!) ** 2 : 1;
   const bytes = 400 * cells + 300 * sites;
   const steps = 400 * cells + 100 * sites;
   return {
-    bytes, steps,
+    bytes,
+    steps,
     parameter: sites > cells ? "a" : "n",
     what: sites > cells ? `a skyrmion lattice of about ${sites.toExponential(1)} sites on ${n} x ${n} cells` : `${n} x ${n} cells with their analyses`,
   };
@@ -104,14 +112,17 @@ function computeTexture(v: InputValues): ComputeOutput {
   const vort = findVortices(field, { boundary });
   const n = field.nx;
   const j = Math.floor(n / 2);
-  const lineX: number[] = [], lineMz: number[] = [];
+  const lineX: number[] = [],
+    lineMz: number[] = [];
   for (let i = 0; i < n; i++) {
     lineX.push(i * field.dx);
     lineMz.push(field.m[3 * (j * n + i) + 2]!);
   }
   if (objs.objects.length === 0) notes.push("no reversed core: no objects");
   if (vort.backgroundWinding !== null && vort.backgroundWinding !== 0) {
-    notes.push(`in-plane winding ${vort.backgroundWinding} sits in the background (|m_xy| < ${vort.minInPlane} |m|): on a periodic grid the windings add up to 0, and this balance is not counted as vortices`);
+    notes.push(
+      `in-plane winding ${vort.backgroundWinding} sits in the background (|m_xy| < ${vort.minInPlane} |m|): on a periodic grid the windings add up to 0, and this balance is not counted as vortices`,
+    );
   }
   const preview = fieldPreview(field.m, n, field.dx);
   return {
@@ -153,19 +164,75 @@ export const textureSpec = defineCalculator({
     { name: "cell", symbol: "\\delta x", unit: "m", default: 1e-9, min: 1e-10, max: 1e-8, scale: "log", meaning: "cell size" },
     { name: "R", symbol: "R", unit: "m", default: 20e-9, min: 1e-9, max: 100e-9, scale: "log", meaning: "radius where m_z = 0 (outer radius of a skyrmionium)" },
     { name: "w", symbol: "w", unit: "m", default: 5e-9, min: 5e-10, max: 30e-9, scale: "log", meaning: "wall width of the profile (core radius of a vortex)" },
-    { name: "helicity", symbol: "\\gamma", unit: "rad", default: 0, min: -Math.PI, max: Math.PI, scale: "linear", meaning: "helicity: 0 outward Neel, pi inward Neel, +-pi/2 Bloch (90deg accepted)" },
+    {
+      name: "helicity",
+      symbol: "\\gamma",
+      unit: "rad",
+      default: 0,
+      min: -Math.PI,
+      max: Math.PI,
+      scale: "linear",
+      meaning: "helicity: 0 outward Neel, pi inward Neel, +-pi/2 Bloch (90deg accepted)",
+    },
     { name: "vorticity", symbol: "v", unit: "", default: 2, min: -4, max: 4, scale: "linear", kind: "integer", meaning: "vorticity of the higher-order skyrmion (kind 4)" },
     { name: "a", symbol: "a", unit: "m", default: 45e-9, min: 10e-9, max: 200e-9, scale: "log", meaning: "target lattice constant of the skyrmion lattice (kind 3)" },
-    { name: "background", symbol: "m_\\infty", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "+z" }, { value: 1, label: "-z" }], meaning: "background direction (cores point the other way)" },
-    { name: "pairPolarity", symbol: "p_1 p_2", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "same core polarities" }, { value: 1, label: "opposite core polarities" }], meaning: "core polarities of the vortex-antivortex pair (kind 5)" },
-    { name: "boundary", symbol: "\\text{bc}", unit: "", default: 0, min: 0, max: 1, scale: "linear", kind: "choice", choices: [{ value: 0, label: "periodic" }, { value: 1, label: "open" }], meaning: "boundary of the grid" },
+    {
+      name: "background",
+      symbol: "m_\\infty",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "+z" },
+        { value: 1, label: "-z" },
+      ],
+      meaning: "background direction (cores point the other way)",
+    },
+    {
+      name: "pairPolarity",
+      symbol: "p_1 p_2",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "same core polarities" },
+        { value: 1, label: "opposite core polarities" },
+      ],
+      meaning: "core polarities of the vortex-antivortex pair (kind 5)",
+    },
+    {
+      name: "boundary",
+      symbol: "\\text{bc}",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "periodic" },
+        { value: 1, label: "open" },
+      ],
+      meaning: "boundary of the grid",
+    },
   ],
   outputs: [
     { name: "Q", symbol: "Q", unit: "", meaning: "lattice skyrmion number (exact integer on a periodic grid)" },
     { name: "Qinteger", symbol: "[Q]", unit: "", meaning: "nearest integer of Q" },
     { name: "Qcontinuum", symbol: "Q_{\\mathrm{fd}}", unit: "", meaning: "continuum finite-difference estimate of Q (resolution check)" },
     { name: "objectCount", symbol: "N", unit: "", meaning: "number of objects (reversed-core regions)" },
-    { name: "vortexCount", symbol: "N_v", unit: "", meaning: "in-plane vortices: plaquettes, or cores of sites without in-plane direction, with winding > 0 (rule in topology/vortices.ts)" },
+    {
+      name: "vortexCount",
+      symbol: "N_v",
+      unit: "",
+      meaning: "in-plane vortices: plaquettes, or cores of sites without in-plane direction, with winding > 0 (rule in topology/vortices.ts)",
+    },
     { name: "antivortexCount", symbol: "N_{av}", unit: "", meaning: "in-plane antivortices: plaquettes or cores with winding < 0" },
     { name: "zeroLineCount", symbol: "N_{0}", unit: "", meaning: "lines or rings where m_xy passes through zero (e.g. the middle ring of a skyrmionium): not vortex cores" },
     { name: "inPlaneTolerance", symbol: "\\epsilon_{xy}", unit: "", meaning: "|m_xy| / |m| below which a site has no in-plane direction (1e-3, raised to 4x the estimated noise)" },
@@ -180,11 +247,15 @@ export const textureSpec = defineCalculator({
     { name: "lineMz", symbol: "m_z", unit: "", kind: "array", meaning: "m_z along the middle row" },
     { name: "previewSize", symbol: "n_p", unit: "", meaning: "cells along x and y of the field preview (at most 64)" },
     { name: "previewCell", symbol: "\\Delta_p", unit: "m", meaning: "cell size of the field preview (every k-th cell of the grid)" },
-    { name: "fieldPreview", symbol: "\\mathbf{m}_p", unit: "", kind: "array", meaning: "the texture at preview resolution: mx, my, mz interleaved, x fastest (3 previewSize^2 numbers, rounded to 1e-4); the full field is textureFromInputs(inputs)" },
+    {
+      name: "fieldPreview",
+      symbol: "\\mathbf{m}_p",
+      unit: "",
+      kind: "array",
+      meaning: "the texture at preview resolution: mx, my, mz interleaved, x fastest (3 previewSize^2 numbers, rounded to 1e-4); the full field is textureFromInputs(inputs)",
+    },
   ],
-  plots: [
-    { id: "profile", title: "m_z along the middle row", x: "lineX", y: ["lineMz"] },
-  ],
+  plots: [{ id: "profile", title: "m_z along the middle row", x: "lineX", y: ["lineMz"] }],
   assumptions: [
     "analytic demo textures (not simulations): wall profile tan(theta/2) = sinh(R/w)/sinh(rho/w), each cell takes its nearest object",
     "|m| = 1; Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy, so a core-down skyrmion of vorticity +1 in a +z background has Q = -1",

@@ -212,7 +212,8 @@ export function runWithUncertainty(
     const s = splitUncertainInput(name, given, input.unit);
     central[name] = s.value;
     if (s.uncertainty !== null && s.uncertainty > 0) {
-      if (input.kind === "choice" || input.kind === "integer") throw new InputError(name, given, `a value without uncertainty (${input.kind === "choice" ? "a choice" : "a whole number"} cannot be uncertain)`);
+      if (input.kind === "choice" || input.kind === "integer")
+        throw new InputError(name, given, `a value without uncertainty (${input.kind === "choice" ? "a choice" : "a whole number"} cannot be uncertain)`);
       sigma[name] = s.uncertainty;
     }
   }
@@ -228,8 +229,12 @@ export function runWithUncertainty(
   // The propagation runs compute without a sweep. A scalar output that exists only with the sweep
   // (the end of a branch in a field sweep) gets no uncertainty, and is said to, rather than flagged.
   const plain = nominal.sweep ? runCalculator(spec, x0, { noSweep: true }) : nominal;
-  const sweepOnly = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value !== "number").map((o) => o.name);
-  const scalarNames = spec.outputs.filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value === "number").map((o) => o.name);
+  const sweepOnly = spec.outputs
+    .filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value !== "number")
+    .map((o) => o.name);
+  const scalarNames = spec.outputs
+    .filter((o) => (o.kind ?? "scalar") === "scalar" && typeof outOf(nominal, o.name)?.value === "number" && typeof outOf(plain, o.name)?.value === "number")
+    .map((o) => o.name);
   const textNames = spec.outputs.filter((o) => o.kind === "text" && typeof outOf(nominal, o.name)?.value === "string").map((o) => o.name);
 
   const n = names.length;
@@ -239,7 +244,7 @@ export function runWithUncertainty(
   if (!L) throw new InputError("correlations", JSON.stringify(correlations), "correlation coefficients that make a positive semidefinite covariance matrix");
 
   // bounded work: the runs needed against the calculator's cost estimate
-  const samples = method === "monte-carlo" ? u.samples ?? MC_DEFAULT_SAMPLES : 0;
+  const samples = method === "monte-carlo" ? (u.samples ?? MC_DEFAULT_SAMPLES) : 0;
   if (method === "monte-carlo" && (!Number.isInteger(samples) || samples < 10 || samples > MC_MAX_SAMPLES)) {
     throw new InputError("uncertainty.samples", u.samples, `a whole number of Monte Carlo draws from 10 to ${MC_MAX_SAMPLES}`);
   }
@@ -248,7 +253,11 @@ export function runWithUncertainty(
   const runs = 2 * n + samples;
   const affordable = affordableRuns(spec, x0);
   if (runs > affordable) {
-    throw new InputError(method === "monte-carlo" ? "uncertainty.samples" : names[0]!, method === "monte-carlo" ? samples : raw[names[0]!], `at most ${affordable} calculator runs for the propagation within the compute budget (this needs ${runs})`);
+    throw new InputError(
+      method === "monte-carlo" ? "uncertainty.samples" : names[0]!,
+      method === "monte-carlo" ? samples : raw[names[0]!],
+      `at most ${affordable} calculator runs for the propagation within the compute budget (this needs ${runs})`,
+    );
   }
 
   const textChanges = new Set<string>();
@@ -338,7 +347,12 @@ export function runWithUncertainty(
     const perRun = (Date.now() - startedFirst) / Math.max(1, 2 * n);
     if (samples * perRun > MC_TIME_BUDGET_MS) {
       const most = Math.max(0, Math.floor(MC_TIME_BUDGET_MS / Math.max(perRun, 1e-3)));
-      throw new InputError("uncertainty.samples", samples, `at most about ${most} Monte Carlo draws for '${spec.id}' at these inputs (one run takes about ${(perRun / 1000).toPrecision(2)} s; the draws are limited to ${MC_TIME_BUDGET_MS / 1000} s)`, most < 10 ? "Use the first-order propagation (the default)" : undefined);
+      throw new InputError(
+        "uncertainty.samples",
+        samples,
+        `at most about ${most} Monte Carlo draws for '${spec.id}' at these inputs (one run takes about ${(perRun / 1000).toPrecision(2)} s; the draws are limited to ${MC_TIME_BUDGET_MS / 1000} s)`,
+        most < 10 ? "Use the first-order propagation (the default)" : undefined,
+      );
     }
     const rng = seededRandom(seed);
     const sums: Record<string, { s: number; s2: number; count: number }> = Object.fromEntries(scalarNames.map((k) => [k, { s: 0, s2: 0, count: 0 }]));
@@ -391,7 +405,10 @@ export function runWithUncertainty(
         const tiny = 1e-12 * Math.abs(y0[k]!);
         const ratio = u1 > tiny ? sd[k]! / u1 : sd[k]! > tiny ? Infinity : 1;
         if (ratio > DISAGREEMENT_FACTOR || ratio < 1 / DISAGREEMENT_FACTOR) {
-          flag(k, `first order and Monte Carlo disagree: u = ${fmtOut(k, u1)} against a Monte Carlo standard deviation ${fmtOut(k, sd[k]!)} (more than a factor ${DISAGREEMENT_FACTOR})`);
+          flag(
+            k,
+            `first order and Monte Carlo disagree: u = ${fmtOut(k, u1)} against a Monte Carlo standard deviation ${fmtOut(k, sd[k]!)} (more than a factor ${DISAGREEMENT_FACTOR})`,
+          );
         } else if (Math.abs(m) > NONLINEAR_FRACTION * u1 && Math.abs(m) > tiny) {
           flag(k, `the Monte Carlo mean ${fmtOut(k, mean[k]!)} lies ${(Math.abs(m) / u1).toFixed(2)} u from the value (more than ${NONLINEAR_FRACTION} u)`);
         }
@@ -417,7 +434,10 @@ export function runWithUncertainty(
   for (const [k, why] of Object.entries(flagged)) result.notes.push(`${k}: uncertainty not trustworthy, ${why}.`);
   if (sweepOnly.length) result.notes.push(`No uncertainty for ${sweepOnly.join(", ")}: computed from the sweep, which the propagation runs do not repeat.`);
   for (const k of textChanges) result.notes.push(`${k} changes within the uncertainty of the inputs (a different answer at some input within ±u).`);
-  result.assumptions = [...result.assumptions, "Input uncertainties are standard uncertainties of normally distributed inputs; output uncertainties are propagated through this model only (its own error is not included)."];
+  result.assumptions = [
+    ...result.assumptions,
+    "Input uncertainties are standard uncertainties of normally distributed inputs; output uncertainties are propagated through this model only (its own error is not included).",
+  ];
   if (Object.keys(flagged).length > 0 || textChanges.size > 0) result.status = "warning";
   result.uncertainty = { method, inputs: { ...sigma }, correlations, firstOrder, ...(monteCarlo ? { monteCarlo } : {}), flagged, evaluations };
   return result;
@@ -451,7 +471,8 @@ function checkCorrelations(list: InputCorrelation[], names: string[]): InputCorr
     for (const p of pair) {
       if (!names.includes(p)) throw new InputError(`correlations ${pair.join(", ")}`, p, `an input that carries an uncertainty: ${names.join(", ") || "(none)"}`);
     }
-    if (typeof c.coefficient !== "number" || !(Math.abs(c.coefficient) <= 1)) throw new InputError(`correlation of ${pair.join(" and ")}`, c.coefficient, "a correlation coefficient from -1 to 1");
+    if (typeof c.coefficient !== "number" || !(Math.abs(c.coefficient) <= 1))
+      throw new InputError(`correlation of ${pair.join(" and ")}`, c.coefficient, "a correlation coefficient from -1 to 1");
     const key = [...pair].sort().join(" ");
     if (seen.has(key)) throw new InputError(`correlation of ${pair.join(" and ")}`, c.coefficient, "each pair once");
     seen.add(key);

@@ -8,7 +8,19 @@ import type { ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator, inputList } from "./spec.js";
 import { filmLimits } from "./spec.js";
 import { sweepValues } from "./spec.js";
-import { type Film, makeFilm, effectiveAnisotropy, exchangeLength, qualityFactor, criticalDmi, neelThresholdDmi, spiralPeriod, spiralState, filmRegime, requirePerpendicular } from "../material/film.js";
+import {
+  type Film,
+  makeFilm,
+  effectiveAnisotropy,
+  exchangeLength,
+  qualityFactor,
+  criticalDmi,
+  neelThresholdDmi,
+  spiralPeriod,
+  spiralState,
+  filmRegime,
+  requirePerpendicular,
+} from "../material/film.js";
 import { demoFilmHX1 } from "../material/demo.js";
 import { chiralWallEnergy, equilibriumWall, wallWidths, wallProfile } from "../walls/wall180.js";
 import { saturationField, wall360Equilibrium, wall360MergeField, wall360Profile } from "../walls/wall360.js";
@@ -116,7 +128,8 @@ const wallSpec = defineCalculator({
   plots: [{ id: "profile", title: "Wall profile", x: "x", y: ["mz", "mInPlane"] }],
   assumptions: [...commonAssumptions, "Rigid Landau-Lifshitz profile; the Neel volume-charge cost uses that profile (collective coordinates)."],
   sources: wallSources,
-  method: "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
+  method:
+    "Closed forms (Landau-Lifshitz profile, Thiaville et al. wall energy); Neel charge energy by tanh-sinh quadrature of the thin-film kernel; spiral period from the soliton-lattice condition E(k)/k = |D|/D_c.",
   headline: ["width", "energy", "criticalDmi", "neelThreshold"],
   limits: filmLimits,
   compute: computeWall,
@@ -187,7 +200,16 @@ const wall360Spec = defineCalculator({
     "A pair of 180-degree walls enclosing a reversed core (a 1D 360-degree wall) in a perpendicular film, with the Braun ansatz tan(theta/2) = sinh(R/w) / sinh(|x|/w): equilibrium core half-width R and wall width w in a field B along the background, its energy, and R(B), w(B) over a field sweep.",
   inputs: [
     ...filmInputs,
-    { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: 1e-3, max: 1, scale: "log", meaning: "applied field mu0 H along +z (the background); B > 0 compresses the core" },
+    {
+      name: "B",
+      symbol: "\\mu_0 H",
+      unit: "T",
+      default: 0.05,
+      min: 1e-3,
+      max: 1,
+      scale: "log",
+      meaning: "applied field mu0 H along +z (the background); B > 0 compresses the core",
+    },
   ],
   outputs: [
     { name: "radius", symbol: "R", unit: "m", meaning: "core half-width (m_z = 0 at x = +-R), by minimization" },
@@ -198,7 +220,14 @@ const wall360Spec = defineCalculator({
     { name: "mergeField", symbol: "B_m", unit: "T", meaning: "field above which R < w (the walls merge into one compressed 2-pi soliton)" },
     { name: "helicity", symbol: "\\gamma", unit: "rad", meaning: "helicity of both walls (DMI-favoured)" },
     { name: "pairState", symbol: "", unit: "", kind: "text", meaning: "bound pair or not; for |D| > D_c whether it is an excitation of the uniform film" },
-    { name: "saturationField", symbol: "B_{sat}", unit: "T", meaning: "for |D| > D_c: field where the pair energy vanishes (8 sqrt(A K_eff) [sqrt(1+h) + h asinh(1/sqrt h)] = 2 pi |D|); below it a spiral or strips are lower than the uniform film", optional: true },
+    {
+      name: "saturationField",
+      symbol: "B_{sat}",
+      unit: "T",
+      meaning:
+        "for |D| > D_c: field where the pair energy vanishes (8 sqrt(A K_eff) [sqrt(1+h) + h asinh(1/sqrt h)] = 2 pi |D|); below it a spiral or strips are lower than the uniform film",
+      optional: true,
+    },
     { name: "x", symbol: "x", unit: "m", kind: "array", meaning: "position" },
     { name: "mz", symbol: "m_z", unit: "", kind: "array", meaning: "out-of-plane component" },
     { name: "mInPlane", symbol: "m_\\parallel", unit: "", kind: "array", meaning: "in-plane component along the helicity direction (signed)" },

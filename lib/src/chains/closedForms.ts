@@ -51,7 +51,9 @@ export function xxzGroundEnergyPerSite(Delta: number): number {
 
 /** Jacobi theta functions theta_2, theta_3, theta_4 at argument 0 for nome 0 < q < 1. */
 export function thetaNulls(q: number): { t2: number; t3: number; t4: number } {
-  let t3 = 1, t4 = 1, s2 = 0;
+  let t3 = 1,
+    t4 = 1,
+    s2 = 0;
   for (let n = 1; ; n++) {
     const a = Math.pow(q, n * n);
     t3 += 2 * a;

@@ -99,20 +99,23 @@ function spinTerms(N: number, q: number, c: number[]): TermGenerator {
   const cq = Float64Array.from({ length: N }, (_, j) => Math.cos(q * j) * s);
   const sq = Float64Array.from({ length: N }, (_, j) => Math.sin(q * j) * s);
   return (a, emit) => {
-    let dr = 0, di = 0;
+    let dr = 0,
+      di = 0;
     for (let j = 0; j < N; j++) {
       const up = (a >>> j) & 1;
       const sz = up ? 0.5 : -0.5;
       // S^z_j: diagonal, S^x_j: flip with 1/2, S^y_j: flip with +i/2 (up) or -i/2 (down)
       dr += sz * cq[j]!;
       di += sz * sq[j]!;
-      const yre = 0, yim = up ? 0.5 : -0.5;
+      const yre = 0,
+        yim = up ? 0.5 : -0.5;
       // coefficient of the flipped word: e^{iqj} (cx/2 + cy (i s)) with s = +-1/2
       const fr = 0.5 * xr + (yr * yre - yi * yim);
       const fi = 0.5 * xi + (yr * yim + yi * yre);
       if (fr !== 0 || fi !== 0) emit((a ^ (1 << j)) >>> 0, fr * cq[j]! - fi * sq[j]!, fr * sq[j]! + fi * cq[j]!);
     }
-    const er = zr * dr - zi * di, ei = zr * di + zi * dr;
+    const er = zr * dr - zi * di,
+      ei = zr * di + zi * dr;
     if (er !== 0 || ei !== 0) emit(a, er, ei);
   };
 }
@@ -124,10 +127,16 @@ const unitC: Record<"x" | "y" | "z", number[]> = {
 };
 /** a + i^k b as coefficient vectors. */
 function combine(a: number[], b: number[], k: number): number[] {
-  const ph = [[1, 0], [0, 1], [-1, 0], [0, -1]][k]!;
+  const ph = [
+    [1, 0],
+    [0, 1],
+    [-1, 0],
+    [0, -1],
+  ][k]!;
   const out = a.slice();
   for (let t = 0; t < 3; t++) {
-    const br = b[2 * t]!, bi = b[2 * t + 1]!;
+    const br = b[2 * t]!,
+      bi = b[2 * t + 1]!;
     out[2 * t] = out[2 * t]! + ph[0]! * br - ph[1]! * bi;
     out[2 * t + 1] = out[2 * t + 1]! + ph[0]! * bi + ph[1]! * br;
   }
@@ -202,7 +211,9 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
   energies.sort((a, b) => a - b);
   const split = energies[1]! - energies[0]!;
   if (split < 1e-8 * Math.max(1, Math.abs(e0)) || (best!.m !== 0 && 2 * best!.m !== N)) {
-    notes.push(`the ground state is (nearly) degenerate (lowest level of another momentum sector ${split.toExponential(2)} above, or a +-k pair): the T = 0 result refers to one state of the ground multiplet`);
+    notes.push(
+      `the ground state is (nearly) degenerate (lowest level of another momentum sector ${split.toExponential(2)} above, or a +-k pair): the T = 0 result refers to one state of the ground multiplet`,
+    );
   }
   const src = best!.sector;
   const g = best!.v;
@@ -269,8 +280,7 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
       }
       return t;
     };
-    const spectrum = (t: Cf): Float64Array =>
-      Float64Array.from(o.omega, (w) => t.parts.reduce((acc, p) => acc + continuedFractionSpectrum(p, w, e0, o.eta), 0));
+    const spectrum = (t: Cf): Float64Array => Float64Array.from(o.omega, (w) => t.parts.reduce((acc, p) => acc + continuedFractionSpectrum(p, w, e0, o.eta), 0));
     for (const c of comps) {
       const ch = channels[c]!;
       if (c === "xx" || c === "yy" || c === "zz") {
@@ -288,8 +298,10 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
         if (comps.includes("yy") && comps.includes("zz")) {
           // G(y + iz) + G(y - iz) = 2 (G(y) + G(z)): C = (G(y + iz) - G(y - iz)) / 2 = G(y + iz) - G(y) - G(z),
           // one continued fraction fewer when S^yy and S^zz are computed anyway
-          const ty = G(unitC.y), tz = G(unitC.z);
-          const sy = spectrum(ty), sz = spectrum(tz);
+          const ty = G(unitC.y),
+            tz = G(unitC.z);
+          const sy = spectrum(ty),
+            sz = spectrum(tz);
           re = sp.map((v, i) => v - sy[i]! - sz[i]!);
           w = tp.norm2 - ty.norm2 - tz.norm2;
         } else {
@@ -302,9 +314,16 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
         ch.weight.push(w);
         chiralW.push(w);
       } else {
-        const a = unitC[c[0] as "x"], b = unitC[c[1] as "x"];
-        const t0 = G(combine(a, b, 0)), t1 = G(combine(a, b, 1)), t2 = G(combine(a, b, 2)), t3 = G(combine(a, b, 3));
-        const s0 = spectrum(t0), s1 = spectrum(t1), s2 = spectrum(t2), s3 = spectrum(t3);
+        const a = unitC[c[0] as "x"],
+          b = unitC[c[1] as "x"];
+        const t0 = G(combine(a, b, 0)),
+          t1 = G(combine(a, b, 1)),
+          t2 = G(combine(a, b, 2)),
+          t3 = G(combine(a, b, 3));
+        const s0 = spectrum(t0),
+          s1 = spectrum(t1),
+          s2 = spectrum(t2),
+          s3 = spectrum(t3);
         ch.re.push(s0.map((v, i) => 0.25 * (v - s2[i]!)));
         ch.im!.push(s0.map((_, i) => 0.25 * (s3[i]! - s1[i]!)));
         ch.weight.push(0.25 * (t0.norm2 - t2.norm2));
@@ -316,7 +335,7 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
   const result = assemble(model, 0, qs, qIdx, o.omega, channels, e0, mx, transverseBond, notes);
   if (exactM1.length) result.sumRules.firstMomentZZ = { exact: exactM1, formula: formulaM1 };
   if (chiralW.length) result.sumRules.chiralWeight = { exact: chiralW, expected: -mx };
-  result.method = `T = 0: Lanczos ground state (k = ${(2 * Math.PI * best!.m / N).toFixed(4)}${useFlip ? `, parity ${best!.flip > 0 ? "+1" : "-1"} under the pi rotation about x` : ""}), continued fractions of depth <= ${steps} (Gagliano-Balseiro), Lorentzian half width ${o.eta}`;
+  result.method = `T = 0: Lanczos ground state (k = ${((2 * Math.PI * best!.m) / N).toFixed(4)}${useFlip ? `, parity ${best!.flip > 0 ? "+1" : "-1"} under the pi rotation about x` : ""}), continued fractions of depth <= ${steps} (Gagliano-Balseiro), Lorentzian half width ${o.eta}`;
   return result;
 }
 
@@ -324,7 +343,10 @@ function groundStateDsf(model: ChainModel, o: DsfOptions, comps: DsfComponent[],
 function complexOperator(H: ChainHamiltonian): (v: Float64Array, w: Float64Array) => void {
   if (H.complex) return (v, w) => H.apply(v, w);
   const n = H.dim;
-  const a = new Float64Array(n), b = new Float64Array(n), ra = new Float64Array(n), rb = new Float64Array(n);
+  const a = new Float64Array(n),
+    b = new Float64Array(n),
+    ra = new Float64Array(n),
+    rb = new Float64Array(n);
   return (v, w) => {
     for (let i = 0; i < n; i++) {
       a[i] = v[2 * i]!;
@@ -392,7 +414,8 @@ function thermalDsf(model: ChainModel, o: DsfOptions, T: number, comps: DsfCompo
   const pOf = (e: number): number => Math.exp(-(e - e0) / T) / Z;
   const cut = 1e-14;
   // thermal <S^x> and transverse bond correlator
-  let mx = 0, bond = 0;
+  let mx = 0,
+    bond = 0;
   const c2 = new Float64Array(2);
   for (const s of secs) {
     const Sx = spinTerms(N, 0, unitC.x);
@@ -419,20 +442,24 @@ function thermalDsf(model: ChainModel, o: DsfOptions, T: number, comps: DsfCompo
   const elastic = 1e-9 * Math.max(1, Math.abs(e0));
   const omega = Float64Array.from(o.omega);
   const nOmega = omega.length;
-  const etaPi = o.eta / Math.PI, eta2 = o.eta * o.eta;
+  const etaPi = o.eta / Math.PI,
+    eta2 = o.eta * o.eta;
   // lines below this weight are dropped (selection rules make most elements vanish)
   const lineCut = 1e-15;
   const compA = comps.map((c) => (c === "chiral" ? 1 : "xyz".indexOf(c[0]!)));
   const compB = comps.map((c) => (c === "chiral" ? 2 : "xyz".indexOf(c[1]!)));
   const compChiral = comps.map((c) => c === "chiral");
-  const amp = new Float64Array(6), diagEl = new Float64Array(3);
+  const amp = new Float64Array(6),
+    diagEl = new Float64Array(3);
   let done = 0;
   for (const n of qIdx) {
     const q = (2 * Math.PI * n) / N;
     qs.push(q);
     const acc = comps.map(() => ({ re: new Float64Array(o.omega.length), im: new Float64Array(o.omega.length), w: 0 }));
     let m1 = 0;
-    const neg = new Float64Array(3), posB = new Float64Array(3), tot = new Float64Array(3);
+    const neg = new Float64Array(3),
+      posB = new Float64Array(3),
+      tot = new Float64Array(3);
     for (let m = 0; m < N; m++) {
       const src = secs[m]!;
       const dst = secs[(((m - n) % N) + N) % N]!;
@@ -460,8 +487,12 @@ function thermalDsf(model: ChainModel, o: DsfOptions, T: number, comps: DsfCompo
           }
           m1 += dw * diagEl[2]!;
           for (let ci = 0; ci < comps.length; ci++) {
-            const x = compA[ci]!, y = compB[ci]!;
-            const ar = amp[2 * x]!, ai = amp[2 * x + 1]!, br = amp[2 * y]!, bi = amp[2 * y + 1]!;
+            const x = compA[ci]!,
+              y = compB[ci]!;
+            const ar = amp[2 * x]!,
+              ai = amp[2 * x + 1]!,
+              br = amp[2 * y]!,
+              bi = amp[2 * y + 1]!;
             let re = p * (ar * br + ai * bi);
             let im = p * (ar * bi - ai * br);
             if (compChiral[ci]) {

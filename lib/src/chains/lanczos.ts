@@ -27,7 +27,10 @@ import type { SectorOperator } from "./operator.js";
 /** Thrown when a long computation is stopped through its `shouldStop` callback. */
 export class ComputationStopped extends Error {
   override readonly name = "ComputationStopped";
-  constructor(readonly where: string, readonly progress: Record<string, number>) {
+  constructor(
+    readonly where: string,
+    readonly progress: Record<string, number>,
+  ) {
     super(`${where} was stopped on request after ${progress.matvecs ?? 0} operator applications`);
   }
 }
@@ -93,7 +96,10 @@ export function dot(x: Float64Array, y: Float64Array, complex: boolean, out: Flo
     for (let i = 0; i < x.length; i++) re += x[i]! * y[i]!;
   } else {
     for (let i = 0; i < x.length; i += 2) {
-      const a = x[i]!, b = x[i + 1]!, c = y[i]!, d = y[i + 1]!;
+      const a = x[i]!,
+        b = x[i + 1]!,
+        c = y[i]!,
+        d = y[i + 1]!;
       re += a * c + b * d;
       im += a * d - b * c;
     }
@@ -109,7 +115,8 @@ export function axpy(cr: number, ci: number, x: Float64Array, y: Float64Array, c
     return;
   }
   for (let i = 0; i < x.length; i += 2) {
-    const a = x[i]!, b = x[i + 1]!;
+    const a = x[i]!,
+      b = x[i + 1]!;
     y[i] = y[i]! + cr * a - ci * b;
     y[i + 1] = y[i + 1]! + cr * b + ci * a;
   }
@@ -198,10 +205,12 @@ export function lowestEigenpairs(op: SectorOperator, options: LanczosOptions = {
       im[i * size + i] = 0; // <v|A v> is real for Hermitian A; drop the rounding
     }
     const eig = eigenHermitian(size, re, complex ? im : null, { vectors: true, tolerance: 1e-6 });
-    const Sre = eig.vectorsRe!, Sim = eig.vectorsIm!;
+    const Sre = eig.vectorsRe!,
+      Sim = eig.vectorsIm!;
     const residuals: number[] = [];
     for (let i = 0; i < Math.min(nev, size); i++) {
-      const sr = Sre[(size - 1) * size + i]!, si = Sim[(size - 1) * size + i]!;
+      const sr = Sre[(size - 1) * size + i]!,
+        si = Sim[(size - 1) * size + i]!;
       residuals.push(betaLast * Math.hypot(sr, si));
     }
     const lowest = eig.values[0]!;

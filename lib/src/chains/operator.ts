@@ -86,7 +86,11 @@ export class ChainHamiltonian implements SectorOperator {
     let re = new Float64Array(bound);
     let im = cplx ? new Float64Array(bound) : null;
     const ptr = new Int32Array(dim + 1);
-    const G = sec.G, lookup = sec.lookup, ranker = sec.ranker, chiRe = sec.chiRe, chiIm = sec.chiIm;
+    const G = sec.G,
+      lookup = sec.lookup,
+      ranker = sec.ranker,
+      chiRe = sec.chiRe,
+      chiIm = sec.chiIm;
     const sq = this.sqrtStab;
     let nnz = 0;
     for (let a = 0; a < dim; a++) {
@@ -133,8 +137,10 @@ export class ChainHamiltonian implements SectorOperator {
       const end = ptr[a + 1]!;
       for (let p = ptr[a]!; p < end; p++) {
         const j = 2 * col[p]!;
-        const hr = re[p]!, hi = im[p]!;
-        const xr = v[j]!, xi = v[j + 1]!;
+        const hr = re[p]!,
+          hi = im[p]!;
+        const xr = v[j]!,
+          xi = v[j + 1]!;
         sr += hr * xr - hi * xi;
         si += hr * xi + hi * xr;
       }
@@ -164,7 +170,8 @@ export class ChainHamiltonian implements SectorOperator {
     const lookup = sec.lookup;
     const ranker = sec.ranker;
     const G = sec.G;
-    const chiRe = sec.chiRe, chiIm = sec.chiIm;
+    const chiRe = sec.chiRe,
+      chiIm = sec.chiIm;
     const dim = this.dim;
     const reps = sec.reps;
     const bonds = this.bonds;
@@ -211,7 +218,8 @@ export class ChainHamiltonian implements SectorOperator {
         if (!cplx) {
           w[idx] = w[idx]! + f * chiRe[g]! * vr;
         } else {
-          const cr = f * chiRe[g]!, ci = f * chiIm[g]!;
+          const cr = f * chiRe[g]!,
+            ci = f * chiIm[g]!;
           const j = 2 * idx;
           w[j] = w[j]! + cr * vr - ci * vi;
           w[j + 1] = w[j + 1]! + cr * vi + ci * vr;
@@ -297,7 +305,8 @@ export function applyBetweenSectors(src: ChainSector, dst: ChainSector, terms: T
   const found = { index: -1, l: 0, f: 0, r: 0, g: 0 };
   const chi = new Float64Array(2);
   for (let a = 0; a < src.dim; a++) {
-    const vr = v[2 * a]!, vi = v[2 * a + 1]!;
+    const vr = v[2 * a]!,
+      vi = v[2 * a + 1]!;
     if (vr === 0 && vi === 0) continue;
     const sa = Math.sqrt(src.stab[a]!);
     terms(src.reps[a]!, (b, cr0, ci0) => {
@@ -330,7 +339,8 @@ export function vectorChiralityTerms(N: number): TermGenerator {
   return (a, emit) => {
     for (let l = 0; l < N; l++) {
       const r = (l + 1) % N;
-      const ul = (a >>> l) & 1, ur = (a >>> r) & 1;
+      const ul = (a >>> l) & 1,
+        ur = (a >>> r) & 1;
       if (ul === ur) continue;
       const b = (a ^ (1 << l) ^ (1 << r)) >>> 0;
       // l down, r up: S^+_l S^-_{l+1} acts, coefficient +i/2; l up, r down: -S^-_l S^+_{l+1}, -i/2

@@ -51,11 +51,7 @@ export function checkLabel(model: ChainModel, label: SectorLabel): void {
 }
 
 /** Lowest levels of one sector by Lanczos. */
-export function sectorLevels(
-  model: ChainModel,
-  label: SectorLabel,
-  options: LanczosOptions & { memoryBudget?: number } = {},
-): SectorLevels {
+export function sectorLevels(model: ChainModel, label: SectorLabel, options: LanczosOptions & { memoryBudget?: number } = {}): SectorLevels {
   checkLabel(model, label);
   const levels = options.levels ?? 1;
   const krylov = options.krylov ?? (levels === 1 ? 24 : Math.max(2 * levels + 20, 40));
@@ -141,39 +137,38 @@ export function denseSpectrum(model: ChainModel, options: { vectors?: boolean; m
   return { model, sectors, groundEnergy: e0 };
 }
 
-
 /** Every level of one sector by dense diagonalization (vectors as interleaved complex columns). */
 export function sectorDense(model: ChainModel, sector: ChainSector, wantVectors = false): { values: Float64Array; vectors: Float64Array[] | null } {
-    const H = new ChainHamiltonian(model, sector);
-    const n = sector.dim;
-    const c = sector.complex ? 2 : 1;
-    const re = new Float64Array(n * n);
-    const im = new Float64Array(n * n);
-    const unit = new Float64Array(c * n);
-    const col = new Float64Array(c * n);
-    for (let j = 0; j < n; j++) {
-      unit.fill(0);
-      unit[c * j] = 1;
-      H.apply(unit, col);
+  const H = new ChainHamiltonian(model, sector);
+  const n = sector.dim;
+  const c = sector.complex ? 2 : 1;
+  const re = new Float64Array(n * n);
+  const im = new Float64Array(n * n);
+  const unit = new Float64Array(c * n);
+  const col = new Float64Array(c * n);
+  for (let j = 0; j < n; j++) {
+    unit.fill(0);
+    unit[c * j] = 1;
+    H.apply(unit, col);
+    for (let i = 0; i < n; i++) {
+      re[i * n + j] = col[c * i]!;
+      if (c === 2) im[i * n + j] = col[c * i + 1]!;
+    }
+  }
+  const eig = eigenHermitian(n, re, sector.complex ? im : null, { vectors: wantVectors, tolerance: 1e-9 });
+  let vectors: Float64Array[] | null = null;
+  if (wantVectors) {
+    vectors = [];
+    for (let k = 0; k < n; k++) {
+      const v = new Float64Array(2 * n);
       for (let i = 0; i < n; i++) {
-        re[i * n + j] = col[c * i]!;
-        if (c === 2) im[i * n + j] = col[c * i + 1]!;
+        v[2 * i] = eig.vectorsRe![i * n + k]!;
+        v[2 * i + 1] = eig.vectorsIm![i * n + k]!;
       }
+      vectors.push(v);
     }
-    const eig = eigenHermitian(n, re, sector.complex ? im : null, { vectors: wantVectors, tolerance: 1e-9 });
-    let vectors: Float64Array[] | null = null;
-    if (wantVectors) {
-      vectors = [];
-      for (let k = 0; k < n; k++) {
-        const v = new Float64Array(2 * n);
-        for (let i = 0; i < n; i++) {
-          v[2 * i] = eig.vectorsRe![i * n + k]!;
-          v[2 * i + 1] = eig.vectorsIm![i * n + k]!;
-        }
-        vectors.push(v);
-      }
-    }
-    return { values: eig.values, vectors };
+  }
+  return { values: eig.values, vectors };
 }
 
 export interface ThermalAverages {
@@ -196,7 +191,10 @@ export function thermalAverages(spec: DenseSpectrum, T: number[]): ThermalAverag
   const out: ThermalAverages = { T: [...T], energy: [], specificHeat: [], entropy: [], magnetizationZ: hasSz ? [] : null };
   for (const t of T) {
     if (!(t > 0) || !Number.isFinite(t)) throw new InputError("T", t, "a positive temperature");
-    let Z = 0, E1 = 0, E2 = 0, Mz = 0;
+    let Z = 0,
+      E1 = 0,
+      E2 = 0,
+      Mz = 0;
     for (const s of spec.sectors) {
       const sz = s.label.nUp === null ? 0 : s.label.nUp - N / 2;
       for (const e of s.values) {

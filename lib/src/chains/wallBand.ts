@@ -126,7 +126,8 @@ export function domainWallBand(p: WallParameters, K: number[]): WallBand {
       out.spinCurrentLower.push(0);
     }
   }
-  if (p.Jz > 0 && p.hx === 0 && p.hz === 0) notes.push("hx = hz = 0: the up-up and down-down walls are degenerate; the chirality shown is the up-up wall's (the down-down wall has the opposite sign)");
+  if (p.Jz > 0 && p.hx === 0 && p.hz === 0)
+    notes.push("hx = hz = 0: the up-up and down-down walls are degenerate; the chirality shown is the up-up wall's (the down-down wall has the opposite sign)");
   return out;
 }
 
@@ -136,13 +137,16 @@ export const wallChiralitySign = 1;
 /** T = 0 two-wall continuum bounds at total momentum q (AFM; extremes over K and the two bands). */
 export function twoWallContinuum(p: WallParameters, q: number[], samples = 361): { lower: number[]; upper: number[] } {
   check(p);
-  const lower: number[] = [], upper: number[] = [];
+  const lower: number[] = [],
+    upper: number[] = [];
   for (const Q of q) {
-    let lo = Infinity, hi = -Infinity;
+    let lo = Infinity,
+      hi = -Infinity;
     for (let i = 0; i < samples; i++) {
       const K = (Math.PI * i) / (samples - 1);
       if (p.Jz > 0) {
-        const b1 = afmBand(p, K), b2 = afmBand(p, Q - K);
+        const b1 = afmBand(p, K),
+          b2 = afmBand(p, Q - K);
         lo = Math.min(lo, b1.lo + b2.lo);
         hi = Math.max(hi, b1.hi + b2.hi);
       } else {
@@ -220,8 +224,9 @@ export function villainLineShape(p: WallParameters, q: number, omega: number[], 
 /** Modified Bessel I_0 by its power series (|x| < 50) or asymptotics. */
 export function besselI0(x: number): number {
   const a = Math.abs(x);
-  if (a > 50) return Math.exp(a) / Math.sqrt(2 * Math.PI * a) * (1 + 1 / (8 * a) + 9 / (128 * a * a));
-  let term = 1, sum = 1;
+  if (a > 50) return (Math.exp(a) / Math.sqrt(2 * Math.PI * a)) * (1 + 1 / (8 * a) + 9 / (128 * a * a));
+  let term = 1,
+    sum = 1;
   for (let k = 1; k < 500; k++) {
     term *= (a / (2 * k)) ** 2;
     sum += term;
@@ -240,13 +245,15 @@ export function wallTransverseMagnetization(p: WallParameters, T: number, sample
   let m = p.hx / (2 * p.Jz);
   if (T > 0) {
     const nw = wallDensity(p, T, samples);
-    let num = 0, den = 0;
+    let num = 0,
+      den = 0;
     for (let i = 0; i < samples; i++) {
       const K = (2 * Math.PI * (i + 0.5)) / samples;
       const b = afmBand(p, K);
       const R = (b.hi - b.lo) / 2;
       const dR = R === 0 ? 0 : (p.hx * Math.cos(K) ** 2) / R; // dR/dhx
-      const wl = Math.exp(-b.lo / T), wh = Math.exp(-b.hi / T);
+      const wl = Math.exp(-b.lo / T),
+        wh = Math.exp(-b.hi / T);
       num += wl * dR - wh * dR; // -dE/dhx: lower band +dR, upper band -dR
       den += wl + wh;
     }

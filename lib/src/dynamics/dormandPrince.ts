@@ -68,18 +68,44 @@ export interface OdeSolution {
 }
 
 // Dormand-Prince 5(4) tableau (Hairer, Norsett, Wanner, table II.5.2).
-const C2 = 1 / 5, C3 = 3 / 10, C4 = 4 / 5, C5 = 8 / 9;
+const C2 = 1 / 5,
+  C3 = 3 / 10,
+  C4 = 4 / 5,
+  C5 = 8 / 9;
 const A21 = 1 / 5;
-const A31 = 3 / 40, A32 = 9 / 40;
-const A41 = 44 / 45, A42 = -56 / 15, A43 = 32 / 9;
-const A51 = 19372 / 6561, A52 = -25360 / 2187, A53 = 64448 / 6561, A54 = -212 / 729;
-const A61 = 9017 / 3168, A62 = -355 / 33, A63 = 46732 / 5247, A64 = 49 / 176, A65 = -5103 / 18656;
-const A71 = 35 / 384, A73 = 500 / 1113, A74 = 125 / 192, A75 = -2187 / 6784, A76 = 11 / 84;
+const A31 = 3 / 40,
+  A32 = 9 / 40;
+const A41 = 44 / 45,
+  A42 = -56 / 15,
+  A43 = 32 / 9;
+const A51 = 19372 / 6561,
+  A52 = -25360 / 2187,
+  A53 = 64448 / 6561,
+  A54 = -212 / 729;
+const A61 = 9017 / 3168,
+  A62 = -355 / 33,
+  A63 = 46732 / 5247,
+  A64 = 49 / 176,
+  A65 = -5103 / 18656;
+const A71 = 35 / 384,
+  A73 = 500 / 1113,
+  A74 = 125 / 192,
+  A75 = -2187 / 6784,
+  A76 = 11 / 84;
 // Error estimate: fifth-order minus embedded fourth-order weights.
-const E1 = 71 / 57600, E3 = -71 / 16695, E4 = 71 / 1920, E5 = -17253 / 339200, E6 = 22 / 525, E7 = -1 / 40;
+const E1 = 71 / 57600,
+  E3 = -71 / 16695,
+  E4 = 71 / 1920,
+  E5 = -17253 / 339200,
+  E6 = 22 / 525,
+  E7 = -1 / 40;
 // Dense output (routine DOPRI5 of Hairer and Wanner).
-const D1 = -12715105075 / 11282082432, D3 = 87487479700 / 32700410799, D4 = -10690763975 / 1880347072;
-const D5 = 701980252875 / 199316789632, D6 = -1453857185 / 822651844, D7 = 69997945 / 29380423;
+const D1 = -12715105075 / 11282082432,
+  D3 = 87487479700 / 32700410799,
+  D4 = -10690763975 / 1880347072;
+const D5 = 701980252875 / 199316789632,
+  D6 = -1453857185 / 822651844,
+  D7 = 69997945 / 29380423;
 
 /** Continuous solution on one step [t0, t0 + h] (Hairer's five coefficient vectors). */
 class DenseStep {
@@ -126,8 +152,13 @@ export function integrateDormandPrince(f: OdeRhs, t0: number, y0: ArrayLike<numb
 
   let y = Float64Array.from(y0);
   if (!y.every(Number.isFinite)) throw new InputError("y0", y0, "finite initial values");
-  const k1 = new Float64Array(n), k2 = new Float64Array(n), k3 = new Float64Array(n), k4 = new Float64Array(n);
-  const k5 = new Float64Array(n), k6 = new Float64Array(n), k7 = new Float64Array(n);
+  const k1 = new Float64Array(n),
+    k2 = new Float64Array(n),
+    k3 = new Float64Array(n),
+    k4 = new Float64Array(n);
+  const k5 = new Float64Array(n),
+    k6 = new Float64Array(n),
+    k7 = new Float64Array(n);
   const ys = new Float64Array(n);
   const yNew = new Float64Array(n);
   let evaluations = 0;
@@ -219,7 +250,10 @@ export function integrateDormandPrince(f: OdeRhs, t0: number, y0: ArrayLike<numb
     if (err <= 1) {
       // Accept. Dense output on [t, tn].
       const r1 = Float64Array.from(y);
-      const r2 = new Float64Array(n), r3 = new Float64Array(n), r4 = new Float64Array(n), r5 = new Float64Array(n);
+      const r2 = new Float64Array(n),
+        r3 = new Float64Array(n),
+        r4 = new Float64Array(n),
+        r5 = new Float64Array(n);
       for (let i = 0; i < n; i++) {
         const dy = yNew[i]! - y[i]!;
         const bspl = h * k1[i]! - dy;

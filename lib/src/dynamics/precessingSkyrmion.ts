@@ -136,7 +136,12 @@ export function dropletIntegrals(a: number, xc: number): DropletIntegrals {
   const sa = Math.sinh(a);
   const S = sa * sa;
   const ca = Math.cosh(a);
-  let dEx = 0, dK = 0, dZ = 0, K = 0, c = 0, RR = 0;
+  let dEx = 0,
+    dK = 0,
+    dZ = 0,
+    K = 0,
+    c = 0,
+    RR = 0;
   for (let i = 0; i < nodes.length; i++) {
     const xi = nodes[i]!;
     const wt = w[i]!;

@@ -144,7 +144,10 @@ export function thieleVelocity(inp: ThieleInput): ThieleResult {
   const u = inp.u ?? 0;
   const beta = inp.beta ?? 0;
   const B = inp.BDL ?? 0;
-  const Fs: [number, number] = [Math.PI * inp.Ms * inp.t * B * inp.integrals.dmi * Math.cos(inp.helicity), -Math.PI * inp.Ms * inp.t * B * inp.integrals.dmi * Math.sin(inp.helicity)];
+  const Fs: [number, number] = [
+    Math.PI * inp.Ms * inp.t * B * inp.integrals.dmi * Math.cos(inp.helicity),
+    -Math.PI * inp.Ms * inp.t * B * inp.integrals.dmi * Math.sin(inp.helicity),
+  ];
   const Fx = Fs[0] + (inp.force?.[0] ?? 0);
   const Fy = Fs[1] + (inp.force?.[1] ?? 0);
   const a = inp.alpha * Dis;

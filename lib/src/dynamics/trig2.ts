@@ -107,7 +107,10 @@ export function trig2Critical(p: Trig2): Trig2Critical[] {
 /** Largest and smallest value of p over a period, with where they are. */
 export function trig2Extremes(p: Trig2, critical: Trig2Critical[] = trig2Critical(p)): Trig2Extremes {
   if (critical.length === 0) return { max: p[0], argMax: 0, min: p[0], argMin: 0 };
-  let max = -Infinity, argMax = 0, min = Infinity, argMin = 0;
+  let max = -Infinity,
+    argMax = 0,
+    min = Infinity,
+    argMin = 0;
   for (const c of critical) {
     if (c.value > max) {
       max = c.value;

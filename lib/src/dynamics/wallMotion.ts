@@ -109,7 +109,7 @@ export interface WallModelOptions {
 /** Build the wall model of a film. alpha and gamma default to the film's, then to gamma_e. */
 export function wallMotionModel(film: Film, options: WallModelOptions = {}): WallMotionModel {
   requirePerpendicular(film, "wall dynamics");
-  if (film.dmi !== "interfacial" && film.D !== 0) throw new InputError("dmi", film.dmi, "\"interfacial\" (the wall-motion model treats interfacial DMI)");
+  if (film.dmi !== "interfacial" && film.D !== 0) throw new InputError("dmi", film.dmi, '"interfacial" (the wall-motion model treats interfacial DMI)');
   const alpha = options.alpha ?? film.alpha;
   if (alpha === undefined || !(alpha > 0) || !Number.isFinite(alpha)) throw new InputError("alpha", alpha, "a positive Gilbert damping (the wall model divides by alpha)");
   const gamma = options.gamma ?? film.gamma ?? gammaElectron;
@@ -251,7 +251,7 @@ export function intrinsicPinningDrift(m: WallMotionModel, drive: WallDrive = {})
 
 /** Saturation speed (pi/2) gamma |D| / Ms of a wall driven by a large damping-like spin-orbit torque (m/s). */
 export function spinOrbitSaturationVelocity(m: WallMotionModel): number {
-  return (Math.PI / 2) * m.gamma * Math.abs(m.D) / m.Ms;
+  return ((Math.PI / 2) * m.gamma * Math.abs(m.D)) / m.Ms;
 }
 
 /** Motion of the wall under a constant drive. */
@@ -337,7 +337,8 @@ function periodIntegrals(g: Trig2, h: Trig2, relTol = 1e-13, maxPoints = 1 << 21
  */
 export function wallMotion(m: WallMotionModel, drive: WallDrive, phiStart?: number): WallMotion {
   const { phiDot, qDot } = wallRates(m, drive);
-  const phi0 = phiStart ?? wallEquilibriumAngle(m, drive.Bx !== undefined || drive.By !== undefined || drive.BFL !== undefined ? { Bx: drive.Bx, By: drive.By, BFL: drive.BFL } : {});
+  const phi0 =
+    phiStart ?? wallEquilibriumAngle(m, drive.Bx !== undefined || drive.By !== undefined || drive.BFL !== undefined ? { Bx: drive.Bx, By: drive.By, BFL: drive.BFL } : {});
   if (!Number.isFinite(phi0)) throw new InputError("phiStart", phiStart, "a finite angle in rad");
   const crit = trig2Critical(phiDot);
   const ex = trig2Extremes(phiDot, crit);
@@ -486,7 +487,7 @@ export function wallMotionByIntegration(m: WallMotionModel, drive: WallDrive, ph
   };
   let t = 0;
   let y: ArrayLike<number> = [0, phi0];
-  let chunk = (20 / scale) / NS; // 20 rate times
+  let chunk = 20 / scale / NS; // 20 rate times
   let total = 0;
   for (let round = 0; round < 40; round++) {
     const sol = integrateDormandPrince(rhs, t, y, t + chunk, {
@@ -506,7 +507,12 @@ export function wallMotionByIntegration(m: WallMotionModel, drive: WallDrive, ph
     if (rate < 1e-10 * scale) return { regime: "steady", velocity: trig2(qDot, y[1]!), phi: y[1]!, period: Infinity, meanPhiRate: 0, quadraturePoints: total };
     chunk *= 2;
   }
-  throw new InputError("drive", drive, "a drive for which phi either turns or comes to rest within the integration bound", "the integration neither found a full turn nor a rest state (at the edge of breakdown?)");
+  throw new InputError(
+    "drive",
+    drive,
+    "a drive for which phi either turns or comes to rest within the integration bound",
+    "the integration neither found a full turn nor a rest state (at the edge of breakdown?)",
+  );
 }
 
 /** A time trace with the wall width as a third coordinate. */
@@ -529,7 +535,7 @@ export interface BreathingWallTrace extends WallTrace {
  * (from memory), rederived here.
  */
 export function wallTraceBreathing(m: WallMotionModel, drive: WallDrive, options: WallTraceOptions & { DeltaStart?: number }): BreathingWallTrace {
-  if (m.chargeModel !== "thin-film") throw new InputError("chargeModel", m.chargeModel, "\"thin-film\" (the breathing wall uses the Delta-independent thin-film Neel charge energy)");
+  if (m.chargeModel !== "thin-film") throw new InputError("chargeModel", m.chargeModel, '"thin-film" (the breathing wall uses the Delta-independent thin-film Neel charge energy)');
   const d = driveOf(drive);
   if (!(options.duration > 0) || !Number.isFinite(options.duration)) throw new InputError("duration", options.duration, "a positive finite time in s");
   const points = options.points ?? 401;

@@ -292,7 +292,15 @@ interface Stage2 {
   problem: LeastSquaresProblem;
 }
 
-function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Partial<Record<SeriesParameter, number>>, nonlocal: boolean, options: FitOptions, sens: Sensitivity): Stage2 {
+function stage2(
+  s1: Stage1[],
+  film: Film,
+  names: SeriesParameter[],
+  start: Partial<Record<SeriesParameter, number>>,
+  nonlocal: boolean,
+  options: FitOptions,
+  sens: Sensitivity,
+): Stage2 {
   const L = whiteners(s1);
   const fields = s1.map((s) => s.B);
   const em = energyModel(film, fields, names, nonlocal, sens);
@@ -352,11 +360,24 @@ function stage2(s1: Stage1[], film: Film, names: SeriesParameter[], start: Parti
 }
 
 /** Relative-sensitivity condition number and predicted relative Ku error at theta (Ku last). */
-function kuDiagnostics(s1: Stage1[], film: Film, base: SeriesParameter[], theta: Record<SeriesParameter, number>, nonlocal: boolean, sens: Sensitivity): { condition: number; kuRel: number | null } {
+function kuDiagnostics(
+  s1: Stage1[],
+  film: Film,
+  base: SeriesParameter[],
+  theta: Record<SeriesParameter, number>,
+  nonlocal: boolean,
+  sens: Sensitivity,
+): { condition: number; kuRel: number | null } {
   const L = whiteners(s1);
   const names: SeriesParameter[] = [...base, "Ku"];
   const np = names.length;
-  const em = energyModel(film, s1.map((s) => s.B), names, nonlocal, sens);
+  const em = energyModel(
+    film,
+    s1.map((s) => s.B),
+    names,
+    nonlocal,
+    sens,
+  );
   const sk = em(names.map((n) => theta[n]));
   if (!sk) return { condition: Infinity, kuRel: null };
   const N = s1.length;
@@ -390,7 +411,14 @@ function kuDiagnostics(s1: Stage1[], film: Film, base: SeriesParameter[], theta:
   return { condition, kuRel: Math.sqrt(inv) / dn[k] };
 }
 
-function pick(fit: FitResult, names: SeriesParameter[], film: Film, start: Partial<Record<SeriesParameter, number>>, confidence: number, mapName: (n: SeriesParameter) => string = (n) => n): Record<SeriesParameter, ParameterResult> {
+function pick(
+  fit: FitResult,
+  names: SeriesParameter[],
+  film: Film,
+  start: Partial<Record<SeriesParameter, number>>,
+  confidence: number,
+  mapName: (n: SeriesParameter) => string = (n) => n,
+): Record<SeriesParameter, ParameterResult> {
   const out = {} as Record<SeriesParameter, ParameterResult>;
   for (const n of ["A", "D", "Ku"] as SeriesParameter[]) {
     if (names.includes(n)) out[n] = { ...fit.parameters[mapName(n)], unit: UNITS[n] };
@@ -449,10 +477,15 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   });
   const distinct = new Set(profiles.map((p) => p.B));
   if (distinct.size < 2) {
-    throw new InputError("profiles", `${profiles.length} profile(s) at ${distinct.size} field(s)`, "profiles at two or more different fields (one field gives R and w only: A and D cannot be separated from the field dependence)");
+    throw new InputError(
+      "profiles",
+      `${profiles.length} profile(s) at ${distinct.size} field(s)`,
+      "profiles at two or more different fields (one field gives R and w only: A and D cannot be separated from the field dependence)",
+    );
   }
   const pm = typeof options.model === "string" || options.model === undefined ? getProfileModel(options.model ?? "wall360-mz") : options.model;
-  for (const n of ["R", "w"]) if (!pm.parameters.some((p) => p.name === n)) throw new InputError("model", pm.id, "a profile model with parameters R and w (e.g. wall360-mz, wall360-mz-blur, wall360-bz)");
+  for (const n of ["R", "w"])
+    if (!pm.parameters.some((p) => p.name === n)) throw new InputError("model", pm.id, "a profile model with parameters R and w (e.g. wall360-mz, wall360-mz-blur, wall360-bz)");
   const nonlocal = options.nonlocal ?? true;
   const confidence = options.confidence ?? 0.95;
   const start = options.start ?? {};
@@ -461,7 +494,10 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   if (texture !== "skyrmion" && texture !== "wall360") throw new InputError("texture", texture, `"skyrmion" or "wall360"`);
   const sens = texture === "skyrmion" ? skyrmionModel : wall360Model;
   const base: SeriesParameter[] = texture === "skyrmion" ? ["A", "D"] : ["A"];
-  if (texture === "wall360") notes.push("360-degree walls: the DMI energy of the 1D pair is topological (independent of R and w), so D does not enter R(B), w(B) and is held at the given value; only A (and Ku) are determined");
+  if (texture === "wall360")
+    notes.push(
+      "360-degree walls: the DMI energy of the 1D pair is topological (independent of R and w), so D does not enter R(B), w(B) and is held at the given value; only A (and Ku) are determined",
+    );
   const request = profileRequest(options.profile, base, options.fitKu ?? "auto", texture);
   const s1 = stage1(profiles, pm, film, options, nonlocal, sens);
   const lmOptions: FitOptions = { confidence, signal: options.signal };
@@ -480,8 +516,10 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   if (requested === true) reason = `Ku fitted on request; relative-sensitivity condition number ${cond}, predicted relative error of Ku ${relText}`;
   else if (requested === false) reason = `Ku held at the given value on request (the data would give: condition number ${cond}, relative error of Ku ${relText})`;
   else if (fitKu) reason = `Ku fitted: the data determine it (condition number ${cond} < ${maxCond}, predicted relative error of Ku ${relText} < ${100 * maxRel} %)`;
-  else if (2 * s1.length <= base.length + 1) reason = `Ku held at the given value: ${2 * s1.length} observables (R, w at ${s1.length} fields) cannot fix ${base.length + 1} parameters`;
-  else reason = `Ku held at the given value: the data do not determine it (condition number ${cond}${diag.condition >= maxCond ? ` >= ${maxCond}` : ""}, predicted relative error of Ku ${relText}${diag.kuRel !== null && diag.kuRel >= maxRel ? ` >= ${100 * maxRel} %` : ""})`;
+  else if (2 * s1.length <= base.length + 1)
+    reason = `Ku held at the given value: ${2 * s1.length} observables (R, w at ${s1.length} fields) cannot fix ${base.length + 1} parameters`;
+  else
+    reason = `Ku held at the given value: the data do not determine it (condition number ${cond}${diag.condition >= maxCond ? ` >= ${maxCond}` : ""}, predicted relative error of Ku ${relText}${diag.kuRel !== null && diag.kuRel >= maxRel ? ` >= ${100 * maxRel} %` : ""})`;
   const kuDecision: KuDecision = { fitted: fitKu, requested, conditionNumber: diag.condition, kuRelativeStderr: diag.kuRel, reason };
   const names: SeriesParameter[] = fitKu ? [...base, "Ku"] : base;
   const final = fitKu ? stage2(s1, film, names, { ...start, A: thetaHeld.A, D: thetaHeld.D }, nonlocal, lmOptions, sens) : held;
@@ -507,10 +545,23 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     profiledFit = stage2(s1, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, { ...lmOptions, profile: profiled }, sens);
   }
   if (two.chiSquareReduced > 3 && dof > 0) {
-    notes.push(`stage-2 reduced chi-square ${two.chiSquareReduced.toPrecision(3)}: the energy model does not describe the measured R(B), w(B) within their errors (check Ms, t, the field calibration, or the ansatz)`);
+    notes.push(
+      `stage-2 reduced chi-square ${two.chiSquareReduced.toPrecision(3)}: the energy model does not describe the measured R(B), w(B) within their errors (check Ms, t, the field calibration, or the ansatz)`,
+    );
   }
   if (options.method === "global") {
-    const gp = globalFit(profiles, s1, pm, film, names, { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) }, nonlocal, options, profiled.length > 0 ? { ...lmOptions, profile: profiled } : lmOptions, sens);
+    const gp = globalFit(
+      profiles,
+      s1,
+      pm,
+      film,
+      names,
+      { ...start, ...Object.fromEntries(names.map((n) => [n, parameters[n].value])) },
+      nonlocal,
+      options,
+      profiled.length > 0 ? { ...lmOptions, profile: profiled } : lmOptions,
+      sens,
+    );
     const g = gp.fit;
     profiledFit = gp;
     twoStage = { parameters, covariance };
@@ -549,7 +600,19 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
     const sk = sens(ff, s.B, [], { nonlocal });
     const sR = Math.sqrt(s.cov[0]);
     const sW = Math.sqrt(s.cov[2]);
-    return { B: s.B, R: s.R, w: s.w, stderrR: sR, stderrW: sW, correlationRw: s.cov[1] / (sR * sW), modelR: sk.R, modelW: sk.w, pullR: (s.R - sk.R) / sR, pullW: (s.w - sk.w) / sW, fit: s.fit };
+    return {
+      B: s.B,
+      R: s.R,
+      w: s.w,
+      stderrR: sR,
+      stderrW: sW,
+      correlationRw: s.cov[1] / (sR * sW),
+      modelR: sk.R,
+      modelW: sk.w,
+      pullR: (s.R - sk.R) / sR,
+      pullW: (s.w - sk.w) / sW,
+      fit: s.fit,
+    };
   });
   const Bs = s1.map((s) => s.B);
   const bmin = Math.min(...Bs);
@@ -636,7 +699,11 @@ function globalFit(
   const iR = pm.parameters.findIndex((p) => p.name === "R");
   const iw = pm.parameters.findIndex((p) => p.name === "w");
   const parts = profiles.map((pr, i) => {
-    const local = configureParameters(pm.parameters, { start: Object.fromEntries(Object.entries(s1[i].fit.parameters).map(([k, v]) => [k, v.value])), fixed: { ...(options.profileFit?.fixed ?? {}), ...(pr.fixed ?? {}) }, bounds: options.profileFit?.bounds });
+    const local = configureParameters(pm.parameters, {
+      start: Object.fromEntries(Object.entries(s1[i].fit.parameters).map(([k, v]) => [k, v.value])),
+      fixed: { ...(options.profileFit?.fixed ?? {}), ...(pr.fixed ?? {}) },
+      bounds: options.profileFit?.bounds,
+    });
     const map = local.map((p, j) => {
       if (j === iR || j === iw) return -1;
       if (p.fixed) return -2;
@@ -658,7 +725,13 @@ function globalFit(
     if (sigma) sigma.set(Float64Array.from(pr.data.sigma!), off);
     off += parts[i].m;
   }
-  const em = energyModel(film, profiles.map((p) => p.B), names, nonlocal, sens);
+  const em = energyModel(
+    film,
+    profiles.map((p) => p.B),
+    names,
+    nonlocal,
+    sens,
+  );
   const ns = names.length;
   const qOf = (p: Float64Array, i: number, sk: SkyrmionSensitivity[]) => {
     const part = parts[i];

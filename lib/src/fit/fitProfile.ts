@@ -100,7 +100,11 @@ function guessFromData(pm: ProfileModel, x: Float64Array, y: Float64Array, given
   for (let i = 1; i < x.length && sorted; i++) if (x[i]! < x[i - 1]!) sorted = false;
   if (sorted) return guessStart(pm, x, y);
   const order = Array.from(x, (_, i) => i).sort((a, b) => x[a]! - x[b]!);
-  return guessStart(pm, order.map((i) => x[i]!), order.map((i) => y[i]!));
+  return guessStart(
+    pm,
+    order.map((i) => x[i]!),
+    order.map((i) => y[i]!),
+  );
 }
 
 /** A model from a plain TypeScript function of one position and named parameters. */
@@ -216,7 +220,11 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
   datasets.forEach((ds, i) => {
     const pm = typeof ds.model === "string" ? getProfileModel(ds.model) : ds.model;
     for (const s of shared) if (!pm.parameters.some((p) => p.name === s)) throw new InputError("shared", s, `a parameter of model ${pm.id} (data set ${i})`);
-    const local = configureParameters(pm.parameters, { start: { ...(options.start ?? {}), ...(ds.start ?? {}) }, fixed: { ...(options.fixed ?? {}), ...(ds.fixed ?? {}) }, bounds: options.bounds });
+    const local = configureParameters(pm.parameters, {
+      start: { ...(options.start ?? {}), ...(ds.start ?? {}) },
+      fixed: { ...(options.fixed ?? {}), ...(ds.fixed ?? {}) },
+      bounds: options.bounds,
+    });
     const arr = toArrays(ds.data, `datasets[${i}]`);
     const map: number[] = [];
     const rec: Record<string, string> = {};

@@ -18,7 +18,7 @@ import type { FieldSeriesResult } from "./fieldSeries.js";
 export function formatWithError(value: number, stderr: number | null, siUnit: string, digits = 4): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0 && !stderr) return `0${siUnit ? " " + displayUnit(siUnit) : ""}`;
-  const [u, f] = customaryUnit(value !== 0 ? value : stderr ?? 0, siUnit);
+  const [u, f] = customaryUnit(value !== 0 ? value : (stderr ?? 0), siUnit);
   const unit = u && u !== "1" ? " " + displayUnit(u) : "";
   if (stderr === null || !Number.isFinite(stderr)) return `${formatNumber(value / f, digits)}${unit}`;
   return `${valueErrorPair(value / f, stderr / f)}${unit}`;
@@ -41,7 +41,8 @@ export function roundToUncertainty(value: number, uncertainty: number): [string,
 }
 
 function valueErrorPair(value: number, uncertainty: number): string {
-  const a = Math.abs(value), e = Math.abs(uncertainty);
+  const a = Math.abs(value),
+    e = Math.abs(uncertainty);
   // very large or small numbers in one shared power of ten: "(1.234 ± 0.056)e-7"
   const big = Math.max(a, e);
   if (big > 0 && (big >= 1e6 || big < 1e-3)) {
@@ -113,13 +114,19 @@ export function fitReport(result: FitResult | FieldSeriesResult, options: { titl
     }
     out.push("");
   } else {
-    const extra = [`AIC = ${formatNumber(result.aic, 6)}`, `BIC = ${formatNumber(result.bic, 6)}`, `${result.points} points`, result.sigmaKnown ? "sigmas given (errors unscaled)" : "sigmas unknown (errors scaled by the reduced chi²)"];
+    const extra = [
+      `AIC = ${formatNumber(result.aic, 6)}`,
+      `BIC = ${formatNumber(result.bic, 6)}`,
+      `${result.points} points`,
+      result.sigmaKnown ? "sigmas given (errors unscaled)" : "sigmas unknown (errors scaled by the reduced chi²)",
+    ];
     out.push(`**Goodness of fit:** ${[...gof, ...extra].join(", ")}`, "");
   }
   if (result.correlation && result.freeNames.length > 1) {
     const names = result.freeNames;
     let worst = { a: "", b: "", r: 0 };
-    for (let i = 0; i < names.length; i++) for (let j = i + 1; j < names.length; j++) if (Math.abs(result.correlation[i][j]) > Math.abs(worst.r)) worst = { a: names[i], b: names[j], r: result.correlation[i][j] };
+    for (let i = 0; i < names.length; i++)
+      for (let j = i + 1; j < names.length; j++) if (Math.abs(result.correlation[i][j]) > Math.abs(worst.r)) worst = { a: names[i], b: names[j], r: result.correlation[i][j] };
     out.push(`**Strongest correlation:** ${worst.a} – ${worst.b}: ${worst.r.toFixed(3)}`, "");
   }
   if (result.notes.length) out.push("**Notes:**", ...result.notes.map((n) => `- ${n}`), "");

@@ -225,7 +225,11 @@ function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: num
       }
     };
   }
-  const r = levenbergMarquardt(lm, freeIdx.map((j) => base[j]), options);
+  const r = levenbergMarquardt(
+    lm,
+    freeIdx.map((j) => base[j]),
+    options,
+  );
   setFull(r.x);
   return {
     x: Float64Array.from(full),
@@ -287,7 +291,8 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       if (!(problem.sigma[i] > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
     }
   }
-  for (let i = 0; i < m; i++) if (!Number.isFinite(problem.y[i])) throw new InputError(`y[${i}]`, problem.y[i], "a finite data value (drop NaN rows first, see readProfileCsv dropNaN)");
+  for (let i = 0; i < m; i++)
+    if (!Number.isFinite(problem.y[i])) throw new InputError(`y[${i}]`, problem.y[i], "a finite data value (drop NaN rows first, see readProfileCsv dropNaN)");
   // the model must be finite at the start
   const f0 = new Float64Array(m);
   problem.model(start, f0);
@@ -396,7 +401,9 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       message =
         `the Jacobian is singular at the solution: ` +
         degenerate
-          .map((g) => (g.length === 1 ? `the data do not depend on ${g[0]}` : `parameters ${g.join(", ")} cannot be told apart (their effects on the model are linearly dependent)`))
+          .map((g) =>
+            g.length === 1 ? `the data do not depend on ${g[0]}` : `parameters ${g.join(", ")} cannot be told apart (their effects on the model are linearly dependent)`,
+          )
           .join("; ") +
         ". Fix one of them or reparametrize; no standard errors are reported.";
     } else {
@@ -452,7 +459,10 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     for (let a = 0; a < nn; a++) {
       for (let b = a + 1; b < nn; b++) {
         const r = correlation[a][b];
-        if (Math.abs(r) > 0.99) notes.push(`${params[inner[a]].name} and ${params[inner[b]].name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`);
+        if (Math.abs(r) > 0.99)
+          notes.push(
+            `${params[inner[a]].name} and ${params[inner[b]].name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
+          );
       }
     }
   }
@@ -606,7 +616,9 @@ function profileInterval(
       if (Math.abs(b - a) <= 1e-7 * Math.max(Math.abs(a), Math.abs(step0))) break;
     }
     if (!bFinite) {
-      notes.push(`profile of ${name}: the model is not finite just ${dir < 0 ? "below" : "above"} ${name} = ${a.toPrecision(6)} (others refitted) while the chi-square is still below the threshold: interval open on that side (bounded by the model's domain, not by the data)`);
+      notes.push(
+        `profile of ${name}: the model is not finite just ${dir < 0 ? "below" : "above"} ${name} = ${a.toPrecision(6)} (others refitted) while the chi-square is still below the threshold: interval open on that side (bounded by the model's domain, not by the data)`,
+      );
       return dir * Infinity;
     }
     return 0.5 * (a + b);
@@ -704,5 +716,7 @@ function clipInterval(p: FitParameter, r: ParameterResult, confidence: number, n
   r.interval = [Math.max(a, lo), Math.min(b, hi)];
   r.clipped = clipped;
   const ends = clipped.map((c) => (c === "lower" ? `${a.toPrecision(4)} clipped at ${lo}` : `${b.toPrecision(4)} clipped at ${hi}`));
-  notes.push(`the ${Math.round(confidence * 100)} % interval of ${p.name} crosses its physical limit [${lo}, ${hi}]: ${ends.join(", ")} (linearized interval; a profile-likelihood interval respects the limit by itself)`);
+  notes.push(
+    `the ${Math.round(confidence * 100)} % interval of ${p.name} crosses its physical limit [${lo}, ${hi}]: ${ends.join(", ")} (linearized interval; a profile-likelihood interval respects the limit by itself)`,
+  );
 }

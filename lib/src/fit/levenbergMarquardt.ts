@@ -96,7 +96,13 @@ const EPS = 2.220446049250313e-16;
  * Q^T f = R^-T J^T f from a Cholesky factorization of the column-scaled normal matrix; null when
  * its reciprocal condition estimate is below 1e-8 (then the caller uses QR).
  */
-function fastFactor(jac: Float64Array, m: number, free: number[], g: Float64Array, cn: Float64Array): { r: Float64Array; perm: Int32Array; rank: number; qtf: Float64Array } | null {
+function fastFactor(
+  jac: Float64Array,
+  m: number,
+  free: number[],
+  g: Float64Array,
+  cn: Float64Array,
+): { r: Float64Array; perm: Int32Array; rank: number; qtf: Float64Array } | null {
   const nf = free.length;
   if (m < 4 * nf || nf > 12) return null;
   for (const j of free) if (cn[j] === 0) return null;
@@ -122,11 +128,7 @@ function fastFactor(jac: Float64Array, m: number, free: number[], g: Float64Arra
 const DWARF = 2.2250738585072014e-308;
 
 /** Central-difference Jacobian (one-sided second-order formula next to a bound). */
-export function centralDifferenceJacobian(
-  problem: LmProblem,
-  p: Float64Array,
-  out: Float64Array,
-): number {
+export function centralDifferenceJacobian(problem: LmProblem, p: Float64Array, out: Float64Array): number {
   const { n, m } = problem;
   const h0 = Math.cbrt(EPS);
   const lo = problem.lower;

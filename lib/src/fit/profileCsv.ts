@@ -36,7 +36,10 @@ export interface ProfileCsv {
 const unitInName = /^(.*?)\s*[([]\s*([^)\]]*)\s*[)\]]\s*$/;
 
 function splitLine(line: string, delim: string | RegExp): string[] {
-  const cells = line.trim().split(delim).map((s) => s.trim().replace(/^"(.*)"$/, "$1"));
+  const cells = line
+    .trim()
+    .split(delim)
+    .map((s) => s.trim().replace(/^"(.*)"$/, "$1"));
   if (typeof delim === "string") return cells;
   // whitespace-separated: a unit token "(nm)" or "[mT]" belongs to the name before it
   const out: string[] = [];
@@ -124,7 +127,10 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   const needed = Math.max(jx, jy, js ?? 0) + 1;
   const notes: string[] = [...headerNotes];
   // An option unit that contradicts the header's is an error, not silently ignored.
-  for (const [j, opt, what] of [[jx, options.xUnit, "xUnit"], [jy, options.yUnit, "yUnit"]] as const) {
+  for (const [j, opt, what] of [
+    [jx, options.xUnit, "xUnit"],
+    [jy, options.yUnit, "yUnit"],
+  ] as const) {
     if (opt && units[j] && opt !== units[j]) {
       throw new InputError(what, opt, `no unit option, or the header's unit "${units[j]}" of column "${names[j]}" (the header wins; give one or the other)`);
     }
@@ -155,12 +161,20 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   const nanRows: string[] = [];
   for (const r of rows) {
     if (r.cells.length < needed) {
-      throw new InputError(`${src} line ${r.line}`, r.cells.join(", "), `${needed} columns (${[names[jx], names[jy], js !== null ? names[js] : null].filter(Boolean).join(", ")}); the row has ${r.cells.length}`);
+      throw new InputError(
+        `${src} line ${r.line}`,
+        r.cells.join(", "),
+        `${needed} columns (${[names[jx], names[jy], js !== null ? names[js] : null].filter(Boolean).join(", ")}); the row has ${r.cells.length}`,
+      );
     }
     const vx = numeric(r.cells[jx]);
     const vy = numeric(r.cells[jy]);
     const vs = js !== null ? numeric(r.cells[js]) : 1;
-    for (const [v, j] of [[vx, jx], [vy, jy], [vs, js ?? jx]] as Array<[number, number]>) {
+    for (const [v, j] of [
+      [vx, jx],
+      [vy, jy],
+      [vs, js ?? jx],
+    ] as Array<[number, number]>) {
       if (Number.isNaN(v) && !(r.cells[j] === "" || /^nan$/i.test(r.cells[j]))) {
         throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a decimal number such as 12.5 or -3e-9 (no hex, binary or octal literals, no Infinity)");
       }
@@ -182,7 +196,11 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   }
   if (nanRows.length > 0) {
     if (!options.dropNaN) {
-      throw new InputError(src, `NaN or empty values at ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? ` and ${nanRows.length - 10} more` : ""}`, "finite numbers in every row, or the drop-NaN option (helicoid fit --drop-nan, readProfileCsv dropNaN) to drop those rows");
+      throw new InputError(
+        src,
+        `NaN or empty values at ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? ` and ${nanRows.length - 10} more` : ""}`,
+        "finite numbers in every row, or the drop-NaN option (helicoid fit --drop-nan, readProfileCsv dropNaN) to drop those rows",
+      );
     }
     notes.push(`dropped ${nanRows.length} row(s) with NaN or empty values: ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? " ..." : ""}`);
   }
@@ -202,7 +220,11 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     notes.push("positions were not sorted: rows sorted by position (the file is unchanged)");
   }
   if (x.length >= 2 && x[0] === x[x.length - 1]) {
-    throw new InputError(`${src}: column ${names[jx]}`, `all ${x.length} values equal to ${rows.find((r) => numeric(r.cells[jx]) * xScale === x[0])?.cells[jx] ?? x[0]}`, "positions that vary: all x values are equal: a profile needs a range of positions");
+    throw new InputError(
+      `${src}: column ${names[jx]}`,
+      `all ${x.length} values equal to ${rows.find((r) => numeric(r.cells[jx]) * xScale === x[0])?.cells[jx] ?? x[0]}`,
+      "positions that vary: all x values are equal: a profile needs a range of positions",
+    );
   }
   return { x, y, sigma, columns: names, xUnit, yUnit, droppedRows: dropped, notes };
 }

@@ -46,23 +46,67 @@ const STRAY_SOURCES = [
 const BASE_ASSUMPTIONS = ["continuum micromagnetics, T = 0", "magnetization uniform through the film thickness"];
 const STRAIGHT_WALL = "straight wall (1D profile: m depends only on the position x across it)";
 const CENTRAL_CUT = "a cut through the centre of an axisymmetric skyrmion, or across a straight 360-degree wall (m depends only on the distance from the centre or the wall line)";
-const STRAY_360_CUT = "the cut is treated as a straight 360-degree wall (invariant along y): for a skyrmion whose radius is not large against h this neglects the curvature of its wall";
+const STRAY_360_CUT =
+  "the cut is treated as a straight 360-degree wall (invariant along y): for a skyrmion whose radius is not large against h this neglects the curvature of its wall";
 
 const nm = 1e-9;
 const P = {
   x0: (): FitParameter => ({ name: "x0", value: 0, unit: "m", typical: 10 * nm, meaning: "wall or core center" }),
-  Delta: (): FitParameter => ({ name: "Delta", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width parameter (m_z = -tanh(x/Delta))" }),
+  Delta: (): FitParameter => ({
+    name: "Delta",
+    value: 10 * nm,
+    unit: "m",
+    min: 0.01 * nm,
+    typical: 10 * nm,
+    physical: [0, Infinity],
+    meaning: "wall width parameter (m_z = -tanh(x/Delta))",
+  }),
   R: (): FitParameter => ({ name: "R", value: 30 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "radius (m_z = 0 at |x - x0| = R)" }),
   w: (): FitParameter => ({ name: "w", value: 10 * nm, unit: "m", min: 0.01 * nm, typical: 10 * nm, physical: [0, Infinity], meaning: "wall width of the ansatz" }),
   offset: (unit: string): FitParameter => ({ name: "offset", value: 0, unit, typical: 1, meaning: "signal offset" }),
   contrast: (): FitParameter => ({ name: "contrast", value: 1, unit: "", typical: 1, meaning: "signal per unit m_z (sensor along +z)" }),
-  tilt: (): FitParameter => ({ name: "tilt", value: 0.1, unit: "rad", min: -Math.PI / 2, max: Math.PI / 2, typical: 0.1, meaning: "sensor axis tilt from +z toward +x (the cut direction)" }),
-  helicity: (fixed: boolean): FitParameter => ({ name: "helicity", value: 0, unit: "rad", min: -2 * Math.PI, max: 2 * Math.PI, typical: 0.1, fixed, meaning: "in-plane angle of the wall moment (0, pi: Neel; +-pi/2: Bloch)" }),
+  tilt: (): FitParameter => ({
+    name: "tilt",
+    value: 0.1,
+    unit: "rad",
+    min: -Math.PI / 2,
+    max: Math.PI / 2,
+    typical: 0.1,
+    meaning: "sensor axis tilt from +z toward +x (the cut direction)",
+  }),
+  helicity: (fixed: boolean): FitParameter => ({
+    name: "helicity",
+    value: 0,
+    unit: "rad",
+    min: -2 * Math.PI,
+    max: 2 * Math.PI,
+    typical: 0.1,
+    fixed,
+    meaning: "in-plane angle of the wall moment (0, pi: Neel; +-pi/2: Bloch)",
+  }),
   h: (): FitParameter => ({ name: "h", value: 50 * nm, unit: "m", min: 0, typical: 10 * nm, physical: [0, Infinity], meaning: "sensor height above the film top surface" }),
   t: (): FitParameter => ({ name: "t", value: 1 * nm, unit: "m", min: 0, typical: 1 * nm, fixed: true, physical: [0, Infinity], meaning: "film thickness" }),
   Ms: (): FitParameter => ({ name: "Ms", value: 1e6, unit: "A/m", min: 0, typical: 1e5, physical: [0, Infinity], meaning: "saturation magnetization" }),
-  neel: (): FitParameter => ({ name: "neel", value: 0.1, unit: "", min: -1, max: 1, typical: 0.1, physical: [-1, 1], meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)" }),
-  blur: (fixed: boolean): FitParameter => ({ name: "blur", value: fixed ? 0 : 10 * nm, unit: "m", min: 0, typical: 10 * nm, fixed, physical: [0, Infinity], meaning: "standard deviation of the Gaussian instrument blur" }),
+  neel: (): FitParameter => ({
+    name: "neel",
+    value: 0.1,
+    unit: "",
+    min: -1,
+    max: 1,
+    typical: 0.1,
+    physical: [-1, 1],
+    meaning: "cos(helicity): +1 Neel toward the up domain, -1 Neel toward the down domain, 0 Bloch (the stray field depends on the helicity only through it)",
+  }),
+  blur: (fixed: boolean): FitParameter => ({
+    name: "blur",
+    value: fixed ? 0 : 10 * nm,
+    unit: "m",
+    min: 0,
+    typical: 10 * nm,
+    fixed,
+    physical: [0, Infinity],
+    meaning: "standard deviation of the Gaussian instrument blur",
+  }),
 };
 
 function idx(params: FitParameter[]) {
@@ -105,7 +149,8 @@ const wall180Mz: ProfileModel = {
 const wall180Tilted: ProfileModel = {
   id: "wall180-tilted",
   title: "180-degree wall seen by a tilted sensor",
-  summary: "Signal = offset + contrast * (m . n), sensor axis n tilted from +z toward +x by `tilt`: the in-plane moment of the wall adds an odd part. The helicity is held fixed by default (with one tilted sensor only contrast*sin(tilt)*cos(helicity) is measurable).",
+  summary:
+    "Signal = offset + contrast * (m . n), sensor axis n tilted from +z toward +x by `tilt`: the in-plane moment of the wall adds an odd part. The helicity is held fixed by default (with one tilted sensor only contrast*sin(tilt)*cos(helicity) is measurable).",
   parameters: [P.x0(), P.Delta(), P.helicity(true), P.tilt(), P.offset(""), P.contrast()],
   signalUnit: "",
   assumptions: [...BASE_ASSUMPTIONS, STRAIGHT_WALL, "signal linear in m . n, sensor axis n in the x-z plane"],
@@ -293,7 +338,13 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
     summary: `${label} above the film from its surface and volume charges (Fourier space), with neel = cos(helicity) free (m_y has no charge, so the field sees the helicity only through its cosine): |neel| near 1 is a Neel wall, its sign the chirality, near 0 a Bloch wall; Gaussian blur optional (fixed at 0 by default).`,
     parameters: params,
     signalUnit: "T",
-    assumptions: [...BASE_ASSUMPTIONS, kind === "180" ? STRAIGHT_WALL : STRAY_360_CUT, `signal = ${label} of the surface and volume charges of m (not a function of m_z alone)`, "point sensor at height h above the top surface (finite size only through the blur)", "the FFT grid is set from the start values: lengths far below the start width are resolved less well"],
+    assumptions: [
+      ...BASE_ASSUMPTIONS,
+      kind === "180" ? STRAIGHT_WALL : STRAY_360_CUT,
+      `signal = ${label} of the surface and volume charges of m (not a function of m_z alone)`,
+      "point sensor at height h above the top surface (finite size only through the blur)",
+      "the FFT grid is set from the start values: lengths far below the start width are resolved less well",
+    ],
     sources: [...(kind === "180" ? WALL_SOURCES : W360_SOURCES), ...STRAY_SOURCES],
     bind(x, start) {
       const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];
@@ -303,7 +354,11 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
       // about e^{-pi h/dx}: dx <= h/6 (the length h/2 below, resolved by thirds) puts it near 7e-9.
       // With dx = h/3 a sensor closer than the wall width erred by 3e-6 of the peak. The periodic box is
       // padded by 160 wall widths: a wall much wider than h (12 nm at h = 2 nm) erred by 3e-6 with 80.
-      const grid = bindGrid(x, [...widths, h0 > 0 ? h0 / 2 : widths[0], blur0 > 0 ? blur0 : Infinity], [200 * (h0 + start[ix("t")]), 160 * Math.max(...widths), 6 * blur0, kind === "360" ? 60 * start[ix("R")] : 0]);
+      const grid = bindGrid(
+        x,
+        [...widths, h0 > 0 ? h0 / 2 : widths[0], blur0 > 0 ? blur0 : Infinity],
+        [200 * (h0 + start[ix("t")]), 160 * Math.max(...widths), 6 * blur0, kind === "360" ? 60 * start[ix("R")] : 0],
+      );
       // zero-mode reference: centred at the start position, 2 start widths wide (its spectrum e^{-|k| a}
       // must vanish well before the grid's Nyquist wavenumber 3 pi / width)
       return strayBound(kind, component, grid, x, ix, start[0]!, 2 * Math.min(...widths.filter((v) => v > 0)));
@@ -348,7 +403,9 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
    * its derivatives in h and t; scaled by mu0 Ms / (2 pi).
    */
   function zeroModeField(xs: ArrayLike<number>, p: Float64Array, which: "z" | "x", val: Float64Array, dh: Float64Array | null, dt: Float64Array | null) {
-    const h = p[iH], t = p[iT], c = (mu0 * p[iMs]) / (2 * Math.PI);
+    const h = p[iH],
+      t = p[iT],
+      c = (mu0 * p[iMs]) / (2 * Math.PI);
     // P(u, H) = H / (u^2 + H^2), Qk(u, H) = u / (u^2 + H^2) and their H-derivatives
     const P = (u: number, H: number) => H / (u * u + H * H);
     const Qk = (u: number, H: number) => u / (u * u + H * H);
@@ -358,12 +415,19 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     // bz: from m_z +kz1, from m_x +kz2; bx: from m_z +kz2, from m_x -kz1
     const useP = (component === "bz") === (which === "z");
     const sgn = component === "bx" && which === "x" ? -1 : 1;
-    const F = useP ? P : Qk, dF = useP ? dP : dQ;
+    const F = useP ? P : Qk,
+      dF = useP ? dP : dQ;
     for (let i = 0; i < xs.length; i++) {
       const u = xs[i]! - refCenter;
-      let v = 0, vh = 0, vt = 0;
-      for (const [w, b] of [[2, refWidth], [-1, 2 * refWidth]] as const) {
-        const H1 = h + b, H2 = h + t + b;
+      let v = 0,
+        vh = 0,
+        vt = 0;
+      for (const [w, b] of [
+        [2, refWidth],
+        [-1, 2 * refWidth],
+      ] as const) {
+        const H1 = h + b,
+          H2 = h + t + b;
         v += w * (F(u, H1) - F(u, H2));
         vh += w * (dF(u, H1) - dF(u, H2));
         vt += w * -dF(u, H2);
@@ -406,14 +470,21 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   const Kt = new Float64Array(n);
   const gridOut = new Float64Array(m);
   // spectra kept per evaluation: local base (A: mz, B: mx1) and step (Sc) as separate re/im
-  const Ar = new Float64Array(n), Ai = new Float64Array(n), Br = new Float64Array(n), Bi = new Float64Array(n);
-  const Sr = new Float64Array(n), Si = new Float64Array(n);
+  const Ar = new Float64Array(n),
+    Ai = new Float64Array(n),
+    Br = new Float64Array(n),
+    Bi = new Float64Array(n);
+  const Sr = new Float64Array(n),
+    Si = new Float64Array(n);
   const stepAt = new Float64Array(m);
   const scratch = new Float64Array(m);
   // scratch grid (W) and data-point (Wm) arrays, allocated once per bind
   const W = Array.from({ length: 14 }, () => new Float64Array(n));
-  const WD = new Float64Array(n), SDr = new Float64Array(n), SDi = new Float64Array(n);
-  const fineRe = new Float64Array(UPSAMPLE * n), fineIm = new Float64Array(UPSAMPLE * n);
+  const WD = new Float64Array(n),
+    SDr = new Float64Array(n),
+    SDi = new Float64Array(n);
+  const fineRe = new Float64Array(UPSAMPLE * n),
+    fineIm = new Float64Array(UPSAMPLE * n);
   const Wm = Array.from({ length: 4 }, () => new Float64Array(m));
   const [Zz, Zzh, Zzt, Zx, Zxh, Zxt] = Array.from({ length: 6 }, () => new Float64Array(m));
   const [ZG, ZGh, ZGt, Fr, Fi, Fhr, Fhi, Ftr, Fti] = Array.from({ length: 9 }, () => new Float64Array(n));
@@ -428,7 +499,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         const th = Math.tanh(u);
         const sech = 1 / Math.cosh(u);
         // remove the reference sum_i c_i (-(2/pi) atan(u / i)) (see REF_C): the remainder decays as u^-5
-        let ref = 0, dref = 0;
+        let ref = 0,
+          dref = 0;
         for (let r = 0; r < REF_C.length; r++) {
           const a = r + 1;
           ref += REF_C[r]! * Math.atan(u / a);
@@ -467,8 +539,10 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   }
 
   /** Net charges of the grid fields (and of their shape derivatives), moved onto ell (blur 0 only). */
-  const dQz = new Float64Array(3), dQx = new Float64Array(3);
-  let Qz = 0, Qx = 0;
+  const dQz = new Float64Array(3),
+    dQx = new Float64Array(3);
+  let Qz = 0,
+    Qx = 0;
   function removeZeroModes(d: boolean) {
     const sumOf = (f: Float64Array) => {
       let v = 0;
@@ -519,7 +593,10 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     fft(re, im);
     for (let j = 0; j < n; j++) {
       const jm = j === 0 ? 0 : n - j;
-      const a = re[j], b = im[j], c = re[jm], e = im[jm];
+      const a = re[j],
+        b = im[j],
+        c = re[jm],
+        e = im[jm];
       ur[j] = 0.5 * (a + c);
       ui[j] = 0.5 * (b - e);
       if (vr && vi) {
@@ -534,13 +611,25 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
    * its derivatives (u, h, t, Delta) on the grid or at points: each term is the ideal step seen from
    * h + i Delta (Poisson semigroup, strayField.ts).
    */
-  function stepValues(xs: ArrayLike<number>, p: Float64Array, val: Float64Array, du: Float64Array | null, dH: Float64Array | null, dt: Float64Array | null, dD: Float64Array | null = null) {
+  function stepValues(
+    xs: ArrayLike<number>,
+    p: Float64Array,
+    val: Float64Array,
+    du: Float64Array | null,
+    dH: Float64Array | null,
+    dt: Float64Array | null,
+    dD: Float64Array | null = null,
+  ) {
     const x0 = p[0];
     const t = p[iT];
     const Ms = p[iMs];
     for (let i = 0; i < xs.length; i++) {
       const u = xs[i] - x0;
-      let v = 0, vu = 0, vH = 0, vt = 0, vD = 0;
+      let v = 0,
+        vu = 0,
+        vH = 0,
+        vt = 0,
+        vD = 0;
       for (let r = 0; r < REF_C.length; r++) {
         const cr = REF_C[r]!;
         const H = p[iH] + (r + 1) * p[1];
@@ -555,9 +644,9 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
           ft = -u / a2;
         } else {
           fv = Math.log(a2 / b2);
-          fu = 2 * u / a2 - 2 * u / b2;
-          fH = 2 * Ht / a2 - 2 * H / b2;
-          ft = 2 * Ht / a2;
+          fu = (2 * u) / a2 - (2 * u) / b2;
+          fH = (2 * Ht) / a2 - (2 * H) / b2;
+          ft = (2 * Ht) / a2;
         }
         v += cr * fv;
         vu += cr * fu;
@@ -597,7 +686,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       fftPair(W[0], null, Sr, Si, null, null);
     }
     // base output spectrum O = C (K L + G S), L = A - i sg cg B
-    const Or = colR[iOff], Oi = colI[iOff]; // reuse the offset slot for the base
+    const Or = colR[iOff],
+      Oi = colI[iOff]; // reuse the offset slot for the base
     for (let j = 0; j < n; j++) {
       const lr = Ar[j] + sg[j] * cg * Bi[j];
       const li = Ai[j] - sg[j] * cg * Br[j];
@@ -645,7 +735,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     const cols: number[] = [];
     const setLocal = (c: number, dr: Float64Array, di: Float64Array, er: Float64Array, ei: Float64Array, scale: number) => {
       // column spectrum C K (dA - i sg cg dB) * scale, dA = (dr, di), dB = (er, ei)
-      const R = colR[c], I = colI[c];
+      const R = colR[c],
+        I = colI[c];
       for (let j = 0; j < n; j++) {
         const lr = dr[j] + sg[j] * cg * ei[j];
         const li = di[j] - sg[j] * cg * er[j];
@@ -667,7 +758,12 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       setLocal(s, tr, ti, ur, ui, 1);
     }
     // step derivatives (blurred 180 wall): d/dx0 = -d/du, d/dDelta and d/dh through H, d/dt
-    let SdR: Float64Array | null = null, SdI: Float64Array | null = null, SHr: Float64Array | null = null, SHi: Float64Array | null = null, Str: Float64Array | null = null, Sti: Float64Array | null = null;
+    let SdR: Float64Array | null = null,
+      SdI: Float64Array | null = null,
+      SHr: Float64Array | null = null,
+      SHi: Float64Array | null = null,
+      Str: Float64Array | null = null,
+      Sti: Float64Array | null = null;
     if (stepInFft) {
       [SdR, SdI, SHr, SHi, Str, Sti] = [W[8], W[9], W[10], W[11], W[12], W[13]];
       fftPair(W[1], W[2], SdR, SdI, SHr, SHi);
@@ -681,7 +777,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     }
     // neel: C K (-i sg B)
     {
-      const R = colR[iNeel], I = colI[iNeel];
+      const R = colR[iNeel],
+        I = colI[iNeel];
       for (let j = 0; j < n; j++) {
         let r = K[j] * sg[j] * Bi[j];
         let i = -K[j] * sg[j] * Br[j];
@@ -697,7 +794,10 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     }
     // h, t: dK/dh = -|k| K, dK/dt = Kt; the step through H (h) and t
     {
-      const Rh = colR[iH], Ih = colI[iH], Rt = colR[iT], It = colI[iT];
+      const Rh = colR[iH],
+        Ih = colI[iH],
+        Rt = colR[iT],
+        It = colI[iT];
       for (let j = 0; j < n; j++) {
         const lr = Ar[j] + sg[j] * cg * Bi[j];
         const li = Ai[j] - sg[j] * cg * Br[j];
@@ -729,7 +829,10 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     // Ms: O / Ms; blur: -k^2 s O
     {
       const Ms = p[iMs];
-      const Rm = colR[iMs], Im = colI[iMs], Rb = colR[iBlur], Ib = colI[iBlur];
+      const Rm = colR[iMs],
+        Im = colI[iMs],
+        Rb = colR[iBlur],
+        Ib = colI[iBlur];
       for (let j = 0; j < n; j++) {
         Rm[j] = Or[j] / Ms;
         Im[j] = Oi[j] / Ms;
@@ -764,7 +867,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     // would swamp the smaller
     const peakOf = (c: number) => {
       let v = 0;
-      const R = colR[c], I = colI[c];
+      const R = colR[c],
+        I = colI[c];
       for (let j = 0; j < n; j++) v = Math.max(v, Math.abs(R[j]), Math.abs(I[j]));
       return v > 0 ? v : 1;
     };

@@ -66,7 +66,17 @@ interface EnergyAndGradient {
 export function ansatzEnergyAt(film: Film, B: number, a: number, w: number, nonlocal = true): EnergyAndGradient {
   const I = ansatzLocalIntegrals(a);
   const nl = nonlocal ? ansatzNonlocal(a, film.t / w) : { surface: 0, volume: 0 };
-  const T = ansatzEnergyTerms(film, B, effectiveAnisotropy(film), I, w, nl.surface, nl.volume, undefined, { exchange: 0, anisotropy: 0, zeeman: 0, dmiScale: 0, surface: 0, volumeScale: 0, h: 0, vf: 0, total: 0 });
+  const T = ansatzEnergyTerms(film, B, effectiveAnisotropy(film), I, w, nl.surface, nl.volume, undefined, {
+    exchange: 0,
+    anisotropy: 0,
+    zeeman: 0,
+    dmiScale: 0,
+    surface: 0,
+    volumeScale: 0,
+    h: 0,
+    vf: 0,
+    total: 0,
+  });
   const twoPiT = 2 * Math.PI * film.t;
   return { E: T.total, gA: twoPiT * I.ex, gD: twoPiT * w * I.D * T.h, gK: twoPiT * w * w * I.K };
 }

@@ -11,8 +11,14 @@ export function guessStart(model: ProfileModel, x: ArrayLike<number>, y: ArrayLi
   let imin = 0;
   let imax = 0;
   for (let i = 0; i < n; i++) {
-    if (y[i] < ymin) { ymin = y[i]; imin = i; }
-    if (y[i] > ymax) { ymax = y[i]; imax = i; }
+    if (y[i] < ymin) {
+      ymin = y[i];
+      imin = i;
+    }
+    if (y[i] > ymax) {
+      ymax = y[i];
+      imax = i;
+    }
   }
   const span = x[n - 1] - x[0];
   const mid = 0.5 * (ymin + ymax);
@@ -20,14 +26,22 @@ export function guessStart(model: ProfileModel, x: ArrayLike<number>, y: ArrayLi
   const names = new Set(model.parameters.map((p) => p.name));
   const out: Record<string, number> = {};
   const k = Math.max(1, Math.floor(n / 10));
-  const mean = (a: number, b: number) => { let s = 0; for (let i = a; i < b; i++) s += y[i]; return s / (b - a); };
+  const mean = (a: number, b: number) => {
+    let s = 0;
+    for (let i = a; i < b; i++) s += y[i];
+    return s / (b - a);
+  };
   const left = mean(0, k);
   const right = mean(n - k, n);
   if (model.signalUnit === "") {
     if (model.id.startsWith("wall180")) {
       // crossing of the midpoint
       let ic = Math.floor(n / 2);
-      for (let i = 1; i < n; i++) if ((y[i - 1] - mid) * (y[i] - mid) <= 0) { ic = i; break; }
+      for (let i = 1; i < n; i++)
+        if ((y[i - 1] - mid) * (y[i] - mid) <= 0) {
+          ic = i;
+          break;
+        }
       out.x0 = x[ic];
       out.offset = mid;
       out.contrast = left >= right ? half : -half;
@@ -36,8 +50,12 @@ export function guessStart(model: ProfileModel, x: ArrayLike<number>, y: ArrayLi
       const hi = mid + 0.8 * half * Math.sign(left - right || 1);
       let a = x[0];
       let b = x[n - 1];
-      for (let i = 0; i < n; i++) { if ((y[i] - hi) * Math.sign(left - right || 1) >= 0) a = x[i]; }
-      for (let i = n - 1; i >= 0; i--) { if ((y[i] - lo) * Math.sign(left - right || 1) <= 0) b = x[i]; }
+      for (let i = 0; i < n; i++) {
+        if ((y[i] - hi) * Math.sign(left - right || 1) >= 0) a = x[i];
+      }
+      for (let i = n - 1; i >= 0; i--) {
+        if ((y[i] - lo) * Math.sign(left - right || 1) <= 0) b = x[i];
+      }
       out.Delta = Math.max(Math.abs(b - a) / 2.2, span / (5 * n), span / 1000);
     } else {
       const edge = 0.5 * (left + right);
@@ -45,7 +63,7 @@ export function guessStart(model: ProfileModel, x: ArrayLike<number>, y: ArrayLi
       const ic = dip ? imin : imax;
       out.x0 = x[ic];
       const depth = (dip ? ymin : ymax) - edge;
-      out.offset = edge - Math.abs(depth) / 2 * (dip ? 1 : -1) * 0 + 0;
+      out.offset = edge - (Math.abs(depth) / 2) * (dip ? 1 : -1) * 0 + 0;
       out.contrast = dip ? Math.abs(depth) / 2 : -Math.abs(depth) / 2;
       out.offset = edge - out.contrast;
       // half width at the half depth

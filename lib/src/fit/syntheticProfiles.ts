@@ -41,7 +41,8 @@ export function syntheticProfile(model: ProfileModel | string, parameters: Recor
   if (!(span > 0)) throw new InputError("span", span, "a positive length in m");
   const noise = options.noise ?? 0.02;
   if (!(noise >= 0)) throw new InputError("noise", noise, "a non-negative standard deviation");
-  for (const k of Object.keys(parameters)) if (!pm.parameters.some((p) => p.name === k)) throw new InputError(`parameters.${k}`, parameters[k], `a parameter of ${pm.id}: ${pm.parameters.map((p) => p.name).join(", ")}`);
+  for (const k of Object.keys(parameters))
+    if (!pm.parameters.some((p) => p.name === k)) throw new InputError(`parameters.${k}`, parameters[k], `a parameter of ${pm.id}: ${pm.parameters.map((p) => p.name).join(", ")}`);
   const p = Float64Array.from(pm.parameters.map((q) => parameters[q.name] ?? q.value));
   const x = Float64Array.from({ length: n }, (_, i) => -span / 2 + (span * i) / (n - 1));
   const clean = new Float64Array(n);
@@ -84,7 +85,11 @@ export function syntheticFieldSeries(
       R = s.radius;
       w = s.wallWidth;
     }
-    const prof = syntheticProfile(options.model ?? "wall360-mz", { x0: 0, offset: 0, contrast: 1, ...(options.local ?? {}), R, w }, { ...options, seed: (options.seed ?? 1) * 1000 + i });
+    const prof = syntheticProfile(
+      options.model ?? "wall360-mz",
+      { x0: 0, offset: 0, contrast: 1, ...(options.local ?? {}), R, w },
+      { ...options, seed: (options.seed ?? 1) * 1000 + i },
+    );
     return { ...prof, B };
   });
 }

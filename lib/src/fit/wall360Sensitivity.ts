@@ -23,7 +23,16 @@ export function wall360Sensitivity(film: Film, B: number, parameters: SeriesPara
   const K = effectiveAnisotropy(film);
   if (!(K > 0)) throw new InputError("Ku", film.Ku, "Ku above the shape anisotropy mu0 Ms^2 / 2 (a perpendicular film)");
   if (!(B > 0)) {
-    return { status: "expanded", B, R: NaN, w: NaN, dR: parameters.map(() => NaN), dw: parameters.map(() => NaN), parameters, notes: ["B <= 0: the two walls of the pair repel and separate (no bound 360-degree wall)"] };
+    return {
+      status: "expanded",
+      B,
+      R: NaN,
+      w: NaN,
+      dR: parameters.map(() => NaN),
+      dw: parameters.map(() => NaN),
+      parameters,
+      notes: ["B <= 0: the two walls of the pair repel and separate (no bound 360-degree wall)"],
+    };
   }
   const Delta = Math.sqrt(film.A / K);
   const h = (film.Ms * B) / (2 * K);

@@ -53,7 +53,7 @@ export function wall360Point(x: number, x0: number, R: number, w: number): { mz:
   let acoth = 0;
   if (a > 0) {
     const ca = coth(a);
-    dx0 = -sech2 * (Math.sign(u) * ca) / w;
+    dx0 = (-sech2 * (Math.sign(u) * ca)) / w;
     acoth = a * ca;
   } else {
     acoth = 1; // a coth a -> 1 as a -> 0
@@ -134,7 +134,7 @@ export function wall360MzDerivatives(x: ArrayLike<number>, x0: number, R: number
       ca = (e + ie) / (e - ie);
       acoth = a * ca;
     }
-    d[i] = a > 0 ? (-s2 * Math.sign(u) * ca) * iw : 0;
+    d[i] = a > 0 ? -s2 * Math.sign(u) * ca * iw : 0;
     d[m + i] = -s2 * cb * iw;
     d[2 * m + i] = -s2 * (-b * cb + acoth) * iw;
   }

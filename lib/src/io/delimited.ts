@@ -24,7 +24,7 @@ type Name = (typeof NAMES)[number];
 const REQUIRED: Name[] = ["x", "y", "mx", "my", "mz"];
 /** The common length units of coordinate columns, so that reading a table needs no unit engine (the
  * values parseQuantity gives, checked in the tests); other units go to parseQuantity. */
-export const LENGTH_UNITS: Readonly<Record<string, number>> = { m: 1, mm: 1e-3, um: 1e-6, "µm": 1e-6, "μm": 1e-6, nm: 1e-9, pm: 1e-12 };
+export const LENGTH_UNITS: Readonly<Record<string, number>> = { m: 1, mm: 1e-3, um: 1e-6, µm: 1e-6, μm: 1e-6, nm: 1e-9, pm: 1e-12 };
 const numberRe = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const nanRe = /^[+-]?nan$/i;
 
@@ -60,7 +60,8 @@ function distinctSorted(values: Float64Array): Float64Array {
 /** Distinct sorted values with a uniform spacing: returns origin, spacing and count. */
 function gridAxis(values: Float64Array, file: string, column: string): { origin: number; step: number; n: number } {
   const sorted = distinctSorted(values);
-  const min = sorted[0]!, max = sorted[sorted.length - 1]!;
+  const min = sorted[0]!,
+    max = sorted[sorted.length - 1]!;
   const span = max - min;
   const tol = span === 0 ? 0 : span * 1e-9;
   const distinct: number[] = [min];
@@ -73,7 +74,11 @@ function gridAxis(values: Float64Array, file: string, column: string): { origin:
     const f = (v - min) / step;
     if (Math.abs(f - Math.round(f)) > 1e-3) {
       const steps = distinct.slice(1, 6).map((d, k) => d - distinct[k]!);
-      throw new InputError(`${file}: column ${column}`, `spacings ${steps.map((s) => s.toPrecision(4)).join(", ")}${distinct.length > 6 ? ", ..." : ""}`, "coordinates on a uniform grid (one spacing per axis)");
+      throw new InputError(
+        `${file}: column ${column}`,
+        `spacings ${steps.map((s) => s.toPrecision(4)).join(", ")}${distinct.length > 6 ? ", ..." : ""}`,
+        "coordinates on a uniform grid (one spacing per axis)",
+      );
     }
   }
   return { origin: min, step, n };
@@ -148,35 +153,50 @@ function parseDecimal(b: Uint8Array, p: number, q: number, nanAllowed: boolean, 
   while (q > p && (b[q - 1] === 32 || b[q - 1] === 9)) q--;
   if (p >= q) return false;
   let neg = false;
-  if (b[p] === 45) { neg = true; p++; } else if (b[p] === 43) p++;
+  if (b[p] === 45) {
+    neg = true;
+    p++;
+  } else if (b[p] === 43) p++;
   let w = 0;
   let sig = 0;
   let digits = 0;
   let frac = 0;
   let c = b[p];
   while (p < q && (c = b[p]!) >= 48 && c <= 57) {
-    if (w !== 0 || c !== 48) { w = w * 10 + (c - 48); sig++; }
+    if (w !== 0 || c !== 48) {
+      w = w * 10 + (c - 48);
+      sig++;
+    }
     digits++;
     p++;
   }
   if (p < q && b[p] === 46) {
     p++;
     while (p < q && (c = b[p]!) >= 48 && c <= 57) {
-      if (w !== 0 || c !== 48) { w = w * 10 + (c - 48); sig++; }
+      if (w !== 0 || c !== 48) {
+        w = w * 10 + (c - 48);
+        sig++;
+      }
       frac++;
       digits++;
       p++;
     }
   }
   if (digits === 0) {
-    if (nanAllowed && q - p === 3 && (b[p]! | 32) === 110 && (b[p + 1]! | 32) === 97 && (b[p + 2]! | 32) === 110) { out[at] = NaN; return true; }
+    if (nanAllowed && q - p === 3 && (b[p]! | 32) === 110 && (b[p + 1]! | 32) === 97 && (b[p + 2]! | 32) === 110) {
+      out[at] = NaN;
+      return true;
+    }
     return false;
   }
   let exp = 0;
   if (p < q && (b[p] === 101 || b[p] === 69)) {
     p++;
     let eneg = false;
-    if (p < q && b[p] === 45) { eneg = true; p++; } else if (p < q && b[p] === 43) p++;
+    if (p < q && b[p] === 45) {
+      eneg = true;
+      p++;
+    } else if (p < q && b[p] === 43) p++;
     const e0 = p;
     while (p < q && (c = b[p]!) >= 48 && c <= 57) {
       if (exp < 10000) exp = exp * 10 + (c - 48);
@@ -186,7 +206,10 @@ function parseDecimal(b: Uint8Array, p: number, q: number, nanAllowed: boolean, 
     if (eneg) exp = -exp;
   }
   if (p !== q) return false;
-  if (w === 0) { out[at] = neg ? -0 : 0; return true; }
+  if (w === 0) {
+    out[at] = neg ? -0 : 0;
+    return true;
+  }
   if (sig > 15 || w > TWO53) return false;
   const e10 = exp - frac;
   let v: number;
@@ -234,7 +257,10 @@ export class DelimitedFieldParser {
    * `sizeHint`: the size of the whole input in bytes when known (a file's size): after the first
    * rows the columns are sized once for the rows expected, instead of growing step by step.
    */
-  constructor(private readonly options: ReadOptions = {}, private readonly sizeHint = 0) {
+  constructor(
+    private readonly options: ReadOptions = {},
+    private readonly sizeHint = 0,
+  ) {
     this.file = options.file ?? "table.csv";
   }
 
@@ -278,7 +304,12 @@ export class DelimitedFieldParser {
       if (last) this.byteLine(buf, start, buf[n - 1] === 13 ? n - 1 : n);
       else {
         if (n - start > MAX_LINE_BYTES) {
-          throw new InputError(`${this.file}: line ${this.lineNo + 1}`, `a line longer than ${formatBytes(MAX_LINE_BYTES)}`, "a table of short lines (one row per cell)", "This does not look like a text table");
+          throw new InputError(
+            `${this.file}: line ${this.lineNo + 1}`,
+            `a line longer than ${formatBytes(MAX_LINE_BYTES)}`,
+            "a table of short lines (one row per cell)",
+            "This does not look like a text table",
+          );
         }
         this.carry = buf.slice(start);
       }
@@ -365,7 +396,10 @@ export class DelimitedFieldParser {
     const ignored: string[] = [];
     headerFields.forEach((raw, k) => {
       const m = /^(.*?)\s*[([]\s*([^)\]]*)\s*[)\]]\s*$/.exec(raw);
-      const base = (m ? m[1]! : raw).trim().toLowerCase().replace(/^m_([xyz])$/, "m$1");
+      const base = (m ? m[1]! : raw)
+        .trim()
+        .toLowerCase()
+        .replace(/^m_([xyz])$/, "m$1");
       this.units[k] = m ? m[2]!.trim() : "";
       if ((NAMES as readonly string[]).includes(base)) {
         if (this.col[base as Name] !== undefined) throw new InputError(`${file}: header, column ${k + 1}`, raw, `each of ${NAMES.join(", ")} once (${base} appears twice)`);
@@ -374,7 +408,12 @@ export class DelimitedFieldParser {
     });
     const missing = REQUIRED.filter((n) => this.col[n] === undefined);
     if (missing.length > 0) {
-      throw new InputError(`${file}: header (row ${lineNumber})`, line.trim(), `columns named ${REQUIRED.join(", ")} (and optionally z), in any order`, `missing: ${missing.join(", ")}`);
+      throw new InputError(
+        `${file}: header (row ${lineNumber})`,
+        line.trim(),
+        `columns named ${REQUIRED.join(", ")} (and optionally z), in any order`,
+        `missing: ${missing.join(", ")}`,
+      );
     }
     if (ignored.length > 0) this.notes.push(`ignored columns: ${ignored.join(", ")}`);
     this.numCols = NAMES.filter((n) => this.col[n] !== undefined).map((n) => [n, this.col[n]!]);
@@ -385,7 +424,9 @@ export class DelimitedFieldParser {
     if (candidate !== null) {
       const f = this.split(candidate).map(unquote);
       if (f.length === this.width && f.every((s) => !numberRe.test(s) && !nanRe.test(s))) {
-        f.forEach((u, k) => { if (u !== "") this.units[k] = u.replace(/^[([]|[)\]]$/g, ""); });
+        f.forEach((u, k) => {
+          if (u !== "") this.units[k] = u.replace(/^[([]|[)\]]$/g, "");
+        });
         this.unitsConsumed = true;
       }
     }
@@ -394,7 +435,10 @@ export class DelimitedFieldParser {
       const k = this.col[a];
       if (k === undefined) continue;
       const u = this.units[k] ?? "";
-      if (u === "") { unitless = true; continue; }
+      if (u === "") {
+        unitless = true;
+        continue;
+      }
       this.scale[a] = LENGTH_UNITS[u] ?? parseQuantity(`${this.file}: unit of column ${a}`, `1 ${u}`, "m");
     }
     if (unitless) this.notes.push("coordinates without a unit were taken as metres");
@@ -412,7 +456,8 @@ export class DelimitedFieldParser {
       let v: number;
       if (numberRe.test(s)) {
         v = Number(s);
-        if (!Number.isFinite(v)) throw new InputError(`${file}: row ${lineNumber}, column ${k + 1} (${n})`, s, "a finite number (this one is beyond the range of double precision)");
+        if (!Number.isFinite(v))
+          throw new InputError(`${file}: row ${lineNumber}, column ${k + 1} (${n})`, s, "a finite number (this one is beyond the range of double precision)");
       } else if (nanRe.test(s) && n.startsWith("m")) v = NaN;
       else {
         throw new InputError(`${file}: row ${lineNumber}, column ${k + 1} (${n})`, s, n.startsWith("m") ? 'a number (or "nan" for a vacuum cell)' : "a number");
@@ -434,12 +479,19 @@ export class DelimitedFieldParser {
       this.ms.reserve(3 * expect);
     }
     if (rows % 65536 === 0 && rows * DELIMITED_BYTES_PER_ROW > FIELD_MEMORY_BUDGET) {
-      throw new InputError(`${file}: size`, `more than ${rows} rows`, `a table that fits the memory budget of ${formatBytes(FIELD_MEMORY_BUDGET)}`, `Reading it needs more than ${formatBytes(rows * DELIMITED_BYTES_PER_ROW)} (${DELIMITED_BYTES_PER_ROW} bytes per row); crop or downsample the field, or save it as .npy`);
+      throw new InputError(
+        `${file}: size`,
+        `more than ${rows} rows`,
+        `a table that fits the memory budget of ${formatBytes(FIELD_MEMORY_BUDGET)}`,
+        `Reading it needs more than ${formatBytes(rows * DELIMITED_BYTES_PER_ROW)} (${DELIMITED_BYTES_PER_ROW} bytes per row); crop or downsample the field, or save it as .npy`,
+      );
     }
     this.xs.push(x * this.scale.x);
     this.ys.push(y * this.scale.y);
     if (this.col.z !== undefined) this.zs.push(z * this.scale.z);
-    this.ms.push(mx); this.ms.push(my); this.ms.push(mz);
+    this.ms.push(mx);
+    this.ms.push(my);
+    this.ms.push(mz);
     this.rowOf.push(lineNumber);
   }
 
@@ -448,11 +500,17 @@ export class DelimitedFieldParser {
     if (this.state === "header") throw new InputError(file, "an empty table", `a header line naming the columns ${NAMES.join(", ")} (z optional)`);
     if (this.state === "units") this.setScales(null);
     if (this.xs.length === 0) throw new InputError(file, "a header and no data rows", "at least one data row");
-    const xs = this.xs.view(), ys = this.ys.view(), zs = this.zs.view(), ms = this.ms.view(), rowOf = this.rowOf.view();
+    const xs = this.xs.view(),
+      ys = this.ys.view(),
+      zs = this.zs.view(),
+      ms = this.ms.view(),
+      rowOf = this.rowOf.view();
     const ax = gridAxis(xs, file, "x");
     const ay = gridAxis(ys, file, "y");
     const az = this.col.z === undefined ? { origin: 0, step: NaN, n: 1 } : gridAxis(zs, file, "z");
-    const nx = ax.n, ny = ay.n, nz = az.n;
+    const nx = ax.n,
+      ny = ay.n,
+      nz = az.n;
     const n = nx * ny * nz;
     checkFieldBudget(file, nx, ny, nz);
     // Rows in the field's own order (x fastest, one row per cell, none missing, the usual way a
@@ -465,9 +523,9 @@ export class DelimitedFieldParser {
       if ((l * ny + j) * nx + i !== k) inOrder = false;
     }
     if (inOrder) {
-      const dx = Number.isFinite(ax.step) ? ax.step : options.dx ?? (Number.isFinite(ay.step) ? ay.step : 1e-9);
-      const dy = Number.isFinite(ay.step) ? ay.step : options.dy ?? dx;
-      const dz = Number.isFinite(az.step) ? az.step : options.dz ?? dx;
+      const dx = Number.isFinite(ax.step) ? ax.step : (options.dx ?? (Number.isFinite(ay.step) ? ay.step : 1e-9));
+      const dy = Number.isFinite(ay.step) ? ay.step : (options.dy ?? dx);
+      const dz = Number.isFinite(az.step) ? az.step : (options.dz ?? dx);
       const normOpts = options.threshold !== undefined ? { threshold: options.threshold, source: file } : { source: file };
       const field = adoptInterleaved(ms, { nx, ny, nz, dx, dy, dz, source: file }, normOpts, null);
       const format = this.delim === "tab" ? "tsv" : this.delim === "comma" ? "csv" : "text";
@@ -486,15 +544,21 @@ export class DelimitedFieldParser {
       }
       owner[c] = k;
       present[c] = 1;
-      m[3 * c] = ms[3 * k]!; m[3 * c + 1] = ms[3 * k + 1]!; m[3 * c + 2] = ms[3 * k + 2]!;
+      m[3 * c] = ms[3 * k]!;
+      m[3 * c + 1] = ms[3 * k + 1]!;
+      m[3 * c + 2] = ms[3 * k + 2]!;
     }
     let missingCells = 0;
     const pre = new Uint8Array(n);
-    for (let c = 0; c < n; c++) if (present[c] === 0) { pre[c] = 1; missingCells++; }
+    for (let c = 0; c < n; c++)
+      if (present[c] === 0) {
+        pre[c] = 1;
+        missingCells++;
+      }
     if (missingCells > 0) notes.push(`${missingCells} grid cells had no row and are vacuum`);
-    const dx = Number.isFinite(ax.step) ? ax.step : options.dx ?? (Number.isFinite(ay.step) ? ay.step : 1e-9);
-    const dy = Number.isFinite(ay.step) ? ay.step : options.dy ?? dx;
-    const dz = Number.isFinite(az.step) ? az.step : options.dz ?? dx;
+    const dx = Number.isFinite(ax.step) ? ax.step : (options.dx ?? (Number.isFinite(ay.step) ? ay.step : 1e-9));
+    const dy = Number.isFinite(ay.step) ? ay.step : (options.dy ?? dx);
+    const dz = Number.isFinite(az.step) ? az.step : (options.dz ?? dx);
     const normOpts = options.threshold !== undefined ? { threshold: options.threshold, source: file } : { source: file };
     const field = adoptInterleaved(m, { nx, ny, nz, dx, dy, dz, source: file }, normOpts, missingCells > 0 ? pre : null);
     const format = this.delim === "tab" ? "tsv" : this.delim === "comma" ? "csv" : "text";
@@ -505,10 +569,12 @@ export class DelimitedFieldParser {
 /** Write a field as CSV with a units row (x, y, z in nm). */
 export function writeCsvVectorField(field: { nx: number; ny: number; nz: number; dx: number; dy: number; dz: number; m: Float64Array; vacuum: Uint8Array | null }): string {
   const out: string[] = ["x,y,z,mx,my,mz", "nm,nm,nm,,,"];
-  for (let k = 0, c = 0; k < field.nz; k++) for (let j = 0; j < field.ny; j++) for (let i = 0; i < field.nx; i++, c++) {
-    const vac = field.vacuum !== null && field.vacuum[c] === 1;
-    const v = vac ? ["nan", "nan", "nan"] : [field.m[3 * c]!, field.m[3 * c + 1]!, field.m[3 * c + 2]!].map(String);
-    out.push([(i * field.dx * 1e9).toPrecision(12), (j * field.dy * 1e9).toPrecision(12), (k * field.dz * 1e9).toPrecision(12), ...v].join(","));
-  }
+  for (let k = 0, c = 0; k < field.nz; k++)
+    for (let j = 0; j < field.ny; j++)
+      for (let i = 0; i < field.nx; i++, c++) {
+        const vac = field.vacuum !== null && field.vacuum[c] === 1;
+        const v = vac ? ["nan", "nan", "nan"] : [field.m[3 * c]!, field.m[3 * c + 1]!, field.m[3 * c + 2]!].map(String);
+        out.push([(i * field.dx * 1e9).toPrecision(12), (j * field.dy * 1e9).toPrecision(12), (k * field.dz * 1e9).toPrecision(12), ...v].join(","));
+      }
   return out.join("\n") + "\n";
 }

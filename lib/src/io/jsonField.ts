@@ -80,7 +80,10 @@ export function readJsonVectorField(input: Uint8Array | string | object, options
     } else if (a.length === n) {
       for (let c = 0; c < n; c++) {
         const v = a[c];
-        if (v === null) { m[3 * c] = NaN; continue; }
+        if (v === null) {
+          m[3 * c] = NaN;
+          continue;
+        }
         if (!Array.isArray(v) || v.length !== 3) throw new InputError(`${file}: m[${c}]`, v, "[mx, my, mz] or null (vacuum)");
         for (let q = 0; q < 3; q++) m[3 * c + q] = num(file, `m[${c}][${q}]`, v[q]);
       }
@@ -119,7 +122,14 @@ export function vectorFieldToJson(field: VectorField, extra: { boundary?: string
     for (let q = 0; q < 3; q++) m[3 * c + q] = vac ? null : field.m[3 * c + q]!;
   }
   return JSON.stringify({
-    kind: JSON_FIELD_KIND, version: 1, nx: field.nx, ny: field.ny, nz: field.nz,
-    cell: [field.dx, field.dy, field.dz], lattice: field.lattice, ...extra, m,
+    kind: JSON_FIELD_KIND,
+    version: 1,
+    nx: field.nx,
+    ny: field.ny,
+    nz: field.nz,
+    cell: [field.dx, field.dy, field.dz],
+    lattice: field.lattice,
+    ...extra,
+    m,
   });
 }

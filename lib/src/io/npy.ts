@@ -31,12 +31,16 @@ export function isNpy(bytes: Uint8Array): boolean {
 }
 
 export function parseNpyHeader(bytes: Uint8Array, file = "array.npy"): NpyHeader {
-  if (!isNpy(bytes)) throw new InputError(file, `${bytes.length} bytes starting with ${JSON.stringify(bytesToText(bytes.subarray(0, 6)))}`, 'a .npy file starting with "\\x93NUMPY"');
+  if (!isNpy(bytes))
+    throw new InputError(file, `${bytes.length} bytes starting with ${JSON.stringify(bytesToText(bytes.subarray(0, 6)))}`, 'a .npy file starting with "\\x93NUMPY"');
   if (bytes.length < 10) throw new InputError(file, `${bytes.length} bytes`, "a .npy header of at least 10 bytes");
-  const major = bytes[6]!, minor = bytes[7]!;
+  const major = bytes[6]!,
+    minor = bytes[7]!;
   let headerLen: number, start: number;
-  if (major === 1) { headerLen = bytes[8]! | (bytes[9]! << 8); start = 10; }
-  else if (major === 2 || major === 3) {
+  if (major === 1) {
+    headerLen = bytes[8]! | (bytes[9]! << 8);
+    start = 10;
+  } else if (major === 2 || major === 3) {
     if (bytes.length < 12) throw new InputError(file, `${bytes.length} bytes`, "a .npy v2/v3 header of at least 12 bytes");
     headerLen = (bytes[8]! | (bytes[9]! << 8) | (bytes[10]! << 16)) + bytes[11]! * 16777216;
     start = 12;
@@ -51,7 +55,11 @@ export function parseNpyHeader(bytes: Uint8Array, file = "array.npy"): NpyHeader
   if (descr === undefined || fo === undefined || shapeText === undefined) {
     throw new InputError(`${file}: header`, text.trim(), "a dict with 'descr', 'fortran_order' and 'shape'");
   }
-  const shape = shapeText.split(",").map((s) => s.trim()).filter((s) => s.length > 0).map(Number);
+  const shape = shapeText
+    .split(",")
+    .map((s) => s.trim())
+    .filter((s) => s.length > 0)
+    .map(Number);
   if (shape.some((n) => !Number.isInteger(n) || n < 0)) throw new InputError(`${file}: shape`, `(${shapeText})`, "a tuple of whole numbers");
   return { version: [major, minor], descr, fortranOrder: fo === "True", shape, dataOffset: start + headerLen };
 }
@@ -78,9 +86,11 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
   const dims = componentLast ? h.shape.slice(0, rank - 1) : h.shape.slice(1);
   const [nz, ny, nx] = dims.length === 2 ? [1, dims[0]!, dims[1]!] : [dims[0]!, dims[1]!, dims[2]!];
   const names = rank === 3 ? "ny, nx" : "nz, ny, nx";
-  notes.push(componentLast
-    ? `layout read: component-last (${names}, 3) = ${shapeStr}${h.shape[0] === 3 ? " (the shape would also fit component-first (3, " + names + "); component-last was chosen, the default)" : ""}`
-    : `layout read: component-first (3, ${names}) = ${shapeStr}`);
+  notes.push(
+    componentLast
+      ? `layout read: component-last (${names}, 3) = ${shapeStr}${h.shape[0] === 3 ? " (the shape would also fit component-first (3, " + names + "); component-last was chosen, the default)" : ""}`
+      : `layout read: component-first (3, ${names}) = ${shapeStr}`,
+  );
   if (nx < 1 || ny < 1 || nz < 1) throw new InputError(`${file}: shape`, shapeStr, `${EXPECTED_SHAPES} with every size >= 1`);
   checkFieldBudget(file, nx, ny, nz);
   const count = 3 * nx * ny * nz;
@@ -95,17 +105,18 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
     const view = new DataView(bytes.buffer, abs, need);
     const get = size === 8 ? (k: number) => view.getFloat64(8 * k, little) : (k: number) => view.getFloat32(4 * k, little);
     // element (c, k, j, i) of shape (3, nz, ny, nx): C order ((c nz + k) ny + j) nx + i; Fortran order c + 3 (k + nz (j + ny i))
-    for (let c = 0; c < 3; c++) for (let k = 0; k < nz; k++) for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) {
-      const src = h.fortranOrder ? c + 3 * (k + nz * (j + ny * i)) : ((c * nz + k) * ny + j) * nx + i;
-      out[3 * ((k * ny + j) * nx + i) + c] = get(src);
-    }
+    for (let c = 0; c < 3; c++)
+      for (let k = 0; k < nz; k++)
+        for (let j = 0; j < ny; j++)
+          for (let i = 0; i < nx; i++) {
+            const src = h.fortranOrder ? c + 3 * (k + nz * (j + ny * i)) : ((c * nz + k) * ny + j) * nx + i;
+            out[3 * ((k * ny + j) * nx + i) + c] = get(src);
+          }
   } else if (!h.fortranOrder && little && size === 8) {
     // C order little-endian float64 is our layout byte for byte: one copy.
     new Uint8Array(out.buffer).set(bytes.subarray(h.dataOffset, h.dataOffset + need));
   } else if (!h.fortranOrder && little && size === 4) {
-    const src = abs % 4 === 0
-      ? new Float32Array(bytes.buffer, abs, count)
-      : new Float32Array(bytes.slice(h.dataOffset, h.dataOffset + need).buffer);
+    const src = abs % 4 === 0 ? new Float32Array(bytes.buffer, abs, count) : new Float32Array(bytes.slice(h.dataOffset, h.dataOffset + need).buffer);
     for (let k = 0; k < count; k++) out[k] = src[k]!;
   } else {
     const view = new DataView(bytes.buffer, abs, need);
@@ -115,9 +126,12 @@ export function readNpyVectorField(bytes: Uint8Array, options: ReadOptions = {})
     } else {
       // Fortran order: element (k, j, i, c) of shape (nz, ny, nx, 3) sits at k + nz*(j + ny*(i + nx*c)).
       let src = 0;
-      for (let c = 0; c < 3; c++) for (let i = 0; i < nx; i++) for (let j = 0; j < ny; j++) for (let k = 0; k < nz; k++) {
-        out[3 * ((k * ny + j) * nx + i) + c] = get(src++);
-      }
+      for (let c = 0; c < 3; c++)
+        for (let i = 0; i < nx; i++)
+          for (let j = 0; j < ny; j++)
+            for (let k = 0; k < nz; k++) {
+              out[3 * ((k * ny + j) * nx + i) + c] = get(src++);
+            }
     }
   }
   const g: Parameters<typeof adoptInterleaved>[1] = { nx, ny, nz, dx: options.dx ?? 1e-9, source: file };
@@ -137,8 +151,10 @@ export function writeNpyVectorField(field: { nx: number; ny: number; nz: number;
   header += " ".repeat((64 - (total % 64)) % 64) + "\n";
   const out = new Uint8Array(10 + header.length + field.m.byteLength);
   out.set(MAGIC, 0);
-  out[6] = 1; out[7] = 0;
-  out[8] = header.length & 255; out[9] = header.length >> 8;
+  out[6] = 1;
+  out[7] = 0;
+  out[8] = header.length & 255;
+  out[9] = header.length >> 8;
   for (let k = 0; k < header.length; k++) out[10 + k] = header.charCodeAt(k);
   out.set(new Uint8Array(field.m.buffer, field.m.byteOffset, field.m.byteLength), 10 + header.length);
   return out;

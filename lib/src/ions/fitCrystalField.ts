@@ -57,15 +57,18 @@ export function fitCrystalField(input: CrystalFieldFitInput): CrystalFieldFitRes
   const all = [...names, ...Object.keys(input.fixed ?? {})];
   const lm = all.map((name) => parseTermName(name));
   const { energies, sigmas } = input;
-  if (!Array.isArray(energies) || energies.length === 0 || !energies.every(Number.isFinite)) throw new InputError("energies", energies, "a non-empty list of finite level energies in kelvin");
-  if (!Array.isArray(sigmas) || sigmas.length !== energies.length || !sigmas.every((s) => s > 0)) throw new InputError("sigmas", sigmas, `${energies.length} positive standard deviations`);
+  if (!Array.isArray(energies) || energies.length === 0 || !energies.every(Number.isFinite))
+    throw new InputError("energies", energies, "a non-empty list of finite level energies in kelvin");
+  if (!Array.isArray(sigmas) || sigmas.length !== energies.length || !sigmas.every((s) => s > 0))
+    throw new InputError("sigmas", sigmas, `${energies.length} positive standard deviations`);
   const kramers = t % 2 === 1;
   let index = input.levelIndex;
   if (!index) {
     if (!kramers) throw new InputError("levelIndex", index, "the eigenvalue index of each measured energy (a non-Kramers ion has singlets and doublets)");
     index = energies.map((_, k) => 2 * (k + 1));
   }
-  if (index.length !== energies.length || !index.every((i) => Number.isInteger(i) && i >= 1 && i < n)) throw new InputError("levelIndex", index, `one eigenvalue index from 1 to ${n - 1} per measured energy`);
+  if (index.length !== energies.length || !index.every((i) => Number.isInteger(i) && i >= 1 && i < n))
+    throw new InputError("levelIndex", index, `one eigenvalue index from 1 to ${n - 1} per measured energy`);
   if (names.length > energies.length) throw new InputError("free", names, `at most ${energies.length} coefficients for ${energies.length} measured energies`);
   const fixedVals = all.slice(names.length).map((name) => input.fixed![name]!);
   const m = energies.length;
@@ -77,7 +80,14 @@ export function fitCrystalField(input: CrystalFieldFitInput): CrystalFieldFitRes
   const runFrom = (start: number[]) =>
     solveLeastSquares(
       {
-        parameters: names.map((name, k) => ({ name, value: start[k]!, unit: "K", min: input.free[name]!.min, max: input.free[name]!.max, typical: Math.max(Math.abs(input.free[name]!.max), Math.abs(input.free[name]!.min)) / 10 })),
+        parameters: names.map((name, k) => ({
+          name,
+          value: start[k]!,
+          unit: "K",
+          min: input.free[name]!.min,
+          max: input.free[name]!.max,
+          typical: Math.max(Math.abs(input.free[name]!.max), Math.abs(input.free[name]!.min)) / 10,
+        })),
         m,
         model,
         y: Float64Array.from(energies),
@@ -95,7 +105,11 @@ export function fitCrystalField(input: CrystalFieldFitInput): CrystalFieldFitRes
     const fit = runFrom(st);
     if (!Number.isFinite(fit.chiSquare)) continue;
     const values = Object.fromEntries(names.map((name) => [name, fit.parameters[name]!.value]));
-    const same = solutions.find((s) => Math.abs(s.chiSquare - fit.chiSquare) < 1e-6 * Math.max(1, fit.chiSquare) && names.every((name) => Math.abs(s.values[name]! - values[name]!) < 1e-4 * Math.max(1e-12, Math.abs(input.free[name]!.max - input.free[name]!.min))));
+    const same = solutions.find(
+      (s) =>
+        Math.abs(s.chiSquare - fit.chiSquare) < 1e-6 * Math.max(1, fit.chiSquare) &&
+        names.every((name) => Math.abs(s.values[name]! - values[name]!) < 1e-4 * Math.max(1e-12, Math.abs(input.free[name]!.max - input.free[name]!.min))),
+    );
     if (!same) solutions.push({ chiSquare: fit.chiSquare, values, fit });
   }
   if (solutions.length === 0) throw new InputError("free", input.free, "bounds and starts from which the fit can evaluate the model");
@@ -122,7 +136,10 @@ const unitToKelvin: Record<string, number> = {
  *   2.35,0.05,2
  */
 export function readLevelCsv(text: string, source = "levels.csv"): { energies: number[]; sigmas: number[]; levelIndex?: number[] } {
-  const lines = text.split(/\r?\n/).map((l, i) => ({ l: l.replace(/#.*$/, "").trim(), n: i + 1 })).filter((x) => x.l !== "");
+  const lines = text
+    .split(/\r?\n/)
+    .map((l, i) => ({ l: l.replace(/#.*$/, "").trim(), n: i + 1 }))
+    .filter((x) => x.l !== "");
   if (lines.length < 2) throw new InputError(source, text.slice(0, 80), "a header line (energy_<unit>,sigma_<unit>[,index]) and at least one level");
   const header = lines[0]!.l.split(",").map((h) => h.trim());
   const eCol = header.findIndex((h) => h.startsWith("energy_"));
@@ -130,13 +147,17 @@ export function readLevelCsv(text: string, source = "levels.csv"): { energies: n
   const iCol = header.indexOf("index");
   if (eCol < 0 || sCol < 0) throw new InputError(`${source} line ${lines[0]!.n}`, lines[0]!.l, "columns energy_<unit> and sigma_<unit> (unit K, meV or cm-1)");
   const unit = header[eCol]!.slice("energy_".length);
-  if (!(unit in unitToKelvin) || header[sCol]!.slice("sigma_".length) !== unit) throw new InputError(`${source} line ${lines[0]!.n}`, lines[0]!.l, "energy and sigma in the same unit: K, meV or cm-1");
+  if (!(unit in unitToKelvin) || header[sCol]!.slice("sigma_".length) !== unit)
+    throw new InputError(`${source} line ${lines[0]!.n}`, lines[0]!.l, "energy and sigma in the same unit: K, meV or cm-1");
   const f = unitToKelvin[unit]!;
-  const energies: number[] = [], sigmas: number[] = [], index: number[] = [];
+  const energies: number[] = [],
+    sigmas: number[] = [],
+    index: number[] = [];
   for (const { l, n } of lines.slice(1)) {
     const cells = l.split(",").map((c) => c.trim());
     if (cells.length !== header.length) throw new InputError(`${source} line ${n}`, l, `${header.length} comma-separated values`);
-    const e = Number(cells[eCol]), s = Number(cells[sCol]);
+    const e = Number(cells[eCol]),
+      s = Number(cells[sCol]);
     if (cells[eCol] === "" || !Number.isFinite(e)) throw new InputError(`${source} line ${n}, ${header[eCol]}`, cells[eCol], "a finite number");
     if (cells[sCol] === "" || !(s > 0) || !Number.isFinite(s)) throw new InputError(`${source} line ${n}, ${header[sCol]}`, cells[sCol], "a positive number");
     energies.push(e * f);

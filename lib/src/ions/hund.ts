@@ -31,7 +31,9 @@ export function landeFactor(L: number, S: number, J: number): number {
 export function hundGroundTerm(electrons: number): Omit<HundTerm, "ion"> {
   if (!Number.isInteger(electrons) || electrons < 1 || electrons > 13) throw new InputError("electrons", electrons, "a whole number of 4f electrons from 1 to 13");
   // spin up electrons fill m_l = 3 ... -3, then spin down fill 3 ... -3
-  let up = 0, down = 0, Ml = 0;
+  let up = 0,
+    down = 0,
+    Ml = 0;
   for (let k = 0; k < electrons; k++) {
     const ml = 3 - (k % 7);
     if (k < 7) up++;

@@ -91,15 +91,20 @@ export function ionSpectrum(model: IonModel, field: [number, number, number] = [
 /** <i| A |j> for eigenvectors i, j (columns of the spectrum) and operator A: [re, im]. */
 export function matrixElement(sp: IonSpectrum, A: ComplexMatrix, i: number, j: number): [number, number] {
   const n = sp.n;
-  let re = 0, im = 0;
+  let re = 0,
+    im = 0;
   for (let p = 0; p < n; p++) {
     // conj(v_i[p])
-    const ar = sp.vectorsRe[p * n + i]!, ai = -sp.vectorsIm[p * n + i]!;
-    let sr = 0, si = 0;
+    const ar = sp.vectorsRe[p * n + i]!,
+      ai = -sp.vectorsIm[p * n + i]!;
+    let sr = 0,
+      si = 0;
     for (let q = 0; q < n; q++) {
-      const hr = A.re[p * n + q]!, hi = A.im[p * n + q]!;
+      const hr = A.re[p * n + q]!,
+        hi = A.im[p * n + q]!;
       if (hr === 0 && hi === 0) continue;
-      const br = sp.vectorsRe[q * n + j]!, bi = sp.vectorsIm[q * n + j]!;
+      const br = sp.vectorsRe[q * n + j]!,
+        bi = sp.vectorsIm[q * n + j]!;
       sr += hr * br - hi * bi;
       si += hr * bi + hi * br;
     }
@@ -152,17 +157,20 @@ export function groundDoubletGTensor(model: IonModel): GTensorResult {
   const kramers = (n - 1) % 2 === 1;
   const G: number[] = [];
   for (const A of [ops.x, ops.y, ops.z]) {
-    const m11 = matrixElement(sp, A, 0, 0), m22 = matrixElement(sp, A, 1, 1), m12 = matrixElement(sp, A, 0, 1);
+    const m11 = matrixElement(sp, A, 0, 0),
+      m22 = matrixElement(sp, A, 1, 1),
+      m12 = matrixElement(sp, A, 0, 1);
     // Tr(M sigma_x) = 2 Re M12, Tr(M sigma_y) = -2 Im M12 (M21 = conj M12), Tr(M sigma_z) = M11 - M22
     G.push(2 * model.gJ * m12[0], -2 * model.gJ * m12[1], model.gJ * (m11[0] - m22[0]));
   }
   // G G^T (symmetric 3 x 3): eigen-decomposition by the Hermitian solver (real input)
   const GGt = new Float64Array(9);
-  for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) {
-    let s = 0;
-    for (let k = 0; k < 3; k++) s += G[a * 3 + k]! * G[b * 3 + k]!;
-    GGt[a * 3 + b] = s;
-  }
+  for (let a = 0; a < 3; a++)
+    for (let b = 0; b < 3; b++) {
+      let s = 0;
+      for (let k = 0; k < 3; k++) s += G[a * 3 + k]! * G[b * 3 + k]!;
+      GGt[a * 3 + b] = s;
+    }
   const solver = new HermitianEigenSolver(3);
   solver.solve(GGt, new Float64Array(9), true);
   const principal: number[] = [];
@@ -175,8 +183,12 @@ export function groundDoubletGTensor(model: IonModel): GTensorResult {
   const gapToNext = n > 2 ? sp.energies[2]! - sp.energies[1]! : Infinity;
   const notes: string[] = [];
   const scale = Math.max(1, Math.abs(sp.energies[n - 1]! - sp.energies[0]!));
-  if (splitting > 1e-7 * scale) notes.push(`the two lowest levels are split by ${splitting.toPrecision(4)} K at zero field: a quasi-doublet; the g-tensor is that of the pair and holds only for Zeeman energies well above the splitting`);
-  if (n > 2 && gapToNext < 1e-7 * scale) notes.push("the ground level is more than two-fold degenerate: the doublet g-tensor depends on the states picked; add crystal-field terms that split it");
+  if (splitting > 1e-7 * scale)
+    notes.push(
+      `the two lowest levels are split by ${splitting.toPrecision(4)} K at zero field: a quasi-doublet; the g-tensor is that of the pair and holds only for Zeeman energies well above the splitting`,
+    );
+  if (n > 2 && gapToNext < 1e-7 * scale)
+    notes.push("the ground level is more than two-fold degenerate: the doublet g-tensor depends on the states picked; add crystal-field terms that split it");
   return { principal: principal as [number, number, number], axes, G, splitting, gapToNext, kramers, notes };
 }
 
@@ -189,7 +201,9 @@ export function zeemanDiagram(model: IonModel, dir: [number, number, number], fi
 export function schottkyHeat(energies: ArrayLike<number>, T: number): number {
   if (!(T > 0)) throw new InputError("T", T, "a positive temperature in kelvin");
   const e0 = Math.min(...Array.from(energies));
-  let Z = 0, E1 = 0, E2 = 0;
+  let Z = 0,
+    E1 = 0,
+    E2 = 0;
   for (let i = 0; i < energies.length; i++) {
     const x = (energies[i]! - e0) / T;
     const w = Math.exp(-x);
@@ -212,7 +226,8 @@ export function magnetization(model: IonModel, dir: [number, number, number], B:
   addScaled(Jn, ops.y, dir[1]);
   addScaled(Jn, ops.z, dir[2]);
   const e0 = sp.energies[0]!;
-  let Z = 0, m = 0;
+  let Z = 0,
+    m = 0;
   for (let i = 0; i < sp.n; i++) {
     const x = sp.energies[i]! - e0;
     const w = T > 0 ? Math.exp(-x / T) : x < 1e-9 * Math.max(1, Math.abs(e0)) ? 1 : 0;
@@ -255,10 +270,12 @@ export function neutronTransitions(model: IonModel, T: number, minPopulation = 1
     if (pop < minPopulation) continue;
     for (const gj of groups) {
       let total = 0;
-      for (const i of gi.states) for (const j of gj.states) for (const A of [ops.x, ops.y, ops.z]) {
-        const [re, im] = matrixElement(sp, A, i, j);
-        total += re * re + im * im;
-      }
+      for (const i of gi.states)
+        for (const j of gj.states)
+          for (const A of [ops.x, ops.y, ops.z]) {
+            const [re, im] = matrixElement(sp, A, i, j);
+            total += re * re + im * im;
+          }
       total /= gi.states.length;
       out.push({ from: gi.energy - e0, to: gj.energy - e0, energy: gj.energy - gi.energy, total, powder: (2 / 3) * total, population: pop });
     }

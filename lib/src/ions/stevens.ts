@@ -53,10 +53,12 @@ export function matMul(a: ComplexMatrix, b: ComplexMatrix): ComplexMatrix {
   const c = zeroMatrix(n);
   for (let i = 0; i < n; i++) {
     for (let k = 0; k < n; k++) {
-      const ar = a.re[i * n + k]!, ai = a.im[i * n + k]!;
+      const ar = a.re[i * n + k]!,
+        ai = a.im[i * n + k]!;
       if (ar === 0 && ai === 0) continue;
       for (let j = 0; j < n; j++) {
-        const br = b.re[k * n + j]!, bi = b.im[k * n + j]!;
+        const br = b.re[k * n + j]!,
+          bi = b.im[k * n + j]!;
         c.re[i * n + j]! += ar * br - ai * bi;
         c.im[i * n + j]! += ar * bi + ai * br;
       }
@@ -78,7 +80,11 @@ export function angularMomentum(J: number): { x: ComplexMatrix; y: ComplexMatrix
   const t = twiceJ(J);
   const n = t + 1;
   const jj = t / 2;
-  const x = zeroMatrix(n), y = zeroMatrix(n), z = zeroMatrix(n), plus = zeroMatrix(n), minus = zeroMatrix(n);
+  const x = zeroMatrix(n),
+    y = zeroMatrix(n),
+    z = zeroMatrix(n),
+    plus = zeroMatrix(n),
+    minus = zeroMatrix(n);
   for (let i = 0; i < n; i++) {
     const M = jj - i;
     z.re[i * n + i] = M;
@@ -153,7 +159,11 @@ export function stevensPolynomial(l: number, m: number): Map<string, number> {
 function harmonic(l: number, m: number): Poly {
   const am = Math.abs(m);
   const coeffs = legendreDerivativeCoefficients(l, am);
-  const r2: Poly = new Map([[key(2, 0, 0), 1], [key(0, 2, 0), 1], [key(0, 0, 2), 1]]);
+  const r2: Poly = new Map([
+    [key(2, 0, 0), 1],
+    [key(0, 2, 0), 1],
+    [key(0, 0, 2), 1],
+  ]);
   // z part: sum_k c_k z^(l - m - 2k) r^(2k)
   const zPart: Poly = new Map();
   let r2k: Poly = new Map([[0, 1]]);

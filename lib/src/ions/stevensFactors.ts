@@ -62,11 +62,12 @@ const Lz: Term[] = Array.from({ length: 14 }, (_, k) => [k, k, mOf(k)] as Term);
 const Sz: Term[] = Array.from({ length: 14 }, (_, k) => [k, k, upOf(k) ? 0.5 : -0.5] as Term);
 const Lp: Term[] = [];
 const Lm: Term[] = [];
-for (let m = -l; m < l; m++) for (const up of [true, false]) {
-  const c = Math.sqrt(l * (l + 1) - m * (m + 1));
-  Lp.push([orb(m + 1, up), orb(m, up), c]);
-  Lm.push([orb(m, up), orb(m + 1, up), c]);
-}
+for (let m = -l; m < l; m++)
+  for (const up of [true, false]) {
+    const c = Math.sqrt(l * (l + 1) - m * (m + 1));
+    Lp.push([orb(m + 1, up), orb(m, up), c]);
+    Lm.push([orb(m, up), orb(m + 1, up), c]);
+  }
 const Sp: Term[] = [];
 const Sm: Term[] = [];
 for (let m = -l; m <= l; m++) {
@@ -126,7 +127,8 @@ export function stevensFactors(electrons: number): StevensFactors {
   const H = new Float64Array(dim * dim);
   basis.forEach((mask, col) => {
     const v: Vec = new Map([[mask, 1]]);
-    const lz = applyOneBody(v, Lz), sz = applyOneBody(v, Sz);
+    const lz = applyOneBody(v, Lz),
+      sz = applyOneBody(v, Sz);
     const L2 = add(add(applyOneBody(applyOneBody(v, Lp), Lm), applyOneBody(lz, Lz), 1), lz, 1);
     const S2 = add(add(applyOneBody(applyOneBody(v, Sp), Sm), applyOneBody(sz, Sz), 1), sz, 1);
     // L.S = Lz Sz + (L+ S- + L- S+)/2

@@ -55,7 +55,15 @@ export function latticePreset(name: "square" | "triangular" | "honeycomb"): Latt
     case "triangular":
       return { name, a1: [1, 0], a2: [0.5, s3 / 2], basis: [[0, 0]] };
     case "honeycomb":
-      return { name, a1: [s3, 0], a2: [s3 / 2, 1.5], basis: [[0, 0], [0, 1]] };
+      return {
+        name,
+        a1: [s3, 0],
+        a2: [s3 / 2, 1.5],
+        basis: [
+          [0, 0],
+          [0, 1],
+        ],
+      };
     default:
       throw new InputError("lattice", name, "square, triangular or honeycomb");
   }
@@ -76,11 +84,14 @@ function checkLattice(lat: Lattice2D): void {
   if (lat.basis.length < 1 || lat.basis.length > 64) throw new InputError("basis", lat.basis.length, "1 to 64 basis sites");
   // distinct basis sites (modulo the lattice)
   const { b1, b2 } = reciprocalVectors(lat);
-  for (let i = 0; i < lat.basis.length; i++) for (let j = 0; j < i; j++) {
-    const d: Vec2 = [lat.basis[i]![0] - lat.basis[j]![0], lat.basis[i]![1] - lat.basis[j]![1]];
-    const f1 = (d[0] * b1[0] + d[1] * b1[1]) / (2 * Math.PI), f2 = (d[0] * b2[0] + d[1] * b2[1]) / (2 * Math.PI);
-    if (Math.abs(f1 - Math.round(f1)) < 1e-9 && Math.abs(f2 - Math.round(f2)) < 1e-9) throw new InputError("basis", lat.basis, "basis sites that are distinct modulo the lattice");
-  }
+  for (let i = 0; i < lat.basis.length; i++)
+    for (let j = 0; j < i; j++) {
+      const d: Vec2 = [lat.basis[i]![0] - lat.basis[j]![0], lat.basis[i]![1] - lat.basis[j]![1]];
+      const f1 = (d[0] * b1[0] + d[1] * b1[1]) / (2 * Math.PI),
+        f2 = (d[0] * b2[0] + d[1] * b2[1]) / (2 * Math.PI);
+      if (Math.abs(f1 - Math.round(f1)) < 1e-9 && Math.abs(f2 - Math.round(f2)) < 1e-9)
+        throw new InputError("basis", lat.basis, "basis sites that are distinct modulo the lattice");
+    }
 }
 
 /** Integer ranges covering all lattice points R (plus offsets up to `shift`) with |R| <= radius. */
@@ -112,67 +123,105 @@ export function dipolarTensor(lat: Lattice2D, q: Vec2, options: EwaldOptions = {
   const cut = options.cut ?? 6.5;
   const nb = lat.basis.length;
   const N = 3 * nb;
-  const re = new Float64Array(N * N), im = new Float64Array(N * N);
-  const rCut = cut / eta, kCut = 2 * eta * cut;
+  const re = new Float64Array(N * N),
+    im = new Float64Array(N * N);
+  const rCut = cut / eta,
+    kCut = 2 * eta * cut;
   const nR = latticeRange(lat.a1, lat.a2, rCut + 2 * maxBasisSpread(lat));
   const nG = latticeRange(b1, b2, kCut + Math.hypot(...q));
   if ((2 * nR + 1) ** 2 * nb * nb > 5e7 || (2 * nG + 1) ** 2 * nb * nb > 5e7) throw new InputError("eta", eta, "a splitting parameter that keeps both Ewald sums below 5e7 terms");
   const twoEtaOverSqrtPi = (2 * eta) / sqrtPi;
-  for (let a = 0; a < nb; a++) for (let b = 0; b < nb; b++) {
-    const rho: Vec2 = [lat.basis[b]![0] - lat.basis[a]![0], lat.basis[b]![1] - lat.basis[a]![1]];
-    let xx = 0, xy = 0, yy = 0, zz = 0, ixx = 0, ixy = 0, iyy = 0, izz = 0;
-    // real space
-    for (let n1 = -nR; n1 <= nR; n1++) for (let n2 = -nR; n2 <= nR; n2++) {
-      const rx = n1 * lat.a1[0] + n2 * lat.a2[0] + rho[0];
-      const ry = n1 * lat.a1[1] + n2 * lat.a2[1] + rho[1];
-      const r2 = rx * rx + ry * ry;
-      if (r2 < 1e-24 || r2 > rCut * rCut) continue;
-      const r = Math.sqrt(r2);
-      const ec = erfc(eta * r);
-      const g = twoEtaOverSqrtPi * Math.exp(-eta * eta * r2);
-      const B = ec / (r2 * r) + g / r2;
-      const C = (3 * ec) / (r2 * r2 * r) + g * (3 / (r2 * r2) + (2 * eta * eta) / r2);
-      const ph = q[0] * rx + q[1] * ry;
-      const c = Math.cos(ph), s = Math.sin(ph);
-      const dxx = B - C * rx * rx, dxy = -C * rx * ry, dyy = B - C * ry * ry, dzz = B;
-      xx += dxx * c; ixx += dxx * s;
-      xy += dxy * c; ixy += dxy * s;
-      yy += dyy * c; iyy += dyy * s;
-      zz += dzz * c; izz += dzz * s;
-    }
-    // reciprocal space: (1/A) sum_G f(G + q) e^{i G . rho} (Poisson summation of D(r) e^{i q . r}: the transform at G - q)
-    for (let m1 = -nG; m1 <= nG; m1++) for (let m2 = -nG; m2 <= nG; m2++) {
-      const Gx = m1 * b1[0] + m2 * b2[0], Gy = m1 * b1[1] + m2 * b2[1];
-      const kx = Gx - q[0], ky = Gy - q[1];
-      const k = Math.hypot(kx, ky);
-      if (k > kCut) continue;
-      const u = k / (2 * eta);
-      const ph = Gx * rho[0] + Gy * rho[1];
-      const c = Math.cos(ph) / area, s = Math.sin(ph) / area;
-      const fz = -2 * Math.PI * k * erfc(u) + 4 * sqrtPi * eta * Math.exp(-u * u);
-      zz += fz * c; izz += fz * s;
-      if (k > 0) {
-        const F = ((2 * Math.PI) / k) * erfc(u);
-        xx += kx * kx * F * c; ixx += kx * kx * F * s;
-        xy += kx * ky * F * c; ixy += kx * ky * F * s;
-        yy += ky * ky * F * c; iyy += ky * ky * F * s;
+  for (let a = 0; a < nb; a++)
+    for (let b = 0; b < nb; b++) {
+      const rho: Vec2 = [lat.basis[b]![0] - lat.basis[a]![0], lat.basis[b]![1] - lat.basis[a]![1]];
+      let xx = 0,
+        xy = 0,
+        yy = 0,
+        zz = 0,
+        ixx = 0,
+        ixy = 0,
+        iyy = 0,
+        izz = 0;
+      // real space
+      for (let n1 = -nR; n1 <= nR; n1++)
+        for (let n2 = -nR; n2 <= nR; n2++) {
+          const rx = n1 * lat.a1[0] + n2 * lat.a2[0] + rho[0];
+          const ry = n1 * lat.a1[1] + n2 * lat.a2[1] + rho[1];
+          const r2 = rx * rx + ry * ry;
+          if (r2 < 1e-24 || r2 > rCut * rCut) continue;
+          const r = Math.sqrt(r2);
+          const ec = erfc(eta * r);
+          const g = twoEtaOverSqrtPi * Math.exp(-eta * eta * r2);
+          const B = ec / (r2 * r) + g / r2;
+          const C = (3 * ec) / (r2 * r2 * r) + g * (3 / (r2 * r2) + (2 * eta * eta) / r2);
+          const ph = q[0] * rx + q[1] * ry;
+          const c = Math.cos(ph),
+            s = Math.sin(ph);
+          const dxx = B - C * rx * rx,
+            dxy = -C * rx * ry,
+            dyy = B - C * ry * ry,
+            dzz = B;
+          xx += dxx * c;
+          ixx += dxx * s;
+          xy += dxy * c;
+          ixy += dxy * s;
+          yy += dyy * c;
+          iyy += dyy * s;
+          zz += dzz * c;
+          izz += dzz * s;
+        }
+      // reciprocal space: (1/A) sum_G f(G + q) e^{i G . rho} (Poisson summation of D(r) e^{i q . r}: the transform at G - q)
+      for (let m1 = -nG; m1 <= nG; m1++)
+        for (let m2 = -nG; m2 <= nG; m2++) {
+          const Gx = m1 * b1[0] + m2 * b2[0],
+            Gy = m1 * b1[1] + m2 * b2[1];
+          const kx = Gx - q[0],
+            ky = Gy - q[1];
+          const k = Math.hypot(kx, ky);
+          if (k > kCut) continue;
+          const u = k / (2 * eta);
+          const ph = Gx * rho[0] + Gy * rho[1];
+          const c = Math.cos(ph) / area,
+            s = Math.sin(ph) / area;
+          const fz = -2 * Math.PI * k * erfc(u) + 4 * sqrtPi * eta * Math.exp(-u * u);
+          zz += fz * c;
+          izz += fz * s;
+          if (k > 0) {
+            const F = ((2 * Math.PI) / k) * erfc(u);
+            xx += kx * kx * F * c;
+            ixx += kx * kx * F * s;
+            xy += kx * ky * F * c;
+            ixy += kx * ky * F * s;
+            yy += ky * ky * F * c;
+            iyy += ky * ky * F * s;
+          }
+        }
+      if (a === b) {
+        const self = (4 * eta ** 3) / (3 * sqrtPi);
+        xx -= self;
+        yy -= self;
+        zz -= self;
       }
+      const put = (al: number, be: number, vr: number, vi: number) => {
+        re[(3 * a + al) * N + 3 * b + be] = vr;
+        im[(3 * a + al) * N + 3 * b + be] = vi;
+      };
+      put(0, 0, xx, ixx);
+      put(0, 1, xy, ixy);
+      put(1, 0, xy, ixy);
+      put(1, 1, yy, iyy);
+      put(2, 2, zz, izz);
     }
-    if (a === b) {
-      const self = (4 * eta ** 3) / (3 * sqrtPi);
-      xx -= self; yy -= self; zz -= self;
-    }
-    const put = (al: number, be: number, vr: number, vi: number) => {
-      re[(3 * a + al) * N + 3 * b + be] = vr;
-      im[(3 * a + al) * N + 3 * b + be] = vi;
-    };
-    put(0, 0, xx, ixx); put(0, 1, xy, ixy); put(1, 0, xy, ixy); put(1, 1, yy, iyy); put(2, 2, zz, izz);
-  }
   // exact Hermitian symmetry (J^{ba} = conj J^{ab}) against rounding
-  for (let i = 0; i < N; i++) for (let j = 0; j < i; j++) {
-    const r = (re[i * N + j]! + re[j * N + i]!) / 2, s = (im[i * N + j]! - im[j * N + i]!) / 2;
-    re[i * N + j] = r; re[j * N + i] = r; im[i * N + j] = s; im[j * N + i] = -s;
-  }
+  for (let i = 0; i < N; i++)
+    for (let j = 0; j < i; j++) {
+      const r = (re[i * N + j]! + re[j * N + i]!) / 2,
+        s = (im[i * N + j]! - im[j * N + i]!) / 2;
+      re[i * N + j] = r;
+      re[j * N + i] = r;
+      im[i * N + j] = s;
+      im[j * N + i] = -s;
+    }
   for (let i = 0; i < N; i++) im[i * N + i] = 0;
   return { n: N, re, im };
 }
@@ -189,27 +238,38 @@ function maxBasisSpread(lat: Lattice2D): number {
  */
 export function dipolarTensorDirect(lat: Lattice2D, q: Vec2, radius: number): { n: number; re: Float64Array; im: Float64Array } {
   checkLattice(lat);
-  const nb = lat.basis.length, N = 3 * nb;
-  const re = new Float64Array(N * N), im = new Float64Array(N * N);
+  const nb = lat.basis.length,
+    N = 3 * nb;
+  const re = new Float64Array(N * N),
+    im = new Float64Array(N * N);
   const nR = latticeRange(lat.a1, lat.a2, radius + 2 * maxBasisSpread(lat));
   if ((2 * nR + 1) ** 2 * nb * nb > 2e8) throw new InputError("radius", radius, "a cutoff radius with at most 2e8 terms");
-  for (let a = 0; a < nb; a++) for (let b = 0; b < nb; b++) {
-    const rho: Vec2 = [lat.basis[b]![0] - lat.basis[a]![0], lat.basis[b]![1] - lat.basis[a]![1]];
-    for (let n1 = -nR; n1 <= nR; n1++) for (let n2 = -nR; n2 <= nR; n2++) {
-      const rx = n1 * lat.a1[0] + n2 * lat.a2[0] + rho[0];
-      const ry = n1 * lat.a1[1] + n2 * lat.a2[1] + rho[1];
-      const r2 = rx * rx + ry * ry;
-      if (r2 < 1e-24 || r2 > radius * radius) continue;
-      const r3 = r2 * Math.sqrt(r2), r5 = r3 * r2;
-      const ph = q[0] * rx + q[1] * ry;
-      const c = Math.cos(ph), s = Math.sin(ph);
-      const d = [[1 / r3 - (3 * rx * rx) / r5, (-3 * rx * ry) / r5, 0], [(-3 * rx * ry) / r5, 1 / r3 - (3 * ry * ry) / r5, 0], [0, 0, 1 / r3]];
-      for (let al = 0; al < 3; al++) for (let be = 0; be < 3; be++) {
-        re[(3 * a + al) * N + 3 * b + be]! += d[al]![be]! * c;
-        im[(3 * a + al) * N + 3 * b + be]! += d[al]![be]! * s;
-      }
+  for (let a = 0; a < nb; a++)
+    for (let b = 0; b < nb; b++) {
+      const rho: Vec2 = [lat.basis[b]![0] - lat.basis[a]![0], lat.basis[b]![1] - lat.basis[a]![1]];
+      for (let n1 = -nR; n1 <= nR; n1++)
+        for (let n2 = -nR; n2 <= nR; n2++) {
+          const rx = n1 * lat.a1[0] + n2 * lat.a2[0] + rho[0];
+          const ry = n1 * lat.a1[1] + n2 * lat.a2[1] + rho[1];
+          const r2 = rx * rx + ry * ry;
+          if (r2 < 1e-24 || r2 > radius * radius) continue;
+          const r3 = r2 * Math.sqrt(r2),
+            r5 = r3 * r2;
+          const ph = q[0] * rx + q[1] * ry;
+          const c = Math.cos(ph),
+            s = Math.sin(ph);
+          const d = [
+            [1 / r3 - (3 * rx * rx) / r5, (-3 * rx * ry) / r5, 0],
+            [(-3 * rx * ry) / r5, 1 / r3 - (3 * ry * ry) / r5, 0],
+            [0, 0, 1 / r3],
+          ];
+          for (let al = 0; al < 3; al++)
+            for (let be = 0; be < 3; be++) {
+              re[(3 * a + al) * N + 3 * b + be]! += d[al]![be]! * c;
+              im[(3 * a + al) * N + 3 * b + be]! += d[al]![be]! * s;
+            }
+        }
     }
-  }
   return { n: N, re, im };
 }
 
@@ -263,7 +323,16 @@ export function luttingerTisza(lat: Lattice2D, grid = 24, options: EwaldOptions 
   let step = 0.5 / grid;
   for (let it = 0; it < 40 && step > 1e-7; it++) {
     let moved = false;
-    for (const [d1, d2] of [[step, 0], [-step, 0], [0, step], [0, -step], [step, step], [-step, -step], [step, -step], [-step, step]] as const) {
+    for (const [d1, d2] of [
+      [step, 0],
+      [-step, 0],
+      [0, step],
+      [0, -step],
+      [step, step],
+      [-step, -step],
+      [step, -step],
+      [-step, step],
+    ] as const) {
       const e = lowest(f1 + d1, f2 + d2);
       if (e < best - 1e-13 * scale) {
         [f1, f2, best] = [f1 + d1, f2 + d2, e];
@@ -279,7 +348,8 @@ export function luttingerTisza(lat: Lattice2D, grid = 24, options: EwaldOptions 
   while (degeneracy < N && bands.values[degeneracy]! - bands.values[0]! < 1e-8 * scale) degeneracy++;
   const spread = spinLengthSpread(lat, qMin, bands, degeneracy);
   if (cands.length > 1) notes.push(`${cands.length} grid points share the minimum (symmetry-related or a degenerate line)`);
-  if (spread > 1e-6) notes.push(`the Luttinger-Tisza eigenvectors at the minimum do not give equal spin lengths (spread ${spread.toExponential(2)}): E = lambda/2 is then a lower bound only`);
+  if (spread > 1e-6)
+    notes.push(`the Luttinger-Tisza eigenvectors at the minimum do not give equal spin lengths (spread ${spread.toExponential(2)}): E = lambda/2 is then a lower bound only`);
   return { lambdaMin: best, energyPerSite: best / 2, qMin: [qMin], fractional: [[f1, f2]], degeneracy, spinLengthSpread: spread, notes };
 }
 
@@ -287,22 +357,22 @@ export function luttingerTisza(lat: Lattice2D, grid = 24, options: EwaldOptions 
  * Spin lengths of S_i = Re(u_a e^{i q . r_i}) for u in the lowest eigenspace: scan real combinations
  * of the degenerate eigenvectors (with a global complex phase) and return the best spread found.
  */
-export function spinLengthSpread(
-  lat: Lattice2D,
-  q: Vec2,
-  bands: { values: Float64Array; vectorsRe: Float64Array; vectorsIm: Float64Array },
-  degeneracy: number,
-): number {
-  const nb = lat.basis.length, N = 3 * nb;
+export function spinLengthSpread(lat: Lattice2D, q: Vec2, bands: { values: Float64Array; vectorsRe: Float64Array; vectorsIm: Float64Array }, degeneracy: number): number {
+  const nb = lat.basis.length,
+    N = 3 * nb;
   const sites: Array<[number, number, number]> = []; // basis index, rx, ry
-  for (let n1 = -3; n1 <= 3; n1++) for (let n2 = -3; n2 <= 3; n2++) for (let a = 0; a < nb; a++) {
-    sites.push([a, n1 * lat.a1[0] + n2 * lat.a2[0] + lat.basis[a]![0], n1 * lat.a1[1] + n2 * lat.a2[1] + lat.basis[a]![1]]);
-  }
+  for (let n1 = -3; n1 <= 3; n1++)
+    for (let n2 = -3; n2 <= 3; n2++)
+      for (let a = 0; a < nb; a++) {
+        sites.push([a, n1 * lat.a1[0] + n2 * lat.a2[0] + lat.basis[a]![0], n1 * lat.a1[1] + n2 * lat.a2[1] + lat.basis[a]![1]]);
+      }
   const spreadOf = (uRe: number[], uIm: number[]) => {
-    let lo = Infinity, hi = 0;
+    let lo = Infinity,
+      hi = 0;
     for (const [a, rx, ry] of sites) {
       const ph = q[0] * rx + q[1] * ry;
-      const c = Math.cos(ph), s = Math.sin(ph);
+      const c = Math.cos(ph),
+        s = Math.sin(ph);
       let l2 = 0;
       for (let al = 0; al < 3; al++) {
         const x = uRe[3 * a + al]! * c - uIm[3 * a + al]! * s;
@@ -318,13 +388,17 @@ export function spinLengthSpread(
   const steps = d === 1 ? 1 : 24;
   for (let t = 0; t < steps; t++) {
     for (let p = 0; p < (d === 1 ? 1 : 24); p++) {
-      const th = (Math.PI * t) / steps, ps = (2 * Math.PI * p) / 24;
+      const th = (Math.PI * t) / steps,
+        ps = (2 * Math.PI * p) / 24;
       // u = cos th v0 + e^{i ps} sin th v1
-      const uRe: number[] = [], uIm: number[] = [];
+      const uRe: number[] = [],
+        uIm: number[] = [];
       for (let k = 0; k < N; k++) {
-        let r = Math.cos(th) * bands.vectorsRe[k * N]!, i = Math.cos(th) * bands.vectorsIm[k * N]!;
+        let r = Math.cos(th) * bands.vectorsRe[k * N]!,
+          i = Math.cos(th) * bands.vectorsIm[k * N]!;
         if (d > 1) {
-          const vr = bands.vectorsRe[k * N + 1]!, vi = bands.vectorsIm[k * N + 1]!;
+          const vr = bands.vectorsRe[k * N + 1]!,
+            vi = bands.vectorsIm[k * N + 1]!;
           r += Math.sin(th) * (Math.cos(ps) * vr - Math.sin(ps) * vi);
           i += Math.sin(th) * (Math.cos(ps) * vi + Math.sin(ps) * vr);
         }
@@ -342,12 +416,14 @@ export function modeEnergy(lat: Lattice2D, q: Vec2, uRe: number[], uIm: number[]
   const J = dipolarTensor(lat, q, options);
   const N = J.n;
   let e = 0;
-  for (let i = 0; i < N; i++) for (let j = 0; j < N; j++) {
-    // Re[conj(u_i) J_ij u_j]
-    const jr = J.re[i * N + j]!, ji = J.im[i * N + j]!;
-    const pr = jr * uRe[j]! - ji * uIm[j]!, pi = jr * uIm[j]! + ji * uRe[j]!;
-    e += uRe[i]! * pr + uIm[i]! * pi;
-  }
+  for (let i = 0; i < N; i++)
+    for (let j = 0; j < N; j++) {
+      // Re[conj(u_i) J_ij u_j]
+      const jr = J.re[i * N + j]!,
+        ji = J.im[i * N + j]!;
+      const pr = jr * uRe[j]! - ji * uIm[j]!,
+        pi = jr * uIm[j]! + ji * uRe[j]!;
+      e += uRe[i]! * pr + uIm[i]! * pi;
+    }
   return e / (4 * lat.basis.length);
 }
-

@@ -72,7 +72,8 @@ export function boseHubbardMeanField(ztOverU: number, muOverU: number, nMax = 12
   if (!Number.isInteger(nMax) || nMax < 2 || nMax > 200) throw new InputError("nMax", nMax, "a Fock cutoff from 2 to 200");
   const dim = nMax + 1;
   const solver = new HermitianEigenSolver(dim);
-  const Hre = new Float64Array(dim * dim), Him = new Float64Array(dim * dim);
+  const Hre = new Float64Array(dim * dim),
+    Him = new Float64Array(dim * dim);
   const site = (psi: number) => {
     Hre.fill(0);
     for (let n = 0; n <= nMax; n++) {
@@ -95,7 +96,8 @@ export function boseHubbardMeanField(ztOverU: number, muOverU: number, nMax = 12
     if (site(0) <= r.f + 1e-14 * Math.max(1, Math.abs(r.f))) psi = 0;
   }
   const energy = site(psi);
-  let b = 0, dens = 0;
+  let b = 0,
+    dens = 0;
   for (let n = 0; n <= nMax; n++) {
     const cn = solver.vectorsRe[n * dim]!;
     dens += n * cn * cn;
@@ -139,11 +141,13 @@ function checkSpin(S: number): number {
 export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: number; mPerp: number }, T = 0): EasyPlaneState {
   if (!(T >= 0) || !Number.isFinite(T)) throw new InputError("T", T, "a temperature >= 0 K");
   const n = checkSpin(p.S);
-  if (!Number.isFinite(p.D) || !Number.isFinite(p.zJ) || !(p.zJ >= 0) || !Number.isFinite(p.Delta)) throw new InputError("D, zJ, Delta", p, "finite D, zJ >= 0 (antiferromagnetic) and Delta");
+  if (!Number.isFinite(p.D) || !Number.isFinite(p.zJ) || !(p.zJ >= 0) || !Number.isFinite(p.Delta))
+    throw new InputError("D, zJ, Delta", p, "finite D, zJ >= 0 (antiferromagnetic) and Delta");
   if (!Number.isFinite(h)) throw new InputError("h", h, "a finite field energy in kelvin");
   const S = p.S;
   const solver = new HermitianEigenSolver(n);
-  const Hre = new Float64Array(n * n), Him = new Float64Array(n * n);
+  const Hre = new Float64Array(n * n),
+    Him = new Float64Array(n * n);
   const sx: number[] = [];
   for (let i = 1; i < n; i++) {
     const M = S - i; // row i - 1 holds M + 1
@@ -160,7 +164,10 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
       }
     }
     solver.solve(Hre, Him, true);
-    let ez = 0, ez2 = 0, ex = 0, Z = 0;
+    let ez = 0,
+      ez2 = 0,
+      ex = 0,
+      Z = 0;
     const e0 = solver.values[0]!;
     for (let k = 0; k < (T > 0 ? n : 1); k++) {
       const w = T > 0 ? Math.exp(-(solver.values[k]! - e0) / T) : 1;
@@ -184,14 +191,22 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
     return { mz: ez, mp: Math.abs(ex), energy: p.D * ez2 - h * ez + (p.zJ / 2) * (p.Delta * ez * ez - ex * ex) };
   };
   let best: EasyPlaneState | null = null;
-  const starts: Array<readonly [number, number]> = [[0, S], [S, 0.5], [0, 0], [S, 0]];
+  const starts: Array<readonly [number, number]> = [
+    [0, S],
+    [S, 0.5],
+    [0, 0],
+    [S, 0],
+  ];
   // a given start (the solution at a neighbouring field) first, nudged off m_perp = 0
   if (start) starts.unshift([start.mz, Math.max(start.mPerp, 0.05)]);
   for (const start0 of starts) {
     const [mz0, mp0] = start0;
     // Newton on the residual F(m) = m_out(m) - m (finite-difference 2 x 2 Jacobian, halving line
     // search on |F|), m = (m_z, m_perp >= 0); plain iteration is slow where the map is marginal
-    let mz = mz0, mp = mp0, it = 0, e = 0;
+    let mz = mz0,
+      mp = mp0,
+      it = 0,
+      e = 0;
     const resid = (a: number, b: number) => {
       const r = siteSolve(a, b);
       return [r.mz - a, r.mp - b] as const;
@@ -201,8 +216,12 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
       const nF = Math.hypot(F[0], F[1]);
       if (nF < 1e-12) break;
       const hstep = 1e-7;
-      const Fa = resid(mz + hstep, mp), Fb = resid(mz, mp + hstep);
-      const j11 = (Fa[0] - F[0]) / hstep, j21 = (Fa[1] - F[1]) / hstep, j12 = (Fb[0] - F[0]) / hstep, j22 = (Fb[1] - F[1]) / hstep;
+      const Fa = resid(mz + hstep, mp),
+        Fb = resid(mz, mp + hstep);
+      const j11 = (Fa[0] - F[0]) / hstep,
+        j21 = (Fa[1] - F[1]) / hstep,
+        j12 = (Fb[0] - F[0]) / hstep,
+        j22 = (Fb[1] - F[1]) / hstep;
       const det = j11 * j22 - j12 * j21;
       let dz: number, dp: number;
       if (Math.abs(det) > 1e-14) {
@@ -212,9 +231,11 @@ export function easyPlaneMeanField(p: EasyPlaneParams, h: number, start?: { mz: 
         dz = F[0];
         dp = F[1];
       }
-      let t = 1, accepted = false;
+      let t = 1,
+        accepted = false;
       for (let k = 0; k < 12; k++) {
-        const nz = mz + t * dz, np = Math.max(0, mp + t * dp);
+        const nz = mz + t * dz,
+          np = Math.max(0, mp + t * dp);
         const Fn = resid(nz, np);
         if (Math.hypot(Fn[0], Fn[1]) < nF) {
           mz = nz;
@@ -250,10 +271,11 @@ export function spinOneCriticalFields(D: number, zJ: number, Delta: number): { h
 export function paramagneticTransverseSusceptibility(p: EasyPlaneParams, h: number, T: number): { chi: number; mz: number } {
   const n = checkSpin(p.S);
   const S = p.S;
-  const levels = (mz: number) => Array.from({ length: n }, (_, i) => {
-    const M = S - i;
-    return p.D * M * M - (h - p.zJ * p.Delta * mz) * M;
-  });
+  const levels = (mz: number) =>
+    Array.from({ length: n }, (_, i) => {
+      const M = S - i;
+      return p.D * M * M - (h - p.zJ * p.Delta * mz) * M;
+    });
   const weights = (E: number[]) => {
     const e0 = Math.min(...E);
     const w = E.map((e) => (T > 0 ? Math.exp(-(e - e0) / T) : e - e0 < 1e-12 * Math.max(1, Math.abs(e0)) ? 1 : 0));
@@ -269,7 +291,8 @@ export function paramagneticTransverseSusceptibility(p: EasyPlaneParams, h: numb
   if (p.zJ * p.Delta === 0) mz = mzOut(0);
   else {
     const f = (m: number) => mzOut(m) - m;
-    let lo = -S, hi = S;
+    let lo = -S,
+      hi = S;
     for (let k = 0; k < 200 && hi - lo > 1e-13; k++) {
       const mid = (lo + hi) / 2;
       if (f(mid) > 0) lo = mid;
@@ -280,13 +303,14 @@ export function paramagneticTransverseSusceptibility(p: EasyPlaneParams, h: numb
   const E = levels(mz);
   const pw = weights(E);
   let chi = 0;
-  for (let i = 0; i < n; i++) for (const j of [i - 1, i + 1]) {
-    if (j < 0 || j >= n) continue;
-    const M = S - Math.min(i, j); // <M|S_x|M-1> with M the larger
-    const el2 = 0.25 * (S * (S + 1) - M * (M - 1));
-    const dE = E[j]! - E[i]!;
-    chi += el2 * (Math.abs(dE) > 1e-12 ? (pw[i]! - pw[j]!) / dE : T > 0 ? pw[i]! / T : 0);
-  }
+  for (let i = 0; i < n; i++)
+    for (const j of [i - 1, i + 1]) {
+      if (j < 0 || j >= n) continue;
+      const M = S - Math.min(i, j); // <M|S_x|M-1> with M the larger
+      const el2 = 0.25 * (S * (S + 1) - M * (M - 1));
+      const dE = E[j]! - E[i]!;
+      chi += el2 * (Math.abs(dE) > 1e-12 ? (pw[i]! - pw[j]!) / dE : T > 0 ? pw[i]! / T : 0);
+    }
   return { chi, mz };
 }
 
@@ -298,7 +322,8 @@ export function orderingTemperature(p: EasyPlaneParams, h: number): number {
   const g = (T: number) => p.zJ * paramagneticTransverseSusceptibility(p, h, T).chi - 1;
   const Tmax = Math.max(1e-9, p.zJ * p.S * (p.S + 1)); // above the Curie-Weiss scale zJ S(S+1)/3 x 3
   if (g(1e-9 * Tmax) <= 0) return 0;
-  let lo = 1e-9 * Tmax, hi = Tmax;
+  let lo = 1e-9 * Tmax,
+    hi = Tmax;
   if (g(hi) > 0) return hi;
   for (let k = 0; k < 100 && hi - lo > 1e-12 * Tmax; k++) {
     const mid = (lo + hi) / 2;

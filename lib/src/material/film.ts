@@ -74,11 +74,7 @@ function required(raw: FilmInput, name: "Ms" | "A" | "Ku" | "D" | "t"): number {
 function parseGamma(v: QuantityInput): number {
   if (typeof v === "string") {
     if (/hz/i.test(v)) {
-      throw new InputError(
-        "gamma",
-        v,
-        "an angular rate per tesla in rad/(s T) (e.g. 1.76e11); a value in Hz/T is gamma/(2 pi) and would be off by 2 pi",
-      );
+      throw new InputError("gamma", v, "an angular rate per tesla in rad/(s T) (e.g. 1.76e11); a value in Hz/T is gamma/(2 pi) and would be off by 2 pi");
     }
     // mathjs treats rad as a dimension of its own; gamma is an angular rate, so drop "rad".
     return parseQuantity("gamma", v.replace(/\brad\b\s*/g, ""), filmUnits.gamma);
@@ -95,17 +91,17 @@ export function makeFilm(raw: FilmInput): Film {
     throw new InputError("film", raw, "an object with Ms, A, Ku, D, t (and optionally dmi, alpha, gamma)");
   }
   const Ms = required(raw, "Ms");
-  if (!(Ms > 0)) throw new InputError("Ms", raw.Ms, "a positive saturation magnetization in A/m (e.g. \"1.1 MA/m\")");
+  if (!(Ms > 0)) throw new InputError("Ms", raw.Ms, 'a positive saturation magnetization in A/m (e.g. "1.1 MA/m")');
   const A = required(raw, "A");
-  if (!(A > 0)) throw new InputError("A", raw.A, "a positive exchange stiffness in J/m (e.g. \"15 pJ/m\")");
+  if (!(A > 0)) throw new InputError("A", raw.A, 'a positive exchange stiffness in J/m (e.g. "15 pJ/m")');
   const Ku = required(raw, "Ku");
-  if (!(Ku >= 0)) throw new InputError("Ku", raw.Ku, "a non-negative uniaxial anisotropy in J/m^3 (e.g. \"1.2 MJ/m^3\")");
+  if (!(Ku >= 0)) throw new InputError("Ku", raw.Ku, 'a non-negative uniaxial anisotropy in J/m^3 (e.g. "1.2 MJ/m^3")');
   const D = required(raw, "D");
   const t = required(raw, "t");
-  if (!(t > 0)) throw new InputError("t", raw.t, "a positive film thickness in m (e.g. \"1 nm\")");
+  if (!(t > 0)) throw new InputError("t", raw.t, 'a positive film thickness in m (e.g. "1 nm")');
   const dmiRaw = raw.dmi ?? "interfacial";
   if (dmiRaw !== "interfacial" && dmiRaw !== "bulk") {
-    throw new InputError("dmi", raw.dmi, "\"interfacial\" or \"bulk\"");
+    throw new InputError("dmi", raw.dmi, '"interfacial" or "bulk"');
   }
   const film: { -readonly [K in keyof Film]: Film[K] } = { Ms, A, Ku, D, dmi: dmiRaw, t };
   if (raw.alpha !== undefined) {
@@ -314,9 +310,7 @@ export function filmRegime(f: Film, options: { neelThreshold?: number; neelThres
       const DN = options.neelThreshold ?? neelThresholdDmi(f);
       const DNname = options.neelThresholdModel ? `D_N (${options.neelThresholdModel})` : "D_N";
       wallCharacter = absD === 0 ? "Bloch" : absD >= DN ? "Neel" : "intermediate";
-      parts.push(
-        `|D| = ${(absD * 1e3).toPrecision(3)} mJ/m^2 is below D_c = ${(Dc * 1e3).toPrecision(3)} mJ/m^2: uniform domains with walls of positive energy are stable.`,
-      );
+      parts.push(`|D| = ${(absD * 1e3).toPrecision(3)} mJ/m^2 is below D_c = ${(Dc * 1e3).toPrecision(3)} mJ/m^2: uniform domains with walls of positive energy are stable.`);
       if (f.dmi === "interfacial") {
         parts.push(
           wallCharacter === "Neel"
@@ -343,7 +337,9 @@ export function filmRegime(f: Film, options: { neelThreshold?: number; neelThres
         : "K_eff = 0: no easy axis (isotropic); perpendicular walls do not apply.",
     );
     if (groundState === "spiral") {
-      parts.push(`|D| exceeds 4 sqrt(A |K_eff|) / pi = ${(Dc * 1e3).toPrecision(3)} mJ/m^2: a chiral spiral is the ground state (period ${(spiralPeriodWithAnisotropy(f) * 1e9).toPrecision(3)} nm, local magnetostatics).`);
+      parts.push(
+        `|D| exceeds 4 sqrt(A |K_eff|) / pi = ${(Dc * 1e3).toPrecision(3)} mJ/m^2: a chiral spiral is the ground state (period ${(spiralPeriodWithAnisotropy(f) * 1e9).toPrecision(3)} nm, local magnetostatics).`,
+      );
     }
   }
   return { anisotropy, groundState, wallCharacter, dmiRatio, thinFilm, text: parts.join(" ") };

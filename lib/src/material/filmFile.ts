@@ -65,9 +65,7 @@ export interface FilmRecord {
 
 /** What saveFilm / filmFileText accept: a read film, a Film from makeFilm, or name + values. */
 export type FilmToSave =
-  | FilmRecord
-  | Film
-  | { name?: string; notes?: string | string[]; values: Record<string, string | number | UncertainInput>; correlations?: InputCorrelation[]; dmi?: string };
+  FilmRecord | Film | { name?: string; notes?: string | string[]; values: Record<string, string | number | UncertainInput>; correlations?: InputCorrelation[]; dmi?: string };
 
 const filmKeys = Object.keys(filmUnits) as Array<keyof typeof filmUnits>;
 const isFilmKey = (k: string): k is keyof typeof filmUnits => (filmKeys as string[]).includes(k);
@@ -87,11 +85,13 @@ export function parseFilmFile(text: string, source = "film file"): FilmRecord {
   const known = new Set(["format", "version", "name", "notes", "values", "correlations"]);
   for (const k of Object.keys(d)) if (!known.has(k)) throw new InputError(`${source}: ${k}`, d[k], `one of the fields ${[...known].join(", ")}`);
   if (d.format !== FILM_FORMAT) throw new InputError(`${source}: format`, d.format, `"${FILM_FORMAT}"`);
-  if (d.version !== undefined && d.version !== FILM_FORMAT_VERSION) throw new InputError(`${source}: version`, d.version, `${FILM_FORMAT_VERSION} (this program reads version ${FILM_FORMAT_VERSION})`);
+  if (d.version !== undefined && d.version !== FILM_FORMAT_VERSION)
+    throw new InputError(`${source}: version`, d.version, `${FILM_FORMAT_VERSION} (this program reads version ${FILM_FORMAT_VERSION})`);
   if (typeof d.name !== "string" || d.name.trim() === "") throw new InputError(`${source}: name`, d.name, "a non-empty name of the film");
   const notes = d.notes === undefined ? [] : typeof d.notes === "string" ? [d.notes] : d.notes;
   if (!Array.isArray(notes) || notes.some((n) => typeof n !== "string")) throw new InputError(`${source}: notes`, d.notes, "a text or a list of texts");
-  if (typeof d.values !== "object" || d.values === null || Array.isArray(d.values)) throw new InputError(`${source}: values`, d.values, 'an object of name: value, such as {"A": "15 ± 1 pJ/m"}');
+  if (typeof d.values !== "object" || d.values === null || Array.isArray(d.values))
+    throw new InputError(`${source}: values`, d.values, 'an object of name: value, such as {"A": "15 ± 1 pJ/m"}');
   const values: Record<string, FilmFileValue> = {};
   const inputs: FilmRecord["inputs"] = {};
   let dmi: "interfacial" | "bulk" = "interfacial";
@@ -105,7 +105,8 @@ export function parseFilmFile(text: string, source = "film file"): FilmRecord {
     const ok = typeof given === "string" || typeof given === "number" || (typeof given === "object" && given !== null && !Array.isArray(given) && "value" in given);
     if (!ok) throw new InputError(where, JSON.stringify(given), 'a quantity ("15 pJ/m", "15 ± 1 pJ/m") or {"value": ..., "uncertainty": ...}');
     if (typeof given === "object") {
-      for (const k of Object.keys(given as object)) if (k !== "value" && k !== "uncertainty") throw new InputError(`${where}.${k}`, (given as Record<string, unknown>)[k], '"value" or "uncertainty"');
+      for (const k of Object.keys(given as object))
+        if (k !== "value" && k !== "uncertainty") throw new InputError(`${where}.${k}`, (given as Record<string, unknown>)[k], '"value" or "uncertainty"');
     }
     const g = given as string | number | UncertainInput;
     if (isFilmKey(name)) {
@@ -136,7 +137,15 @@ export function parseFilmFile(text: string, source = "film file"): FilmRecord {
   return { name: d.name, notes: notes as string[], values, dmi, correlations, film, inputs };
 }
 
-const example: Record<keyof typeof filmUnits, string> = { Ms: "1.1 MA/m", A: "15 ± 1 pJ/m", Ku: "1.2 MJ/m^3", D: "2.9 mJ/m^2", t: "1 nm", alpha: "0.3", gamma: "1.76e11 s^-1 T^-1" };
+const example: Record<keyof typeof filmUnits, string> = {
+  Ms: "1.1 MA/m",
+  A: "15 ± 1 pJ/m",
+  Ku: "1.2 MJ/m^3",
+  D: "2.9 mJ/m^2",
+  t: "1 nm",
+  alpha: "0.3",
+  gamma: "1.76e11 s^-1 T^-1",
+};
 
 function readCorrelations(raw: unknown, values: Record<string, FilmFileValue>, source: string): InputCorrelation[] {
   if (raw === undefined) return [];
@@ -152,7 +161,16 @@ function readCorrelations(raw: unknown, values: Record<string, FilmFileValue>, s
     for (const p of pair as string[]) {
       const v = values[p];
       const uncertain = v && (v.uncertainty !== null ? v.uncertainty > 0 : typeof v.given === "object" || (typeof v.given === "string" && /±|\+-|\+\/-/.test(v.given)));
-      if (!uncertain) throw new InputError(where, p, `a value of the file that carries an uncertainty: ${Object.keys(values).filter((k) => values[k]!.uncertainty).join(", ") || "(none)"}`);
+      if (!uncertain)
+        throw new InputError(
+          where,
+          p,
+          `a value of the file that carries an uncertainty: ${
+            Object.keys(values)
+              .filter((k) => values[k]!.uncertainty)
+              .join(", ") || "(none)"
+          }`,
+        );
     }
     if (typeof r !== "number" || !(Math.abs(r) <= 1)) throw new InputError(`${where}.coefficient`, r, "a correlation coefficient from -1 to 1");
     const key = [...(pair as string[])].sort().join(" ");
@@ -223,7 +241,9 @@ export function filmInputsFor(
     inputs[k] = v;
   }
   const kept = film.correlations.filter((c) => c.between.every((n) => names.has(n) && !replaced.includes(n)));
-  const notes: string[] = [`inputs from the film file "${film.name}"${film.source ? ` (${film.source})` : ""}${replaced.length ? `; given explicitly instead of the file's: ${replaced.join(", ")}` : ""}`];
+  const notes: string[] = [
+    `inputs from the film file "${film.name}"${film.source ? ` (${film.source})` : ""}${replaced.length ? `; given explicitly instead of the file's: ${replaced.join(", ")}` : ""}`,
+  ];
   if (unused.length) notes.push(`values of the film file that '${spec.id}' does not take: ${unused.join(", ")}`);
   const dropped = film.correlations.length - kept.length;
   if (dropped > 0) notes.push(`${dropped} correlation${dropped > 1 ? "s" : ""} of the film file not used (a value not taken by '${spec.id}' or given explicitly)`);

@@ -37,7 +37,8 @@ export function toPlanarMatrix(value: unknown, parameter = "H"): PlanarMatrix {
   const im = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     const row = (v as unknown[])[i];
-    if (!Array.isArray(row) || row.length !== n) throw new InputError(parameter, value, `a square ${n} x ${n} matrix (row ${i} has ${Array.isArray(row) ? row.length : "no"} entries)`);
+    if (!Array.isArray(row) || row.length !== n)
+      throw new InputError(parameter, value, `a square ${n} x ${n} matrix (row ${i} has ${Array.isArray(row) ? row.length : "no"} entries)`);
     for (let j = 0; j < n; j++) {
       const [a, b] = entry(row[j], `[${i}][${j}]`, parameter);
       if (!Number.isFinite(a) || !Number.isFinite(b)) throw new InputError(parameter, `[${i}][${j}] = ${a} + ${b}i`, "finite matrix entries");

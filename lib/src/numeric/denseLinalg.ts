@@ -294,4 +294,3 @@ export function choleskyLower(G: ArrayLike<number>, n: number, minPivotRatio: nu
   }
   return dmin < minPivotRatio * dmax ? null : L;
 }
-

@@ -67,7 +67,7 @@ export function ddSqrt(a: DD): DD {
   const x = Math.sqrt(a[0]);
   // One Newton step from the double root doubles the digits.
   const sq = ddMul([x, 0], [x, 0]);
-  const corr = (ddSub(a, sq)[0]) / (2 * x);
+  const corr = ddSub(a, sq)[0] / (2 * x);
   return quickTwoSum(x, corr);
 }
 export function ddToNumber(a: DD): number {
@@ -186,7 +186,8 @@ export function rayleighQuotientDD(n: number, a: ArrayLike<number>, x: ArrayLike
   for (let i = 0; i < n; i++) {
     let sh = 0;
     let sl = 0;
-    const lo = Math.max(0, i - bandwidth), hi = Math.min(n - 1, i + bandwidth);
+    const lo = Math.max(0, i - bandwidth),
+      hi = Math.min(n - 1, i + bandwidth);
     for (let j = lo; j <= hi; j++) {
       const aij = a[Math.max(i, j) * n + Math.min(i, j)]!;
       const xj = x[j]!;
@@ -208,7 +209,10 @@ export function rayleighQuotientDD(n: number, a: ArrayLike<number>, x: ArrayLike
     yh[i] = s;
   }
   // num = x . y, den = x . x in double-double
-  let nh = 0, nl = 0, dh = 0, dl = 0;
+  let nh = 0,
+    nl = 0,
+    dh = 0,
+    dl = 0;
   for (let i = 0; i < n; i++) {
     const xi = x[i]!;
     let [p, pe] = twoProd(xi, yh[i]!);

@@ -37,7 +37,6 @@ export interface HermitianEigenResult {
   vectorsIm?: Float64Array;
 }
 
-
 /**
  * Reusable workspace for repeated diagonalizations of n x n Hermitian matrices (no allocation per
  * call). `solve` overwrites the workspace's outputs; copy them if you keep them.
@@ -106,14 +105,22 @@ export class HermitianEigenSolver {
    * (vectorsRe, vectorsIm), count * n numbers in all. For grids of k-points stored one after another.
    */
   solveVectorRowsInto(
-    re: ArrayLike<number>, im: ArrayLike<number> | null, first: number, count: number,
-    values: Float64Array, valuesOffset: number, vectorsRe: Float64Array, vectorsIm: Float64Array, vectorsOffset: number,
+    re: ArrayLike<number>,
+    im: ArrayLike<number> | null,
+    first: number,
+    count: number,
+    values: Float64Array,
+    valuesOffset: number,
+    vectorsRe: Float64Array,
+    vectorsIm: Float64Array,
+    vectorsOffset: number,
   ): void {
     const n = this.n;
     if (!Number.isInteger(first) || !Number.isInteger(count) || first < 0 || count < 0 || first + count > n) {
       throw new InputError("first, count", [first, count], `a range of eigenvector indices within 0..${n - 1}`);
     }
-    if (!(valuesOffset >= 0 && valuesOffset + n <= values.length)) throw new InputError("valuesOffset", valuesOffset, `an offset with room for ${n} values in an array of ${values.length}`);
+    if (!(valuesOffset >= 0 && valuesOffset + n <= values.length))
+      throw new InputError("valuesOffset", valuesOffset, `an offset with room for ${n} values in an array of ${values.length}`);
     if (!(vectorsOffset >= 0 && vectorsOffset + count * n <= vectorsRe.length && vectorsOffset + count * n <= vectorsIm.length)) {
       throw new InputError("vectorsOffset", vectorsOffset, `an offset with room for ${count} x ${n} components in arrays of ${vectorsRe.length}`);
     }
@@ -122,8 +129,15 @@ export class HermitianEigenSolver {
   }
 
   private solveInternal(
-    re: ArrayLike<number>, im: ArrayLike<number> | null, vectors: boolean, rows: boolean, kFrom = 0, kTo = this.n,
-    Vr: Float64Array = this.vectorsRe, Vi: Float64Array = this.vectorsIm, vOff = 0,
+    re: ArrayLike<number>,
+    im: ArrayLike<number> | null,
+    vectors: boolean,
+    rows: boolean,
+    kFrom = 0,
+    kTo = this.n,
+    Vr: Float64Array = this.vectorsRe,
+    Vi: Float64Array = this.vectorsIm,
+    vOff = 0,
   ): void {
     const n = this.n;
     const A = this.a;
@@ -181,8 +195,10 @@ export class HermitianEigenSolver {
         let sr = 0;
         let si = 0;
         for (let j = k + 1; j < i; j++) {
-          const ar = A[o + 2 * j]!, ai = A[o + 2 * j + 1]!;
-          const vjr = v[2 * j]!, vji = v[2 * j + 1]!;
+          const ar = A[o + 2 * j]!,
+            ai = A[o + 2 * j + 1]!;
+          const vjr = v[2 * j]!,
+            vji = v[2 * j + 1]!;
           sr += ar * vjr - ai * vji;
           si += ar * vji + ai * vjr;
           p[2 * j] = p[2 * j]! + ar * vir + ai * vii;
@@ -195,7 +211,8 @@ export class HermitianEigenSolver {
       // p <- tau p, beta = v^H p (real for Hermitian A), q = p - (tau beta / 2) v (kept in p).
       let beta = 0;
       for (let i = k + 1; i < n; i++) {
-        const pr = tau * p[2 * i]!, pi = tau * p[2 * i + 1]!;
+        const pr = tau * p[2 * i]!,
+          pi = tau * p[2 * i + 1]!;
         p[2 * i] = pr;
         p[2 * i + 1] = pi;
         beta += v[2 * i]! * pr + v[2 * i + 1]! * pi;
@@ -213,7 +230,10 @@ export class HermitianEigenSolver {
         const qir = p[2 * i]!;
         const qii = p[2 * i + 1]!;
         for (let j = k + 1; j <= i; j++) {
-          const qjr = p[2 * j]!, qji = p[2 * j + 1]!, vjr = v[2 * j]!, vji = v[2 * j + 1]!;
+          const qjr = p[2 * j]!,
+            qji = p[2 * j + 1]!,
+            vjr = v[2 * j]!,
+            vji = v[2 * j + 1]!;
           // v_i conj(q_j) + q_i conj(v_j)
           A[o + 2 * j] = A[o + 2 * j]! - (vir * qjr + vii * qji + qir * vjr + qii * vji);
           A[o + 2 * j + 1] = A[o + 2 * j + 1]! - (vii * qjr - vir * qji + qii * vjr - qir * vji);
@@ -286,15 +306,18 @@ export class HermitianEigenSolver {
         let sr = 0;
         let si = 0;
         for (let i = q + 1; i < n; i++) {
-          const xr = H[base + 2 * i]!, xi = H[base + 2 * i + 1]!;
-          const a = Vr[o + i]!, b = Vi[o + i]!;
+          const xr = H[base + 2 * i]!,
+            xi = H[base + 2 * i + 1]!;
+          const a = Vr[o + i]!,
+            b = Vi[o + i]!;
           sr += xr * a + xi * b;
           si += xr * b - xi * a;
         }
         sr *= tau;
         si *= tau;
         for (let i = q + 1; i < n; i++) {
-          const xr = H[base + 2 * i]!, xi = H[base + 2 * i + 1]!;
+          const xr = H[base + 2 * i]!,
+            xi = H[base + 2 * i + 1]!;
           Vr[o + i] = Vr[o + i]! - (xr * sr - xi * si);
           Vi[o + i] = Vi[o + i]! - (xr * si + xi * sr);
         }
@@ -314,7 +337,6 @@ export class HermitianEigenSolver {
     }
   }
 }
-
 
 /**
  * Diagonalize one Hermitian matrix given as planar row-major arrays. Checks that the matrix is
@@ -363,11 +385,7 @@ export function assertHermitian(n: number, re: ArrayLike<number>, im: ArrayLike<
       if (Math.hypot(dr, di) > tol) {
         const hij = `${re[i * n + j]}${im ? ` + ${im[i * n + j]}i` : ""}`;
         const hji = `${re[j * n + i]}${im ? ` + ${im[j * n + i]}i` : ""}`;
-        throw new InputError(
-          parameter,
-          `H[${i}][${j}] = ${hij}, H[${j}][${i}] = ${hji}`,
-          `a Hermitian matrix, H[i][j] = conj(H[j][i]) within ${tolerance} of its largest entry`,
-        );
+        throw new InputError(parameter, `H[${i}][${j}] = ${hij}, H[${j}][${i}] = ${hji}`, `a Hermitian matrix, H[i][j] = conj(H[j][i]) within ${tolerance} of its largest entry`);
       }
     }
   }

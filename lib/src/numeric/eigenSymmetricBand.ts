@@ -123,7 +123,8 @@ export class SymmetricBandEigenSolver {
     // Dense working copy (lower and upper), only the band and one bulge diagonal are ever nonzero.
     // Clearing only what the reduction can touch keeps the cost O(n b).
     for (let i = 0; i < n; i++) {
-      const lo = Math.max(0, i - b - 1), hi = Math.min(n - 1, i + b + 1);
+      const lo = Math.max(0, i - b - 1),
+        hi = Math.min(n - 1, i + b + 1);
       for (let j = lo; j <= hi; j++) w[i * n + j] = 0;
     }
     for (let d = 0; d <= b; d++) {
@@ -238,7 +239,8 @@ export class SymmetricBandEigenSolver {
       let res = 0;
       for (let i = 0; i < n; i++) {
         let t = -lam[j]! * Z[base + i]!;
-        const lo = i - b < 0 ? 0 : i - b, hi = i + b > n - 1 ? n - 1 : i + b;
+        const lo = i - b < 0 ? 0 : i - b,
+          hi = i + b > n - 1 ? n - 1 : i + b;
         const r = i * wb - i + b;
         for (let k = lo; k <= hi; k++) t += rows[r + k]! * Z[base + k]!;
         if (Math.abs(t) > res) res = Math.abs(t);
@@ -347,10 +349,13 @@ export class SymmetricBandEigenSolver {
 function rotate(w: Float64Array, n: number, p: number, q: number, c: number, s: number, d: number): void {
   const lo = Math.max(0, p - d - 1);
   const hi = Math.min(n - 1, q + d + 1);
-  const app = w[p * n + p]!, aqq = w[q * n + q]!, apq = w[q * n + p]!;
+  const app = w[p * n + p]!,
+    aqq = w[q * n + q]!,
+    apq = w[q * n + p]!;
   for (let k = lo; k <= hi; k++) {
     if (k === p || k === q) continue;
-    const xp = w[p * n + k]!, xq = w[q * n + k]!;
+    const xp = w[p * n + k]!,
+      xq = w[q * n + k]!;
     const np = c * xp + s * xq;
     const nq = c * xq - s * xp;
     w[p * n + k] = np;
@@ -358,7 +363,9 @@ function rotate(w: Float64Array, n: number, p: number, q: number, c: number, s: 
     w[q * n + k] = nq;
     w[k * n + q] = nq;
   }
-  const cc = c * c, ss = s * s, cs = c * s;
+  const cc = c * c,
+    ss = s * s,
+    cs = c * s;
   w[p * n + p] = cc * app + 2 * cs * apq + ss * aqq;
   w[q * n + q] = ss * app - 2 * cs * apq + cc * aqq;
   const npq = cs * (aqq - app) + (cc - ss) * apq;

@@ -36,11 +36,7 @@ function checkFinite(v: number, x: number): number {
  * Generic double-exponential sum: Integral f(x(s)) x'(s) ds over s in (-smax, smax), by the
  * trapezoid rule with step halving.
  */
-function deSum(
-  g: (s: number) => number,
-  smax: number,
-  opts: QuadratureOptions,
-): QuadratureResult {
+function deSum(g: (s: number) => number, smax: number, opts: QuadratureOptions): QuadratureResult {
   const relTol = opts.relTol ?? 1e-12;
   const absTol = opts.absTol ?? 0;
   const maxLevels = opts.maxLevels ?? 12;

@@ -49,8 +49,16 @@ export function axisUnit(series: Array<ArrayLike<number | null>>, siUnit: string
   }
   const chosen = customaryUnit(peak, siUnit);
   // A unit with no customary prefixes of its own (W/K, ...): an SI prefix on its first symbol.
-  if (chosen[1] === 1 && siUnit && /^[A-Za-z]/.test(siUnit) && peak > 0 && Number.isFinite(peak) && (peak < 1e-2 || peak >= 1e4)
-    && customaryUnit(1e-12, siUnit)[1] === 1 && customaryUnit(1e12, siUnit)[1] === 1) {
+  if (
+    chosen[1] === 1 &&
+    siUnit &&
+    /^[A-Za-z]/.test(siUnit) &&
+    peak > 0 &&
+    Number.isFinite(peak) &&
+    (peak < 1e-2 || peak >= 1e4) &&
+    customaryUnit(1e-12, siUnit)[1] === 1 &&
+    customaryUnit(1e12, siUnit)[1] === 1
+  ) {
     const e = Math.max(-18, Math.min(18, 3 * Math.floor(Math.log10(peak) / 3)));
     const prefix: Record<number, string> = { [-18]: "a", [-15]: "f", [-12]: "p", [-9]: "n", [-6]: "µ", [-3]: "m", 3: "k", 6: "M", 9: "G", 12: "T", 15: "P", 18: "E" };
     if (prefix[e]) return [prefix[e] + siUnit, 10 ** e];
@@ -100,11 +108,19 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     bySi.get(u)!.push(p);
   }
   const yUnits = new Map<string, [string, number]>();
-  for (const [si, group] of bySi) yUnits.set(si, axisUnit(group.map((g) => g.ys), si));
+  for (const [si, group] of bySi)
+    yUnits.set(
+      si,
+      axisUnit(
+        group.map((g) => g.ys),
+        si,
+      ),
+    );
   const data: PlotFigure["data"] = present.map(({ name, o, ys: ysIn }) => {
     const [yu, yf] = yUnits.get(o?.unit ?? "")!;
     // A periodic quantity (a phase): break the line where it wraps, with a gap point between.
-    let xsOf = xs, ys = ysIn;
+    let xsOf = xs,
+      ys = ysIn;
     if (plot.yPeriod && plot.mode !== "markers") [xsOf, ys] = breakAtWraps(xs, ysIn, plot.yPeriod);
     const legend = symbolHtml(withoutArgument(symbolOf(o, name), xSym));
     return {
@@ -119,7 +135,14 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
       hovertemplate: `%{x:.4g} ${displayUnit(xu)}, %{y:.4g} ${displayUnit(yu)}<extra>${legend}</extra>`,
     };
   });
-  const yTitle = [...bySi].map(([si, group]) => axisTitle(group.map((g) => symbolHtml(withoutArgument(symbolOf(g.o, g.name), xSym))), yUnits.get(si)![0])).join("; ");
+  const yTitle = [...bySi]
+    .map(([si, group]) =>
+      axisTitle(
+        group.map((g) => symbolHtml(withoutArgument(symbolOf(g.o, g.name), xSym))),
+        yUnits.get(si)![0],
+      ),
+    )
+    .join("; ");
   const layout: Record<string, unknown> = {
     // The plot's title is drawn by the view above the plot (cheaper for plotly to redraw).
     margin: { ...PLOT_MARGIN },
@@ -137,13 +160,25 @@ export function plotFigure(plot: PlotSpec, outputs: OutputSpec[], result: Calcul
     if (swept) fig.sweptRange = [Math.min(sweep!.from, sweep!.to) / xf, Math.max(sweep!.from, sweep!.to) / xf];
     const x = current!.value / xf;
     layout.shapes = [{ type: "line", xref: "x", yref: "paper", x0: x, x1: x, y0: 0, y1: 1, line: { color: "#b2182b", width: 1.5, dash: "dot" }, name: "current" }];
-    layout.annotations = [{
-      // inside the plot at its foot, right of the line: clear of the legend above the plot
-      // (plotly places annotations on a log axis by log10 of the value, shapes by the value)
-      xref: "x", yref: "paper", x: plot.xLog ? Math.log10(x) : x, y: 0, yanchor: "bottom", xanchor: "left", xshift: 3, yshift: 2, showarrow: false,
-      font: { size: 11, color: "#b2182b" }, bgcolor: "rgba(255,255,255,0.85)",
-      text: `${symbolHtml(current!.symbol)} = ${Number(x.toPrecision(4))}${xu && xu !== "1" ? " " + displayUnit(xu) : ""}`, name: "current",
-    }];
+    layout.annotations = [
+      {
+        // inside the plot at its foot, right of the line: clear of the legend above the plot
+        // (plotly places annotations on a log axis by log10 of the value, shapes by the value)
+        xref: "x",
+        yref: "paper",
+        x: plot.xLog ? Math.log10(x) : x,
+        y: 0,
+        yanchor: "bottom",
+        xanchor: "left",
+        xshift: 3,
+        yshift: 2,
+        showarrow: false,
+        font: { size: 11, color: "#b2182b" },
+        bgcolor: "rgba(255,255,255,0.85)",
+        text: `${symbolHtml(current!.symbol)} = ${Number(x.toPrecision(4))}${xu && xu !== "1" ? " " + displayUnit(xu) : ""}`,
+        name: "current",
+      },
+    ];
   }
   return fig;
 }
@@ -164,7 +199,8 @@ export function currentMarkFor(
   const xo = spec.outputs.find((o) => o.name === plot.x);
   const xs = arrayOf(result, plot.x);
   if (!input || !xo || !xs || xs.length === 0 || xo.unit !== input.unit) return null;
-  const lo = Math.min(sweep.from, sweep.to), hi = Math.max(sweep.from, sweep.to);
+  const lo = Math.min(sweep.from, sweep.to),
+    hi = Math.max(sweep.from, sweep.to);
   const tol = 1e-9 * Math.max(Math.abs(lo), Math.abs(hi), 1e-300);
   if (!xs.every((x) => !Number.isFinite(x) || (x >= lo - tol && x <= hi + tol))) return null;
   const v = values[input.name];
@@ -176,7 +212,8 @@ export function currentMarkFor(
  * `period`: there the curve wrapped (a phase jumping from pi to -pi), it did not pass through.
  */
 export function breakAtWraps(xs: number[], ys: number[], period: number): [number[], number[]] {
-  const ox: number[] = [], oy: number[] = [];
+  const ox: number[] = [],
+    oy: number[] = [];
   for (let k = 0; k < Math.min(xs.length, ys.length); k++) {
     if (k > 0 && Number.isFinite(ys[k]!) && Number.isFinite(ys[k - 1]!) && Math.abs(ys[k]! - ys[k - 1]!) > period / 2) {
       ox.push((xs[k]! + xs[k - 1]!) / 2);

@@ -36,15 +36,35 @@ export function paperLayout(data: Trace[], layout: Layout, size: PaperSize = {})
   const height = size.height ?? Math.round(width * 0.75);
   const font = size.fontSize ?? PAPER_FONT_PX;
   const axis = (a: unknown) => ({
-    ...(a as Layout ?? {}), automargin: true, linewidth: 1, linecolor: "#000", mirror: true, ticks: "outside", ticklen: 3,
-    showgrid: false, zeroline: false, tickfont: { size: font }, title: { ...((a as Layout)?.title as Layout ?? {}), font: { size: font } },
+    ...((a as Layout) ?? {}),
+    automargin: true,
+    linewidth: 1,
+    linecolor: "#000",
+    mirror: true,
+    ticks: "outside",
+    ticklen: 3,
+    showgrid: false,
+    zeroline: false,
+    tickfont: { size: font },
+    title: { ...(((a as Layout)?.title as Layout) ?? {}), font: { size: font } },
   });
   return {
-    data: data.map((t, i) => ({ ...t, line: { ...(t.line as Layout ?? {}), width: PAPER_LINE_PX, color: (t.line as Layout)?.color ?? PALETTE[i % PALETTE.length] }, marker: { ...(t.marker as Layout ?? {}), size: 5, color: (t.marker as Layout)?.color ?? PALETTE[i % PALETTE.length] } })),
+    data: data.map((t, i) => ({
+      ...t,
+      line: { ...((t.line as Layout) ?? {}), width: PAPER_LINE_PX, color: (t.line as Layout)?.color ?? PALETTE[i % PALETTE.length] },
+      marker: { ...((t.marker as Layout) ?? {}), size: 5, color: (t.marker as Layout)?.color ?? PALETTE[i % PALETTE.length] },
+    })),
     layout: {
-      ...layout, width, height, autosize: false, font: { family: "Arial, Helvetica, sans-serif", size: font, color: "#000" },
+      ...layout,
+      width,
+      height,
+      autosize: false,
+      font: { family: "Arial, Helvetica, sans-serif", size: font, color: "#000" },
       margin: { l: 4.5 * font, r: font, t: (layout.showlegend ? 2.2 : 0.8) * font, b: 3.4 * font },
-      paper_bgcolor: "#fff", plot_bgcolor: "#fff", xaxis: axis(layout.xaxis), yaxis: axis(layout.yaxis),
+      paper_bgcolor: "#fff",
+      plot_bgcolor: "#fff",
+      xaxis: axis(layout.xaxis),
+      yaxis: axis(layout.yaxis),
       legend: { orientation: "h", x: 0, y: 1.02, yanchor: "bottom", bgcolor: "rgba(0,0,0,0)", font: { size: font } },
     },
   };
@@ -58,7 +78,13 @@ function esc(s: string): string {
 
 /** Plotly-style text (<sub>, <sup>, entities) as SVG tspans. */
 export function textSpans(html: string, font: number): string {
-  const decoded = (s: string) => s.replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, "&");
+  const decoded = (s: string) =>
+    s
+      .replace(/&lt;/g, "<")
+      .replace(/&gt;/g, ">")
+      .replace(/&quot;/g, '"')
+      .replace(/&#39;/g, "'")
+      .replace(/&amp;/g, "&");
   let out = "";
   let shift = 0; // current baseline shift in px
   const re = /<(\/?)(sub|sup)>|<br\s*\/?>|<[^>]*>/gi;
@@ -99,14 +125,16 @@ function tickLabel(v: number, log: boolean): string {
 }
 
 function finiteExtent(arrays: Array<ArrayLike<unknown>>, log: boolean): [number, number] | null {
-  let lo = Infinity, hi = -Infinity;
-  for (const a of arrays) for (let i = 0; i < a.length; i++) {
-    const raw = a[i];
-    if (typeof raw !== "number" || !Number.isFinite(raw) || (log && raw <= 0)) continue;
-    const v = log ? Math.log10(raw) : raw;
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
-  }
+  let lo = Infinity,
+    hi = -Infinity;
+  for (const a of arrays)
+    for (let i = 0; i < a.length; i++) {
+      const raw = a[i];
+      if (typeof raw !== "number" || !Number.isFinite(raw) || (log && raw <= 0)) continue;
+      const v = log ? Math.log10(raw) : raw;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
   return lo <= hi ? [lo, hi] : null;
 }
 
@@ -130,8 +158,10 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
   const traces = (fig.data ?? []).filter((t) => (t.visible ?? true) !== false);
   const bad = traces.filter((t) => (t.type ?? "scatter") !== "scatter").map((t) => String(t.type));
   if (bad.length) throw new Error(`figureSvg draws scatter (line and marker) traces only; this figure has ${[...new Set(bad)].join(", ")}`);
-  const xa = (layout.xaxis ?? {}) as Layout, ya = (layout.yaxis ?? {}) as Layout;
-  const xLog = xa.type === "log", yLog = ya.type === "log";
+  const xa = (layout.xaxis ?? {}) as Layout,
+    ya = (layout.yaxis ?? {}) as Layout;
+  const xLog = xa.type === "log",
+    yLog = ya.type === "log";
   const named = traces.filter((t) => t.name !== undefined && t.showlegend !== false);
   const legendRows = (layout.showlegend ?? named.length > 1) && named.length ? 1 : 0;
   const m = { l: 4.6 * F, r: 1.2 * F, t: (legendRows ? 2.4 : 0.8) * F, b: 3.6 * F };
@@ -141,20 +171,24 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
   const rangeOf = (ax: Layout, key: "x" | "y", log: boolean): [number, number] => {
     const r = ax.range as [number, number] | undefined;
     if (Array.isArray(r) && r.length === 2 && Number.isFinite(r[0]) && Number.isFinite(r[1]) && r[1] !== r[0]) return [Math.min(r[0], r[1]), Math.max(r[0], r[1])];
-    const e = finiteExtent(traces.map((t) => (t[key] ?? []) as ArrayLike<unknown>), log) ?? [0, 1];
+    const e = finiteExtent(
+      traces.map((t) => (t[key] ?? []) as ArrayLike<unknown>),
+      log,
+    ) ?? [0, 1];
     const span = e[1] - e[0] || Math.abs(e[0]) * 0.1 || 1;
     const pad = key === "y" || anyMarkers ? 0.05 * span : 0;
     return e[1] > e[0] ? [e[0] - pad, e[1] + pad] : [e[0] - span / 2, e[1] + span / 2];
   };
-  const [x0, x1] = rangeOf(xa, "x", xLog), [y0, y1] = rangeOf(ya, "y", yLog);
+  const [x0, x1] = rangeOf(xa, "x", xLog),
+    [y0, y1] = rangeOf(ya, "y", yLog);
   // the left margin holds the longest y tick label and the rotated y title
   const ticks = (lo: number, hi: number, log: boolean, n: number) => (log ? niceTicks(lo, hi, n).filter((v) => Number.isInteger(Math.round(v * 1e9) / 1e9)) : niceTicks(lo, hi, n));
   const yTicks = ticks(y0, y1, yLog, Math.max(3, Math.round(ph / (2.5 * F))));
   const longest = Math.max(1, ...yTicks.map((v) => tickLabel(v, yLog).replace(/<[^>]*>/g, "").length));
   m.l = Math.max(3.2 * F, 0.62 * F * longest + 2.2 * F + 6);
   pw = W - m.l - m.r;
-  const X = (v: number) => m.l + ((xLog ? Math.log10(v) : v) - x0) / (x1 - x0) * pw;
-  const Y = (v: number) => m.t + ph - ((yLog ? Math.log10(v) : v) - y0) / (y1 - y0) * ph;
+  const X = (v: number) => m.l + (((xLog ? Math.log10(v) : v) - x0) / (x1 - x0)) * pw;
+  const Y = (v: number) => m.t + ph - (((yLog ? Math.log10(v) : v) - y0) / (y1 - y0)) * ph;
   const f = (v: number) => v.toFixed(2);
   const parts: string[] = [];
   parts.push(`<?xml version="1.0" encoding="UTF-8"?>`);
@@ -164,12 +198,12 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
   // ticks and labels
   const axisParts: string[] = [];
   for (const v of ticks(x0, x1, xLog, Math.max(3, Math.round(pw / (5 * F))))) {
-    const px = m.l + (v - x0) / (x1 - x0) * pw;
+    const px = m.l + ((v - x0) / (x1 - x0)) * pw;
     axisParts.push(`<line x1="${f(px)}" y1="${f(m.t + ph)}" x2="${f(px)}" y2="${f(m.t + ph + 3)}" stroke="#000" stroke-width="1"/>`);
     axisParts.push(`<text class="xtick" x="${f(px)}" y="${f(m.t + ph + 3 + F)}" text-anchor="middle">${textSpans(tickLabel(v, xLog), F)}</text>`);
   }
   for (const v of yTicks) {
-    const py = m.t + ph - (v - y0) / (y1 - y0) * ph;
+    const py = m.t + ph - ((v - y0) / (y1 - y0)) * ph;
     axisParts.push(`<line x1="${f(m.l - 3)}" y1="${f(py)}" x2="${f(m.l)}" y2="${f(py)}" stroke="#000" stroke-width="1"/>`);
     axisParts.push(`<text class="ytick" x="${f(m.l - 5)}" y="${f(py + F * 0.35)}" text-anchor="end">${textSpans(tickLabel(v, yLog), F)}</text>`);
   }
@@ -177,17 +211,31 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
   const curves: string[] = [];
   traces.forEach((t, i) => {
     const colour = String((t.line as Layout)?.color ?? (t.marker as Layout)?.color ?? PALETTE[i % PALETTE.length]);
-    const xs = (t.x ?? []) as ArrayLike<unknown>, ys = (t.y ?? []) as ArrayLike<unknown>;
+    const xs = (t.x ?? []) as ArrayLike<unknown>,
+      ys = (t.y ?? []) as ArrayLike<unknown>;
     const mode = String(t.mode ?? "lines");
-    const ok = (k: number) => typeof xs[k] === "number" && typeof ys[k] === "number" && Number.isFinite(xs[k]) && Number.isFinite(ys[k]) && (!xLog || (xs[k] as number) > 0) && (!yLog || (ys[k] as number) > 0);
+    const ok = (k: number) =>
+      typeof xs[k] === "number" &&
+      typeof ys[k] === "number" &&
+      Number.isFinite(xs[k]) &&
+      Number.isFinite(ys[k]) &&
+      (!xLog || (xs[k] as number) > 0) &&
+      (!yLog || (ys[k] as number) > 0);
     if (mode.includes("lines")) {
-      let d = "", pen = false;
+      let d = "",
+        pen = false;
       for (let k = 0; k < Math.min(xs.length, ys.length); k++) {
-        if (!ok(k)) { pen = false; continue; }
+        if (!ok(k)) {
+          pen = false;
+          continue;
+        }
         d += `${pen ? "L" : "M"}${f(X(xs[k] as number))},${f(Y(ys[k] as number))}`;
         pen = true;
       }
-      if (d) curves.push(`<path class="curve" data-trace="${i}" d="${d}" fill="none" stroke="${esc(colour)}" stroke-width="${PAPER_LINE_PX}" stroke-linejoin="round" clip-path="url(#plotarea)"/>`);
+      if (d)
+        curves.push(
+          `<path class="curve" data-trace="${i}" d="${d}" fill="none" stroke="${esc(colour)}" stroke-width="${PAPER_LINE_PX}" stroke-linejoin="round" clip-path="url(#plotarea)"/>`,
+        );
     }
     if (mode.includes("markers")) {
       // markers are drawn whole (not clipped) when their centre is inside the plot area
@@ -195,7 +243,8 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
       const inside = (px: number, py: number) => px >= m.l - 0.01 && px <= m.l + pw + 0.01 && py >= m.t - 0.01 && py <= m.t + ph + 0.01;
       for (let k = 0; k < Math.min(xs.length, ys.length); k++) {
         if (!ok(k)) continue;
-        const px = X(xs[k] as number), py = Y(ys[k] as number);
+        const px = X(xs[k] as number),
+          py = Y(ys[k] as number);
         if (inside(px, py)) g += `<circle cx="${f(px)}" cy="${f(py)}" r="2.5"/>`;
       }
       curves.push(g + "</g>");
@@ -204,14 +253,17 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
   // vertical line shapes (the explorer's "current value" mark)
   for (const s of (layout.shapes ?? []) as Layout[]) {
     if (s.type !== "line" || s.xref !== "x" || s.x0 !== s.x1 || typeof s.x0 !== "number") continue;
-    const px = m.l + ((xLog ? Math.log10(s.x0) : s.x0) - x0) / (x1 - x0) * pw;
+    const px = m.l + (((xLog ? Math.log10(s.x0) : s.x0) - x0) / (x1 - x0)) * pw;
     if (px < m.l || px > m.l + pw) continue;
-    curves.push(`<line class="mark" x1="${f(px)}" y1="${f(m.t)}" x2="${f(px)}" y2="${f(m.t + ph)}" stroke="${esc(String((s.line as Layout)?.color ?? "#888"))}" stroke-width="1" stroke-dasharray="3,2"/>`);
+    curves.push(
+      `<line class="mark" x1="${f(px)}" y1="${f(m.t)}" x2="${f(px)}" y2="${f(m.t + ph)}" stroke="${esc(String((s.line as Layout)?.color ?? "#888"))}" stroke-width="1" stroke-dasharray="3,2"/>`,
+    );
   }
   parts.push(...curves);
   parts.push(`<rect x="${f(m.l)}" y="${f(m.t)}" width="${f(pw)}" height="${f(ph)}" fill="none" stroke="#000" stroke-width="1"/>`);
   parts.push(...axisParts);
-  const xt = titleText(xa.title), yt = titleText(ya.title);
+  const xt = titleText(xa.title),
+    yt = titleText(ya.title);
   if (xt) parts.push(`<text class="xtitle" x="${f(m.l + pw / 2)}" y="${f(H - 0.75 * F)}" text-anchor="middle">${textSpans(xt, F)}</text>`);
   if (yt) parts.push(`<text class="ytitle" transform="translate(${f(0.95 * F)},${f(m.t + ph / 2)}) rotate(-90)" text-anchor="middle">${textSpans(yt, F)}</text>`);
   if (legendRows) {
@@ -222,9 +274,11 @@ export function figureSvg(fig: { data: Trace[]; layout?: Layout }, size: PaperSi
       const colour = String((t.line as Layout)?.color ?? (t.marker as Layout)?.color ?? PALETTE[i % PALETTE.length]);
       const label = String(t.name);
       const lines = String(t.mode ?? "lines").includes("lines");
-      parts.push(lines
-        ? `<line x1="${f(x)}" y1="${f(y - F * 0.3)}" x2="${f(x + 1.6 * F)}" y2="${f(y - F * 0.3)}" stroke="${esc(colour)}" stroke-width="${PAPER_LINE_PX}"/>`
-        : `<circle cx="${f(x + 0.8 * F)}" cy="${f(y - F * 0.3)}" r="2.5" fill="${esc(colour)}"/>`);
+      parts.push(
+        lines
+          ? `<line x1="${f(x)}" y1="${f(y - F * 0.3)}" x2="${f(x + 1.6 * F)}" y2="${f(y - F * 0.3)}" stroke="${esc(colour)}" stroke-width="${PAPER_LINE_PX}"/>`
+          : `<circle cx="${f(x + 0.8 * F)}" cy="${f(y - F * 0.3)}" r="2.5" fill="${esc(colour)}"/>`,
+      );
       parts.push(`<text class="legend" x="${f(x + 2 * F)}" y="${f(y)}">${textSpans(label, F)}</text>`);
       x += 2.6 * F + 0.6 * F * label.replace(/<[^>]*>/g, "").length;
     });

@@ -7,16 +7,92 @@
  */
 
 const NAMES: Record<string, string> = {
-  alpha: "α", beta: "β", gamma: "γ", delta: "δ", epsilon: "ε", varepsilon: "ε", zeta: "ζ", eta: "η",
-  theta: "θ", vartheta: "ϑ", iota: "ι", kappa: "κ", lambda: "λ", mu: "μ", nu: "ν", xi: "ξ", pi: "π",
-  rho: "ρ", sigma: "σ", tau: "τ", upsilon: "υ", phi: "φ", varphi: "φ", chi: "χ", psi: "ψ", omega: "ω",
-  Gamma: "Γ", Delta: "Δ", Theta: "Θ", Lambda: "Λ", Xi: "Ξ", Pi: "Π", Sigma: "Σ", Phi: "Φ", Psi: "Ψ", Omega: "Ω",
-  langle: "⟨", rangle: "⟩", perp: "⊥", parallel: "∥", hbar: "ħ", infty: "∞", partial: "∂", nabla: "∇",
-  sum: "∑", int: "∫", oint: "∮", pm: "±", mp: "∓", times: "×", cdot: "·", approx: "≈", sim: "∼", le: "≤",
-  leq: "≤", ge: "≥", geq: "≥", ne: "≠", neq: "≠", to: "→", rightarrow: "→", leftarrow: "←", circ: "∘",
-  prime: "′", ell: "ℓ", degree: "°", AA: "Å", lvert: "|", rvert: "|", vert: "|", mid: "|",
-  log: "log", ln: "ln", exp: "exp", sin: "sin", cos: "cos", tan: "tan", sinh: "sinh", cosh: "cosh",
-  tanh: "tanh", arctan: "arctan", min: "min", max: "max", det: "det", Re: "Re", Im: "Im",
+  alpha: "α",
+  beta: "β",
+  gamma: "γ",
+  delta: "δ",
+  epsilon: "ε",
+  varepsilon: "ε",
+  zeta: "ζ",
+  eta: "η",
+  theta: "θ",
+  vartheta: "ϑ",
+  iota: "ι",
+  kappa: "κ",
+  lambda: "λ",
+  mu: "μ",
+  nu: "ν",
+  xi: "ξ",
+  pi: "π",
+  rho: "ρ",
+  sigma: "σ",
+  tau: "τ",
+  upsilon: "υ",
+  phi: "φ",
+  varphi: "φ",
+  chi: "χ",
+  psi: "ψ",
+  omega: "ω",
+  Gamma: "Γ",
+  Delta: "Δ",
+  Theta: "Θ",
+  Lambda: "Λ",
+  Xi: "Ξ",
+  Pi: "Π",
+  Sigma: "Σ",
+  Phi: "Φ",
+  Psi: "Ψ",
+  Omega: "Ω",
+  langle: "⟨",
+  rangle: "⟩",
+  perp: "⊥",
+  parallel: "∥",
+  hbar: "ħ",
+  infty: "∞",
+  partial: "∂",
+  nabla: "∇",
+  sum: "∑",
+  int: "∫",
+  oint: "∮",
+  pm: "±",
+  mp: "∓",
+  times: "×",
+  cdot: "·",
+  approx: "≈",
+  sim: "∼",
+  le: "≤",
+  leq: "≤",
+  ge: "≥",
+  geq: "≥",
+  ne: "≠",
+  neq: "≠",
+  to: "→",
+  rightarrow: "→",
+  leftarrow: "←",
+  circ: "∘",
+  prime: "′",
+  ell: "ℓ",
+  degree: "°",
+  AA: "Å",
+  lvert: "|",
+  rvert: "|",
+  vert: "|",
+  mid: "|",
+  log: "log",
+  ln: "ln",
+  exp: "exp",
+  sin: "sin",
+  cos: "cos",
+  tan: "tan",
+  sinh: "sinh",
+  cosh: "cosh",
+  tanh: "tanh",
+  arctan: "arctan",
+  min: "min",
+  max: "max",
+  det: "det",
+  Re: "Re",
+  Im: "Im",
 };
 const OPERATORS = new Set(["log", "ln", "exp", "sin", "cos", "tan", "sinh", "cosh", "tanh", "arctan", "min", "max", "det", "Re", "Im"]);
 /** Commands that take one argument and put a combining accent on it. */
@@ -32,8 +108,12 @@ function escapeHtml(s: string): string {
 class Reader {
   i = 0;
   constructor(readonly s: string) {}
-  get done(): boolean { return this.i >= this.s.length; }
-  peek(): string { return this.s[this.i] ?? ""; }
+  get done(): boolean {
+    return this.i >= this.s.length;
+  }
+  peek(): string {
+    return this.s[this.i] ?? "";
+  }
 }
 
 /** One argument: a {group}, a \command, or one character (spaces before it skipped). */
@@ -75,7 +155,8 @@ function readCommand(r: Reader, inScript: boolean): string {
   if (OPERATORS.has(name) && spaced && /[\p{L}\p{N}\\]/u.test(r.peek())) return `${NAMES[name]} `;
   if (name in SPACES) return SPACES[name]!;
   if (name === "frac") {
-    const a = readArgument(r, inScript), b = readArgument(r, inScript);
+    const a = readArgument(r, inScript),
+      b = readArgument(r, inScript);
     const wrap = (t: string) => (/^[\p{L}\p{N}]+$/u.test(t.replace(/<\/?su[bp]>/g, "")) ? t : `(${t})`);
     return `${wrap(a)}/${wrap(b)}`;
   }
@@ -97,15 +178,26 @@ function readSequence(r: Reader, end: string, inScript: boolean): string {
   while (!r.done) {
     const c = r.peek();
     if (end && c === end) break;
-    if (c === "}") { r.i++; continue; } // stray closing brace: dropped
-    if (c === "{") { r.i++; out += readSequence(r, "}", inScript); if (r.peek() === "}") r.i++; continue; }
+    if (c === "}") {
+      r.i++;
+      continue;
+    } // stray closing brace: dropped
+    if (c === "{") {
+      r.i++;
+      out += readSequence(r, "}", inScript);
+      if (r.peek() === "}") r.i++;
+      continue;
+    }
     if (c === "_" || c === "^") {
       r.i++;
       const arg = readArgument(r, true);
       out += c === "_" ? `<sub>${arg}</sub>` : `<sup>${arg}</sup>`;
       continue;
     }
-    if (c === "\\") { out += readCommand(r, inScript); continue; }
+    if (c === "\\") {
+      out += readCommand(r, inScript);
+      continue;
+    }
     r.i++;
     out += literal(c, inScript);
   }
@@ -119,7 +211,11 @@ export function symbolHtml(symbol: string): string {
 
 /** The same as plain Unicode text without tags (for a tooltip or a file name). */
 export function symbolText(symbol: string): string {
-  return symbolHtml(symbol).replace(/<\/?(sub|sup)>/g, "").replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+  return symbolHtml(symbol)
+    .replace(/<\/?(sub|sup)>/g, "")
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&amp;/g, "&");
 }
 
 /**

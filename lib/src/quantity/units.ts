@@ -91,12 +91,7 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
     }
   }
   if (!parsed.equalBase(ref)) {
-    throw new InputError(
-      name,
-      raw,
-      `a quantity of the dimension of ${siUnit}, such as "${exampleFor(siUnit)}"`,
-      `"${raw}" has the dimension of ${dimensionName(parsed)}`,
-    );
+    throw new InputError(name, raw, `a quantity of the dimension of ${siUnit}, such as "${exampleFor(siUnit)}"`, `"${raw}" has the dimension of ${dimensionName(parsed)}`);
   }
   if (parsed.value === null) {
     throw new InputError(name, raw, `a number with its unit, such as "${exampleFor(siUnit)}"`);
@@ -113,9 +108,14 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
  */
 function asTyped(raw: string): string {
   return raw
-    .replace(/⁻/g, "^-").replace(/¹/g, "1").replace(/²/g, "^2").replace(/³/g, "^3")
-    .replace(/\^-\^?/g, "^-").replace(/\^\^/g, "^")
-    .replace(/[µμ]/g, "u").replace(/[·×]/g, " ");
+    .replace(/⁻/g, "^-")
+    .replace(/¹/g, "1")
+    .replace(/²/g, "^2")
+    .replace(/³/g, "^3")
+    .replace(/\^-\^?/g, "^-")
+    .replace(/\^\^/g, "^")
+    .replace(/[µμ]/g, "u")
+    .replace(/[·×]/g, " ");
 }
 
 /**
@@ -143,17 +143,54 @@ function energyInJoules(u: Unit): number | undefined {
 
 /** Customary display units of the trade for each SI unit, largest first. */
 const customary: Record<string, Array<[string, number]>> = {
-  m: [["m", 1], ["mm", 1e-3], ["um", 1e-6], ["nm", 1e-9], ["pm", 1e-12]],
-  "A/m": [["MA/m", 1e6], ["kA/m", 1e3], ["A/m", 1]],
+  m: [
+    ["m", 1],
+    ["mm", 1e-3],
+    ["um", 1e-6],
+    ["nm", 1e-9],
+    ["pm", 1e-12],
+  ],
+  "A/m": [
+    ["MA/m", 1e6],
+    ["kA/m", 1e3],
+    ["A/m", 1],
+  ],
   "J/m": [["pJ/m", 1e-12]],
   "J/m^2": [["mJ/m^2", 1e-3]],
-  "J/m^3": [["MJ/m^3", 1e6], ["kJ/m^3", 1e3], ["J/m^3", 1]],
-  T: [["T", 1], ["mT", 1e-3], ["uT", 1e-6], ["nT", 1e-9]],
-  J: [["aJ", 1e-18], ["zJ", 1e-21]],
-  s: [["s", 1], ["ms", 1e-3], ["us", 1e-6], ["ns", 1e-9], ["ps", 1e-12]],
+  "J/m^3": [
+    ["MJ/m^3", 1e6],
+    ["kJ/m^3", 1e3],
+    ["J/m^3", 1],
+  ],
+  T: [
+    ["T", 1],
+    ["mT", 1e-3],
+    ["uT", 1e-6],
+    ["nT", 1e-9],
+  ],
+  J: [
+    ["aJ", 1e-18],
+    ["zJ", 1e-21],
+  ],
+  s: [
+    ["s", 1],
+    ["ms", 1e-3],
+    ["us", 1e-6],
+    ["ns", 1e-9],
+    ["ps", 1e-12],
+  ],
   "m/s": [["m/s", 1]],
-  K: [["K", 1], ["mK", 1e-3]],
-  Hz: [["THz", 1e12], ["GHz", 1e9], ["MHz", 1e6], ["kHz", 1e3], ["Hz", 1]],
+  K: [
+    ["K", 1],
+    ["mK", 1e-3],
+  ],
+  Hz: [
+    ["THz", 1e12],
+    ["GHz", 1e9],
+    ["MHz", 1e6],
+    ["kHz", 1e3],
+    ["Hz", 1],
+  ],
   "W/(K m)": [["W/(K m)", 1]],
 };
 
@@ -181,7 +218,11 @@ export function formatQuantity(value: number, siUnit: string, digits = 4): strin
 
 /** A unit string as shown to people: "um" as "µm", "m^2" as "m²". */
 export function displayUnit(u: string): string {
-  return u.replace(/\bu(?=[mTsJ])/g, "µ").replace(/\^2/g, "²").replace(/\^3/g, "³").replace(/\^-1/g, "⁻¹");
+  return u
+    .replace(/\bu(?=[mTsJ])/g, "µ")
+    .replace(/\^2/g, "²")
+    .replace(/\^3/g, "³")
+    .replace(/\^-1/g, "⁻¹");
 }
 
 /** A number with `digits` significant digits, switching to exponent form for very large or small. */

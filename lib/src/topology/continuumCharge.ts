@@ -22,10 +22,7 @@ export interface ContinuumChargeResult {
   method: string;
 }
 
-export function continuumSkyrmionNumber(
-  field: VectorField,
-  options: { boundary?: Boundary; layer?: number; density?: boolean } = {},
-): ContinuumChargeResult {
+export function continuumSkyrmionNumber(field: VectorField, options: { boundary?: Boundary; layer?: number; density?: boolean } = {}): ContinuumChargeResult {
   const { wrapX, wrapY } = wrapFlags(options.boundary);
   const k = options.layer ?? 0;
   if (!Number.isInteger(k) || k < 0 || k >= field.nz) throw new InputError("layer", options.layer, `a whole number from 0 to ${field.nz - 1}`);
@@ -36,17 +33,28 @@ export function continuumSkyrmionNumber(
   const density = options.density ? new Float64Array(nx * ny) : null;
   let sum = 0;
   let used = 0;
-  const i0 = wrapX ? 0 : 1, i1 = wrapX ? nx : nx - 1;
-  const j0 = wrapY ? 0 : 1, j1 = wrapY ? ny : ny - 1;
+  const i0 = wrapX ? 0 : 1,
+    i1 = wrapX ? nx : nx - 1;
+  const j0 = wrapY ? 0 : 1,
+    j1 = wrapY ? ny : ny - 1;
   for (let j = j0; j < j1; j++) {
-    const jm = j === 0 ? ny - 1 : j - 1, jp = j === ny - 1 ? 0 : j + 1;
+    const jm = j === 0 ? ny - 1 : j - 1,
+      jp = j === ny - 1 ? 0 : j + 1;
     for (let i = i0; i < i1; i++) {
-      const im = i === 0 ? nx - 1 : i - 1, ip = i === nx - 1 ? 0 : i + 1;
+      const im = i === 0 ? nx - 1 : i - 1,
+        ip = i === nx - 1 ? 0 : i + 1;
       const c = base + j * nx + i;
-      const cE = base + j * nx + ip, cW = base + j * nx + im, cN = base + jp * nx + i, cS = base + jm * nx + i;
+      const cE = base + j * nx + ip,
+        cW = base + j * nx + im,
+        cN = base + jp * nx + i,
+        cS = base + jm * nx + i;
       if (vacuum !== null && (vacuum[c]! | vacuum[cE]! | vacuum[cW]! | vacuum[cN]! | vacuum[cS]!) !== 0) continue;
-      const ux = 0.5 * (m[3 * cE]! - m[3 * cW]!), uy = 0.5 * (m[3 * cE + 1]! - m[3 * cW + 1]!), uz = 0.5 * (m[3 * cE + 2]! - m[3 * cW + 2]!);
-      const vx = 0.5 * (m[3 * cN]! - m[3 * cS]!), vy = 0.5 * (m[3 * cN + 1]! - m[3 * cS + 1]!), vz = 0.5 * (m[3 * cN + 2]! - m[3 * cS + 2]!);
+      const ux = 0.5 * (m[3 * cE]! - m[3 * cW]!),
+        uy = 0.5 * (m[3 * cE + 1]! - m[3 * cW + 1]!),
+        uz = 0.5 * (m[3 * cE + 2]! - m[3 * cW + 2]!);
+      const vx = 0.5 * (m[3 * cN]! - m[3 * cS]!),
+        vy = 0.5 * (m[3 * cN + 1]! - m[3 * cS + 1]!),
+        vz = 0.5 * (m[3 * cN + 2]! - m[3 * cS + 2]!);
       const q = m[3 * c]! * (uy * vz - uz * vy) + m[3 * c + 1]! * (uz * vx - ux * vz) + m[3 * c + 2]! * (ux * vy - uy * vx);
       sum += q;
       used++;

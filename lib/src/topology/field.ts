@@ -62,7 +62,9 @@ export function normalizeInPlace(
   const threshold = options.threshold ?? VACUUM_THRESHOLD;
   let max2 = 0;
   for (let c = 0, p = 0; c < nCells; c++, p += 3) {
-    const x = m[p]!, y = m[p + 1]!, z = m[p + 2]!;
+    const x = m[p]!,
+      y = m[p + 1]!,
+      z = m[p + 2]!;
     const s = x * x + y * y + z * z;
     if (s > max2 && s < Infinity) max2 = s;
   }
@@ -70,7 +72,9 @@ export function normalizeInPlace(
   let vacuum: Uint8Array | null = preVacuum;
   let count = 0;
   for (let c = 0, p = 0; c < nCells; c++, p += 3) {
-    const x = m[p]!, y = m[p + 1]!, z = m[p + 2]!;
+    const x = m[p]!,
+      y = m[p + 1]!,
+      z = m[p + 2]!;
     const s = x * x + y * y + z * z;
     // NaN fails every comparison, so `!(s > limit2)` catches NaN, zero and tiny vectors.
     if (!(s > limit2) || s === Infinity || (preVacuum !== null && preVacuum[c] === 1)) {
@@ -103,7 +107,11 @@ export interface FieldGeometry {
 
 function checkGeometry(g: FieldGeometry): Required<Omit<FieldGeometry, "source">> {
   const nz = g.nz ?? 1;
-  for (const [name, v] of [["nx", g.nx], ["ny", g.ny], ["nz", nz]] as const) {
+  for (const [name, v] of [
+    ["nx", g.nx],
+    ["ny", g.ny],
+    ["nz", nz],
+  ] as const) {
     if (!Number.isInteger(v) || v < 1) throw new InputError(name, v, "a whole number of cells >= 1");
   }
   const lattice = g.lattice ?? "square";
@@ -113,7 +121,11 @@ function checkGeometry(g: FieldGeometry): Required<Omit<FieldGeometry, "source">
   const dx = g.dx ?? 1;
   const dy = g.dy ?? (lattice === "triangular" ? (dx * Math.sqrt(3)) / 2 : dx);
   const dz = g.dz ?? dx;
-  for (const [name, v] of [["dx", dx], ["dy", dy], ["dz", dz]] as const) {
+  for (const [name, v] of [
+    ["dx", dx],
+    ["dy", dy],
+    ["dz", dz],
+  ] as const) {
     if (!(v > 0) || !Number.isFinite(v)) throw new InputError(name, v, "a positive, finite cell size in m");
   }
   if (lattice === "triangular" && nz !== 1) throw new InputError("nz", nz, "1 for a triangular (2D) lattice");
@@ -124,36 +136,25 @@ function checkGeometry(g: FieldGeometry): Required<Omit<FieldGeometry, "source">
  * Build a VectorField from interleaved components (copied: the caller's array is never changed),
  * normalizing each vector and masking vacuum cells.
  */
-export function vectorFieldFromInterleaved(
-  components: ArrayLike<number>,
-  geometry: FieldGeometry,
-  options: NormalizeOptions = {},
-): VectorField {
+export function vectorFieldFromInterleaved(components: ArrayLike<number>, geometry: FieldGeometry, options: NormalizeOptions = {}): VectorField {
   const g = checkGeometry(geometry);
   const n = g.nx * g.ny * g.nz;
   if (components.length !== 3 * n) {
-    throw new InputError(
-      "components",
-      components,
-      `${3 * n} numbers (3 components for each of nx*ny*nz = ${g.nx}*${g.ny}*${g.nz} cells)`,
-      `found ${components.length}`,
-    );
+    throw new InputError("components", components, `${3 * n} numbers (3 components for each of nx*ny*nz = ${g.nx}*${g.ny}*${g.nz} cells)`, `found ${components.length}`);
   }
   const m = Float64Array.from(components);
   return finishField(m, g, options, null, geometry.source ?? options.source);
 }
 
 /** Build a VectorField from planar components mx[], my[], mz[] (each nx*ny*nz long, x fastest). */
-export function vectorFieldFromPlanar(
-  mx: ArrayLike<number>,
-  my: ArrayLike<number>,
-  mz: ArrayLike<number>,
-  geometry: FieldGeometry,
-  options: NormalizeOptions = {},
-): VectorField {
+export function vectorFieldFromPlanar(mx: ArrayLike<number>, my: ArrayLike<number>, mz: ArrayLike<number>, geometry: FieldGeometry, options: NormalizeOptions = {}): VectorField {
   const g = checkGeometry(geometry);
   const n = g.nx * g.ny * g.nz;
-  for (const [name, a] of [["mx", mx], ["my", my], ["mz", mz]] as const) {
+  for (const [name, a] of [
+    ["mx", mx],
+    ["my", my],
+    ["mz", mz],
+  ] as const) {
     if (a.length !== n) throw new InputError(name, a, `${n} values (nx*ny*nz = ${g.nx}*${g.ny}*${g.nz})`, `found ${a.length}`);
   }
   const m = new Float64Array(3 * n);
@@ -169,12 +170,7 @@ export function vectorFieldFromPlanar(
  * Take ownership of a freshly allocated interleaved buffer (readers use this to avoid a second copy),
  * normalize it in place and wrap it as a VectorField.
  */
-export function adoptInterleaved(
-  m: Float64Array,
-  geometry: FieldGeometry,
-  options: NormalizeOptions = {},
-  preVacuum: Uint8Array | null = null,
-): VectorField {
+export function adoptInterleaved(m: Float64Array, geometry: FieldGeometry, options: NormalizeOptions = {}, preVacuum: Uint8Array | null = null): VectorField {
   const g = checkGeometry(geometry);
   if (m.length !== 3 * g.nx * g.ny * g.nz) {
     throw new InputError("components", m, `${3 * g.nx * g.ny * g.nz} numbers`, `found ${m.length}`);
@@ -231,21 +227,13 @@ export function filledCells(field: VectorField): number {
 /** Throw a clear InputError when every cell is vacuum. */
 export function requireSomeMatter(field: VectorField, what: string): void {
   if (filledCells(field) === 0) {
-    throw new InputError(
-      field.source ?? "field",
-      `${field.nx}x${field.ny}x${field.nz} cells, all vacuum`,
-      `at least one non-vacuum cell for ${what}`,
-    );
+    throw new InputError(field.source ?? "field", `${field.nx}x${field.ny}x${field.nz} cells, all vacuum`, `at least one non-vacuum cell for ${what}`);
   }
 }
 
 /** Throw a clear InputError when the field is smaller than a stencil needs. */
 export function requireAtLeast(field: VectorField, nx: number, ny: number, what: string, nz = 1): void {
   if (field.nx < nx || field.ny < ny || field.nz < nz) {
-    throw new InputError(
-      field.source ?? "field",
-      `${field.nx}x${field.ny}x${field.nz} cells`,
-      `at least ${nx}x${ny}x${nz} cells for ${what}`,
-    );
+    throw new InputError(field.source ?? "field", `${field.nx}x${field.ny}x${field.nz} cells`, `at least ${nx}x${ny}x${nz} cells for ${what}`);
   }
 }

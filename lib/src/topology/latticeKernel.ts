@@ -32,41 +32,53 @@ const TAN_GROUP = 0.198912; // tan(pi / 16) = 0.19891236737...
  * starts at cell `cellBase`, with no vacuum cells. wrapX / wrapY: periodic along x / y.
  * The caller clips j1 to ny (wrapY) or ny - 1 (open).
  */
-export function solidAngleSumSquare(
-  m: Float64Array, nx: number, ny: number, cellBase: number,
-  j0: number, j1: number, wrapX: boolean,
-): number {
+export function solidAngleSumSquare(m: Float64Array, nx: number, ny: number, cellBase: number, j0: number, j1: number, wrapX: boolean): number {
   const ni = wrapX ? nx : nx - 1;
   let sum = 0;
   for (let j = j0; j < j1; j++) {
     const jn = j + 1 === ny ? 0 : j + 1;
     const ra = (cellBase + j * nx) * 3;
     const rd = (cellBase + jn * nx) * 3;
-    let ax = m[ra]!, ay = m[ra + 1]!, az = m[ra + 2]!;
-    let dx = m[rd]!, dy = m[rd + 1]!, dz = m[rd + 2]!;
+    let ax = m[ra]!,
+      ay = m[ra + 1]!,
+      az = m[ra + 2]!;
+    let dx = m[rd]!,
+      dy = m[rd + 1]!,
+      dz = m[rd + 2]!;
     let da = dx * ax + dy * ay + dz * az; // d.a of the left edge: b.c of the plaquette before
     let rowSum = 0;
-    let pr = 1, pim = 0, cnt = 0; // running product of plaquette factors z and how many it holds
+    let pr = 1,
+      pim = 0,
+      cnt = 0; // running product of plaquette factors z and how many it holds
     for (let i = 0; i < ni; i++) {
       const off = i + 1 === nx ? 0 : 3 * (i + 1);
-      const pb = ra + off, pc = rd + off;
-      const bx = m[pb]!, by = m[pb + 1]!, bz = m[pb + 2]!;
-      const cx = m[pc]!, cy = m[pc + 1]!, cz = m[pc + 2]!;
+      const pb = ra + off,
+        pc = rd + off;
+      const bx = m[pb]!,
+        by = m[pb + 1]!,
+        bz = m[pb + 2]!;
+      const cx = m[pc]!,
+        cy = m[pc + 1]!,
+        cz = m[pc + 2]!;
       const ab = ax * bx + ay * by + az * bz;
       const bc = bx * cx + by * cy + bz * cz;
       const ca = cx * ax + cy * ay + cz * az;
       const cd = cx * dx + cy * dy + cz * dz;
       // one cross product u = a x c serves both triple products:
       // a . (b x c) = -b . (a x c) and a . (c x d) = d . (a x c)
-      const ux = ay * cz - az * cy, uy = az * cx - ax * cz, uz = ax * cy - ay * cx;
+      const ux = ay * cz - az * cy,
+        uy = az * cx - ax * cz,
+        uz = ax * cy - ay * cx;
       const t1 = -(bx * ux + by * uy + bz * uz);
       const t2 = dx * ux + dy * uy + dz * uz;
-      const d1 = 1 + ab + bc + ca, d2 = 1 + ca + cd + da;
+      const d1 = 1 + ab + bc + ca,
+        d2 = 1 + ca + cd + da;
       da = bc;
       if (d1 > 0 && d2 > 0) {
         // Both half-angles lie in (-pi/2, pi/2), so their sum lies in (-pi, pi) and equals the argument of
         // z = (d1 + i t1)(d2 + i t2): one atan2 for the plaquette instead of two. Exact same branch, no wrap.
-        const zr = d1 * d2 - t1 * t2, zi = t1 * d2 + t2 * d1;
+        const zr = d1 * d2 - t1 * t2,
+          zi = t1 * d2 + t2 * d1;
         if (zr > 1e-15 && zr < 1e15 && Math.abs(zi) < TAN_GROUP * zr) {
           // |arg z| < pi / GROUP: multiply z into the running product of this group; the argument of a
           // product of GROUP such factors is the sum of their arguments (it stays inside (-pi, pi)), so one
@@ -84,8 +96,12 @@ export function solidAngleSumSquare(
       } else {
         rowSum += Math.atan2(t1, d1) + Math.atan2(t2, d2);
       }
-      ax = bx; ay = by; az = bz;
-      dx = cx; dy = cy; dz = cz;
+      ax = bx;
+      ay = by;
+      az = bz;
+      dx = cx;
+      dy = cy;
+      dz = cz;
     }
     if (cnt > 0) rowSum += Math.atan2(pim, pr);
     sum += rowSum;
@@ -101,14 +117,23 @@ export function solidAngleSumSquare(
  * triangles used in `counts[0]` and skipped in `counts[1]` when `counts` is given.
  */
 export function solidAngleSumGeneral(
-  m: Float64Array, vacuum: Uint8Array | null, nx: number, ny: number, cellBase: number,
-  j0: number, j1: number, wrapX: boolean, triangular: boolean,
-  density: Float64Array | null, counts: Float64Array | null,
+  m: Float64Array,
+  vacuum: Uint8Array | null,
+  nx: number,
+  ny: number,
+  cellBase: number,
+  j0: number,
+  j1: number,
+  wrapX: boolean,
+  triangular: boolean,
+  density: Float64Array | null,
+  counts: Float64Array | null,
 ): number {
   const ni = wrapX ? nx : nx - 1;
   const inv4pi = 1 / (4 * Math.PI);
   let sum = 0;
-  let used = 0, skipped = 0;
+  let used = 0,
+    skipped = 0;
   for (let j = j0; j < j1; j++) {
     const jn = j + 1 === ny ? 0 : j + 1;
     const rowA = cellBase + j * nx;
@@ -117,14 +142,30 @@ export function solidAngleSumGeneral(
     let rowSum = 0;
     for (let i = 0; i < ni; i++) {
       const inext = i + 1 === nx ? 0 : i + 1;
-      const ca = rowA + i, cb = rowA + inext, cc = rowD + inext, cd = rowD + i;
-      const va = vacuum === null ? 0 : vacuum[ca]!, vb = vacuum === null ? 0 : vacuum[cb]!;
-      const vc = vacuum === null ? 0 : vacuum[cc]!, vd = vacuum === null ? 0 : vacuum[cd]!;
-      const pa = 3 * ca, pb = 3 * cb, pc = 3 * cc, pd = 3 * cd;
-      const ax = m[pa]!, ay = m[pa + 1]!, az = m[pa + 2]!;
-      const bx = m[pb]!, by = m[pb + 1]!, bz = m[pb + 2]!;
-      const cx = m[pc]!, cy = m[pc + 1]!, cz = m[pc + 2]!;
-      const dx = m[pd]!, dy = m[pd + 1]!, dz = m[pd + 2]!;
+      const ca = rowA + i,
+        cb = rowA + inext,
+        cc = rowD + inext,
+        cd = rowD + i;
+      const va = vacuum === null ? 0 : vacuum[ca]!,
+        vb = vacuum === null ? 0 : vacuum[cb]!;
+      const vc = vacuum === null ? 0 : vacuum[cc]!,
+        vd = vacuum === null ? 0 : vacuum[cd]!;
+      const pa = 3 * ca,
+        pb = 3 * cb,
+        pc = 3 * cc,
+        pd = 3 * cd;
+      const ax = m[pa]!,
+        ay = m[pa + 1]!,
+        az = m[pa + 2]!;
+      const bx = m[pb]!,
+        by = m[pb + 1]!,
+        bz = m[pb + 2]!;
+      const cx = m[pc]!,
+        cy = m[pc + 1]!,
+        cz = m[pc + 2]!;
+      const dx = m[pd]!,
+        dy = m[pd + 1]!,
+        dz = m[pd + 2]!;
       // the two triangles of the plaquette: (a, b, c), (a, c, d) on the square lattice, (a, b, d),
       // (b, c, d) on the triangular one; t = signed triple product, den = 1 + sum of the dot products
       let use1: boolean;

@@ -95,11 +95,33 @@ export const OBJECT_DEFINITIONS =
 
 /** Index of the q-th 4-neighbour (east, west, north, south) of cell (i, j); -1 outside an open edge. */
 function neighbour(i: number, j: number, q: number, nx: number, ny: number, wrapX: boolean, wrapY: boolean): number {
-  let ii = i, jj = j;
-  if (q === 0) { ii++; if (ii === nx) { if (!wrapX) return -1; ii = 0; } }
-  else if (q === 1) { ii--; if (ii < 0) { if (!wrapX) return -1; ii = nx - 1; } }
-  else if (q === 2) { jj++; if (jj === ny) { if (!wrapY) return -1; jj = 0; } }
-  else { jj--; if (jj < 0) { if (!wrapY) return -1; jj = ny - 1; } }
+  let ii = i,
+    jj = j;
+  if (q === 0) {
+    ii++;
+    if (ii === nx) {
+      if (!wrapX) return -1;
+      ii = 0;
+    }
+  } else if (q === 1) {
+    ii--;
+    if (ii < 0) {
+      if (!wrapX) return -1;
+      ii = nx - 1;
+    }
+  } else if (q === 2) {
+    jj++;
+    if (jj === ny) {
+      if (!wrapY) return -1;
+      jj = 0;
+    }
+  } else {
+    jj--;
+    if (jj < 0) {
+      if (!wrapY) return -1;
+      jj = ny - 1;
+    }
+  }
   return jj * nx + ii;
 }
 
@@ -112,15 +134,20 @@ function components(flag: Uint8Array, nx: number, ny: number, wrapX: boolean, wr
   for (let s = 0; s < n; s++) {
     if (flag[s] !== 1 || label[s] !== -1) continue;
     const id = sizes.length;
-    let head = 0, tail = 0;
+    let head = 0,
+      tail = 0;
     queue[tail++] = s;
     label[s] = id;
     while (head < tail) {
       const c = queue[head++]!;
-      const i = c % nx, j = (c - i) / nx;
+      const i = c % nx,
+        j = (c - i) / nx;
       for (let q = 0; q < 4; q++) {
         const d = neighbour(i, j, q, nx, ny, wrapX, wrapY);
-        if (d >= 0 && flag[d] === 1 && label[d] === -1) { label[d] = id; queue[tail++] = d; }
+        if (d >= 0 && flag[d] === 1 && label[d] === -1) {
+          label[d] = id;
+          queue[tail++] = d;
+        }
       }
     }
     sizes.push(tail);
@@ -139,10 +166,15 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
   requireSomeMatter(field, "object finding");
   const q = options.charge ?? skyrmionNumber(field, { boundary, layer, density: true });
   if (options.charge !== undefined) {
-    const px = wrapX ? field.nx : field.nx - 1, py = wrapY ? field.ny : field.ny - 1;
+    const px = wrapX ? field.nx : field.nx - 1,
+      py = wrapY ? field.ny : field.ny - 1;
     const d = q.density;
     if (!d || q.layer !== layer || q.boundary !== boundary || q.lattice !== field.lattice || d.px !== px || d.py !== py || d.charge.length !== px * py) {
-      throw new InputError("charge", `skyrmion number of layer ${q.layer}, ${q.boundary} boundary${d ? `, ${d.px} x ${d.py} plaquettes` : ", no density"}`, `skyrmionNumber(field, { boundary: "${boundary}", layer: ${layer}, density: true }) of this field (${px} x ${py} plaquettes)`);
+      throw new InputError(
+        "charge",
+        `skyrmion number of layer ${q.layer}, ${q.boundary} boundary${d ? `, ${d.px} x ${d.py} plaquettes` : ", no density"}`,
+        `skyrmionNumber(field, { boundary: "${boundary}", layer: ${layer}, density: true }) of this field (${px} x ${py} plaquettes)`,
+      );
     }
   }
   const dens = q.density!;
@@ -175,8 +207,14 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
     const comp = components(rest, nx, ny, wrapX, wrapY);
     const outside = new Uint8Array(comp.sizes.length);
     if (wrapX && wrapY) {
-      let big = -1, bigSize = -1;
-      comp.sizes.forEach((s, id) => { if (s > bigSize) { bigSize = s; big = id; } });
+      let big = -1,
+        bigSize = -1;
+      comp.sizes.forEach((s, id) => {
+        if (s > bigSize) {
+          bigSize = s;
+          big = id;
+        }
+      });
       if (big >= 0) outside[big] = 1;
     }
     // components touching an open edge or a vacuum cell are outside (not enclosed by a core)
@@ -223,7 +261,9 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
   const keep = seedSizes.map((s) => s >= minSeed);
   const newId = new Int32Array(seedSizes.length).fill(-1);
   let nObj = 0;
-  keep.forEach((k, id) => { if (k) newId[id] = nObj++; });
+  keep.forEach((k, id) => {
+    if (k) newId[id] = nObj++;
+  });
   const basin = new Int32Array(n).fill(-1);
   const seedCell = new Int32Array(nObj).fill(-1);
   const seedCount = new Float64Array(nObj);
@@ -242,19 +282,28 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
   let head = 0;
   while (head < tail) {
     const c = queue[head++]!;
-    const i = c % nx, j = (c - i) / nx;
+    const i = c % nx,
+      j = (c - i) / nx;
     const o = basin[c]!;
     for (let q = 0; q < 4; q++) {
       const d = neighbour(i, j, q, nx, ny, wrapX, wrapY);
-      if (d >= 0 && basin[d] === -1 && !isVac(d)) { basin[d] = o; queue[tail++] = d; }
+      if (d >= 0 && basin[d] === -1 && !isVac(d)) {
+        basin[d] = o;
+        queue[tail++] = d;
+      }
     }
   }
 
   // charges, centres, areas
-  const charge = new Float64Array(nObj), absCharge = new Float64Array(nObj);
-  const sx = new Float64Array(nObj), sy = new Float64Array(nObj), ax = new Float64Array(nObj), ay = new Float64Array(nObj);
+  const charge = new Float64Array(nObj),
+    absCharge = new Float64Array(nObj);
+  const sx = new Float64Array(nObj),
+    sy = new Float64Array(nObj),
+    ax = new Float64Array(nObj),
+    ay = new Float64Array(nObj);
   const area = new Float64Array(nObj);
-  const Lx = nx * field.dx, Ly = ny * field.dy;
+  const Lx = nx * field.dx,
+    Ly = ny * field.dy;
   const tri = field.lattice === "triangular";
   // reference point of each object for unwrapping periodic images: the (circular) mean of its seed
   const refPos = seedCentroids(seedFlag, basin, nObj, nx, ny, wrapX, wrapY).map(([u, v]) => latticeToPosition(field, u, v));
@@ -264,16 +313,28 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
     for (let i = 0; i < px; i++) {
       const qp = dens.charge[j * px + i]!;
       const o = basin[j * nx + i]!;
-      if (o < 0) { unassigned += qp; continue; }
+      if (o < 0) {
+        unassigned += qp;
+        continue;
+      }
       let [x, y] = plaquetteCentre(field, i, j);
       // unwrap periodic images around the seed
       const [rx, ry] = refPos[o]!;
-      if (wrapY) { const s = Math.round((y - ry) / Ly); y -= s * Ly; if (tri) x -= s * (ny * field.dx) / 2; }
-      if (wrapX) { const s = Math.round((x - rx) / Lx); x -= s * Lx; }
+      if (wrapY) {
+        const s = Math.round((y - ry) / Ly);
+        y -= s * Ly;
+        if (tri) x -= (s * (ny * field.dx)) / 2;
+      }
+      if (wrapX) {
+        const s = Math.round((x - rx) / Lx);
+        x -= s * Lx;
+      }
       charge[o]! += qp;
       absCharge[o]! += Math.abs(qp);
-      sx[o]! += qp * x; sy[o]! += qp * y;
-      ax[o]! += Math.abs(qp) * x; ay[o]! += Math.abs(qp) * y;
+      sx[o]! += qp * x;
+      sy[o]! += qp * y;
+      ax[o]! += Math.abs(qp) * x;
+      ay[o]! += Math.abs(qp) * y;
     }
   }
   const cellArea = field.dx * field.dy;
@@ -282,11 +343,21 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
   const objects: FoundObject[] = [];
   for (let o = 0; o < nObj; o++) {
     let cx: number, cy: number;
-    if (Math.abs(charge[o]!) >= 0.5) { cx = sx[o]! / charge[o]!; cy = sy[o]! / charge[o]!; }
-    else if (absCharge[o]! > 0) { cx = ax[o]! / absCharge[o]!; cy = ay[o]! / absCharge[o]!; }
-    else { [cx, cy] = refPos[o]!; }
+    if (Math.abs(charge[o]!) >= 0.5) {
+      cx = sx[o]! / charge[o]!;
+      cy = sy[o]! / charge[o]!;
+    } else if (absCharge[o]! > 0) {
+      cx = ax[o]! / absCharge[o]!;
+      cy = ay[o]! / absCharge[o]!;
+    } else {
+      [cx, cy] = refPos[o]!;
+    }
     // back into the box
-    if (wrapY) { const s = Math.floor(cy / Ly); cy -= s * Ly; if (tri) cx -= s * (ny * field.dx) / 2; }
+    if (wrapY) {
+      const s = Math.floor(cy / Ly);
+      cy -= s * Ly;
+      if (tri) cx -= (s * (ny * field.dx)) / 2;
+    }
     if (wrapX) cx -= Math.floor(cx / Lx) * Lx;
     const radius = Math.sqrt(area[o]! / Math.PI);
     const loop = loopWinding(field, layer, cx, cy, radius, wrapX, wrapY);
@@ -311,15 +382,25 @@ export function findObjects(field: VectorField, options: ObjectOptions = {}): Ob
 
 /** Mean lattice coordinates (u, v) of the seed cells of each object; circular means on periodic axes. */
 function seedCentroids(seed: Uint8Array, basin: Int32Array, nObj: number, nx: number, ny: number, wrapX: boolean, wrapY: boolean): Array<[number, number]> {
-  const cu = new Float64Array(nObj), su = new Float64Array(nObj), cv = new Float64Array(nObj), sv = new Float64Array(nObj);
-  const mu = new Float64Array(nObj), mv = new Float64Array(nObj), cnt = new Float64Array(nObj);
+  const cu = new Float64Array(nObj),
+    su = new Float64Array(nObj),
+    cv = new Float64Array(nObj),
+    sv = new Float64Array(nObj);
+  const mu = new Float64Array(nObj),
+    mv = new Float64Array(nObj),
+    cnt = new Float64Array(nObj);
   for (let c = 0; c < nx * ny; c++) {
     if (seed[c] !== 1) continue;
     const o = basin[c]!;
-    const i = c % nx, j = (c - i) / nx;
-    cu[o]! += Math.cos((2 * Math.PI * i) / nx); su[o]! += Math.sin((2 * Math.PI * i) / nx);
-    cv[o]! += Math.cos((2 * Math.PI * j) / ny); sv[o]! += Math.sin((2 * Math.PI * j) / ny);
-    mu[o]! += i; mv[o]! += j; cnt[o]!++;
+    const i = c % nx,
+      j = (c - i) / nx;
+    cu[o]! += Math.cos((2 * Math.PI * i) / nx);
+    su[o]! += Math.sin((2 * Math.PI * i) / nx);
+    cv[o]! += Math.cos((2 * Math.PI * j) / ny);
+    sv[o]! += Math.sin((2 * Math.PI * j) / ny);
+    mu[o]! += i;
+    mv[o]! += j;
+    cnt[o]!++;
   }
   const out: Array<[number, number]> = [];
   for (let o = 0; o < nObj; o++) {
@@ -351,15 +432,34 @@ function sampleInPlane(field: VectorField, layer: number, x: number, y: number, 
   const { nx, ny, m, vacuum } = field;
   let v = y / field.dy;
   let u = field.lattice === "triangular" ? x / field.dx - v / 2 : x / field.dx;
-  if (wrapY) { const s = Math.floor(v / ny); v -= s * ny; if (field.lattice === "triangular") u += (s * ny) / 2; }
+  if (wrapY) {
+    const s = Math.floor(v / ny);
+    v -= s * ny;
+    if (field.lattice === "triangular") u += (s * ny) / 2;
+  }
   if (wrapX) u -= Math.floor(u / nx) * nx;
-  const i0 = Math.floor(u), j0 = Math.floor(v);
-  const fu = u - i0, fv = v - j0;
-  let sxv = 0, syv = 0;
-  for (const [di, dj, w] of [[0, 0, (1 - fu) * (1 - fv)], [1, 0, fu * (1 - fv)], [0, 1, (1 - fu) * fv], [1, 1, fu * fv]] as const) {
-    let i = i0 + di, j = j0 + dj;
-    if (i >= nx) { if (!wrapX) return null; i -= nx; }
-    if (j >= ny) { if (!wrapY) return null; j -= ny; }
+  const i0 = Math.floor(u),
+    j0 = Math.floor(v);
+  const fu = u - i0,
+    fv = v - j0;
+  let sxv = 0,
+    syv = 0;
+  for (const [di, dj, w] of [
+    [0, 0, (1 - fu) * (1 - fv)],
+    [1, 0, fu * (1 - fv)],
+    [0, 1, (1 - fu) * fv],
+    [1, 1, fu * fv],
+  ] as const) {
+    let i = i0 + di,
+      j = j0 + dj;
+    if (i >= nx) {
+      if (!wrapX) return null;
+      i -= nx;
+    }
+    if (j >= ny) {
+      if (!wrapY) return null;
+      j -= ny;
+    }
     if (i < 0 || j < 0) return null;
     const c = layer * nx * ny + j * nx + i;
     if (vacuum !== null && vacuum[c] === 1) return null;
@@ -374,7 +474,13 @@ function sampleInPlane(field: VectorField, layer: number, x: number, y: number, 
  * around (cx, cy).
  */
 export function loopWinding(
-  field: VectorField, layer: number, cx: number, cy: number, r: number, wrapX: boolean, wrapY: boolean,
+  field: VectorField,
+  layer: number,
+  cx: number,
+  cy: number,
+  r: number,
+  wrapX: boolean,
+  wrapY: boolean,
 ): { vorticity: number | null; helicity: number | null; note?: string } {
   const h = Math.min(field.dx, field.dy);
   const rr = Math.max(r, 1.5 * h);
@@ -391,7 +497,8 @@ export function loopWinding(
     weight[k] = mag;
   }
   const v = s1Winding(Phi);
-  let c = 0, s = 0;
+  let c = 0,
+    s = 0;
   for (let k = 0; k < N; k++) {
     const g = wrapAngle(Phi[k]! - (v * 2 * Math.PI * k) / N);
     c += weight[k]! * Math.cos(g);

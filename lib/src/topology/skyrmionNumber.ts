@@ -52,10 +52,7 @@ export interface SkyrmionNumberResult {
   sources: string[];
 }
 
-export const LATTICE_Q_SOURCES = [
-  "B. Berg, M. Luescher, Nucl. Phys. B 190, 412 (1981)",
-  "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)",
-];
+export const LATTICE_Q_SOURCES = ["B. Berg, M. Luescher, Nucl. Phys. B 190, 412 (1981)", "A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983)"];
 
 function checkLayer(field: VectorField, layer: number | undefined): number {
   const k = layer ?? 0;
@@ -113,9 +110,7 @@ export function plaquetteOrigin(field: VectorField): [number, number] {
 
 /** Position (m) of the centre of plaquette (i, j). */
 export function plaquetteCentre(field: VectorField, i: number, j: number): [number, number] {
-  return field.lattice === "triangular"
-    ? [(i + 0.5 + (j + 0.5) / 2) * field.dx, (j + 0.5) * field.dy]
-    : [(i + 0.5) * field.dx, (j + 0.5) * field.dy];
+  return field.lattice === "triangular" ? [(i + 0.5 + (j + 0.5) / 2) * field.dx, (j + 0.5) * field.dy] : [(i + 0.5) * field.dx, (j + 0.5) * field.dy];
 }
 
 /** Skyrmion number of every layer of a (3D) field, lower layer first (0 for a layer that is all vacuum). */

@@ -5,11 +5,7 @@
  * Sources: A. Van Oosterom, J. Strackee, IEEE Trans. Biomed. Eng. 30, 125 (1983) (the formula);
  * B. Berg, M. Luescher, Nucl. Phys. B 190, 412 (1981) (its use as a lattice topological density).
  */
-export function triangleSolidAngle(
-  ax: number, ay: number, az: number,
-  bx: number, by: number, bz: number,
-  cx: number, cy: number, cz: number,
-): number {
+export function triangleSolidAngle(ax: number, ay: number, az: number, bx: number, by: number, bz: number, cx: number, cy: number, cz: number): number {
   const triple = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
   const denom = 1 + ax * bx + ay * by + az * bz + bx * cx + by * cy + bz * cz + cx * ax + cy * ay + cz * az;
   return 2 * Math.atan2(triple, denom);

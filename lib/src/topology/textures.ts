@@ -70,21 +70,30 @@ function displacementFn(geom: FieldGeometry, periodic: boolean): (x: number, y: 
   const tri = geom.lattice === "triangular";
   const dy = geom.dy ?? (tri ? (dx * Math.sqrt(3)) / 2 : dx);
   const a1: [number, number] = [geom.nx * dx, 0];
-  const a2: [number, number] = tri ? [geom.ny * dx / 2, geom.ny * dy] : [0, geom.ny * dy];
+  const a2: [number, number] = tri ? [(geom.ny * dx) / 2, geom.ny * dy] : [0, geom.ny * dy];
   return (x, y, x0, y0) => {
-    let ex = x - x0, ey = y - y0;
+    let ex = x - x0,
+      ey = y - y0;
     if (!periodic) return [ex, ey];
     // reduce to the supercell in lattice coordinates, then test the neighbouring images
     const v = Math.round(ey / a2[1]);
-    ex -= v * a2[0]; ey -= v * a2[1];
+    ex -= v * a2[0];
+    ey -= v * a2[1];
     const u = Math.round(ex / a1[0]);
     ex -= u * a1[0];
-    let bx = ex, by = ey, best = ex * ex + ey * ey;
+    let bx = ex,
+      by = ey,
+      best = ex * ex + ey * ey;
     for (let p = -1; p <= 1; p++) {
       for (let q = -1; q <= 1; q++) {
-        const tx = ex + p * a1[0] + q * a2[0], ty = ey + q * a2[1];
+        const tx = ex + p * a1[0] + q * a2[0],
+          ty = ey + q * a2[1];
         const d = tx * tx + ty * ty;
-        if (d < best) { best = d; bx = tx; by = ty; }
+        if (d < best) {
+          best = d;
+          bx = tx;
+          by = ty;
+        }
       }
     }
     return [bx, by];
@@ -123,14 +132,22 @@ export function textureOfObjects(
   const disp = displacementFn(geom, grid.periodic ?? true);
   return vectorFieldFromFunction(geom, (x, y) => {
     if (objects.length === 0) return [0, 0, bg];
-    let best = Infinity, ex = 0, ey = 0, o: TextureObject = objects[0]!;
+    let best = Infinity,
+      ex = 0,
+      ey = 0,
+      o: TextureObject = objects[0]!;
     const list = candidates ? candidates(x, y) : null;
     const count = list ? list.length : objects.length;
     for (let q = 0; q < count; q++) {
       const obj = objects[list ? list[q]! : q]!;
       const [px, py] = disp(x, y, obj.x, obj.y);
       const d = px * px + py * py;
-      if (d < best) { best = d; ex = px; ey = py; o = obj; }
+      if (d < best) {
+        best = d;
+        ex = px;
+        ey = py;
+        o = obj;
+      }
     }
     const rho = Math.sqrt(best);
     let theta = wallProfileTheta(rho, o.R, o.w);
@@ -199,8 +216,10 @@ export interface SkyrmionLatticeSpec {
 export function skyrmionLatticeTexture(grid: GridSpec, s: SkyrmionLatticeSpec, options: TextureOptions = {}): VectorField & { centres: Array<[number, number]> } {
   if ((grid.lattice ?? "square") !== "square") throw new InputError("lattice", grid.lattice, '"square" for the skyrmion-lattice generator');
   if (!(s.a > 0)) throw new InputError("a", s.a, "a positive lattice constant (m)");
-  const dx = grid.dx ?? 1e-9, dy = grid.dy ?? dx;
-  const Lx = grid.nx * dx, Ly = grid.ny * dy;
+  const dx = grid.dx ?? 1e-9,
+    dy = grid.dy ?? dx;
+  const Lx = grid.nx * dx,
+    Ly = grid.ny * dy;
   const cols = Math.max(1, Math.round(Lx / s.a));
   const rows = Math.max(2, 2 * Math.round(Ly / (s.a * Math.sqrt(3))));
   const centres: Array<[number, number]> = [];
@@ -217,7 +236,8 @@ export function skyrmionLatticeTexture(grid: GridSpec, s: SkyrmionLatticeSpec, o
     }
   }
   // the nearest centre lies within two rows and one column of the cell: 15 candidates instead of all
-  const rowH = Ly / rows, colW = Lx / cols;
+  const rowH = Ly / rows,
+    colW = Lx / cols;
   const list = new Int32Array(15);
   const near = (x: number, y: number) => {
     const r0 = Math.floor(y / rowH);
@@ -255,8 +275,10 @@ export function vortexPairTexture(grid: GridSpec, s: VortexPairSpec, options: { 
   const geom = gridGeometry(grid, options.source ?? "generated vortex-antivortex pair");
   const rc = s.coreRadius ?? 0;
   if (!(rc >= 0)) throw new InputError("coreRadius", s.coreRadius, "a core radius >= 0 (m)");
-  const p1 = s.vortexPolarity ?? 1, p2 = s.antivortexPolarity ?? 1;
-  const [x1, y1] = s.vortex, [x2, y2] = s.antivortex;
+  const p1 = s.vortexPolarity ?? 1,
+    p2 = s.antivortexPolarity ?? 1;
+  const [x1, y1] = s.vortex,
+    [x2, y2] = s.antivortex;
   return vectorFieldFromFunction(geom, (x, y) => {
     const Phi = Math.atan2(y - y1, x - x1) - Math.atan2(y - y2, x - x2) + (s.angle ?? 0);
     let mz = 0;

@@ -57,7 +57,9 @@ export function blochPointTexture(grid: Grid3D, options: { lambda?: number; x0?:
   const y0 = options.y0 ?? ((g.ny - 1) / 2 + 0.25) * g.dy;
   const z0 = options.z0 ?? ((g.nz - 1) / 2 + 0.25) * g.dz;
   return vectorFieldFromFunction(g, (x, y, z) => {
-    const X = (x - x0) / lambda, Y = (y - y0) / lambda, Z = (z - z0) / lambda;
+    const X = (x - x0) / lambda,
+      Y = (y - y0) / lambda,
+      Z = (z - z0) / lambda;
     const r2 = Math.min(X * X + Y * Y, 600);
     const nz = Math.expm1(r2 / 2) - Z;
     // unit vectors here: |n| spans many decades, and a relative vacuum threshold must not see that

@@ -119,7 +119,10 @@ export function estimateNoiseLevel(field: VectorField, layer = 0): number {
     for (let i = 0; i < nx; i++) {
       const c = j * nx + i;
       if (isVac(c)) continue;
-      for (const [a, b] of [[i > 0 && i + 1 < nx ? c - 1 : -1, i > 0 && i + 1 < nx ? c + 1 : -1], [j > 0 && j + 1 < ny ? c - nx : -1, j > 0 && j + 1 < ny ? c + nx : -1]] as const) {
+      for (const [a, b] of [
+        [i > 0 && i + 1 < nx ? c - 1 : -1, i > 0 && i + 1 < nx ? c + 1 : -1],
+        [j > 0 && j + 1 < ny ? c - nx : -1, j > 0 && j + 1 < ny ? c + nx : -1],
+      ] as const) {
         if (a < 0 || b < 0 || isVac(a) || isVac(b)) continue;
         for (let q = 0; q < 2; q++) d[nd++] = Math.abs(m[3 * (base + a) + q]! - 2 * m[3 * (base + c) + q]! + m[3 * (base + b) + q]!);
       }
@@ -138,9 +141,25 @@ const MAX_NOISE_TOLERANCE = 0.5;
 export const DEFAULT_MIN_IN_PLANE = 1e-3;
 
 const TWO_PI = 2 * Math.PI;
-const SQUARE_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [1, -1], [-1, 1], [-1, -1]];
+const SQUARE_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [
+  [1, 0],
+  [-1, 0],
+  [0, 1],
+  [0, -1],
+  [1, 1],
+  [1, -1],
+  [-1, 1],
+  [-1, -1],
+];
 // triangles (i,j)(i+1,j)(i,j+1) and (i+1,j)(i+1,j+1)(i,j+1): the six bonds
-const TRIANGULAR_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [[1, 0], [-1, 0], [0, 1], [0, -1], [1, -1], [-1, 1]];
+const TRIANGULAR_NEIGHBOURS: ReadonlyArray<readonly [number, number]> = [
+  [1, 0],
+  [-1, 0],
+  [0, 1],
+  [0, -1],
+  [1, -1],
+  [-1, 1],
+];
 
 interface SiteSet {
   sites: number[];
@@ -160,11 +179,13 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   const tol0 = options.minInPlane ?? DEFAULT_MIN_IN_PLANE;
   if (!(tol0 >= 0 && tol0 < 1)) throw new InputError("minInPlane", options.minInPlane, "a tolerance |m_xy| / |m| from 0 up to (not including) 1");
   const noiseOpt = options.noise ?? "auto";
-  if (noiseOpt !== "auto" && !(typeof noiseOpt === "number" && noiseOpt >= 0 && Number.isFinite(noiseOpt))) throw new InputError("noise", options.noise, '"auto" or a noise level >= 0 of the components of m');
+  if (noiseOpt !== "auto" && !(typeof noiseOpt === "number" && noiseOpt >= 0 && Number.isFinite(noiseOpt)))
+    throw new InputError("noise", options.noise, '"auto" or a noise level >= 0 of the components of m');
   requireAtLeast(field, 2, 2, "plaquette windings (one plaquette needs 2x2 cells)");
   requireSomeMatter(field, "vortex finding");
   const zeroLineAngle = options.zeroLineAngle ?? (2 * Math.PI) / 3;
-  if (!(zeroLineAngle > 0 && zeroLineAngle <= Math.PI)) throw new InputError("zeroLineAngle", options.zeroLineAngle, "an angle in (0, pi] rad (pi switches the zero-line rule off)");
+  if (!(zeroLineAngle > 0 && zeroLineAngle <= Math.PI))
+    throw new InputError("zeroLineAngle", options.zeroLineAngle, "an angle in (0, pi] rad (pi switches the zero-line rule off)");
   const noiseLevel = noiseOpt === "auto" ? estimateNoiseLevel(field, k) : noiseOpt;
   const tol = Math.max(tol0, Math.min(MAX_NOISE_TOLERANCE, 4 * noiseLevel));
   const { nx, ny, m, vacuum } = field;
@@ -177,7 +198,9 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   for (let c = 0; c < n; c++) {
     if (isVacuum(c)) continue;
     const g = 3 * (base + c);
-    const x = m[g]!, y = m[g + 1]!, z = m[g + 2]!;
+    const x = m[g]!,
+      y = m[g + 1]!,
+      z = m[g + 2]!;
     const p2 = x * x + y * y;
     if (p2 > 0 && p2 >= tol * tol * (p2 + z * z)) {
       phi[c] = Math.atan2(y, x);
@@ -188,15 +211,31 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   {
     const flip = new Uint8Array(n);
     const cosMax = Math.cos(zeroLineAngle);
-    const pairs: Array<[number, number]> = tri ? [[1, 0], [0, 1], [-1, 1]] : [[1, 0], [0, 1]];
+    const pairs: Array<[number, number]> = tri
+      ? [
+          [1, 0],
+          [0, 1],
+          [-1, 1],
+        ]
+      : [
+          [1, 0],
+          [0, 1],
+        ];
     for (let j = 0; j < ny; j++) {
       for (let i = 0; i < nx; i++) {
         const c = j * nx + i;
         if (ok[c] !== 1) continue;
         for (const [di, dj] of pairs) {
-          let ii = i + di, jj = j + dj;
-          if (ii < 0 || ii >= nx) { if (!wrapX) continue; ii = (ii + nx) % nx; }
-          if (jj >= ny) { if (!wrapY) continue; jj -= ny; }
+          let ii = i + di,
+            jj = j + dj;
+          if (ii < 0 || ii >= nx) {
+            if (!wrapX) continue;
+            ii = (ii + nx) % nx;
+          }
+          if (jj >= ny) {
+            if (!wrapY) continue;
+            jj -= ny;
+          }
           const t = jj * nx + ii;
           if (ok[t] !== 1) continue;
           if (Math.cos(phi[t]! - phi[c]!) < cosMax) flip[c] = flip[t] = 1;
@@ -209,7 +248,8 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
 
   // rule 3: connected sets of sites without direction, with unwrapped indices to see wrapping
   const setOf = new Int32Array(n).fill(-1);
-  const ui = new Int32Array(n), uj = new Int32Array(n);
+  const ui = new Int32Array(n),
+    uj = new Int32Array(n);
   const sets: SiteSet[] = [];
   const offsets = tri ? TRIANGULAR_NEIGHBOURS : SQUARE_NEIGHBOURS;
   for (let c0 = 0; c0 < n; c0++) {
@@ -228,14 +268,22 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
       set.sj += uj[s]!;
       if (isVacuum(s)) set.hasVacuum = true;
       for (const [di, dj] of offsets) {
-        const a = ui[s]! + di, b = uj[s]! + dj;
-        let ii = a, jj = b;
+        const a = ui[s]! + di,
+          b = uj[s]! + dj;
+        let ii = a,
+          jj = b;
         if (ii < 0 || ii >= nx) {
-          if (!wrapX) { set.reachesEdge = true; continue; }
+          if (!wrapX) {
+            set.reachesEdge = true;
+            continue;
+          }
           ii = ((ii % nx) + nx) % nx;
         }
         if (jj < 0 || jj >= ny) {
-          if (!wrapY) { set.reachesEdge = true; continue; }
+          if (!wrapY) {
+            set.reachesEdge = true;
+            continue;
+          }
           jj = ((jj % ny) + ny) % ny;
         }
         const t = jj * nx + ii;
@@ -255,7 +303,10 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   const sites: VortexSite[] = [];
   const plaquette = (cs: number[], i: number, j: number, x: number, y: number) => {
     for (const c of cs) {
-      if (ok[c] === 0) { sets[setOf[c]!]!.plaquettes.push(cs); return; }
+      if (ok[c] === 0) {
+        sets[setOf[c]!]!.plaquettes.push(cs);
+        return;
+      }
     }
     let s = 0;
     for (let q = 0; q < cs.length; q++) s += edge(cs[q]!, cs[(q + 1) % cs.length]!);
@@ -266,12 +317,16 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
       sites.push({ i, j, x, y, winding: w, mz: mz / cs.length, coreSites: 0 });
     }
   };
-  const px = wrapX ? nx : nx - 1, py = wrapY ? ny : ny - 1;
+  const px = wrapX ? nx : nx - 1,
+    py = wrapY ? ny : ny - 1;
   for (let j = 0; j < py; j++) {
     const jn = j + 1 === ny ? 0 : j + 1;
     for (let i = 0; i < px; i++) {
       const inx = i + 1 === nx ? 0 : i + 1;
-      const a = j * nx + i, b = j * nx + inx, c = jn * nx + inx, d = jn * nx + i;
+      const a = j * nx + i,
+        b = j * nx + inx,
+        c = jn * nx + inx,
+        d = jn * nx + i;
       if (!tri) {
         plaquette([a, b, c, d], i, j, (i + 0.5) * field.dx, (j + 0.5) * field.dy);
       } else {
@@ -287,15 +342,20 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
     const directed = new Map<number, [number, number]>();
     for (const cs of plaqs) {
       for (let q = 0; q < cs.length; q++) {
-        const u = cs[q]!, v = cs[(q + 1) % cs.length]!;
+        const u = cs[q]!,
+          v = cs[(q + 1) % cs.length]!;
         const back = v * n + u;
         if (directed.has(back)) directed.delete(back);
         else directed.set(u * n + v, [u, v]);
       }
     }
-    let sum = 0, closed = true;
+    let sum = 0,
+      closed = true;
     for (const [u, v] of directed.values()) {
-      if (ok[u] === 0 || ok[v] === 0) { closed = false; continue; }
+      if (ok[u] === 0 || ok[v] === 0) {
+        closed = false;
+        continue;
+      }
       sum += edge(u, v);
     }
     return { sum, closed };
@@ -303,15 +363,21 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
 
   // rule 5: is a set a line or a ring (not a point)?
   const isLine = (set: SiteSet): boolean => {
-    let i0 = Infinity, i1 = -Infinity, j0 = Infinity, j1 = -Infinity;
+    let i0 = Infinity,
+      i1 = -Infinity,
+      j0 = Infinity,
+      j1 = -Infinity;
     for (const c of set.sites) {
-      i0 = Math.min(i0, ui[c]!); i1 = Math.max(i1, ui[c]!);
-      j0 = Math.min(j0, uj[c]!); j1 = Math.max(j1, uj[c]!);
+      i0 = Math.min(i0, ui[c]!);
+      i1 = Math.max(i1, ui[c]!);
+      j0 = Math.min(j0, uj[c]!);
+      j1 = Math.max(j1, uj[c]!);
     }
     const extent = Math.max(i1 - i0 + 1, j1 - j0 + 1);
     if (extent >= 4 && extent * extent >= 4 * set.sites.length) return true;
     // a hole: cells of the box (one cell margin) not in the set and not reachable from its border
-    const bw = i1 - i0 + 3, bh = j1 - j0 + 3;
+    const bw = i1 - i0 + 3,
+      bh = j1 - j0 + 3;
     if (bw * bh > 4_000_000) return false;
     const mark = new Uint8Array(bw * bh);
     for (const c of set.sites) mark[(uj[c]! - j0 + 1) * bw + (ui[c]! - i0 + 1)] = 1;
@@ -320,9 +386,16 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
     let reached = 1;
     while (stack.length) {
       const q = stack.pop()!;
-      const qi = q % bw, qj = (q - qi) / bw;
-      for (const [di, dj] of [[1, 0], [-1, 0], [0, 1], [0, -1]] as const) {
-        const a = qi + di, b = qj + dj;
+      const qi = q % bw,
+        qj = (q - qi) / bw;
+      for (const [di, dj] of [
+        [1, 0],
+        [-1, 0],
+        [0, 1],
+        [0, -1],
+      ] as const) {
+        const a = qi + di,
+          b = qj + dj;
         if (a < 0 || b < 0 || a >= bw || b >= bh) continue;
         const r = b * bw + a;
         if (mark[r] !== 0) continue;
@@ -334,7 +407,11 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
     return reached + set.sites.length < bw * bh;
   };
 
-  let skipped = 0, backgroundRegions = 0, background = 0, backgroundClosed = wrapX && wrapY, zeroLines = 0;
+  let skipped = 0,
+    backgroundRegions = 0,
+    background = 0,
+    backgroundClosed = wrapX && wrapY,
+    zeroLines = 0;
   for (const set of sets) {
     const { sum, closed } = borderSum(set.plaquettes);
     const enclosed = !set.reachesEdge && !set.wraps && !set.hasVacuum;
@@ -352,20 +429,30 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
     const count = set.sites.length;
     let mz = 0;
     for (const c of set.sites) mz += m[3 * (base + c) + 2]!;
-    const ci = ((set.si / count) % nx + nx) % nx, cj = ((set.sj / count) % ny + ny) % ny;
+    const ci = (((set.si / count) % nx) + nx) % nx,
+      cj = (((set.sj / count) % ny) + ny) % ny;
     const [x, y] = cellPosition(field, ci, cj);
     sites.push({ i: Math.round(ci) % nx, j: Math.round(cj) % ny, x, y, winding: w, mz: mz / count, coreSites: count });
   }
 
-  let vortices = 0, antivortices = 0, total = 0;
+  let vortices = 0,
+    antivortices = 0,
+    total = 0;
   for (const s of sites) {
     if (s.winding > 0) vortices++;
     else antivortices++;
     total += s.winding;
   }
   return {
-    sites, vortices, antivortices, totalWinding: total,
+    sites,
+    vortices,
+    antivortices,
+    totalWinding: total,
     backgroundWinding: backgroundClosed ? background + 0 : null,
-    backgroundRegions, skipped, minInPlane: tol, noiseLevel, zeroLines,
+    backgroundRegions,
+    skipped,
+    minInPlane: tol,
+    noiseLevel,
+    zeroLines,
   };
 }

@@ -26,7 +26,8 @@ export function s1Winding(angles: ArrayLike<number>): number {
   if (n < 2) throw new InputError("angles", angles, "a closed sequence of at least 2 angles");
   let sum = 0;
   for (let k = 0; k < n; k++) {
-    const a = angles[k]!, b = angles[(k + 1) % n]!;
+    const a = angles[k]!,
+      b = angles[(k + 1) % n]!;
     if (!Number.isFinite(a)) throw new InputError(`angles[${k}]`, a, "a finite angle in radians");
     sum += wrapAngle(b - a);
   }
@@ -41,7 +42,8 @@ export function s1WindingOfVectors(vx: ArrayLike<number>, vy: ArrayLike<number>)
   if (vx.length !== vy.length) throw new InputError("vy", vy, `the same length as vx (${vx.length})`);
   const angles = new Float64Array(vx.length);
   for (let k = 0; k < vx.length; k++) {
-    const x = vx[k]!, y = vy[k]!;
+    const x = vx[k]!,
+      y = vy[k]!;
     if (!(x * x + y * y > 0)) throw new InputError(`vectors[${k}]`, [x, y], "a non-zero planar vector (a direction)");
     angles[k] = Math.atan2(y, x);
   }

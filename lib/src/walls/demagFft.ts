@@ -43,13 +43,7 @@ export interface GridMagnetostaticEnergy {
 }
 
 /** Sample an axisymmetric texture theta(rho), helicity psi (vorticity 1), centred on the grid. */
-export function sampleAxisymmetricTexture(
-  theta: (rho: number) => number,
-  psi: number,
-  nx: number,
-  ny: number,
-  cell: number,
-): GridTexture {
+export function sampleAxisymmetricTexture(theta: (rho: number) => number, psi: number, nx: number, ny: number, cell: number): GridTexture {
   checkGrid(nx, ny, cell);
   const n = nx * ny;
   const mx = new Float64Array(n);
@@ -85,7 +79,11 @@ export function gridMagnetostaticEnergy(tex: GridTexture, Ms: number, t: number)
   if (!(Ms > 0)) throw new InputError("Ms", Ms, "a positive saturation magnetization in A/m");
   if (!(t > 0)) throw new InputError("t", t, "a positive thickness in m");
   const n = nx * ny;
-  for (const [name, arr] of [["mx", tex.mx], ["my", tex.my], ["mz", tex.mz]] as const) {
+  for (const [name, arr] of [
+    ["mx", tex.mx],
+    ["my", tex.my],
+    ["mz", tex.mz],
+  ] as const) {
     if (!(arr instanceof Float64Array) || arr.length !== n) throw new InputError(name, arr, `a Float64Array of length nx * ny = ${n}`);
   }
   const zr = Float64Array.from(tex.mz);

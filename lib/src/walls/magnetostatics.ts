@@ -157,12 +157,7 @@ export interface NonlocalEnergy {
  * Non-local magnetostatic energy E_nl (J) of an axisymmetric profile theta(rho) (rad, rho in m) in a
  * film (Ms in A/m, t in m), beyond the local K_eff term. See the file header for the formulas.
  */
-export function profileNonlocalEnergy(
-  Ms: number,
-  t: number,
-  theta: (rho: number) => number,
-  options: ProfileMagnetostaticsOptions,
-): NonlocalEnergy {
+export function profileNonlocalEnergy(Ms: number, t: number, theta: (rho: number) => number, options: ProfileMagnetostaticsOptions): NonlocalEnergy {
   if (!(Ms > 0)) throw new InputError("Ms", Ms, "a positive saturation magnetization in A/m");
   if (!(t > 0)) throw new InputError("t", t, "a positive thickness in m");
   const { rhoMax, scale } = options;

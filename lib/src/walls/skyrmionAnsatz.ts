@@ -252,7 +252,11 @@ class AnsatzLatticeSampler {
   readonly count = 2;
   private readonly sa: number;
   private readonly S: number;
-  constructor(a: number, private readonly d: number, private readonly L: number) {
+  constructor(
+    a: number,
+    private readonly d: number,
+    private readonly L: number,
+  ) {
     this.sa = Math.sinh(a);
     this.S = this.sa * this.sa;
   }
@@ -1095,7 +1099,12 @@ function verify(ctx: Context, u: number, v: number): AnsatzVerification {
   ansatzLocalIntegralsTabulated(Math.exp(u), ctx.I);
   energyAt(ctx, Math.exp(u), Math.exp(v), parts);
   const scale =
-    Math.abs(parts.exchange) + Math.abs(parts.anisotropy) + Math.abs(parts.dmi) + Math.abs(parts.zeeman) + Math.abs(parts.magnetostaticSurface) + Math.abs(parts.magnetostaticVolume);
+    Math.abs(parts.exchange) +
+    Math.abs(parts.anisotropy) +
+    Math.abs(parts.dmi) +
+    Math.abs(parts.zeeman) +
+    Math.abs(parts.magnetostaticSurface) +
+    Math.abs(parts.magnetostaticVolume);
   const hess = (d: number): { g: number; ev: [number, number] } => {
     stencil(ctx, u, v, d, E);
     const e0 = E[4]!;
@@ -1265,7 +1274,7 @@ export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions &
     for (let i = 1; i < n; i++) {
       if (edge[i] || !(es[i]! <= es[i - 1]! && es[i]! <= es[i + 1]!)) continue;
       const o = refine(ctx, us[i - 1]!, us[i + 1]!, lws[i]!);
-      if (o.kind === "min" && (Math.abs(o.u - us[i]!) > 2 * SCAN_DU)) {
+      if (o.kind === "min" && Math.abs(o.u - us[i]!) > 2 * SCAN_DU) {
         // the polish left the scan bracket: a local search from the scan point decides
         outcome(localSearch(ctx, us[i]!, lws[i]!));
       } else outcome(o);
@@ -1394,7 +1403,10 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
       edgeNotes.push(
         "the energy decreases as R shrinks below 0.3 w, the edge of the ansatz window: the continuum minimum (if any) lies at smaller radius, where the energy approaches the Belavin-Polyakov value 8 pi A t; such a radius is below what a continuum model describes for lattice constants of a few tenths of a nm",
       );
-    if (search.decreasesToLargeEdge) edgeNotes.push("the energy decreases as R grows towards 100 w, the edge of the ansatz window: run-away expansion towards a strip or reversed domain, or a larger bubble than the window holds");
+    if (search.decreasesToLargeEdge)
+      edgeNotes.push(
+        "the energy decreases as R grows towards 100 w, the edge of the ansatz window: run-away expansion towards a strip or reversed domain, or a larger bubble than the window holds",
+      );
     const toLarge = search.decreasesToLargeEdge && (!search.decreasesToSmallEdge || search.largeEdgeEnergy < search.smallEdgeEnergy);
     const status: AnsatzSkyrmion["status"] = spiral && B <= phase.saturationField ? "spiral" : toLarge ? "expanded" : search.decreasesToSmallEdge ? "below-window" : "none";
     notes.push(`No verified local minimum of the ansatz energy at B = ${mT(B)} inside the window${edgeNotes.length ? ": " + edgeNotes.join("; ") : ""}.`);
@@ -1403,7 +1415,9 @@ export function solveSkyrmionAnsatz(film: Film, B: number, options: AnsatzOption
     return out;
   }
   if (search.minima.length > 1) {
-    notes.push(`${search.minima.length} local minima at this field (R = ${search.minima.map((m) => fmtLen(m.radius)).join(", ")}); the one reported is ${options.startRadius ? "the one continued from the start radius" : "the lowest in energy"}.`);
+    notes.push(
+      `${search.minima.length} local minima at this field (R = ${search.minima.map((m) => fmtLen(m.radius)).join(", ")}); the one reported is ${options.startRadius ? "the one continued from the start radius" : "the lowest in energy"}.`,
+    );
   }
   const okOut: AnsatzSkyrmion = {
     status: "ok",

@@ -80,13 +80,7 @@ function relax(d: number, b: number, h: number, n: number, guess: Float64Array):
       const x = i * h;
       const sn = Math.sin(t[i]!);
       const cs = Math.cos(t[i]!);
-      const r =
-        (t[i + 1]! - 2 * t[i]! + t[i - 1]!) * ih2 +
-        (t[i + 1]! - t[i - 1]!) / (2 * h * x) -
-        (sn * cs) / (x * x) -
-        sn * cs +
-        (d * sn * sn) / x -
-        b * sn;
+      const r = (t[i + 1]! - 2 * t[i]! + t[i - 1]!) * ih2 + (t[i + 1]! - t[i - 1]!) / (2 * h * x) - (sn * cs) / (x * x) - sn * cs + (d * sn * sn) / x - b * sn;
       if (out) out[i - 1] = r;
       s += r * r;
     }
@@ -201,12 +195,25 @@ export function solveSkyrmionExact(film: Film, B: number, options: ExactOptions 
   }
   if (Math.abs(film.D) > Dc && !(B > Bsat)) {
     const sp = spiralState(film);
-    notes.push(`|D| > D_c = ${(Dc * 1e3).toPrecision(4)} mJ/m^2 and B <= B_sat = ${(Bsat * 1e3).toPrecision(4)} mT: a 360-degree wall has negative energy, a spiral or strip state is the ground state; no isolated skyrmion is solved for.`);
+    notes.push(
+      `|D| > D_c = ${(Dc * 1e3).toPrecision(4)} mJ/m^2 and B <= B_sat = ${(Bsat * 1e3).toPrecision(4)} mT: a 360-degree wall has negative energy, a spiral or strip state is the ground state; no isolated skyrmion is solved for.`,
+    );
     const empty = new Float64Array(0);
     return {
-      status: "spiral", radius: NaN, energy: NaN, helicity, rho: empty, theta: empty,
+      status: "spiral",
+      radius: NaN,
+      energy: NaN,
+      helicity,
+      rho: empty,
+      theta: empty,
       profile: { theta: () => 0, dtheta: () => 0, rhoMax: 1, scale: 0.5 },
-      d, b, length: 0, step: 0, newtonIterations: 0, spiralPeriod: sp.period, notes,
+      d,
+      b,
+      length: 0,
+      step: 0,
+      newtonIterations: 0,
+      spiralPeriod: sp.period,
+      notes,
     };
   }
   if (!(b > -1)) throw new InputError("B", B, `a field above -2 K_eff / Ms = ${((-2 * K) / film.Ms).toPrecision(4)} T (the background must be stable)`);
@@ -277,8 +284,7 @@ export function solveSkyrmionExact(film: Film, B: number, options: ExactOptions 
   for (let i = 0; i <= n; i++) rho[i] = i * hF * Delta;
   const dth = new Float64Array(n + 1);
   for (let i = 0; i <= n; i++) {
-    dth[i] =
-      i === 0 ? (-3 * th[0]! + 4 * th[1]! - th[2]!) / (2 * hF) : i === n ? (3 * th[n]! - 4 * th[n - 1]! + th[n - 2]!) / (2 * hF) : (th[i + 1]! - th[i - 1]!) / (2 * hF);
+    dth[i] = i === 0 ? (-3 * th[0]! + 4 * th[1]! - th[2]!) / (2 * hF) : i === n ? (3 * th[n]! - 4 * th[n - 1]! + th[n - 2]!) / (2 * hF) : (th[i + 1]! - th[i - 1]!) / (2 * hF);
   }
   const hermite = (rhoQ: number, deriv: boolean) => {
     const x = rhoQ / Delta;

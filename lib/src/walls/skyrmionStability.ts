@@ -278,7 +278,8 @@ export function skyrmionStability(film: Film, B: number, options: StabilityOptio
     const l = md.m === 1 ? md.eigenvalues[1] : md.eigenvalues[0];
     if (l < -tolerance && (!worst || l < worst.l)) worst = { m: md.m, l };
   }
-  if (Math.abs(m1.eigenvalues[0]) > 1e-3) notes.push(`The m = 1 translation mode is at ${m1.eigenvalues[0].toExponential(2)} K_eff instead of 0: the grid is too coarse for this profile.`);
+  if (Math.abs(m1.eigenvalues[0]) > 1e-3)
+    notes.push(`The m = 1 translation mode is at ${m1.eigenvalues[0].toExponential(2)} K_eff instead of 0: the grid is too coarse for this profile.`);
   const Dc = criticalDmi(film);
   if (Math.abs(film.D) > Dc) notes.push(`|D| > D_c: B_sat = ${(saturationField(film) * 1e3).toPrecision(4)} mT.`);
   const out: SkyrmionStability = { B, skyrmion: sk, modes, continuumEdge: 1 + b, stable: !worst, tolerance, notes };

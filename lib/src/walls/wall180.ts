@@ -171,10 +171,15 @@ export function neelWallChargeEnergy(f: Film, model: NeelChargeModel = "thin-fil
   if (model === "thin-film") return (Math.LN2 / Math.PI) * mu0 * f.Ms * f.Ms * f.t;
   const Delta = wallWidthParameter(f);
   const tau = (2 * f.t) / (Math.PI * Delta);
-  const integral = integrateHalfLine((u) => {
-    const s = 1 / Math.cosh(u);
-    return s * s * inPlaneKernel(tau * u);
-  }, 0, 1, { relTol: 1e-13 }).value;
+  const integral = integrateHalfLine(
+    (u) => {
+      const s = 1 / Math.cosh(u);
+      return s * s * inPlaneKernel(tau * u);
+    },
+    0,
+    1,
+    { relTol: 1e-13 },
+  ).value;
   return mu0 * f.Ms * f.Ms * Delta * integral;
 }
 

@@ -33,7 +33,8 @@ export function wallType(f: Film, model: Exclude<NeelChargeModel, "none"> = "ful
   const mJ = (v: number) => `${(v * 1e3).toPrecision(3)} mJ/m^2`;
   let text: string;
   if (f.dmi === "bulk") text = "Bulk DMI favours Bloch walls, which carry no volume charges: Bloch wall.";
-  else if (wall.character === "Neel") text = `|D| = ${mJ(Math.abs(f.D))} >= D_N = ${mJ(wall.neelThreshold)}: chiral Neel wall (helicity ${f.D > 0 ? "0, moment toward the up domain" : "pi, moment toward the down domain"}).`;
+  else if (wall.character === "Neel")
+    text = `|D| = ${mJ(Math.abs(f.D))} >= D_N = ${mJ(wall.neelThreshold)}: chiral Neel wall (helicity ${f.D > 0 ? "0, moment toward the up domain" : "pi, moment toward the down domain"}).`;
   else if (wall.character === "Bloch") text = "No DMI: Bloch wall (either sense of rotation).";
   else text = `|D| = ${mJ(Math.abs(f.D))} < D_N = ${mJ(wall.neelThreshold)}: intermediate wall, cos(helicity) = D / D_N = ${wall.cosHelicity.toPrecision(3)}.`;
   return { wall, neelThresholdThinFilm: thin, neelThresholdFullKernel: full, text };

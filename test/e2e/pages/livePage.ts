@@ -18,7 +18,12 @@ const VIEW = "application/vnd.jupyter.widget-view+json";
 
 class LiveManager extends HTMLManager {
   constructor(private readonly kernel: Kernel.IKernelConnection) {
-    super({ loader: async (name: string) => { if (name === "@helicoid/widgets") return ours; throw new Error(`no module ${name}`); } });
+    super({
+      loader: async (name: string) => {
+        if (name === "@helicoid/widgets") return ours;
+        throw new Error(`no module ${name}`);
+      },
+    });
     kernel.registerCommTarget(this.comm_target_name, async (comm, msg) => {
       await this.handle_comm_open(new shims.services.Comm(comm), msg as KernelMessage.ICommOpenMsg);
     });
@@ -61,13 +66,15 @@ async function execute(code: string): Promise<{ status: string; text: string; wi
       const data = (msg.content as { data: Record<string, any> }).data;
       if (data[VIEW]) {
         widgets++;
-        shows.push((async () => {
-          const model = await manager.get_model(data[VIEW].model_id);
-          const host = document.createElement("div");
-          host.className = "hx-live-output";
-          document.getElementById("outputs")!.append(host);
-          await manager.display_view(await manager.create_view(model), host);
-        })());
+        shows.push(
+          (async () => {
+            const model = await manager.get_model(data[VIEW].model_id);
+            const host = document.createElement("div");
+            host.className = "hx-live-output";
+            document.getElementById("outputs")!.append(host);
+            await manager.display_view(await manager.create_view(model), host);
+          })(),
+        );
       } else if (data["text/plain"]) text += data["text/plain"] + "\n";
     }
   };

@@ -101,16 +101,30 @@ describe("helicoid calc", () => {
     // Common practice, no source: 2 is for bad input only. The solver failure is provoked in process.
     const spec = getCalculator("wall");
     const compute = spec.compute;
-    spec.compute = () => { throw new ConvergenceError("test solver", "no bracket", { evaluations: 7 }); };
-    let out = "", err = "";
+    spec.compute = () => {
+      throw new ConvergenceError("test solver", "no bracket", { evaluations: 7 });
+    };
+    let out = "",
+      err = "";
     try {
-      const code = await calcCommand(["wall", "--demo", "--json"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+      const code = await calcCommand(["wall", "--demo", "--json"], {
+        stdout: (s) => {
+          out += s;
+        },
+        stderr: (s) => {
+          err += s;
+        },
+      });
       expect(code).toBe(1);
     } finally {
       spec.compute = compute;
     }
     expect(err).toBe("helicoid calc: test solver did not converge: no bracket (evaluations: 7)\n");
-    expect(JSON.parse(out)).toEqual({ id: "wall", status: "error", error: { type: "ConvergenceError", message: expect.stringMatching(/no bracket/), diagnostics: { evaluations: 7 } } });
+    expect(JSON.parse(out)).toEqual({
+      id: "wall",
+      status: "error",
+      error: { type: "ConvergenceError", message: expect.stringMatching(/no bracket/), diagnostics: { evaluations: 7 } },
+    });
   });
 
   it("a film calculator requires its film: the missing inputs are named, with --demo and a film file as the ways out", () => {
@@ -197,8 +211,17 @@ describe("helicoid calc", () => {
     expect(quiet.status).toBe(0);
     expect(quiet.stderr).toBe("");
     // a terminal: one line redrawn with carriage returns and cleared at the end
-    let out = "", err = "";
-    const code = await calcCommand(["chain-spectrum", "N=18", "levels=1"], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; }, stderrIsTTY: true });
+    let out = "",
+      err = "";
+    const code = await calcCommand(["chain-spectrum", "N=18", "levels=1"], {
+      stdout: (s) => {
+        out += s;
+      },
+      stderr: (s) => {
+        err += s;
+      },
+      stderrIsTTY: true,
+    });
     expect(code).toBe(0);
     expect(err).toMatch(/^\rhelicoid calc chain-spectrum: /);
     expect(err).not.toContain("\n");
@@ -211,7 +234,9 @@ describe("helicoid calc", () => {
     const r = calc("chain-spectrum", "N=24", "levels=4", "--progress", "--json");
     expect(r.status).toBe(2);
     expect(JSON.parse(r.stdout)).toMatchObject({ id: "chain-spectrum", status: "error", error: { type: "InputError", parameter: "N" } });
-    expect(r.stderr).toMatch(/N = "24" is not valid: expected a request within the budget: this one needs about [0-9.e+]+ elementary steps .* states in the symmetry sectors of a ring of 24 sites/);
+    expect(r.stderr).toMatch(
+      /N = "24" is not valid: expected a request within the budget: this one needs about [0-9.e+]+ elementary steps .* states in the symmetry sectors of a ring of 24 sites/,
+    );
     expect(r.stderr).not.toMatch(/%/);
   });
 });

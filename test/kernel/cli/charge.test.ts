@@ -15,8 +15,16 @@ const dir = mkdtempSync(join(tmpdir(), "helicoid-charge-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 async function run(args: string[]) {
-  let out = "", err = "";
-  const code = await chargeCommand(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+  let out = "",
+    err = "";
+  const code = await chargeCommand(args, {
+    stdout: (s) => {
+      out += s;
+    },
+    stderr: (s) => {
+      err += s;
+    },
+  });
   return { code, out, err };
 }
 
@@ -182,8 +190,16 @@ describe("helicoid charge FILE [--json]", () => {
       let r = charge(ok, "--json", "--boundary", "weird");
       expect(r.status).toBe(2);
       expect(JSON.parse(r.stdout)).toEqual({
-        id: "charge", file: ok, status: "error",
-        error: { type: "InputError", message: expect.stringMatching(/--boundary = "weird"/), parameter: "--boundary", value: "weird", expected: "periodic, open, periodic-x, periodic-y" },
+        id: "charge",
+        file: ok,
+        status: "error",
+        error: {
+          type: "InputError",
+          message: expect.stringMatching(/--boundary = "weird"/),
+          parameter: "--boundary",
+          value: "weird",
+          expected: "periodic, open, periodic-x, periodic-y",
+        },
       });
       expect(r.stderr).toMatch(/helicoid charge: --boundary = "weird" is not valid/);
       r = charge(ok, "--json", "--bogus");

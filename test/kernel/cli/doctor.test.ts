@@ -14,8 +14,17 @@ import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
 import { systemPython } from "../../helpers/python.js";
 
-interface Check { name: string; status: "ok" | "warning" | "problem"; found: string; advice: string }
-interface Report { jupyter: { command: string | null; versions: Record<string, string | null>; dataDirsFrom: string }; checks: Check[]; problems: number }
+interface Check {
+  name: string;
+  status: "ok" | "warning" | "problem";
+  found: string;
+  advice: string;
+}
+interface Report {
+  jupyter: { command: string | null; versions: Record<string, string | null>; dataDirsFrom: string };
+  checks: Check[];
+  problems: number;
+}
 
 function sandbox() {
   const home = mkdtempSync(join(tmpdir(), "helicoid-doctor-"));
@@ -23,7 +32,8 @@ function sandbox() {
   delete env.JUPYTER_PATH;
   delete env.XDG_DATA_HOME;
   const prefix = join(home, "prefix");
-  const helicoid = (args: string[], extra: NodeJS.ProcessEnv = {}) => spawnSync(process.execPath, [helicoidBin, ...args], { encoding: "utf8", env: { ...env, ...extra }, timeout: 170_000 });
+  const helicoid = (args: string[], extra: NodeJS.ProcessEnv = {}) =>
+    spawnSync(process.execPath, [helicoidBin, ...args], { encoding: "utf8", env: { ...env, ...extra }, timeout: 170_000 });
   return { home, env, prefix, helicoid };
 }
 
@@ -35,7 +45,9 @@ const check = (r: Report, name: string) => {
 
 /** A Python package's version as its own module says (Debian's python3), or null when not installed. */
 function pythonVersion(module: string): string | null {
-  const r = spawnSync(systemPython, ["-c", `import importlib.metadata as m\ntry:\n print(m.version(${JSON.stringify(module)}))\nexcept m.PackageNotFoundError:\n print('')`], { encoding: "utf8" });
+  const r = spawnSync(systemPython, ["-c", `import importlib.metadata as m\ntry:\n print(m.version(${JSON.stringify(module)}))\nexcept m.PackageNotFoundError:\n print('')`], {
+    encoding: "utf8",
+  });
   return r.stdout.trim() || null;
 }
 

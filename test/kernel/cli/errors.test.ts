@@ -98,7 +98,10 @@ describe("helicoid run: the output path is checked before any cell runs", () => 
     const cwd = join(dir, "cwd");
     mkdirSync(nbDir);
     mkdirSync(cwd);
-    writeFileSync(join(nbDir, "n.ipynb"), JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: "6 * 7" }] }));
+    writeFileSync(
+      join(nbDir, "n.ipynb"),
+      JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: "6 * 7" }] }),
+    );
     const r = helicoid(["run", join(nbDir, "n.ipynb"), "-o", "out.ipynb", "--quiet"], cwd);
     expect(r.status, r.stderr).toBe(0);
     expect(readdirSync(cwd)).toEqual(["out.ipynb"]);
@@ -131,4 +134,3 @@ describe("helicoid export of a notebook that was never run", () => {
     expect(r.stderr).toMatch(/note: .*unrun\.ipynb has no outputs \(it was not run\).*helicoid run/);
   });
 });
-

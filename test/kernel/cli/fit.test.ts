@@ -112,7 +112,9 @@ describe("helicoid fit", () => {
       }
       return lines.join("\n") + "\n";
     };
-    const withUnit = join(dir, "cut.csv"), plain = join(dir, "plain.csv"), noSigma = join(dir, "nosigma.csv");
+    const withUnit = join(dir, "cut.csv"),
+      plain = join(dir, "plain.csv"),
+      noSigma = join(dir, "nosigma.csv");
     writeFileSync(withUnit, rows(" (nm)", true));
     writeFileSync(plain, rows("", true));
     writeFileSync(noSigma, rows(" (nm)", false));
@@ -141,4 +143,3 @@ describe("helicoid fit", () => {
     expect(readFileSync(withUnit, "utf8")).toBe(before);
   });
 });
-

@@ -108,7 +108,14 @@ describe("helicoid fit --series", () => {
   describe("bad input exits 2 and names the problem", () => {
     it("a profile with no field", () => {
       const f = join(tmp, "no-field.csv");
-      writeFileSync(f, "# invented profile without a field\n" + readFileSync(files[0], "utf8").split("\n").filter((l) => !l.startsWith("#")).join("\n"));
+      writeFileSync(
+        f,
+        "# invented profile without a field\n" +
+          readFileSync(files[0], "utf8")
+            .split("\n")
+            .filter((l) => !l.startsWith("#"))
+            .join("\n"),
+      );
       const r = helicoid("--series", f, files[1], "--film", filmArg);
       expect(r.status).toBe(2);
       expect(r.stderr).toContain(`field of ${f} = "(missing)" is not valid`);

@@ -23,7 +23,9 @@ function pyVersion(mod: string): string | null {
 
 describe("helicoid lab --dry-run", () => {
   it("reports the front end this machine gets and why", () => {
-    const jl = pyVersion("jupyterlab"), nb = pyVersion("notebook"), srv = pyVersion("jupyter_server");
+    const jl = pyVersion("jupyterlab"),
+      nb = pyVersion("notebook"),
+      srv = pyVersion("jupyter_server");
     const major = (v: string | null) => (v ? Number(v.split(".")[0]) : 0);
     const r = lab(["--dry-run"]);
     if (major(jl) >= 4) {

@@ -50,7 +50,15 @@ describe("helicoid start", () => {
     expect(await page.text()).toMatch(/application\/vnd\.jupyter\.widget-state\+json/);
     expect((await fetch(url + "..%2f..%2f..%2fetc%2fpasswd")).status).toBe(404); // encoded traversal stays inside
     // The executed notebook it wrote is trusted for this user, by Jupyter's own notary (Debian's nbformat).
-    const trust = spawnSync(systemPython, ["-c", "import nbformat, sys\nfrom nbformat.sign import NotebookNotary\nprint(NotebookNotary().check_signature(nbformat.read(sys.argv[1], as_version=4)))", join(dir, "out", "a.ipynb")], { encoding: "utf8" });
+    const trust = spawnSync(
+      systemPython,
+      [
+        "-c",
+        "import nbformat, sys\nfrom nbformat.sign import NotebookNotary\nprint(NotebookNotary().check_signature(nbformat.read(sys.argv[1], as_version=4)))",
+        join(dir, "out", "a.ipynb"),
+      ],
+      { encoding: "utf8" },
+    );
     expect(trust.stdout.trim(), trust.stderr).toBe("True");
     child.kill("SIGINT");
     const code = await new Promise<number | null>((res) => child.on("exit", res));
@@ -63,7 +71,9 @@ describe("helicoid start", () => {
     mkdirSync(notebooks);
     writeFileSync(join(notebooks, "slow.ipynb"), nb("await new Promise((r) => setTimeout(r, 6000));\n'slept'", "Slow one"));
     const startOnce = async (extra: string[] = []) => {
-      const child = spawn(process.execPath, [helicoidBin, "start", "--notebooks", notebooks, "--out", join(dir, "out"), "--port", "0", ...extra], { stdio: ["ignore", "pipe", "pipe"] });
+      const child = spawn(process.execPath, [helicoidBin, "start", "--notebooks", notebooks, "--out", join(dir, "out"), "--port", "0", ...extra], {
+        stdio: ["ignore", "pipe", "pipe"],
+      });
       let out = "";
       child.stdout.on("data", (d) => (out += d));
       child.stderr.on("data", (d) => (out += d));

@@ -14,11 +14,18 @@ import { helicoidBin } from "../../helpers/paths.js";
 import { runPython } from "../../helpers/python.js";
 import { saveFigure, figureToSvg } from "../../../kernel-ext/src/display/saveFigure.js";
 
-interface Parsed { root: string; width: string; fontSize: string; curves: Array<{ trace: string; vertices: number }>; texts: string[] }
+interface Parsed {
+  root: string;
+  width: string;
+  fontSize: string;
+  curves: Array<{ trace: string; vertices: number }>;
+  texts: string[];
+}
 
 /** Parse an SVG file with Python's xml.etree (an outside parser) and list its curves and texts. */
 function parseSvg(path: string): Parsed {
-  return runPython<Parsed>(`
+  return runPython<Parsed>(
+    `
 import json, sys, re, xml.etree.ElementTree as ET
 path = json.load(sys.stdin)
 root = ET.parse(path).getroot()
@@ -26,7 +33,9 @@ ns = "{http://www.w3.org/2000/svg}"
 curves = [{"trace": p.get("data-trace"), "vertices": len(re.findall(r"[ML]", p.get("d")))} for p in root.iter(ns + "path") if p.get("class") == "curve"]
 texts = ["".join(t.itertext()) for t in root.iter(ns + "text")]
 print(json.dumps({"root": root.tag, "width": root.get("width"), "fontSize": root.get("font-size"), "curves": curves, "texts": texts}))
-`, path);
+`,
+    path,
+  );
 }
 
 const dir = mkdtempSync(join(tmpdir(), "helicoid-figures-"));
@@ -55,7 +64,13 @@ describe("saveFigure", () => {
   });
 
   it("writes a plain {data, layout} figure, and refuses a bad size or file type with the value given", async () => {
-    const fig = { data: [{ type: "scatter", x: [0, 1, 2, 3], y: [0, 1, 4, 9], name: "a" }, { type: "scatter", x: [0, 1, 2, 3], y: [1, null, 3, 2], name: "b", mode: "lines+markers" }], layout: { xaxis: { title: { text: "x (nm)" } } } };
+    const fig = {
+      data: [
+        { type: "scatter", x: [0, 1, 2, 3], y: [0, 1, 4, 9], name: "a" },
+        { type: "scatter", x: [0, 1, 2, 3], y: [1, null, 3, 2], name: "b", mode: "lines+markers" },
+      ],
+      layout: { xaxis: { title: { text: "x (nm)" } } },
+    };
     const out = join(dir, "plain.svg");
     await saveFigure(fig, out);
     const svg = parseSvg(out);

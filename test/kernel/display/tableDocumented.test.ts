@@ -21,7 +21,10 @@ describe("table()", () => {
     const x = [0, 1, 2, 3, 4, 5];
     const y = Float64Array.from(x, (v) => 2 * v + 0.5 + 0.01 * Math.cos(5 * v));
     const fit = solveLeastSquares({
-      parameters: [{ name: "a", value: 1, unit: "m" }, { name: "b", value: 0.5, unit: "m", fixed: true }],
+      parameters: [
+        { name: "a", value: 1, unit: "m" },
+        { name: "b", value: 0.5, unit: "m", fixed: true },
+      ],
       m: x.length,
       model: (p, out) => x.forEach((v, i) => (out[i] = p[0]! * v + p[1]!)),
       y,

@@ -56,7 +56,12 @@ describe("table(result): grouped, with symbols and units", () => {
 
   it("helicoid calc prints the same groups, marks inputs left at their default", async () => {
     let out = "";
-    const code = await calcCommand(["wall360", "Ms=1.1MA/m", "A=15pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm"], { stdout: (s) => { out += s; }, stderr: () => {} });
+    const code = await calcCommand(["wall360", "Ms=1.1MA/m", "A=15pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm"], {
+      stdout: (s) => {
+        out += s;
+      },
+      stderr: () => {},
+    });
     expect(code).toBe(0);
     const lines = out.split("\n");
     expect(lines.filter((l) => /^(Inputs|Results|Other results)$/.test(l))).toEqual(["Inputs", "Results", "Other results"]);

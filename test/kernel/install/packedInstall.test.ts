@@ -127,11 +127,28 @@ async function installedWorks(helicoid: string, installRoot: string, label: stri
 
   const dir = notebookFolder(`notebooks-${label}`);
   const jenv = userEnv({ JUPYTER_PATH: data, JUPYTER_DATA_DIR: data });
-  sh(JUPYTER, ["nbconvert", "--to", "notebook", "--execute", "explore.ipynb", "--output", "explore.out.ipynb", "--ExecutePreprocessor.kernel_name=helicoid", "--ExecutePreprocessor.timeout=300"], { cwd: dir, env: jenv });
+  sh(
+    JUPYTER,
+    [
+      "nbconvert",
+      "--to",
+      "notebook",
+      "--execute",
+      "explore.ipynb",
+      "--output",
+      "explore.out.ipynb",
+      "--ExecutePreprocessor.kernel_name=helicoid",
+      "--ExecutePreprocessor.timeout=300",
+    ],
+    { cwd: dir, env: jenv },
+  );
   const out = JSON.parse(readFileSync(join(dir, "explore.out.ipynb"), "utf8"));
   const outputs: Output[] = out.cells.flatMap((c: { outputs: Output[] }) => c.outputs);
-  expect(outputs.filter((o) => o.output_type === "error"), JSON.stringify(outputs)).toEqual([]);
-  const text = (o: Output) => (Array.isArray(o.text) ? o.text.join("") : o.text ?? "");
+  expect(
+    outputs.filter((o) => o.output_type === "error"),
+    JSON.stringify(outputs),
+  ).toEqual([]);
+  const text = (o: Output) => (Array.isArray(o.text) ? o.text.join("") : (o.text ?? ""));
   expect(outputs.map(text).join("")).toMatch(/hello reader/);
   const width = Number(/width in nm: ([\d.eE+-]+)/.exec(outputs.map(text).join(""))?.[1]);
   expect(width).toBeGreaterThan(0);
@@ -150,37 +167,64 @@ async function installedWorks(helicoid: string, installRoot: string, label: stri
   await p.goto(`file://${page}`);
   await p.waitForSelector("body[data-helicoid-ready]", { timeout: 120_000 });
   const sel = '.hx-explorer[data-calculator="wall"]';
-  await p.waitForFunction((s) => {
-    const r = document.querySelector(s) as HTMLElement | null;
-    return !!r && r.dataset.busy === "" && r.textContent!.includes("nm");
-  }, sel, { timeout: 120_000 });
+  await p.waitForFunction(
+    (s) => {
+      const r = document.querySelector(s) as HTMLElement | null;
+      return !!r && r.dataset.busy === "" && r.textContent!.includes("nm");
+    },
+    sel,
+    { timeout: 120_000 },
+  );
   expect(await p.locator(sel).count()).toBe(1);
   await p.close();
 }
 
 describe("packed packages, installed as a user does", () => {
-  it("a project install (npm install of the tarballs into an empty folder) runs, executes and exports a notebook elsewhere", async () => {
-    const project = join(work, "project");
-    mkdirSync(project);
-    writeFileSync(join(project, "package.json"), JSON.stringify({ name: "my-analysis", version: "1.0.0", private: true }));
-    sh("npm", ["install", "--no-audit", "--no-fund", ...tarballs], { cwd: project });
-    // npx finds the installed command, as a user types it.
-    const help = sh("npx", ["--no", "helicoid", "help"], { cwd: project });
-    expect(help.stdout).toMatch(/usage: helicoid COMMAND/);
-    // Installed, the command knows it is not in a checkout: `helicoid lab` opens the current folder and
-    // `helicoid start` runs the example notebooks shipped in the package (no node_modules/@helicoid/notebooks).
-    const kernelDir = join(project, "node_modules", "@helicoid", "kernel");
-    const places = sh(process.execPath, ["-e", `const p = require(${JSON.stringify(join(kernelDir, "dist", "cli", "places.js"))}); console.log(JSON.stringify({ checkout: p.checkoutRoot(), examples: p.exampleNotebooksDir() }))`], { cwd: project });
-    expect(JSON.parse(places.stdout)).toEqual({ checkout: null, examples: join(kernelDir, "examples") });
-    expect(readdirSync(join(kernelDir, "examples")).filter((f) => f.endsWith(".ipynb")).sort()).toEqual(readdirSync(join(repoRoot, "notebooks")).filter((f) => f.endsWith(".ipynb")).sort());
-    await installedWorks(join(project, "node_modules", ".bin", "helicoid"), project, "project");
-  }, SLOW);
+  it(
+    "a project install (npm install of the tarballs into an empty folder) runs, executes and exports a notebook elsewhere",
+    async () => {
+      const project = join(work, "project");
+      mkdirSync(project);
+      writeFileSync(join(project, "package.json"), JSON.stringify({ name: "my-analysis", version: "1.0.0", private: true }));
+      sh("npm", ["install", "--no-audit", "--no-fund", ...tarballs], { cwd: project });
+      // npx finds the installed command, as a user types it.
+      const help = sh("npx", ["--no", "helicoid", "help"], { cwd: project });
+      expect(help.stdout).toMatch(/usage: helicoid COMMAND/);
+      // Installed, the command knows it is not in a checkout: `helicoid lab` opens the current folder and
+      // `helicoid start` runs the example notebooks shipped in the package (no node_modules/@helicoid/notebooks).
+      const kernelDir = join(project, "node_modules", "@helicoid", "kernel");
+      const places = sh(
+        process.execPath,
+        [
+          "-e",
+          `const p = require(${JSON.stringify(join(kernelDir, "dist", "cli", "places.js"))}); console.log(JSON.stringify({ checkout: p.checkoutRoot(), examples: p.exampleNotebooksDir() }))`,
+        ],
+        { cwd: project },
+      );
+      expect(JSON.parse(places.stdout)).toEqual({ checkout: null, examples: join(kernelDir, "examples") });
+      expect(
+        readdirSync(join(kernelDir, "examples"))
+          .filter((f) => f.endsWith(".ipynb"))
+          .sort(),
+      ).toEqual(
+        readdirSync(join(repoRoot, "notebooks"))
+          .filter((f) => f.endsWith(".ipynb"))
+          .sort(),
+      );
+      await installedWorks(join(project, "node_modules", ".bin", "helicoid"), project, "project");
+    },
+    SLOW,
+  );
 
-  it("a global install (npm install -g --prefix) works the same way", async () => {
-    const global = join(work, "global");
-    sh("npm", ["install", "-g", "--prefix", global, "--no-audit", "--no-fund", ...tarballs], { cwd: work });
-    const bin = join(global, "bin", "helicoid");
-    expect(existsSync(bin)).toBe(true);
-    await installedWorks(bin, join(global, "lib", "node_modules", "@helicoid", "kernel"), "global");
-  }, SLOW);
+  it(
+    "a global install (npm install -g --prefix) works the same way",
+    async () => {
+      const global = join(work, "global");
+      sh("npm", ["install", "-g", "--prefix", global, "--no-audit", "--no-fund", ...tarballs], { cwd: work });
+      const bin = join(global, "bin", "helicoid");
+      expect(existsSync(bin)).toBe(true);
+      await installedWorks(bin, join(global, "lib", "node_modules", "@helicoid", "kernel"), "global");
+    },
+    SLOW,
+  );
 });

@@ -15,7 +15,9 @@ import { helicoidBin } from "../../helpers/paths.js";
 import { launchBrowser, type Browser } from "../../e2e/harness.js";
 
 let browser: Browser | undefined;
-afterAll(async () => { await browser?.close(); });
+afterAll(async () => {
+  await browser?.close();
+});
 
 describe("the installed widget manager", () => {
   it("provides @jupyter-widgets/base 6 in the default share scope, which Helicoid's extension consumes", async () => {

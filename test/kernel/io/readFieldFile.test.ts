@@ -12,7 +12,8 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 describe("readVectorFieldFile (Node)", () => {
   it("the direct .npy path and the in-memory reader agree on numpy-written files, shared or not", () => {
     // Source: files written by numpy.save (numpy 1.24), NaN cells included.
-    const paths = runPython<string[]>(`
+    const paths = runPython<string[]>(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin)
 rng = np.random.default_rng(3)
@@ -20,7 +21,9 @@ a = rng.normal(size=(2, 7, 9, 3)); a[0, 1, 2] = np.nan; a[1, 3, 4] = 0
 out = []
 for name, arr in [("c.npy", a), ("f.npy", np.asfortranarray(a)), ("be.npy", a.astype(">f8")), ("f4.npy", a.astype("<f4"))]:
     p = d + "/" + name; np.save(p, arr); out.append(p)
-print(json.dumps(out))`, dir);
+print(json.dumps(out))`,
+      dir,
+    );
     for (const p of paths) {
       const before = readFileSync(p);
       const a = readVectorFieldFile(p, { dx: 2e-9 });

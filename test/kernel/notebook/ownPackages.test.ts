@@ -19,7 +19,7 @@ const cell = (source: string) => ({ cell_type: "code", metadata: {}, source, out
 
 const SOURCE = [
   'import { getCalculator, runCalculator } from "@helicoid/lib";\nimport { slider } from "@helicoid/kernel";\nconst r = runCalculator(getCalculator("wall"), {});\nconsole.log("wall width", typeof r.outputs.width.value);',
-  'const s = slider({ min: 0, max: 3, value: 1 });\ns',
+  "const s = slider({ min: 0, max: 3, value: 1 });\ns",
 ];
 
 /** A folder with its own node_modules holding one small unrelated package (a CommonJS module with types). */

@@ -12,16 +12,31 @@ import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
 import { systemPython } from "../../helpers/python.js";
 
-const CHECK = "import nbformat, sys\nfrom nbformat.sign import NotebookNotary\nnb = nbformat.read(sys.argv[1], as_version=4)\nprint('trusted' if NotebookNotary().check_signature(nb) else 'untrusted')";
+const CHECK =
+  "import nbformat, sys\nfrom nbformat.sign import NotebookNotary\nnb = nbformat.read(sys.argv[1], as_version=4)\nprint('trusted' if NotebookNotary().check_signature(nb) else 'untrusted')";
 
 describe("notebooks written by helicoid run are trusted", () => {
   const dir = mkdtempSync(join(tmpdir(), "helicoid-trust-"));
   const env = { ...process.env, JUPYTER_DATA_DIR: join(dir, "jupyter-data") };
   const input = join(dir, "in.ipynb");
-  writeFileSync(input, JSON.stringify({
-    nbformat: 4, nbformat_minor: 5, metadata: {},
-    cells: [{ id: "c1", cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: 'import { slider } from "@helicoid/kernel";\nslider({ min: 0, max: 2, value: 1 })' }],
-  }));
+  writeFileSync(
+    input,
+    JSON.stringify({
+      nbformat: 4,
+      nbformat_minor: 5,
+      metadata: {},
+      cells: [
+        {
+          id: "c1",
+          cell_type: "code",
+          metadata: {},
+          execution_count: null,
+          outputs: [],
+          source: 'import { slider } from "@helicoid/kernel";\nslider({ min: 0, max: 2, value: 1 })',
+        },
+      ],
+    }),
+  );
   const check = (f: string) => {
     const r = spawnSync(systemPython, ["-c", CHECK, f], { encoding: "utf8", env });
     expect(r.status, r.stderr).toBe(0);
@@ -47,7 +62,18 @@ describe("notebooks written by helicoid run are trusted", () => {
 
   it("a notebook whose cells have no ids (nbformat 4.5 readers invent random ones) is trusted too", () => {
     const bare = join(dir, "bare.ipynb");
-    writeFileSync(bare, JSON.stringify({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells: [{ cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: "6 * 7" }, { cell_type: "markdown", metadata: {}, source: "# t" }] }));
+    writeFileSync(
+      bare,
+      JSON.stringify({
+        nbformat: 4,
+        nbformat_minor: 5,
+        metadata: {},
+        cells: [
+          { cell_type: "code", metadata: {}, execution_count: null, outputs: [], source: "6 * 7" },
+          { cell_type: "markdown", metadata: {}, source: "# t" },
+        ],
+      }),
+    );
     const out = join(dir, "bare.out.ipynb");
     const r = spawnSync(process.execPath, [helicoidBin, "run", bare, "-o", out], { encoding: "utf8", env, timeout: 120_000 });
     expect(r.status, r.stderr).toBe(0);
@@ -57,7 +83,11 @@ describe("notebooks written by helicoid run are trusted", () => {
 
   it("says so when no Jupyter is there to sign", () => {
     const out = join(dir, "nojupyter.ipynb");
-    const r = spawnSync(process.execPath, [helicoidBin, "run", input, "-o", out], { encoding: "utf8", env: { ...env, HELICOID_JUPYTER: join(dir, "no-such-jupyter") }, timeout: 120_000 });
+    const r = spawnSync(process.execPath, [helicoidBin, "run", input, "-o", out], {
+      encoding: "utf8",
+      env: { ...env, HELICOID_JUPYTER: join(dir, "no-such-jupyter") },
+      timeout: 120_000,
+    });
     expect(r.status, r.stderr).toBe(0);
     expect(r.stderr).toMatch(/not signed: no `jupyter` command found/);
   });

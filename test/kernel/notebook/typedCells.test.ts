@@ -34,8 +34,15 @@ function runCells(name: string, sources: string[]): { status: number | null; std
 }
 
 const errorText = (outputs: Output[]) =>
-  outputs.filter((o) => o.output_type === "error").map((o) => `${o.ename}: ${o.evalue}\n${(o.traceback ?? []).join("\n")}`).join("\n");
-const stdout = (outputs: Output[]) => outputs.filter((o) => o.name === "stdout").map((o) => (o.text ?? []).join("")).join("");
+  outputs
+    .filter((o) => o.output_type === "error")
+    .map((o) => `${o.ename}: ${o.evalue}\n${(o.traceback ?? []).join("\n")}`)
+    .join("\n");
+const stdout = (outputs: Output[]) =>
+  outputs
+    .filter((o) => o.name === "stdout")
+    .map((o) => (o.text ?? []).join(""))
+    .join("");
 
 const imports = 'import { runCalculator, makeFilm, InputError } from "@helicoid/lib";';
 const film = 'const film = makeFilm({ Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.4 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" });';
@@ -49,7 +56,7 @@ describe("typed calculators in notebook cells", () => {
         "const width: number = wall.outputs.width.value;",
         "const x: number[] = wall.outputs.x.value;",
         "const kind: string = wall.outputs.regime.value;",
-        'console.log(`width ${(width * 1e9).toFixed(3)} nm, ${x.length} points, ${kind.length > 0}`);',
+        "console.log(`width ${(width * 1e9).toFixed(3)} nm, ${x.length} points, ${kind.length > 0}`);",
         "const untyped: any = wall.outputs; // as plain JavaScript would read it\ntry { untyped.widht.value; } catch (e) { console.log(`${(e as Error).name}|${e instanceof InputError}|${(e as Error).message}`); }",
       ].join("\n"),
     ]);

@@ -12,10 +12,20 @@ describe("parallel Chern numbers (worker threads)", () => {
     // Source: F. D. M. Haldane, PRL 61, 2015 (1988): C = -+1 for |M| < 3 sqrt(3) |t2 sin phi| (here
     // M = 0.1 < 0.52); the 3 x 1 supercell keeps the total Chern number of the filled bands.
     // The oracle for the split itself is lib's chernNumbers on the same model (same kernels).
-    const t2 = 0.1, phi = Math.PI / 2;
+    const t2 = 0.1,
+      phi = Math.PI / 2;
     expect(0.1).toBeLessThan(haldaneCriticalMass(t2, phi));
     const sc = supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1);
-    const opts = { n1: 40, n2: 33, groups: [[0, 1, 2], [3, 4, 5]], map: true, energies: true };
+    const opts = {
+      n1: 40,
+      n2: 33,
+      groups: [
+        [0, 1, 2],
+        [3, 4, 5],
+      ],
+      map: true,
+      energies: true,
+    };
     const single = chernNumbers(sc, opts);
     for (const threads of [1, 2, 3, 5]) {
       const p = await parallelChernNumbers(sc, { ...opts, threads });
@@ -39,7 +49,10 @@ describe("parallel Chern numbers (worker threads)", () => {
 
   it("refuses what cannot run in a worker and reports bad input from the calling thread", async () => {
     // Common practice, no source: error reporting.
-    const fnModel = blochModelFromFunction((k1: number) => [[Math.cos(2 * Math.PI * k1), 0], [0, -Math.cos(2 * Math.PI * k1)]]);
+    const fnModel = blochModelFromFunction((k1: number) => [
+      [Math.cos(2 * Math.PI * k1), 0],
+      [0, -Math.cos(2 * Math.PI * k1)],
+    ]);
     await expect(parallelChernNumbers(fnModel as never, { n1: 10 })).rejects.toThrow(/cannot be sent to worker threads/);
     const sc = supercellModel(haldaneSpec({ t2: 0.1, phi: Math.PI / 2, M: 0.1 }), 3, 1);
     await expect(parallelChernNumbers(sc, { n1: 2, threads: 2 })).rejects.toBeInstanceOf(InputError);

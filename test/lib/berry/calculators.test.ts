@@ -15,7 +15,7 @@ function corners(spec: CalculatorSpec): Array<Record<string, number>> {
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {

@@ -8,7 +8,8 @@ import { InputError } from "../../../lib/src/errors.js";
 import { runPython } from "../../helpers/python.js";
 
 describe("Chern numbers by link variables", () => {
-  const t2 = 0.1, phi = Math.PI / 2;
+  const t2 = 0.1,
+    phi = Math.PI / 2;
   const Mc = haldaneCriticalMass(t2, phi);
 
   it("Haldane model: C = -+1 inside |M| < 3 sqrt3 |t2 sin phi|, 0 outside; exact integers; sign flips with phi", () => {
@@ -22,7 +23,8 @@ describe("Chern numbers by link variables", () => {
       expect(flipped.chern).toEqual(inside ? [1, -1] : [0, 0]);
     }
     // Other phi: boundary scales with |sin phi|.
-    const phi2 = 0.6, Mc2 = haldaneCriticalMass(t2, phi2);
+    const phi2 = 0.6,
+      Mc2 = haldaneCriticalMass(t2, phi2);
     expect(chernNumbers(haldaneModel({ t2, phi: phi2, M: 0.8 * Mc2 }), { n1: 120 }).chern[0]).toBe(-1);
     expect(chernNumbers(haldaneModel({ t2, phi: phi2, M: 1.2 * Mc2 }), { n1: 120 }).chern[0]).toBe(0);
   });
@@ -32,7 +34,8 @@ describe("Chern numbers by link variables", () => {
     const n1 = 120;
     const dk = (4 * Math.PI) / 3 / n1; // |b| / n1 for nearest-neighbour distance 1
     const res = 3 * 1.5 * dk; // generous bound on the flagged window
-    let lastResolvedInside = -Infinity, firstResolvedOutside = Infinity;
+    let lastResolvedInside = -Infinity,
+      firstResolvedOutside = Infinity;
     for (let k = -20; k <= 20; k++) {
       const M = Mc * (1 + k * 0.01);
       const r = chernNumbers(haldaneModel({ t2, phi, M }), { n1, onUnresolved: "report" });
@@ -60,25 +63,39 @@ describe("Chern numbers by link variables", () => {
     const model = haldaneModel({ t2, phi: 0.9, M: 0.2 });
     const n1 = 24;
     const r = chernNumbers(model, { n1, map: true, usePositions: false });
-    const re = new Float64Array(4), im = new Float64Array(4);
+    const re = new Float64Array(4),
+      im = new Float64Array(4);
     const d = (k1: number, k2: number) => {
       model.fill(k1, k2, re, im);
       return [re[1]!, -im[1]!, (re[0]! - re[3]!) / 2]; // H01 = dx - i dy
     };
     let maxDiff = 0;
-    for (let j = 0; j < n1; j++) for (let i = 0; i < n1; i++) {
-      const a = d(i / n1, j / n1), b = d((i + 1) / n1, j / n1), c = d((i + 1) / n1, (j + 1) / n1), e = d(i / n1, (j + 1) / n1);
-      const nrm = (v: number[]) => { const l = Math.hypot(v[0]!, v[1]!, v[2]!); return v.map((x) => x / l); };
-      const om = solidAngle(nrm(a), nrm(b), nrm(c)) + solidAngle(nrm(a), nrm(c), nrm(e));
-      maxDiff = Math.max(maxDiff, Math.abs(r.flux![0]![j * n1 + i]! - om / 2));
-    }
+    for (let j = 0; j < n1; j++)
+      for (let i = 0; i < n1; i++) {
+        const a = d(i / n1, j / n1),
+          b = d((i + 1) / n1, j / n1),
+          c = d((i + 1) / n1, (j + 1) / n1),
+          e = d(i / n1, (j + 1) / n1);
+        const nrm = (v: number[]) => {
+          const l = Math.hypot(v[0]!, v[1]!, v[2]!);
+          return v.map((x) => x / l);
+        };
+        const om = solidAngle(nrm(a), nrm(b), nrm(c)) + solidAngle(nrm(a), nrm(c), nrm(e));
+        maxDiff = Math.max(maxDiff, Math.abs(r.flux![0]![j * n1 + i]! - om / 2));
+      }
     expect(maxDiff).toBeLessThan(1e-12);
   });
 
   it("6-band supercell: the three lower bands carry the Haldane Chern number (determinant links)", () => {
     // Source: Haldane (1988); folding into a supercell leaves the total Chern number of filled bands.
     const model = supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1);
-    const r = chernNumbers(model, { n1: 36, groups: [[0, 1, 2], [3, 4, 5]] });
+    const r = chernNumbers(model, {
+      n1: 36,
+      groups: [
+        [0, 1, 2],
+        [3, 4, 5],
+      ],
+    });
     expect(r.chern).toEqual([-1, 1]);
     // per band: folded bands touch, so single-band numbers are not all resolved; say so
     const per = chernNumbers(model, { n1: 36, onUnresolved: "report" });
@@ -95,9 +112,15 @@ describe("Chern numbers by link variables", () => {
     const a = chernNumbers(haldaneModel({ t2, phi, M: 0.2 }), { n1: 30 });
     const b = chernNumbers(haldaneModel({ t2, phi, M: 0.2 }), { n1: 30, usePositions: false });
     expect(a.chern).toEqual(b.chern);
-    const open = blochModelFromFunction((k1: number) => [[Math.cos(Math.PI * k1), 1], [1, -Math.cos(Math.PI * k1)]]);
+    const open = blochModelFromFunction((k1: number) => [
+      [Math.cos(Math.PI * k1), 1],
+      [1, -Math.cos(Math.PI * k1)],
+    ]);
     expect(() => chernNumbers(open, { n1: 10 })).toThrow(/periodic/);
-    const nonHerm = blochModelFromFunction(() => [[1, 2], [0, 1]]);
+    const nonHerm = blochModelFromFunction(() => [
+      [1, 2],
+      [0, 1],
+    ]);
     expect(() => chernNumbers(nonHerm, { n1: 10 })).toThrow(/Hermitian/);
   });
 
@@ -122,16 +145,21 @@ describe("Chern numbers by link variables", () => {
     const sc = supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1);
     const onsite = Array.from(sc.spec.onsite).map((x, i) => x + [0, 0.35, -0.25, 0.15, -0.3, 0.2][i]!);
     const model = tightBindingModel({ ...sc.spec, onsite });
-    const n1 = 9, n2 = 7, n = 6;
+    const n1 = 9,
+      n2 = 7,
+      n = 6;
     const groups = [[0], [1, 2], [3, 4, 5]];
     const r = chernNumbers(model, { n1, n2, groups, map: true, onUnresolved: "report" });
-    const re = new Float64Array(n * n), im = new Float64Array(n * n);
+    const re = new Float64Array(n * n),
+      im = new Float64Array(n * n);
     const H: number[][] = [];
-    for (let j = 0; j < n2; j++) for (let i = 0; i < n1; i++) {
-      model.fill(i / n1, j / n2, re, im);
-      H.push([...Array.from(re), ...Array.from(im)]);
-    }
-    const ref = runPython<number[][]>(`
+    for (let j = 0; j < n2; j++)
+      for (let i = 0; i < n1; i++) {
+        model.fill(i / n1, j / n2, re, im);
+        H.push([...Array.from(re), ...Array.from(im)]);
+      }
+    const ref = runPython<number[][]>(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin); n1, n2, n = d["n1"], d["n2"], d["n"]
 pos = np.array(d["pos"])
@@ -152,7 +180,9 @@ for g in d["groups"]:
             z = U(V[i, j], V[ip, j], ph1, g) * U(V[ip, j], V[ip, jp], ph2, g) * np.conj(U(V[i, jp], V[ip, jp], ph1, g)) * np.conj(U(V[i, j], V[i, jp], ph2, g))
             F.append(float(-np.angle(z)))
     out.append(F)
-print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
+print(json.dumps(out))`,
+      { n1, n2, n, H, groups, pos: model.positions },
+    );
     expect(Math.max(...r.maxFlux)).toBeLessThan(0.5);
     groups.forEach((_, g) => {
       for (let q = 0; q < n1 * n2; q++) {
@@ -169,9 +199,20 @@ print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
     const sc = supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1);
     const cases = [
       { model: haldaneModel({ t2, phi: 0.8, M: 0.15 }), groups: undefined, n1: 21 },
-      { model: supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1), groups: [[0, 1, 2], [3, 4, 5]], n1: 18 },
+      {
+        model: supercellModel(haldaneSpec({ t2, phi, M: 0.1 }), 3, 1),
+        groups: [
+          [0, 1, 2],
+          [3, 4, 5],
+        ],
+        n1: 18,
+      },
       // modulated on-site energies (invented) so that band 0 is separated from band 1
-      { model: tightBindingModel({ ...sc.spec, onsite: Array.from(sc.spec.onsite).map((x, i) => x + [0, 0.35, -0.25, 0.15, -0.3, 0.2][i]!) }), groups: [[0], [1, 2, 3, 4, 5]], n1: 18 },
+      {
+        model: tightBindingModel({ ...sc.spec, onsite: Array.from(sc.spec.onsite).map((x, i) => x + [0, 0.35, -0.25, 0.15, -0.3, 0.2][i]!) }),
+        groups: [[0], [1, 2, 3, 4, 5]],
+        n1: 18,
+      },
     ];
     for (const c of cases) {
       expect(Math.min(...chernNumbers(c.model, { n1: c.n1, onUnresolved: "report", ...(c.groups ? { groups: c.groups } : {}) }).minGap)).toBeGreaterThan(0.02);
@@ -195,9 +236,22 @@ print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
     // Common practice, no source: the flux sum is additive over plaquettes, so any partition of the
     // rows gives the same fluxes; compared with the single-strip computation of the same model.
     const sc = supercellModel(haldaneSpec({ t2: 0.1, phi: Math.PI / 2, M: 0.1 }), 3, 1);
-    const opts = { n1: 30, n2: 24, groups: [[0, 1, 2], [3, 4, 5]], map: true, energies: true };
+    const opts = {
+      n1: 30,
+      n2: 24,
+      groups: [
+        [0, 1, 2],
+        [3, 4, 5],
+      ],
+      map: true,
+      energies: true,
+    };
     const whole = chernNumbers(sc, opts);
-    const parts = [[12, 24], [0, 5], [5, 12]].map(([a, b]) => chernStrip(sc, opts, a!, b!));
+    const parts = [
+      [12, 24],
+      [0, 5],
+      [5, 12],
+    ].map(([a, b]) => chernStrip(sc, opts, a!, b!));
     const merged = combineChernStrips(sc, opts, parts);
     expect(merged.chern).toEqual(whole.chern);
     expect(whole.chern).toEqual([-1, 1]);
@@ -210,7 +264,11 @@ print(json.dumps(out))`, { n1, n2, n, H, groups, pos: model.positions });
     expect(Array.from(merged.energies!)).toEqual(Array.from(whole.energies!));
     // the flux map is really filled (not zeros) and the strips are what was asked
     expect(Math.max(...Array.from(whole.flux![0]!, Math.abs))).toBeGreaterThan(1e-3);
-    expect(parts.map((p) => [p.rowFrom, p.rowTo])).toEqual([[12, 24], [0, 5], [5, 12]]);
+    expect(parts.map((p) => [p.rowFrom, p.rowTo])).toEqual([
+      [12, 24],
+      [0, 5],
+      [5, 12],
+    ]);
     // Bad partitions: a row twice, a row missing, an empty or out-of-range strip.
     expect(() => combineChernStrips(sc, opts, [parts[0]!, parts[1]!, parts[2]!, parts[1]!])).toThrow(/row 0 twice/);
     expect(() => combineChernStrips(sc, opts, [parts[0]!, parts[2]!])).toThrow(/row 0 missing/);
@@ -223,8 +281,12 @@ describe("Chern numbers on a grid refined until the link-variable conditions hol
   // Source: F. D. M. Haldane, PRL 61, 2015 (1988) (C = -sgn(t2 sin phi) for |M| < 3 sqrt3 |t2 sin phi|, 0
   // outside, with the H(k) of blochModel.ts); oracle: an independent numpy implementation of the
   // Fukui-Hatsugai-Suzuki link variables (J. Phys. Soc. Jpn. 74, 1674 (2005)) on a fixed fine grid.
-  const cases: [number, number, number, number][] = [[0.1, 0, 0.1, 120], [0.1, Math.PI / 2, 0.51, 600]];
-  const ref = runPython<[number, number, number][]>(`
+  const cases: [number, number, number, number][] = [
+    [0.1, 0, 0.1, 120],
+    [0.1, Math.PI / 2, 0.51, 600],
+  ];
+  const ref = runPython<[number, number, number][]>(
+    `
 import json, sys
 import numpy as np
 def chern(t2, phi, M, n):
@@ -250,7 +312,9 @@ def chern(t2, phi, M, n):
     F = -np.angle(U1 * np.roll(U2, -1, 0) * np.conj(np.roll(U1, -1, 1)) * np.conj(U2))
     return float(F.sum() / (2 * np.pi)), float(abs(F).max()), float((w[..., 1] - w[..., 0]).min())
 print(json.dumps([chern(*c) for c in json.load(sys.stdin)]))
-`, cases);
+`,
+    cases,
+  );
 
   it("phi = 0, M = 0.1 gives C = 0 and the gap-0.019 point C = -1 (no longer declined), as numpy says", () => {
     // numpy's own integers on its fine grids

@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { easyPlaneLevels, easyPlaneCrossings, easyPlaneGroundM, easyPlaneMagnetization, rotorMagnetization, rotorMagnetizationDirect, rotorTruncation } from "../../../lib/src/berry/easyPlaneSpin.js";
+import {
+  easyPlaneLevels,
+  easyPlaneCrossings,
+  easyPlaneGroundM,
+  easyPlaneMagnetization,
+  rotorMagnetization,
+  rotorMagnetizationDirect,
+  rotorTruncation,
+} from "../../../lib/src/berry/easyPlaneSpin.js";
 import { kB, muB } from "../../../lib/src/quantity/constants.js";
 import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
 import { runPython } from "../../helpers/python.js";
@@ -33,7 +41,10 @@ describe("easy-plane spin in a hard-axis field", () => {
 
   it("rotor (theta-function) form equals the exact sum to 1e-12 in the rotor limit, integer and half-integer S", () => {
     // Source: Jacobi imaginary transformation (Whittaker & Watson 1927, ch. 21); derivation in easyPlaneSpin.ts.
-    for (const [S, half] of [[40, false], [40.5, true]] as const) {
+    for (const [S, half] of [
+      [40, false],
+      [40.5, true],
+    ] as const) {
       for (const T of [0.2, 1, 3, 10]) {
         for (const bOverD of [0, 0.3, 1, 1.7, 4.2, -6.5]) {
           const b = bOverD * D;
@@ -49,7 +60,9 @@ describe("easy-plane spin in a hard-axis field", () => {
 
   it("outside the rotor limit (small S, high T) the finite spin differs, and the truncation weight says so", () => {
     // Common practice, no source: the unrestricted rotor has no saturation.
-    const S = 2, T = 10, b = 3 * D;
+    const S = 2,
+      T = 10,
+      b = 3 * D;
     expect(rotorTruncation(S, D, b, T)).toBeGreaterThan(1e-2);
     expect(Math.abs(easyPlaneMagnetization(S, D, b, T) - rotorMagnetization(D, b, T, false).value)).toBeGreaterThan(1e-3);
   });
@@ -95,18 +108,18 @@ for c in json.load(sys.stdin):
 print(json.dumps(out))
 `;
   const cases: [number, number, number, number][] = [[7, 5, 7.4, 0.02]]; // the low-temperature case: exact 0.55060
-  for (const twoS of [1, 2, 7, 20, 41])
-    for (const Dk of [0.1, 1, 5])
-      for (const B of [0, 0.37, 2, 7.4, 20])
-        for (const T of [0.02, 0.3, 2, 20]) cases.push([twoS, Dk, B, T]);
+  for (const twoS of [1, 2, 7, 20, 41]) for (const Dk of [0.1, 1, 5]) for (const B of [0, 0.37, 2, 7.4, 20]) for (const T of [0.02, 0.3, 2, 20]) cases.push([twoS, Dk, B, T]);
   const ref = runPython<[number, number, number, number | null][]>(oracle, cases);
 
   it("the rotor form (both series) and the truncation weight agree with mpmath to 1e-12 on a grid of 301 cases", () => {
     expect(ref[0]![0]).toBeCloseTo(0.5506049, 7);
-    let worst = 0, worstT = 0, thetaChecked = 0;
+    let worst = 0,
+      worstT = 0,
+      thetaChecked = 0;
     cases.forEach(([twoS, Dk, B, T], i) => {
       const [rot, fin, trunc, theta] = ref[i]!;
-      const D = Dk * kB, b = 2 * muB * B;
+      const D = Dk * kB,
+        b = 2 * muB * B;
       const r = rotorMagnetization(D, b, T, twoS % 2 === 1);
       expect(r.series).toBe(Dk / T >= Math.PI ? "direct" : "dual");
       const scale = 1 + Math.abs(b / (2 * D));

@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { hardAxisParityBlocks, hardAxisTunnelSplitting, hardAxisQuenchingFields, giantSpinLevels, giantSpinMatrix, gargQuenchingPeriod, tunnelSplittingAnyField } from "../../../lib/src/berry/giantSpin.js";
+import {
+  hardAxisParityBlocks,
+  hardAxisTunnelSplitting,
+  hardAxisQuenchingFields,
+  giantSpinLevels,
+  giantSpinMatrix,
+  gargQuenchingPeriod,
+  tunnelSplittingAnyField,
+} from "../../../lib/src/berry/giantSpin.js";
 import { kB } from "../../../lib/src/quantity/constants.js";
 import { InputError } from "../../../lib/src/errors.js";
 import { runPython } from "../../helpers/python.js";
@@ -16,14 +24,17 @@ describe("single large spin: levels and tunnel splitting", () => {
     const B: [number, number, number] = [0.3, 0.4, 0.2];
     const r = Math.hypot(...B);
     const ours = giantSpinLevels(mol, [r], [B[0] / r, B[1] / r, B[2] / r])[0]!;
-    const ref = runPython<number[]>(`
+    const ref = runPython<number[]>(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin); S = d["S"]; m = np.arange(S, -S - 1, -1)
 sp = np.diag(np.sqrt(S * (S + 1) - m[1:] * (m[1:] + 1)), 1)
 sx = (sp + sp.T) / 2; sy = (sp - sp.T) / 2j; sz = np.diag(m)
 muB = 9.2740100783e-24
 H = -d["D"] * sz @ sz + d["E"] * (sx @ sx - sy @ sy) - d["g"] * muB * (d["B"][0] * sx + d["B"][1] * sy + d["B"][2] * sz)
-print(json.dumps(np.linalg.eigvalsh(H).tolist()))`, { ...mol, B });
+print(json.dumps(np.linalg.eigvalsh(H).tolist()))`,
+      { ...mol, B },
+    );
     const scale = mol.D * mol.S * mol.S;
     ours.forEach((v, i) => expect(Math.abs(v - ref[i]!) / scale).toBeLessThan(1e-13));
   });
@@ -33,7 +44,8 @@ print(json.dumps(np.linalg.eigvalsh(H).tolist()))`, { ...mol, B });
     const Bx = 0.05;
     const ours = hardAxisTunnelSplitting(mol, Bx);
     const H = giantSpinMatrix(mol, [Bx, 0, 0]);
-    const ref = runPython<{ split: string }>(`
+    const ref = runPython<{ split: string }>(
+      `
 import json, sys, mpmath as mp
 mp.mp.dps = 40
 d = json.load(sys.stdin); n = d["n"]
@@ -42,7 +54,9 @@ for i in range(n):
     for j in range(n):
         A[i, j] = mp.mpf(d["re"][i * n + j])
 E = sorted(mp.eigsy(A, eigvals_only=True))
-print(json.dumps({"split": mp.nstr(E[1] - E[0], 25)}))`, { n: H.dim, re: Array.from(H.re) });
+print(json.dumps({"split": mp.nstr(E[1] - E[0], 25)}))`,
+      { n: H.dim, re: Array.from(H.re) },
+    );
     expect(Math.abs(ours.splitting / Number(ref.split) - 1)).toBeLessThan(1e-9);
     expect(ours.isolatedDoublet).toBe(true);
     // double precision alone is off at this level (why double-double is used)
@@ -61,7 +75,7 @@ print(json.dumps({"split": mp.nstr(E[1] - E[0], 25)}))`, { n: H.dim, re: Array.f
     // the splitting at a zero is below resolution and grows between zeros
     const mid = hardAxisTunnelSplitting(mol, q.zeros[0]! + q.meanPeriod / 2).splitting;
     expect(hardAxisTunnelSplitting(mol, q.zeros[0]!).splitting).toBeLessThan(1e-6 * mid);
-    expect(gargQuenchingPeriod(mol)).toBeCloseTo((2 * kB / (2 * 9.2740100783e-24)) * Math.sqrt(2 * 0.047 * (0.047 + 0.29)), 12);
+    expect(gargQuenchingPeriod(mol)).toBeCloseTo(((2 * kB) / (2 * 9.2740100783e-24)) * Math.sqrt(2 * 0.047 * (0.047 + 0.29)), 12);
   });
 
   it("half-integer S: Kramers degeneracy at B = 0 and zeros at whole periods", () => {
@@ -214,7 +228,8 @@ print(json.dumps(out))
   it("a misaligned field gives minima of finite depth (numpy agrees) and no zeros", () => {
     const r = run(cases[3]!);
     expect(r.outputs.zeroCount!.value).toBe(0);
-    const f = r.outputs.minimumFields!.value as number[], d = r.outputs.minimumSplittings!.value as number[];
+    const f = r.outputs.minimumFields!.value as number[],
+      d = r.outputs.minimumSplittings!.value as number[];
     const mn = ref[3]!.minima!;
     expect(f.length).toBe(mn.length);
     expect(f.length).toBeGreaterThan(1);

@@ -8,17 +8,25 @@ import { InputError } from "../../../lib/src/errors.js";
 import { runPython } from "../../helpers/python.js";
 
 // Test values of our own (no material): J/k_B = 20 K, D/J = 0.15, S = 3/2.
-const J = 20 * kB, S = 1.5;
+const J = 20 * kB,
+  S = 1.5;
 const p = { J, D: 0.15 * J, S, zeeman: 0.02 * J * S };
 
 describe("honeycomb ferromagnet magnons with DMI", () => {
   it("bands: closed form (Owerre 2016) vs the tight-binding matrix; gap 6 sqrt3 |D| S at K", () => {
     // Source: S. A. Owerre, J. Phys.: Condens. Matter 28, 386001 (2016): E+- = 3JS + h +- sqrt(J^2S^2|f|^2 + 4D^2S^2 (sum sin)^2).
     const m = honeycombMagnonModel(p);
-    const re = new Float64Array(4), im = new Float64Array(4);
-    for (const [k1, k2] of [[0, 0], [0.1, 0.27], [1 / 3, 2 / 3], [0.5, 0]] as const) {
+    const re = new Float64Array(4),
+      im = new Float64Array(4);
+    for (const [k1, k2] of [
+      [0, 0],
+      [0.1, 0.27],
+      [1 / 3, 2 / 3],
+      [0.5, 0],
+    ] as const) {
       m.fill(k1, k2, re, im);
-      const tr = (re[0]! + re[3]!) / 2, dz = (re[0]! - re[3]!) / 2;
+      const tr = (re[0]! + re[3]!) / 2,
+        dz = (re[0]! - re[3]!) / 2;
       const r = Math.sqrt(dz * dz + re[1]! ** 2 + im[1]! ** 2);
       const [lo, hi] = honeycombMagnonBands(p, k1, k2);
       expect(Math.abs(tr - r - lo) / J).toBeLessThan(1e-13);
@@ -53,14 +61,17 @@ describe("honeycomb ferromagnet magnons with DMI", () => {
     // Source: scipy.special.spence (Debian scipy 1.10): Li2(x) = spence(1 - x).
     const xs = [-7.5, -1, -0.4, -1e-3, 0.2, 0.5, 0.9];
     const es = [0.05, 0.5, 1, 3, 8];
-    const ref = runPython<{ li2: number[]; c2: number[] }>(`
+    const ref = runPython<{ li2: number[]; c2: number[] }>(
+      `
 import json, sys, numpy as np
 from scipy.special import spence
 d = json.load(sys.stdin)
 def c2(x):
     r = 1 / np.expm1(x)
     return (1 + r) * np.log((1 + r) / r) ** 2 - np.log(r) ** 2 - 2 * spence(1 + r)
-print(json.dumps({"li2": [float(spence(1 - x)) for x in d["xs"]], "c2": [float(c2(x)) for x in d["es"]]}))`, { xs, es });
+print(json.dumps({"li2": [float(spence(1 - x)) for x in d["xs"]], "c2": [float(c2(x)) for x in d["es"]]}))`,
+      { xs, es },
+    );
     xs.forEach((x, i) => expect(Math.abs(dilogarithm(x) - ref.li2[i]!)).toBeLessThan(1e-14));
     es.forEach((x, i) => expect(Math.abs(c2Weight(x) - ref.c2[i]!)).toBeLessThan(1e-12));
     // Source: limit c2(rho -> infinity) = pi^2 / 3 (Matsumoto & Murakami 2011), from memory.
@@ -73,9 +84,11 @@ print(json.dumps({"li2": [float(spence(1 - x)) for x in d["xs"]], "c2": [float(c
     // Omega_n = -2 Im sum_m <n|dH/dkx|m><m|dH/dky|n> / (E_n - E_m)^2 (D. Xiao et al., RMP 82, 1959 (2010)).
     const Ts = [3, 10, 30];
     // Richardson extrapolation of our O(1/n^2) grid error from n = 120 and 240.
-    const r120 = honeycombMagnonHall(p, Ts, 120), r240 = honeycombMagnonHall(p, Ts, 240);
+    const r120 = honeycombMagnonHall(p, Ts, 120),
+      r240 = honeycombMagnonHall(p, Ts, 240);
     const r = { kappaXYReduced: Ts.map((_, i) => (4 * r240.kappaXYReduced[i]! - r120.kappaXYReduced[i]!) / 3), kappaXY: r240.kappaXY };
-    const ref = runPython<number[]>(`
+    const ref = runPython<number[]>(
+      `
 import json, sys, numpy as np
 from scipy.special import spence
 d = json.load(sys.stdin); J, D, S, h, Ts = d["J"], d["D"], d["S"], d["h"], d["Ts"]
@@ -115,7 +128,9 @@ for T in Ts:
     x = E / (kB * T); r = 1 / np.expm1(x)
     c2 = (1 + r) * np.log((1 + r) / r) ** 2 - np.log(r) ** 2 - 2 * spence(1 + r)
     out.append(float(-(c2 * Om).sum() * area / (4 * np.pi ** 2)))
-print(json.dumps(out))`, { J, D: p.D, S, h: p.zeeman, Ts });
+print(json.dumps(out))`,
+      { J, D: p.D, S, h: p.zeeman, Ts },
+    );
     Ts.forEach((_, i) => expect(Math.abs(r.kappaXYReduced[i]! / ref[i]! - 1), `T=${Ts[i]}`).toBeLessThan(1e-3));
     const rm = honeycombMagnonHall({ ...p, D: -p.D }, Ts, 60);
     const r60 = honeycombMagnonHall(p, Ts, 60);
@@ -130,7 +145,8 @@ print(json.dumps(out))`, { J, D: p.D, S, h: p.zeeman, Ts });
   });
 });
 
-const ORACLE = 'import json, sys, numpy as np\nfrom scipy.special import spence\nJ, D, S, h, Ts, N = d["J"], d["D"], d["S"], d["h"], d["Ts"], d["N"]\nkB = 1.380649e-23\ns3 = np.sqrt(3.0)\ndl = np.array([[0, 1], [-s3 / 2, -0.5], [s3 / 2, -0.5]])\nbb = np.array([[-s3, 0], [s3 / 2, -1.5], [s3 / 2, 1.5]])\na1 = np.array([s3 / 2, 1.5]); a2 = np.array([-s3 / 2, 1.5])\nA = np.array([a1, a2]); B = 2 * np.pi * np.linalg.inv(A).T\nu = (np.arange(N) + 0.5) / N\nU, V = np.meshgrid(u, u, indexing="ij")\nK = U[..., None] * B[0] + V[..., None] * B[1]\nkd = K @ dl.T; kb = K @ bb.T\nf = np.exp(1j * kd).sum(-1); dfx = (1j * dl[:, 0] * np.exp(1j * kd)).sum(-1); dfy = (1j * dl[:, 1] * np.exp(1j * kd)).sum(-1)\nss = np.sin(kb).sum(-1); dsx = (bb[:, 0] * np.cos(kb)).sum(-1); dsy = (bb[:, 1] * np.cos(kb)).sum(-1)\ne0 = 3 * J * S + h\nH = np.zeros(K.shape[:2] + (2, 2), complex)\nH[..., 0, 0] = e0 - 2 * D * S * ss; H[..., 1, 1] = e0 + 2 * D * S * ss\nH[..., 0, 1] = -J * S * f; H[..., 1, 0] = np.conj(-J * S * f)\ndef dH(df, ds):\n    M = np.zeros(K.shape[:2] + (2, 2), complex)\n    M[..., 0, 0] = -2 * D * S * ds; M[..., 1, 1] = 2 * D * S * ds\n    M[..., 0, 1] = -J * S * df; M[..., 1, 0] = np.conj(-J * S * df)\n    return M\nHx = dH(dfx, dsx); Hy = dH(dfy, dsy)\nE, W = np.linalg.eigh(H)\nWh = np.conj(np.swapaxes(W, -1, -2))\nX = Wh @ Hx @ W; Y = Wh @ Hy @ W\nOm = np.zeros(E.shape)\nfor n in range(2):\n    m = 1 - n\n    Om[..., n] = -2 * np.imag(X[..., n, m] * Y[..., m, n]) / (E[..., n] - E[..., m]) ** 2\narea = abs(np.linalg.det(B)) / N ** 2\nout = []\nfor T in Ts:\n    x = E / (kB * T); r = 1 / np.expm1(x)\n    c2 = (1 + r) * np.log((1 + r) / r) ** 2 - np.log(r) ** 2 - 2 * spence(1 + r)\n    out.append(float(-(c2 * Om).sum() * area / (4 * np.pi ** 2)))\nprint(json.dumps(out))';
+const ORACLE =
+  'import json, sys, numpy as np\nfrom scipy.special import spence\nJ, D, S, h, Ts, N = d["J"], d["D"], d["S"], d["h"], d["Ts"], d["N"]\nkB = 1.380649e-23\ns3 = np.sqrt(3.0)\ndl = np.array([[0, 1], [-s3 / 2, -0.5], [s3 / 2, -0.5]])\nbb = np.array([[-s3, 0], [s3 / 2, -1.5], [s3 / 2, 1.5]])\na1 = np.array([s3 / 2, 1.5]); a2 = np.array([-s3 / 2, 1.5])\nA = np.array([a1, a2]); B = 2 * np.pi * np.linalg.inv(A).T\nu = (np.arange(N) + 0.5) / N\nU, V = np.meshgrid(u, u, indexing="ij")\nK = U[..., None] * B[0] + V[..., None] * B[1]\nkd = K @ dl.T; kb = K @ bb.T\nf = np.exp(1j * kd).sum(-1); dfx = (1j * dl[:, 0] * np.exp(1j * kd)).sum(-1); dfy = (1j * dl[:, 1] * np.exp(1j * kd)).sum(-1)\nss = np.sin(kb).sum(-1); dsx = (bb[:, 0] * np.cos(kb)).sum(-1); dsy = (bb[:, 1] * np.cos(kb)).sum(-1)\ne0 = 3 * J * S + h\nH = np.zeros(K.shape[:2] + (2, 2), complex)\nH[..., 0, 0] = e0 - 2 * D * S * ss; H[..., 1, 1] = e0 + 2 * D * S * ss\nH[..., 0, 1] = -J * S * f; H[..., 1, 0] = np.conj(-J * S * f)\ndef dH(df, ds):\n    M = np.zeros(K.shape[:2] + (2, 2), complex)\n    M[..., 0, 0] = -2 * D * S * ds; M[..., 1, 1] = 2 * D * S * ds\n    M[..., 0, 1] = -J * S * df; M[..., 1, 0] = np.conj(-J * S * df)\n    return M\nHx = dH(dfx, dsx); Hy = dH(dfy, dsy)\nE, W = np.linalg.eigh(H)\nWh = np.conj(np.swapaxes(W, -1, -2))\nX = Wh @ Hx @ W; Y = Wh @ Hy @ W\nOm = np.zeros(E.shape)\nfor n in range(2):\n    m = 1 - n\n    Om[..., n] = -2 * np.imag(X[..., n, m] * Y[..., m, n]) / (E[..., n] - E[..., m]) ** 2\narea = abs(np.linalg.det(B)) / N ** 2\nout = []\nfor T in Ts:\n    x = E / (kB * T); r = 1 / np.expm1(x)\n    c2 = (1 + r) * np.log((1 + r) / r) ** 2 - np.log(r) ** 2 - 2 * spence(1 + r)\n    out.append(float(-(c2 * Om).sum() * area / (4 * np.pi ** 2)))\nprint(json.dumps(out))';
 
 describe("kappa_xy converged to a stated tolerance (numpy Kubo-formula oracle, itself checked for convergence)", () => {
   // Source: Matsumoto & Murakami, PRL 106, 197202 (2011) formula; oracle: numpy/scipy midpoint sum of
@@ -155,7 +171,8 @@ print(json.dumps(results))`;
 
   it("the calculator's kappa_xy (Richardson, doubling grids) agrees with the converged numpy value to the stated 1e-3", () => {
     films.forEach((f, k) => {
-      const a = ref[2 * k]![0]!, b = ref[2 * k + 1]![0]!;
+      const a = ref[2 * k]![0]!,
+        b = ref[2 * k + 1]![0]!;
       expect(Math.abs(a / b - 1), `oracle converged for ${JSON.stringify(f)}`).toBeLessThan(1e-5);
       const r = runCalculator(getCalculator("magnon-hall"), f);
       const red = r.outputs.kappaXYReduced!.value as number;

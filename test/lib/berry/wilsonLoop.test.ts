@@ -6,9 +6,13 @@ import { InputError } from "../../../lib/src/errors.js";
 
 const th = 1.1;
 const spinHalf = (l: number) => {
-  const c = Math.cos(th), s = Math.sin(th);
+  const c = Math.cos(th),
+    s = Math.sin(th);
   // H = -n . sigma; ground state = spin up along n (m = +1/2)
-  return [[-c, { re: -s * Math.cos(l), im: s * Math.sin(l) }], [{ re: -s * Math.cos(l), im: -s * Math.sin(l) }, c]];
+  return [
+    [-c, { re: -s * Math.cos(l), im: s * Math.sin(l) }],
+    [{ re: -s * Math.cos(l), im: -s * Math.sin(l) }, c],
+  ];
 };
 
 describe("discrete Berry phase and Wilson loop of H(lambda)", () => {
@@ -31,7 +35,12 @@ describe("discrete Berry phase and Wilson loop of H(lambda)", () => {
     const z = { re: 0, im: 0 };
     const two = (l: number) => {
       const m = spinHalf(l) as unknown as unknown[][];
-      return [[m[0]![0], m[0]![1], z, z], [m[1]![0], m[1]![1], z, z], [z, z, m[0]![0], m[0]![1]], [z, z, m[1]![0], m[1]![1]]];
+      return [
+        [m[0]![0], m[0]![1], z, z],
+        [m[1]![0], m[1]![1], z, z],
+        [z, z, m[0]![0], m[0]![1]],
+        [z, z, m[1]![0], m[1]![1]],
+      ];
     };
     const one = wilsonLoop(spinHalf, { points: 2000 });
     const w = wilsonLoop(two, { points: 2000, bands: [0, 1] });
@@ -41,7 +50,10 @@ describe("discrete Berry phase and Wilson loop of H(lambda)", () => {
   });
 
   it("reports a closing gap and rejects open loops and non-Hermitian matrices", () => {
-    const gapless = (l: number) => [[Math.cos(l), 0], [0, -Math.cos(l)]];
+    const gapless = (l: number) => [
+      [Math.cos(l), 0],
+      [0, -Math.cos(l)],
+    ];
     expect(wilsonLoop(gapless, { points: 4 }).status).toBe("gap-closed");
     expect(() => wilsonLoop(spinHalf, { from: 0, to: Math.PI })).toThrow(InputError);
     expect(() => wilsonLoop(spinHalf, { from: 0, to: Math.PI })).toThrow(/closed loop/);

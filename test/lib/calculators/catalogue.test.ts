@@ -14,7 +14,19 @@ describe("catalogue: one name and symbol per quantity", () => {
   it("a name with one unit has one symbol in every calculator that uses it (spin-model inputs excepted)", () => {
     // Spin models write energies as D/k_B in K and fields as B; a film's field is mu0 H. Those are
     // different quantities that share a short input name, told apart by their units or models.
-    const spinModels = new Set(["magnon-hall", "easy-plane", "spin-tunnel", "ion-levels", "field-tuned-order", "chain-dynamics", "wall-band", "berry-loop", "chern", "dipolar-lattice", "wall-fit"]);
+    const spinModels = new Set([
+      "magnon-hall",
+      "easy-plane",
+      "spin-tunnel",
+      "ion-levels",
+      "field-tuned-order",
+      "chain-dynamics",
+      "wall-band",
+      "berry-loop",
+      "chern",
+      "dipolar-lattice",
+      "wall-fit",
+    ]);
     const byName = new Map<string, Set<string>>();
     for (const q of all) {
       if (spinModels.has(q.id)) continue;

@@ -47,7 +47,7 @@ function corners(spec: CalculatorSpec, fixed: Record<string, number>): Array<Rec
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {
@@ -69,7 +69,8 @@ describe("chains catalogue", () => {
     // held at the bottom of their ranges to keep this fast; N's top is exercised in the other tests.
     for (const spec of chainCalculators) checkResult(spec, runCalculator(spec, {}));
     for (const c of corners(getCalculator("chain-spectrum"), { N: 4, levels: 2 })) checkResult(getCalculator("chain-spectrum"), runCalculator(getCalculator("chain-spectrum"), c));
-    for (const c of corners(getCalculator("chain-dynamics"), { N: 4, points: 20, hz: 0.5 })) checkResult(getCalculator("chain-dynamics"), runCalculator(getCalculator("chain-dynamics"), c));
+    for (const c of corners(getCalculator("chain-dynamics"), { N: 4, points: 20, hz: 0.5 }))
+      checkResult(getCalculator("chain-dynamics"), runCalculator(getCalculator("chain-dynamics"), c));
     for (const c of corners(getCalculator("wall-band"), { q: 1.2, hz: 0.3 })) {
       if (c.Jz === 0) continue;
       checkResult(getCalculator("wall-band"), runCalculator(getCalculator("wall-band"), c));
@@ -124,7 +125,7 @@ describe("chains catalogue", () => {
       expect(name).toContain(k);
       expect(name).toContain(`R = ${ref.R > 0 ? "+1" : "-1"}`);
       expect(name).toContain(`F = ${ref.F > 0 ? "+1" : "-1"}`);
-      if (c.hx === 0) expect(name).toContain(c.N / 2 % 2 === 0 ? "k = 0" : "k = pi");
+      if (c.hx === 0) expect(name).toContain((c.N / 2) % 2 === 0 ? "k = 0" : "k = pi");
       expect(r.outputs.sectors!.value as string).toMatch(/R = -1/);
     }
   });
@@ -137,7 +138,9 @@ describe("chains catalogue", () => {
     for (let i = 1; i < seen.length; i++) expect(seen[i]!).toBeGreaterThanOrEqual(seen[i - 1]! - 1e-12);
     expect(seen[seen.length - 1]).toBeCloseTo(1, 12);
     let called = false;
-    expect(() => runCalculator(getCalculator("chain-spectrum"), { N: 24, levels: 4 }, { onProgress: () => (called = true) })).toThrow(/budget[\s\S]*states in the symmetry sectors/);
+    expect(() => runCalculator(getCalculator("chain-spectrum"), { N: 24, levels: 4 }, { onProgress: () => (called = true) })).toThrow(
+      /budget[\s\S]*states in the symmetry sectors/,
+    );
     expect(called).toBe(false);
   });
 

@@ -27,29 +27,105 @@ import { commandNames } from "../../../kernel-ext/src/cli/main.js";
  */
 export const outsideChecks: Record<string, { file: string; test: string; outputs: string[] }> = {
   wall: { file: "test/lib/calculators/walls.test.ts", test: "wall: outputs match the closed forms on the defaults", outputs: ["width", "energy", "criticalDmi"] },
-  wall360: { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall360: the core half-width and its slope against scipy quad of the first integral", outputs: ["radius", "width"] },
-  "wall-type": { file: "test/lib/calculators/walls.test.ts", test: "wall360 and wall-type say so when |D| > D_c (no bound pair with negative energy and status ok)", outputs: ["saturationField"] },
-  skyrmion: { file: "test/lib/calculators/skyrmions.test.ts", test: "skyrmion: finds the audit bubble at 9 mT and its expansion field does not depend on the sweep direction", outputs: ["radius", "wallWidth"] },
-  "skyrmion-profile": { file: "test/lib/calculators/outsideChecks.test.ts", test: "skyrmion-profile: the exact profile solves the Euler-Lagrange equation (scipy solve_bvp)", outputs: ["radiusExact"] },
-  "skyrmion-stability": { file: "test/lib/calculators/skyrmions.test.ts", test: "skyrmion-stability: stable with the translation zero mode; strip-out search above D_c ends at B_sat", outputs: ["stability", "translationEigenvalue"] },
+  wall360: {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "wall360: the core half-width and its slope against scipy quad of the first integral",
+    outputs: ["radius", "width"],
+  },
+  "wall-type": {
+    file: "test/lib/calculators/walls.test.ts",
+    test: "wall360 and wall-type say so when |D| > D_c (no bound pair with negative energy and status ok)",
+    outputs: ["saturationField"],
+  },
+  skyrmion: {
+    file: "test/lib/calculators/skyrmions.test.ts",
+    test: "skyrmion: finds the audit bubble at 9 mT and its expansion field does not depend on the sweep direction",
+    outputs: ["radius", "wallWidth"],
+  },
+  "skyrmion-profile": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "skyrmion-profile: the exact profile solves the Euler-Lagrange equation (scipy solve_bvp)",
+    outputs: ["radiusExact"],
+  },
+  "skyrmion-stability": {
+    file: "test/lib/calculators/skyrmions.test.ts",
+    test: "skyrmion-stability: stable with the translation zero mode; strip-out search above D_c ends at B_sat",
+    outputs: ["stability", "translationEigenvalue"],
+  },
   texture: { file: "test/lib/calculators/topology.test.ts", test: "is in the catalogue and computes on its defaults: one Neel skyrmion, Q = -1", outputs: ["Q"] },
-  "berry-loop": { file: "test/lib/calculators/outsideChecks.test.ts", test: "berry-loop: the top-state phase is -S times the cone's solid angle", outputs: ["solidAngle", "gammaTop"] },
-  chern: { file: "test/lib/calculators/outsideChecks.test.ts", test: "chern: Haldane's phase diagram (C = +-1 inside |M| < 3 sqrt3 t2 |sin phi|)", outputs: ["chernLower", "criticalMass"] },
-  "magnon-hall": { file: "test/lib/calculators/outsideChecks.test.ts", test: "magnon-hall: band edges of the honeycomb ferromagnet against numpy", outputs: ["bandBottom", "bandTop"] },
+  "berry-loop": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "berry-loop: the top-state phase is -S times the cone's solid angle",
+    outputs: ["solidAngle", "gammaTop"],
+  },
+  chern: {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "chern: Haldane's phase diagram (C = +-1 inside |M| < 3 sqrt3 t2 |sin phi|)",
+    outputs: ["chernLower", "criticalMass"],
+  },
+  "magnon-hall": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "magnon-hall: band edges of the honeycomb ferromagnet against numpy",
+    outputs: ["bandBottom", "bandTop"],
+  },
   "spin-tunnel": { file: "test/lib/calculators/outsideChecks.test.ts", test: "spin-tunnel: Garg's period of the quenched splittings", outputs: ["gargPeriod"] },
   "easy-plane": { file: "test/lib/calculators/outsideChecks.test.ts", test: "easy-plane: the ground state's S_z against numpy diagonalization", outputs: ["groundM", "szExact"] },
-  "wall-fit": { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall-fit: the fit recovers the profile it was generated from, within its errors", outputs: ["Rfit", "wfit"] },
-  "wall-motion": { file: "test/lib/calculators/dynamics.test.ts", test: "wall-motion: the Walker field and velocity of the default film against the closed forms evaluated in Python", outputs: ["walkerField", "velocity"] },
+  "wall-fit": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "wall-fit: the fit recovers the profile it was generated from, within its errors",
+    outputs: ["Rfit", "wfit"],
+  },
+  "wall-motion": {
+    file: "test/lib/calculators/dynamics.test.ts",
+    test: "wall-motion: the Walker field and velocity of the default film against the closed forms evaluated in Python",
+    outputs: ["walkerField", "velocity"],
+  },
   "wall-current": { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall-current: below the Walker current v = (beta / alpha) u", outputs: ["velocity"] },
-  "wall-trace": { file: "test/lib/calculators/outsideChecks.test.ts", test: "wall-trace: the mean velocity above Walker breakdown against the closed form", outputs: ["traceVelocity"] },
-  "skyrmion-drift": { file: "test/lib/calculators/dynamics.test.ts", test: "skyrmion-drift: Hall angle of a force is atan(4 / alpha I) for Q = -1, and beta = alpha gives v = u", outputs: ["forceHallAngle"] },
-  "precessing-skyrmion": { file: "test/lib/calculators/dynamics.test.ts", test: "precessing-skyrmion: the stable frequency approaches the thin-wall value and the threshold current is below the default current", outputs: ["frequency"] },
-  "chain-spectrum": { file: "test/lib/calculators/chains.test.ts", test: "chain-spectrum reaches the Bethe-ansatz e0 and the transverse-Ising closed form", outputs: ["groundEnergyPerSite"] },
-  "chain-dynamics": { file: "test/lib/calculators/outsideChecks.test.ts", test: "chain-dynamics: <S^x> of a small ring against numpy diagonalization", outputs: ["magnetizationX", "chiralWeight"] },
-  "wall-band": { file: "test/lib/calculators/chains.test.ts", test: "chain-dynamics obeys its sum rules; wall-band's first-order chiral weight matches it", outputs: ["villainEdge", "chiralWeight"] },
-  "ion-levels": { file: "test/lib/calculators/ions.test.ts", test: "B20 alone: levels 3 B20 (M^2 - 1/4), g = (g_J (J + 1/2), g_J (J + 1/2), g_J), field in meV units", outputs: ["levels", "gPrincipal1"] },
-  "dipolar-lattice": { file: "test/lib/calculators/lattices.test.ts", test: "square lattice: the zz band at Gamma is sum' 1/r^3 = 4 zeta(3/2) beta(3/2); honeycomb LT at K", outputs: ["band3", "qMinFractional"] },
-  "field-tuned-order": { file: "test/lib/calculators/lattices.test.ts", test: "spin 1: the ordered window of the solver matches the closed-form critical fields; lobe tip (sqrt2 - 1)^2", outputs: ["Bc1", "Bc2"] },
+  "wall-trace": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "wall-trace: the mean velocity above Walker breakdown against the closed form",
+    outputs: ["traceVelocity"],
+  },
+  "skyrmion-drift": {
+    file: "test/lib/calculators/dynamics.test.ts",
+    test: "skyrmion-drift: Hall angle of a force is atan(4 / alpha I) for Q = -1, and beta = alpha gives v = u",
+    outputs: ["forceHallAngle"],
+  },
+  "precessing-skyrmion": {
+    file: "test/lib/calculators/dynamics.test.ts",
+    test: "precessing-skyrmion: the stable frequency approaches the thin-wall value and the threshold current is below the default current",
+    outputs: ["frequency"],
+  },
+  "chain-spectrum": {
+    file: "test/lib/calculators/chains.test.ts",
+    test: "chain-spectrum reaches the Bethe-ansatz e0 and the transverse-Ising closed form",
+    outputs: ["groundEnergyPerSite"],
+  },
+  "chain-dynamics": {
+    file: "test/lib/calculators/outsideChecks.test.ts",
+    test: "chain-dynamics: <S^x> of a small ring against numpy diagonalization",
+    outputs: ["magnetizationX", "chiralWeight"],
+  },
+  "wall-band": {
+    file: "test/lib/calculators/chains.test.ts",
+    test: "chain-dynamics obeys its sum rules; wall-band's first-order chiral weight matches it",
+    outputs: ["villainEdge", "chiralWeight"],
+  },
+  "ion-levels": {
+    file: "test/lib/calculators/ions.test.ts",
+    test: "B20 alone: levels 3 B20 (M^2 - 1/4), g = (g_J (J + 1/2), g_J (J + 1/2), g_J), field in meV units",
+    outputs: ["levels", "gPrincipal1"],
+  },
+  "dipolar-lattice": {
+    file: "test/lib/calculators/lattices.test.ts",
+    test: "square lattice: the zz band at Gamma is sum' 1/r^3 = 4 zeta(3/2) beta(3/2); honeycomb LT at K",
+    outputs: ["band3", "qMinFractional"],
+  },
+  "field-tuned-order": {
+    file: "test/lib/calculators/lattices.test.ts",
+    test: "spin 1: the ordered window of the solver matches the closed-form critical fields; lobe tip (sqrt2 - 1)^2",
+    outputs: ["Bc1", "Bc2"],
+  },
 };
 
 /** The body of the test titled `title` in `source` (up to the next test or the end), or undefined. */
@@ -91,8 +167,14 @@ describe("the catalogue's contract", () => {
   it("ids are unique and every calculator has an outside check registered, and every registered id exists", () => {
     const ids = catalogue.map((s) => s.id);
     expect(new Set(ids).size).toBe(ids.length);
-    expect(ids.filter((id) => !(id in outsideChecks)), "calculators without an outside check in outsideChecks").toEqual([]);
-    expect(Object.keys(outsideChecks).filter((id) => !ids.includes(id)), "outsideChecks entries for no calculator").toEqual([]);
+    expect(
+      ids.filter((id) => !(id in outsideChecks)),
+      "calculators without an outside check in outsideChecks",
+    ).toEqual([]);
+    expect(
+      Object.keys(outsideChecks).filter((id) => !ids.includes(id)),
+      "outsideChecks entries for no calculator",
+    ).toEqual([]);
   });
 
   for (const spec of catalogue) {
@@ -139,7 +221,11 @@ describe("the catalogue's contract", () => {
           expect(input.default >= input.min && input.default <= input.max, `${input.name} = ${input.default} within ${input.min} .. ${input.max}`).toBe(true);
           if (input.scale === "log") expect(input.min > 0, `${input.name}: a log slider starts above 0`).toBe(true);
           if (input.kind === "integer") expect(Number.isInteger(input.default), `${input.name}: a whole default`).toBe(true);
-          if (input.kind === "choice") expect(input.choices?.some((c) => c.value === input.default), `${input.name}: the default is a choice`).toBe(true);
+          if (input.kind === "choice")
+            expect(
+              input.choices?.some((c) => c.value === input.default),
+              `${input.name}: the default is a choice`,
+            ).toBe(true);
           const lim = spec.limits?.[input.name];
           if (!lim) continue;
           const v = input.default;
@@ -148,7 +234,11 @@ describe("the catalogue's contract", () => {
           if (lim.above !== undefined) expect(v > lim.above, `${input.name} > ${lim.above}`).toBe(true);
           if (lim.below !== undefined) expect(v < lim.below, `${input.name} < ${lim.below}`).toBe(true);
         }
-        for (const name of Object.keys(spec.limits ?? {})) expect(spec.inputs.some((i) => i.name === name), `limit on an input: ${name}`).toBe(true);
+        for (const name of Object.keys(spec.limits ?? {}))
+          expect(
+            spec.inputs.some((i) => i.name === name),
+            `limit on an input: ${name}`,
+          ).toBe(true);
       });
 
       it("survives a JSON round trip unchanged (a signed zero comes back as 0, a gap as null)", () => {
@@ -160,7 +250,11 @@ describe("the catalogue's contract", () => {
         it("sweeps through sweepValues: sweepable inputs exist, the default sweep is the result's, bad points are refused by name", () => {
           const sweep = spec.sweep!;
           expect(sweep.over.length).toBeGreaterThan(0);
-          for (const name of sweep.over) expect(spec.inputs.some((i) => i.name === name), `sweepable ${name} is an input`).toBe(true);
+          for (const name of sweep.over)
+            expect(
+              spec.inputs.some((i) => i.name === name),
+              `sweepable ${name} is an input`,
+            ).toBe(true);
           const def = defaultSweep(spec)!;
           expect(results.get(spec.id)!.sweep).toEqual(def);
           const values = sweepValues(spec, def);
@@ -238,7 +332,8 @@ describe("the catalogue's contract", () => {
       if (!/\/\/\s*(Source:|From memory)|runPython/.test(body)) problems.push(`${id}: the test names no source (// Source: ..., // From memory: ..., or a runPython oracle)`);
       // the calculator is named in the test, or in its describe block (`const spec = getCalculator(id)`)
       const scope = describeScope(source, check.test) + body;
-      if (!new RegExp(`["'\`]${id}["'\`]|${id.replace(/-(\w)/g, (_, c: string) => c.toUpperCase())}(Spec|Calculator)\\b`).test(scope)) problems.push(`${id}: the test does not run the calculator by its id`);
+      if (!new RegExp(`["'\`]${id}["'\`]|${id.replace(/-(\w)/g, (_, c: string) => c.toUpperCase())}(Spec|Calculator)\\b`).test(scope))
+        problems.push(`${id}: the test does not run the calculator by its id`);
       const spec = catalogue.find((s) => s.id === id);
       if (check.outputs.length === 0) problems.push(`${id}: no headline output`);
       for (const o of check.outputs) {

@@ -14,7 +14,16 @@ describe("dynamics calculators", () => {
       expect(["ok", "warning"]).toContain(d.status);
       for (const input of spec.inputs) {
         for (const v of [input.min, input.max]) {
-          const sweep = spec.sweep ? { sweep: { over: spec.sweep.over[0]!, from: spec.inputs.find((i) => i.name === spec.sweep!.over[0])!.min, to: spec.inputs.find((i) => i.name === spec.sweep!.over[0])!.max, points: 12 } } : {};
+          const sweep = spec.sweep
+            ? {
+                sweep: {
+                  over: spec.sweep.over[0]!,
+                  from: spec.inputs.find((i) => i.name === spec.sweep!.over[0])!.min,
+                  to: spec.inputs.find((i) => i.name === spec.sweep!.over[0])!.max,
+                  points: 12,
+                },
+              }
+            : {};
           const r = runCalculator(spec, { [input.name]: v }, sweep);
           expect(["ok", "warning"], `${spec.id} ${input.name}=${v}`).toContain(r.status);
           for (const [k, o] of Object.entries(r.outputs)) {

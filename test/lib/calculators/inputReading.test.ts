@@ -69,4 +69,3 @@ describe("calculator input reading", () => {
     expect(() => runCalculator(loop, { theta: "3mT" })).toThrow(/dimension of rad/);
   });
 });
-

@@ -3,7 +3,7 @@ import { getCalculator, runCalculator, InputError, muBOverKB, type CalculatorSpe
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {
@@ -20,7 +20,8 @@ describe("ion-levels", () => {
   it("computes on its defaults, on all-min and all-max, and with each input at its min and max", () => {
     // Common practice, no source: a spec must compute wherever its sliders go.
     checkResult(spec, runCalculator(spec, {}));
-    const lo: Record<string, number> = {}, hi: Record<string, number> = {};
+    const lo: Record<string, number> = {},
+      hi: Record<string, number> = {};
     for (const i of spec.inputs) {
       lo[i.name] = i.min;
       hi[i.name] = i.max;

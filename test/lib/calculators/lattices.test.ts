@@ -4,7 +4,7 @@ import { runPython } from "../../helpers/python.js";
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") for (const x of v as number[]) expect(Number.isFinite(x), o.name).toBe(true);
@@ -35,7 +35,7 @@ describe("dipolar-lattice", () => {
     expect(hc.status).toBe("ok");
     // unit: D / k_B = mu0 (7 muB)^2 / (4 pi (0.4 nm)^3 k_B)
     // (mu0 / 4 pi = 1e-7 to 5e-10 relative in CODATA 2018)
-    expect((hc.outputs.dipolarUnitK!.value as number) / ((1e-7 * (7 * muB) ** 2) / (4e-10) ** 3 / kB)).toBeCloseTo(1, 8);
+    expect((hc.outputs.dipolarUnitK!.value as number) / ((1e-7 * (7 * muB) ** 2) / 4e-10 ** 3 / kB)).toBeCloseTo(1, 8);
   });
 
   it("refuses a bad lattice choice", () => {
@@ -48,7 +48,13 @@ describe("field-tuned-order", () => {
   it("computes on defaults and at range corners", () => {
     // Common practice, no source.
     checkResult(spec, runCalculator(spec, {}));
-    for (const [S, D, zJ] of [[0.5, 0, 10], [5, 30, 0], [5, 0, 10], [1, 30, 10]] as const) checkResult(spec, runCalculator(spec, { S, D, zJ, Delta: 2, g: 0.5, Bmax: 60 }));
+    for (const [S, D, zJ] of [
+      [0.5, 0, 10],
+      [5, 30, 0],
+      [5, 0, 10],
+      [1, 30, 10],
+    ] as const)
+      checkResult(spec, runCalculator(spec, { S, D, zJ, Delta: 2, g: 0.5, Bmax: 60 }));
   });
 
   it("spin 1: the ordered window of the solver matches the closed-form critical fields; lobe tip (sqrt2 - 1)^2", () => {
@@ -58,7 +64,8 @@ describe("field-tuned-order", () => {
     const zeemanK = (2 * muB) / kB;
     expect(r.outputs.Bc1!.value as number).toBeCloseTo(Math.sqrt(60) / zeemanK, 10);
     expect(r.outputs.Bc2!.value as number).toBeCloseTo(14 / zeemanK, 10);
-    const B = r.outputs.fieldGrid!.value as number[], m = r.outputs.mPerp!.value as number[];
+    const B = r.outputs.fieldGrid!.value as number[],
+      m = r.outputs.mPerp!.value as number[];
     const ordered = B.filter((_, i) => m[i]! > 1e-6);
     const step = B[1]! - B[0]!;
     expect(Math.abs(Math.min(...ordered) - (r.outputs.Bc1!.value as number))).toBeLessThan(step);
@@ -74,7 +81,9 @@ describe("field-tuned-order domes", () => {
     // Common practice, no source.
     const spec = getCalculator("field-tuned-order");
     const r = runCalculator(spec, { S: 1, D: 10, zJ: 2, Delta: 1, g: 2, Bmax: 15 });
-    const B = r.outputs.fieldGrid!.value as number[], Tc = r.outputs.orderingTemperature!.value as number[], m = r.outputs.mPerp!.value as number[];
+    const B = r.outputs.fieldGrid!.value as number[],
+      Tc = r.outputs.orderingTemperature!.value as number[],
+      m = r.outputs.mPerp!.value as number[];
     B.forEach((_, i) => expect(Tc[i]! > 0).toBe(m[i]! > 1e-6));
     expect(r.outputs.maxOrderingTemperature!.value as number).toBeGreaterThan(0.5);
   });

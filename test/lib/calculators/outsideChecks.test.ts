@@ -66,7 +66,10 @@ print(json.dumps({'polygon': abs(tot), 'cap': 2*np.pi*(1-np.cos(th))}))`);
     // Source: F. D. M. Haldane, Phys. Rev. Lett. 61, 2015 (1988): the gap closes at M = +-3 sqrt(3) t2 sin(phi);
     // inside, the lower band has |C| = 1; outside C = 0.
     const spec = getCalculator("chern");
-    for (const [t2, phi] of [[0.1, Math.PI / 2], [0.2, 0.6]] as const) {
+    for (const [t2, phi] of [
+      [0.1, Math.PI / 2],
+      [0.2, 0.6],
+    ] as const) {
       const Mc = 3 * Math.sqrt(3) * t2 * Math.abs(Math.sin(phi));
       const inside = runCalculator(spec, { t2, phi, M: 0.4 * Mc }, { noSweep: true });
       const outside = runCalculator(spec, { t2, phi, M: 1.6 * Mc }, { noSweep: true });
@@ -117,7 +120,10 @@ print(json.dumps({'bottom': E[:, 0].min(), 'top': E[:, 1].max(), 'gapK': eK[1]-e
   it("easy-plane: the ground state's S_z against numpy diagonalization", () => {
     // Source: H = D Sz^2 - g muB B Sz (the spec's Hamiltonian, diagonal in m); Boltzmann average by numpy,
     // CODATA constants from scipy.
-    for (const [twoS, D, B, T] of [[20, 1, 2, 0.5], [7, 0.5, 3.3, 1.5]] as const) {
+    for (const [twoS, D, B, T] of [
+      [20, 1, 2, 0.5],
+      [7, 0.5, 3.3, 1.5],
+    ] as const) {
       const r = runCalculator(getCalculator("easy-plane"), { twoS, D, B, T }, { noSweep: true });
       const ref = runPython<{ ground: number; sz: number }>(`
 import json, numpy as np, scipy.constants as c
@@ -181,7 +187,8 @@ print(json.dumps(float(g@sum(Sx)@g/N)))`);
     // Source: scipy.optimize.curve_fit (Levenberg-Marquardt of MINPACK) on the same data with the
     // 360-degree wall profile tan(theta/2) = sinh(R/w) / sinh(|x - x0|/w) (the spec's model).
     const r = runCalculator(getCalculator("wall-fit"), {});
-    const ref = runPython<{ R: number; w: number } | { error: string }>(`
+    const ref = runPython<{ R: number; w: number } | { error: string }>(
+      `
 import json, sys, numpy as np
 from scipy.optimize import curve_fit
 d = json.load(sys.stdin)
@@ -190,7 +197,9 @@ def mz(x, x0, R, w, off, con):
     t = np.sinh(R/w)/np.sinh(np.maximum(np.abs(x - x0), 1e-30)/w)
     return off + con*(1 - t**2)/(1 + t**2)
 p, _ = curve_fit(mz, x, y, p0=[0, d['R0'], d['w0'], 0, 1], maxfev=20000)
-print(json.dumps({'R': abs(p[1]), 'w': abs(p[2])}))`, { x: arr(r, "x"), y: arr(r, "data"), R0: num(r, "Rfit") * 0.8, w0: num(r, "wfit") * 1.2 });
+print(json.dumps({'R': abs(p[1]), 'w': abs(p[2])}))`,
+      { x: arr(r, "x"), y: arr(r, "data"), R0: num(r, "Rfit") * 0.8, w0: num(r, "wfit") * 1.2 },
+    );
     if ("error" in ref) throw new Error(ref.error);
     expect(Math.abs(num(r, "Rfit") - ref.R)).toBeLessThan(0.05 * num(r, "RStderr"));
     expect(Math.abs(num(r, "wfit") - ref.w)).toBeLessThan(0.05 * num(r, "wStderr"));

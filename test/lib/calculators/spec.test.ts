@@ -20,7 +20,17 @@ function tsc(file: string): { status: number | null; out: string } {
   writeFileSync(
     config,
     JSON.stringify({
-      compilerOptions: { strict: true, noEmit: true, target: "ES2022", module: "CommonJS", moduleResolution: "Node10", types: ["node"], typeRoots: [join(__dirname, "../../../node_modules/@types")], skipLibCheck: true, noErrorTruncation: true },
+      compilerOptions: {
+        strict: true,
+        noEmit: true,
+        target: "ES2022",
+        module: "CommonJS",
+        moduleResolution: "Node10",
+        types: ["node"],
+        typeRoots: [join(__dirname, "../../../node_modules/@types")],
+        skipLibCheck: true,
+        noErrorTruncation: true,
+      },
       files: [join(here, file)],
     }),
   );
@@ -88,7 +98,9 @@ describe("outputs of a result (run time)", () => {
       `output = "w" is not valid: expected one of the outputs of this 'contract-demo' result: y, z. 'w' is an output of 'contract-demo' that was not computed for these inputs (see the result's status and notes)`,
     );
     const loose = r.outputs as unknown as Record<string, { value: number }>;
-    expect(() => loose.yy!.value).toThrow(/output = "yy" is not valid: expected one of the outputs of this 'contract-demo' result: y, z\. Outputs of 'contract-demo' not computed for these inputs: w/);
+    expect(() => loose.yy!.value).toThrow(
+      /output = "yy" is not valid: expected one of the outputs of this 'contract-demo' result: y, z\. Outputs of 'contract-demo' not computed for these inputs: w/,
+    );
   });
 
   it("keeps the outputs a plain record: JSON, structured clone, spread, equality, inspection", () => {

@@ -25,8 +25,9 @@ describe("spin-tunnel splitting curve", () => {
     for (const i of dips) expect(L[i]!).toBeLessThan(top - 8);
     // Source: A. Garg, EPL 22, 205 (1993): quenching period (2 k_B / g muB) sqrt(2 E (E + D)),
     // exact for C = 0 (Kececioglu and Garg, PRB 63, 064422 (2001)). k_B/muB = 1.4887 T/K (CODATA 2018).
-    const D = 0.42, E = 0.04;
-    const garg = (2 * 1.380649e-23 / (2 * 9.2740100783e-24)) * Math.sqrt(2 * E * (E + D));
+    const D = 0.42,
+      E = 0.04;
+    const garg = ((2 * 1.380649e-23) / (2 * 9.2740100783e-24)) * Math.sqrt(2 * E * (E + D));
     for (let k = 1; k < dips.length; k++) expect(Math.abs(B[dips[k]!]! - B[dips[k - 1]!]! - garg) / garg).toBeLessThan(1e-3);
   });
 });

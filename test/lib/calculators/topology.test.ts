@@ -4,12 +4,15 @@ import { textureSpec, textureFromInputs } from "../../../lib/src/calculators/top
 
 function check(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     expect(v, o.name).toBeDefined();
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {
       expect(Array.isArray(v)).toBe(true);
-      expect((v as number[]).every((x) => Number.isFinite(x)), o.name).toBe(true);
+      expect(
+        (v as number[]).every((x) => Number.isFinite(x)),
+        o.name,
+      ).toBe(true);
     } else expect(Number.isFinite(v as number), o.name).toBe(true);
   }
   expect(JSON.stringify(r)).not.toMatch(/null/);
@@ -67,7 +70,12 @@ describe("texture calculator", () => {
       expect(r.outputs.previewCell!.value as number).toBeCloseTo(k * 1e-9, 20);
       const p = r.outputs.fieldPreview!.value as number[];
       expect(p.length).toBe(3 * size * size);
-      for (const [i, j] of [[0, 0], [size - 1, 0], [size >> 1, size >> 1], [3, size - 2]] as const) {
+      for (const [i, j] of [
+        [0, 0],
+        [size - 1, 0],
+        [size >> 1, size >> 1],
+        [3, size - 2],
+      ] as const) {
         for (let c = 0; c < 3; c++) {
           expect(Math.abs(p[3 * (j * size + i) + c]! - full.m[3 * (j * k * n + i * k) + c]!), `n=${n} (${i},${j}) c${c}`).toBeLessThanOrEqual(5e-5 + 1e-12);
         }

@@ -56,7 +56,11 @@ describe("reading a value with its uncertainty", () => {
     expect(inputError(() => runCalculator(wall, both, { uncertainty: { correlations: [{ between: ["A", "Ku"], coefficient: 1.5 }] } })).expected).toMatch(/-1 to 1/);
     expect(inputError(() => runCalculator(wall, both, { uncertainty: { correlations: [{ between: ["A", "D"], coefficient: 0.5 }] } })).value).toBe("D");
     // pairwise -0.9 among three inputs: no covariance matrix has these (not positive semidefinite)
-    const bad = [["A", "Ku"], ["A", "Ms"], ["Ku", "Ms"]].map(([a, b]) => ({ between: [a!, b!] as [string, string], coefficient: -0.9 }));
+    const bad = [
+      ["A", "Ku"],
+      ["A", "Ms"],
+      ["Ku", "Ms"],
+    ].map(([a, b]) => ({ between: [a!, b!] as [string, string], coefficient: -0.9 }));
     expect(inputError(() => runCalculator(wall, both, { uncertainty: { correlations: bad } })).expected).toMatch(/positive semidefinite/);
     expect(inputError(() => runCalculator(wall, both, { uncertainty: { method: "monte-carlo", samples: 1e6 } })).parameter).toBe("uncertainty.samples");
   });
@@ -114,7 +118,8 @@ describe("first order and Monte Carlo on the wall width parameter Delta = sqrt(A
     expect(mc.uncertainty!.flagged.width).toBeUndefined();
     expect(mc.status).toBe("ok");
     // Reference library: numpy, 10^6 correlated normal draws of sqrt(A / (Ku - mu0 Ms^2 / 2)).
-    const ref = runPython<{ sd: number; mean: number }>(`
+    const ref = runPython<{ sd: number; mean: number }>(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin)
 rng = np.random.default_rng(1)
@@ -122,9 +127,11 @@ cov = np.array([[d["uA"]**2, d["r"]*d["uA"]*d["uKu"], 0], [d["r"]*d["uA"]*d["uKu
 x = rng.multivariate_normal([d["A"], d["Ku"], d["Ms"]], cov, size=1000000)
 delta = np.sqrt(x[:, 0] / (x[:, 1] - d["mu0"] * x[:, 2]**2 / 2))
 print(json.dumps({"sd": float(delta.std(ddof=1)), "mean": float(delta.mean())}))
-`, { A, Ku, Ms, uA, uKu, uMs, r, mu0 });
+`,
+      { A, Ku, Ms, uA, uKu, uMs, r, mu0 },
+    );
     expect(Math.abs(sd / ref.sd - 1)).toBeLessThan(0.06);
-    expect(Math.abs(mc.uncertainty!.monteCarlo!.mean.width! - ref.mean)).toBeLessThan(4 * ref.sd / Math.sqrt(samples));
+    expect(Math.abs(mc.uncertainty!.monteCarlo!.mean.width! - ref.mean)).toBeLessThan((4 * ref.sd) / Math.sqrt(samples));
     const again = runCalculator(wall, inputs, { uncertainty: { correlations, method: "monte-carlo", samples, seed: 5 } });
     expect(again.outputs.width!.uncertainty).toBe(sd);
     expect(mc.notes.join(" ")).toMatch(/Monte Carlo \(JCGM 101:2008\): 2000 draws.*seed 5/);

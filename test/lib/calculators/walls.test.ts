@@ -26,7 +26,7 @@ function inputError(fn: () => unknown): InputError {
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {
-    const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+    const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
     if (v === undefined) continue;
     if (o.kind === "text") expect(typeof v).toBe("string");
     else if (o.kind === "array") {
@@ -98,7 +98,8 @@ print(json.dumps({"DN": 2 * C / np.pi, "DNthin": 2 * np.log(2) * mu0 * Ms**2 * t
     expect(Math.abs(val("neelThresholdThinFilm") / ref.DNthin - 1)).toBeLessThan(1e-12);
     const shown = (ref.DN * 1e3).toPrecision(3);
     expect(shown).toBe("0.494");
-    const wt = r.outputs.wallType!.value as string, rg = r.outputs.regime!.value as string;
+    const wt = r.outputs.wallType!.value as string,
+      rg = r.outputs.regime!.value as string;
     for (const text of [wt, rg]) {
       expect(text).toContain(`${shown} mJ/m^2`);
       expect(text).not.toContain("0.953");

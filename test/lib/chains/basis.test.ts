@@ -1,5 +1,17 @@
 import { describe, expect, it } from "vitest";
-import { chainModel, chainSectors, ChainSector, denseSpectrum, reverseBits, sectorGroupOrder, sectorName, sectorLevels, InputError, type ChainModel, type SectorLabel } from "@helicoid/lib";
+import {
+  chainModel,
+  chainSectors,
+  ChainSector,
+  denseSpectrum,
+  reverseBits,
+  sectorGroupOrder,
+  sectorName,
+  sectorLevels,
+  InputError,
+  type ChainModel,
+  type SectorLabel,
+} from "@helicoid/lib";
 import { runPython } from "../../helpers/python.js";
 
 // Oracle 1 (spectra): numpy builds the full Hamiltonian of each case itself (all 2^N states, or one
@@ -77,7 +89,7 @@ describe("reflection and spin-inversion sectors", () => {
     // Common practice, no source: checked bit by bit.
     for (const N of [3, 7, 12, 20]) {
       for (const s of [1, 5, 0b1011, (1 << N) - 2]) {
-        const r = reverseBits(s >>> 0 & ((1 << N) - 1), N);
+        const r = reverseBits((s >>> 0) & ((1 << N) - 1), N);
         for (let j = 0; j < N; j++) expect((r >>> (N - 1 - j)) & 1).toBe((s >>> j) & 1);
       }
     }
@@ -97,7 +109,10 @@ describe("reflection and spin-inversion sectors", () => {
       { N: 9, Jz: 2, Jperp: 1, hx: 0.5, hz: 0, periodic: false },
     ];
     const labelsOf = (c: Case): SectorLabel[] => chainSectors(modelOf(c), { reflection: true, flip: true }).filter((l) => c.nUp === undefined || l.nUp === c.nUp);
-    const ref = runPython<Array<{ levels: number[]; sizes: number[] }>>(oracle, cases.map((c) => ({ ...c, nUp: c.nUp ?? null, labels: labelsOf(c) })));
+    const ref = runPython<Array<{ levels: number[]; sizes: number[] }>>(
+      oracle,
+      cases.map((c) => ({ ...c, nUp: c.nUp ?? null, labels: labelsOf(c) })),
+    );
     cases.forEach((c, i) => {
       const m = modelOf(c);
       const labels = labelsOf(c);

@@ -55,7 +55,13 @@ describe("S(q, w) against numpy (dense 2^N matrices built in Python)", () => {
     it(`zz, xx and the chiral channel at T = ${T} with a transverse field`, () => {
       const c = { N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0.1, T, eta: 0.15, omega, q: [0, 1, 3, 4] };
       const ref = runPython<Record<string, { zz: number[]; xx: number[]; chiral: number[]; wzz: number; wchiral: number }>>(oracle, c);
-      const r = dynamicStructureFactor(chainModel({ N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0.1 }), { T, eta: 0.15, omega, qIndices: [0, 1, 3, 4], components: ["zz", "xx", "chiral"] });
+      const r = dynamicStructureFactor(chainModel({ N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0.1 }), {
+        T,
+        eta: 0.15,
+        omega,
+        qIndices: [0, 1, 3, 4],
+        components: ["zz", "xx", "chiral"],
+      });
       c.q.forEach((n, i) => {
         const rf = ref[String(n)]!;
         for (let t = 0; t < omega.length; t++) {
@@ -79,7 +85,13 @@ describe("S(q, w) with the pi rotation about x as a symmetry (hz = 0: parity sec
     const c = { N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0, T: 0, eta: 0.15, omega, q: [0, 1, 3, 4] };
     type Ref = Record<string, { zz: number[]; xx: number[]; yy: number[]; chiral: number[]; xyre: number[]; xyim: number[]; xzre: number[]; xzim: number[] }>;
     const ref = runPython<Ref>(oracle, c);
-    const r = dynamicStructureFactor(chainModel({ N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0 }), { T: 0, eta: 0.15, omega, qIndices: c.q, components: ["xx", "yy", "zz", "xy", "xz", "chiral"] });
+    const r = dynamicStructureFactor(chainModel({ N: 8, Jz: 2, Jperp: 0.6, hx: 0.5, hz: 0 }), {
+      T: 0,
+      eta: 0.15,
+      omega,
+      qIndices: c.q,
+      components: ["xx", "yy", "zz", "xy", "xz", "chiral"],
+    });
     expect(r.method).toMatch(/parity/);
     c.q.forEach((n, i) => {
       const rf = ref[String(n)]!;
@@ -126,7 +138,9 @@ describe("sum rules", () => {
           const zero = dynamicStructureFactor(chainModel({ N, Jz, Jperp, hx: 0 }), opts);
           const plus = dynamicStructureFactor(chainModel({ N, Jz, Jperp, hx }), opts);
           const minus = dynamicStructureFactor(chainModel({ N, Jz, Jperp, hx: -hx }), opts);
-          const C0 = zero.channels.chiral!, Cp = plus.channels.chiral!, Cm = minus.channels.chiral!;
+          const C0 = zero.channels.chiral!,
+            Cp = plus.channels.chiral!,
+            Cm = minus.channels.chiral!;
           Cp.re.forEach((row, i) =>
             row.forEach((v, t) => {
               expect(Math.abs(C0.re[i]![t]!)).toBeLessThan(1e-10);

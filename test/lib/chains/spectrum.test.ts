@@ -59,7 +59,13 @@ function model(m: Partial<ChainModel> & { N: number }): ChainModel {
 describe("basis ranking", () => {
   // Source: D. E. Knuth, TAOCP 4A, 7.2.1.3 (combinatorial number system: colex rank of n-subsets).
   it("combinadic rank = position in increasing order = rank by halves, and unrank inverts it", () => {
-    for (const [N, n] of [[10, 5], [11, 3], [16, 8], [7, 0], [9, 9]] as const) {
+    for (const [N, n] of [
+      [10, 5],
+      [11, 3],
+      [16, 8],
+      [7, 0],
+      [9, 9],
+    ] as const) {
       const halves = new HalfRanker(N, n);
       let s = 2 ** n - 1;
       const count = halves.size;
@@ -82,7 +88,10 @@ describe("exact diagonalization against scipy (eigsh on a matrix built in Python
       { N: 10, Jz: 3, Jperp: 0.5, hx: 0.4, hz: 0.2, periodic: true, nUp: null, levels: 4 },
       { N: 9, Jz: 1, Jperp: 1, hx: 0.7, hz: 0, periodic: false, nUp: null, levels: 3 },
     ];
-    const ref = runPython<number[][]>(oracle, cases.map((c) => ({ ...c, levels: c.levels + 3 })));
+    const ref = runPython<number[][]>(
+      oracle,
+      cases.map((c) => ({ ...c, levels: c.levels + 3 })),
+    );
     cases.forEach((c, i) => {
       const m = model({ N: c.N, Jz: c.Jz, Jperp: c.Jperp, hx: c.hx, hz: c.hz, boundary: c.periodic ? "periodic" : "open" });
       const r = sectorLevels(m, { nUp: c.nUp, m: null, flip: 0 }, { levels: c.levels, tol: 1e-11 });
@@ -141,7 +150,8 @@ describe("Lanczos without re-orthogonalization (lowest level)", () => {
     const y = plain.vectors[0]!;
     const w = new Float64Array(y.length);
     plain.hamiltonian.apply(y, w);
-    let r = 0, n = 0;
+    let r = 0,
+      n = 0;
     for (let i = 0; i < y.length; i++) {
       r += (w[i]! - plain.values[0]! * y[i]!) ** 2;
       n += y[i]! ** 2;
@@ -174,9 +184,9 @@ describe("memory budget, bad input, stopping", () => {
   it("reports progress and stops on request", () => {
     const m = model({ N: 16, Jz: 1, Jperp: 1 });
     const seen: number[] = [];
-    expect(() =>
-      sectorLevels(m, { nUp: 8, m: null, flip: 0 }, { krylov: 20, onProgress: (p) => seen.push(p.matvecs), shouldStop: () => seen.length >= 2 }),
-    ).toThrow(ComputationStopped);
+    expect(() => sectorLevels(m, { nUp: 8, m: null, flip: 0 }, { krylov: 20, onProgress: (p) => seen.push(p.matvecs), shouldStop: () => seen.length >= 2 })).toThrow(
+      ComputationStopped,
+    );
     expect(seen.length).toBe(2);
   });
 });

@@ -43,7 +43,8 @@ function edBand(N: number, Jz: number, Jperp: number): number[] {
 describe("one-wall band against ED of odd rings", () => {
   it("E(K) = Jz/2 + Jperp cos 2K with errors of order Jperp^2/Jz", () => {
     // Source: J. Villain, Physica B 79, 1 (1975); S. Ishimura, H. Shiba, Prog. Theor. Phys. 63, 743 (1980).
-    const N = 11, J = 1;
+    const N = 11,
+      J = 1;
     const errs: number[] = [];
     for (const Jz of [10, 20]) {
       const ed = edBand(N, Jz, J);
@@ -51,27 +52,33 @@ describe("one-wall band against ED of odd rings", () => {
       const band = domainWallBand({ Jz, Jperp: J, hx: 0, hz: 0 }, K).lower;
       errs.push(Math.max(...ed.map((e, i) => Math.abs(e - band[i]!))));
     }
-    expect(errs[0]).toBeLessThan(2 * (J * J) / 10);
-    expect(errs[1]).toBeLessThan(2 * (J * J) / 20);
+    expect(errs[0]).toBeLessThan((2 * (J * J)) / 10);
+    expect(errs[1]).toBeLessThan((2 * (J * J)) / 20);
     expect(errs[0]! / errs[1]!).toBeGreaterThan(1.6); // error ~ 1/Jz
   });
 
   it("a transverse field splits the band by 2 hx |cos K| (both types mixed)", () => {
-    const N = 9, Jz = 16, J = 1, hx = 0.6;
+    const N = 9,
+      Jz = 16,
+      J = 1,
+      hx = 0.6;
     const m = chainModel({ N, Jz, Jperp: J, hx });
     for (let mm = 0; mm < N; mm++) {
       const K = (2 * Math.PI * mm) / N;
       const r = sectorLevels(m, { nUp: null, m: mm, flip: 0 }, { levels: 2, tol: 1e-12 });
       const b = domainWallBand({ Jz, Jperp: J, hx, hz: 0 }, [K]);
       const split = r.values[1]! - r.values[0]!;
-      expect(Math.abs(split - (b.upper[0]! - b.lower[0]!))).toBeLessThan(3 * (J * J + hx * hx) / Jz);
+      expect(Math.abs(split - (b.upper[0]! - b.lower[0]!))).toBeLessThan((3 * (J * J + hx * hx)) / Jz);
     }
   });
 
   it("chirality of a band state: <kappa^z> = sigma sin 2K (ED sign), |spin current| = Jperp |sin 2K|", () => {
-    const N = 11, Jz = 20, J = 1;
+    const N = 11,
+      Jz = 20,
+      J = 1;
     const m = chainModel({ N, Jz, Jperp: J });
-    const K: number[] = [], ed: number[] = [];
+    const K: number[] = [],
+      ed: number[] = [];
     for (let mm = 0; mm < N; mm++) {
       const label = { nUp: (N + 1) / 2, m: mm, flip: 0 as const };
       const r = sectorLevels(m, label, { tol: 1e-12 });
@@ -93,11 +100,14 @@ describe("one-wall band against ED of odd rings", () => {
 
 describe("Villain intraband scattering", () => {
   it("the edge 2 Jperp |sin q| bounds the intraband transitions of ED one-wall states", () => {
-    const N = 11, Jz = 20, J = 1;
+    const N = 11,
+      Jz = 20,
+      J = 1;
     const ed = edBand(N, Jz, J);
     for (let n = 1; n < N; n++) {
       const q = (2 * Math.PI * n) / N;
-      let edMax = 0, foMax = 0;
+      let edMax = 0,
+        foMax = 0;
       for (let mm = 0; mm < N; mm++) {
         const k = (2 * Math.PI * mm) / N;
         edMax = Math.max(edMax, Math.abs(ed[mm]! - ed[(((mm - n) % N) + N) % N]!));
@@ -109,7 +119,9 @@ describe("Villain intraband scattering", () => {
   });
 
   it("S^zz of an odd ring at T << Jz has its low-energy weight inside |w| <= 2 Jperp |sin q|", () => {
-    const N = 9, Jz = 12, J = 1;
+    const N = 9,
+      Jz = 12,
+      J = 1;
     const omega = Array.from({ length: 121 }, (_, i) => -Jz / 3 + ((2 * Jz) / 3) * (i / 120));
     const r = dynamicStructureFactor(chainModel({ N, Jz, Jperp: J }), { T: 1, eta: 0.02, omega, components: ["zz"], qIndices: [2, 3] });
     r.qIndex.forEach((n, i) => {
@@ -125,7 +137,8 @@ describe("Villain intraband scattering", () => {
 
   it("line shape: unit area at high T, square-root edges; wall density ~ exp(-Jz/2T) I0(Jperp/T)", () => {
     const p = { Jz: 10, Jperp: 1, hx: 0, hz: 0 };
-    const q = 1.1, T = 2;
+    const q = 1.1,
+      T = 2;
     const edge = 2 * Math.sin(q);
     const n = 20001;
     const w = Array.from({ length: n }, (_, i) => -edge + (2 * edge * (i + 0.5)) / n);
@@ -146,7 +159,9 @@ describe("Villain intraband scattering", () => {
 
 describe("continuum and transverse magnetization", () => {
   it("two-wall levels of an even ring lie inside [Jz - 2Jperp|cos q|, Jz + 2Jperp|cos q|] (+ O(Jperp^2/Jz))", () => {
-    const N = 12, Jz = 20, J = 1;
+    const N = 12,
+      Jz = 20,
+      J = 1;
     const m = chainModel({ N, Jz, Jperp: J });
     let e0 = Infinity;
     for (const mm of [0, 6]) e0 = Math.min(e0, sectorLevels(m, { nUp: 6, m: mm, flip: 0 }).values[0]!);
@@ -164,9 +179,12 @@ describe("continuum and transverse magnetization", () => {
   });
 
   it("<S^x> of the ground state is hx/(2 Jz) to first order (ED of an even ring)", () => {
-    const N = 10, Jz = 20, J = 1, hx = 0.5;
+    const N = 10,
+      Jz = 20,
+      J = 1,
+      hx = 0.5;
     const r = dynamicStructureFactor(chainModel({ N, Jz, Jperp: J, hx }), { eta: 0.1, omega: [0], components: ["zz"], qIndices: [0] });
-    expect(Math.abs(r.mx - wallTransverseMagnetization({ Jz, Jperp: J, hx, hz: 0 }, 0))).toBeLessThan((hx * J) / (Jz * Jz) * 2);
+    expect(Math.abs(r.mx - wallTransverseMagnetization({ Jz, Jperp: J, hx, hz: 0 }, 0))).toBeLessThan(((hx * J) / (Jz * Jz)) * 2);
   });
 
   it("bad input", () => {
@@ -182,7 +200,9 @@ describe("T = 0 two-wall transverse line shape (thermodynamic-limit model)", () 
     const p = { Jz: 10, Jperp: 1, hx: 0, hz: 0 };
     for (const q of [0.3, 1.0, 2.5]) {
       const W = 2 * Math.abs(Math.cos(q));
-      let m0 = 0, m1 = 0, m2 = 0;
+      let m0 = 0,
+        m1 = 0,
+        m2 = 0;
       const n = 20000;
       for (let i = 0; i < n; i++) {
         const w = p.Jz - W + (2 * W * (i + 0.5)) / n;
@@ -199,7 +219,7 @@ describe("T = 0 two-wall transverse line shape (thermodynamic-limit model)", () 
       const omega = Array.from({ length: 4001 }, (_, i) => p.Jz - 40 + (80 * i) / 4000);
       const b = twoWallTransverseLineShape(p, q, omega, 0.05);
       const area = b.reduce((a, x) => a + x, 0) * (80 / 4000);
-      expect(Math.abs(area - w0)).toBeLessThan(0.25 * (2 * 0.05) / (Math.PI * 40) + 1e-3);
+      expect(Math.abs(area - w0)).toBeLessThan((0.25 * (2 * 0.05)) / (Math.PI * 40) + 1e-3);
     }
   });
 
@@ -208,7 +228,9 @@ describe("T = 0 two-wall transverse line shape (thermodynamic-limit model)", () 
     // phi = S^+_{-q}|0> / 2 are its weight <phi|phi>, mean a_0 - E_0 and width b_1 (the semicircle's
     // are w(q)/2 per S^+ half of S^x, Jz and Jperp |cos q|). The weight's first-order factor
     // 1 - 2 (Jperp/Jz) cos q is checked here too (without it the deviation is 0.04 at q = 2 pi/14).
-    const N = 14, Jz = 10, Jperp = 1;
+    const N = 14,
+      Jz = 10,
+      Jperp = 1;
     const model = chainModel({ N, Jz, Jperp });
     const gs = sectorLevels(model, { nUp: N / 2, m: 0, flip: 0 }, { tol: 1e-12 });
     const src = gs.sector;
@@ -219,9 +241,15 @@ describe("T = 0 two-wall transverse line shape (thermodynamic-limit model)", () 
       const Hd = new ChainHamiltonian(model, dst);
       const phi = new Float64Array(2 * dst.dim);
       const s = 1 / (2 * Math.sqrt(N));
-      applyBetweenSectors(src, dst, (a, emit) => {
-        for (let j = 0; j < N; j++) if (!((a >>> j) & 1)) emit((a | (1 << j)) >>> 0, s * Math.cos(q * j), s * Math.sin(q * j));
-      }, g, phi);
+      applyBetweenSectors(
+        src,
+        dst,
+        (a, emit) => {
+          for (let j = 0; j < N; j++) if (!((a >>> j) & 1)) emit((a | (1 << j)) >>> 0, s * Math.cos(q * j), s * Math.sin(q * j));
+        },
+        g,
+        phi,
+      );
       const t = lanczosTridiagonal(Hd, phi, 3);
       const tol = (3 * Jperp * Jperp) / Jz;
       // S^x = (S^+ + S^-)/2, both halves equal by spin inversion: weight of S^xx = 2 <phi|phi>

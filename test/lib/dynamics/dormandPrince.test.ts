@@ -27,9 +27,15 @@ describe("Dormand-Prince 5(4) integrator", () => {
   it("the error scales like the tolerance (fifth-order pair, fourth-order dense output)", () => {
     // Source: E. Hairer, S. Norsett, G. Wanner, Solving ODEs I (1993), sec. II.4: the global error follows rtol.
     const errs = [1e-6, 1e-9].map((rtol) => {
-      const s = integrateDormandPrince((t, y, d) => {
-        d[0] = -2 * t * y[0]!;
-      }, 0, [1], 3, { rtol, atol: rtol * 1e-3 });
+      const s = integrateDormandPrince(
+        (t, y, d) => {
+          d[0] = -2 * t * y[0]!;
+        },
+        0,
+        [1],
+        3,
+        { rtol, atol: rtol * 1e-3 },
+      );
       return Math.abs(s.yEnd[0]! - Math.exp(-9));
     });
     expect(errs[1]!).toBeLessThan(errs[0]! / 50);
@@ -64,14 +70,28 @@ print(json.dumps({"y": s.y.T.tolist(), "te": s.t_events[0].tolist()}))
 
   it("stops at a terminal event and bounds its work", () => {
     // Common practice, no source.
-    const s = integrateDormandPrince((_t, _y, d) => {
-      d[0] = 1;
-    }, 0, [0], 10, { events: [{ g: (_t, y) => y[0]! - 2.5, terminal: true }] });
+    const s = integrateDormandPrince(
+      (_t, _y, d) => {
+        d[0] = 1;
+      },
+      0,
+      [0],
+      10,
+      { events: [{ g: (_t, y) => y[0]! - 2.5, terminal: true }] },
+    );
     expect(s.status).toBe("event");
     expect(s.tEnd).toBeCloseTo(2.5, 12);
-    expect(() => integrateDormandPrince((_t, y, d) => {
-      d[0] = Math.cos(1000 * _t) * 1000;
-    }, 0, [0], 100, { rtol: 1e-12, maxSteps: 50 })).toThrow(ConvergenceError);
+    expect(() =>
+      integrateDormandPrince(
+        (_t, y, d) => {
+          d[0] = Math.cos(1000 * _t) * 1000;
+        },
+        0,
+        [0],
+        100,
+        { rtol: 1e-12, maxSteps: 50 },
+      ),
+    ).toThrow(ConvergenceError);
     expect(() => integrateDormandPrince((_t, _y, d) => (d[0] = 0), 1, [0], 0)).toThrow(InputError);
     expect(() => integrateDormandPrince((_t, _y, d) => (d[0] = 0), 0, [NaN], 1)).toThrow(/y0/);
   });

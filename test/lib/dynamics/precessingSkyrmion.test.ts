@@ -41,7 +41,7 @@ describe("precessing skyrmion in a nanocontact", () => {
       const R = k * m.w;
       const e = rel(dropletState(m, R).omega, thinWallFrequency(m, R));
       expect(e).toBeLessThan(prev);
-      if (k >= 10) expect(e).toBeLessThan(1.5 * prev / 4 + 1e-12);
+      if (k >= 10) expect(e).toBeLessThan((1.5 * prev) / 4 + 1e-12);
       prev = e;
     }
     expect(prev).toBeLessThan(1e-4);

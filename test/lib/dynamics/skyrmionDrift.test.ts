@@ -103,7 +103,11 @@ describe("Thiele velocities", () => {
   it("the spin-orbit force equals a brute-force 2D integral of the torque field and turns with the helicity", () => {
     // Common practice, no source: numpy sums F_i = -Ms t Integral B_DL (m x y) . d_i m over a grid for the
     // ansatz texture with helicity h, independent of our angular integration by hand.
-    const R = 6e-9, w = 2e-9, Ms = 1e6, t = 1e-9, B = 0.01;
+    const R = 6e-9,
+      w = 2e-9,
+      Ms = 1e6,
+      t = 1e-9,
+      B = 0.01;
     const I = thieleIntegrals(ansatzProfile(R, w));
     const hs = [0, Math.PI / 2, 2.0];
     const py = runPython<number[][]>(

@@ -27,7 +27,11 @@ describe("bad input", () => {
     }
   });
   it("singular Jacobian: names the parameters that cannot be told apart", () => {
-    const m = formulaModel("a * b * x + c", [{ name: "a", value: 1 }, { name: "b", value: 1 }, { name: "c", value: 0 }]);
+    const m = formulaModel("a * b * x + c", [
+      { name: "a", value: 1 },
+      { name: "b", value: 1 },
+      { name: "c", value: 0 },
+    ]);
     const r = fitProfile({ x: xs, y: ys }, m);
     expect(r.status).toBe("singular");
     expect(r.degenerate).toEqual([["a", "b"]]);
@@ -50,7 +54,10 @@ describe("bad input", () => {
     // log(x - s) is finite at the start but NaN for s beyond the smallest x
     const x = Array.from({ length: 20 }, (_, i) => 1 + i);
     const y = x.map((v) => Math.log(v - 0.5) + 0.01 * Math.cos(v));
-    const m = formulaModel("log(x - s) + c", [{ name: "s", value: 0, max: 0.99 }, { name: "c", value: 0 }]);
+    const m = formulaModel("log(x - s) + c", [
+      { name: "s", value: 0, max: 0.99 },
+      { name: "c", value: 0 },
+    ]);
     const r = fitProfile({ x, y }, m);
     expect(r.status).toBe("converged");
     expect(Number.isFinite(r.chiSquare)).toBe(true);

@@ -30,7 +30,8 @@ describe("blurred m_z contrast models", () => {
       { id: "wall180-mz-blur", p: [-2.1 * nm, 3 * nm, 0, 1, 9 * nm] },
       { id: "wall360-mz-blur", p: [1.7 * nm, 20 * nm, 8 * nm, 0.05, 0.9, 6 * nm] },
     ];
-    const ref = runPython(`
+    const ref = runPython(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin); out = []
 for c in d["cases"]:
@@ -45,7 +46,9 @@ for c in d["cases"]:
         t = np.sinh(R / w) / np.sinh(np.maximum(np.abs(u), 1e-30) / w)
         mz = (1 - t * t) / (1 + t * t); off, con = p[3], p[4]
     out.append((off + con * np.trapz(mz * g[None, :], s, axis=1)).tolist())
-print(json.dumps(out))`, { x, cases }) as number[][];
+print(json.dumps(out))`,
+      { x, cases },
+    ) as number[][];
     cases.forEach((c, k) => {
       const ours = evalModel(c.id, x, c.p);
       const err = Math.max(...ours.map((v, i) => Math.abs(v - ref[k]![i]!)));
@@ -65,7 +68,8 @@ print(json.dumps(out))`, { x, cases }) as number[][];
       const blurred = fitProfile(data, "wall180-mz-blur", { start, fixed: { blur: 0 } });
       expect(blurred.status).toBe("converged");
       for (const name of ["x0", "Delta", "offset", "contrast"]) {
-        const a = plain.parameters[name]!, b = blurred.parameters[name]!;
+        const a = plain.parameters[name]!,
+          b = blurred.parameters[name]!;
         expect(Math.abs(b.value - a.value), name).toBeLessThan(2e-3 * a.stderr!);
         expect(Math.abs(b.stderr! / a.stderr! - 1), name).toBeLessThan(2e-3);
       }
@@ -93,7 +97,8 @@ print(json.dumps(out))`, { x, cases }) as number[][];
     // the wall width and the blur trade off: with both free (neither on a bound) their strong
     // anticorrelation is reported, and the truth still lies within 3 (large) standard errors
     expect(free.freeNames).toEqual(["x0", "Delta", "offset", "contrast", "blur"]);
-    const iD = free.freeNames.indexOf("Delta"), iB = free.freeNames.indexOf("blur");
+    const iD = free.freeNames.indexOf("Delta"),
+      iB = free.freeNames.indexOf("blur");
     expect(free.correlation![iD]![iB]!).toBeLessThan(-0.9);
     for (const name of ["Delta", "blur"] as const) {
       const p = free.parameters[name]!;

@@ -46,7 +46,8 @@ describe("erfc, normal and Student t quantiles against mpmath", () => {
 
   it("erfc: relative error below 3e-16 for x < 6 and 1.5e-15 up to 26.5", () => {
     // Source: mpmath.erfc (arbitrary precision), Debian's python3-mpmath.
-    let worstLow = 0, worstHigh = 0;
+    let worstLow = 0,
+      worstHigh = 0;
     ex.forEach((x, i) => {
       const e = Math.abs(erfc(x) - ref.erfc[i]!) / ref.erfc[i]!;
       if (x < 6) worstLow = Math.max(worstLow, e);

@@ -96,7 +96,10 @@ describe("fitFieldSeries", () => {
   });
 
   it("360-degree walls: A and Ku from the 1D pair; D held with a note (it does not enter R and w)", () => {
-    const data = syntheticFieldSeries(film, [0.005, 0.02, 0.06, 0.15], { texture: "wall360", noise: 0.02, seed: 21 }).map((p) => ({ B: p.B, data: { x: p.x, y: p.y, sigma: p.sigma } }));
+    const data = syntheticFieldSeries(film, [0.005, 0.02, 0.06, 0.15], { texture: "wall360", noise: 0.02, seed: 21 }).map((p) => ({
+      B: p.B,
+      data: { x: p.x, y: p.y, sigma: p.sigma },
+    }));
     const r = fitFieldSeries(data, { film: filmWith(film, { A: 12e-12, Ku: 0.37e6 }), texture: "wall360" });
     expect(r.status).toBe("converged");
     expect(r.kuDecision.fitted).toBe(true);

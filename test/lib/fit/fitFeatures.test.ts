@@ -28,7 +28,10 @@ describe("fit features", () => {
   it("global fit: a shared width across three data sets with local centers and contrasts", () => {
     const sets = [wall(-10 * nm, 12 * nm, 0, 1, 1), wall(5 * nm, 12 * nm, 0.1, 0.8, 2), wall(20 * nm, 12 * nm, -0.1, 1.2, 3)];
     const start = { x0: 0, Delta: 8 * nm, offset: 0, contrast: 1 };
-    const g = fitGlobal(sets.map((d) => ({ data: d, model: "wall180-mz" })), { shared: ["Delta"], start });
+    const g = fitGlobal(
+      sets.map((d) => ({ data: d, model: "wall180-mz" })),
+      { shared: ["Delta"], start },
+    );
     expect(g.status).toBe("converged");
     expect(g.freeNames).toContain("Delta");
     expect(g.freeNames).toContain("x0[2]");
@@ -44,11 +47,21 @@ describe("fit features", () => {
     const d = wall(3 * nm, 10 * nm, 0.2, 0.7, 9);
     const cat = fitProfile(d, "wall180-mz", { start: { x0: 0, Delta: 8 * nm, offset: 0, contrast: 1 } });
     const fn = userModel({
-      parameters: [{ name: "x0", value: 0, typical: 1e-8 }, { name: "Delta", value: 8 * nm, min: 0 }, { name: "offset", value: 0 }, { name: "contrast", value: 1 }],
+      parameters: [
+        { name: "x0", value: 0, typical: 1e-8 },
+        { name: "Delta", value: 8 * nm, min: 0 },
+        { name: "offset", value: 0 },
+        { name: "contrast", value: 1 },
+      ],
       evaluate: (x, p) => p.offset + p.contrast * -Math.tanh((x - p.x0) / p.Delta),
     });
     const f1 = fitProfile(d, fn);
-    const fm = formulaModel("offset - contrast * tanh((x - x0) / Delta)", [{ name: "x0", value: 0, typical: 1e-8 }, { name: "Delta", value: 8 * nm }, { name: "offset", value: 0 }, { name: "contrast", value: 1 }]);
+    const fm = formulaModel("offset - contrast * tanh((x - x0) / Delta)", [
+      { name: "x0", value: 0, typical: 1e-8 },
+      { name: "Delta", value: 8 * nm },
+      { name: "offset", value: 0 },
+      { name: "contrast", value: 1 },
+    ]);
     const f2 = fitProfile(d, fm);
     for (const k of ["x0", "Delta", "offset", "contrast"]) {
       expect(f1.parameters[k].value).toBeCloseTo(cat.parameters[k].value, 12);

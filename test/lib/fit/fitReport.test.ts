@@ -37,14 +37,16 @@ describe("fit reports", () => {
     const y = Float64Array.from([0.97, 1.01, 0.99, 0.97, 1.01, 0.99, 0.97, 1.01, 0.99, 0.99]);
     const r = solveLeastSquares({
       parameters: [{ name: "c", value: 0.5, unit: "", min: -1.5, max: 1.5, physical: [-1, 1] }],
-      m: y.length, y, sigma: new Float64Array(y.length).fill(0.02),
+      m: y.length,
+      y,
+      sigma: new Float64Array(y.length).fill(0.02),
       model: (p, out) => out.fill(p[0]!),
     });
     const c = r.parameters.c!;
     expect(c.value).toBeCloseTo(0.99, 12);
     expect(c.stderr).toBeCloseTo(0.02 / Math.sqrt(10), 12);
     expect(c.interval![1]).toBe(1);
-    expect(c.interval![0]).toBeCloseTo(0.99 - 1.959963984540054 * 0.02 / Math.sqrt(10), 9);
+    expect(c.interval![0]).toBeCloseTo(0.99 - (1.959963984540054 * 0.02) / Math.sqrt(10), 9);
     expect(c.clipped).toEqual(["upper"]);
     expect(r.notes.join(" ")).toMatch(/95 % interval of c crosses its physical limit \[-1, 1\]: 1\.002 clipped at 1/);
     expect(fitParameterTable(r)).toMatch(/clipped at the physical limit: upper end/);
@@ -78,4 +80,3 @@ describe("fit reports", () => {
     expect(fitParameterTable(open)).toMatch(/∞ \(open\)\] nm \|/);
   });
 });
-

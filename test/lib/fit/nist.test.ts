@@ -20,11 +20,19 @@ type Grad = (b: Float64Array, x: number, g: Float64Array) => void;
 const models: Record<string, { f: Model; g: Grad }> = {
   Misra1a: {
     f: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
-    g: (b, x, g) => { const e = Math.exp(-b[1] * x); g[0] = 1 - e; g[1] = b[0] * x * e; },
+    g: (b, x, g) => {
+      const e = Math.exp(-b[1] * x);
+      g[0] = 1 - e;
+      g[1] = b[0] * x * e;
+    },
   },
   BoxBOD: {
     f: (b, x) => b[0] * (1 - Math.exp(-b[1] * x)),
-    g: (b, x, g) => { const e = Math.exp(-b[1] * x); g[0] = 1 - e; g[1] = b[0] * x * e; },
+    g: (b, x, g) => {
+      const e = Math.exp(-b[1] * x);
+      g[0] = 1 - e;
+      g[1] = b[0] * x * e;
+    },
   },
   Eckerle4: {
     f: (b, x) => (b[0] / b[1]) * Math.exp(-0.5 * ((x - b[2]) / b[1]) ** 2),
@@ -64,9 +72,14 @@ const models: Record<string, { f: Model; g: Grad }> = {
     g: (b, x, g) => {
       const num = b[0] + b[1] * x + b[2] * x * x + b[3] * x ** 3;
       const den = 1 + b[4] * x + b[5] * x * x + b[6] * x ** 3;
-      g[0] = 1 / den; g[1] = x / den; g[2] = (x * x) / den; g[3] = x ** 3 / den;
+      g[0] = 1 / den;
+      g[1] = x / den;
+      g[2] = (x * x) / den;
+      g[3] = x ** 3 / den;
       const q = -num / (den * den);
-      g[4] = q * x; g[5] = q * x * x; g[6] = q * x ** 3;
+      g[4] = q * x;
+      g[5] = q * x * x;
+      g[6] = q * x ** 3;
     },
   },
   Bennett5: {
@@ -75,7 +88,7 @@ const models: Record<string, { f: Model; g: Grad }> = {
       const base = b[1] + x;
       const p = base ** (-1 / b[2]);
       g[0] = p;
-      g[1] = (-b[0] / b[2]) * p / base;
+      g[1] = ((-b[0] / b[2]) * p) / base;
       g[2] = (b[0] * p * Math.log(base)) / (b[2] * b[2]);
     },
   },
@@ -92,12 +105,17 @@ function problemFor(name: string, start: number[], analytic: boolean): { p: Leas
     m,
     y: set.y,
     sigma: null,
-    model(b, out) { for (let i = 0; i < m; i++) out[i] = f(b, set.x[i]); },
+    model(b, out) {
+      for (let i = 0; i < m; i++) out[i] = f(b, set.x[i]);
+    },
   };
   if (analytic) {
     const gr = new Float64Array(n);
     p.modelJacobian = (b, out) => {
-      for (let i = 0; i < m; i++) { g(b, set.x[i], gr); for (let j = 0; j < n; j++) out[j * m + i] = gr[j]; }
+      for (let i = 0; i < m; i++) {
+        g(b, set.x[i], gr);
+        for (let j = 0; j < n; j++) out[j * m + i] = gr[j];
+      }
     };
   }
   return { p, set };
@@ -115,7 +133,9 @@ describe("NIST StRD nonlinear regression", () => {
           // Source: NIST StRD certified values (test/data/nist/<name>.dat)
           set.names.forEach((nm, j) => {
             expect(lre(r.parameters[nm].value, set.certified[j]), `${nm}: ${r.parameters[nm].value} vs ${set.certified[j]}`).toBeGreaterThanOrEqual(6);
-            expect(lre(r.parameters[nm].stderr!, set.certifiedSd[j]), `sd ${nm}: ${r.parameters[nm].stderr} vs ${set.certifiedSd[j]}`).toBeGreaterThanOrEqual(hard.has(name) ? 4 : 6);
+            expect(lre(r.parameters[nm].stderr!, set.certifiedSd[j]), `sd ${nm}: ${r.parameters[nm].stderr} vs ${set.certifiedSd[j]}`).toBeGreaterThanOrEqual(
+              hard.has(name) ? 4 : 6,
+            );
           });
           expect(lre(r.chiSquare, set.rss)).toBeGreaterThanOrEqual(6);
           expect(r.dof).toBe(set.dof);

@@ -64,4 +64,3 @@ describe("readProfileCsv", () => {
     expect(() => readProfileCsv(text.replace(",0\n", ",Infinity\n"), { source: "cut.csv" })).toThrow(/line 4, column sigma/);
   });
 });
-

@@ -71,11 +71,12 @@ describe("wall-profile fits agree with scipy.optimize.least_squares", () => {
       // Source: scipy least_squares(method="lm") optimum
       expect(Math.abs(r.parameters[nmn].value - py.x[j]) / Math.abs(py.x[j])).toBeLessThan(1e-8);
     });
-    for (let a = 0; a < 4; a++) for (let b = 0; b < 4; b++) {
-      const ref = py.cov[a][b];
-      const tol = 1e-4 * Math.sqrt(py.cov[a][a] * py.cov[b][b]);
-      expect(Math.abs(r.covariance![a][b] - ref)).toBeLessThan(tol);
-    }
+    for (let a = 0; a < 4; a++)
+      for (let b = 0; b < 4; b++) {
+        const ref = py.cov[a][b];
+        const tol = 1e-4 * Math.sqrt(py.cov[a][a] * py.cov[b][b]);
+        expect(Math.abs(r.covariance![a][b] - ref)).toBeLessThan(tol);
+      }
   });
   it("360-degree wall (ansatz of Braun / Buettner et al.), 401 noisy points", () => {
     const d = synth("360", 401, 5);
@@ -86,9 +87,10 @@ describe("wall-profile fits agree with scipy.optimize.least_squares", () => {
       // Source: scipy least_squares(method="lm") optimum
       expect(Math.abs(r.parameters[nmn].value - py.x[j]) / Math.abs(py.x[j])).toBeLessThan(1e-8);
     });
-    for (let a = 0; a < 5; a++) for (let b = 0; b < 5; b++) {
-      const tol = 1e-4 * Math.sqrt(py.cov[a][a] * py.cov[b][b]);
-      expect(Math.abs(r.covariance![a][b] - py.cov[a][b])).toBeLessThan(tol);
-    }
+    for (let a = 0; a < 5; a++)
+      for (let b = 0; b < 5; b++) {
+        const tol = 1e-4 * Math.sqrt(py.cov[a][a] * py.cov[b][b]);
+        expect(Math.abs(r.covariance![a][b] - py.cov[a][b])).toBeLessThan(tol);
+      }
   });
 });

@@ -19,18 +19,15 @@ function edges(center: number, fine: number, dxFine: number, far: number): numbe
   let step = dxFine;
   let x = fine;
   const right: number[] = [];
-  while (x < far) { step *= 1.04; x += step; right.push(x); }
+  while (x < far) {
+    step *= 1.04;
+    x += step;
+    right.push(x);
+  }
   return [...right.map((v) => center - v).reverse(), ...e, ...right.map((v) => center + v)];
 }
 
-function directField(
-  mag: (x: number) => [number, number, number],
-  sensors: number[],
-  Ms: number,
-  h: number,
-  t: number,
-  center: number,
-): { bz: number[]; bx: number[] } {
+function directField(mag: (x: number) => [number, number, number], sensors: number[], Ms: number, h: number, t: number, center: number): { bz: number[]; bx: number[] } {
   const ex = edges(center, 400 * nm, 0.25 * nm, 1);
   const nz = 12;
   const cells: Array<[number, number, number, number]> = []; // x, width, mx, mz
@@ -108,7 +105,7 @@ describe("stray field of walls: Fourier model vs direct dipole sum", () => {
       const mag = (x: number): [number, number, number] => {
         const tt = Math.sinh(R / w) / Math.sinh(Math.abs(x - x0) / w);
         const mz = Number.isFinite(tt) ? (1 - tt * tt) / (1 + tt * tt) : -1;
-        const s = Number.isFinite(tt) ? Math.sign(x - x0) * (2 * tt) / (1 + tt * tt) : 0;
+        const s = Number.isFinite(tt) ? (Math.sign(x - x0) * (2 * tt)) / (1 + tt * tt) : 0;
         return [s * Math.cos(helicity), s * Math.sin(helicity), mz];
       };
       const d = directField(mag, sensors, Ms, h, t, x0);
@@ -215,7 +212,10 @@ print(json.dumps([field(c["kind"], c["p"], c["x"]) for c in json.load(sys.stdin)
     { kind: "360", p: { x0: -3 * nm, R: 35 * nm, w: 8 * nm, neel: 0.5, h: 5 * nm, t: 2 * nm, Ms: 8e5 } },
     { kind: "180", p: { x0: 1 * nm, Delta: 12 * nm, neel: 0.8, h: 2 * nm, t: 1 * nm, Ms: 1.1e6 } },
   ];
-  const ref = runPython<{ bz: number[]; bx: number[] }[]>(oracle, cases.map((c) => ({ ...c, x: xs })));
+  const ref = runPython<{ bz: number[]; bx: number[] }[]>(
+    oracle,
+    cases.map((c) => ({ ...c, x: xs })),
+  );
   it("with a 15 nm Gaussian blur (360-degree wall, B_z and B_x): within 1e-6 of the peak of the blurred quadrature", () => {
     // Common practice, no source: blur of the quadrature field by a trapezoid sum on a 2 nm grid (+-180 nm, i.e. beyond 6 s).
     const s = 15 * nm;
@@ -226,7 +226,8 @@ print(json.dumps([field(c["kind"], c["p"], c["x"]) for c in json.load(sys.stdin)
     const p = [c.p.x0, c.p.R!, c.p.w!, c.p.neel, c.p.h, c.p.t, c.p.Ms, s, 0];
     for (const comp of ["bz", "bx"] as const) {
       const blurred = targets.map((xt) => {
-        let num = 0, den = 0;
+        let num = 0,
+          den = 0;
         fine.forEach((xf, i) => {
           const g = Math.exp(-0.5 * ((xf - xt) / s) ** 2);
           num += g * rf[comp][i]!;

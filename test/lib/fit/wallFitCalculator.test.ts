@@ -37,7 +37,7 @@ describe("wall-fit calculator", () => {
       const r = runCalculator(wallFitCalculator, c);
       expect(r.status, JSON.stringify(c) + " " + r.notes.join(";")).toBe("ok");
       for (const o of wallFitCalculator.outputs) {
-        const v = (o.name in r.outputs ? r.outputs[o.name]!.value : undefined);
+        const v = o.name in r.outputs ? r.outputs[o.name]!.value : undefined;
         expect(v, o.name).toBeDefined();
         if (o.kind === "array") for (const x of v as number[]) expect(Number.isFinite(x)).toBe(true);
         else if (o.kind !== "text") expect(Number.isFinite(v as number)).toBe(true);

@@ -10,15 +10,7 @@ import { skyrmionNumber } from "../../../lib/src/topology/skyrmionNumber.js";
 // units-row conventions are ours (documented in lib/src/io/delimited.ts).
 describe("CSV/TSV reader", () => {
   it("reads columns in any order with a units row, into SI, x fastest", () => {
-    const csv = [
-      "# invented demo table",
-      "mz,my,x,mx,y",
-      ",,nm,,nm",
-      "1,0,0,0,0",
-      "0,1,2,0,0",
-      "0,0,0,1,2",
-      "0,0,2,-2,2",
-    ].join("\n");
+    const csv = ["# invented demo table", "mz,my,x,mx,y", ",,nm,,nm", "1,0,0,0,0", "0,1,2,0,0", "0,0,0,1,2", "0,0,2,-2,2"].join("\n");
     const { field, info } = readDelimitedVectorField(csv, { file: "demo.csv" });
     expect([field.nx, field.ny, field.nz]).toEqual([2, 2, 1]);
     expect(field.dx).toBeCloseTo(2e-9, 20);
@@ -99,9 +91,40 @@ describe("CSV reader, byte path", () => {
 
   it("parses plain decimals exactly as Number() does, and leaves every other token to Number()", () => {
     let s = 12345;
-    const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
-    const tokens: string[] = ["0", "-0", "+0.0", "5.", ".5", "+.5", "-.25e-3", "1e22", "1e23", "1e-22", "1e-23", "123456789012345", "1234567890123456", "0.000000000000000000001234",
-      "9007199254740993", "1.7976931348623157e308", "1e400", "4.9e-324", " 7 ", "\t-3.5\t", "nan", "NaN", "-nan", "1e", "e5", ".", "1.2.3", "0x10", "Infinity", "1_0", "١"];
+    const rnd = () => (s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32;
+    const tokens: string[] = [
+      "0",
+      "-0",
+      "+0.0",
+      "5.",
+      ".5",
+      "+.5",
+      "-.25e-3",
+      "1e22",
+      "1e23",
+      "1e-22",
+      "1e-23",
+      "123456789012345",
+      "1234567890123456",
+      "0.000000000000000000001234",
+      "9007199254740993",
+      "1.7976931348623157e308",
+      "1e400",
+      "4.9e-324",
+      " 7 ",
+      "\t-3.5\t",
+      "nan",
+      "NaN",
+      "-nan",
+      "1e",
+      "e5",
+      ".",
+      "1.2.3",
+      "0x10",
+      "Infinity",
+      "1_0",
+      "١",
+    ];
     for (let k = 0; k < 20000; k++) {
       const v = (rnd() - 0.5) * 10 ** Math.floor(rnd() * 40 - 20);
       const f = k % 4;
@@ -129,7 +152,7 @@ describe("CSV reader, byte path", () => {
     const tables = [
       "# invented demo table\nmz,my,x,mx,y\n,,nm,,nm\n1,0,0,0,0\n0,1,2,0,0\n0,0,0,1,2\n0,0,2,-2,2",
       "x [um]\ty [um]\tz [um]\tmx\tmy\tmz\n0\t0\t0\t0\t0\t1\n0.001\t0\t0\tnan\tnan\tnan\n0\t0.001\t0\t1\t0\t0\n",
-      "x y mx my mz note\r\n 0 0 0 0 1 a\r\n1   0 0 1 0 b \r\n# comment\r\n\r\n0 1 \"1\" 0 0 c\r\n1 1 0.6 0.8 0 d",
+      'x y mx my mz note\r\n 0 0 0 0 1 a\r\n1   0 0 1 0 b \r\n# comment\r\n\r\n0 1 "1" 0 0 c\r\n1 1 0.6 0.8 0 d',
       "x;y;mx;my;mz\n0;0;1e-3;0;1\n1;0;12345678901234567;0;1\n",
     ];
     for (const [k, t] of tables.entries()) {
@@ -148,11 +171,22 @@ describe("CSV reader, byte path", () => {
   });
 
   it("reports the same errors as the text path (row and column named)", () => {
-    const bad = ["x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,0\n", "x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,zero,1\n", "x,y,mx,my,mz\nnan,0,0,0,1\n", "x,y,mx,my,mz\n0,0,,0,1\n",
-      "x,y,mx,my,mz\n0,0,1e400,0,1\n", "x,y,mx,my,mz\n0,0,0,0,1\n0,0,1,0,0\n", "x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,0,1\n2.5,0,0,0,1\n"];
+    const bad = [
+      "x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,0\n",
+      "x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,zero,1\n",
+      "x,y,mx,my,mz\nnan,0,0,0,1\n",
+      "x,y,mx,my,mz\n0,0,,0,1\n",
+      "x,y,mx,my,mz\n0,0,1e400,0,1\n",
+      "x,y,mx,my,mz\n0,0,0,0,1\n0,0,1,0,0\n",
+      "x,y,mx,my,mz\n0,0,0,0,1\n1,0,0,0,1\n2.5,0,0,0,1\n",
+    ];
     for (const t of bad) {
       let textError = "";
-      try { viaText(t, "e.csv"); } catch (e) { textError = (e as Error).message; }
+      try {
+        viaText(t, "e.csv");
+      } catch (e) {
+        textError = (e as Error).message;
+      }
       expect(textError).not.toBe("");
       expect(() => viaBytes(t, "e.csv", 3)).toThrow(textError);
     }
@@ -162,19 +196,42 @@ describe("CSV reader, byte path", () => {
     // Source of the comparison: numpy.loadtxt (Debian's numpy), an independent decimal parser.
     const n = 60;
     const lines = ["x (nm),y (nm),mx,my,mz"];
-    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-      const x = i - (n - 1) / 2, y = j - (n - 1) / 2, r = Math.hypot(x, y), th = 2 * Math.atan(Math.exp((12 - r) / 4)), ph = Math.atan2(y, x);
-      lines.push([(i * 1.5).toFixed(1), (j * 1.5).toFixed(1), (Math.sin(th) * Math.cos(ph)).toPrecision(12), (Math.sin(th) * Math.sin(ph)).toPrecision(9), Math.cos(th).toExponential(10)].join(","));
-    }
+    for (let j = 0; j < n; j++)
+      for (let i = 0; i < n; i++) {
+        const x = i - (n - 1) / 2,
+          y = j - (n - 1) / 2,
+          r = Math.hypot(x, y),
+          th = 2 * Math.atan(Math.exp((12 - r) / 4)),
+          ph = Math.atan2(y, x);
+        lines.push(
+          [
+            (i * 1.5).toFixed(1),
+            (j * 1.5).toFixed(1),
+            (Math.sin(th) * Math.cos(ph)).toPrecision(12),
+            (Math.sin(th) * Math.sin(ph)).toPrecision(9),
+            Math.cos(th).toExponential(10),
+          ].join(","),
+        );
+      }
     const text = lines.join("\n") + "\n";
     const ours = viaBytes(text, "sk.csv");
-    const ref = runPython<number[]>(`
+    const ref = runPython<number[]>(
+      `
 import sys, json, io, numpy as np
 a = np.loadtxt(io.StringIO(json.load(sys.stdin)), delimiter=",", skiprows=1)
 m = a[:, 2:5]; m = m / np.linalg.norm(m, axis=1)[:, None]
-print(json.dumps(m.ravel().tolist()))`, text);
+print(json.dumps(m.ravel().tolist()))`,
+      text,
+    );
     // The same rows shuffled (the reader places them by coordinates): the same field.
-    const shuffled = [lines[0], ...lines.slice(1).map((l, k) => ({ l, key: (k * 7919) % (lines.length - 1) })).sort((a, b) => a.key - b.key).map((r) => r.l)].join("\n");
+    const shuffled = [
+      lines[0],
+      ...lines
+        .slice(1)
+        .map((l, k) => ({ l, key: (k * 7919) % (lines.length - 1) }))
+        .sort((a, b) => a.key - b.key)
+        .map((r) => r.l),
+    ].join("\n");
     expect(Array.from(viaBytes(shuffled, "sk2.csv").field.m)).toEqual(Array.from(ours.field.m));
     expect(ours.field.nx).toBe(n);
     expect(ours.field.dx).toBeCloseTo(1.5e-9, 22);

@@ -11,7 +11,16 @@ describe("JSON vector-field form", () => {
   it("reads interleaved, triple and planar forms with units and null vacuum", () => {
     const base = { kind: "helicoid-vector-field", version: 1, nx: 2, ny: 1, cell: ["2 nm", "3 nm"], boundary: "open", note: "invented demo" };
     const a = readJsonVectorField(JSON.stringify({ ...base, m: [0, 0, 2, 1, 0, 0] }), { file: "a.json" });
-    const b = readJsonVectorField({ ...base, m: [[0, 0, 2], [1, 0, 0]] }, { file: "b.json" });
+    const b = readJsonVectorField(
+      {
+        ...base,
+        m: [
+          [0, 0, 2],
+          [1, 0, 0],
+        ],
+      },
+      { file: "b.json" },
+    );
     const c = readJsonVectorField({ ...base, mx: [0, 1], my: [0, 0], mz: [2, 0] }, { file: "c.json" });
     for (const r of [a, b, c]) {
       expect(Array.from(r.field.m)).toEqual([0, 0, 1, 1, 0, 0]);
@@ -36,7 +45,9 @@ describe("JSON vector-field form", () => {
     expect(() => readJsonVectorField("{not json", { file: "x.json" })).toThrow(/x\.json.*a JSON document/);
     expect(() => readJsonVectorField({ kind: "other", version: 1 }, { file: "k.json" })).toThrow(/k\.json: kind = "other"/);
     expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 2 }, { file: "v.json" })).toThrow(/version = 2/);
-    expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 1, nx: 2, ny: 2, m: [1, 2, 3] }, { file: "s.json" })).toThrow(/s\.json: m.*12 numbers.*found 3 entries/);
+    expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 1, nx: 2, ny: 2, m: [1, 2, 3] }, { file: "s.json" })).toThrow(
+      /s\.json: m.*12 numbers.*found 3 entries/,
+    );
     expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 1, nx: 1, ny: 1, m: [1, "a", 0] }, { file: "t.json" })).toThrow(/t\.json: m\[1\] = "a"/);
     expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 1, nx: 1, ny: 1, m: [1, 0, 0], cell: ["2 kg"] }, { file: "u.json" })).toThrow(/cell\[0\]/);
     expect(() => readJsonVectorField({ kind: "helicoid-vector-field", version: 1, nx: 1.5, ny: 1, m: [] }, { file: "n.json" })).toThrow(/nx = 1.5/);

@@ -14,7 +14,8 @@ const value = (k: number, j: number, i: number, c: number) => (c === 2 ? 2 + 0.5
 
 describe(".npy reader against files written by Debian's numpy", () => {
   // Source: numpy.lib.format (the .npy format specification and its reference writer), numpy 1.24.
-  const files = runPython<Array<{ path: string; dtype: string; order: string; shape: number[]; version: number[]; first?: boolean }>>(`
+  const files = runPython<Array<{ path: string; dtype: string; order: string; shape: number[]; version: number[]; first?: boolean }>>(
+    `
 import json, sys, itertools, numpy as np
 from numpy.lib import format as fmt
 d = json.load(sys.stdin)
@@ -36,7 +37,9 @@ for shape in [(4, 5, 3), (2, 4, 5, 3)]:
         np.save(path, a)
         out.append({"path": path, "dtype": dt, "order": order, "shape": list(a.shape), "version": [1, 0], "first": True})
 print(json.dumps(out))
-`, { dir });
+`,
+    { dir },
+  );
 
   it("wrote all 48 combinations and 8 component-first files", () => {
     expect(files.length).toBe(56);
@@ -60,12 +63,14 @@ print(json.dumps(out))
       expect(field.dx).toBe(2e-9);
       expect(info.vacuumCells).toBe(0);
       const tol = f.dtype.endsWith("4") ? 1e-6 : 1e-15;
-      for (let k = 0; k < nz!; k++) for (let j = 0; j < ny!; j++) for (let i = 0; i < nx!; i++) {
-        const v = [0, 1, 2].map((c) => value(k, j, i, c));
-        const norm = Math.hypot(...v);
-        const cell = (k * ny! + j) * nx! + i;
-        for (let c = 0; c < 3; c++) expect(Math.abs(field.m[3 * cell + c]! - v[c]! / norm)).toBeLessThan(tol);
-      }
+      for (let k = 0; k < nz!; k++)
+        for (let j = 0; j < ny!; j++)
+          for (let i = 0; i < nx!; i++) {
+            const v = [0, 1, 2].map((c) => value(k, j, i, c));
+            const norm = Math.hypot(...v);
+            const cell = (k * ny! + j) * nx! + i;
+            for (let c = 0; c < 3; c++) expect(Math.abs(field.m[3 * cell + c]! - v[c]! / norm)).toBeLessThan(tol);
+          }
     });
   }
 
@@ -74,10 +79,13 @@ print(json.dumps(out))
     const m = Float64Array.from({ length: 2 * 3 * 4 * 3 }, (_, k) => Math.sin(k));
     const path = join(dir, "ours.npy");
     writeFileSync(path, writeNpyVectorField({ nx: 4, ny: 3, nz: 2, m }));
-    const back = runPython<{ shape: number[]; flat: number[] }>(`
+    const back = runPython<{ shape: number[]; flat: number[] }>(
+      `
 import json, sys, numpy as np
 a = np.load(json.load(sys.stdin))
-print(json.dumps({"shape": list(a.shape), "flat": a.ravel().tolist()}))`, path);
+print(json.dumps({"shape": list(a.shape), "flat": a.ravel().tolist()}))`,
+      path,
+    );
     expect(back.shape).toEqual([2, 3, 4, 3]);
     expect(back.flat).toEqual(Array.from(m));
   });
@@ -90,13 +98,16 @@ describe(".npy reader: bad input names what was found and what was expected", ()
     header += " ".repeat((64 - ((pre + header.length + 1) % 64)) % 64) + "\n";
     const b = new Uint8Array(pre + header.length + dataBytes);
     b.set([0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59, version, 0], 0);
-    b[8] = header.length & 255; b[9] = header.length >> 8;
+    b[8] = header.length & 255;
+    b[9] = header.length >> 8;
     for (let k = 0; k < header.length; k++) b[pre + k] = header.charCodeAt(k);
     return b;
   };
   // Common practice, no source: each error is an InputError with the found value and the expectation.
   it("wrong shapes", () => {
-    expect(() => readNpyVectorField(make("<f8", "(4, 5)", 160), { file: "flat.npy" })).toThrow(/flat\.npy: shape = "\(4, 5\)".*expected \(ny, nx, 3\) or \(nz, ny, nx, 3\), or component-first \(3, ny, nx\)/);
+    expect(() => readNpyVectorField(make("<f8", "(4, 5)", 160), { file: "flat.npy" })).toThrow(
+      /flat\.npy: shape = "\(4, 5\)".*expected \(ny, nx, 3\) or \(nz, ny, nx, 3\), or component-first \(3, ny, nx\)/,
+    );
     expect(() => readNpyVectorField(make("<f8", "(4, 5, 2)", 320), { file: "two.npy" })).toThrow(/\(4, 5, 2\)/);
     expect(() => readNpyVectorField(make("<f8", "(1, 2, 4, 5, 3)", 8 * 120), { file: "five.npy" })).toThrow(InputError);
   });

@@ -18,7 +18,8 @@ import { runPython } from "../../helpers/python.js";
 describe("B20 alone", () => {
   it("levels 3 B20 (M^2 - 1/4) above the |+-1/2> doublet, J = 15/2", () => {
     // Source: M. Hutchings (1964): O_2^0 = 3 J_z^2 - J(J+1) is diagonal in |J, M>.
-    const J = 7.5, B20 = 0.7;
+    const J = 7.5,
+      B20 = 0.7;
     const sp = ionSpectrum({ J, gJ: 1.2, terms: [{ l: 2, m: 0, B: B20 }] });
     const expected = [0.5, 0.5, 1.5, 1.5, 2.5, 2.5, 3.5, 3.5, 4.5, 4.5, 5.5, 5.5, 6.5, 6.5, 7.5, 7.5].map((M) => 3 * B20 * (M * M - 0.25));
     sp.energies.forEach((e, i) => expect(e - sp.energies[0]!).toBeCloseTo(expected[i]!, 10));
@@ -54,10 +55,25 @@ describe("B20 alone", () => {
   it("the g-tensor agrees with the Zeeman splitting of the ground doublet in a small field", () => {
     // Independent route: diagonalize with a field; splitting = g(n) muB B with g(n) = |G^T n|.
     // Common practice, no source.
-    const model: IonModel = { J: 7.5, gJ: 1.2, terms: [{ l: 2, m: 0, B: 0.5 }, { l: 4, m: 0, B: 0.002 }, { l: 4, m: 3, B: 0.01 }, { l: 2, m: 2, B: 0.3 }, { l: 6, m: 6, B: 1e-4 }] };
+    const model: IonModel = {
+      J: 7.5,
+      gJ: 1.2,
+      terms: [
+        { l: 2, m: 0, B: 0.5 },
+        { l: 4, m: 0, B: 0.002 },
+        { l: 4, m: 3, B: 0.01 },
+        { l: 2, m: 2, B: 0.3 },
+        { l: 6, m: 6, B: 1e-4 },
+      ],
+    };
     const g = groundDoubletGTensor(model);
     const B = 1e-3;
-    for (const [th, ph] of [[0, 0], [Math.PI / 2, 0], [Math.PI / 2, Math.PI / 2], [0.7, 1.9]] as const) {
+    for (const [th, ph] of [
+      [0, 0],
+      [Math.PI / 2, 0],
+      [Math.PI / 2, Math.PI / 2],
+      [0.7, 1.9],
+    ] as const) {
       const n = direction(th, ph);
       const sp = ionSpectrum(model, [B * n[0], B * n[1], B * n[2]]);
       const split = (sp.energies[1]! - sp.energies[0]!) / (muBOverKB * B);
@@ -95,9 +111,19 @@ describe("independent diagonalization with numpy (sixth-order terms, oblique fie
     // Source: Debian numpy.linalg.eigvalsh on H built from Hutchings' operator table (independent
     // of the library's symmetrized-polynomial construction).
     const terms = [
-      { l: 2, m: 0, B: -0.8 }, { l: 4, m: 0, B: 0.012 }, { l: 4, m: 4, B: 0.05 }, { l: 6, m: 0, B: 2e-4 }, { l: 6, m: 4, B: -1e-3 }, { l: 6, m: 3, B: 7e-4 }, { l: 6, m: 6, B: 5e-4 },
+      { l: 2, m: 0, B: -0.8 },
+      { l: 4, m: 0, B: 0.012 },
+      { l: 4, m: 4, B: 0.05 },
+      { l: 6, m: 0, B: 2e-4 },
+      { l: 6, m: 4, B: -1e-3 },
+      { l: 6, m: 3, B: 7e-4 },
+      { l: 6, m: 6, B: 5e-4 },
     ];
-    const cases = [{ J: 7.5, gJ: 1.2 }, { J: 8, gJ: 1.25 }, { J: 4, gJ: 0.8 }];
+    const cases = [
+      { J: 7.5, gJ: 1.2 },
+      { J: 8, gJ: 1.25 },
+      { J: 4, gJ: 0.8 },
+    ];
     const field: [number, number, number] = [0.7, -1.1, 2.3];
     const ref = runPython<number[][]>(
       String.raw`
@@ -146,9 +172,18 @@ print(json.dumps(res))
 describe("magnetization", () => {
   it("equals -dF/dB (free energy derivative) with a crystal field, along an oblique axis", () => {
     // Source: thermodynamics, M = -dF/dB with F = -T ln Z; common practice.
-    const model: IonModel = { J: 4.5, gJ: 8 / 11, terms: [{ l: 2, m: 0, B: 0.6 }, { l: 4, m: 4, B: 0.02 }, { l: 6, m: -2, B: 3e-4 }] };
+    const model: IonModel = {
+      J: 4.5,
+      gJ: 8 / 11,
+      terms: [
+        { l: 2, m: 0, B: 0.6 },
+        { l: 4, m: 4, B: 0.02 },
+        { l: 6, m: -2, B: 3e-4 },
+      ],
+    };
     const n = direction(0.9, 0.4);
-    const T = 5, B = 2;
+    const T = 5,
+      B = 2;
     const F = (b: number) => {
       const sp = ionSpectrum(model, [b * n[0], b * n[1], b * n[2]]);
       const e0 = sp.energies[0]!;
@@ -161,7 +196,10 @@ describe("magnetization", () => {
 
   it("free ion: the Brillouin function g_J J B_J(g_J muB J B / k_B T)", () => {
     // Source: L. Brillouin, J. Phys. Radium 8, 74 (1927); C. Kittel, Introduction to Solid State Physics, ch. 11.
-    const J = 3.5, gJ = 2, T = 3, B = 1.5;
+    const J = 3.5,
+      gJ = 2,
+      T = 3,
+      B = 1.5;
     const x = (gJ * muBOverKB * J * B) / T;
     const a = (2 * J + 1) / (2 * J);
     const BJ = a / Math.tanh(a * x) - 1 / (2 * J) / Math.tanh(x / (2 * J));
@@ -235,22 +273,45 @@ describe("cubic crystal fields", () => {
       }
       return out;
     };
-    const c52 = levels(2.5, [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }]);
+    const c52 = levels(2.5, [
+      { l: 4, m: 0, B: 1 },
+      { l: 4, m: 4, B: 5 },
+    ]);
     expect(c52.map((x) => x[1])).toEqual([2, 4]);
     expect(c52[0]![0]).toBeCloseTo(-240, 9);
     expect(c52[1]![0]).toBeCloseTo(120, 9);
-    const c4 = levels(4, [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }]);
+    const c4 = levels(4, [
+      { l: 4, m: 0, B: 1 },
+      { l: 4, m: 4, B: 5 },
+    ]);
     expect(c4.map((x) => x[1])).toEqual([3, 2, 3, 1]);
     expect(c4.map((x) => x[0] / 60)).toEqual([-26, 4, 14, 28].map((v) => expect.closeTo(v, 9)));
     // sixth order (O_6^0 - 21 O_6^4): the cubic pattern 1 + 2 + 3 + 3 again
-    const c6 = levels(4, [{ l: 6, m: 0, B: 1 }, { l: 6, m: 4, B: -21 }]);
+    const c6 = levels(4, [
+      { l: 6, m: 0, B: 1 },
+      { l: 6, m: 4, B: -21 },
+    ]);
     expect([...c6.map((x) => x[1])].sort()).toEqual([1, 2, 3, 3]);
     // the cubic Gamma7 doublet of Ce3+ (J = 5/2, g_J = 6/7) is isotropic with g = 10/7
     // (from memory: A. Abragam, B. Bleaney, Electron Paramagnetic Resonance of Transition Ions (1970))
-    const g = groundDoubletGTensor({ J: 2.5, gJ: 6 / 7, terms: [{ l: 4, m: 0, B: 1 }, { l: 4, m: 4, B: 5 }] });
+    const g = groundDoubletGTensor({
+      J: 2.5,
+      gJ: 6 / 7,
+      terms: [
+        { l: 4, m: 0, B: 1 },
+        { l: 4, m: 4, B: 5 },
+      ],
+    });
     for (const v of g.principal) expect(v).toBeCloseTo(10 / 7, 9);
     // a Gamma8 quartet ground level is flagged, not reported as a doublet silently
-    const q = groundDoubletGTensor({ J: 2.5, gJ: 6 / 7, terms: [{ l: 4, m: 0, B: -1 }, { l: 4, m: 4, B: -5 }] });
+    const q = groundDoubletGTensor({
+      J: 2.5,
+      gJ: 6 / 7,
+      terms: [
+        { l: 4, m: 0, B: -1 },
+        { l: 4, m: 4, B: -5 },
+      ],
+    });
     expect(q.notes.join(" ")).toMatch(/more than two-fold/);
   });
 });

@@ -14,7 +14,9 @@ describe("Stevens operators: structure", () => {
       for (const [l, m] of lm) {
         const O = stevensOperator(J, l, m);
         const n = O.n;
-        let big = 1, herm = 0, tr = 0;
+        let big = 1,
+          herm = 0,
+          tr = 0;
         for (let i = 0; i < n; i++) {
           tr += O.re[i * n + i]!;
           for (let j = 0; j < n; j++) {
@@ -30,7 +32,11 @@ describe("Stevens operators: structure", () => {
 
   it("vanish for l > 2J (no rank-l tensor in 2J + 1 states)", () => {
     // Source: Wigner-Eckart theorem (triangle rule |J - J| <= l <= 2J); common practice.
-    for (const [J, l] of [[0.5, 2], [1.5, 4], [2.5, 6]] as const) {
+    for (const [J, l] of [
+      [0.5, 2],
+      [1.5, 4],
+      [2.5, 6],
+    ] as const) {
       const O = stevensOperator(J, l, 0);
       expect(Math.max(...O.re.map(Math.abs), ...O.im.map(Math.abs))).toBe(0);
     }
@@ -39,7 +45,8 @@ describe("Stevens operators: structure", () => {
   it("O_2^0 = 3 J_z^2 - J(J+1) and O_4^0 diagonal closed form", () => {
     // Source: M. Hutchings (1964), table of operator equivalents.
     for (const J of [1, 2.5, 4, 7.5, 8]) {
-      const O2 = stevensOperator(J, 2, 0), O4 = stevensOperator(J, 4, 0);
+      const O2 = stevensOperator(J, 2, 0),
+        O4 = stevensOperator(J, 4, 0);
       const X = J * (J + 1);
       const n = O2.n;
       for (let i = 0; i < n; i++) {
@@ -129,11 +136,13 @@ print(json.dumps(out))
         const [l, m] = k.split(",").map(Number) as [number, number];
         const O = stevensOperator(J, l, m);
         const n = O.n;
-        let big = 1, diff = 0;
-        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-          big = Math.max(big, Math.abs(re[i]![j]!), Math.abs(im[i]![j]!));
-          diff = Math.max(diff, Math.abs(O.re[i * n + j]! - re[i]![j]!), Math.abs(O.im[i * n + j]! - im[i]![j]!));
-        }
+        let big = 1,
+          diff = 0;
+        for (let i = 0; i < n; i++)
+          for (let j = 0; j < n; j++) {
+            big = Math.max(big, Math.abs(re[i]![j]!), Math.abs(im[i]![j]!));
+            diff = Math.max(diff, Math.abs(O.re[i * n + j]! - re[i]![j]!), Math.abs(O.im[i * n + j]! - im[i]![j]!));
+          }
         expect(diff / big, `J=${J} O_${l}^${m}`).toBeLessThan(1e-11);
         checked++;
       }
@@ -145,15 +154,17 @@ print(json.dumps(out))
     // Source: angular-momentum algebra; common practice.
     const { x, y, z } = angularMomentum(3.5);
     const n = x.n;
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-      let re = 0, im = 0;
-      for (let k = 0; k < n; k++) {
-        // (xy - yx)_ij, x real, y imaginary
-        im += x.re[i * n + k]! * y.im[k * n + j]! - y.im[i * n + k]! * x.re[k * n + j]!;
-        re += 0;
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j < n; j++) {
+        let re = 0,
+          im = 0;
+        for (let k = 0; k < n; k++) {
+          // (xy - yx)_ij, x real, y imaginary
+          im += x.re[i * n + k]! * y.im[k * n + j]! - y.im[i * n + k]! * x.re[k * n + j]!;
+          re += 0;
+        }
+        expect(re).toBeCloseTo(0, 12);
+        expect(im).toBeCloseTo(z.re[i * n + j]!, 12);
       }
-      expect(re).toBeCloseTo(0, 12);
-      expect(im).toBeCloseTo(z.re[i * n + j]!, 12);
-    }
   });
 });

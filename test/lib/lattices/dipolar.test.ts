@@ -1,15 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  latticePreset,
-  dipolarTensor,
-  dipolarTensorDirect,
-  dipolarBands,
-  luttingerTisza,
-  fractionalToQ,
-  modeEnergy,
-  InputError,
-  type Lattice2D,
-} from "@helicoid/lib";
+import { latticePreset, dipolarTensor, dipolarTensorDirect, dipolarBands, luttingerTisza, fractionalToQ, modeEnergy, InputError, type Lattice2D } from "@helicoid/lib";
 import { runPython } from "../../helpers/python.js";
 
 const sums = runPython<{ square: number; triangular: number }>(
@@ -57,12 +47,13 @@ describe("Ewald dipolar tensor", () => {
     const ew = dipolarTensor(lat, [0, 0]);
     const dir = dipolarTensorDirect(lat, [0, 0], R);
     const N = ew.n;
-    for (let a = 0; a < 2; a++) for (let b = 0; b < 2; b++) {
-      const idx = (al: number, be: number) => (3 * a + al) * N + 3 * b + be;
-      expect(Math.abs(dir.re[idx(2, 2)]! + (2 * Math.PI) / (A * R) - ew.re[idx(2, 2)]!)).toBeLessThan(2e-4);
-      expect(Math.abs(dir.re[idx(0, 0)]! - Math.PI / (A * R) - ew.re[idx(0, 0)]!)).toBeLessThan(2e-4);
-      expect(Math.abs(dir.re[idx(0, 1)]! - ew.re[idx(0, 1)]!)).toBeLessThan(2e-4);
-    }
+    for (let a = 0; a < 2; a++)
+      for (let b = 0; b < 2; b++) {
+        const idx = (al: number, be: number) => (3 * a + al) * N + 3 * b + be;
+        expect(Math.abs(dir.re[idx(2, 2)]! + (2 * Math.PI) / (A * R) - ew.re[idx(2, 2)]!)).toBeLessThan(2e-4);
+        expect(Math.abs(dir.re[idx(0, 0)]! - Math.PI / (A * R) - ew.re[idx(0, 0)]!)).toBeLessThan(2e-4);
+        expect(Math.abs(dir.re[idx(0, 1)]! - ew.re[idx(0, 1)]!)).toBeLessThan(2e-4);
+      }
     // generic q: the tail oscillates and averages out
     const q = fractionalToQ(lat, 0.21, 0.13);
     const ewq = dipolarTensor(lat, q);
@@ -76,7 +67,15 @@ describe("Ewald dipolar tensor", () => {
   it("refuses a degenerate lattice and coinciding basis sites", () => {
     const bad: Lattice2D = { name: "bad", a1: [1, 0], a2: [2, 0], basis: [[0, 0]] };
     expect(() => dipolarTensor(bad, [0, 0])).toThrow(InputError);
-    const twin: Lattice2D = { name: "twin", a1: [1, 0], a2: [0, 1], basis: [[0, 0], [1, 0]] };
+    const twin: Lattice2D = {
+      name: "twin",
+      a1: [1, 0],
+      a2: [0, 1],
+      basis: [
+        [0, 0],
+        [1, 0],
+      ],
+    };
     expect(() => dipolarTensor(twin, [0, 0])).toThrow(/basis/);
   });
 });
@@ -115,7 +114,8 @@ describe("Luttinger-Tisza ground states", () => {
     const bands = dipolarBands(lat, K);
     const N = 6;
     // lowest eigenvector, normalized so that |S| = 1 (u^dag u = 2 per site)
-    let uRe = Array.from({ length: N }, (_, k) => bands.vectorsRe[k * N]!), uIm = Array.from({ length: N }, (_, k) => bands.vectorsIm[k * N]!);
+    let uRe = Array.from({ length: N }, (_, k) => bands.vectorsRe[k * N]!),
+      uIm = Array.from({ length: N }, (_, k) => bands.vectorsIm[k * N]!);
     const norm = Math.sqrt(uRe.reduce((s, x, k) => s + x * x + uIm[k]! ** 2, 0) / 4);
     uRe = uRe.map((x) => x / norm);
     uIm = uIm.map((x) => x / norm);
@@ -123,11 +123,13 @@ describe("Luttinger-Tisza ground states", () => {
     expect(Math.hypot(uRe[2]!, uIm[2]!, uRe[5]!, uIm[5]!)).toBeLessThan(1e-9);
     const superLat: Lattice2D = { name: "honeycomb 3x3", a1: [3 * lat.a1[0], 3 * lat.a1[1]], a2: [3 * lat.a2[0], 3 * lat.a2[1]], basis: [] };
     const pos: Array<[number, number, number]> = [];
-    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) for (let a = 0; a < 2; a++) {
-      const p: [number, number] = [i * lat.a1[0] + j * lat.a2[0] + lat.basis[a]![0], i * lat.a1[1] + j * lat.a2[1] + lat.basis[a]![1]];
-      superLat.basis.push(p);
-      pos.push([a, p[0], p[1]]);
-    }
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++)
+        for (let a = 0; a < 2; a++) {
+          const p: [number, number] = [i * lat.a1[0] + j * lat.a2[0] + lat.basis[a]![0], i * lat.a1[1] + j * lat.a2[1] + lat.basis[a]![1]];
+          superLat.basis.push(p);
+          pos.push([a, p[0], p[1]]);
+        }
     const Js = dipolarTensor(superLat, [0, 0]);
     const M = Js.n;
     const energies: number[] = [];
@@ -145,7 +147,14 @@ describe("Luttinger-Tisza ground states", () => {
       angleA.push(Math.atan2(S[1]!, S[0]!) - Math.atan2(S[4]!, S[3]!));
       // mode energy from J(K) agrees
       const ph = [Math.cos(phi), Math.sin(phi)];
-      expect(modeEnergy(lat, K, uRe.map((x, k) => x * ph[0]! - uIm[k]! * ph[1]!), uIm.map((x, k) => uRe[k]! * ph[1]! + x * ph[0]!))).toBeCloseTo(lt.energyPerSite, 9);
+      expect(
+        modeEnergy(
+          lat,
+          K,
+          uRe.map((x, k) => x * ph[0]! - uIm[k]! * ph[1]!),
+          uIm.map((x, k) => uRe[k]! * ph[1]! + x * ph[0]!),
+        ),
+      ).toBeCloseTo(lt.energyPerSite, 9);
     }
     for (const e of energies) expect(e).toBeCloseTo(lt.energyPerSite, 9);
     // counter-rotating: the angle between the A and B moments of one cell changes with phi

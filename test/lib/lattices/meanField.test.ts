@@ -1,5 +1,16 @@
 import { describe, expect, it } from "vitest";
-import { boseHubbardMeanField, mottLobeBoundary, mottLobeTip, easyPlaneMeanField, spinOneCriticalFields, orderingTemperature, paramagneticTransverseSusceptibility, brentRoot, brentMinimize, InputError } from "@helicoid/lib";
+import {
+  boseHubbardMeanField,
+  mottLobeBoundary,
+  mottLobeTip,
+  easyPlaneMeanField,
+  spinOneCriticalFields,
+  orderingTemperature,
+  paramagneticTransverseSusceptibility,
+  brentRoot,
+  brentMinimize,
+  InputError,
+} from "@helicoid/lib";
 
 /** Solver-side boundary: where E(delta) - E(0) of the decoupled site changes sign (delta small). */
 function solverBoundary(x: number): number {
@@ -14,7 +25,8 @@ function siteEnergy(zt: number, x: number, psi: number, nMax = 14): number {
   const d = Array.from({ length: nMax + 1 }, (_, n) => 0.5 * n * (n - 1) - x * n);
   const e = Array.from({ length: nMax + 1 }, (_, n) => (n > 0 ? -zt * psi * Math.sqrt(n) : 0));
   const count = (lam: number) => {
-    let c = 0, q = d[0]! - lam;
+    let c = 0,
+      q = d[0]! - lam;
     if (q < 0) c++;
     for (let i = 1; i <= nMax; i++) {
       q = d[i]! - lam - (e[i]! * e[i]!) / (q === 0 ? 1e-300 : q);
@@ -22,7 +34,8 @@ function siteEnergy(zt: number, x: number, psi: number, nMax = 14): number {
     }
     return c;
   };
-  let lo = -1e3, hi = 1e3;
+  let lo = -1e3,
+    hi = 1e3;
   for (let k = 0; k < 200; k++) {
     const mid = (lo + hi) / 2;
     if (count(mid) >= 1) hi = mid;
@@ -36,7 +49,13 @@ describe("Bose-Hubbard decoupling mean field", () => {
     // Source: D. van Oosten, P. van der Straten, H. Stoof, PRA 63, 053601 (2001) (from memory, as
     // quoted in issue 17), derived by second-order perturbation theory in lib/src/lattices/meanField.ts;
     // checked against the sign change of E(psi) - E(0) of an independent Sturm-bisection site solver.
-    for (const [n, x] of [[1, 0.2], [1, 0.5], [1, 0.8], [2, 1.3], [2, 1.7]] as const) {
+    for (const [n, x] of [
+      [1, 0.2],
+      [1, 0.5],
+      [1, 0.8],
+      [2, 1.3],
+      [2, 1.7],
+    ] as const) {
       expect(solverBoundary(x)).toBeCloseTo(mottLobeBoundary(n, x), 6);
     }
   });
@@ -60,11 +79,12 @@ describe("Bose-Hubbard decoupling mean field", () => {
       const inside = boseHubbardMeanField(0.95 * zc, x);
       expect(inside.psi).toBe(0);
       expect(inside.density).toBeCloseTo(1, 12);
-      const o1 = boseHubbardMeanField(1.01 * zc, x), o2 = boseHubbardMeanField(1.02 * zc, x);
+      const o1 = boseHubbardMeanField(1.01 * zc, x),
+        o2 = boseHubbardMeanField(1.02 * zc, x);
       expect(o1.psi).toBeGreaterThan(1e-3);
       expect(o1.expectationB).toBeCloseTo(o1.psi, 7);
       expect(o2.expectationB).toBeCloseTo(o2.psi, 7);
-      expect((o2.psi ** 2) / (o1.psi ** 2)).toBeCloseTo(2, 1);
+      expect(o2.psi ** 2 / o1.psi ** 2).toBeCloseTo(2, 1);
       expect(o1.truncationWeight).toBeLessThan(1e-20);
     }
     expect(() => boseHubbardMeanField(-1, 0.5)).toThrow(InputError);
@@ -76,7 +96,11 @@ describe("easy-plane spins in a field (site-decoupled mean field)", () => {
     // Source: derived in lib/src/lattices/meanField.ts (instability of |0> and |1> against
     // transverse order: z J chi_perp = 1); see T. Giamarchi, C. Rueegg, O. Tchernyshyov, Nature
     // Phys. 4, 198 (2008) for the picture. Checked against the self-consistent solver on both sides.
-    for (const [D, zJ, Delta] of [[10, 2, 1], [8, 1.5, 0.5], [5, 2, 1]] as const) {
+    for (const [D, zJ, Delta] of [
+      [10, 2, 1],
+      [8, 1.5, 0.5],
+      [5, 2, 1],
+    ] as const) {
       const p = { S: 1, D, zJ, Delta };
       const { hc1, hc2 } = spinOneCriticalFields(D, zJ, Delta);
       if (hc1 > 0) {
@@ -92,7 +116,8 @@ describe("easy-plane spins in a field (site-decoupled mean field)", () => {
     }
     // near h_c2 the transverse moment vanishes continuously: m_perp^2 linear in (h_c2 - h)
     const p = { S: 1, D: 10, zJ: 2, Delta: 1 };
-    const a = easyPlaneMeanField(p, 14 - 0.05).mPerp ** 2, b = easyPlaneMeanField(p, 14 - 0.1).mPerp ** 2;
+    const a = easyPlaneMeanField(p, 14 - 0.05).mPerp ** 2,
+      b = easyPlaneMeanField(p, 14 - 0.1).mPerp ** 2;
     expect(b / a).toBeCloseTo(2, 1);
   });
 });

@@ -132,11 +132,14 @@ describe("equilibrium spiral period with anisotropy", () => {
       const E = 4 * integrateInterval((th) => (A * dtheta(th) ** 2 + K * Math.sin(th) ** 2) / dtheta(th), 0, Math.PI / 2).value;
       return { L, e: (E - 2 * Math.PI * Math.abs(D)) / L };
     };
-    let lo = Math.log(1e-8 * K), hi = Math.log(1e4 * K);
+    let lo = Math.log(1e-8 * K),
+      hi = Math.log(1e4 * K);
     const gr = (Math.sqrt(5) - 1) / 2;
     for (let i = 0; i < 120; i++) {
-      const c = hi - gr * (hi - lo), d = lo + gr * (hi - lo);
-      if (turn(Math.exp(c)).e < turn(Math.exp(d)).e) hi = d; else lo = c;
+      const c = hi - gr * (hi - lo),
+        d = lo + gr * (hi - lo);
+      if (turn(Math.exp(c)).e < turn(Math.exp(d)).e) hi = d;
+      else lo = c;
     }
     return turn(Math.exp((lo + hi) / 2));
   }

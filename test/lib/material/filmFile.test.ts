@@ -57,7 +57,8 @@ describe("film files", () => {
   });
 
   it("refuse a bad file with the field, the value and what is expected", () => {
-    const bad = (patch: Record<string, unknown>, values?: Record<string, unknown>) => inputError(() => parseFilmFile(JSON.stringify({ ...zx3, ...patch, ...(values ? { values: { ...zx3.values, ...values } } : {}) }), "f.json"));
+    const bad = (patch: Record<string, unknown>, values?: Record<string, unknown>) =>
+      inputError(() => parseFilmFile(JSON.stringify({ ...zx3, ...patch, ...(values ? { values: { ...zx3.values, ...values } } : {}) }), "f.json"));
     expect(inputError(() => parseFilmFile("{ not json", "f.json")).expected).toMatch(/JSON film file/);
     expect(bad({ format: "other" }).parameter).toBe("f.json: format");
     expect(bad({ version: 2 }).parameter).toBe("f.json: version");
@@ -120,7 +121,11 @@ describe("film files", () => {
     expect(R.uncertainty).toBeGreaterThan(0);
     expect(r.uncertainty!.inputs).toEqual({ A: 1e-12, Ku: 50000, D: 1e-4 });
     // the same numbers as the inputs typed by hand
-    const byHand = runCalculator(skyrmion, { Ms: "1.1 MA/m", A: "15 ± 1 pJ/m", Ku: "1.2 ± 0.05 MJ/m^3", D: "1.5 ± 0.1 mJ/m^2", t: "1 nm", B: "50 mT" }, { noSweep: true, uncertainty });
+    const byHand = runCalculator(
+      skyrmion,
+      { Ms: "1.1 MA/m", A: "15 ± 1 pJ/m", Ku: "1.2 ± 0.05 MJ/m^3", D: "1.5 ± 0.1 mJ/m^2", t: "1 nm", B: "50 mT" },
+      { noSweep: true, uncertainty },
+    );
     expect(byHand.outputs.radius!.uncertainty).toBe(R.uncertainty);
     // the wall calculator takes no B: said in a note
     expect(filmInputsFor(getCalculator("wall"), f).notes.join(" ")).toMatch(/does not take: B/);

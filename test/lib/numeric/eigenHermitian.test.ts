@@ -9,16 +9,22 @@ import { runPython } from "../../helpers/python.js";
 // Deterministic pseudo-random Hermitian matrices (LCG, so numpy sees the same numbers).
 function lcg(seed: number) {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32) - 0.5;
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5;
 }
 function randomHermitian(n: number, seed: number, scaleSpread = false) {
   const r = lcg(seed);
-  const re = new Float64Array(n * n), im = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) {
-    const w = scaleSpread ? 10 ** (3 * r()) : 1;
-    const a = r() * w, b = i === j ? 0 : r() * w;
-    re[i * n + j] = a; re[j * n + i] = a; im[i * n + j] = b; im[j * n + i] = -b;
-  }
+  const re = new Float64Array(n * n),
+    im = new Float64Array(n * n);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j <= i; j++) {
+      const w = scaleSpread ? 10 ** (3 * r()) : 1;
+      const a = r() * w,
+        b = i === j ? 0 : r() * w;
+      re[i * n + j] = a;
+      re[j * n + i] = a;
+      im[i * n + j] = b;
+      im[j * n + i] = -b;
+    }
   return { re, im };
 }
 
@@ -27,7 +33,8 @@ const cases = [1, 2, 3, 5, 8, 17, 40, 101].map((n, k) => ({ n, seed: 100 + k, sp
 describe("Hermitian eigensolver (Householder + implicit QL)", () => {
   const mats = cases.map((c) => ({ ...c, ...randomHermitian(c.n, c.seed, c.spread) }));
   // Source: Debian's numpy.linalg.eigh (LAPACK zheevd) run as an independent oracle.
-  const ref = runPython<Array<{ values: number[]; norm: number }>>(`
+  const ref = runPython<Array<{ values: number[]; norm: number }>>(
+    `
 import json, sys, numpy as np
 data = json.load(sys.stdin)
 out = []
@@ -35,7 +42,9 @@ for m in data:
     n = m["n"]; A = np.array(m["re"]).reshape(n, n) + 1j * np.array(m["im"]).reshape(n, n)
     w = np.linalg.eigh(A)[0]
     out.append({"values": w.tolist(), "norm": float(np.linalg.norm(A, 2))})
-print(json.dumps(out))`, mats.map((m) => ({ n: m.n, re: Array.from(m.re), im: Array.from(m.im) })));
+print(json.dumps(out))`,
+    mats.map((m) => ({ n: m.n, re: Array.from(m.re), im: Array.from(m.im) })),
+  );
 
   it("eigenvalues agree with numpy.linalg.eigh to 1e-12 of the spectral norm", () => {
     mats.forEach((m, k) => {
@@ -51,19 +60,23 @@ print(json.dumps(out))`, mats.map((m) => ({ n: m.n, re: Array.from(m.re), im: Ar
       const n = m.n;
       const r = eigenHermitian(n, m.re, m.im);
       const norm = ref[k]!.norm;
-      let res = 0, orth = 0;
+      let res = 0,
+        orth = 0;
       for (let c = 0; c < n; c++) {
         for (let i = 0; i < n; i++) {
-          let sr = 0, si = 0;
+          let sr = 0,
+            si = 0;
           for (let j = 0; j < n; j++) {
-            const vr = r.vectorsRe![j * n + c]!, vi = r.vectorsIm![j * n + c]!;
+            const vr = r.vectorsRe![j * n + c]!,
+              vi = r.vectorsIm![j * n + c]!;
             sr += m.re[i * n + j]! * vr - m.im[i * n + j]! * vi;
             si += m.re[i * n + j]! * vi + m.im[i * n + j]! * vr;
           }
           res = Math.max(res, Math.hypot(sr - r.values[c]! * r.vectorsRe![i * n + c]!, si - r.values[c]! * r.vectorsIm![i * n + c]!));
         }
         for (let d = 0; d < n; d++) {
-          let dr = 0, di = 0;
+          let dr = 0,
+            di = 0;
           for (let i = 0; i < n; i++) {
             dr += r.vectorsRe![i * n + c]! * r.vectorsRe![i * n + d]! + r.vectorsIm![i * n + c]! * r.vectorsIm![i * n + d]!;
             di += r.vectorsRe![i * n + c]! * r.vectorsIm![i * n + d]! - r.vectorsIm![i * n + c]! * r.vectorsRe![i * n + d]!;
@@ -86,7 +99,8 @@ print(json.dumps(out))`, mats.map((m) => ({ n: m.n, re: Array.from(m.re), im: Ar
     const arr = (Array.isArray(res.values) ? res.values : res.values.toArray()).map((z) => (typeof z === "number" ? z : z.re)).sort((a, b) => a - b);
     const ours = eigenHermitian(m.n, m.re, m.im).values;
     const norm = ref[k]!.norm;
-    let errOurs = 0, errMath = 0;
+    let errOurs = 0,
+      errMath = 0;
     for (let i = 0; i < m.n; i++) {
       errOurs = Math.max(errOurs, Math.abs(ours[i]! - ref[k]!.values[i]!) / norm);
       errMath = Math.max(errMath, Math.abs(arr[i]! - ref[k]!.values[i]!) / norm);
@@ -102,10 +116,13 @@ print(json.dumps(out))`, mats.map((m) => ({ n: m.n, re: Array.from(m.re), im: Ar
     s.solve(re, true);
     const dd = symmetricEigenvaluesDD(n, re, [0, 1, n - 1]).map(ddToNumber);
     // Source: numpy.linalg.eigvalsh (LAPACK dsyevd), Debian numpy 1.24.
-    const ref2 = runPython<{ w: number[]; norm: number }>(`
+    const ref2 = runPython<{ w: number[]; norm: number }>(
+      `
 import json, sys, numpy as np
 d = json.load(sys.stdin); A = np.array(d["a"]).reshape(d["n"], d["n"])
-print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.norm(A, 2))}))`, { n, a: Array.from(re) });
+print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.norm(A, 2))}))`,
+      { n, a: Array.from(re) },
+    );
     for (let i = 0; i < n; i++) expect(Math.abs(s.values[i]! - ref2.w[i]!) / ref2.norm).toBeLessThan(1e-12);
     expect(Math.abs(dd[0]! - ref2.w[0]!) / ref2.norm).toBeLessThan(1e-14);
     expect(Math.abs(dd[1]! - ref2.w[1]!) / ref2.norm).toBeLessThan(1e-14);
@@ -115,8 +132,10 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
   it("degenerate spectrum (identity plus rank one) is handled", () => {
     // Common practice, no source: eigenvalues of I + u u^H are 1 (n-1 times) and 1 + |u|^2.
     const n = 6;
-    const ur = [1, 0.5, -0.3, 0.2, 0, 0.7], ui = [0, 0.1, 0.4, -0.2, 0.3, 0];
-    const re = new Float64Array(n * n), im = new Float64Array(n * n);
+    const ur = [1, 0.5, -0.3, 0.2, 0, 0.7],
+      ui = [0, 0.1, 0.4, -0.2, 0.3, 0];
+    const re = new Float64Array(n * n),
+      im = new Float64Array(n * n);
     let u2 = 0;
     for (let i = 0; i < n; i++) {
       u2 += ur[i]! ** 2 + ui[i]! ** 2;
@@ -144,23 +163,28 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
       const n = m.n;
       const a = new HermitianEigenSolver(n);
       a.solve(m.re, m.im, true);
-      const colsRe = Float64Array.from(a.vectorsRe), colsIm = Float64Array.from(a.vectorsIm), vals = Float64Array.from(a.values);
+      const colsRe = Float64Array.from(a.vectorsRe),
+        colsIm = Float64Array.from(a.vectorsIm),
+        vals = Float64Array.from(a.values);
       const other = randomHermitian(n, 999);
       a.solve(other.re, other.im, true); // dirty the workspace
       a.solveVectorRows(m.re, m.im);
       expect(Array.from(a.values)).toEqual(Array.from(vals));
-      for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) {
-        expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
-        expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
-      }
-      // a subset of the vectors: the same rows
-      const first = Math.floor(n / 3), count = Math.max(1, Math.floor(n / 2));
-      if (first + count <= n) {
-        a.solveVectorRows(m.re, m.im, first, count);
-        for (let k = first; k < first + count; k++) for (let i = 0; i < n; i++) {
+      for (let i = 0; i < n; i++)
+        for (let k = 0; k < n; k++) {
           expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
           expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
         }
+      // a subset of the vectors: the same rows
+      const first = Math.floor(n / 3),
+        count = Math.max(1, Math.floor(n / 2));
+      if (first + count <= n) {
+        a.solveVectorRows(m.re, m.im, first, count);
+        for (let k = first; k < first + count; k++)
+          for (let i = 0; i < n; i++) {
+            expect(a.vectorsRe[k * n + i]).toBe(colsRe[i * n + k]);
+            expect(a.vectorsIm[k * n + i]).toBe(colsIm[i * n + k]);
+          }
       }
     }
     expect(() => new HermitianEigenSolver(3).solveVectorRows(new Float64Array(9), null, 2, 2)).toThrow(InputError);
@@ -169,25 +193,33 @@ print(json.dumps({"w": np.linalg.eigvalsh(A).tolist(), "norm": float(np.linalg.n
   it("solveVectorRowsInto writes the same rows, packed, at the caller's offsets and leaves the rest alone", () => {
     // Common practice, no source: an output-placement variant must not change results.
     for (const m of mats.filter((x) => x.n >= 2 && x.n <= 12)) {
-      const n = m.n, nn = n * n;
+      const n = m.n,
+        nn = n * n;
       const a = new HermitianEigenSolver(n);
       a.solveVectorRows(m.re, m.im);
-      const rowsRe = Float64Array.from(a.vectorsRe), rowsIm = Float64Array.from(a.vectorsIm), vals = Float64Array.from(a.values);
-      const E = new Float64Array(3 * n).fill(-7), Vr = new Float64Array(3 * nn).fill(-7), Vi = new Float64Array(3 * nn).fill(-7);
-      const first = n > 2 ? 1 : 0, count = n - first - (n > 3 ? 1 : 0);
+      const rowsRe = Float64Array.from(a.vectorsRe),
+        rowsIm = Float64Array.from(a.vectorsIm),
+        vals = Float64Array.from(a.values);
+      const E = new Float64Array(3 * n).fill(-7),
+        Vr = new Float64Array(3 * nn).fill(-7),
+        Vi = new Float64Array(3 * nn).fill(-7);
+      const first = n > 2 ? 1 : 0,
+        count = n - first - (n > 3 ? 1 : 0);
       a.solveVectorRowsInto(m.re, m.im, first, count, E, n, Vr, Vi, 2 * nn);
       expect(Array.from(E.subarray(n, 2 * n))).toEqual(Array.from(vals));
       expect(E.subarray(0, n).every((x) => x === -7) && E.subarray(2 * n).every((x) => x === -7)).toBe(true);
       // vector k (first <= k < first + count) at 2 nn + (k - first) n; nothing else touched
-      for (let k = first; k < first + count; k++) for (let i = 0; i < n; i++) {
-        expect(Vr[2 * nn + (k - first) * n + i]).toBe(rowsRe[k * n + i]);
-        expect(Vi[2 * nn + (k - first) * n + i]).toBe(rowsIm[k * n + i]);
-      }
+      for (let k = first; k < first + count; k++)
+        for (let i = 0; i < n; i++) {
+          expect(Vr[2 * nn + (k - first) * n + i]).toBe(rowsRe[k * n + i]);
+          expect(Vi[2 * nn + (k - first) * n + i]).toBe(rowsIm[k * n + i]);
+        }
       expect(Vr.subarray(0, 2 * nn).every((x) => x === -7)).toBe(true);
       expect(Vr.subarray(2 * nn + count * n).every((x) => x === -7)).toBe(true);
       expect(Vi.subarray(2 * nn + count * n).every((x) => x === -7)).toBe(true);
     }
-    const s = new HermitianEigenSolver(3), z = new Float64Array(9);
+    const s = new HermitianEigenSolver(3),
+      z = new Float64Array(9);
     expect(() => s.solveVectorRowsInto(z, null, 0, 3, new Float64Array(3), 1, new Float64Array(9), new Float64Array(9), 0)).toThrow(/valuesOffset/);
     expect(() => s.solveVectorRowsInto(z, null, 0, 3, new Float64Array(3), 0, new Float64Array(9), new Float64Array(9), 1)).toThrow(/vectorsOffset/);
     // two of three vectors need only 6 numbers

@@ -8,16 +8,17 @@ import { runPython } from "../../helpers/python.js";
 
 function lcg(seed: number) {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32) - 0.5;
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5;
 }
 function randomBand(n: number, b: number, seed: number): Float64Array {
   const r = lcg(seed);
   const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = Math.max(0, i - b); j <= i; j++) {
-    const v = r();
-    a[i * n + j] = v;
-    a[j * n + i] = v;
-  }
+  for (let i = 0; i < n; i++)
+    for (let j = Math.max(0, i - b); j <= i; j++) {
+      const v = r();
+      a[i * n + j] = v;
+      a[j * n + i] = v;
+    }
   return a;
 }
 
@@ -26,7 +27,14 @@ function randomBand(n: number, b: number, seed: number): Float64Array {
 // degeneracies), plus random band matrices of several bandwidths.
 const spin = { S: 50, D: 0.3 * kB, E: 0.05 * kB, g: 2 };
 const cases: Array<{ label: string; n: number; b: number; a: Float64Array }> = [
-  ...([[0.4, 0, 0], [0, 0, 0.3], [0.3, 0, 0.2], [0, 0, 0]] as const).map((B) => {
+  ...(
+    [
+      [0.4, 0, 0],
+      [0, 0, 0.3],
+      [0.3, 0, 0.2],
+      [0, 0, 0],
+    ] as const
+  ).map((B) => {
     const H = giantSpinMatrix(spin, B);
     return { label: `S = 50, B = ${B}`, n: H.dim, b: 2, a: H.re };
   }),
@@ -43,14 +51,17 @@ const cases: Array<{ label: string; n: number; b: number; a: Float64Array }> = [
 
 describe("banded symmetric eigensolver (band reduction + QL values, inverse iteration vectors)", () => {
   // Source: Debian's numpy.linalg.eigh (LAPACK dsyevd) as an independent oracle.
-  const ref = runPython<Array<{ w: number[]; v: number[]; norm: number }>>(`
+  const ref = runPython<Array<{ w: number[]; v: number[]; norm: number }>>(
+    `
 import json, sys, numpy as np
 out = []
 for m in json.load(sys.stdin):
     n = m["n"]; A = np.array(m["a"]).reshape(n, n)
     w, v = np.linalg.eigh(A)
     out.append({"w": w.tolist(), "v": v.reshape(-1).tolist(), "norm": float(np.linalg.norm(A, 2))})
-print(json.dumps(out))`, cases.map((c) => ({ n: c.n, a: Array.from(c.a) })));
+print(json.dumps(out))`,
+    cases.map((c) => ({ n: c.n, a: Array.from(c.a) })),
+  );
 
   it("eigenvalues agree with numpy.linalg.eigh to 1e-12 of the spectral norm", () => {
     cases.forEach((c, k) => {
@@ -68,8 +79,12 @@ print(json.dumps(out))`, cases.map((c) => ({ n: c.n, a: Array.from(c.a) })));
       const s = new SymmetricBandEigenSolver(n, c.b);
       s.solve(c.a, true);
       expect(s.usedDenseFallback, c.label).toBe(false);
-      const V = s.vectors, norm = ref[k]!.norm, nv = ref[k]!.v;
-      let res = 0, orth = 0, proj = 0;
+      const V = s.vectors,
+        norm = ref[k]!.norm,
+        nv = ref[k]!.v;
+      let res = 0,
+        orth = 0,
+        proj = 0;
       for (let q = 0; q < n; q++) {
         for (let i = 0; i < n; i++) {
           let t = -s.values[q]! * V[i * n + q]!;
@@ -126,11 +141,12 @@ print(json.dumps(out))`, cases.map((c) => ({ n: c.n, a: Array.from(c.a) })));
     [1, 1, 2, 2, 3].forEach((x, i) => (a[i * 5 + i] = x));
     d.solve(a, true);
     expect(Array.from(d.values)).toEqual([1, 1, 2, 2, 3]);
-    for (let p = 0; p < 5; p++) for (let q = 0; q < 5; q++) {
-      let t = 0;
-      for (let i = 0; i < 5; i++) t += d.vectors[i * 5 + p]! * d.vectors[i * 5 + q]!;
-      expect(Math.abs(t - (p === q ? 1 : 0))).toBeLessThan(1e-14);
-    }
+    for (let p = 0; p < 5; p++)
+      for (let q = 0; q < 5; q++) {
+        let t = 0;
+        for (let i = 0; i < 5; i++) t += d.vectors[i * 5 + p]! * d.vectors[i * 5 + q]!;
+        expect(Math.abs(t - (p === q ? 1 : 0))).toBeLessThan(1e-14);
+      }
   });
 
   it("matrixBandwidth and bad input", () => {

@@ -8,50 +8,63 @@ import { runPython } from "../../helpers/python.js";
 // eigenvalues separated from their neighbours.
 function lcg(seed: number): () => number {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32) - 0.5;
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5;
 }
 function randomSymmetric(n: number, seed: number, graded = false): Float64Array {
   const r = lcg(seed);
   const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) {
-    const v = r() * (graded ? 10 ** (-(i + j) / n * 6) : 1);
-    a[i * n + j] = v;
-    a[j * n + i] = v;
-  }
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j <= i; j++) {
+      const v = r() * (graded ? 10 ** ((-(i + j) / n) * 6) : 1);
+      a[i * n + j] = v;
+      a[j * n + i] = v;
+    }
   return a;
 }
 
 describe("dense symmetric eigenproblem (Householder + QL)", () => {
-  const cases = [[1, 1], [2, 2], [5, 3], [40, 4], [101, 5], [60, 6, 1]] as const;
+  const cases = [
+    [1, 1],
+    [2, 2],
+    [5, 3],
+    [40, 4],
+    [101, 5],
+    [60, 6, 1],
+  ] as const;
   const mats = cases.map(([n, seed, graded]) => ({ n, a: randomSymmetric(n, seed, !!graded) }));
-  const ref = runPython<Array<{ w: number[]; v: number[] }>>(`
+  const ref = runPython<Array<{ w: number[]; v: number[] }>>(
+    `
 import sys, json, numpy as np
 out = []
 for m in json.load(sys.stdin):
     n = m["n"]; A = np.array(m["a"]).reshape(n, n)
     w, v = np.linalg.eigh(A)
     out.append({"w": w.tolist(), "v": v.ravel().tolist()})
-print(json.dumps(out))`, mats.map((m) => ({ n: m.n, a: Array.from(m.a) })));
+print(json.dumps(out))`,
+    mats.map((m) => ({ n: m.n, a: Array.from(m.a) })),
+  );
 
   it("eigenvalues and eigenvectors agree with numpy.linalg.eigh (row-major solver and symmetricEigen)", () => {
     mats.forEach(({ n, a }, c) => {
       const s = new SymmetricEigenSolver(n);
       s.solve(a, true);
       const { values, vectors } = symmetricEigen(a, n);
-      const w = ref[c]!.w, V = ref[c]!.v;
+      const w = ref[c]!.w,
+        V = ref[c]!.v;
       const scale = Math.max(...w.map(Math.abs));
       for (let k = 0; k < n; k++) {
         expect(Math.abs(s.values[k]! - w[k]!)).toBeLessThan(1e-13 * scale * Math.max(1, Math.sqrt(n) / 4));
         expect(values[k]).toBe(s.values[k]);
         const gap = Math.min(k > 0 ? w[k]! - w[k - 1]! : Infinity, k < n - 1 ? w[k + 1]! - w[k]! : Infinity);
         if (gap < 1e-6 * scale) continue;
-        let dot = 0, dot2 = 0;
+        let dot = 0,
+          dot2 = 0;
         for (let i = 0; i < n; i++) {
           dot += s.vectors[i * n + k]! * V[i * n + k]!;
           dot2 += vectors[i + k * n]! * V[i * n + k]!;
         }
-        expect(Math.abs(Math.abs(dot) - 1)).toBeLessThanOrEqual(Math.max(1e-14, 1e-10 * scale / gap));
-        expect(Math.abs(Math.abs(dot2) - 1)).toBeLessThanOrEqual(Math.max(1e-14, 1e-10 * scale / gap));
+        expect(Math.abs(Math.abs(dot) - 1)).toBeLessThanOrEqual(Math.max(1e-14, (1e-10 * scale) / gap));
+        expect(Math.abs(Math.abs(dot2) - 1)).toBeLessThanOrEqual(Math.max(1e-14, (1e-10 * scale) / gap));
       }
     });
   });
@@ -61,13 +74,15 @@ print(json.dumps(out))`, mats.map((m) => ({ n: m.n, a: Array.from(m.a) })));
     const s = new SymmetricEigenSolver(n);
     s.solve(a, true);
     const full = Float64Array.from(s.values);
-    let worst = 0, norm = 0;
+    let worst = 0,
+      norm = 0;
     for (const x of full) norm = Math.max(norm, Math.abs(x));
-    for (let k = 0; k < n; k++) for (let i = 0; i < n; i++) {
-      let t = 0;
-      for (let j = 0; j < n; j++) t += a[i * n + j]! * s.vectors[j * n + k]!;
-      worst = Math.max(worst, Math.abs(t - full[k]! * s.vectors[i * n + k]!));
-    }
+    for (let k = 0; k < n; k++)
+      for (let i = 0; i < n; i++) {
+        let t = 0;
+        for (let j = 0; j < n; j++) t += a[i * n + j]! * s.vectors[j * n + k]!;
+        worst = Math.max(worst, Math.abs(t - full[k]! * s.vectors[i * n + k]!));
+      }
     expect(worst).toBeLessThan(1e-13 * norm);
     s.solve(a, false);
     for (let k = 0; k < n; k++) expect(Math.abs(s.values[k]! - full[k]!)).toBeLessThan(1e-14 * norm);

@@ -9,8 +9,20 @@ import { formatQuantity, parseQuantity } from "@helicoid/lib";
 describe("units typed back as printed", () => {
   it("every customary unit printed by formatQuantity parses back to the same SI value", () => {
     const cases: Array<[number, string]> = [
-      [1.5e-3, "J/m^2"], [2.4e5, "J/m^3"], [1.2e6, "J/m^3"], [1.5e-11, "J/m"], [2e-5, "T"], [3.5e-9, "m"],
-      [2.5e-6, "m"], [3e-10, "m"], [8e5, "A/m"], [4e-12, "s"], [2.5e9, "Hz"], [0.02, "K"], [0, "J/m^2"], [0, "m"],
+      [1.5e-3, "J/m^2"],
+      [2.4e5, "J/m^3"],
+      [1.2e6, "J/m^3"],
+      [1.5e-11, "J/m"],
+      [2e-5, "T"],
+      [3.5e-9, "m"],
+      [2.5e-6, "m"],
+      [3e-10, "m"],
+      [8e5, "A/m"],
+      [4e-12, "s"],
+      [2.5e9, "Hz"],
+      [0.02, "K"],
+      [0, "J/m^2"],
+      [0, "m"],
     ];
     for (const [v, u] of cases) {
       const shown = formatQuantity(v, u, 6);
@@ -39,7 +51,10 @@ describe("units typed back as printed", () => {
   it("energies in K or J accept meV, µeV, GHz and cm⁻¹", () => {
     // Source: 2019 SI exact constants: k_B = 1.380649e-23 J/K, h = 6.62607015e-34 J s,
     // e = 1.602176634e-19 C, c = 299792458 m/s (BIPM SI Brochure, 9th edition, 2019).
-    const kB = 1.380649e-23, h = 6.62607015e-34, e = 1.602176634e-19, c = 299792458;
+    const kB = 1.380649e-23,
+      h = 6.62607015e-34,
+      e = 1.602176634e-19,
+      c = 299792458;
     expect(parseQuantity("D", "1 meV", "K")).toBeCloseTo((1e-3 * e) / kB, 12); // 11.604518 K
     expect(parseQuantity("D", "2 µeV", "K")).toBeCloseTo((2e-6 * e) / kB, 14);
     expect(parseQuantity("D", "10 GHz", "K")).toBeCloseTo((10e9 * h) / kB, 14); // 0.479924 K

@@ -34,18 +34,23 @@ describe("Bloch points and hedgehogs (signed degree per cell)", () => {
 
   it("Gauss: degrees of each slab = Q(k+1) - Q(k) exactly for random fields periodic in x, y", () => {
     // Source: the cell faces tile the slab boundary (Berg, Luescher 1981 solid angles); common practice, no source.
-    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), (seed) => {
-      const rnd = mulberry32(seed);
-      const nx = 7, ny = 6, nz = 4;
-      const m = Float64Array.from({ length: 3 * nx * ny * nz }, () => rnd() * 2 - 1);
-      const f = vectorFieldFromInterleaved(m, { nx, ny, nz });
-      const r = findBlochPoints(f, { boundary: "periodic" });
-      const q = skyrmionNumberPerLayer(f, { boundary: "periodic" });
-      for (let k = 0; k < nz - 1; k++) {
-        const slab = r.points.filter((p) => p.k === k).reduce((s, p) => s + p.degree, 0);
-        expect(Math.abs(slab - (Math.round(q[k + 1]!) - Math.round(q[k]!)))).toBe(0);
-      }
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), (seed) => {
+        const rnd = mulberry32(seed);
+        const nx = 7,
+          ny = 6,
+          nz = 4;
+        const m = Float64Array.from({ length: 3 * nx * ny * nz }, () => rnd() * 2 - 1);
+        const f = vectorFieldFromInterleaved(m, { nx, ny, nz });
+        const r = findBlochPoints(f, { boundary: "periodic" });
+        const q = skyrmionNumberPerLayer(f, { boundary: "periodic" });
+        for (let k = 0; k < nz - 1; k++) {
+          const slab = r.points.filter((p) => p.k === k).reduce((s, p) => s + p.degree, 0);
+          expect(Math.abs(slab - (Math.round(q[k + 1]!) - Math.round(q[k]!)))).toBe(0);
+        }
+      }),
+      { numRuns: 40 },
+    );
   });
 
   it("needs 2x2x2 sites", () => {

@@ -18,7 +18,9 @@ describe("VectorField construction", () => {
 
   it("planar and interleaved inputs give the same field", () => {
     // Common practice, no source.
-    const mx = [1, 0, 0, 1], my = [0, 1, 0, 1], mz = [0, 0, 1, 1];
+    const mx = [1, 0, 0, 1],
+      my = [0, 1, 0, 1],
+      mz = [0, 0, 1, 1];
     const a = vectorFieldFromPlanar(mx, my, mz, { nx: 2, ny: 2 });
     const b = vectorFieldFromInterleaved([1, 0, 0, 0, 1, 0, 0, 0, 1, 1, 1, 1], { nx: 2, ny: 2 });
     expect(Array.from(a.m)).toEqual(Array.from(b.m));

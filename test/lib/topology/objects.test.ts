@@ -15,27 +15,32 @@ const grid = { nx: 80, ny: 80, dx: nm };
 
 describe("objects: charge, centre, radius, vorticity, helicity of analytic textures", () => {
   it("recovers vorticity, helicity, centre and radius of generated skyrmions (fast-check)", () => {
-    fc.assert(fc.property(
-      fc.constantFrom(1, -1, 2, 3, -2),
-      fc.double({ min: -3.1, max: 3.1, noNaN: true }),
-      fc.double({ min: 25, max: 55, noNaN: true }), fc.double({ min: 25, max: 55, noNaN: true }),
-      fc.double({ min: 7, max: 14, noNaN: true }),
-      fc.constantFrom(1 as const, -1 as const),
-      (v, gamma, x, y, R, bg) => {
-        const f = textureOfObjects(grid, [{ x: x * nm, y: y * nm, R: R * nm, w: 2.5 * nm, vorticity: v, helicity: gamma }], { background: bg });
-        const r = findObjects(f);
-        expect(r.objects.length).toBe(1);
-        const o = r.objects[0]!;
-        expect(r.background).toBe(bg);
-        expect(o.corePolarity).toBe(-bg);
-        expect(Math.abs(o.charge - -bg * v)).toBeLessThan(1e-6);
-        expect(o.vorticity).toBe(v);
-        const dg = Math.atan2(Math.sin(o.helicity! - gamma), Math.cos(o.helicity! - gamma));
-        expect(Math.abs(dg)).toBeLessThan(1e-3);
-        expect(Math.hypot(o.center[0] - x * nm, o.center[1] - y * nm)).toBeLessThan(0.05 * nm);
-        expect(Math.abs(o.radius - R * nm)).toBeLessThan(0.5 * nm);
-        expect(o.kind).toBe(Math.abs(v) === 1 ? (v === 1 ? "skyrmion" : "antiskyrmion") : "higher-order skyrmion");
-      }), { numRuns: 25 });
+    fc.assert(
+      fc.property(
+        fc.constantFrom(1, -1, 2, 3, -2),
+        fc.double({ min: -3.1, max: 3.1, noNaN: true }),
+        fc.double({ min: 25, max: 55, noNaN: true }),
+        fc.double({ min: 25, max: 55, noNaN: true }),
+        fc.double({ min: 7, max: 14, noNaN: true }),
+        fc.constantFrom(1 as const, -1 as const),
+        (v, gamma, x, y, R, bg) => {
+          const f = textureOfObjects(grid, [{ x: x * nm, y: y * nm, R: R * nm, w: 2.5 * nm, vorticity: v, helicity: gamma }], { background: bg });
+          const r = findObjects(f);
+          expect(r.objects.length).toBe(1);
+          const o = r.objects[0]!;
+          expect(r.background).toBe(bg);
+          expect(o.corePolarity).toBe(-bg);
+          expect(Math.abs(o.charge - -bg * v)).toBeLessThan(1e-6);
+          expect(o.vorticity).toBe(v);
+          const dg = Math.atan2(Math.sin(o.helicity! - gamma), Math.cos(o.helicity! - gamma));
+          expect(Math.abs(dg)).toBeLessThan(1e-3);
+          expect(Math.hypot(o.center[0] - x * nm, o.center[1] - y * nm)).toBeLessThan(0.05 * nm);
+          expect(Math.abs(o.radius - R * nm)).toBeLessThan(0.5 * nm);
+          expect(o.kind).toBe(Math.abs(v) === 1 ? (v === 1 ? "skyrmion" : "antiskyrmion") : "higher-order skyrmion");
+        },
+      ),
+      { numRuns: 25 },
+    );
   });
 
   it("skyrmionium: charge 0, one object, radius = outer radius, vorticity 1", () => {
@@ -109,8 +114,14 @@ describe("an object that one helicity does not describe", () => {
     // Common practice, no source: the generator puts a core (m_xy = 0, winding +1) at each centre; Phi - v phi
     // on one circle around the pair is not constant, so no single helicity exists.
     const nm = 1e-9;
-    const centres: Array<[number, number]> = [[49 * nm, 64 * nm], [79 * nm, 64 * nm]];
-    const f = textureOfObjects({ nx: 128, ny: 128, dx: nm, periodic: false }, centres.map(([x, y]) => ({ x, y, R: 20 * nm, w: 4 * nm, helicity: 0 })));
+    const centres: Array<[number, number]> = [
+      [49 * nm, 64 * nm],
+      [79 * nm, 64 * nm],
+    ];
+    const f = textureOfObjects(
+      { nx: 128, ny: 128, dx: nm, periodic: false },
+      centres.map(([x, y]) => ({ x, y, R: 20 * nm, w: 4 * nm, helicity: 0 })),
+    );
     const o = findObjects(f, { boundary: "open" });
     expect(o.objects.length).toBe(1);
     expect(o.objects[0]!.helicity).toBeNull();

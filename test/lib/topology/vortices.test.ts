@@ -14,7 +14,8 @@ describe("vortices and antivortices by plaquette winding", () => {
     const r = findVortices(f, { boundary: "open" });
     expect(r.vortices).toBe(1);
     expect(r.antivortices).toBe(1);
-    const v = r.sites.find((s) => s.winding === 1)!, a = r.sites.find((s) => s.winding === -1)!;
+    const v = r.sites.find((s) => s.winding === 1)!,
+      a = r.sites.find((s) => s.winding === -1)!;
     expect(Math.abs(v.x - 15.3 * nm)).toBeLessThan(0.5 * nm);
     expect(Math.abs(v.y - 20.6 * nm)).toBeLessThan(0.5 * nm);
     expect(Math.abs(a.x - 44.2 * nm)).toBeLessThan(0.5 * nm);
@@ -24,40 +25,55 @@ describe("vortices and antivortices by plaquette winding", () => {
   it("core polarities are reported and meron charges follow Q = v p / 2", async () => {
     // Source: meron charge v p / 2 from Q = (v/2)[cos T(0) - cos T(inf)] with T(inf) = pi/2 (derivation in objects.ts).
     const { skyrmionNumber } = await import("../../../lib/src/topology/skyrmionNumber.js");
-    const f = vortexPairTexture({ nx: 160, ny: 100 }, { vortex: [50.3 * nm, 50.4 * nm], antivortex: [110.2 * nm, 50.1 * nm], coreRadius: 4 * nm, vortexPolarity: 1, antivortexPolarity: -1 });
+    const f = vortexPairTexture(
+      { nx: 160, ny: 100 },
+      { vortex: [50.3 * nm, 50.4 * nm], antivortex: [110.2 * nm, 50.1 * nm], coreRadius: 4 * nm, vortexPolarity: 1, antivortexPolarity: -1 },
+    );
     const r = findVortices(f, { boundary: "open" });
     expect(r.sites.find((s) => s.winding === 1)!.mz).toBeGreaterThan(0.5);
     expect(r.sites.find((s) => s.winding === -1)!.mz).toBeLessThan(-0.5);
     // (1 * 1 + (-1) * (-1)) / 2 = 1, up to the in-plane far field cut by the open box
     expect(Math.abs(skyrmionNumber(f, { boundary: "open" }).Q - 1)).toBeLessThan(0.02);
-    const same = vortexPairTexture({ nx: 160, ny: 100 }, { vortex: [50.3 * nm, 50.4 * nm], antivortex: [110.2 * nm, 50.1 * nm], coreRadius: 4 * nm, vortexPolarity: 1, antivortexPolarity: 1 });
+    const same = vortexPairTexture(
+      { nx: 160, ny: 100 },
+      { vortex: [50.3 * nm, 50.4 * nm], antivortex: [110.2 * nm, 50.1 * nm], coreRadius: 4 * nm, vortexPolarity: 1, antivortexPolarity: 1 },
+    );
     expect(Math.abs(skyrmionNumber(same, { boundary: "open" }).Q)).toBeLessThan(0.02);
   });
 
   it("windings add up to 0 on a closed lattice (random in-plane fields, both lattice kinds)", () => {
     // Source: on a torus every edge difference enters two plaquettes with opposite signs (common practice, no source).
-    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), fc.boolean(), (seed, tri) => {
-      const rnd = mulberry32(seed);
-      const m = Float64Array.from({ length: 3 * 12 * 10 }, (_, k) => (k % 3 === 2 ? 0 : rnd() * 2 - 1));
-      // every site has a direction here: the noise (4) and zero-line (5) rules are off to test the plaquette bookkeeping
-      const r = findVortices(vectorFieldFromInterleaved(m, { nx: 12, ny: 10, lattice: tri ? "triangular" : "square" }), { noise: 0, zeroLineAngle: Math.PI });
-      expect(r.totalWinding).toBe(0);
-      // with the rules on, what they take out is booked with the background: the torus total stays 0
-      const on = findVortices(vectorFieldFromInterleaved(m, { nx: 12, ny: 10, lattice: tri ? "triangular" : "square" }));
-      if (on.backgroundWinding !== null) expect(on.totalWinding + on.backgroundWinding).toBe(0);
-      expect(r.vortices + r.antivortices).toBe(r.sites.length);
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.boolean(), (seed, tri) => {
+        const rnd = mulberry32(seed);
+        const m = Float64Array.from({ length: 3 * 12 * 10 }, (_, k) => (k % 3 === 2 ? 0 : rnd() * 2 - 1));
+        // every site has a direction here: the noise (4) and zero-line (5) rules are off to test the plaquette bookkeeping
+        const r = findVortices(vectorFieldFromInterleaved(m, { nx: 12, ny: 10, lattice: tri ? "triangular" : "square" }), { noise: 0, zeroLineAngle: Math.PI });
+        expect(r.totalWinding).toBe(0);
+        // with the rules on, what they take out is booked with the background: the torus total stays 0
+        const on = findVortices(vectorFieldFromInterleaved(m, { nx: 12, ny: 10, lattice: tri ? "triangular" : "square" }));
+        if (on.backgroundWinding !== null) expect(on.totalWinding + on.backgroundWinding).toBe(0);
+        expect(r.vortices + r.antivortices).toBe(r.sites.length);
+      }),
+      { numRuns: 40 },
+    );
   });
 
   it("a vortex of winding 2 (seen as two unit windings in neighbouring plaquettes) and a vortex on a triangular lattice", () => {
     // Source: Phi = 2 atan2(y, x) winds twice (Mermin 1979). Four wrapped steps, each < pi, sum to less than 4 pi,
     // so one square plaquette holds |w| <= 1 and the winding-2 defect spreads over neighbouring plaquettes.
     const g = { nx: 30, ny: 30, dx: nm };
-    const f = vectorFieldFromFunction(g, (x, y) => { const p = 2 * Math.atan2(y - 15.4 * nm, x - 14.7 * nm); return [Math.cos(p), Math.sin(p), 0]; });
+    const f = vectorFieldFromFunction(g, (x, y) => {
+      const p = 2 * Math.atan2(y - 15.4 * nm, x - 14.7 * nm);
+      return [Math.cos(p), Math.sin(p), 0];
+    });
     const r = findVortices(f, { boundary: "open" });
     expect(r.sites.reduce((s, x) => s + x.winding, 0)).toBe(2);
     for (const x of r.sites) expect(Math.hypot(x.x - 14.7 * nm, x.y - 15.4 * nm)).toBeLessThan(1.5 * nm);
-    const t = vectorFieldFromFunction({ ...g, lattice: "triangular" }, (x, y) => { const p = Math.atan2(y - 12.2 * nm, x - 20.1 * nm); return [Math.cos(p), Math.sin(p), 0]; });
+    const t = vectorFieldFromFunction({ ...g, lattice: "triangular" }, (x, y) => {
+      const p = Math.atan2(y - 12.2 * nm, x - 20.1 * nm);
+      return [Math.cos(p), Math.sin(p), 0];
+    });
     const rt = findVortices(t, { boundary: "open" });
     expect(rt.sites.length).toBe(1);
     expect(Math.hypot(rt.sites[0]!.x - 20.1 * nm, rt.sites[0]!.y - 12.2 * nm)).toBeLessThan(0.6 * nm);
@@ -83,14 +99,21 @@ import type { VectorField } from "../../../lib/src/topology/field.js";
  * square grid of 1 nm cells. Centres in cells.
  */
 function analyticSkyrmions(nx: number, ny: number, centres: Array<[number, number]>, opts: { v?: number; gamma?: number; Rc?: number; periodic?: boolean } = {}): VectorField {
-  const v = opts.v ?? 1, gamma = opts.gamma ?? 0, Rc = opts.Rc ?? 8;
+  const v = opts.v ?? 1,
+    gamma = opts.gamma ?? 0,
+    Rc = opts.Rc ?? 8;
   return vectorFieldFromFunction({ nx, ny, dx: nm }, (x, y) => {
     for (const [cx, cy] of centres) {
-      let X = x / nm - cx, Y = y / nm - cy;
-      if (opts.periodic) { X -= nx * Math.round(X / nx); Y -= ny * Math.round(Y / ny); }
+      let X = x / nm - cx,
+        Y = y / nm - cy;
+      if (opts.periodic) {
+        X -= nx * Math.round(X / nx);
+        Y -= ny * Math.round(Y / ny);
+      }
       const rho = Math.hypot(X, Y);
       if (rho < Rc) {
-        const theta = Math.PI * (1 - rho / Rc), phi = v * Math.atan2(Y, X) + gamma;
+        const theta = Math.PI * (1 - rho / Rc),
+          phi = v * Math.atan2(Y, X) + gamma;
         return [Math.cos(phi) * Math.sin(theta), Math.sin(phi) * Math.sin(theta), Math.cos(theta)];
       }
     }
@@ -137,13 +160,18 @@ print(json.dumps(res))
 
 describe("cores on lattice sites, background regions", () => {
   const rnd = mulberry32(20240611);
-  const randomOffsets: Array<[number, number]> = [[rnd(), rnd()], [rnd(), rnd()]];
+  const randomOffsets: Array<[number, number]> = [
+    [rnd(), rnd()],
+    [rnd(), rnd()],
+  ];
   const offsets: Array<[string, [number, number]]> = [
-    ["on a site", [0, 0]], ["at a half-site offset", [0.5, 0.5]],
+    ["on a site", [0, 0]],
+    ["at a half-site offset", [0.5, 0.5]],
     ...randomOffsets.map((o, k): [string, [number, number]] => [`at random offset ${k}`, o]),
   ];
   const kinds = [
-    { name: "Neel skyrmion", v: 1, gamma: 0 }, { name: "Bloch skyrmion", v: 1, gamma: Math.PI / 2 },
+    { name: "Neel skyrmion", v: 1, gamma: 0 },
+    { name: "Bloch skyrmion", v: 1, gamma: Math.PI / 2 },
     { name: "antiskyrmion", v: -1, gamma: 0.3 },
   ];
 
@@ -152,7 +180,8 @@ describe("cores on lattice sites, background regions", () => {
       it(`${kind.name} ${label}: exactly one defect of winding v`, () => {
         // Source: the in-plane winding of m = (cos phi sin theta, sin phi sin theta, cos theta) with
         // phi = v alpha + gamma around the core is v (common practice; Mermin 1979 for the winding).
-        const cx = 24 + ox, cy = 23 + oy;
+        const cx = 24 + ox,
+          cy = 23 + oy;
         for (const boundary of ["open", "periodic"] as const) {
           const f = analyticSkyrmions(48, 46, [[cx, cy]], { v: kind.v, gamma: kind.gamma, periodic: boundary === "periodic" });
           const r = findVortices(f, { boundary });
@@ -178,12 +207,25 @@ describe("cores on lattice sites, background regions", () => {
 
   it("three skyrmions with cores on sites, periodic: three vortices, the background balances them", () => {
     // Source: winding v = 1 per core (as above); the torus sum 0 (common practice, no source).
-    const f = analyticSkyrmions(96, 96, [[20, 20], [70, 25], [45, 70]], { periodic: true });
+    const f = analyticSkyrmions(
+      96,
+      96,
+      [
+        [20, 20],
+        [70, 25],
+        [45, 70],
+      ],
+      { periodic: true },
+    );
     const r = findVortices(f, { boundary: "periodic" });
     expect(r.vortices).toBe(3);
     expect(r.antivortices).toBe(0);
     expect(r.sites.every((s) => s.coreSites === 1 && s.winding === 1)).toBe(true);
-    expect(r.sites.map((s) => [s.i, s.j]).sort((a, b) => a[0]! - b[0]!)).toEqual([[20, 20], [45, 70], [70, 25]]);
+    expect(r.sites.map((s) => [s.i, s.j]).sort((a, b) => a[0]! - b[0]!)).toEqual([
+      [20, 20],
+      [45, 70],
+      [70, 25],
+    ]);
     expect(r.backgroundWinding).toBe(-3);
     expect(r.backgroundRegions).toBe(1);
   });
@@ -194,7 +236,8 @@ describe("cores on lattice sites, background regions", () => {
     const r = findVortices(f, { boundary: "open" });
     expect(r.vortices).toBe(1);
     expect(r.antivortices).toBe(1);
-    const v = r.sites.find((s) => s.winding === 1)!, a = r.sites.find((s) => s.winding === -1)!;
+    const v = r.sites.find((s) => s.winding === 1)!,
+      a = r.sites.find((s) => s.winding === -1)!;
     expect([v.i, v.j, v.coreSites]).toEqual([15, 20, 1]);
     expect([a.i, a.j, a.coreSites]).toEqual([44, 18, 1]);
     expect(v.mz).toBeCloseTo(1, 9);
@@ -221,7 +264,8 @@ describe("cores on lattice sites, background regions", () => {
     expect(rs.backgroundWinding).toBe(0);
     // an in-plane vortex whose core is exactly +z on every site within 2.5 cells: one core of 21 sites
     const flat = vectorFieldFromFunction({ nx: 30, ny: 30, dx: nm }, (x, y) => {
-      const X = x / nm - 15, Y = y / nm - 14;
+      const X = x / nm - 15,
+        Y = y / nm - 14;
       if (Math.hypot(X, Y) < 2.5) return [0, 0, 1];
       const p = Math.atan2(Y, X) + 0.7;
       return [Math.cos(p), Math.sin(p), 0];
@@ -237,39 +281,64 @@ describe("cores on lattice sites, background regions", () => {
   it("an isolated site without direction: its core winding is the sum of the four plaquettes it replaces, and the torus total stays 0", () => {
     // Source: the border of the four plaquettes around a site is its ring of 8 neighbours; the inner
     // edges cancel, so the ring winding is their sum for any direction at the centre (common practice, no source).
-    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 0, max: 11 }), fc.integer({ min: 0, max: 9 }), (seed, si, sj) => {
-      const r0 = mulberry32(seed);
-      const nx = 12, ny = 10;
-      const m = Float64Array.from({ length: 3 * nx * ny }, (_, q) => (q % 3 === 2 ? 0 : r0() * 2 - 1));
-      const c = sj * nx + si;
-      const zeroed = Float64Array.from(m);
-      zeroed[3 * c] = 0; zeroed[3 * c + 1] = 0; zeroed[3 * c + 2] = 1;
-      // bookkeeping of rule 3 alone: random directions, so the noise (4) and zero-line (5) rules are off
-      const raw = { noise: 0, zeroLineAngle: Math.PI };
-      const full = findVortices(vectorFieldFromInterleaved(m, { nx, ny }), raw);
-      const cut = findVortices(vectorFieldFromInterleaved(zeroed, { nx, ny }), raw);
-      const touches = (s: { i: number; j: number }) => (s.i === si || s.i === (si + nx - 1) % nx) && (s.j === sj || s.j === (sj + ny - 1) % ny);
-      const around = full.sites.filter(touches).reduce((t, s) => t + s.winding, 0);
-      const core = cut.sites.filter((s) => s.coreSites > 0);
-      expect(core.reduce((t, s) => t + s.winding, 0)).toBe(around);
-      expect(core.every((s) => s.i === si && s.j === sj)).toBe(true);
-      const key = (s: { i: number; j: number; winding: number }) => `${s.i},${s.j},${s.winding}`;
-      expect(cut.sites.filter((s) => s.coreSites === 0).map(key).sort()).toEqual(full.sites.filter((s) => !touches(s)).map(key).sort());
-      expect(cut.totalWinding + cut.backgroundWinding!).toBe(0);
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 0, max: 11 }), fc.integer({ min: 0, max: 9 }), (seed, si, sj) => {
+        const r0 = mulberry32(seed);
+        const nx = 12,
+          ny = 10;
+        const m = Float64Array.from({ length: 3 * nx * ny }, (_, q) => (q % 3 === 2 ? 0 : r0() * 2 - 1));
+        const c = sj * nx + si;
+        const zeroed = Float64Array.from(m);
+        zeroed[3 * c] = 0;
+        zeroed[3 * c + 1] = 0;
+        zeroed[3 * c + 2] = 1;
+        // bookkeeping of rule 3 alone: random directions, so the noise (4) and zero-line (5) rules are off
+        const raw = { noise: 0, zeroLineAngle: Math.PI };
+        const full = findVortices(vectorFieldFromInterleaved(m, { nx, ny }), raw);
+        const cut = findVortices(vectorFieldFromInterleaved(zeroed, { nx, ny }), raw);
+        const touches = (s: { i: number; j: number }) => (s.i === si || s.i === (si + nx - 1) % nx) && (s.j === sj || s.j === (sj + ny - 1) % ny);
+        const around = full.sites.filter(touches).reduce((t, s) => t + s.winding, 0);
+        const core = cut.sites.filter((s) => s.coreSites > 0);
+        expect(core.reduce((t, s) => t + s.winding, 0)).toBe(around);
+        expect(core.every((s) => s.i === si && s.j === sj)).toBe(true);
+        const key = (s: { i: number; j: number; winding: number }) => `${s.i},${s.j},${s.winding}`;
+        expect(
+          cut.sites
+            .filter((s) => s.coreSites === 0)
+            .map(key)
+            .sort(),
+        ).toEqual(
+          full.sites
+            .filter((s) => !touches(s))
+            .map(key)
+            .sort(),
+        );
+        expect(cut.totalWinding + cut.backgroundWinding!).toBe(0);
+      }),
+      { numRuns: 40 },
+    );
   });
 
   it("random clusters of sites without direction on a torus: totalWinding + backgroundWinding = 0 (both lattice kinds)", () => {
     // Source: on a torus every edge enters two loops with opposite signs (common practice, no source).
-    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), fc.boolean(), (seed, tri) => {
-      const r0 = mulberry32(seed);
-      const nx = 14, ny = 12;
-      const m = Float64Array.from({ length: 3 * nx * ny }, (_, q) => (q % 3 === 2 ? 0 : r0() * 2 - 1));
-      for (let c = 0; c < nx * ny; c++) if (r0() < 0.25) { m[3 * c] = 0; m[3 * c + 1] = 1e-5 * r0(); m[3 * c + 2] = r0() < 0.5 ? 1 : -1; }
-      const r = findVortices(vectorFieldFromInterleaved(m, { nx, ny, lattice: tri ? "triangular" : "square" }));
-      expect(r.totalWinding + r.backgroundWinding!).toBe(0);
-      expect(r.vortices + r.antivortices).toBe(r.sites.length);
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.boolean(), (seed, tri) => {
+        const r0 = mulberry32(seed);
+        const nx = 14,
+          ny = 12;
+        const m = Float64Array.from({ length: 3 * nx * ny }, (_, q) => (q % 3 === 2 ? 0 : r0() * 2 - 1));
+        for (let c = 0; c < nx * ny; c++)
+          if (r0() < 0.25) {
+            m[3 * c] = 0;
+            m[3 * c + 1] = 1e-5 * r0();
+            m[3 * c + 2] = r0() < 0.5 ? 1 : -1;
+          }
+        const r = findVortices(vectorFieldFromInterleaved(m, { nx, ny, lattice: tri ? "triangular" : "square" }));
+        expect(r.totalWinding + r.backgroundWinding!).toBe(0);
+        expect(r.vortices + r.antivortices).toBe(r.sites.length);
+      }),
+      { numRuns: 40 },
+    );
   });
 
   it("counts agree with a numpy oracle (degree of the bilinear interpolant on a quarter-cell shifted grid)", () => {
@@ -279,21 +348,42 @@ describe("cores on lattice sites, background regions", () => {
     for (const kind of kinds) {
       for (const [, [ox, oy]] of offsets) cases.push({ field: analyticSkyrmions(40, 40, [[20 + ox, 19 + oy]], { v: kind.v, gamma: kind.gamma }), periodic: false });
     }
-    cases.push({ field: analyticSkyrmions(96, 96, [[20, 20], [70, 25], [45, 70]], { periodic: true }), periodic: true });
-    cases.push({ field: vortexPairTexture({ nx: 60, ny: 40 }, { vortex: [15 * nm, 20 * nm], antivortex: [44 * nm, 18 * nm], coreRadius: 2 * nm, vortexPolarity: 1, antivortexPolarity: -1 }), periodic: false });
+    cases.push({
+      field: analyticSkyrmions(
+        96,
+        96,
+        [
+          [20, 20],
+          [70, 25],
+          [45, 70],
+        ],
+        { periodic: true },
+      ),
+      periodic: true,
+    });
+    cases.push({
+      field: vortexPairTexture({ nx: 60, ny: 40 }, { vortex: [15 * nm, 20 * nm], antivortex: [44 * nm, 18 * nm], coreRadius: 2 * nm, vortexPolarity: 1, antivortexPolarity: -1 }),
+      periodic: false,
+    });
     // an in-plane film with five vortices and antivortices at random places, three snapped onto sites
     const r1 = mulberry32(7);
     const defects = Array.from({ length: 5 }, (_, q) => {
-      let x = 8 + q * 11 + r1() * 3, y = 8 + r1() * 30;
-      if (q % 2 === 0) { x = Math.round(x); y = Math.round(y); }
+      let x = 8 + q * 11 + r1() * 3,
+        y = 8 + r1() * 30;
+      if (q % 2 === 0) {
+        x = Math.round(x);
+        y = Math.round(y);
+      }
       return { x, y, s: q % 3 === 1 ? -1 : 1 };
     });
     cases.push({
       periodic: false,
       field: vectorFieldFromFunction({ nx: 66, ny: 46, dx: nm }, (x, y) => {
-        let p = 0, amp = 1;
+        let p = 0,
+          amp = 1;
         for (const d of defects) {
-          const X = x / nm - d.x, Y = y / nm - d.y;
+          const X = x / nm - d.x,
+            Y = y / nm - d.y;
           p += d.s * Math.atan2(Y, X);
           amp *= Math.tanh(Math.hypot(X, Y) / 2);
         }
@@ -388,7 +478,8 @@ print(json.dumps({"sat": sat.reshape(-1).tolist(), "vort": vn.reshape(-1).tolist
     const f = textureFromInputs(v);
     const r = findVortices(f, { boundary: "open" });
     // numpy: winding of m_xy on circles of radius 0.25 R and 0.75 R about the centre (inside the inner ring, R_inner = R / 2, and between the rings)
-    const o = runPython<{ w: number[] }>(`
+    const o = runPython<{ w: number[] }>(
+      `
 import json, sys
 import numpy as np
 d = json.load(sys.stdin); n = d["n"]; m = np.array(d["m"]).reshape(n, n, 3)
@@ -403,7 +494,9 @@ for rad in d["radii"]:
     ph = np.unwrap(np.arctan2(bil(m[..., 1]), bil(m[..., 0])))
     out.append(int(round((ph[-1] - ph[0]) / (2 * np.pi))))
 print(json.dumps({"w": out}))
-`, { n: f.nx, m: Array.from(f.m), centre: null, radii: [0.25 * v.R! / v.cell!, 0.75 * v.R! / v.cell!] });
+`,
+      { n: f.nx, m: Array.from(f.m), centre: null, radii: [(0.25 * v.R!) / v.cell!, (0.75 * v.R!) / v.cell!] },
+    );
     expect(o.w[0]).toBe(1);
     const centreVortices = r.sites.filter((s) => s.winding === 1);
     expect(r.vortices).toBe(o.w[0]);

@@ -68,7 +68,12 @@ describe("360-degree-wall ansatz skyrmion", () => {
     const E = (R: number, w: number) => skyrmionEnergy(film, B, ansatzProfile(R, w), { helicity: s.helicity }).total;
     const e0 = E(s.radius, s.wallWidth);
     expect(e0 / s.energy.total).toBeCloseTo(1, 4);
-    for (const [dr, dw] of [[1.03, 1], [0.97, 1], [1, 1.03], [1, 0.97]]) {
+    for (const [dr, dw] of [
+      [1.03, 1],
+      [0.97, 1],
+      [1, 1.03],
+      [1, 0.97],
+    ]) {
       expect(E(s.radius * dr!, s.wallWidth * dw!)).toBeGreaterThan(e0);
     }
   });

@@ -57,7 +57,11 @@ function randomCases(n: number, seed: number): Case[] {
     const B = -0.1 + r() * 1.1;
     const probe = makeFilm({ Ms, A, Ku, D: 1e-3, t: tau * Delta });
     const D = sign * ratio * criticalDmi(probe);
-    out.push({ film: makeFilm({ Ms, A, Ku, D, t: tau * Delta }), B, label: `#${i} Q=${Q.toFixed(2)} t/Delta=${tau.toFixed(2)} D/Dc=${(sign * ratio).toFixed(2)} B=${B.toFixed(3)} T` });
+    out.push({
+      film: makeFilm({ Ms, A, Ku, D, t: tau * Delta }),
+      B,
+      label: `#${i} Q=${Q.toFixed(2)} t/Delta=${tau.toFixed(2)} D/Dc=${(sign * ratio).toFixed(2)} B=${B.toFixed(3)} T`,
+    });
   }
   return out;
 }
@@ -145,7 +149,10 @@ describe("ansatz minima over 50 random films", () => {
           const u = UMIN + ((UMAX - UMIN) * i) / (nu - 1);
           const lw = WLO + ((WHI - WLO) * j) / (nw - 1);
           const found = s.minima.some((m) => Math.abs(Math.log(m.radius / m.wallWidth) - u) < 2 * du && Math.abs(Math.log(m.wallWidth / Delta) - lw) < 2 * dw);
-          expect(found, `${c.label}: grid minimum at R/w = ${Math.exp(u).toPrecision(4)}, w/Delta = ${Math.exp(lw).toPrecision(4)} not reported (reported: ${s.minima.map((m) => (m.radius / m.wallWidth).toPrecision(4)).join(", ")})`).toBe(true);
+          expect(
+            found,
+            `${c.label}: grid minimum at R/w = ${Math.exp(u).toPrecision(4)}, w/Delta = ${Math.exp(lw).toPrecision(4)} not reported (reported: ${s.minima.map((m) => (m.radius / m.wallWidth).toPrecision(4)).join(", ")})`,
+          ).toBe(true);
         }
       }
     }

@@ -19,7 +19,7 @@ describe("skyrmion energy functional", () => {
       const p = belavinPolyakov(R);
       // graded log panels: integrate exchange on [0, rhoMax]; the tail beyond contributes 8 pi A t * O(R^2 / rhoMax^2)
       const e = skyrmionEnergy(film, 0, { ...p, scale: R, rhoMax: 400 * R }, { nonlocal: false });
-      const tail = (8 * Math.PI * film.A * film.t) * (R * R) / (R * R + (400 * R) ** 2);
+      const tail = (8 * Math.PI * film.A * film.t * (R * R)) / (R * R + (400 * R) ** 2);
       expect(Math.abs((e.exchange + tail) / (8 * Math.PI * film.A * film.t) - 1)).toBeLessThan(1e-6);
     }
   });

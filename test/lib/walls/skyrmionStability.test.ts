@@ -51,7 +51,11 @@ print(json.dumps(out))
 describe("stability of the exact skyrmion against angular modes", () => {
   it("m = 1 has the translation zero mode, with eigenvector (-theta', sin theta / x)", () => {
     // Common practice, no source: translation invariance of the film makes -d m / dx a zero mode.
-    for (const [r, B] of [[0.5, 0.05], [0.9, 0.02], [1.1009, 0.1]] as const) {
+    for (const [r, B] of [
+      [0.5, 0.05],
+      [0.9, 0.02],
+      [1.1009, 0.1],
+    ] as const) {
       const f = makeFilm({ ...base, D: r * Dc });
       const s = skyrmionStability(f, B);
       expect(Math.abs(s.modes[1]!.eigenvalues[0]), `D/Dc ${r}`).toBeLessThan(1e-4);
@@ -74,7 +78,10 @@ describe("stability of the exact skyrmion against angular modes", () => {
   });
   it("eigenvalues agree with a finite-difference second derivative of the 2D energy on a grid (numpy), m = 0, 1, 2", () => {
     // Source: numpy evaluation of the 2D local-model energy (above), independent of the radial operator.
-    for (const [r, B] of [[0.9, 0.02], [1.1009, 0.05]] as const) {
+    for (const [r, B] of [
+      [0.9, 0.02],
+      [1.1009, 0.05],
+    ] as const) {
       const f = makeFilm({ ...base, D: r * Dc });
       const Delta = wallWidthParameter(f);
       const s = skyrmionStability(f, B);

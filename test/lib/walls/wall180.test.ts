@@ -27,7 +27,10 @@ const Delta = wallWidthParameter(film);
 
 /** 5-point central difference of a vector function of x. */
 function derivative(m: (x: number) => number[], x: number, h: number): number[] {
-  const a = m(x - 2 * h), b = m(x - h), c = m(x + h), d = m(x + 2 * h);
+  const a = m(x - 2 * h),
+    b = m(x - h),
+    c = m(x + h),
+    d = m(x + 2 * h);
   return a.map((_, i) => (a[i]! - 8 * b[i]! + 8 * c[i]! - d[i]!) / (12 * h));
 }
 
@@ -38,9 +41,11 @@ function derivative(m: (x: number) => number[], x: number, h: number): number[] 
  */
 function energyFunctional(f: Film, m: (x: number) => number[], span: number, n: number) {
   const K = effectiveAnisotropy(f);
-  const h = 2 * span / n;
+  const h = (2 * span) / n;
   const dh = span * 1e-5;
-  let ex = 0, an = 0, dmi = 0;
+  let ex = 0,
+    an = 0,
+    dmi = 0;
   for (let i = 0; i <= n; i++) {
     const x = -span + i * h;
     const w = i === 0 || i === n ? 0.5 : 1;
@@ -112,22 +117,28 @@ describe("180-degree wall energy", () => {
 
   it("the equilibrium width minimizes the energy of trial profiles", () => {
     // Trial family theta = 2 arctan(exp(x / delta)): golden-section search of the numerical energy.
-    const E = (delta: number) =>
-      energyFunctional(film, (x) => wallMagnetization(x, delta, 0), 40 * Math.max(delta, Delta), 6000).total;
-    let a = 0.3 * Delta, b = 3 * Delta;
+    const E = (delta: number) => energyFunctional(film, (x) => wallMagnetization(x, delta, 0), 40 * Math.max(delta, Delta), 6000).total;
+    let a = 0.3 * Delta,
+      b = 3 * Delta;
     const gr = (Math.sqrt(5) - 1) / 2;
     for (let i = 0; i < 60; i++) {
-      const c = b - gr * (b - a), d = a + gr * (b - a);
-      if (E(c) < E(d)) b = d; else a = c;
+      const c = b - gr * (b - a),
+        d = a + gr * (b - a);
+      if (E(c) < E(d)) b = d;
+      else a = c;
     }
     // Source: Hubert and Schaefer (1998): E(delta) = 2A/delta + 2 K_eff delta - pi D, minimal at delta = Delta.
     expect((a + b) / 2 / Delta).toBeCloseTo(1, 5);
     // A different family (erf ramp) cannot beat the exact profile.
     const erf = (z: number) => {
       // erf by the midpoint rule: any smooth ramp serves as a trial profile, exactness is not needed.
-      let s = 0; const n = 400;
-      for (let i = 0; i < n; i++) { const u = (i + 0.5) * z / n; s += Math.exp(-u * u); }
-      return (2 / Math.sqrt(Math.PI)) * s * z / n;
+      let s = 0;
+      const n = 400;
+      for (let i = 0; i < n; i++) {
+        const u = ((i + 0.5) * z) / n;
+        s += Math.exp(-u * u);
+      }
+      return ((2 / Math.sqrt(Math.PI)) * s * z) / n;
     };
     let bestErf = Infinity;
     for (const delta of [0.8, 1, 1.2, 1.4, 1.6].map((k) => k * Delta)) {
@@ -149,17 +160,21 @@ describe("width conventions", () => {
     expect(w.lilleyWidth).toBeCloseTo(Math.PI * Delta, 20);
     // Independent checks by bisection / quadrature on the sampled profile. Common practice, no source.
     const bisect = (g: (x: number) => number, lo: number, hi: number) => {
-      for (let i = 0; i < 200; i++) { const m = (lo + hi) / 2; if (g(lo) * g(m) <= 0) hi = m; else lo = m; }
+      for (let i = 0; i < 200; i++) {
+        const m = (lo + hi) / 2;
+        if (g(lo) * g(m) <= 0) hi = m;
+        else lo = m;
+      }
       return (lo + hi) / 2;
     };
     const mz = (x: number) => wallMagnetization(x, Delta, 0)[2];
     const inPlane = (x: number) => Math.hypot(wallMagnetization(x, Delta, 0)[0], wallMagnetization(x, Delta, 0)[1]);
-    expect(2 * bisect((x) => mz(x) + 0.8, 0, 10 * Delta) / w.mz10to90Width).toBeCloseTo(1, 12);
-    expect(2 * bisect((x) => inPlane(x) - 0.5, 0, 10 * Delta) / w.inPlaneFwhm).toBeCloseTo(1, 12);
+    expect((2 * bisect((x) => mz(x) + 0.8, 0, 10 * Delta)) / w.mz10to90Width).toBeCloseTo(1, 12);
+    expect((2 * bisect((x) => inPlane(x) - 0.5, 0, 10 * Delta)) / w.inPlaneFwhm).toBeCloseTo(1, 12);
     const h = 1e-4 * Delta;
     expect(2 / Math.abs((mz(h) - mz(-h)) / (2 * h)) / w.mzSlopeWidth).toBeCloseTo(1, 7);
     let integral = 0;
-    for (let x = -40 * Delta; x <= 40 * Delta; x += Delta / 20) integral += (1 - mz(x) ** 2) * Delta / 20;
+    for (let x = -40 * Delta; x <= 40 * Delta; x += Delta / 20) integral += ((1 - mz(x) ** 2) * Delta) / 20;
     expect(integral / w.integralWidth).toBeCloseTo(1, 10);
   });
   it("samples a profile for plots and refuses an in-plane film", () => {
@@ -207,7 +222,12 @@ print(json.dumps(out))`,
 
   it("minimizing over the helicity: Neel above D_N, intermediate below, Bloch without DMI or with bulk DMI", () => {
     const thinDN = (2 * Math.LN2 * mu0 * film.Ms ** 2 * film.t) / Math.PI ** 2; // From memory (lib/src/material/README.md).
-    for (const [D, expected] of [[0, "Bloch"], [0.5 * thinDN, "intermediate"], [1.01 * thinDN, "Neel"], [-3 * thinDN, "Neel"]] as const) {
+    for (const [D, expected] of [
+      [0, "Bloch"],
+      [0.5 * thinDN, "intermediate"],
+      [1.01 * thinDN, "Neel"],
+      [-3 * thinDN, "Neel"],
+    ] as const) {
       const f = makeFilm({ ...film, D });
       const w = equilibriumWall(f, "thin-film");
       expect(w.character).toBe(expected);

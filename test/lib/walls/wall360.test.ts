@@ -31,12 +31,18 @@ const Delta = wallWidthParameter(film);
 function energyFunctional(f: Film, m: (x: number) => number[], B: number, span: number, n: number) {
   const h = (2 * span) / n;
   const dh = 1e-5 * Delta;
-  let ex = 0, an = 0, ze = 0, dmi = 0;
+  let ex = 0,
+    an = 0,
+    ze = 0,
+    dmi = 0;
   for (let i = 0; i <= n; i++) {
     const x = -span + i * h + 1e-3 * h; // avoid sampling exactly at the centre kink-free point
     const wgt = i === 0 || i === n ? 0.5 : 1;
     const v = m(x);
-    const a = m(x - 2 * dh), b = m(x - dh), c = m(x + dh), d = m(x + 2 * dh);
+    const a = m(x - 2 * dh),
+      b = m(x - dh),
+      c = m(x + dh),
+      d = m(x + 2 * dh);
     const dv = v.map((_, k) => (a[k]! - 8 * b[k]! + 8 * c[k]! - d[k]!) / (12 * dh));
     ex += wgt * f.A * (dv[0]! ** 2 + dv[1]! ** 2 + dv[2]! ** 2);
     an += wgt * effectiveAnisotropy(f) * (1 - v[2]! ** 2);
@@ -62,7 +68,11 @@ describe("pair integral J(p)", () => {
 
 describe("360-degree wall ansatz energy", () => {
   it("closed form equals numerical integration of the energy functional (with DMI, both helicities)", () => {
-    for (const [R, w, B] of [[2 * Delta, Delta, 0.05], [0.4 * Delta, 0.5 * Delta, 0.3], [6 * Delta, 1.3 * Delta, 0.01]] as const) {
+    for (const [R, w, B] of [
+      [2 * Delta, Delta, 0.05],
+      [0.4 * Delta, 0.5 * Delta, 0.3],
+      [6 * Delta, 1.3 * Delta, 0.01],
+    ] as const) {
       for (const g of [0, Math.PI]) {
         const ours = wall360Energy(film, R, w, B, g);
         const num = energyFunctional(film, (x) => wall360Magnetization(x, R, w, g), B, R + 40 * w, 40000);

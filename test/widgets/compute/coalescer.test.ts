@@ -14,7 +14,10 @@ describe("coalescer", () => {
     const outcomes: ComputeOutcome[] = [];
     let resolve!: () => void;
     const done = new Promise<void>((r) => (resolve = r));
-    const c = new Coalescer((o) => { outcomes.push(o); if (!c.busy) resolve(); });
+    const c = new Coalescer((o) => {
+      outcomes.push(o);
+      if (!c.busy) resolve();
+    });
     expect(c.where).toBe("page");
     const Ku = [1.0e6, 1.1e6, 1.2e6, 1.3e6, 1.4e6, 1.5e6];
     for (const k of Ku) c.submit({ calculator: "test-wall-width", inputs: { Ms: 1.1e6, A: 1.5e-11, Ku: k }, sweep: null });
@@ -33,6 +36,9 @@ describe("coalescer", () => {
       c.submit({ calculator: "test-wall-width", inputs: { Ms: 2e6, A: 1.5e-11, Ku: 1e6 }, sweep: null });
     });
     expect(got.ok).toBe(false);
-    if (!got.ok) { expect(got.parameter).toBe("Ku"); expect(got.error).toContain("Ku"); }
+    if (!got.ok) {
+      expect(got.parameter).toBe("Ku");
+      expect(got.error).toContain("Ku");
+    }
   });
 });

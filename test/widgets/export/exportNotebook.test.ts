@@ -12,7 +12,8 @@ import { NotebookBuilder } from "../fixtures/notebook";
 const BUNDLE = "/*bundle*/window.__bundleRan = true; var s = '</script>';";
 
 function capture() {
-  let out = "", err = "";
+  let out = "",
+    err = "";
   return { io: { stdout: (s: string) => void (out += s), stderr: (s: string) => void (err += s) }, out: () => out, err: () => err };
 }
 
@@ -70,7 +71,12 @@ describe("helicoid export", () => {
   it("writes the page and leaves the notebook unchanged", async () => {
     const dir = mkdtempSync(join(tmpdir(), "helicoid-export-"));
     const nbPath = join(dir, "n.ipynb");
-    const text = JSON.stringify(new NotebookBuilder().markdown("# N").code("1", [{ output_type: "stream", name: "stdout", text: "1\n" }]).build());
+    const text = JSON.stringify(
+      new NotebookBuilder()
+        .markdown("# N")
+        .code("1", [{ output_type: "stream", name: "stdout", text: "1\n" }])
+        .build(),
+    );
     writeFileSync(nbPath, text);
     const c = capture();
     expect(await exportCommand([nbPath, "-o", join(dir, "p.html")], c.io)).toBe(0);

@@ -69,8 +69,22 @@ describe("explorer (kernel side)", () => {
   });
 
   it("explores a plain kernel function: computed in the kernel on each page change", () => {
-    function area(v: Record<string, number>) { return { area: v.w! * v.h! }; }
-    const ex = explore(area, {}, { describe: { inputs: [{ name: "w", default: 2, unit: "m" }, { name: "h", default: 3, unit: "m" }], outputs: [{ name: "area", unit: "m^2" }] } });
+    function area(v: Record<string, number>) {
+      return { area: v.w! * v.h! };
+    }
+    const ex = explore(
+      area,
+      {},
+      {
+        describe: {
+          inputs: [
+            { name: "w", default: 2, unit: "m" },
+            { name: "h", default: 3, unit: "m" },
+          ],
+          outputs: [{ name: "area", unit: "m^2" }],
+        },
+      },
+    );
     expect(ex.get("calculator")).toBe("");
     expect(ex.get("compute_in")).toBe("kernel");
     expect(ex.get("function_name")).toBe("area");

@@ -11,7 +11,15 @@ describe("axis units", () => {
     // Common practice, no source: R = 0.76 nm and w = 2.4 nm both in nm (not 760 pm beside 2.4 nm).
     expect(axisUnit([[0.76e-9], [2.4e-9]], "m")).toEqual(["nm", 1e-9]);
     expect(axisUnit([[0.3e-3, 0.1], [0.05]], "T")).toEqual(["mT", 1e-3]);
-    expect(axisUnit([[0.3, 2.2], [null, NaN]], "T")).toEqual(["T", 1]);
+    expect(
+      axisUnit(
+        [
+          [0.3, 2.2],
+          [null, NaN],
+        ],
+        "T",
+      ),
+    ).toEqual(["T", 1]);
     expect(axisUnit([[NaN]], "m")[1]).toBe(1);
   });
   it("titles are symbols with one unit", () => {
@@ -54,7 +62,15 @@ describe("axis units", () => {
   it("says so when no state exists anywhere on a curve", () => {
     const spec = getCalculator("easy-plane");
     const r = runCalculator(spec, {});
-    const broken = { ...r, outputs: { ...r.outputs, szSweep: { ...r.outputs.szSweep!, value: (r.outputs.szSweep!.value as number[]).map(() => NaN) }, szRotorSweep: { ...r.outputs.szRotorSweep!, value: [NaN] }, groundMSweep: { ...r.outputs.groundMSweep!, value: [NaN] } } };
+    const broken = {
+      ...r,
+      outputs: {
+        ...r.outputs,
+        szSweep: { ...r.outputs.szSweep!, value: (r.outputs.szSweep!.value as number[]).map(() => NaN) },
+        szRotorSweep: { ...r.outputs.szRotorSweep!, value: [NaN] },
+        groundMSweep: { ...r.outputs.groundMSweep!, value: [NaN] },
+      },
+    };
     const fig = plotFigure(spec.plots[0]!, spec.outputs, broken);
     expect(fig.data).toHaveLength(0);
     expect(fig.problem).toMatch(/no state exists/);

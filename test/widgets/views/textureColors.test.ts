@@ -8,8 +8,19 @@
  */
 import { describe, it, expect } from "vitest";
 import {
-  fillColours, fillCharge, chargeDensity, total, arrowStep, divergingMsh, divergingTable, niceTicks, scaleBarLength,
-  COOL_WARM_ENDS, CHARGE_ENDS, MZ_TABLE, CHARGE_TABLE,
+  fillColours,
+  fillCharge,
+  chargeDensity,
+  total,
+  arrowStep,
+  divergingMsh,
+  divergingTable,
+  niceTicks,
+  scaleBarLength,
+  COOL_WARM_ENDS,
+  CHARGE_ENDS,
+  MZ_TABLE,
+  CHARGE_TABLE,
 } from "../../../widgets/src/views/textureColors";
 import { labelPieces, tickLabel, fixed } from "../../../widgets/src/views/texturePicture";
 import { runPython } from "../../helpers/python";
@@ -99,8 +110,16 @@ describe("m_z colour map: Moreland's cool to warm diverging map", () => {
     expect(niceTicks(-0.01, 0.01, 4)).toEqual([-0.01, -0.005, 0, 0.005, 0.01]);
     expect(scaleBarLength(8)).toBe(5);
     expect(scaleBarLength(32)).toBe(20);
-    expect(labelPieces("ρ_Q (nm⁻²)")).toEqual([{ text: "ρ", sub: false }, { text: "Q", sub: true }, { text: " (nm⁻²)", sub: false }]);
-    expect(labelPieces("|m_{xy}|")).toEqual([{ text: "|m", sub: false }, { text: "xy", sub: true }, { text: "|", sub: false }]);
+    expect(labelPieces("ρ_Q (nm⁻²)")).toEqual([
+      { text: "ρ", sub: false },
+      { text: "Q", sub: true },
+      { text: " (nm⁻²)", sub: false },
+    ]);
+    expect(labelPieces("|m_{xy}|")).toEqual([
+      { text: "|m", sub: false },
+      { text: "xy", sub: true },
+      { text: "|", sub: false },
+    ]);
     expect(tickLabel(-0)).toBe("0");
     expect(tickLabel(-0.5)).toBe("−0.5");
     expect(fixed(-0.0001, 3)).toBe("0.000");

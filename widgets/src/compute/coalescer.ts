@@ -61,7 +61,10 @@ export class Coalescer {
   /** Where jobs run: "worker" or "page" (the page also when the worker failed). */
   where: "worker" | "page";
 
-  constructor(private readonly sink: Sink, useWorker = true) {
+  constructor(
+    private readonly sink: Sink,
+    useWorker = true,
+  ) {
     this.where = useWorker && workerPossible() ? "worker" : "page";
     if (this.where === "worker") sinks.set(this.channel, (o) => this.done(o));
     live.add(this);

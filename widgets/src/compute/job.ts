@@ -19,6 +19,4 @@ export interface ComputeJob {
   noSweep?: boolean;
 }
 
-export type ComputeOutcome =
-  | { seq: number; ok: true; result: CalculatorResult; ms: number }
-  | { seq: number; ok: false; error: string; parameter?: string; ms: number };
+export type ComputeOutcome = { seq: number; ok: true; result: CalculatorResult; ms: number } | { seq: number; ok: false; error: string; parameter?: string; ms: number };

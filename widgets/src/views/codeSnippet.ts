@@ -27,9 +27,7 @@ export function codeSnippet(options: {
     const choice = i.kind === "choice" ? i.choices?.find((c) => c.value === v) : undefined;
     return choice ? JSON.stringify(choice.label) : quantityLiteral(v, i.unit);
   };
-  const body = inputs
-    .map((i) => `  ${/^[A-Za-z_$][\w$]*$/.test(i.name) ? i.name : JSON.stringify(i.name)}: ${literal(i, values[i.name] ?? i.default)},`)
-    .join("\n");
+  const body = inputs.map((i) => `  ${/^[A-Za-z_$][\w$]*$/.test(i.name) ? i.name : JSON.stringify(i.name)}: ${literal(i, values[i.name] ?? i.default)},`).join("\n");
   const unitOf = (name: string) => inputs.find((i) => i.name === name)?.unit ?? "";
   const sweepText = sweep
     ? `, {\n  sweep: { over: ${JSON.stringify(sweep.over)}, from: ${quantityLiteral(sweep.from, unitOf(sweep.over))}, to: ${quantityLiteral(sweep.to, unitOf(sweep.over))}, points: ${sweep.points} },\n}`

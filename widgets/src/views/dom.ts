@@ -24,7 +24,9 @@ export async function copyText(text: string): Promise<boolean> {
       await navigator.clipboard.writeText(text);
       return true;
     }
-  } catch { /* fall through */ }
+  } catch {
+    /* fall through */
+  }
   try {
     const area = document.createElement("textarea");
     area.value = text;

@@ -50,7 +50,9 @@ export function addExportButtons(gd: HTMLElement, name: string): void {
   const button = (format: "svg" | "png") => {
     const b = el("button", { class: `hx-button hx-export-${format}`, text: format.toUpperCase(), title: `Download this plot as ${format.toUpperCase()} at the size given` });
     b.addEventListener("click", async () => {
-      const wc = Number(w.value), hc = Number(h.value), d = Number(dpi.value);
+      const wc = Number(w.value),
+        hc = Number(h.value),
+        d = Number(dpi.value);
       if (!(wc >= 1 && wc <= 60 && hc >= 1 && hc <= 60 && d >= 72 && d <= 2400)) {
         message.textContent = `size ${w.value} x ${h.value} cm at ${dpi.value} dpi: expected 1-60 cm and 72-2400 dpi`;
         return;
@@ -66,6 +68,17 @@ export function addExportButtons(gd: HTMLElement, name: string): void {
     });
     return b;
   };
-  bar.append(el("span", { text: "Export " }), w, el("span", { text: " × " }), h, el("span", { text: " cm, " }), dpi, el("span", { text: " dpi " }), button("svg"), button("png"), message);
+  bar.append(
+    el("span", { text: "Export " }),
+    w,
+    el("span", { text: " × " }),
+    h,
+    el("span", { text: " cm, " }),
+    dpi,
+    el("span", { text: " dpi " }),
+    button("svg"),
+    button("png"),
+    message,
+  );
   gd.after(bar);
 }

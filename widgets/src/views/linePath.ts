@@ -16,7 +16,11 @@ export interface AxisMap {
   log: boolean;
 }
 
-interface PlotlyAxis { range?: number[]; _length?: number; type?: string }
+interface PlotlyAxis {
+  range?: number[];
+  _length?: number;
+  type?: string;
+}
 
 /** The SVG path of a polyline through (x, y), broken at gaps (null or non-finite), or "" if empty. */
 export function linePath(x: ArrayLike<number>, y: ArrayLike<number | null>, xa: AxisMap, ya: AxisMap): string {
@@ -30,7 +34,10 @@ export function linePath(x: ArrayLike<number>, y: ArrayLike<number | null>, xa: 
     let yv = y[i];
     if (xa.log) xv = xv > 0 ? Math.log10(xv) : NaN;
     if (yv !== null && ya.log) yv = yv > 0 ? Math.log10(yv) : NaN;
-    if (yv === null || !Number.isFinite(xv) || !Number.isFinite(yv)) { pen = false; continue; }
+    if (yv === null || !Number.isFinite(xv) || !Number.isFinite(yv)) {
+      pen = false;
+      continue;
+    }
     const px = Math.round((xv - xa.range[0]) * sx * 100) / 100;
     const py = Math.round((ya.range[1] - yv) * sy * 100) / 100;
     parts.push(`${pen ? "L" : "M"}${px},${py}`);
@@ -53,7 +60,8 @@ function axisMap(a: PlotlyAxis | undefined): AxisMap | null {
  */
 export function swapLineData(gd: HTMLElement, traces: Array<{ x: ArrayLike<number>; y: ArrayLike<number | null>; mode?: unknown }>): boolean {
   const full = (gd as unknown as { _fullLayout?: { xaxis?: PlotlyAxis; yaxis?: PlotlyAxis } })._fullLayout;
-  const xa = axisMap(full?.xaxis), ya = axisMap(full?.yaxis);
+  const xa = axisMap(full?.xaxis),
+    ya = axisMap(full?.yaxis);
   if (!xa || !ya) return false;
   if (traces.some((t) => t.mode !== "lines")) return false;
   const groups = gd.querySelectorAll(".scatterlayer > .trace");
@@ -66,6 +74,8 @@ export function swapLineData(gd: HTMLElement, traces: Array<{ x: ArrayLike<numbe
   }
   const ds = traces.map((t) => linePath(t.x, t.y, xa, ya));
   if (ds.some((d) => d === "")) return false;
-  ds.forEach((d, k) => { if (paths[k]!.getAttribute("d") !== d) paths[k]!.setAttribute("d", d); });
+  ds.forEach((d, k) => {
+    if (paths[k]!.getAttribute("d") !== d) paths[k]!.setAttribute("d", d);
+  });
   return true;
 }

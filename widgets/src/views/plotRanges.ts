@@ -9,7 +9,8 @@
 
 /** Finite extent of the values (positive values only on a log axis), in axis units; null if none. */
 export function dataExtent(values: ArrayLike<number | null>, log: boolean): [number, number] | null {
-  let lo = Infinity, hi = -Infinity;
+  let lo = Infinity,
+    hi = -Infinity;
   for (let i = 0; i < values.length; i++) {
     const raw = values[i];
     if (raw === null || raw === undefined || !Number.isFinite(raw)) continue;

@@ -21,8 +21,12 @@ export type RGB = [number, number, number];
 /** D65 reference white, as in Moreland's reference implementation. */
 const WHITE: RGB = [0.9505, 1.0, 1.089];
 
-function toLinear(c: number): number { return c > 0.04045 ? ((c + 0.055) / 1.055) ** 2.4 : c / 12.92; }
-function fromLinear(c: number): number { return c > 0.0031308 ? 1.055 * c ** (1 / 2.4) - 0.055 : 12.92 * c; }
+function toLinear(c: number): number {
+  return c > 0.04045 ? ((c + 0.055) / 1.055) ** 2.4 : c / 12.92;
+}
+function fromLinear(c: number): number {
+  return c > 0.0031308 ? 1.055 * c ** (1 / 2.4) - 0.055 : 12.92 * c;
+}
 
 /** sRGB (0..255) to CIELAB (D65). Source: IEC 61966-2-1 (sRGB) and CIE 15 (CIELAB). */
 export function rgbToLab(rgb: RGB): RGB {
@@ -31,16 +35,22 @@ export function rgbToLab(rgb: RGB): RGB {
   const Y = 0.2126 * r + 0.7152 * g + 0.0722 * b;
   const Z = 0.0193 * r + 0.1192 * g + 0.9505 * b;
   const f = (t: number) => (t > 0.008856 ? Math.cbrt(t) : 7.787 * t + 16 / 116);
-  const fx = f(X / WHITE[0]), fy = f(Y / WHITE[1]), fz = f(Z / WHITE[2]);
+  const fx = f(X / WHITE[0]),
+    fy = f(Y / WHITE[1]),
+    fz = f(Z / WHITE[2]);
   return [116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)];
 }
 
 /** CIELAB (D65) to sRGB (0..255, unclamped). */
 export function labToRgb(lab: RGB): RGB {
   const [L, a, bb] = lab;
-  const fy = (L + 16) / 116, fx = fy + a / 500, fz = fy - bb / 200;
+  const fy = (L + 16) / 116,
+    fx = fy + a / 500,
+    fz = fy - bb / 200;
   const finv = (t: number) => (t ** 3 > 0.008856 ? t ** 3 : (t - 16 / 116) / 7.787);
-  const X = WHITE[0] * finv(fx), Y = WHITE[1] * finv(fy), Z = WHITE[2] * finv(fz);
+  const X = WHITE[0] * finv(fx),
+    Y = WHITE[1] * finv(fy),
+    Z = WHITE[2] * finv(fz);
   const r = 3.2406 * X - 1.5372 * Y - 0.4986 * Z;
   const g = -0.9689 * X + 1.8758 * Y + 0.0415 * Z;
   const b = 0.0557 * X - 0.204 * Y + 1.057 * Z;
@@ -64,11 +74,18 @@ function adjustHue([M, s, h]: RGB, Munsat: number): number {
 
 /** Moreland's diverging interpolation between two sRGB end colours, t in [0, 1]; returns sRGB 0..255. */
 export function divergingMsh(c1: RGB, c2: RGB, t: number): RGB {
-  let m1 = labToMsh(rgbToLab(c1)), m2 = labToMsh(rgbToLab(c2));
+  let m1 = labToMsh(rgbToLab(c1)),
+    m2 = labToMsh(rgbToLab(c2));
   let u = t;
   if (m1[1] > 0.05 && m2[1] > 0.05 && Math.abs(angleDiff(m1[2], m2[2])) > Math.PI / 3) {
     const Mmid = Math.max(m1[0], m2[0], 88);
-    if (u < 0.5) { m2 = [Mmid, 0, 0]; u = 2 * u; } else { m1 = [Mmid, 0, 0]; u = 2 * u - 1; }
+    if (u < 0.5) {
+      m2 = [Mmid, 0, 0];
+      u = 2 * u;
+    } else {
+      m1 = [Mmid, 0, 0];
+      u = 2 * u - 1;
+    }
   }
   if (m1[1] < 0.05 && m2[1] > 0.05) m1 = [m1[0], m1[1], adjustHue(m2, m1[0])];
   else if (m2[1] < 0.05 && m1[1] > 0.05) m2 = [m2[0], m2[1], adjustHue(m1, m2[0])];
@@ -84,16 +101,24 @@ function angleDiff(a: number, b: number): number {
 }
 
 /** End colours of Moreland's published "cool to warm" map (his Table / figure of the map). */
-export const COOL_WARM_ENDS: [RGB, RGB] = [[59, 76, 192], [180, 4, 38]];
+export const COOL_WARM_ENDS: [RGB, RGB] = [
+  [59, 76, 192],
+  [180, 4, 38],
+];
 /** End colours (ours) of the charge-density map: green for q < 0, purple for q > 0. */
-export const CHARGE_ENDS: [RGB, RGB] = [[18, 119, 44], [137, 78, 165]];
+export const CHARGE_ENDS: [RGB, RGB] = [
+  [18, 119, 44],
+  [137, 78, 165],
+];
 
 /** A 256-entry lookup table (RGB bytes, 3 per entry) of a diverging map. */
 export function divergingTable(ends: [RGB, RGB], n = 256): Uint8ClampedArray {
   const out = new Uint8ClampedArray(3 * n);
   for (let k = 0; k < n; k++) {
     const c = divergingMsh(ends[0], ends[1], k / (n - 1));
-    out[3 * k] = Math.round(c[0]); out[3 * k + 1] = Math.round(c[1]); out[3 * k + 2] = Math.round(c[2]);
+    out[3 * k] = Math.round(c[0]);
+    out[3 * k + 1] = Math.round(c[1]);
+    out[3 * k + 2] = Math.round(c[2]);
   }
   return out;
 }
@@ -105,7 +130,8 @@ export const CHARGE_TABLE = divergingTable(CHARGE_ENDS);
 export function tableColour(table: Uint8ClampedArray, v: number, lo: number, hi: number): RGB {
   const n = table.length / 3;
   let k = Math.round(((v - lo) / (hi - lo)) * (n - 1));
-  if (!(k >= 0)) k = 0; else if (k > n - 1) k = n - 1;
+  if (!(k >= 0)) k = 0;
+  else if (k > n - 1) k = n - 1;
   return [table[3 * k]!, table[3 * k + 1]!, table[3 * k + 2]!];
 }
 
@@ -118,8 +144,12 @@ export function fillColours(field: Field, nx: number, ny: number, out: Uint8Clam
     let k = j * nx * 3;
     for (let i = 0; i < nx; i++, k += 3, p += 4) {
       let t = Math.round(((field[k + 2]! + 1) / 2) * 255);
-      if (!(t >= 0)) t = 0; else if (t > 255) t = 255;
-      out[p] = T[3 * t]!; out[p + 1] = T[3 * t + 1]!; out[p + 2] = T[3 * t + 2]!; out[p + 3] = 255;
+      if (!(t >= 0)) t = 0;
+      else if (t > 255) t = 255;
+      out[p] = T[3 * t]!;
+      out[p + 1] = T[3 * t + 1]!;
+      out[p + 2] = T[3 * t + 2]!;
+      out[p + 3] = 255;
     }
   }
 }
@@ -132,18 +162,28 @@ export function fillCharge(density: Float32Array, w: number, h: number, peak: nu
     const row = flipY ? h - 1 - j : j;
     for (let i = 0; i < w; i++) {
       let t = Math.round(((density[j * w + i]! / p0 + 1) / 2) * 255);
-      if (!(t >= 0)) t = 0; else if (t > 255) t = 255;
+      if (!(t >= 0)) t = 0;
+      else if (t > 255) t = 255;
       const p = (row * w + i) * 4;
-      out[p] = T[3 * t]!; out[p + 1] = T[3 * t + 1]!; out[p + 2] = T[3 * t + 2]!; out[p + 3] = 255;
+      out[p] = T[3 * t]!;
+      out[p + 1] = T[3 * t + 1]!;
+      out[p + 2] = T[3 * t + 2]!;
+      out[p + 3] = 255;
     }
   }
 }
 
 /** Signed solid angle of the spherical triangle (a, b, c) of unit vectors. */
 function solidAngle(f: Field, a: number, b: number, c: number): number {
-  const ax = f[a]!, ay = f[a + 1]!, az = f[a + 2]!;
-  const bx = f[b]!, by = f[b + 1]!, bz = f[b + 2]!;
-  const cx = f[c]!, cy = f[c + 1]!, cz = f[c + 2]!;
+  const ax = f[a]!,
+    ay = f[a + 1]!,
+    az = f[a + 2]!;
+  const bx = f[b]!,
+    by = f[b + 1]!,
+    bz = f[b + 2]!;
+  const cx = f[c]!,
+    cy = f[c + 1]!,
+    cz = f[c + 2]!;
   const triple = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
   const denom = 1 + (ax * bx + ay * by + az * bz) + (bx * cx + by * cy + bz * cz) + (cx * ax + cy * ay + cz * az);
   return 2 * Math.atan2(triple, denom);
@@ -160,7 +200,10 @@ export function chargeDensity(field: Field, nx: number, ny: number): Float32Arra
   const inv = 1 / (4 * Math.PI);
   for (let j = 0; j + 1 < ny; j++) {
     for (let i = 0; i + 1 < nx; i++) {
-      const a = 3 * (j * nx + i), b = a + 3, d = a + 3 * nx, c = d + 3;
+      const a = 3 * (j * nx + i),
+        b = a + 3,
+        d = a + 3 * nx,
+        c = d + 3;
       out[j * (nx - 1) + i] = (solidAngle(field, a, b, c) + solidAngle(field, a, c, d)) * inv;
     }
   }
@@ -177,7 +220,10 @@ export function total(values: Float32Array): number {
 /** Largest |value|. */
 export function peakAbs(values: ArrayLike<number>): number {
   let p = 0;
-  for (let i = 0; i < values.length; i++) { const a = Math.abs(values[i]!); if (a > p) p = a; }
+  for (let i = 0; i < values.length; i++) {
+    const a = Math.abs(values[i]!);
+    if (a > p) p = a;
+  }
   return p;
 }
 

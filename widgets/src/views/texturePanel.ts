@@ -10,7 +10,9 @@ import type { CalculatorResult } from "@helicoid/lib";
 import { TexturePicture, richText } from "./texturePicture.js";
 import { el } from "./dom.js";
 
-interface SpecLike { outputs: Array<{ name: string }> }
+interface SpecLike {
+  outputs: Array<{ name: string }>;
+}
 
 export interface TexturePanel {
   el: HTMLElement;
@@ -35,7 +37,9 @@ export function texturePanelFor(spec: SpecLike): TexturePanel | null {
     show(result) {
       root.hidden = !result;
       if (!result) return;
-      const m = num(result, "fieldPreview"), size = num(result, "previewSize"), cell = num(result, "previewCell");
+      const m = num(result, "fieldPreview"),
+        size = num(result, "previewSize"),
+        cell = num(result, "previewCell");
       if (!Array.isArray(m) || typeof size !== "number" || typeof cell !== "number" || !(size >= 2) || m.length !== 3 * size * size || !(cell > 0)) {
         problem.textContent = "Texture: the result carries no usable field preview (fieldPreview, previewSize, previewCell)";
         problem.hidden = false;
@@ -44,14 +48,18 @@ export function texturePanelFor(spec: SpecLike): TexturePanel | null {
       }
       problem.hidden = true;
       picture.el.hidden = false;
-      const x = num(result, "objectX"), y = num(result, "objectY"), q = num(result, "objectCharge");
+      const x = num(result, "objectX"),
+        y = num(result, "objectY"),
+        q = num(result, "objectCharge");
       const objects = Array.isArray(x) && Array.isArray(y) && Array.isArray(q) ? { x, y, charge: q } : null;
       picture.draw({ field: Float32Array.from(m), nx: size, ny: size, dx: cell, dy: cell, objects, arrows: true, charge: true, displaySize: 360 });
       root.dataset.previewSize = String(size);
       title.textContent = `texture (preview: ${size} × ${size} cells of ${(cell * 1e9).toPrecision(3)} nm)`;
-      richText(note,
+      richText(
+        note,
         "m_z: diverging map after K. Moreland (2009), blue −1, grey 0, red +1; arrows: in-plane m, length ∝ |m_{xy}|; " +
-        "ρ_Q: charge per plaquette of the preview / area, green < 0 < purple; rings and table: objects found on the full grid (charge, centre).");
+          "ρ_Q: charge per plaquette of the preview / area, green < 0 < purple; rings and table: objects found on the full grid (charge, centre).",
+      );
     },
   };
 }

@@ -14,10 +14,7 @@
  * Positions: cell (i, j) sits at x = i dx, y = j dy (as in @helicoid/lib's textures and object
  * centres), so the image spans x from -dx/2 to (nx - 1/2) dx.
  */
-import {
-  fillColours, fillCharge, chargeDensity, peakAbs, arrowStep, niceTicks, scaleBarLength,
-  MZ_TABLE, CHARGE_TABLE, type Field,
-} from "./textureColors.js";
+import { fillColours, fillCharge, chargeDensity, peakAbs, arrowStep, niceTicks, scaleBarLength, MZ_TABLE, CHARGE_TABLE, type Field } from "./textureColors.js";
 import { el } from "./dom.js";
 
 const SVG = "http://www.w3.org/2000/svg";
@@ -50,7 +47,10 @@ export interface PictureInput {
 }
 
 /** Margins of a panel (CSS px): left (y ticks), top (title), right (colour bar), bottom (x ticks). */
-const ML = 50, MT = 26, MR = 86, MB = 40;
+const ML = 50,
+  MT = 26,
+  MR = 86,
+  MB = 40;
 
 function svg(tag: string, attrs: Record<string, string | number> = {}, text?: string): SVGElement {
   const n = document.createElementNS(SVG, tag);
@@ -78,9 +78,15 @@ export function richText(node: Element, text: string): void {
   node.replaceChildren();
   const svgNode = node.namespaceURI === SVG;
   for (const p of labelPieces(text)) {
-    if (!p.sub) { node.append(document.createTextNode(p.text)); continue; }
+    if (!p.sub) {
+      node.append(document.createTextNode(p.text));
+      continue;
+    }
     const sub = svgNode ? document.createElementNS(SVG, "tspan") : document.createElement("sub");
-    if (svgNode) { sub.setAttribute("baseline-shift", "sub"); sub.setAttribute("font-size", "75%"); }
+    if (svgNode) {
+      sub.setAttribute("baseline-shift", "sub");
+      sub.setAttribute("font-size", "75%");
+    }
     sub.textContent = p.text;
     node.append(sub);
   }
@@ -143,7 +149,8 @@ export class TexturePicture {
     const { field, nx, ny, dx, dy } = p;
     const size = p.displaySize && p.displaySize > 0 ? p.displaySize : 420;
     const s = (this.scale = Math.max(1, Math.round(size / Math.max(nx, ny))));
-    const W = nx * s, H = ny * s;
+    const W = nx * s,
+      H = ny * s;
     const geo = { nx, ny, dx, dy, s, W, H };
     this.last = { geo, objects: p.objects ?? null, showCharge: p.charge !== false && nx > 1 && ny > 1 };
     // m_z cells, frame, axes, colour bar, arrows, scale bar, markers
@@ -173,7 +180,7 @@ export class TexturePicture {
     const { geo, objects, showCharge } = this.last;
     const { nx, ny, dx, dy, s } = geo;
     // Charge per plaquette, as density per area (nm^-2), on a range symmetric about zero.
-    const areaNm2 = (dx * 1e9) * (dy * 1e9);
+    const areaNm2 = dx * 1e9 * (dy * 1e9);
     const peakRho = peakAbs(density) / areaNm2;
     // The whole map is used: its ends are +- the largest |rho_Q| (ticks at round values inside).
     const rhoTop = peakRho > 0 ? peakRho : 1;
@@ -184,7 +191,17 @@ export class TexturePicture {
     fillCharge(density, nx - 1, ny - 1, rhoTop * areaNm2, crgba);
     // Plaquette (i, j) spans the centres of cells i..i+1 and j..j+1: half a cell in from the edge.
     this.blit(this.charge.canvas, crgba, nx - 1, ny - 1, s, ML + Math.round(s / 2), MT + Math.round(s / 2));
-    this.frame(this.charge, geo, `topological charge density ρ_Q (colour ends: ±${tickLabel(Number(rhoTop.toPrecision(2)))} nm⁻²)`, CHARGE_TABLE, -rhoTop, rhoTop, "ρ_Q", "nm⁻²", niceTicks(-rhoTop, rhoTop, 4));
+    this.frame(
+      this.charge,
+      geo,
+      `topological charge density ρ_Q (colour ends: ±${tickLabel(Number(rhoTop.toPrecision(2)))} nm⁻²)`,
+      CHARGE_TABLE,
+      -rhoTop,
+      rhoTop,
+      "ρ_Q",
+      "nm⁻²",
+      niceTicks(-rhoTop, rhoTop, 4),
+    );
     this.placeOverlay(this.charge.overlay, geo);
     this.charge.overlay.replaceChildren();
     this.markers(this.charge.overlay, objects, geo, true);
@@ -218,7 +235,8 @@ export class TexturePicture {
   private frame(panel: Panel, g: Geo, title: string, table: Uint8ClampedArray, lo: number, hi: number, symbol: string, unit: string, ticks: number[]): void {
     const { W, H } = g;
     const f = panel.frame;
-    const totalW = ML + W + MR, totalH = MT + H + MB;
+    const totalW = ML + W + MR,
+      totalH = MT + H + MB;
     panel.root.style.width = `${totalW}px`;
     panel.root.style.height = `${totalH}px`;
     f.setAttribute("width", String(totalW));
@@ -228,8 +246,10 @@ export class TexturePicture {
     f.append(svg("text", { x: ML, y: 16, class: "hx-panel-title" }, title));
     f.append(svg("rect", { x: ML - 0.5, y: MT - 0.5, width: W + 1, height: H + 1, fill: "none", stroke: "#333", "stroke-width": 1 }));
     // x axis (nm)
-    const xLo = -0.5 * g.dx * 1e9, xHi = (g.nx - 0.5) * g.dx * 1e9;
-    const yLo = -0.5 * g.dy * 1e9, yHi = (g.ny - 0.5) * g.dy * 1e9;
+    const xLo = -0.5 * g.dx * 1e9,
+      xHi = (g.nx - 0.5) * g.dx * 1e9;
+    const yLo = -0.5 * g.dy * 1e9,
+      yHi = (g.ny - 0.5) * g.dy * 1e9;
     const ax = svg("g", { class: "hx-axis", "data-axis": "x" });
     for (const t of niceTicks(xLo, xHi, Math.max(2, Math.round(W / 80)))) {
       const X = ML + ((t - xLo) / (xHi - xLo)) * W;
@@ -246,9 +266,11 @@ export class TexturePicture {
     ay.append(svg("text", { x: 12, y: MT + H / 2, "text-anchor": "middle", transform: `rotate(-90 12 ${MT + H / 2})`, class: "hx-axis-title" }, "y (nm)"));
     f.append(ax, ay);
     // colour bar: 64 bands of the map (crisp steps), ticks and the unit
-    const bx = ML + W + 14, bw = 14;
+    const bx = ML + W + 14,
+      bw = 14;
     const bar = svg("g", { class: "hx-colourbar", "data-symbol": symbol, "data-unit": unit });
-    const bands = 64, n = table.length / 3;
+    const bands = 64,
+      n = table.length / 3;
     for (let k = 0; k < bands; k++) {
       const idx = Math.round(((k + 0.5) / bands) * (n - 1));
       const y0 = MT + H - ((k + 1) / bands) * H;
@@ -269,24 +291,34 @@ export class TexturePicture {
     // About 16 arrows along the longer side, never closer than 14 px.
     const step = Math.max(arrowStep(nx, ny, 16), Math.ceil(14 / s));
     const len = 0.8 * step * s;
-    let shafts = "", heads = "";
+    let shafts = "",
+      heads = "";
     let count = 0;
     const off = Math.floor(step / 2);
     for (let j = off; j < ny; j += step) {
       for (let i = off; i < nx; i += step) {
         const k = 3 * (j * nx + i);
-        const mx = field[k]!, my = field[k + 1]!;
+        const mx = field[k]!,
+          my = field[k + 1]!;
         const inPlane = Math.hypot(mx, my);
         if (inPlane < 0.1) continue;
-        const cx = (i + 0.5) * s, cy = H - (j + 0.5) * s;
+        const cx = (i + 0.5) * s,
+          cy = H - (j + 0.5) * s;
         const L = len * Math.min(1, inPlane);
-        const ux = (mx / inPlane) * L, uy = (-my / inPlane) * L;
-        const tx = cx - ux / 2, ty = cy - uy / 2, hx = cx + ux / 2, hy = cy + uy / 2;
+        const ux = (mx / inPlane) * L,
+          uy = (-my / inPlane) * L;
+        const tx = cx - ux / 2,
+          ty = cy - uy / 2,
+          hx = cx + ux / 2,
+          hy = cy + uy / 2;
         if (L < 5) continue; // shorter than a head: |m_xy| is too small to read a direction
-        const hs = Math.min(Math.max(4, 0.35 * L), 0.6 * L), a = Math.atan2(uy, ux);
-        const bx = hx - hs * Math.cos(a), by = hy - hs * Math.sin(a);
+        const hs = Math.min(Math.max(4, 0.35 * L), 0.6 * L),
+          a = Math.atan2(uy, ux);
+        const bx = hx - hs * Math.cos(a),
+          by = hy - hs * Math.sin(a);
         shafts += `M${tx.toFixed(1)} ${ty.toFixed(1)}L${bx.toFixed(1)} ${by.toFixed(1)}`;
-        heads += `M${hx.toFixed(1)} ${hy.toFixed(1)}L${(hx - hs * Math.cos(a - 0.5)).toFixed(1)} ${(hy - hs * Math.sin(a - 0.5)).toFixed(1)}` +
+        heads +=
+          `M${hx.toFixed(1)} ${hy.toFixed(1)}L${(hx - hs * Math.cos(a - 0.5)).toFixed(1)} ${(hy - hs * Math.sin(a - 0.5)).toFixed(1)}` +
           `L${(hx - hs * Math.cos(a + 0.5)).toFixed(1)} ${(hy - hs * Math.sin(a + 0.5)).toFixed(1)}Z`;
         count++;
       }
@@ -305,7 +337,8 @@ export class TexturePicture {
     const widthNm = g.nx * g.dx * 1e9;
     const lenNm = scaleBarLength(widthNm / 4);
     const px = (lenNm / widthNm) * g.W;
-    const x0 = 10, y0 = g.H - 12;
+    const x0 = 10,
+      y0 = g.H - 12;
     const grp = svg("g", { class: "hx-scalebar", "data-length-nm": lenNm });
     grp.append(
       svg("rect", { x: x0 - 4, y: y0 - 17, width: px + 8, height: 24, fill: "white", "fill-opacity": 0.8, rx: 3 }),
@@ -320,12 +353,17 @@ export class TexturePicture {
     const n = Math.min(objs.x.length, objs.y.length, objs.charge.length);
     {
       for (let k = 0; k < n; k++) {
-        const X = (objs.x[k]! / g.dx + 0.5) * g.s, Y = g.H - (objs.y[k]! / g.dy + 0.5) * g.s;
+        const X = (objs.x[k]! / g.dx + 0.5) * g.s,
+          Y = g.H - (objs.y[k]! / g.dy + 0.5) * g.s;
         const m = svg("g", { class: "hx-object-marker", "data-index": k + 1, "data-charge": objs.charge[k]!, "data-x-nm": objs.x[k]! * 1e9, "data-y-nm": objs.y[k]! * 1e9 });
         m.append(
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: "white", "stroke-width": 4 }),
           svg("circle", { cx: X, cy: Y, r: 7, fill: "none", stroke: onCharge ? "#000" : "#ffd400", "stroke-width": 2 }),
-          svg("text", { ...labelPlace(X, Y, g.W), class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" }, n > 20 ? String(k + 1) : `${k + 1}: Q = ${fixed(objs.charge[k]!, 2)}`),
+          svg(
+            "text",
+            { ...labelPlace(X, Y, g.W), class: "hx-marker-label", stroke: "white", "stroke-width": 3, "paint-order": "stroke" },
+            n > 20 ? String(k + 1) : `${k + 1}: Q = ${fixed(objs.charge[k]!, 2)}`,
+          ),
         );
         o.append(m);
       }
@@ -336,12 +374,19 @@ export class TexturePicture {
     this.table.replaceChildren();
     if (!objs) return;
     const n = Math.min(objs.x.length, objs.y.length, objs.charge.length);
-    if (n === 0) { this.table.append(el("div", { class: "hx-muted", text: "objects: none found" })); return; }
+    if (n === 0) {
+      this.table.append(el("div", { class: "hx-muted", text: "objects: none found" }));
+      return;
+    }
     // One notation per column: charges to 3 decimals, positions to about a tenth of a cell.
     const d = Math.max(0, Math.min(4, Math.ceil(-Math.log10(cellNm / 10) - 1e-9)));
     const t = el("table", { class: "hx-objects" });
     const head = el("tr");
-    for (const h of ["#", "Q_i", "x_c (nm)", "y_c (nm)"]) { const th = el("th"); richText(th, h); head.append(th); }
+    for (const h of ["#", "Q_i", "x_c (nm)", "y_c (nm)"]) {
+      const th = el("th");
+      richText(th, h);
+      head.append(th);
+    }
     t.append(head);
     for (let k = 0; k < n; k++) {
       const r = el("tr", { "data-index": String(k + 1) });
@@ -366,7 +411,15 @@ export class TexturePicture {
   }
 }
 
-interface Geo { nx: number; ny: number; dx: number; dy: number; s: number; W: number; H: number }
+interface Geo {
+  nx: number;
+  ny: number;
+  dx: number;
+  dy: number;
+  s: number;
+  W: number;
+  H: number;
+}
 
 /** Where a marker's label goes: right of and above the ring, or left of / below it near an edge. */
 function labelPlace(X: number, Y: number, W: number): Record<string, string | number> {

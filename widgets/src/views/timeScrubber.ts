@@ -27,7 +27,15 @@ export class TimeScrubber {
   ) {
     this.el = el("div", { class: "hx-scrub", "data-scrub": plot.id });
     this.play = el("button", { class: "hx-button hx-scrub-play", text: "Play", title: "Run through the trace in time" }) as HTMLButtonElement;
-    this.range = el("input", { type: "range", class: "hx-scrub-range", min: "0", max: String(STEPS), step: "1", value: "0", "aria-label": `time along ${plot.title}` }) as HTMLInputElement;
+    this.range = el("input", {
+      type: "range",
+      class: "hx-scrub-range",
+      min: "0",
+      max: String(STEPS),
+      step: "1",
+      value: "0",
+      "aria-label": `time along ${plot.title}`,
+    }) as HTMLInputElement;
     this.readout = el("span", { class: "hx-scrub-readout" });
     this.el.append(el("span", { class: "hx-scrub-label", text: "t" }), this.range, this.play, this.readout);
     this.range.addEventListener("input", () => {

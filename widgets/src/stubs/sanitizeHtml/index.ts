@@ -21,15 +21,72 @@ export interface SanitizeOptions {
 }
 
 /** Elements dropped with their content (never kept, whatever the options say). */
-const DROP = new Set(["script", "style", "textarea", "option", "noscript", "template", "iframe", "object", "embed", "frame", "frameset", "applet", "base", "meta", "link", "title", "xmp", "noembed", "noframes", "plaintext", "svg", "math"]);
+const DROP = new Set([
+  "script",
+  "style",
+  "textarea",
+  "option",
+  "noscript",
+  "template",
+  "iframe",
+  "object",
+  "embed",
+  "frame",
+  "frameset",
+  "applet",
+  "base",
+  "meta",
+  "link",
+  "title",
+  "xmp",
+  "noembed",
+  "noframes",
+  "plaintext",
+  "svg",
+  "math",
+]);
 const URL_ATTRIBUTES = new Set(["href", "src", "cite", "action", "formaction", "poster", "background", "xlink:href", "longdesc", "usemap", "srcset", "data"]);
 const defaults = {
-  allowedTags: ["a", "abbr", "b", "blockquote", "br", "code", "div", "em", "h1", "h2", "h3", "h4", "h5", "h6", "hr", "i", "li", "ol", "p", "pre", "span", "strong", "sub", "sup", "table", "tbody", "td", "th", "thead", "tr", "ul"],
+  allowedTags: [
+    "a",
+    "abbr",
+    "b",
+    "blockquote",
+    "br",
+    "code",
+    "div",
+    "em",
+    "h1",
+    "h2",
+    "h3",
+    "h4",
+    "h5",
+    "h6",
+    "hr",
+    "i",
+    "li",
+    "ol",
+    "p",
+    "pre",
+    "span",
+    "strong",
+    "sub",
+    "sup",
+    "table",
+    "tbody",
+    "td",
+    "th",
+    "thead",
+    "tr",
+    "ul",
+  ],
   allowedAttributes: { a: ["href", "name", "target"], img: ["src", "alt", "title", "width", "height"] } as Record<string, AttributeRule[]>,
   allowedSchemes: ["http", "https", "ftp", "mailto", "tel"],
 };
 
-interface Transform { (tagName: string, attribs: Record<string, string>): { tagName: string; attribs: Record<string, string> } }
+interface Transform {
+  (tagName: string, attribs: Record<string, string>): { tagName: string; attribs: Record<string, string> };
+}
 function simpleTransform(tagName: string, attribs: Record<string, string>, merge = true): Transform {
   return (_tag, old) => ({ tagName, attribs: merge ? { ...old, ...attribs } : { ...attribs } });
 }
@@ -60,10 +117,16 @@ function styleAllowed(value: string): boolean {
 function clean(node: Node, o: Required<Pick<SanitizeOptions, "allowedSchemes">> & SanitizeOptions): void {
   for (const child of Array.from(node.childNodes)) {
     if (child.nodeType === 3) continue; // text
-    if (child.nodeType !== 1) { child.remove(); continue; } // comments, processing instructions
+    if (child.nodeType !== 1) {
+      child.remove();
+      continue;
+    } // comments, processing instructions
     const el = child as Element;
     let tag = el.localName.toLowerCase();
-    if (DROP.has(tag)) { el.remove(); continue; }
+    if (DROP.has(tag)) {
+      el.remove();
+      continue;
+    }
     clean(el, o);
     let attribs: Record<string, string> = {};
     for (const a of Array.from(el.attributes)) attribs[a.name.toLowerCase()] = a.value;
@@ -72,14 +135,21 @@ function clean(node: Node, o: Required<Pick<SanitizeOptions, "allowedSchemes">> 
     else if (typeof t === "string") tag = t;
     tag = tag.toLowerCase();
     const tagAllowed = o.allowedTags === false ? true : (o.allowedTags ?? defaults.allowedTags).includes(tag);
-    if (!tagAllowed || DROP.has(tag)) { el.replaceWith(...Array.from(el.childNodes)); continue; }
+    if (!tagAllowed || DROP.has(tag)) {
+      el.replaceWith(...Array.from(el.childNodes));
+      continue;
+    }
     const out = el.ownerDocument.createElement(tag);
     const schemes = o.allowedSchemesByTag?.[tag] ?? o.allowedSchemes;
     for (const [name, value] of Object.entries(attribs)) {
       if (name.startsWith("on") || !attributeAllowed(o.allowedAttributes ?? defaults.allowedAttributes, tag, name)) continue;
       if (URL_ATTRIBUTES.has(name) && !value.split(name === "srcset" ? "," : /$^/).every((u) => urlAllowed(u.trim().split(/\s+/)[0] ?? "", schemes))) continue;
       if (name === "style" && !styleAllowed(value)) continue;
-      try { out.setAttribute(name, value); } catch { /* a name the DOM refuses is left out */ }
+      try {
+        out.setAttribute(name, value);
+      } catch {
+        /* a name the DOM refuses is left out */
+      }
     }
     out.append(...Array.from(el.childNodes));
     el.replaceWith(out);

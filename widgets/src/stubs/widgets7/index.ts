@@ -4,9 +4,12 @@
  * (about 230 kB) and say so if a notebook asks for them.
  */
 const message = "widgets of ipywidgets 7 (@jupyter-widgets/controls 1.x) are not included in Helicoid's exported pages";
-export default new Proxy({}, {
-  get(_t, name) {
-    if (name === "__esModule" || typeof name === "symbol") return undefined;
-    throw new Error(`${message} (asked for ${String(name)})`);
+export default new Proxy(
+  {},
+  {
+    get(_t, name) {
+      if (name === "__esModule" || typeof name === "symbol") return undefined;
+      throw new Error(`${message} (asked for ${String(name)})`);
+    },
   },
-});
+);
