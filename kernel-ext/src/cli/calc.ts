@@ -63,8 +63,9 @@ export const calcUsage = [
   'or no state at some input within it) is flagged in a note and the status is "warning".',
   "Exit status: 0 done, 2 bad input or usage, 1 a computation that failed.",
   "Examples:",
-  "  helicoid calc wall A=15pJ/m Ku=0.8MJ/m^3 D=1.5mJ/m^2",
-  "  helicoid calc wall360 B=20mT --json",
+  "  helicoid calc wall Ms=1.1MA/m A=15pJ/m Ku=0.8MJ/m^3 D=1.5mJ/m^2 t=1nm",
+  "  helicoid calc wall360 Ms=1.1MA/m A=15pJ/m Ku=1.2MJ/m^3 D=1.5mJ/m^2 t=1nm B=20mT --json",
+  "  helicoid calc skyrmion B=50mT --demo",
   "  helicoid calc easy-plane --sweep B=0mT:200mT:40",
   "  helicoid calc skyrmion --help",
 ].join("\n");

@@ -30,7 +30,7 @@ export const outsideChecks: Record<string, { file: string; test: string; outputs
   wall360: {
     file: "test/lib/calculators/outsideChecks.test.ts",
     test: "wall360: the core half-width and its slope against scipy quad of the first integral",
-    outputs: ["radius", "width"],
+    outputs: ["radius", "wallWidth"],
   },
   "wall-type": {
     file: "test/lib/calculators/walls.test.ts",

@@ -229,7 +229,7 @@ D = np.sqrt(A/K)
 R, err = quad(lambda t: D/np.sqrt(np.sin(t)**2 + 2*h*(1 - np.cos(t))), np.pi/2, np.pi, epsabs=0, epsrel=1e-13)
 print(json.dumps({'R': R, 'slope': np.sqrt(1 + 2*h)/D}))`);
       const R = num(r, "radius");
-      const w = num(r, "width");
+      const w = num(r, "wallWidth");
       expect(Math.abs(R / ref.R - 1), `B = ${B} T`).toBeLessThan(1e-6);
       expect(Math.abs(1 / (Math.tanh(R / w) * w) / ref.slope - 1), `B = ${B} T`).toBeLessThan(1e-6);
     }
