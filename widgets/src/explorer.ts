@@ -9,7 +9,7 @@
  * State and messages: see widgets/PROTOCOL.md.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { catalogue, defaultSweep, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
+import { catalogue, defaultSweep, filmInputNames, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION, versionMismatch } from "./version.js";
 import { Coalescer } from "./compute/coalescer.js";
 import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
@@ -283,7 +283,8 @@ export class ExplorerView extends DOMWidgetView {
   private buildControl(input: InputSpec): HTMLElement {
     const row = el("div", { class: "hx-control", "data-input": input.name, title: input.meaning });
     const unit = input.unit && input.unit !== "1" ? input.unit : "";
-    row.append(el("label", { class: "hx-label", text: input.name, title: `${input.meaning}${unit ? ` [SI unit: ${displayUnit(unit)}]` : ""}` }));
+    const label = el("label", { class: "hx-label", text: input.name, title: `${input.meaning}${unit ? ` [SI unit: ${displayUnit(unit)}]` : ""}` });
+    row.append(label);
     let slider: HTMLInputElement | null = null;
     let select: HTMLSelectElement | null = null;
     let entry: HTMLInputElement | null = null;
@@ -330,6 +331,10 @@ export class ExplorerView extends DOMWidgetView {
       row.append(slider, entry);
     }
     row.append(message);
+    if (this.spec && filmInputNames(this.spec).includes(input.name)) {
+      // a film input the notebook did not give: the invented demo film's value, said beside it until changed
+      label.append(el("span", { class: "hx-demo", text: "demo", title: "the calculator's invented demo film's value (not a real material): set your film's" }));
+    }
     this.rows.set(input.name, { input, row, slider, select, entry, message });
     return row;
   }
@@ -416,6 +421,13 @@ export class ExplorerView extends DOMWidgetView {
     for (const r of this.rows.values()) {
       const v = values[r.input.name]!;
       r.row.dataset.value = String(v);
+      const demoTag = r.row.querySelector<HTMLElement>(".hx-demo");
+      if (demoTag) {
+        const given = (this.model.get("given") as string[] | null | undefined) ?? null;
+        // pages exported before `given` existed: no mark (nothing is known of what the notebook gave)
+        demoTag.hidden = given === null || given.includes(r.input.name) || v !== r.input.default;
+        r.row.classList.toggle("hx-demo-value", !demoTag.hidden);
+      }
       const swept = sweep?.over === r.input.name;
       r.row.classList.toggle("hx-swept", swept);
       if (r.slider) {

@@ -207,6 +207,8 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     result.notes.unshift(...filmNotes);
     // Every input not given (film values under --demo, other inputs always) is named in the result.
     const defaults = spec.inputs.map((i) => i.name).filter((n) => given[n] === undefined && options.sweep?.over !== n);
+    // the library's own note on demo values is replaced by the command's (which names --demo)
+    result.notes = result.notes.filter((n) => !n.startsWith("demo values: "));
     if (missing.length) {
       result.status = "warning";
       result.notes.unshift(

@@ -165,6 +165,8 @@ export class Explorer extends Widget<ExplorerState> {
         result,
         error,
         compute_in: computeIn,
+        // the inputs the notebook gave: film inputs not among them show the demo film's values, marked so in the page
+        given: spec.inputs.map((i) => i.name).filter((n) => (overrides as Record<string, unknown>)[n] !== undefined),
         kernel_version: KERNEL_VERSION,
         function_name: functionName,
       },

@@ -596,10 +596,31 @@ export function runCalculator(specOrId: CalculatorSpec | string, rawGiven: objec
     method: spec.method,
     sources: spec.sources,
     assumptions: spec.assumptions,
-    notes: [...inputNotes(spec, raw, inputs), ...film.notes, ...(computed.notes ?? []), ...gapNotes],
+    notes: [...demoFilmNote(spec, raw, inputs), ...inputNotes(spec, raw, inputs), ...film.notes, ...(computed.notes ?? []), ...gapNotes],
   };
   if (sweep) result.sweep = sweep;
   return result;
+}
+
+/** The inputs that describe a film; a calculator that takes Ms, A and t is a film calculator. */
+export const FILM_INPUT_NAMES = ["Ms", "A", "Ku", "D", "t"] as const;
+
+/** The film inputs of a film calculator (none for other calculators). */
+export function filmInputNames(spec: { inputs: ReadonlyArray<{ name: string }> }): string[] {
+  const names = spec.inputs.map((i) => i.name);
+  if (!["Ms", "A", "t"].every((n) => names.includes(n))) return [];
+  return FILM_INPUT_NAMES.filter((n) => names.includes(n));
+}
+
+/** Film inputs not given take the calculator's invented demo film's values: said first in the notes. */
+function demoFilmNote(spec: CalculatorSpec, raw: Record<string, unknown>, inputs: InputValues): string[] {
+  const missing = filmInputNames(spec).filter((n) => raw[n] === undefined);
+  if (missing.length === 0) return [];
+  const show = (n: string) => {
+    const unit = spec.inputs.find((i) => i.name === n)?.unit ?? "";
+    return `${n} = ${unit ? formatQuantity(inputs[n]!, unit) : String(inputs[n])}`;
+  };
+  return [`demo values: ${missing.map(show).join(", ")} were not given and are the invented demo film's, not a real material's`];
 }
 
 /**
