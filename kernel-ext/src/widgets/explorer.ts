@@ -22,8 +22,10 @@ import {
   type InputSpec,
   type InputValues,
   type OutputSpec,
+  inUncertainForm,
+  splitUncertainInput,
 } from "@helicoid/lib";
-import type { Film, QuantityInput, SweepRange } from "@helicoid/lib";
+import type { Film, InputWithUncertainty, QuantityInput, SweepRange } from "@helicoid/lib";
 import { KERNEL_VERSION } from "../version.js";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
@@ -145,13 +147,28 @@ export class Explorer extends Widget<ExplorerState> {
     } else {
       throw new InputError("calculator", calculator, "a catalogue id, a CalculatorSpec, or a function with options.describe");
     }
-    const inputs = coerceInputs(spec, overrides as Record<string, QuantityInput | undefined>);
+    // Values with an uncertainty ("15 ± 1 pJ/m", {value, uncertainty}: a film file's) are shown at
+    // their values: the explorer moves one point; propagation is runCalculator's (said in the notes).
+    const nominal: Record<string, QuantityInput | undefined> = {};
+    const uncertain: string[] = [];
+    for (const [k, v] of Object.entries(overrides as Record<string, unknown>)) {
+      const unit = spec.inputs.find((i) => i.name === k)?.unit ?? "";
+      if (inUncertainForm(v)) {
+        nominal[k] = splitUncertainInput(k, v, unit).value;
+        uncertain.push(k);
+      } else nominal[k] = v as QuantityInput | undefined;
+    }
+    const inputs = coerceInputs(spec, nominal);
     const sweep = options.sweep === undefined ? (defaultSweep(spec, inputs) ?? null) : options.sweep;
     const computeIn = catalogueId ? (options.computeIn ?? "browser") : "kernel";
     let result: CalculatorResult | null = null;
     let error = "";
     try {
       result = runCalculator(spec, inputs, sweep ? { sweep } : {});
+      if (uncertain.length)
+        result.notes.unshift(
+          `${uncertain.join(", ")} given with uncertainties: the explorer shows their values; runCalculator(id, inputs, { uncertainty: ... }) propagates the uncertainties`,
+        );
     } catch (err) {
       error = (err as Error).message;
     }
@@ -166,7 +183,7 @@ export class Explorer extends Widget<ExplorerState> {
         error,
         compute_in: computeIn,
         // the inputs the notebook gave: film inputs not among them show the demo film's values, marked so in the page
-        given: spec.inputs.map((i) => i.name).filter((n) => (overrides as Record<string, unknown>)[n] !== undefined),
+        given: spec.inputs.map((i) => i.name).filter((n) => nominal[n] !== undefined),
         kernel_version: KERNEL_VERSION,
         function_name: functionName,
       },
@@ -238,7 +255,8 @@ export class Explorer extends Widget<ExplorerState> {
 
 /** Open an explorer: `explore("skyrmion", { D: "3.5 mJ/m^2" })`, or a spec / function of your own. */
 /** Inputs of an explorer: by name (SI numbers or strings with units), or a film (`makeFilm`). */
-export type ExploreInputs = Record<string, QuantityInput | undefined> | Film;
+/** Inputs of an explorer: values with units, or a film; values with an uncertainty are shown at their values. */
+export type ExploreInputs = Record<string, InputWithUncertainty> | Film;
 
 export function explore(calculator: string | CalculatorSpec | PlainFunction, overrides: ExploreInputs = {}, options: ExploreOptions = {}): Explorer {
   return new Explorer(calculator, overrides, options);
