@@ -58,7 +58,12 @@ describe("fitProfile and helicoid fit agree", () => {
         const run = spawnSync(process.execPath, [helicoidBin, "fit", file, "--model", c.model, "--json"], { encoding: "utf8", timeout: 120_000 });
         expect(run.stderr).toBe("");
         expect(run.status).toBe(0);
-        const cli = JSON.parse(run.stdout) as { status: string; parameters: Record<string, { value: number; stderr: number | null }>; chiSquareReduced: number };
+        const cli = JSON.parse(run.stdout) as {
+          status: string;
+          parameters: Record<string, { value: number; stderr: number | null }>;
+          chiSquareReduced: number | null;
+          residualRms?: number;
+        };
         expect(lib.status).toBe("converged");
         expect(cli.status).toBe(lib.status);
         expect(Object.keys(cli.parameters).sort()).toEqual(Object.keys(lib.parameters).sort());
@@ -71,7 +76,13 @@ describe("fitProfile and helicoid fit agree", () => {
           const truth = c.truth[name];
           if (truth !== undefined && p.stderr !== null) expect(Math.abs(p.value - truth), `${name}: ${p.value} ± ${p.stderr} against ${truth}`).toBeLessThan(5 * p.stderr + 1e-15);
         }
-        expect(cli.chiSquareReduced).toBeCloseTo(lib.chiSquareReduced, 10);
+        if (c.sigmaColumn) expect(cli.chiSquareReduced).toBeCloseTo(lib.chiSquareReduced, 10);
+        else {
+          // without sigmas the command gives no reduced chi-square, the residual RMS instead
+          expect(cli.chiSquareReduced).toBeNull();
+          const rms = Math.sqrt(lib.residuals.reduce((a, v) => a + v * v, 0) / lib.residuals.length);
+          expect(Math.abs(cli.residualRms! - rms)).toBeLessThanOrEqual(1e-12 * rms);
+        }
         if (!c.sigmaColumn) expect(lib.notes.join(" ")).toMatch(/no sigma column/);
       } finally {
         if (c === cases[cases.length - 1]) rmSync(dir, { recursive: true, force: true });
