@@ -6,12 +6,18 @@
  * panel's output area. Changes that arrive while an async function runs are coalesced: it reruns
  * once with the latest values.
  */
+import { displayUnit } from "@helicoid/lib";
 import { display } from "../display/display.js";
 import { currentContext, reportError, runInContext } from "../display/output.js";
 import { Box, Checkbox, Dropdown, FloatSlider, IntSlider, Label, Output, Text } from "./controls.js";
 import { Widget } from "./widget.js";
 
-export type ParamSpec = number | [number, number] | [number, number, number] | boolean | string | readonly string[] | Widget;
+/**
+ * A control of a panel: a number (a slider around it), [min, max] or [min, max, step] (a slider),
+ * optionally with the SI unit last ([0.9e6, 1.6e6, "J/m^3"]: shown beside the name), a boolean (a
+ * checkbox), a string (a text box), a list of strings (a drop-down) or a control.
+ */
+export type ParamSpec = number | [number, number] | [number, number, number] | [number, number, string] | [number, number, number, string] | boolean | string | readonly string[] | Widget;
 
 type ValueOf<P> = P extends boolean ? boolean : P extends string ? string : P extends readonly string[] ? string : P extends Widget ? unknown : number;
 export type PanelValues<T extends Record<string, ParamSpec>> = { [K in keyof T]: ValueOf<T[K]> };
@@ -80,19 +86,27 @@ function makeControl(name: string, spec: ParamSpec): Widget {
   if (typeof spec === "string") return new Text({ value: spec, description: name, continuous_update: false });
   if (Array.isArray(spec) && spec.every((x: unknown) => typeof x === "string")) return new Dropdown({ options: spec as unknown as string[], description: name });
   if (Array.isArray(spec)) {
-    const [min, max, step] = spec as number[];
-    if (!(Number.isFinite(min) && Number.isFinite(max) && min! < max!)) {
-      throw new RangeError(`controlPanel: parameter ${name} = [${spec.join(", ")}]: expected [min, max] or [min, max, step] with min < max`);
+    const unit = typeof spec[spec.length - 1] === "string" ? (spec[spec.length - 1] as string) : "";
+    const [min, max, step] = (unit ? spec.slice(0, -1) : spec) as number[];
+    if (!(Number.isFinite(min) && Number.isFinite(max) && min! < max!) || (step !== undefined && !(Number.isFinite(step) && step > 0))) {
+      throw new RangeError(`controlPanel: parameter ${name} = [${spec.join(", ")}]: expected [min, max] or [min, max, step] with min < max, optionally the SI unit last`);
     }
+    const description = unit ? `${name} (${displayUnit(unit)})` : name;
     const allInt = [min, max, step ?? 1].every((x) => Number.isInteger(x));
-    return allInt
-      ? new IntSlider({ min, max, step: step ?? 1, value: Math.round((min! + max!) / 2), description: name })
-      : new FloatSlider({ min, max, step: step ?? (max! - min!) / 100, value: (min! + max!) / 2, description: name });
+    // large or small magnitudes read with an SI prefix (1.25M) instead of 1250000.00
+    const big = Math.max(Math.abs(min!), Math.abs(max!));
+    const readout_format = big >= 1e4 || big < 1e-2 ? ".4~s" : ".4~g";
+    // whole-number ends make a whole-number slider when the range is one of counts ([1, 10]), not
+    // of magnitudes ([0.9e6, 1.6e6] J/m^3 would otherwise step by 1 J/m^3)
+    return allInt && (step !== undefined || max! - min! <= 1000)
+      ? new IntSlider({ min, max, step: step ?? 1, value: Math.round((min! + max!) / 2), description })
+      : new FloatSlider({ min, max, step: step ?? (max! - min!) / 100, value: (min! + max!) / 2, description, readout_format });
   }
   if (typeof spec === "number" && Number.isFinite(spec)) {
     const span = spec === 0 ? 1 : Math.abs(spec) * 2;
     if (Number.isInteger(spec)) return new IntSlider({ min: spec - span, max: spec + span, value: spec, description: name });
-    return new FloatSlider({ min: spec - span, max: spec + span, step: span / 100, value: spec, description: name });
+    const big = Math.abs(spec) * 3;
+    return new FloatSlider({ min: spec - span, max: spec + span, step: span / 100, value: spec, description: name, readout_format: big >= 1e4 || big < 1e-2 ? ".4~s" : ".4~g" });
   }
   throw new TypeError(`controlPanel: parameter ${name} = ${JSON.stringify(spec)}: expected a number, [min, max], a boolean, a string, a list of strings, or a control`);
 }
