@@ -17,7 +17,8 @@ import { Widget } from "./widget.js";
  * optionally with the SI unit last ([0.9e6, 1.6e6, "J/m^3"]: shown beside the name), a boolean (a
  * checkbox), a string (a text box), a list of strings (a drop-down) or a control.
  */
-export type ParamSpec = number | [number, number] | [number, number, number] | [number, number, string] | [number, number, number, string] | boolean | string | readonly string[] | Widget;
+export type ParamSpec =
+  number | [number, number] | [number, number, number] | [number, number, string] | [number, number, number, string] | boolean | string | readonly string[] | Widget;
 
 type ValueOf<P> = P extends boolean ? boolean : P extends string ? string : P extends readonly string[] ? string : P extends Widget ? unknown : number;
 export type PanelValues<T extends Record<string, ParamSpec>> = { [K in keyof T]: ValueOf<T[K]> };
