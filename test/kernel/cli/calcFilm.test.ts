@@ -62,7 +62,7 @@ describe("helicoid calc --film", () => {
       expect(mc1.uncertainty.monteCarlo.seed).toBe(4);
       expect(Math.abs(mc1.outputs.width.uncertainty / j.outputs.width.uncertainty - 1)).toBeLessThan(0.2);
       // an uncertainty typed on the command line
-      const typed = JSON.parse(helicoid("calc", "wall", "A=15+-1pJ/m", "--json").stdout);
+      const typed = JSON.parse(helicoid("calc", "wall", "Ms=1.1MA/m", "A=15+-1pJ/m", "Ku=1.2MJ/m^3", "D=1.5mJ/m^2", "t=1nm", "--json").stdout);
       expect(typed.inputs.A.uncertainty).toBeCloseTo(1e-12, 24);
       expect(createHash("sha256").update(readFileSync(path)).digest("hex")).toBe(sha); // the file is never changed
     } finally {

@@ -59,7 +59,7 @@ describe("saveFigure", () => {
     });
     const texts = svg.texts.join(" | ");
     expect(texts).toContain("R, w (nm)");
-    expect(texts).toMatch(/B \(mT\)/);
+    expect(texts).toMatch(/μ0 ?H \(mT\)/);
     expect(texts).not.toMatch(/[\\{}]/);
   });
 
