@@ -13,6 +13,7 @@
  * The topological charge density has its own panel with a second diverging map made by the same
  * published method between a green and a purple end of our choosing (symmetric about q = 0).
  */
+import { triangleSolidAngle } from "@helicoid/lib";
 export type Field = Float32Array | Float64Array;
 export type RGB = [number, number, number];
 
@@ -173,20 +174,9 @@ export function fillCharge(density: Float32Array, w: number, h: number, peak: nu
   }
 }
 
-/** Signed solid angle of the spherical triangle (a, b, c) of unit vectors. */
+/** Signed solid angle of the spherical triangle (a, b, c) of unit vectors: the library's formula. */
 function solidAngle(f: Field, a: number, b: number, c: number): number {
-  const ax = f[a]!,
-    ay = f[a + 1]!,
-    az = f[a + 2]!;
-  const bx = f[b]!,
-    by = f[b + 1]!,
-    bz = f[b + 2]!;
-  const cx = f[c]!,
-    cy = f[c + 1]!,
-    cz = f[c + 2]!;
-  const triple = ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
-  const denom = 1 + (ax * bx + ay * by + az * bz) + (bx * cx + by * cy + bz * cz) + (cx * ax + cy * ay + cz * az);
-  return 2 * Math.atan2(triple, denom);
+  return triangleSolidAngle(f[a]!, f[a + 1]!, f[a + 2]!, f[b]!, f[b + 1]!, f[b + 2]!, f[c]!, f[c + 1]!, f[c + 2]!);
 }
 
 /**
