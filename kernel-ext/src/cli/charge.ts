@@ -14,21 +14,7 @@
  * computation that failed. With --json an error is also a JSON object on stdout, the shape of
  * `helicoid calc --json`'s: {"id": "charge", "file", "status": "error", "error": {"type", "message", ...}}.
  */
-import {
-  BOUNDARIES,
-  ConvergenceError,
-  InputError,
-  LATTICE_Q_SOURCES,
-  OBJECT_DEFINITIONS,
-  continuumSkyrmionNumber,
-  findBlochPoints,
-  findObjects,
-  findVortices,
-  parseQuantity,
-  skyrmionNumber,
-  type Boundary,
-  type VectorField,
-} from "@helicoid/lib";
+import { BOUNDARIES, ConvergenceError, InputError, analyseTexture, parseQuantity, type Boundary } from "@helicoid/lib";
 import { readVectorFieldFile } from "../io/readFieldFile.js";
 import { errorJson, fileReason, inputFileReason, isFileSystemError, parseStrict, UsageError, type CommandIO } from "./args.js";
 
@@ -123,24 +109,22 @@ export async function chargeCommand(args: string[], io: CommandIO): Promise<numb
     const boundary = (bArg ?? info.boundary ?? "open") as Boundary;
     if (layer >= field.nz)
       throw new InputError("--layer", layerArg, field.nz === 1 ? "0: the field has one layer" : `a whole number from 0 to ${field.nz - 1} (the field has ${field.nz} layers)`);
-    const report = analyse(field, boundary, layer, mode);
-    const assumptions = [
-      "|m| = 1 (vectors normalized on reading); zero, tiny or NaN vectors are vacuum",
-      boundary === "periodic" ? "periodic boundaries along x and y" : `${boundary} boundaries (give --boundary periodic for a periodic simulation)`,
-      "Q = (1/4 pi) Int m.(d_x m x d_y m) dx dy; with a +z background a core-down skyrmion of vorticity +1 has Q = -1",
-    ];
+    const report = analyseTexture(field, { boundary, layer, mode });
+    // the command says how to ask for periodic boundaries in its own words
+    const assumptions = report.assumptions.map((x) => x.replace("give the boundary as periodic", "give --boundary periodic"));
+    const { status: _status, definitions, method, sources, notes: _notes, assumptions: _assumptions, boundary: _b, layer: _l, ...numbers } = report;
     const result = {
       file,
       format: info.format,
       grid: { nx: field.nx, ny: field.ny, nz: field.nz, dx: field.dx, dy: field.dy, dz: field.dz, lattice: field.lattice, unit: "m" },
       boundary,
       layer,
-      ...report,
+      ...numbers,
       vacuumCells: field.vacuumCells,
       missingCells: info.missingCells,
-      method: `skyrmion number: ${report.method}; continuum estimate: central differences; objects: ${mode === "cores" ? "reversed-core regions" : "charge-density clusters"} grown to cover the grid`,
-      definitions: OBJECT_DEFINITIONS,
-      sources: LATTICE_Q_SOURCES,
+      method,
+      definitions,
+      sources,
       assumptions: a.flags.has("--json") ? [...assumptions, "lengths in m, angles in rad"] : assumptions,
       notes,
     };
@@ -154,55 +138,6 @@ export async function chargeCommand(args: string[], io: CommandIO): Promise<numb
     if (err instanceof ConvergenceError) return fail(err, 1);
     throw err;
   }
-}
-
-function analyse(field: VectorField, boundary: Boundary, layer: number, mode: "cores" | "density") {
-  // one pass: the density the object finder needs also gives Q
-  const q = skyrmionNumber(field, { boundary, layer, density: true });
-  let continuum: number | null = null;
-  if (field.nx >= 3 && field.ny >= 3) continuum = continuumSkyrmionNumber(field, { boundary, layer }).Q;
-  const layersToScan = field.nz === 1 ? [layer] : Array.from({ length: field.nz }, (_, k) => k);
-  const objects: Array<Record<string, unknown>> = [];
-  const layers: Array<{ layer: number; skyrmionNumber: number }> = [];
-  for (const k of layersToScan) {
-    const hasMatter = field.vacuum === null || field.vacuum.subarray(k * field.nx * field.ny, (k + 1) * field.nx * field.ny).some((v) => v === 0);
-    if (!hasMatter) continue;
-    const o = findObjects(field, { boundary, layer: k, mode, charge: k === layer ? q : undefined });
-    if (field.nz > 1) layers.push({ layer: k, skyrmionNumber: o.Q });
-    for (const ob of o.objects) {
-      const entry: Record<string, unknown> = {
-        charge: ob.charge,
-        center: ob.center,
-        radius: ob.radius,
-        helicity: ob.helicity,
-        vorticity: ob.vorticity,
-        kind: ob.kind,
-        area: ob.area,
-        corePolarity: ob.corePolarity,
-      };
-      if (field.nz > 1) entry.layer = k;
-      if (ob.note) entry.note = ob.note;
-      objects.push(entry);
-    }
-  }
-  const v = findVortices(field, { boundary, layer });
-  const out: Record<string, unknown> & { method: string } = {
-    skyrmionNumber: q.Q,
-    nearestInteger: q.nearestInteger,
-    closed: q.closed,
-    continuumEstimate: continuum,
-    objects,
-    vortices: { vortices: v.vortices, antivortices: v.antivortices, totalWinding: v.totalWinding, zeroLines: v.zeroLines, noiseLevel: v.noiseLevel, minInPlane: v.minInPlane },
-    method: q.method,
-  };
-  if (field.nz > 1) {
-    out.layers = layers;
-    if (field.lattice === "square") {
-      const bp = findBlochPoints(field, { boundary });
-      out.blochPoints = bp.points.map((p) => ({ center: [p.x, p.y, p.z], degree: p.degree, cell: [p.i, p.j, p.k] }));
-    }
-  }
-  return out;
 }
 
 function summary(r: Record<string, unknown>): string {

@@ -10,3 +10,4 @@ export * from "./blochPoints.js";
 export * from "./textures.js";
 export * from "./textures3d.js";
 export * from "./objects.js";
+export * from "./textureAnalysis.js";
