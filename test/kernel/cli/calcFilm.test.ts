@@ -38,7 +38,7 @@ describe("helicoid calc --film", () => {
       expect(text.status).toBe(0);
       // Delta = 5.8405 nm, u = 0.3x nm: "5.84 ± 0.3x nm"
       expect(text.stdout).toMatch(/Δ +5\.84 ± 0\.\d\d nm +wall width parameter/);
-      expect(text.stdout).toMatch(/  A +15\.0 ± 1\.0 pJ\/m +exchange stiffness/);
+      expect(text.stdout).toMatch(/ {2}A +15\.0 ± 1\.0 pJ\/m +exchange stiffness/);
       expect(text.stdout).toMatch(/note: inputs from the film file "Film ZX-3 \(invented\)"/);
       expect(text.stdout).toMatch(/note: Uncertainties to first order \(JCGM 100:2008/);
       const json = helicoid("calc", "wall", "--film", path, "--json");
