@@ -182,11 +182,22 @@ describe("Helicoid in a JupyterLab 4 front end from npm, served by jupyter-serve
       await page.mouse.up();
       const html = page.locator(".jp-Cell").nth(0).locator(".widget-html-content").first();
       await expect.poll(() => html.textContent(), { timeout: 20_000 }).not.toBe("x squared = 1");
-      const v = Number(await kernel(page, "s.get('value')"));
+      // Common practice, no source: the observer squares the slider's value. On a loaded machine the
+      // drag's updates can still be arriving: wait until the kernel's value, the observer's output and
+      // the page's readout agree.
+      let v = NaN;
+      await expect
+        .poll(
+          async () => {
+            v = Number(await kernel(page, "s.get('value')"));
+            const shown = await html.textContent();
+            const readout = Number(await page.locator(".jp-Cell").nth(0).locator(".widget-readout").first().textContent());
+            return shown === `x squared = ${v * v}` && readout === v;
+          },
+          { timeout: 30_000 },
+        )
+        .toBe(true);
       expect(v).toBeGreaterThan(1);
-      // Common practice, no source: the observer squares the slider's value.
-      await expect.poll(() => html.textContent(), { timeout: 20_000 }).toBe(`x squared = ${v * v}`);
-      expect(Number(await page.locator(".jp-Cell").nth(0).locator(".widget-readout").first().textContent())).toBe(v);
     });
 
     it("an explorer input changed in the page recomputes in the page", async () => {
