@@ -219,20 +219,20 @@ export class ResultTable implements Displayable {
     } else if (isDocumentedResult(input)) {
       const r = input as WithParameters;
       this.title = r.title ?? r.model ?? "";
-      for (const [name, e] of Object.entries(r.inputs ?? {})) this.rows.push({ section: "Inputs", name, symbol: "", meaning: name, value: formatEntry(e) });
+      for (const [name, e] of Object.entries(r.inputs ?? {})) this.rows.push({ section: "Inputs", name, symbol: "", meaning: "", value: formatEntry(e) });
       for (const [name, p] of Object.entries(r.parameters ?? {})) {
         this.rows.push({
           section: "Results",
           name,
           symbol: "",
-          meaning: p.fixed ? `${name} (fixed)` : name,
+          meaning: p.fixed ? "fixed" : "",
           value: p.fixed ? formatQuantity(p.value, p.unit) : formatWithError(p.value, p.stderr, p.unit),
         });
       }
       this.notes = storyOf(r);
     } else {
       this.title = "";
-      for (const [name, e] of Object.entries(input as Record<string, Entry>)) this.rows.push({ section: "", name, symbol: "", meaning: name, value: formatEntry(e) });
+      for (const [name, e] of Object.entries(input as Record<string, Entry>)) this.rows.push({ section: "", name, symbol: "", meaning: "", value: formatEntry(e) });
       this.notes = [];
     }
   }
@@ -256,7 +256,7 @@ export class ResultTable implements Displayable {
     lines.push(
       ...this.grouped(
         (s) => `| **${s}** | | |`,
-        (r) => `| ${esc(r.meaning)} | ${r.symbol ? `$${r.symbol}$` : ""} | ${esc(r.value)} |`,
+        (r) => `| ${r.meaning ? esc(r.meaning) : `\`${r.name}\``} | ${r.symbol ? `$${r.symbol}$` : ""} | ${esc(r.value)} |`,
       ),
     );
     if (this.statements.length) lines.push("", ...this.statements.map((s) => `- ${esc(capital(s.meaning))}: ${esc(s.text)}`));
@@ -267,7 +267,7 @@ export class ResultTable implements Displayable {
   latex(): string {
     const body = this.grouped(
       (s) => `\\multicolumn{3}{l}{\\textbf{${texText(s)}}} \\\\`,
-      (r) => `${texText(r.meaning)} & ${r.symbol ? `$${r.symbol}$` : ""} & ${texText(r.value)} \\\\`,
+      (r) => `${texText(r.meaning || r.name)} & ${r.symbol ? `$${r.symbol}$` : ""} & ${texText(r.value)} \\\\`,
     ).join("\n");
     return `\\begin{tabular}{lll}\n\\hline\nQuantity & Symbol & Value \\\\\n\\hline\n${body}\n\\hline\n\\end{tabular}`;
   }
@@ -275,7 +275,7 @@ export class ResultTable implements Displayable {
   html(): string {
     const rows = this.grouped(
       (s) => `<tr class="helicoid-group"><th colspan="3" style="text-align:left">${html(s)}</th></tr>`,
-      (r) => `<tr data-name="${html(r.name)}"><td title="${html(r.name)}">${html(r.meaning)}</td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`,
+      (r) => `<tr data-name="${html(r.name)}"><td title="${html(r.name)}">${html(r.meaning || r.name)}</td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`,
     ).join("");
     const statements = this.statements.length
       ? `<ul class="helicoid-statements">${this.statements.map((s) => `<li><b>${html(capital(s.meaning))}</b>: ${html(s.text)}</li>`).join("")}</ul>`
@@ -303,7 +303,7 @@ export function textRows(rows: Row[]): string[] {
   rows.forEach((r, i) => {
     if (r.section && r.section !== last) out.push(r.section);
     last = r.section;
-    out.push(`  ${padU(sym[i]!, w1)}  ${padU(r.value, w2)}  ${r.meaning}`);
+    out.push(`  ${padU(sym[i]!, w1)}  ${padU(r.value, w2)}  ${r.meaning || r.name}`);
   });
   return out;
 }
