@@ -275,7 +275,8 @@ export class ResultTable implements Displayable {
   html(): string {
     const rows = this.grouped(
       (s) => `<tr class="helicoid-group"><th colspan="3" style="text-align:left">${html(s)}</th></tr>`,
-      (r) => `<tr data-name="${html(r.name)}"><td title="${html(r.name)}">${html(r.meaning || r.name)}</td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`,
+      (r) =>
+        `<tr data-name="${html(r.name)}"><td title="${html(r.name)}">${html(r.meaning || r.name)}</td><td>${r.symbol ? symbolHtml(r.symbol) : ""}</td><td>${html(r.value)}</td></tr>`,
     ).join("");
     const statements = this.statements.length
       ? `<ul class="helicoid-statements">${this.statements.map((s) => `<li><b>${html(capital(s.meaning))}</b>: ${html(s.text)}</li>`).join("")}</ul>`
