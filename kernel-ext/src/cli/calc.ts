@@ -13,6 +13,7 @@
  */
 import {
   catalogue,
+  filmInputNames,
   coerceInputs,
   customaryUnit,
   formatQuantity,
@@ -193,7 +194,7 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
       filmNotes.push(...film.notes);
     }
     const given = inputs as Record<string, unknown>;
-    const film = filmInputs(spec);
+    const film = filmInputNames(spec);
     const missing = film.filter((n) => given[n] === undefined && !(options.sweep?.over === n));
     if (missing.length && !a.flags.has("--demo")) throw missingFilm(spec, film, missing);
     const progress = a.flags.has("--progress") || io.stderrIsTTY === true ? progressWriter(id!, io) : null;
@@ -252,16 +253,6 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
   }
 }
 
-/** The film inputs a film calculator requires on the command line (those of Ms, A, Ku, D, t it takes). */
-export const FILM_INPUTS = ["Ms", "A", "Ku", "D", "t"] as const;
-
-/** A film calculator takes a film's Ms, A and t; it needs every film input it has. */
-export function filmInputs(spec: CalculatorSpec): string[] {
-  const names = spec.inputs.map((i) => i.name);
-  if (!["Ms", "A", "t"].every((n) => names.includes(n))) return [];
-  return FILM_INPUTS.filter((n) => names.includes(n));
-}
-
 function showInput(spec: CalculatorSpec, name: string, v: number): string {
   const unit = spec.inputs.find((i) => i.name === name)?.unit ?? "";
   return unit ? formatQuantity(v, unit) : String(v);
@@ -308,7 +299,7 @@ function refuseBareNumber(spec: CalculatorSpec, name: string, value: string, par
 /** `helicoid calc ID --help`: what the calculator computes, from its spec. */
 function calculatorHelp(spec: ReturnType<typeof getCalculator>): string {
   const q = (v: number, unit: string) => (unit ? formatQuantity(v, unit) : String(v));
-  const film = filmInputs(spec);
+  const film = filmInputNames(spec);
   const lines = [`${spec.id}: ${spec.title}`, "", spec.summary, "", "inputs (name=value with a unit; defaults in brackets):"];
   if (film.length) lines.push(`  required: the film's ${film.join(", ")} (or --demo: the invented demo film's values, in brackets as "demo")`);
   for (const i of spec.inputs) {
