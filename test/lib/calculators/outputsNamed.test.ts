@@ -41,10 +41,6 @@ const notYetNamed: Record<string, { outputs: string[]; why: string }> = {
     outputs: ["chernText", "zoneGrid", "magnonDepletion", "TSweep", "TSweepConverged", "kappaXYSweep", "kappaXYReducedSweep"],
     why: "no test with an outside value yet",
   },
-  "dipolar-lattice": {
-    outputs: ["summary", "lambdaMin", "energyPerSite", "energyPerSiteK", "degeneracy", "pathDistance", "band1", "band2", "band4", "band5", "band6"],
-    why: "no test with an outside value yet",
-  },
 };
 
 describe("every calculator output is named in a test", () => {
