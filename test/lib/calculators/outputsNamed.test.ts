@@ -12,27 +12,6 @@ import { testFiles, unnamedOutputs, unnamedReport } from "../../helpers/unnamedO
 
 /** Outputs no test names yet, by calculator id, with the reason (keep it short and honest). */
 const notYetNamed: Record<string, { outputs: string[]; why: string }> = {
-  skyrmion: {
-    outputs: [
-      "magnetostaticEnergy",
-      "minimaCount",
-      "deltaParameter",
-      "validityRadius",
-      "branchCount",
-      "principalBranch",
-      "wallWidthSweep",
-      "energySweep",
-      "allFieldSweep",
-      "allRadiusSweep",
-      "allBranchSweep",
-    ],
-    why: "no test with an outside value yet",
-  },
-  "skyrmion-profile": {
-    outputs: ["thetaAnsatz", "mzAnsatz", "mzExact", "radiusAnsatzNonlocal", "wallWidthAnsatz", "modeNumber", "continuumEdge"],
-    why: "no test with an outside value yet",
-  },
-  "skyrmion-stability": { outputs: ["modeNumber", "continuumEdge", "stripOutResolution", "regime"], why: "no test with an outside value yet" },
   texture: {
     outputs: ["Qinteger", "Qcontinuum", "zeroLineCount", "inPlaneTolerance", "objectVorticity", "objectKinds", "lineX", "lineMz"],
     why: "no test with an outside value yet",
