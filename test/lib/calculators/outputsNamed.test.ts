@@ -11,16 +11,7 @@ import { catalogue } from "@helicoid/lib";
 import { testFiles, unnamedOutputs, unnamedReport } from "../../helpers/unnamedOutputs.js";
 
 /** Outputs no test names yet, by calculator id, with the reason (keep it short and honest). */
-const notYetNamed: Record<string, { outputs: string[]; why: string }> = {
-  texture: {
-    outputs: ["Qinteger", "Qcontinuum", "zeroLineCount", "inPlaneTolerance", "objectVorticity", "objectKinds", "lineX", "lineMz"],
-    why: "no test with an outside value yet",
-  },
-  "magnon-hall": {
-    outputs: ["chernText", "zoneGrid", "magnonDepletion", "TSweep", "TSweepConverged", "kappaXYSweep", "kappaXYReducedSweep"],
-    why: "no test with an outside value yet",
-  },
-};
+const notYetNamed: Record<string, { outputs: string[]; why: string }> = {};
 
 describe("every calculator output is named in a test", () => {
   const files = testFiles().filter((f) => !f.path.endsWith("outputsNamed.test.ts"));
