@@ -10,7 +10,9 @@
  * - the result survives a JSON round trip (what `helicoid calc --json` and the widgets carry);
  * - every example of every command's `--help` runs (a real process of the built command);
  * - each calculator has a test comparing a headline output with a value from outside the project
- *   (`outsideChecks`): the test exists, names its source and names the headline outputs.
+ *   (`outsideChecks`): the test exists, names its source and names the headline outputs;
+ * - every output of every calculator is named in some test (outputsNamed.test.ts, with the list
+ *   from test/helpers/unnamedOutputs.ts; the outputs*.test.ts files check them against outside values).
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
