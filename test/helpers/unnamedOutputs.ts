@@ -3,7 +3,7 @@
  *
  * An output `o` of calculator `id` counts as named when one test file (test/**\/*.test.ts) both
  * names the calculator (its id in quotes, or the camel-case `<id>Spec` / `<id>Calculator` variable
- * the contract test also accepts) and names the output as a whole word. This is a lower bound on
+ * the contract test also accepts) and names the output in code: in quotes or as a property, outside comments. This is a lower bound on
  * testing (a named output may still be checked loosely), but an output never named cannot be
  * checked by any test.
  *
@@ -31,6 +31,11 @@ export function testFiles(root = join(repoRoot, "test")): { path: string; text: 
   return out;
 }
 
+/** The text without // line comments and block comments (a name in a comment checks nothing). */
+export function stripComments(text: string): string {
+  return text.replace(/\/\*[\s\S]*?\*\//g, "").replace(/(^|[^:"'`\\])\/\/.*$/gm, "$1");
+}
+
 const escape = (s: string): string => s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
 
 /** Does `text` name the calculator `id`? */
@@ -44,7 +49,8 @@ export function unnamedOutputs(files = testFiles()): Record<string, string[]> {
   const result: Record<string, string[]> = {};
   for (const spec of catalogue) {
     const texts = files.filter((f) => namesCalculator(f.text, spec.id)).map((f) => f.text);
-    const missing = spec.outputs.map((o) => o.name).filter((name) => !texts.some((t) => new RegExp(`\\b${escape(name)}\\b`).test(t)));
+    // named in code, not only in a comment: in quotes (num(r, "radius")) or as a property (outputs.radius)
+    const missing = spec.outputs.map((o) => o.name).filter((name) => !texts.some((t) => new RegExp(`["'\`]${escape(name)}["'\`]|\\.${escape(name)}\\b`).test(stripComments(t))));
     if (missing.length > 0) result[spec.id] = missing;
   }
   return result;

@@ -147,6 +147,10 @@ print(json.dumps({'Rloc': float(np.exp(p.x[0])), 'wloc': float(np.exp(p.x[1])), 
     expect(rel(num(r, "continuumEdge"), 1 + (film.Ms * B) / (2 * Keff))).toBeLessThan(1e-12);
     // angular harmonics e^{i m phi} of the radial modes, m = 0..4 (Schuette and Garst 2014)
     expect(arr(r, "modeNumber")).toEqual([0, 1, 2, 3, 4]);
+    // the continuum model's stated limit R >= 5 a, said with the numbers of these inputs
+    expect(txt(r, "validity")).toContain(`5 a = ${(5 * 0.3).toFixed(3)} nm`);
+    expect(txt(r, "validity")).toMatch(/inside the continuum model's validity/);
+    expect(txt(r, "branch")).toMatch(/skyrmion/);
   });
 
   it("skyrmion-stability: the continuum edge, the mode numbers, and the regime and strip-out bracket above D_c", () => {
@@ -154,6 +158,8 @@ print(json.dumps({'Rloc': float(np.exp(p.x[0])), 'wloc': float(np.exp(p.x[1])), 
     const r = runCalculator(getCalculator("skyrmion-stability"), { ...film, B, a: 0.3e-9, search: 0, Bmin: -0.05 });
     expect(rel(num(r, "continuumEdge"), 1 + (film.Ms * B) / (2 * Keff))).toBeLessThan(1e-12);
     expect(arr(r, "modeNumber")).toEqual([0, 1, 2, 3, 4]);
+    expect(txt(r, "validity")).toContain(`5 a = ${(5 * 0.3).toFixed(3)} nm`);
+    expect(txt(r, "branch")).toMatch(/skyrmion/);
     // above D_c = 4 sqrt(A K_eff) / pi (A. Bogdanov, A. Hubert 1994) and below B_sat the spiral is the ground
     // state; B_sat is where Braun's exact 360-degree pair energy 8 sqrt(A K_eff)(sqrt(1 + h) + h asinh(1/sqrt h))
     // - 2 pi |D| vanishes (H.-B. Braun, PRB 50, 16501 (1994)), h = Ms B / (2 K_eff), solved by scipy brentq

@@ -249,6 +249,22 @@ print(json.dumps(out))`,
     expect(got.length).toBe(ref.length);
     got.forEach((b, i) => expect(Math.abs(b - ref[i]!)).toBeLessThan(1e-9 * Math.max(1, Math.abs(ref[i]!))));
     arr(r, "BSweep").forEach((b, i) => expect(Math.abs(b - 2 * i)).toBeLessThan(1e-12));
+    // the rotor's Boltzmann weight beyond |m| = S: levels D (m - x)^2, x = g muB B / (2 D), m in Z (+1/2 for
+    // half-integer S) (the planar rotor of a large easy-plane spin; summed in mpmath to |m| = 200)
+    const hot = runCalculator(getCalculator("easy-plane"), { twoS: 3, D: 1.7, B: 3, T: 8 });
+    const refTrunc = runPython<number>(
+      `
+import json, sys, mpmath as mp
+c = json.load(sys.stdin)
+x = mp.mpf(c['b'])/(2*c['D'])
+ms = [mp.mpf(k) + (mp.mpf(1)/2 if c['twoS'] % 2 else 0) for k in range(-200, 200)]
+w = lambda m: mp.exp(-c['D']*(m - x)**2/c['T'])
+S = mp.mpf(c['twoS'])/2
+print(json.dumps(float(sum(w(m) for m in ms if abs(m) > S)/sum(w(m) for m in ms))))`,
+      { twoS: 3, D: 1.7, T: 8, b: (2 * c.muB * 3) / c.kB },
+    );
+    expect(refTrunc).toBeGreaterThan(0.01);
+    expect(Math.abs(num(hot, "truncation") / refTrunc - 1)).toBeLessThan(1e-9);
   });
 
   it("wall-fit: scipy curve_fit of the same synthetic cut gives the same correlation, pulls, chi-square and residuals", () => {
@@ -278,6 +294,9 @@ print(json.dumps({'corr': C[1, 2]/np.sqrt(C[1, 1]*C[2, 2]), 'R': p[1], 'w': p[2]
     expect(Math.abs(num(r, "wpull") - (o.w - inputs.w) / o.sw)).toBeLessThan(1e-4);
     expect(rel(num(r, "chiSquareReduced"), o.chi2)).toBeLessThan(1e-8);
     arr(r, "residual").forEach((v, i) => expect(Math.abs(v - o.res[i]!)).toBeLessThan(1e-7));
+    // the fitted curve: the data minus scipy's residuals
+    const data = arr(r, "data");
+    arr(r, "model").forEach((v, i) => expect(Math.abs(v - (data[i]! - o.res[i]!))).toBeLessThan(1e-7));
     // with the generating model and known sigma, the reduced chi-square is 1 within a few sqrt(2 / nu)
     expect(Math.abs(num(r, "chiSquareReduced") - 1)).toBeLessThan(4 * Math.sqrt(2 / (inputs.points - 5)));
   });
