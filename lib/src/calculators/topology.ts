@@ -162,7 +162,16 @@ export const textureSpec = defineCalculator({
     { name: "kind", symbol: "\\text{kind}", unit: "", default: 0, min: 0, max: 5, scale: "linear", kind: "choice", choices: KINDS, meaning: "which texture to generate" },
     { name: "n", symbol: "n", unit: "", default: 128, min: 16, max: 512, scale: "log", kind: "integer", meaning: "cells along x and y" },
     { name: "cell", symbol: "\\delta x", unit: "m", default: 1e-9, min: 1e-10, max: 1e-8, scale: "log", meaning: "cell size" },
-    { name: "R", symbol: "R", unit: "m", default: 20e-9, min: 1e-9, max: 100e-9, scale: "log", meaning: "radius where m_z = 0 (outer radius of a skyrmionium)" },
+    {
+      name: "R",
+      symbol: "R",
+      unit: "m",
+      default: 20e-9,
+      min: 1e-9,
+      max: 100e-9,
+      scale: "log",
+      meaning: "radius where m_z = 0 (outer radius of a skyrmionium); for walls thin against R, the profiles add, so thick walls shift the zeros",
+    },
     { name: "w", symbol: "w", unit: "m", default: 5e-9, min: 5e-10, max: 30e-9, scale: "log", meaning: "wall width of the profile (core radius of a vortex)" },
     {
       name: "helicity",

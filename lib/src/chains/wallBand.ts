@@ -33,7 +33,7 @@
  * With fields the bounds are the extremes of E_a(K) + E_b(q - K) over K and bands.
  *
  * Intraband ("Villain") scattering at T > 0: S^z_q moves a thermally excited wall from K to K - q
- * without creating walls, at w = E(K) - E(K - q) = 2 Jperp sin q sin(2K - q) (hx = hz = 0), so the
+ * without creating walls, at w = E(K - q) - E(K) = 2 Jperp sin q sin(2K - q) (hx = hz = 0), so the
  * weight fills |w| <= 2 Jperp |sin q| with square-root edges. For a wall at bond j the spins change
  * sign across it, and the matrix element is |<K - q|S^z_q|K>|^2 = 1 / (4 N cos^2(q/2)) (the
  * Fourier sum of a staggered step; valid for |q - pi| larger than the wall density), so per site
