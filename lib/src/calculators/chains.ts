@@ -12,6 +12,7 @@ import type { ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./
 import { defineCalculator } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
+import { brentMinimize } from "../numeric/brentMinimize.js";
 import { chainModel, kelvinToGHz, kelvinToMeV, ringLabel, type ChainModel } from "../chains/model.js";
 import { sectorLevels } from "../chains/spectrum.js";
 import { allowedSymmetries, sectorMemoryEstimate, sectorName, type SectorLabel } from "../chains/basis.js";
@@ -518,6 +519,19 @@ export const chainDynamicsSpec = defineCalculator({
 });
 
 // ---------------------------------------------------------------- wall-band
+/**
+ * Bottom of the lower one-wall band: the grid minimum refined by Brent's method between its grid
+ * neighbours (the band is smooth there), so the gap is not the grid's value (off by up to ~1e-4 K on
+ * the 121-point grid).
+ */
+function wallBandBottom(p: { Jz: number; Jperp: number; hx: number; hz: number }, K: number[], lower: number[]): number {
+  let i = 0;
+  for (let j = 1; j < lower.length; j++) if (lower[j]! < lower[i]!) i = j;
+  const step = K[1]! - K[0]!;
+  const k0 = K[i]!;
+  const refined = brentMinimize((k) => domainWallBand(p, [k]).lower[0]!, k0 - step, k0 + step, 1e-12);
+  return Math.min(refined.f, lower[i]!);
+}
 function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeOutput {
   const p = { Jz: v.Jz!, Jperp: v.Jperp!, hx: v.hx!, hz: v.hz! };
   if (p.Jz === 0) throw new InputError("Jz", 0, "a non-zero Ising exchange");
@@ -539,7 +553,7 @@ function computeWallBand(v: InputValues, options: ComputeOptions = {}): ComputeO
     values.continuumLower = c.lower;
     values.continuumUpper = c.upper;
     values.villainEdge = villainEdge(p, q);
-    values.wallGap = Math.min(...band.lower);
+    values.wallGap = wallBandBottom(p, K, band.lower);
     const T = v.T!;
     if (T > 0) {
       values.wallDensity = wallDensity(p, T);
