@@ -11,7 +11,7 @@ export function loadMathUnits(): MathUnits {
   return { unit, createUnit };
 }
 export function loadMathExpressions(): MathExpressions {
-  return { compile, parse };
+  return { compile, parse, unit, createUnit };
 }
 export function loadMathComplex(): MathComplex {
   return { complex, sqrt, eigs };
