@@ -10,6 +10,7 @@ import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import * as mathjs from "mathjs";
 import { loadMathUnits, UNIT_FACTORIES } from "../../../lib/src/quantity/mathjsLoad.js";
+import * as browserLoad from "../../../lib/src/quantity/mathjsLoad.browser.js";
 
 const dist = fileURLToPath(new URL("../../../lib/dist/index.js", import.meta.url));
 
@@ -138,6 +139,33 @@ describe("mathjs is loaded only when a unit must be parsed", () => {
       expect(() => own.unit(bad), bad).toThrow();
       expect(() => mathjs.unit(bad), bad).toThrow();
     }
+  });
+
+  it("the browser loader's lazily built instances read units, formulas and eigenvalues as mathjs's default instance does", () => {
+    // Reference: mathjs's default instance (the whole library), same version
+    const u = browserLoad.loadMathUnits();
+    for (const t of ["15 pJ/m", "1.5 mJ/m^2", "3 meV", "8 cm^-1", "50 mT"]) {
+      expect(u.unit(t).toSI().toNumeric() as number, t).toBe(mathjs.unit(t).toSI().toNumeric() as number);
+      expect(u.unit(t).toSI().formatUnits(), t).toBe(mathjs.unit(t).toSI().formatUnits());
+    }
+    const formula = "a * sin(x)^2 + exp(-x / w) + sqrt(-4)";
+    const scope = { a: 2, x: 0.3, w: 1.5 };
+    expect(
+      String(
+        browserLoad
+          .loadMathExpressions()
+          .compile(formula)
+          .evaluate({ ...scope }),
+      ),
+    ).toBe(String(mathjs.compile(formula).evaluate({ ...scope })));
+    const { complex, eigs } = browserLoad.loadMathComplex();
+    const m = [
+      [complex(2, 0), complex(0, 1)],
+      [complex(0, -1), complex(2, 0)],
+    ];
+    const ours = (eigs(m as never, { eigenvectors: false } as never) as unknown as { values: { toArray(): unknown[] } }).values;
+    const ref = (mathjs.eigs(m as never, { eigenvectors: false } as never) as unknown as { values: { toArray(): unknown[] } }).values;
+    expect(JSON.stringify(ours)).toBe(JSON.stringify(ref));
   });
 
   it("no module of the library imports mathjs at run time except the loaders (quantity/mathjsLoad*.ts)", () => {
