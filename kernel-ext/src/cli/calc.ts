@@ -32,7 +32,7 @@ import {
   type UncertaintyOptions,
 } from "@helicoid/lib";
 import { groupedRows, textRows } from "../display/table.js";
-import { saveFigure } from "../display/saveFigure.js";
+import type * as SaveFigure from "../display/saveFigure.js";
 import { errorJson, parseStrict, UsageError, type CommandIO } from "./args.js";
 
 export const calcUsage = [
@@ -218,6 +218,8 @@ export async function calcCommand(args: string[], io: CommandIO): Promise<number
     }
     if (plotPath !== undefined) {
       try {
+        // loaded for --plot only (figures, child_process): a plain calc does not pay for it
+        const { saveFigure } = require("../display/saveFigure.js") as typeof SaveFigure;
         await saveFigure(result, plotPath);
       } catch (err) {
         if (err instanceof InputError) throw err;

@@ -47,6 +47,12 @@ const edits: Array<[string, string]> = [
   // output ("Property 'radus' does not exist on type '{ radius: ...; wallWidth: ...; ... }'"),
   // where TypeScript would cut the type after 160 characters.
   ["        skipLibCheck: true,\n", "        skipLibCheck: true,\n        noErrorTruncation: true,\n"],
+  // Only Node's global types are included without an import (TypeScript otherwise includes every
+  // package under each node_modules/@types up the tree: in this repository jquery, lodash,
+  // underscore, react with csstype, chai..., 3.2 MB of declarations beside Node's 2.3 MB, parsed
+  // at kernel start and carried through every cell's program). A package imported by a cell
+  // still finds its @types; a triple-slash `/// <reference types="..." />` brings in globals.
+  ["        typeRoots: getTypeRoots(),\n", '        typeRoots: getTypeRoots(),\n        types: ["node"],\n'],
 ];
 
 let cached: typeof converterModule | null = null;

@@ -5,6 +5,8 @@
  * - a cell's last expression -> an `execute_result` (a widget, figure or table as its rich bundle);
  * - compile diagnostics and uncaught exceptions -> one `error` output (ename, evalue, traceback).
  */
+import { createRequire } from "node:module";
+import { join } from "node:path";
 import { format } from "node:util";
 import type { Converter } from "tslab/dist/converter";
 import { createExecutor, type ConverterSet, type Executor } from "tslab/dist/executor";
@@ -46,7 +48,7 @@ export class ExecutionSession {
   private exception: { value: unknown } | null = null;
 
   /** `rootDir` is where user code resolves modules from (the notebook's folder). */
-  constructor(rootDir: string = process.cwd()) {
+  constructor(private readonly rootDir: string = process.cwd()) {
     exposeOwnPackages(rootDir);
     this.executor = createExecutor(rootDir, this.converters, {
       log: (value: unknown) => {
@@ -62,9 +64,26 @@ export class ExecutionSession {
     });
   }
 
-  /** Build the TypeScript program now (it takes a second or two), instead of at the first cell. */
+  /**
+   * Build the TypeScript program now (it takes a second or two), instead of at the first cell; and
+   * since notebooks of this kernel begin by importing @helicoid/lib, read its declarations into
+   * that program (parsed and bound once, reused by every later program that imports it) and load
+   * its modules the way a cell's `require` will (from `rootDir`). The warm-up compiles a
+   * throw-away source outside the executor: no cell sees it. A library that cannot be found is
+   * left to the first cell that imports it (which then reports it).
+   */
   warm(): void {
-    void this.converters.node;
+    const node = this.converters.node;
+    try {
+      node.convert("", 'import * as __helicoidWarm from "@helicoid/lib";\n');
+    } catch {
+      // the cell that imports it will say what is wrong
+    }
+    try {
+      createRequire(join(this.rootDir, "src.js"))("@helicoid/lib");
+    } catch {
+      // idem
+    }
   }
 
   /** Run one cell in output context `ctx`. Errors are reported to `ctx.sink` and returned. */

@@ -1,11 +1,12 @@
 /**
- * mathjs, loaded on first use. Importing mathjs costs about 1 s of CPU and 40-80 MB (its
+ * mathjs, loaded on first use. Importing mathjs whole costs about 1 s of CPU and 70 MB (its
  * typed-function setup for every function), so @helicoid/lib never imports it eagerly: plain SI
- * numbers and numeric strings never load it; a string with a unit, a formula or a matrix
- * expression loads it once. Every module of the library that needs mathjs asks here, by group:
- * units (`mathUnits`), expressions (`mathExpressions`), complex numbers and eigenvalues
- * (`mathComplex`). The customary CGS units of the trade are added to the (shared, default) mathjs
- * instance before any of them is handed out, as when units.ts defined them at import.
+ * numbers and numeric strings never load it; a string with a unit loads a units-only instance
+ * (about 0.15 s), a formula or a matrix expression a lazily built full one (`./mathjsLoad.ts`).
+ * Every module of the library that needs mathjs asks here, by group: units (`mathUnits`),
+ * expressions (`mathExpressions`), complex numbers and eigenvalues (`mathComplex`). The customary
+ * CGS units of the trade are added to every instance that parses units before it is handed out
+ * (in Node the units and the expressions are two instances; in a browser bundle one).
  */
 import { loadMathComplex, loadMathExpressions, loadMathUnits, type MathComplex, type MathExpressions, type MathUnits } from "./mathjsLoad.js";
 
@@ -26,18 +27,16 @@ export function mathUnits(): MathUnits {
 /** mathjs's compile and parse (expressions may hold units: the CGS units are defined first). */
 export function mathExpressions(): MathExpressions {
   if (!expressions) {
-    mathUnits();
-    expressions = loadMathExpressions();
+    const m = loadMathExpressions();
+    defineCgsUnits(m);
+    expressions = m;
   }
   return expressions;
 }
 
 /** mathjs's complex, sqrt and eigs. */
 export function mathComplex(): MathComplex {
-  if (!complexes) {
-    mathUnits();
-    complexes = loadMathComplex();
-  }
+  complexes ??= loadMathComplex();
   return complexes;
 }
 

@@ -89,4 +89,16 @@ describe("typed calculators in notebook cells", () => {
     expect(err).toMatch(/"skyrmon"/);
     expect(err).toContain('"skyrmion"');
   }, 400_000);
+
+  it("cells see Node's global types (the kernel includes only @types/node without an import) and a wrong one still fails to compile", () => {
+    // Common practice, no source: Buffer, process and NodeJS.Timeout are @types/node globals
+    const r = runCells("node-globals", [
+      'const b: Buffer = Buffer.from("ab");\nconst t: NodeJS.Timeout = setTimeout(() => {}, 0);\nclearTimeout(t);\nconsole.log(`${b.length}|${typeof process.version}`);',
+      "const wrong: number = Buffer.from('ab');",
+    ]);
+    expect(r.status).not.toBe(0);
+    expect(errorText(r.cells[0]!.outputs)).toBe("");
+    expect(stdout(r.cells[0]!.outputs)).toBe("2|string\n");
+    expect(errorText(r.cells[1]!.outputs)).toMatch(/Buffer.*not assignable to type 'number'/);
+  }, 400_000);
 });

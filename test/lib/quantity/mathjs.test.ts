@@ -1,5 +1,6 @@
 // mathjs is loaded lazily (lib/src/quantity/mathjs.ts): importing @helicoid/lib and running a
-// calculator with SI numbers must not load it; the first string with a unit must. A structural
+// calculator with SI numbers must not load it; the first string with a unit loads a units-only
+// instance built from mathjs's factories, the first formula a lazily built full one. A structural
 // check on the built library in a fresh Node process (a module-load hook and require.cache), not a
 // timing. Common practice, no source.
 import { spawnSync } from "node:child_process";
@@ -7,6 +8,9 @@ import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import * as mathjs from "mathjs";
+import { loadMathUnits, UNIT_FACTORIES } from "../../../lib/src/quantity/mathjsLoad.js";
+import * as browserLoad from "../../../lib/src/quantity/mathjsLoad.browser.js";
 
 const dist = fileURLToPath(new URL("../../../lib/dist/index.js", import.meta.url));
 
@@ -52,16 +56,116 @@ describe("mathjs is loaded only when a unit must be parsed", () => {
     expect(out.text).toBe("3 nm");
   });
 
-  it("a string with a unit loads mathjs once, with the CGS units defined", () => {
+  it("a string with a unit loads a units-only mathjs (its factory files, never the whole library), with the CGS units defined", () => {
     const r = child(`
-      return [lib.parseQuantity("A", "15 pJ/m", "J/m"), lib.parseQuantity("H", "1 kOe", "A/m")];
+      const out = [lib.parseQuantity("A", "15 pJ/m", "J/m"), lib.parseQuantity("H", "1 kOe", "A/m")];
+      const files = Object.keys(require.cache).filter((k) => /[\\/]node_modules[\\/]mathjs[\\/]/.test(k)).map((k) => k.replace(/.*[\\/]lib[\\/]cjs[\\/]/, "").replace(/\\\\/g, "/"));
+      return { out, files };
     `);
     expect(r.cached).toBe(true);
-    expect(r.loads.filter((x) => x === "mathjs")).toEqual(["mathjs"]);
-    const [A, H] = r.out as number[];
+    // no `require("mathjs")`: its entry builds every function (about 1 s of CPU)
+    expect(r.loads).toEqual([]);
+    const { out, files } = r.out as { out: number[]; files: string[] };
+    expect(files).toContain("type/unit/Unit.js");
+    expect(files).not.toContain("index.js");
+    expect(files).not.toContain("factoriesAny.js");
+    expect(files.some((f) => f.startsWith("expression/"))).toBe(false);
+    const [A, H] = out;
     expect(A).toBeCloseTo(15e-12, 24);
     // Source: NIST SP 811 (2008), appendix B.9: 1 Oe = (1000 / 4 pi) A/m
     expect(H).toBeCloseTo(1e6 / (4 * Math.PI), 6);
+  });
+
+  it("a formula loads the full (lazily built) mathjs, with the CGS units defined there too", () => {
+    const r = child(`
+      const m = lib.formulaModel("a * x");
+      const y = new Float64Array(1);
+      m.bind(new Float64Array([3])).model([2], y);
+      const family = lib.compileMatrixFamily("[[lambda * 1 Oe / (1 A/m), 0], [0, -lambda]]");
+      const files = Object.keys(require.cache).filter((k) => /[\\/]node_modules[\\/]mathjs[\\/]/.test(k)).map((k) => k.replace(/.*[\\/]lib[\\/]cjs[\\/]/, "").replace(/\\\\/g, "/"));
+      return { y: y[0], h: family(1), files };
+    `);
+    expect(r.loads).toEqual([]);
+    const { y, h, files } = r.out as { y: number; h: { re: number[] }; files: string[] };
+    expect(files).toContain("factoriesAny.js");
+    expect(files).not.toContain("index.js");
+    expect(y).toBe(6);
+    // Source: NIST SP 811 (2008), appendix B.9: 1 Oe = (1000 / 4 pi) A/m
+    expect(h.re[0]).toBeCloseTo(1000 / (4 * Math.PI), 9);
+  });
+
+  it("the units-only factory list is the closure mathjs itself declares for unit and createUnit", () => {
+    // Source: mathjs's generated dependency lists (unitDependencies, createUnitDependencies)
+    const factories = new Set<string>();
+    const walk = (o: Record<string, unknown>): void => {
+      for (const [k, v] of Object.entries(o)) {
+        if (typeof v === "function") factories.add(k);
+        else if (v && typeof v === "object") walk(v as Record<string, unknown>);
+      }
+    };
+    walk({ a: mathjs.unitDependencies, b: mathjs.createUnitDependencies });
+    expect(new Set(UNIT_FACTORIES.map(([name]) => name))).toEqual(factories);
+  });
+
+  it("the units-only instance reads units exactly as mathjs's default instance does", () => {
+    // Reference: mathjs's default instance (the whole library), same version
+    const own = loadMathUnits();
+    const texts = [
+      "15 pJ/m",
+      "1.1 MA/m",
+      "0.8 MJ/m^3",
+      "1.5 mJ/m^2",
+      "1 nm",
+      "50 mT",
+      "3 meV",
+      "10 GHz",
+      "8 cm^-1",
+      "2 m^2/s^2",
+      "1 erg",
+      "4 uT",
+      "1e7 erg/cm^3",
+      "300 K",
+      "5 kg m^2 / s^2",
+      "1 eV",
+    ];
+    for (const t of texts) {
+      const a = own.unit(t);
+      const b = mathjs.unit(t);
+      expect(a.equalBase(b as never), t).toBe(true);
+      expect(a.toSI().toNumeric() as number, t).toBe(b.toSI().toNumeric() as number);
+      expect(a.toSI().formatUnits(), t).toBe(b.toSI().formatUnits());
+    }
+    for (const bad of ["5 furlongs per fortnight", "2 (m/s)^2", "1 G"]) {
+      expect(() => own.unit(bad), bad).toThrow();
+      expect(() => mathjs.unit(bad), bad).toThrow();
+    }
+  });
+
+  it("the browser loader's lazily built instances read units, formulas and eigenvalues as mathjs's default instance does", () => {
+    // Reference: mathjs's default instance (the whole library), same version
+    const u = browserLoad.loadMathUnits();
+    for (const t of ["15 pJ/m", "1.5 mJ/m^2", "3 meV", "8 cm^-1", "50 mT"]) {
+      expect(u.unit(t).toSI().toNumeric() as number, t).toBe(mathjs.unit(t).toSI().toNumeric() as number);
+      expect(u.unit(t).toSI().formatUnits(), t).toBe(mathjs.unit(t).toSI().formatUnits());
+    }
+    const formula = "a * sin(x)^2 + exp(-x / w) + sqrt(-4)";
+    const scope = { a: 2, x: 0.3, w: 1.5 };
+    expect(
+      String(
+        browserLoad
+          .loadMathExpressions()
+          .compile(formula)
+          .evaluate({ ...scope }),
+      ),
+    ).toBe(String(mathjs.compile(formula).evaluate({ ...scope })));
+    const { complex, eigs } = browserLoad.loadMathComplex();
+    const m = [
+      [complex(2, 0), complex(0, 1)],
+      [complex(0, -1), complex(2, 0)],
+    ];
+    const ours = (eigs(m as never, { eigenvectors: false } as never) as unknown as { values: { toArray(): unknown[] } }).values;
+    const ref = (mathjs.eigs(m as never, { eigenvectors: false } as never) as unknown as { values: { toArray(): unknown[] } }).values;
+    expect(JSON.stringify(ours)).toBe(JSON.stringify(ref));
   });
 
   it("no module of the library imports mathjs at run time except the loaders (quantity/mathjsLoad*.ts)", () => {
