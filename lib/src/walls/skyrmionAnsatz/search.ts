@@ -68,15 +68,10 @@ function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
   const d = 1e-3;
   let u = u0;
   let v = v0;
-  const E = new Float64Array(9);
+  const E = emptyStencil();
   for (let it = 0; it < 12; it++) {
     stencil(ctx, u, v, d, E);
-    const e0 = E[4]!;
-    const gu = (E[7]! - E[1]!) / (2 * d);
-    const gv = (E[5]! - E[3]!) / (2 * d);
-    const huu = (E[7]! - 2 * e0 + E[1]!) / (d * d);
-    const hvv = (E[5]! - 2 * e0 + E[3]!) / (d * d);
-    const huv = (E[8]! - E[6]! - E[2]! + E[0]!) / (4 * d * d);
+    const { gu, gv, huu, hvv, huv } = stencilDerivatives(E, d);
     const det = huu * hvv - huv * huv;
     if (!(huu > 0 && det > 0)) break;
     let su = -(hvv * gu - huv * gv) / det;
@@ -100,8 +95,25 @@ function newtonPolish(ctx: Context, u0: number, v0: number): [number, number] {
 
 const U_CLAMP: readonly [number, number] = [Math.log(ANSATZ_A_MIN) + 0.011, Math.log(ANSATZ_A_MAX) - 0.011];
 
+/** Energies on a 3 x 3 stencil, E[3 p + q] at (u + (p - 1) d, v + (q - 1) d). */
+type Stencil = [number, number, number, number, number, number, number, number, number];
+
+const emptyStencil = (): Stencil => [0, 0, 0, 0, 0, 0, 0, 0, 0];
+
+/** Central-difference gradient and Hessian in (u, v) from a stencil of step d. */
+function stencilDerivatives(E: Stencil, d: number): { gu: number; gv: number; huu: number; hvv: number; huv: number } {
+  const e0 = E[4];
+  return {
+    gu: (E[7] - E[1]) / (2 * d),
+    gv: (E[5] - E[3]) / (2 * d),
+    huu: (E[7] - 2 * e0 + E[1]) / (d * d),
+    hvv: (E[5] - 2 * e0 + E[3]) / (d * d),
+    huv: (E[8] - E[6] - E[2] + E[0]) / (4 * d * d),
+  };
+}
+
 /** Energies on the 3 x 3 stencil of step d around (u = ln a, v = ln w), E[3 p + q]. */
-function stencil(ctx: Context, u: number, v: number, d: number, E: Float64Array): void {
+function stencil(ctx: Context, u: number, v: number, d: number, E: Stencil): void {
   for (let p = 0; p < 3; p++) {
     const a = Math.exp(u + (p - 1) * d);
     ctx.table.localIntegrals(a, ctx.I);
@@ -120,7 +132,7 @@ export const ANSATZ_STATIONARY_TOLERANCE = 1e-6;
 
 /** Finite-difference verification at (u = ln a, v = ln w); see AnsatzVerification. */
 function verify(ctx: Context, u: number, v: number): AnsatzVerification {
-  const E = new Float64Array(9);
+  const E = emptyStencil();
   const parts: SkyrmionEnergyParts = { exchange: 0, anisotropy: 0, dmi: 0, zeeman: 0, magnetostaticSurface: 0, magnetostaticVolume: 0, total: 0 };
   ctx.table.localIntegrals(Math.exp(u), ctx.I);
   energyAt(ctx, Math.exp(u), Math.exp(v), parts);
@@ -133,12 +145,7 @@ function verify(ctx: Context, u: number, v: number): AnsatzVerification {
     Math.abs(parts.magnetostaticVolume);
   const hess = (d: number): { g: number; ev: [number, number] } => {
     stencil(ctx, u, v, d, E);
-    const e0 = E[4]!;
-    const gu = (E[7]! - E[1]!) / (2 * d);
-    const gv = (E[5]! - E[3]!) / (2 * d);
-    const huu = (E[7]! - 2 * e0 + E[1]!) / (d * d);
-    const hvv = (E[5]! - 2 * e0 + E[3]!) / (d * d);
-    const huv = (E[8]! - E[6]! - E[2]! + E[0]!) / (4 * d * d);
+    const { gu, gv, huu, hvv, huv } = stencilDerivatives(E, d);
     const ev = sym2Eigen(huu, huv, hvv);
     return { g: Math.hypot(gu, gv) / scale, ev: [ev[0] / scale, ev[1] / scale] };
   };
