@@ -2,8 +2,8 @@
  * @helicoid/lib: physics of magnetic textures. SI inside, units at the edges.
  * Pure TypeScript: no Node or DOM imports, so it runs in the kernel and in the browser.
  *
- * This entry is the supported API: what the notebooks, the README, the kernel and the widgets use,
- * the documented user functions and the types of their signatures. Everything else (numerics,
+ * This entry is the supported API: what the notebooks, the README, the kernel's commands and
+ * explorers and the widgets use, the documented user functions and the types of their signatures. Everything else (numerics,
  * tables, helpers of the calculators) is reachable from "@helicoid/lib/internal" (./internal.ts),
  * which our tests and packages may import and which may change without notice. The list of public
  * names is checked by test/lib/publicApi.test.ts (see lib/src/README.md).
@@ -29,7 +29,6 @@ export {
 export {
   axisTitle,
   axisUnit,
-  COLUMN_WIDTH_PX,
   type CurrentMark,
   currentMarkFor,
   figureSvg,
@@ -149,7 +148,6 @@ export {
   type WallTraceOptions,
 } from "./dynamics/index.js";
 export {
-  adoptInterleaved,
   analyseTexture,
   antiskyrmionTexture,
   type BlochPoint,
@@ -174,8 +172,6 @@ export {
   type ObjectKind,
   type ObjectOptions,
   type ObjectsResult,
-  requireAtLeast,
-  requireSomeMatter,
   s1Winding,
   skyrmioniumTexture,
   type SkyrmionLatticeSpec,
@@ -187,8 +183,6 @@ export {
   type SkyrmionSpec,
   skyrmionTexture,
   solidAngle,
-  solidAngleSumGeneral,
-  solidAngleSumSquare,
   type TextureAnalysis,
   type TextureAnalysisOptions,
   type TextureObject,
@@ -204,17 +198,12 @@ export {
   vortexPairTexture,
   type VortexResult,
   type VortexSite,
-  wrapFlags,
 } from "./topology/index.js";
 export {
   type BlochModel,
-  checkChernInput,
   chernNumbers,
   type ChernOptions,
-  type ChernPartial,
   type ChernResult,
-  chernStrip,
-  combineChernStrips,
   coneLoop,
   easyPlaneLevels,
   giantSpinLevels,
@@ -288,13 +277,6 @@ export {
   wall360Sensitivity,
 } from "./fit/index.js";
 export {
-  checkFieldBudget,
-  DelimitedFieldParser,
-  FIELD_MEMORY_BUDGET,
-  formatBytes,
-  isNpy,
-  type NpyHeader,
-  parseNpyHeader,
   readJsonVectorField,
   readNpyVectorField,
   type ReadOptions,
