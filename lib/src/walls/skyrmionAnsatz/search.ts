@@ -278,38 +278,42 @@ export function findAnsatzMinima(film: Film, B: number, options: AnsatzOptions &
   };
   if (options.scan !== false) {
     const n = Math.ceil((uMax - uMin) / SCAN_DU);
-    const us: number[] = [];
-    const es: number[] = [];
-    const lws: number[] = [];
-    const edge: boolean[] = [];
+    // the w-minimized energy at n + 1 points of u = ln(R / w) across the window
+    const scan: Array<{ u: number; e: number; lw: number; edge: boolean }> = [];
     for (let i = 0; i <= n; i++) {
       const u = uMin + ((uMax - uMin) * i) / n;
       const g = innerGlobal(ctx, u);
-      us.push(u);
-      es.push(g.e);
-      lws.push(g.lw);
-      edge.push(g.edge);
+      scan.push({ u, e: g.e, lw: g.lw, edge: g.edge });
     }
-    small = es[0]! < es[1]!;
-    large = es[n]! < es[n - 1]!;
-    eSmall = es[0]!;
-    eLarge = es[n]!;
+    const first = scan[0];
+    const second = scan[1];
+    const last = scan[n];
+    const beforeLast = scan[n - 1];
+    if (!first || !second || !last || !beforeLast) throw new Error(`the global scan needs at least 2 points, not ${scan.length}`);
+    small = first.e < second.e;
+    large = last.e < beforeLast.e;
+    eSmall = first.e;
+    eLarge = last.e;
     // a minimum between the last two scan points and the window edge is still reportable when it
     // keeps the margin: probe those intervals (a failed probe only confirms the trend)
     if (small) {
-      const o = refine(ctx, us[0]!, us[1]!, lws[0]!);
+      const o = refine(ctx, first.u, second.u, first.lw);
       if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
     }
     if (large) {
-      const o = refine(ctx, us[n - 1]!, us[n]!, lws[n]!);
+      const o = refine(ctx, beforeLast.u, last.u, last.lw);
       if (o.kind === "min") candidates.push({ u: o.u, lw: o.lw, probe: true });
     }
     for (let i = 1; i < n; i++) {
-      if (edge[i] || !(es[i]! <= es[i - 1]! && es[i]! <= es[i + 1]!)) continue;
-      const o = refine(ctx, us[i - 1]!, us[i + 1]!, lws[i]!);
-      if (o.kind === "min" && Math.abs(o.u - us[i]!) > 2 * SCAN_DU) {
+      const prev = scan[i - 1];
+      const cur = scan[i];
+      const next = scan[i + 1];
+      if (!prev || !cur || !next) continue; // not reached: 1 <= i < n
+      if (cur.edge || !(cur.e <= prev.e && cur.e <= next.e)) continue;
+      const o = refine(ctx, prev.u, next.u, cur.lw);
+      if (o.kind === "min" && Math.abs(o.u - cur.u) > 2 * SCAN_DU) {
         // the polish left the scan bracket: a local search from the scan point decides
-        outcome(localSearch(ctx, us[i]!, lws[i]!));
+        outcome(localSearch(ctx, cur.u, cur.lw));
       } else outcome(o);
     }
   }
