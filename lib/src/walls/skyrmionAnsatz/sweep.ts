@@ -8,6 +8,20 @@ import type { AnsatzOptions } from "./energy.js";
 import { findAnsatzMinima, type AnsatzStart, type AnsatzState } from "./search.js";
 import { solveSkyrmionAnsatz, type AnsatzSkyrmion } from "./solve.js";
 
+/** xs[i], checked: a RangeError names the index when it is outside the array (a bug, not bad input). */
+function item<T>(xs: ArrayLike<T>, i: number): T {
+  const x = xs[i];
+  if (x === undefined) throw new RangeError(`index ${i} outside 0 .. ${xs.length - 1}`);
+  return x;
+}
+
+/** m.get(k), checked: every key looked up here was set before. */
+function entry<K, V>(m: ReadonlyMap<K, V>, k: K): V {
+  const v = m.get(k);
+  if (v === undefined) throw new RangeError("a branch map has no entry for a state it listed");
+  return v;
+}
+
 /** A field sweep of the ansatz skyrmion: one solve per field, warm-started from the last state. */
 export interface AnsatzSweep {
   fields: number[];
@@ -24,8 +38,8 @@ export function skyrmionFieldSweep(film: Film, fields: ArrayLike<number>, option
   const fs: number[] = [];
   let start: AnsatzStart | undefined;
   for (let i = 0; i < fields.length; i++) {
-    const B = fields[i]!;
-    if (!Number.isFinite(B)) throw new InputError(`fields[${i}]`, B, "a finite field in T");
+    const B = fields[i];
+    if (B === undefined || !Number.isFinite(B)) throw new InputError(`fields[${i}]`, B, "a finite field in T");
     const r = solveSkyrmionAnsatz(film, B, start ? { ...options, startRadius: start.radius, startWidth: start.wallWidth } : options);
     if (r.status === "ok") start = { radius: r.radius, wallWidth: r.wallWidth };
     results.push(r);
@@ -141,7 +155,7 @@ export function skyrmionBranches(film: Film, fields: ArrayLike<number>, options:
   for (let i = fs.length - 1; i > 0; i--) if (fs[i] === fs[i - 1]) fs.splice(i, 1);
   const n = fs.length;
   if (n < 2) throw new InputError("fields", n, "at least two different fields");
-  const span = fs[n - 1]! - fs[0]!;
+  const span = item(fs, n - 1) - item(fs, 0);
   const tol = options.boundaryTolerance ?? Math.max(1e-9, 1e-6 * span);
   const count = { evals: 0 };
   const opts: AnsatzOptions = { nonlocal: options.nonlocal, helicity: options.helicity };
@@ -156,74 +170,74 @@ export function skyrmionBranches(film: Film, fields: ArrayLike<number>, options:
   const per: AnsatzState[][] = [];
   const owner: Array<Map<AnsatzState, Raw>> = [];
   const matchOrAdd = (i: number, st: AnsatzState): AnsatzState => {
-    const hit = per[i]!.find((m) => Math.abs(Math.log(m.radius / st.radius)) < 1e-3 && Math.abs(Math.log(m.wallWidth / st.wallWidth)) < 1e-3);
+    const hit = item(per, i).find((m) => Math.abs(Math.log(m.radius / st.radius)) < 1e-3 && Math.abs(Math.log(m.wallWidth / st.wallWidth)) < 1e-3);
     if (hit) return hit;
-    per[i]!.push(st);
-    per[i]!.sort((p, q) => p.radius - q.radius);
+    item(per, i).push(st);
+    item(per, i).sort((p, q) => p.radius - q.radius);
     return st;
   };
   for (let i = 0; i < n; i++) {
-    const prevStates = i > 0 ? per[i - 1]! : [];
-    const sr = findAnsatzMinima(film, fs[i]!, { ...opts, starts: prevStates });
+    const prevStates = i > 0 ? item(per, i - 1) : [];
+    const sr = findAnsatzMinima(film, item(fs, i), { ...opts, starts: prevStates });
     count.evals += sr.evaluations;
     per.push([...sr.minima]);
     owner.push(new Map());
     for (const r of raws) {
       if (!r.alive) continue;
-      const res = followState(film, opts, r.states[r.states.length - 1]!, fs[i - 1]!, fs[i]!, tol, count);
+      const res = followState(film, opts, item(r.states, r.states.length - 1), item(fs, i - 1), item(fs, i), tol, count);
       if ("end" in res) {
         r.upperEnd = res.end;
         r.alive = false;
         continue;
       }
       const st = matchOrAdd(i, res.reached);
-      if (owner[i]!.has(st)) {
+      if (item(owner, i).has(st)) {
         // two branches land on the same minimum: the later one ends (merges) here
-        r.upperEnd = { field: fs[i]!, resolution: fs[i]! - fs[i - 1]!, lastField: fs[i - 1]!, kind: "fold" };
+        r.upperEnd = { field: item(fs, i), resolution: item(fs, i) - item(fs, i - 1), lastField: item(fs, i - 1), kind: "fold" };
         r.alive = false;
         continue;
       }
-      owner[i]!.set(st, r);
+      item(owner, i).set(st, r);
       r.idx.push(i);
       r.states.push(st);
     }
-    for (const st of [...per[i]!]) {
-      if (owner[i]!.has(st)) continue;
+    for (const st of [...item(per, i)]) {
+      if (item(owner, i).has(st)) continue;
       const r: Raw = { idx: [i], states: [st], alive: true };
       raws.push(r);
-      owner[i]!.set(st, r);
+      item(owner, i).set(st, r);
       // continue downwards
       let j = i;
       while (j > 0) {
-        const res = followState(film, opts, r.states[0]!, fs[j]!, fs[j - 1]!, tol, count);
+        const res = followState(film, opts, item(r.states, 0), item(fs, j), item(fs, j - 1), tol, count);
         if ("end" in res) {
           r.lowerEnd = res.end;
           break;
         }
         const sj = matchOrAdd(j - 1, res.reached);
-        if (owner[j - 1]!.has(sj)) {
-          r.lowerEnd = { field: fs[j - 1]!, resolution: fs[j]! - fs[j - 1]!, lastField: fs[j]!, kind: "fold" };
+        if (item(owner, j - 1).has(sj)) {
+          r.lowerEnd = { field: item(fs, j - 1), resolution: item(fs, j) - item(fs, j - 1), lastField: item(fs, j), kind: "fold" };
           break;
         }
-        owner[j - 1]!.set(sj, r);
+        item(owner, j - 1).set(sj, r);
         r.idx.unshift(j - 1);
         r.states.unshift(sj);
         j--;
       }
     }
   }
-  const mid = (r: Raw) => r.states[Math.floor(r.states.length / 2)]!.radius;
+  const mid = (r: Raw) => item(r.states, Math.floor(r.states.length / 2)).radius;
   raws.sort((p, q) => mid(p) - mid(q));
   const branches: SkyrmionBranch[] = raws.map((r, k) => {
     const ratios = r.states.map((s) => s.radius / s.wallWidth);
     const label = Math.max(...ratios) < 4 ? "compact skyrmion" : Math.min(...ratios) > 4 ? "bubble" : "skyrmion-bubble";
-    const b: SkyrmionBranch = { id: k + 1, label, fields: r.idx.map((i) => fs[i]!), states: r.states };
+    const b: SkyrmionBranch = { id: k + 1, label, fields: r.idx.map((i) => item(fs, i)), states: r.states };
     if (r.lowerEnd) b.lowerEnd = r.lowerEnd;
     if (r.upperEnd) b.upperEnd = r.upperEnd;
     return b;
   });
   const idOf = new Map<Raw, number>();
   raws.forEach((r, k) => idOf.set(r, k + 1));
-  const perField = per.map((list, i) => list.map((state) => ({ state, branch: idOf.get(owner[i]!.get(state)!)! })));
+  const perField = per.map((list, i) => list.map((state) => ({ state, branch: entry(idOf, entry(item(owner, i), state)) })));
   return { fields: fs, branches, perField, boundaryTolerance: tol, evaluations: count.evals };
 }
