@@ -3,7 +3,7 @@
 // (dense and banded paths; scipy's eig_banded as the banded LAPACK reference), the double-double
 // tunnel splitting, the calculator specs on defaults and their slowest corner, and the Hermitian
 // eigensolver against mathjs eigs (the library alternative).
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { eigs, complex } from "mathjs";
 import { medianMs, pythonTiming } from "./util.mjs";
 import parallelChern from "../../kernel-ext/dist/parallel/parallelChernNumbers.js";

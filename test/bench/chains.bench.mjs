@@ -9,7 +9,7 @@
 // the N = 24 ground state in the same 8 sectors (time and peak memory); S(q, w) of an N = 16 ring at
 // T = 0 for all q. The machine is shared: the load average is printed in the row names.
 import { loadavg } from "node:os";
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { pythonTiming, summary, verdict } from "./util.mjs";
 
 const scipyScript = `

@@ -13,7 +13,7 @@
 // fluxes (complement); what is left is the eigensolver's own speed (40 000 solves, about 5 us each
 // here), which belongs with the dense eigensolver work. The 2-thread row (berry.bench.mjs,
 // parallelChernNumbers) is the way under 200 ms today.
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";

@@ -3,7 +3,7 @@
 // Reference: numpy/scipy doing the same work (vectorized periodic trapezoid with doubling, brentq for
 // the steady angle; scipy solve_ivp RK45 with an event for the period), in the system Python.
 // Ours and the reference are interleaved: five rounds, each timing ours then Python; medians reported.
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { medianMs, pythonTiming } from "./util.mjs";
 
 const film = lib.makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9, alpha: 0.3 });

@@ -7,7 +7,7 @@
 // (HermitianEigenSolver, the Chern-number workhorse) at 6 x 6 and 40 x 40 against numpy.linalg.eigh
 // (zheevd), interleaved the same way: berry.bench.mjs compares it only with mathjs.
 // HELICOID_BENCH_EIGEN_ROUNDS (default 5).
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { medianMs, pythonTiming, summary, verdict } from "./util.mjs";
 
 const ROUNDS = Number(process.env.HELICOID_BENCH_EIGEN_ROUNDS ?? 5);

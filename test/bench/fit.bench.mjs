@@ -3,7 +3,7 @@
 // analytic Jacobians; and a stray-field fit with Gaussian blur (FFT model, analytic Jacobian through
 // the FFT). Both sides report steady-state medians (ours after warm-up runs for the JIT: 25 for 10 000 points, whose first ~20 fits run at tier-up speed; scipy
 // after its first call inside the timing loop is discarded by the median).
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { medianMs, pythonTiming } from "./util.mjs";
 
 const nm = 1e-9;

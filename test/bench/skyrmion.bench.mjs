@@ -1,6 +1,6 @@
 // Skyrmion benchmarks: ansatz solve with non-local magnetostatics, a 200-point R(B) sweep, and the
 // exact radial profile against scipy.integrate.solve_bvp on the same boundary-value problem.
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { medianMs, pythonTiming } from "./util.mjs";
 import { spawnSync } from "node:child_process";
 import { dirname, join } from "node:path";
@@ -11,7 +11,7 @@ const here = dirname(fileURLToPath(import.meta.url));
 // Fresh process: the first runCalculator("skyrmion") with its defaults and 200-point sweep (what the
 // page's Web Worker does on first use: builds the table rows it needs), then the warm median.
 const CALCULATOR_CHILD = `
-const lib = require(${JSON.stringify(join(here, "../../lib/dist/index.js"))});
+const lib = require(${JSON.stringify(join(here, "../../lib/dist/internal.js"))});
 const spec = lib.getCalculator("skyrmion");
 const t0 = performance.now();
 const r = lib.runCalculator(spec);

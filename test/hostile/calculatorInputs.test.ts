@@ -15,7 +15,7 @@
  */
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { catalogue, runCalculator, InputError, ConvergenceError, COMPUTE_BUDGET, type CalculatorSpec } from "@helicoid/lib";
+import { catalogue, runCalculator, InputError, ConvergenceError, COMPUTE_BUDGET, type CalculatorSpec } from "@helicoid/lib/internal";
 
 const hostileNumbers = [NaN, Infinity, -Infinity, 1e300, -1e300, 1e-300, -1e-300, 0, -0, -1, 1e9, 2 ** 53, -(2 ** 31), 2.5, 1e-9];
 const hostileStrings = ["abc", "", "  ", "1e309", "-1e309", "NaN", "Infinity", "5 kg", "3 s", "1e-400 m", "0x10", "1,5", "2e2e2", "12 pJ/m pJ"];

@@ -16,7 +16,8 @@
 import { writeFileSync } from "node:fs";
 import { execFileSync } from "node:child_process";
 import { extname } from "node:path";
-import { figureSvg, getCalculator, plotFigure, currentMarkFor, COLUMN_WIDTH_PX, type CalculatorResult } from "@helicoid/lib";
+import { figureSvg, getCalculator, plotFigure, currentMarkFor, type CalculatorResult } from "@helicoid/lib";
+import { COLUMN_WIDTH_PX } from "@helicoid/lib/internal";
 import { Figure, type FigureSpec } from "./figure.js";
 
 export interface SaveFigureOptions {

@@ -12,20 +12,8 @@
  */
 import { closeSync, openSync, readSync, fstatSync } from "node:fs";
 import { basename } from "node:path";
-import {
-  DelimitedFieldParser,
-  InputError,
-  adoptInterleaved,
-  checkFieldBudget,
-  formatBytes,
-  parseNpyHeader,
-  readNpyVectorField,
-  readVectorField,
-  isNpy,
-  FIELD_MEMORY_BUDGET,
-  type ReadOptions,
-  type ReadResult,
-} from "@helicoid/lib";
+import { InputError, readNpyVectorField, readVectorField, type ReadOptions, type ReadResult } from "@helicoid/lib";
+import { DelimitedFieldParser, adoptInterleaved, checkFieldBudget, formatBytes, parseNpyHeader, isNpy, FIELD_MEMORY_BUDGET } from "@helicoid/lib/internal";
 
 export interface FileReadOptions extends Omit<ReadOptions, "file"> {
   /** Allocate the field in a SharedArrayBuffer (for parallelSkyrmionNumber). Default false. */

@@ -10,18 +10,8 @@
  * (threads - 1) / n2 of the work.
  */
 import { cpus } from "node:os";
-import {
-  InputError,
-  checkChernInput,
-  chernStrip,
-  combineChernStrips,
-  tightBindingModel,
-  type ChernOptions,
-  type ChernPartial,
-  type ChernResult,
-  type TightBindingSpec,
-  type TightBindingModel,
-} from "@helicoid/lib";
+import { InputError, tightBindingModel, type ChernOptions, type ChernResult, type TightBindingSpec, type TightBindingModel } from "@helicoid/lib";
+import { checkChernInput, chernStrip, combineChernStrips, type ChernPartial } from "@helicoid/lib/internal";
 import type { ChernJob, ChernReply } from "./chernWorker.js";
 import { WorkerPool } from "./workerPool.js";
 

@@ -6,7 +6,8 @@
  * (use readVectorFieldFile(path, { shared: true }) or toSharedField to avoid it).
  */
 import { cpus } from "node:os";
-import { InputError, wrapFlags, requireAtLeast, requireSomeMatter, solidAngleSumGeneral, solidAngleSumSquare, type Boundary, type VectorField } from "@helicoid/lib";
+import { InputError, type Boundary, type VectorField } from "@helicoid/lib";
+import { wrapFlags, requireAtLeast, requireSomeMatter, solidAngleSumGeneral, solidAngleSumSquare } from "@helicoid/lib/internal";
 import type { ChargeJob } from "./chargeWorker.js";
 import { WorkerPool } from "./workerPool.js";
 

@@ -4,7 +4,7 @@
  * Common practice, no source.
  */
 import { describe, expect, it } from "vitest";
-import { runCalculator, solveLeastSquares } from "@helicoid/lib";
+import { runCalculator, solveLeastSquares } from "@helicoid/lib/internal";
 import { table } from "@helicoid/kernel";
 
 describe("table()", () => {

@@ -187,6 +187,18 @@ describe("packed packages, installed as a user does", () => {
       mkdirSync(project);
       writeFileSync(join(project, "package.json"), JSON.stringify({ name: "my-analysis", version: "1.0.0", private: true }));
       sh("npm", ["install", "--no-audit", "--no-fund", ...tarballs], { cwd: project });
+      // The installed library: the root entry is the supported API, internals resolve from
+      // @helicoid/lib/internal (lib/internal.js and .d.ts, shipped in the package's files).
+      const entries = sh(
+        process.execPath,
+        [
+          "-e",
+          'const pub = require("@helicoid/lib"); const internal = require("@helicoid/lib/internal"); console.log(JSON.stringify({ pub: typeof pub.runCalculator, pubInternal: typeof pub.tql2Real, internal: typeof internal.tql2Real, same: internal.runCalculator === pub.runCalculator }))',
+        ],
+        { cwd: project },
+      );
+      expect(JSON.parse(entries.stdout)).toEqual({ pub: "function", pubInternal: "undefined", internal: "function", same: true });
+      expect(existsSync(join(project, "node_modules", "@helicoid", "lib", "internal.d.ts"))).toBe(true);
       // npx finds the installed command, as a user types it.
       const help = sh("npx", ["--no", "helicoid", "help"], { cwd: project });
       expect(help.stdout).toMatch(/usage: helicoid COMMAND/);

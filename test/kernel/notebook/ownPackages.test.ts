@@ -69,7 +69,8 @@ describe("notebooks import @helicoid/* from any folder", () => {
     const copy = (from: string, to: string, parts: string[]) => {
       for (const p of parts) cpSync(join(repoRoot, from, p), join(nm, "@helicoid", to, p), { recursive: true, filter: (f) => !f.endsWith(".tsbuildinfo") });
     };
-    copy("lib", "lib", ["package.json", "dist"]);
+    // lib as its package `files` has it: the built entries and @helicoid/lib/internal (internal.js, .d.ts)
+    copy("lib", "lib", ["package.json", "dist", "internal.js", "internal.d.ts"]);
     copy("kernel-ext", "kernel", ["package.json", "dist", "bin"]);
     copy("widgets", "widgets", ["package.json", "dist", "labextension"]);
     // Every other dependency: linked from this checkout's node_modules (installed copies would be the same files).

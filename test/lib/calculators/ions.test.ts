@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { getCalculator, runCalculator, InputError, muBOverKB, type CalculatorSpec } from "@helicoid/lib";
+import { getCalculator, runCalculator, InputError, muBOverKB, type CalculatorSpec } from "@helicoid/lib/internal";
 
 function checkResult(spec: CalculatorSpec, r: ReturnType<typeof runCalculator>): void {
   for (const o of spec.outputs) {

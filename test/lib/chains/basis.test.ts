@@ -11,7 +11,7 @@ import {
   InputError,
   type ChainModel,
   type SectorLabel,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 // Oracle 1 (spectra): numpy builds the full Hamiltonian of each case itself (all 2^N states, or one

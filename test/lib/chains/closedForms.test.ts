@@ -1,5 +1,15 @@
 import { describe, expect, it } from "vitest";
-import { chainModel, sectorLevels, xxzGroundEnergyPerSite, xxzGap, xxzSpinonEnergy, xxzEllipticData, transverseIsingRing, InputError, type SectorLabel } from "@helicoid/lib";
+import {
+  chainModel,
+  sectorLevels,
+  xxzGroundEnergyPerSite,
+  xxzGap,
+  xxzSpinonEnergy,
+  xxzEllipticData,
+  transverseIsingRing,
+  InputError,
+  type SectorLabel,
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("Bethe-ansatz closed forms, Delta > 1", () => {

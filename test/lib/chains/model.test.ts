@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { energyInKelvin, kelvinToMeV, kelvinToGHz, chainModel, ringLabel, bondCount, InputError } from "@helicoid/lib";
+import { energyInKelvin, kelvinToMeV, kelvinToGHz, chainModel, ringLabel, bondCount, InputError } from "@helicoid/lib/internal";
 
 describe("energies with units", () => {
   it("reads K, meV and GHz into kelvin", () => {

@@ -14,7 +14,7 @@ import {
   InputError,
   ComputationStopped,
   type ChainModel,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 // The oracle: Debian's numpy/scipy build the Hamiltonian themselves (plain basis of one S^z sector or

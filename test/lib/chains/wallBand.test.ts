@@ -21,7 +21,7 @@ import {
   besselI0,
   dynamicStructureFactor,
   InputError,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 // All checks below compare the first-order wall picture (derived in lib/src/chains/wallBand.ts) with

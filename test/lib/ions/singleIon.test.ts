@@ -12,7 +12,7 @@ import {
   brentRoot,
   stevensOperator,
   type IonModel,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("B20 alone", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { stevensOperator, angularMomentum, legendreDerivativeCoefficients, parseTermName, InputError } from "@helicoid/lib";
+import { stevensOperator, angularMomentum, legendreDerivativeCoefficients, parseTermName, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 const allJ = Array.from({ length: 16 }, (_, i) => (i + 1) / 2);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { latticePreset, dipolarTensor, dipolarTensorDirect, dipolarBands, luttingerTisza, fractionalToQ, modeEnergy, InputError, type Lattice2D } from "@helicoid/lib";
+import { latticePreset, dipolarTensor, dipolarTensorDirect, dipolarBands, luttingerTisza, fractionalToQ, modeEnergy, InputError, type Lattice2D } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 const sums = runPython<{ square: number; triangular: number }>(

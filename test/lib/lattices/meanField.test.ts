@@ -10,7 +10,7 @@ import {
   brentRoot,
   brentMinimize,
   InputError,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 
 /** Solver-side boundary: where E(delta) - E(0) of the decoupled site changes sign (delta small). */
 function solverBoundary(x: number): number {

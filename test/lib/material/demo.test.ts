@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { demoFilms, demoFilmHX1, demoFilmHX2, demoFilmHX3, filmRegime } from "@helicoid/lib";
+import { demoFilms, demoFilmHX1, demoFilmHX2, demoFilmHX3, filmRegime } from "@helicoid/lib/internal";
 
 describe("invented demo films", () => {
   it("are labelled invented and show the regimes they are meant to show", () => {

@@ -12,7 +12,7 @@ import {
   filmRegime,
   InputError,
   mu0,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 
 // An invented film (numbers only; not a real material).
 const raw = { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" };
@@ -116,7 +116,7 @@ describe("derived quantities", () => {
   });
 });
 
-import { spiralState, spiralPeriodWithAnisotropy, integrateInterval, neelWallChargeEnergy, wallWidthParameter as widthOf } from "@helicoid/lib";
+import { spiralState, spiralPeriodWithAnisotropy, integrateInterval, neelWallChargeEnergy, wallWidthParameter as widthOf } from "@helicoid/lib/internal";
 
 describe("equilibrium spiral period with anisotropy", () => {
   /**

@@ -8,7 +8,7 @@ import { createHash } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { filmFileText, filmInputsFor, getCalculator, InputError, loadFilm, makeFilm, parseFilmFile, runCalculator, saveFilm } from "@helicoid/lib";
+import { filmFileText, filmInputsFor, getCalculator, InputError, loadFilm, makeFilm, parseFilmFile, runCalculator, saveFilm } from "@helicoid/lib/internal";
 
 const zx3 = {
   format: "helicoid-film",

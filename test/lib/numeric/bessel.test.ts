@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { besselJ0, besselJ1 } from "@helicoid/lib";
+import { besselJ0, besselJ1 } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("Bessel J0, J1", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { brentMinimize, InputError } from "@helicoid/lib";
+import { brentMinimize, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("brentMinimize", () => {

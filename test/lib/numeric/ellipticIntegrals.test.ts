@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ellipticK, ellipticE, completeEllipticIntegrals, InputError } from "@helicoid/lib";
+import { ellipticK, ellipticE, completeEllipticIntegrals, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("complete elliptic integrals", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { fft, ifft, fft2, InputError } from "@helicoid/lib";
+import { fft, ifft, fft2, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 function randomArray(n: number, seed: number): number[] {

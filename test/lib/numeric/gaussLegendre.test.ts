@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { gaussLegendre, compositeGaussLegendre, InputError } from "@helicoid/lib";
+import { gaussLegendre, compositeGaussLegendre, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("Gauss-Legendre rules", () => {

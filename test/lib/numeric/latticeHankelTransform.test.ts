@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { latticeHankel0, InputError } from "@helicoid/lib";
+import { latticeHankel0, InputError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("lattice (2D trapezoid) order-0 Hankel transform", () => {

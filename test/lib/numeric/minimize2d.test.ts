@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { minimize2d } from "@helicoid/lib";
+import { minimize2d } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("minimize2d", () => {

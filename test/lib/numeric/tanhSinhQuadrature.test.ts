@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { integrateInterval, integrateHalfLine, ConvergenceError } from "@helicoid/lib";
+import { integrateInterval, integrateHalfLine, ConvergenceError } from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 describe("double-exponential quadrature", () => {

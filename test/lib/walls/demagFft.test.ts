@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { gridMagnetostaticEnergy, sampleAxisymmetricTexture, thinFilmKernel, InputError, mu0 } from "@helicoid/lib";
+import { gridMagnetostaticEnergy, sampleAxisymmetricTexture, thinFilmKernel, InputError, mu0 } from "@helicoid/lib/internal";
 
 describe("FFT grid magnetostatics", () => {
   it("gives the closed-form energy of a sinusoidal perpendicular stripe pattern", () => {

@@ -11,7 +11,7 @@ import {
   nonlocalFromTransforms,
   InputError,
   mu0,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 const Ms = 1.0e6;

@@ -17,7 +17,7 @@ import {
   findAnsatzMinima,
   skyrmionBranches,
   type AnsatzIntegrals,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 import { ANSATZ_ENERGY_PY } from "../../helpers/ansatzEnergyPython.js";
 

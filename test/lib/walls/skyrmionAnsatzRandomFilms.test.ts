@@ -21,7 +21,7 @@ import {
   type AnsatzEnergyTerms,
   type AnsatzIntegrals,
   type Film,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 
 /** Seeded uniform numbers (mulberry32). Common practice, no source. */
 function rng(seed: number): () => number {

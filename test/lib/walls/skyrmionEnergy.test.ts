@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { makeFilm, skyrmionEnergy, ansatzProfile, ansatzLocalIntegrals, dmiHelicity, InputError, type RadialProfile } from "@helicoid/lib";
+import { makeFilm, skyrmionEnergy, ansatzProfile, ansatzLocalIntegrals, dmiHelicity, InputError, type RadialProfile } from "@helicoid/lib/internal";
 
 const film = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9 });
 

@@ -1,5 +1,15 @@
 import { describe, expect, it } from "vitest";
-import { makeFilm, criticalDmi, saturationField, solveSkyrmionExact, skyrmionStability, skyrmionModeVector, stripOutField, wallWidthParameter, InputError } from "@helicoid/lib";
+import {
+  makeFilm,
+  criticalDmi,
+  saturationField,
+  solveSkyrmionExact,
+  skyrmionStability,
+  skyrmionModeVector,
+  stripOutField,
+  wallWidthParameter,
+  InputError,
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 const base = { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, t: 1e-9 };

@@ -17,7 +17,7 @@ import {
   InputError,
   mu0,
   type Film,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 // Invented film (numbers only).

@@ -19,7 +19,7 @@ import {
   integrateHalfLine,
   InputError,
   type Film,
-} from "@helicoid/lib";
+} from "@helicoid/lib/internal";
 import { runPython } from "../../helpers/python.js";
 
 // Invented film (numbers only).
