@@ -91,6 +91,19 @@ describe("an explorer opened with a film file's uncertainties", () => {
     expect(uOf(page, "width")! / expected).toBeCloseTo(1, 2);
   });
 
+  it("computed in the kernel (live): a page's slider change is answered with the ± at the new point", () => {
+    const ex = explore("wall", loadFilm(filmPath), { computeIn: "kernel" });
+    const moved = { ...ex.inputs, A: 17e-12 };
+    comms.handleMessage({ comm_id: ex.id, data: { method: "update", state: { inputs: moved }, buffer_paths: [] } }, { metadata: {}, buffers: [], header: { msg_id: "x" } });
+    const direct = runCalculator(
+      "wall",
+      { ...moved, A: "17 ± 1 pJ/m", Ku: "1.2 ± 0.04 MJ/m^3", D: "2.9 ± 0.1 mJ/m^2" },
+      { uncertainty: { correlations: [{ between: ["A", "Ku"], coefficient: 0.3 }] } },
+    );
+    expect(ex.result!.inputs.A!.value).toBe(17e-12);
+    expect(uOf(ex.result!, "width")! / uOf(direct, "width")!).toBeCloseTo(1, 9);
+  });
+
   it("setInputs keeps an input's uncertainty for a plain value and replaces it for a value with ±", () => {
     const ex = explore("wall", { Ms: "1.1 MA/m", A: "15 ± 1 pJ/m", Ku: "1.2 MJ/m^3", D: "2.9 mJ/m^2", t: "1 nm" });
     expect(ex.uncertainties).toEqual({ A: 1e-12 });
