@@ -1,5 +1,5 @@
 import type { ComputeCost, ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
 import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
@@ -176,51 +176,9 @@ export const textureSpec = defineCalculator({
     },
     { name: "vorticity", symbol: "v", unit: "", default: 2, min: -4, max: 4, scale: "linear", kind: "integer", meaning: "vorticity of the higher-order skyrmion (kind 4)" },
     { name: "a", symbol: "a", unit: "m", default: 45e-9, min: 10e-9, max: 200e-9, scale: "log", meaning: "target lattice constant of the skyrmion lattice (kind 3)" },
-    {
-      name: "background",
-      symbol: "m_\\infty",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "+z" },
-        { value: 1, label: "-z" },
-      ],
-      meaning: "background direction (cores point the other way)",
-    },
-    {
-      name: "pairPolarity",
-      symbol: "p_1 p_2",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "same core polarities" },
-        { value: 1, label: "opposite core polarities" },
-      ],
-      meaning: "core polarities of the vortex-antivortex pair (kind 5)",
-    },
-    {
-      name: "boundary",
-      symbol: "\\text{bc}",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "periodic" },
-        { value: 1, label: "open" },
-      ],
-      meaning: "boundary of the grid",
-    },
+    choiceInput("background", "m_\\infty", ["+z", "-z"], "background direction (cores point the other way)"),
+    choiceInput("pairPolarity", "p_1 p_2", ["same core polarities", "opposite core polarities"], "core polarities of the vortex-antivortex pair (kind 5)"),
+    choiceInput("boundary", "\\text{bc}", ["periodic", "open"], "boundary of the grid"),
   ],
   outputs: [
     { name: "Q", symbol: "Q", unit: "", meaning: "lattice skyrmion number (exact integer on a periodic grid)" },
