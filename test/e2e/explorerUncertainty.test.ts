@@ -127,7 +127,13 @@ describe("an exported explorer with a film file's uncertainties", () => {
     expect(await ex.locator('.hx-control[data-input="D"] .hx-input-uncertainty').textContent()).toMatch(/^± 0\.1 mJ\/m/);
     expect(await ex.locator(".hx-badge").textContent()).toMatch(/Web Worker/);
     mkdirSync(join(outputDir, "screenshots"), { recursive: true });
-    await ex.screenshot({ path: join(outputDir, "screenshots", "explorer-uncertainty.png") });
+    // the controls and the table (the plots below are the explorer's usual ones)
+    const box = (await ex.boundingBox())!;
+    await page.screenshot({
+      path: join(outputDir, "screenshots", "explorer-uncertainty.png"),
+      fullPage: true,
+      clip: { x: box.x, y: box.y, width: box.width, height: Math.min(box.height, 820) },
+    });
   });
 
   it("marks the radius (!) near the critical DMI, as the library flags it", async () => {
@@ -141,5 +147,11 @@ describe("an exported explorer with a film file's uncertainties", () => {
     expect(r.flagged).toBe(true);
     expect(r.text).toMatch(/ \(!\)$/);
     expect(await ex.locator("ul.hx-warning").textContent()).toContain("radius: uncertainty not trustworthy");
+    const box = (await ex.boundingBox())!;
+    await page.screenshot({
+      path: join(outputDir, "screenshots", "explorer-uncertainty-flagged.png"),
+      fullPage: true,
+      clip: { x: box.x, y: box.y, width: box.width, height: Math.min(box.height, 820) },
+    });
   });
 });
