@@ -232,6 +232,11 @@ export class ExplorerView extends DOMWidgetView {
       this.syncControls();
       if (this.local) this.recompute();
     });
+    // the kernel gave an input another uncertainty (setInputs("16 ± 2 pJ/m")) with the same value
+    this.listenTo(this.model, "change:uncertainties change:correlations", () => {
+      this.syncControls();
+      if (this.local) this.recompute();
+    });
     this.listenTo(this.model, "change:sweep", () => {
       this.syncControls();
       if (this.local) this.recompute();

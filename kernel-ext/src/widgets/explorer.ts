@@ -219,8 +219,9 @@ export class Explorer extends Widget<ExplorerState> {
     this.spec = spec;
     this.catalogueId = catalogueId;
     // The page changed inputs or the sweep: a kernel-computed explorer answers with a result.
-    this.onChange(["inputs", "sweep"], () => {
-      if (this.get("compute_in") === "kernel") this.recompute();
+    // (one computation when several of these keys change together, as setInputs changes two)
+    this.onChange(["inputs", "sweep", "uncertainties", "correlations"], () => {
+      if (this.get("compute_in") === "kernel" && this.computedKey !== this.stateKey()) this.recompute();
     });
   }
 
@@ -285,8 +286,16 @@ export class Explorer extends Widget<ExplorerState> {
     return this.onChange("inputs", (v) => cb(v, this));
   }
 
+  /** What a result is computed from: inputs, sweep, uncertainties, correlations. */
+  private stateKey(): string {
+    return JSON.stringify([this.get("inputs"), this.get("sweep"), this.get("uncertainties"), this.get("correlations")]);
+  }
+
+  private computedKey = "";
+
   /** Compute in the kernel now with the current state. */
   recompute(): CalculatorResult | null {
+    this.computedKey = this.stateKey();
     const sweep = this.get("sweep");
     try {
       // The page's "no sweep" is a sweep over "" (no input): compute without the default sweep.

@@ -102,6 +102,14 @@ describe("an explorer opened with a film file's uncertainties", () => {
     );
     expect(ex.result!.inputs.A!.value).toBe(17e-12);
     expect(uOf(ex.result!, "width")! / uOf(direct, "width")!).toBeCloseTo(1, 9);
+    // kernel code changing a value and its uncertainty together: one computation; the uncertainty alone: one more
+    let results = 0;
+    ex.onResult(() => results++);
+    ex.setInputs({ A: "16 ± 2 pJ/m" });
+    expect(results).toBe(1);
+    ex.setInputs({ A: "16 ± 3 pJ/m" });
+    expect(results).toBe(2);
+    expect((ex.result!.inputs.A as { uncertainty?: number }).uncertainty).toBe(3e-12);
   });
 
   it("setInputs keeps an input's uncertainty for a plain value and replaces it for a value with ±", () => {
