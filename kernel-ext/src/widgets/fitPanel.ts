@@ -160,7 +160,8 @@ export class FitPanel extends Widget<FitPanelState & WidgetState> {
         } else if ("result" in m) {
           end(() => {
             this.latest = m.result;
-            this.set(fitPanelFromResult(m.result, data));
+            const { title: _title, ...shown } = fitPanelFromResult(m.result, data); // the panel keeps its own title
+            this.set(shown);
             resolve(m.result);
           });
         } else {

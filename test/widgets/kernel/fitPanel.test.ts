@@ -69,6 +69,7 @@ describe("fitPanel of a profile fit", () => {
     expect(r.parameters.Delta.stderr! / direct.parameters.Delta.stderr!).toBeCloseTo(1, 9);
     expect(p.get("status")).toBe("done");
     expect(p.get("progress")).toBe(1);
+    expect(p.get("title")).toBe("invented");
     expect(p.get("modelY")).toEqual(r.fitted);
     // progress came while it ran: the iteration count rose before the result
     expect(seen.length).toBeGreaterThan(1);
