@@ -177,7 +177,7 @@ export const fieldTunedOrderSpec = defineCalculator({
   summary:
     "Single-ion D S_z^2 - h S_z with antiferromagnetic exchange zJ (XXZ, anisotropy Delta) in site-decoupled mean field at T = 0: the staggered transverse moment (the condensate) and the uniform moment against field, the ordered windows where single-ion levels cross and the gapped plateaus between; spin-1 critical fields in closed form; the Bose-Hubbard Mott-lobe boundaries z t / U = (n - x)(x - n + 1)/(1 + x) of the decoupling approximation.",
   inputs: [
-    { name: "S", symbol: "S", unit: "", default: 1, min: 0.5, max: 5, scale: "linear", kind: "choice", choices: spinChoices, meaning: "spin" },
+    choiceInput("S", "S", spinChoices, "spin", { default: 1 }),
     { name: "D", symbol: "D", unit: "K", default: 10, min: 0, max: 30, scale: "linear", meaning: "easy-plane single-ion anisotropy (E / k_B)" },
     { name: "zJ", symbol: "zJ", unit: "K", default: 2, min: 0, max: 10, scale: "linear", meaning: "antiferromagnetic exchange summed over neighbours (E / k_B)" },
     { name: "Delta", symbol: "\\Delta", unit: "", default: 1, min: 0, max: 2, scale: "linear", meaning: "longitudinal exchange anisotropy (1: Heisenberg)" },

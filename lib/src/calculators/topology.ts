@@ -159,7 +159,7 @@ export const textureSpec = defineCalculator({
   summary:
     "Generates an analytic demo texture (skyrmion, antiskyrmion, skyrmionium, skyrmion lattice, higher-order skyrmion or vortex-antivortex pair) on an n x n grid and counts its topology: lattice skyrmion number Q (Berg-Luescher solid angles), a continuum finite-difference estimate beside it, in-plane vortices, and the objects with their charge, centre, radius (area inside m_z = 0), vorticity and helicity.",
   inputs: [
-    { name: "kind", symbol: "\\text{kind}", unit: "", default: 0, min: 0, max: 5, scale: "linear", kind: "choice", choices: KINDS, meaning: "which texture to generate" },
+    choiceInput("kind", "\\text{kind}", KINDS, "which texture to generate"),
     { name: "n", symbol: "n", unit: "", default: 128, min: 16, max: 512, scale: "log", kind: "integer", meaning: "cells along x and y" },
     { name: "cell", symbol: "\\delta x", unit: "m", default: 1e-9, min: 1e-10, max: 1e-8, scale: "log", meaning: "cell size" },
     { name: "R", symbol: "R", unit: "m", default: 20e-9, min: 1e-9, max: 100e-9, scale: "log", meaning: "radius where m_z = 0 (outer radius of a skyrmionium)" },
