@@ -40,7 +40,7 @@ describe("helicoid run + helicoid export + browser", () => {
         ),
         code('figureWidget({ data: [{ type: "scatter", y: [1, 4, 9] }], layout: { title: { text: "live figure" } } })'),
         code(
-          'fitPanel({ title: "invented fit", x: [0, 1, 2], y: [0, 1.1, 1.9], model_y: [0, 1, 2], residuals: [0, 0.1, -0.1], status: "done", parameters: [{ name: "slope", value: 0.98, uncertainty: 0.05 }] })',
+          'fitPanel({ title: "invented fit", x: [0, 1, 2], y: [0, 1.1, 1.9], modelY: [0, 1, 2], residuals: [0, 0.1, -0.1], status: "done", parameters: [{ name: "slope", value: 0.98, uncertainty: 0.05 }] })',
         ),
         code("ex.result.outputs.radius.value"),
       ],

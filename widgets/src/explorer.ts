@@ -6,10 +6,27 @@
  *   `inputs` and `result` back so kernel code sees them. This also works in exported pages.
  * - A user's kernel function (`calculator` = ""): the view sets `inputs`; the kernel computes
  *   and sets `result`. Without a kernel the view shows the last state and says so.
+ * - Inputs with uncertainties (`uncertainties`, SI; a film file's): the table shows each numeric
+ *   output ± its standard uncertainty, propagated to first order at the current point by the
+ *   library (the same call in the kernel and in the worker); a slider moves an input's value, its
+ *   uncertainty stays; an output whose linearization fails is marked (!) as in `helicoid calc`.
  * State and messages: see widgets/PROTOCOL.md.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { catalogue, defaultSweep, filmInputNames, formatQuantity, displayUnit, symbolHtml, type CalculatorResult, type CalculatorSpec, type InputSpec } from "@helicoid/lib";
+import {
+  catalogue,
+  defaultSweep,
+  filmInputNames,
+  formatQuantity,
+  formatWithError,
+  displayUnit,
+  symbolHtml,
+  type CalculatorResult,
+  type CalculatorSpec,
+  type InputCorrelation,
+  type InputSpec,
+  type UncertaintyReport,
+} from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION, versionMismatch } from "./version.js";
 import { Coalescer } from "./compute/coalescer.js";
 import type { ComputeOutcome, SweepRequest } from "./compute/job.js";
@@ -47,6 +64,8 @@ export class ExplorerModel extends DOMWidgetModel {
       compute_in: "browser",
       kernel_version: "",
       function_name: "",
+      uncertainties: {},
+      correlations: [],
     };
   }
 }
@@ -58,6 +77,8 @@ interface ControlRow {
   select: HTMLSelectElement | null;
   entry: HTMLInputElement | null;
   message: HTMLElement;
+  /** "± u" beside an input that carries an uncertainty. */
+  uncertainty: HTMLElement;
 }
 
 /** Find the spec for the model: the bundled catalogue for ids, else the state's `spec`. */
@@ -211,6 +232,11 @@ export class ExplorerView extends DOMWidgetView {
       this.syncControls();
       if (this.local) this.recompute();
     });
+    // the kernel gave an input another uncertainty (setInputs("16 ± 2 pJ/m")) with the same value
+    this.listenTo(this.model, "change:uncertainties change:correlations", () => {
+      this.syncControls();
+      if (this.local) this.recompute();
+    });
     this.listenTo(this.model, "change:sweep", () => {
       this.syncControls();
       if (this.local) this.recompute();
@@ -257,6 +283,16 @@ export class ExplorerView extends DOMWidgetView {
     return out;
   }
 
+  /** SI standard uncertainties of inputs (> 0 only). */
+  private uncertainties(): Record<string, number> {
+    const u = (this.model.get("uncertainties") ?? {}) as Record<string, number>;
+    return Object.fromEntries(Object.entries(u).filter(([, x]) => typeof x === "number" && x > 0));
+  }
+
+  private correlations(): InputCorrelation[] {
+    return (this.model.get("correlations") as InputCorrelation[] | null) ?? [];
+  }
+
   private sweepState(): SweepRequest | null {
     return (this.model.get("sweep") as SweepRequest | null) ?? null;
   }
@@ -266,6 +302,8 @@ export class ExplorerView extends DOMWidgetView {
     if (!result || !result.inputs) return false;
     const v = this.values();
     for (const [k, x] of Object.entries(v)) if (result.inputs[k]?.value !== x) return false;
+    const u = this.uncertainties();
+    for (const [k, x] of Object.entries(u)) if ((result.inputs[k] as { uncertainty?: number } | undefined)?.uncertainty !== x) return false;
     const s = this.sweepState();
     if (s && s.over !== NO_SWEEP && JSON.stringify(result.sweep ?? null) !== JSON.stringify(s)) return false;
     if (s && s.over === NO_SWEEP && result.sweep) return false;
@@ -330,12 +368,16 @@ export class ExplorerView extends DOMWidgetView {
       });
       row.append(slider, entry);
     }
+    // an input's standard uncertainty (a film file's): it stays while the slider moves the value
+    const uncertainty = el("span", { class: "hx-input-uncertainty", title: "standard uncertainty of this input, propagated to the results (first order)" });
+    uncertainty.hidden = true;
+    row.append(uncertainty);
     row.append(message);
     if (this.spec && filmInputNames(this.spec).includes(input.name)) {
       // a film input the notebook did not give: the invented demo film's value, said beside it until changed
       label.append(el("span", { class: "hx-demo", text: "demo", title: "the calculator's invented demo film's value (not a real material): set your film's" }));
     }
-    this.rows.set(input.name, { input, row, slider, select, entry, message });
+    this.rows.set(input.name, { input, row, slider, select, entry, message, uncertainty });
     return row;
   }
 
@@ -395,6 +437,8 @@ export class ExplorerView extends DOMWidgetView {
         values: this.values(),
         sweep: this.effectiveSweep(),
         noSweep: this.sweepState()?.over === NO_SWEEP,
+        uncertainties: this.uncertainties(),
+        correlations: this.correlations(),
       });
       this.snippetEl.textContent = text;
       this.snippetEl.hidden = false;
@@ -418,9 +462,15 @@ export class ExplorerView extends DOMWidgetView {
   private syncControls(): void {
     const values = this.values();
     const sweep = this.effectiveSweep();
+    const uncertainties = this.uncertainties();
     for (const r of this.rows.values()) {
       const v = values[r.input.name]!;
       r.row.dataset.value = String(v);
+      const u = uncertainties[r.input.name];
+      r.uncertainty.hidden = u === undefined;
+      r.uncertainty.textContent = u === undefined ? "" : `± ${formatQuantity(u, r.input.unit)}`;
+      if (u === undefined) delete r.row.dataset.uncertainty;
+      else r.row.dataset.uncertainty = String(u);
       const demoTag = r.row.querySelector<HTMLElement>(".hx-demo");
       if (demoTag) {
         const given = (this.model.get("given") as string[] | null | undefined) ?? null;
@@ -454,7 +504,14 @@ export class ExplorerView extends DOMWidgetView {
   private recompute(): void {
     if (!this.coalescer) return;
     const sweep = this.effectiveSweep();
-    this.coalescer.submit({ calculator: this.model.get("calculator") as string, inputs: this.values(), sweep, noSweep: !sweep && this.sweepState()?.over === NO_SWEEP });
+    const uncertainties = this.uncertainties();
+    this.coalescer.submit({
+      calculator: this.model.get("calculator") as string,
+      inputs: this.values(),
+      sweep,
+      noSweep: !sweep && this.sweepState()?.over === NO_SWEEP,
+      ...(Object.keys(uncertainties).length ? { uncertainties, correlations: this.correlations() } : {}),
+    });
     this.updateStatus(true);
   }
 
@@ -659,14 +716,28 @@ export class ExplorerView extends DOMWidgetView {
     const spec = this.spec!;
     const shown = spec.outputs.filter((o) => (o.kind ?? "scalar") !== "array" && o.name in result.outputs);
     const notes = result.notes ?? [];
-    const key = JSON.stringify([shown.map((o) => o.name), result.status, notes]);
+    const report = (result as CalculatorResult & { uncertainty?: UncertaintyReport }).uncertainty;
+    const flagged = report?.flagged ?? {};
+    const key = JSON.stringify([shown.map((o) => o.name), result.status, notes, Object.keys(flagged), !!report]);
     if (key !== this.tableKey) {
       this.tableKey = key;
       this.valueCells = new Map();
       const table = el("table", { class: "hx-table" });
       const head = el("tr");
-      head.append(el("th", { text: "quantity" }), el("th", { text: "value" }));
+      head.append(el("th", { text: "quantity" }), el("th", { text: report ? "value ± u" : "value" }));
       table.append(head);
+      if (report) {
+        // the method, stated where the numbers are (the notes say it in full)
+        const m = el("tr", { class: "hx-uncertainty-method" });
+        const inputs = Object.keys(report.inputs).join(", ");
+        m.append(
+          el("td", {
+            colspan: "2",
+            text: `± u: standard uncertainty from ${inputs}, ${report.method === "monte-carlo" ? "Monte Carlo (JCGM 101:2008)" : "first order (JCGM 100:2008), at this point"}${report.correlations.length ? ", with correlations" : ""}; (!) not trustworthy, see the notes`,
+          }),
+        );
+        table.append(m);
+      }
       // groups a reader can follow: the headline numbers, the other numbers, the statements in words;
       // each row by its symbol and meaning (the output id stays in data-output and the tooltip)
       const numeric = shown.filter((o) => typeof result.outputs[o.name]!.value === "number");
@@ -696,6 +767,12 @@ export class ExplorerView extends DOMWidgetView {
           this.valueCells.set(o.name, { tr, td, unit: o.unit });
         }
       }
+      for (const [name, why] of Object.entries(flagged)) {
+        const cell = this.valueCells.get(name);
+        if (!cell) continue;
+        cell.tr.classList.add("hx-flagged");
+        cell.tr.title = `${cell.tr.title}: uncertainty not trustworthy, ${why}`;
+      }
       const parts: HTMLElement[] = [table];
       if (result.status === "warning" || notes.length) {
         const list = el("ul", { class: result.status === "warning" ? "hx-warning" : "hx-notes" });
@@ -705,11 +782,16 @@ export class ExplorerView extends DOMWidgetView {
       this.outputsEl.replaceChildren(...parts);
     }
     for (const [name, cell] of this.valueCells) {
-      const value = result.outputs[name]!.value;
-      const text = typeof value === "number" ? formatQuantity(value, cell.unit) : String(value);
+      const out = result.outputs[name]! as { value: number | number[] | string; uncertainty?: number };
+      const value = out.value;
+      const u = typeof value === "number" && typeof out.uncertainty === "number" ? out.uncertainty : null;
+      let text = typeof value === "number" ? (u !== null ? formatWithError(value, u, cell.unit) : formatQuantity(value, cell.unit)) : String(value);
+      if (flagged[name]) text += " (!)";
       if (cell.td.textContent !== text) cell.td.textContent = text;
       if (typeof value === "number") cell.tr.dataset.value = String(value);
       else delete cell.tr.dataset.value;
+      if (u !== null) cell.tr.dataset.uncertainty = String(u);
+      else delete cell.tr.dataset.uncertainty;
     }
   }
 

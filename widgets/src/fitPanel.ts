@@ -3,24 +3,19 @@
  * uncertainties, start/stop buttons (custom messages to the kernel) and progress. The view draws
  * whatever state the kernel gives (the fitting engine lives in @helicoid/lib's fit domain).
  *
- * State: title, x, y, y_err (optional), model_x (optional, defaults to x), model_y, residuals,
- * x_label, y_label, x_unit, y_unit, parameters [{name, unit, value, uncertainty, fixed?}],
- * status ("idle" | "running" | "done" | "failed" | "stopped"), progress (0..1), message,
- * iterations, chi2, reduced_chi2. Messages to the kernel: {event: "start"}, {event: "stop"}.
+ * State: `FitPanelState` of @helicoid/lib (lib/src/plot/fitPanelState.ts), read through the same
+ * normaliser as the kernel's model uses (`fitPanelState`): title, x, y, yErr, modelX (null: x),
+ * modelY, residuals, xLabel, yLabel, xUnit, yUnit, parameters [{name, unit, value, uncertainty,
+ * fixed}], status, progress (0..1), message, iterations, chi2, reducedChi2 (the snake_case names of
+ * earlier versions are read too). Messages to the kernel: {event: "start"}, {event: "stop"}.
  */
 import { DOMWidgetModel, DOMWidgetView } from "@jupyter-widgets/base";
-import { formatQuantity, customaryUnit, displayUnit } from "@helicoid/lib";
+import { formatQuantity, customaryUnit, displayUnit, fitPanelState, FIT_PANEL_DEFAULTS, type FitPanelState } from "@helicoid/lib";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
 import { Plotly } from "./plotly.js";
 import { el, isStaticPage } from "./views/dom.js";
 
-export interface FitParameter {
-  name: string;
-  unit?: string;
-  value: number;
-  uncertainty?: number | null;
-  fixed?: boolean;
-}
+export type { FitPanelParameter as FitParameter } from "@helicoid/lib";
 
 export class FitPanelModel extends DOMWidgetModel {
   override defaults() {
@@ -32,29 +27,10 @@ export class FitPanelModel extends DOMWidgetModel {
       _view_name: "FitPanelView",
       _view_module: MODULE_NAME,
       _view_module_version: MODULE_VERSION,
-      title: "Fit",
-      x: [],
-      y: [],
-      y_err: null,
-      model_x: null,
-      model_y: null,
-      residuals: null,
-      x_label: "x",
-      y_label: "y",
-      x_unit: "",
-      y_unit: "",
-      parameters: [],
-      status: "idle",
-      progress: 0,
-      message: "",
-      iterations: 0,
-      chi2: null,
-      reduced_chi2: null,
+      ...FIT_PANEL_DEFAULTS,
     };
   }
 }
-
-const nums = (v: unknown): number[] => (Array.isArray(v) ? (v as number[]) : ArrayBuffer.isView(v) ? Array.from(v as unknown as ArrayLike<number>) : []);
 
 export class FitPanelView extends DOMWidgetView {
   private plotEl!: HTMLElement;
@@ -64,6 +40,11 @@ export class FitPanelView extends DOMWidgetView {
   private startBtn!: HTMLButtonElement;
   private stopBtn!: HTMLButtonElement;
   private observer: ResizeObserver | null = null;
+
+  /** The model's state through the shared normaliser (defaults filled in; old snake_case names read). */
+  private state(): FitPanelState {
+    return fitPanelState(this.model.attributes as Record<string, unknown>, false) as FitPanelState;
+  }
 
   override render(): void {
     this.el.classList.add("hx-fit");
@@ -82,11 +63,13 @@ export class FitPanelView extends DOMWidgetView {
     this.tableEl = el("div", { class: "hx-fit-table" });
     this.el.append(this.bar, this.statusEl, this.plotEl, this.tableEl);
     const sync = () => {
-      title.textContent = this.model.get("title") as string;
+      title.textContent = this.state().title;
     };
     this.listenTo(this.model, "change:title", sync);
-    this.listenTo(this.model, "change:status change:progress change:message change:iterations change:chi2 change:reduced_chi2", () => this.renderStatus());
-    this.listenTo(this.model, "change:x change:y change:y_err change:model_x change:model_y change:residuals change:x_label change:y_label", () => this.renderPlot());
+    this.listenTo(this.model, "change:status change:progress change:message change:iterations change:chi2 change:reducedChi2", () => this.renderStatus());
+    this.listenTo(this.model, "change:x change:y change:yErr change:modelX change:modelY change:residuals change:xLabel change:yLabel change:xUnit change:yUnit", () =>
+      this.renderPlot(),
+    );
     this.listenTo(this.model, "change:parameters", () => this.renderTable());
     sync();
     this.renderStatus();
@@ -108,19 +91,20 @@ export class FitPanelView extends DOMWidgetView {
   }
 
   private renderStatus(): void {
-    const status = this.model.get("status") as string;
-    const progress = Number(this.model.get("progress") ?? 0);
+    const st = this.state();
+    const status = st.status;
+    const progress = st.progress;
     this.bar.value = Math.max(0, Math.min(1, progress));
     const running = status === "running";
     const live = !isStaticPage(this);
     this.startBtn.disabled = running || !live;
     this.stopBtn.disabled = !running || !live;
-    const chi2 = this.model.get("reduced_chi2");
+    const chi2 = st.reducedChi2;
     const parts = [
       `status: ${status}`,
-      `iterations: ${this.model.get("iterations")}`,
+      `iterations: ${st.iterations}`,
       typeof chi2 === "number" ? `reduced χ² = ${chi2.toPrecision(4)}` : "",
-      this.model.get("message") as string,
+      st.message,
       live ? "" : "(needs the running kernel; showing its last state)",
     ].filter(Boolean);
     this.statusEl.textContent = parts.join(" · ");
@@ -129,21 +113,21 @@ export class FitPanelView extends DOMWidgetView {
   }
 
   private renderPlot(): void {
-    const x = nums(this.model.get("x")),
-      y = nums(this.model.get("y"));
-    const err = nums(this.model.get("y_err"));
-    const mx = nums(this.model.get("model_x") ?? this.model.get("x"));
-    const my = nums(this.model.get("model_y"));
-    const res = nums(this.model.get("residuals"));
+    const st = this.state();
+    const { x, y } = st;
+    const err = st.yErr ?? [];
+    const mx = st.modelX ?? x;
+    const my = st.modelY ?? [];
+    const res = st.residuals ?? [];
     // Axes in the trade's units (nm, mT ...) when the state gives SI units.
     const scale = (values: number[], unit: string): [string, number] => {
       let peak = 0;
       for (const v of values) if (Number.isFinite(v)) peak = Math.max(peak, Math.abs(v));
       return unit ? customaryUnit(peak, unit) : ["", 1];
     };
-    const [xu, xf] = scale(x, this.model.get("x_unit") as string);
-    const [yu, yf] = scale(y, this.model.get("y_unit") as string);
-    const [ru, rf] = scale(res, this.model.get("y_unit") as string);
+    const [xu, xf] = scale(x, st.xUnit);
+    const [yu, yf] = scale(y, st.yUnit);
+    const [ru, rf] = scale(res, st.yUnit);
     const sx = (a: number[]) => a.map((v) => v / xf);
     const data: Array<Record<string, unknown>> = [
       {
@@ -164,8 +148,8 @@ export class FitPanelView extends DOMWidgetView {
       autosize: true,
       margin: { l: 60, r: 20, t: 20, b: 50 },
       // One x axis at the bottom (under the residuals), shared by both panels.
-      xaxis: { title: { text: label(this.model.get("x_label") as string, xu) }, anchor: "y2" },
-      yaxis: { title: { text: label(this.model.get("y_label") as string, yu) }, domain: [0.34, 1], anchor: "x" },
+      xaxis: { title: { text: label(st.xLabel, xu) }, anchor: "y2" },
+      yaxis: { title: { text: label(st.yLabel, yu) }, domain: [0.34, 1], anchor: "x" },
       yaxis2: { title: { text: label("residual", ru) }, domain: [0, 0.26], zeroline: true, anchor: "x" },
       legend: { orientation: "h" },
     };
@@ -173,7 +157,7 @@ export class FitPanelView extends DOMWidgetView {
   }
 
   private renderTable(): void {
-    const params = (this.model.get("parameters") ?? []) as FitParameter[];
+    const params = this.state().parameters;
     const table = el("table", { class: "hx-table" });
     const head = el("tr");
     for (const h of ["parameter", "value", "± uncertainty", ""]) head.append(el("th", { text: h }));

@@ -8,6 +8,10 @@
  *   of its inputs: the kernel computes on every change; live only while the kernel runs.
  * Inputs given here or with `setInputs` may carry units ("3 mJ/m^2"); they are coerced by the
  * spec (errors name the input). Kernel-side changes move the page's controls.
+ * Inputs with uncertainties ("15 ± 1 pJ/m", {value, uncertainty}, a film file from `loadFilm` with
+ * its correlations): the table shows the headline outputs ± their standard uncertainty, propagated
+ * to first order at the current point by the library (2n+1 single-point runs, not over the sweep),
+ * in the kernel and in the page alike; a slider moves an input's value, its uncertainty stays.
  */
 import {
   catalogue,
@@ -22,10 +26,13 @@ import {
   type InputSpec,
   type InputValues,
   type OutputSpec,
+  anyUncertainty,
+  filmInputsFor,
   inUncertainForm,
   splitUncertainInput,
+  withUncertainties,
 } from "@helicoid/lib";
-import type { Film, InputWithUncertainty, QuantityInput, SweepRange } from "@helicoid/lib";
+import type { Film, FilmRecord, InputCorrelation, InputWithUncertainty, QuantityInput, SweepRange } from "@helicoid/lib";
 import { KERNEL_VERSION } from "../version.js";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
@@ -44,6 +51,10 @@ export interface ExplorerState extends WidgetState {
   compute_in: "browser" | "kernel";
   kernel_version: string;
   function_name: string;
+  /** SI standard uncertainties of inputs (propagated to the outputs at the current point). */
+  uncertainties: Record<string, number>;
+  /** Correlation coefficients between uncertain inputs. */
+  correlations: InputCorrelation[];
 }
 
 /** A plain function explored with a description of its inputs (units, ranges, meanings). */
@@ -65,6 +76,13 @@ export interface ExploreOptions {
   computeIn?: "browser" | "kernel";
   /** For plain functions: how the inputs look. */
   describe?: FunctionDescription;
+  /** Correlations between inputs given with uncertainties (a film file's are read from it). */
+  correlations?: InputCorrelation[];
+}
+
+/** A film file read by `loadFilm` / `parseFilmFile` (not a `Film` from `makeFilm`). */
+function isFilmRecord(v: unknown): v is FilmRecord {
+  return typeof v === "object" && v !== null && "inputs" in v && "values" in v && "correlations" in v && "dmi" in v;
 }
 
 type PlainFunction = (inputs: InputValues) => Record<string, number | number[] | string> | ComputeOutput;
@@ -147,15 +165,26 @@ export class Explorer extends Widget<ExplorerState> {
     } else {
       throw new InputError("calculator", calculator, "a catalogue id, a CalculatorSpec, or a function with options.describe");
     }
-    // Values with an uncertainty ("15 ± 1 pJ/m", {value, uncertainty}: a film file's) are shown at
-    // their values: the explorer moves one point; propagation is runCalculator's (said in the notes).
+    // A film file (loadFilm): the values the calculator takes, with their uncertainties and correlations.
+    let given = overrides as Record<string, unknown>;
+    let correlations = options.correlations ?? [];
+    let filmNotes: string[] = [];
+    if (isFilmRecord(overrides)) {
+      const f = filmInputsFor(spec, overrides);
+      given = f.inputs;
+      correlations = [...(f.uncertainty.correlations ?? []), ...correlations];
+      filmNotes = f.notes;
+    }
+    // Values with an uncertainty ("15 ± 1 pJ/m", {value, uncertainty}): the value is the control's,
+    // the uncertainty is kept in the state and propagated at every point the explorer computes.
     const nominal: Record<string, QuantityInput | undefined> = {};
-    const uncertain: string[] = [];
-    for (const [k, v] of Object.entries(overrides as Record<string, unknown>)) {
-      const unit = spec.inputs.find((i) => i.name === k)?.unit ?? "";
+    const uncertainties: Record<string, number> = {};
+    for (const [k, v] of Object.entries(given)) {
       if (inUncertainForm(v)) {
-        nominal[k] = splitUncertainInput(k, v, unit).value;
-        uncertain.push(k);
+        const input = spec.inputs.find((i) => i.name === k);
+        const s = splitUncertainInput(k, v, input?.unit ?? "");
+        nominal[k] = s.value;
+        if (input && s.uncertainty !== null && s.uncertainty > 0) uncertainties[k] = s.uncertainty;
       } else nominal[k] = v as QuantityInput | undefined;
     }
     const inputs = coerceInputs(spec, nominal);
@@ -164,11 +193,8 @@ export class Explorer extends Widget<ExplorerState> {
     let result: CalculatorResult | null = null;
     let error = "";
     try {
-      result = runCalculator(spec, inputs, sweep ? { sweep } : {});
-      if (uncertain.length)
-        result.notes.unshift(
-          `${uncertain.join(", ")} given with uncertainties: the explorer shows their values; runCalculator(id, inputs, { uncertainty: ... }) propagates the uncertainties`,
-        );
+      result = computeAt(spec, inputs, sweep, uncertainties, correlations);
+      result.notes.unshift(...filmNotes);
     } catch (err) {
       error = (err as Error).message;
     }
@@ -186,13 +212,16 @@ export class Explorer extends Widget<ExplorerState> {
         given: spec.inputs.map((i) => i.name).filter((n) => nominal[n] !== undefined),
         kernel_version: KERNEL_VERSION,
         function_name: functionName,
+        uncertainties,
+        correlations,
       },
     });
     this.spec = spec;
     this.catalogueId = catalogueId;
     // The page changed inputs or the sweep: a kernel-computed explorer answers with a result.
-    this.onChange(["inputs", "sweep"], () => {
-      if (this.get("compute_in") === "kernel") this.recompute();
+    // (one computation when several of these keys change together, as setInputs changes two)
+    this.onChange(["inputs", "sweep", "uncertainties", "correlations"], () => {
+      if (this.get("compute_in") === "kernel" && this.computedKey !== this.stateKey()) this.recompute();
     });
   }
 
@@ -210,10 +239,33 @@ export class Explorer extends Widget<ExplorerState> {
     return this.get("error");
   }
 
-  /** Change inputs from code (units allowed); the page's controls move and the result follows. */
-  setInputs(changes: Record<string, QuantityInput>): this {
-    const next = coerceInputs(this.spec, { ...this.get("inputs"), ...changes });
-    this.set({ inputs: next });
+  /** SI standard uncertainties of the inputs that carry one. */
+  get uncertainties(): Record<string, number> {
+    return { ...this.get("uncertainties") };
+  }
+
+  /**
+   * Change inputs from code (units allowed); the page's controls move and the result follows. A
+   * plain value moves the input and keeps its uncertainty; a value with one ("16 ± 1 pJ/m",
+   * {value, uncertainty}) sets both (± 0 removes it).
+   */
+  setInputs(changes: Record<string, InputWithUncertainty>): this {
+    const plain: Record<string, QuantityInput | undefined> = {};
+    const uncertainties = { ...this.get("uncertainties") };
+    for (const [k, v] of Object.entries(changes)) {
+      if (!inUncertainForm(v)) {
+        plain[k] = v as QuantityInput | undefined;
+        continue;
+      }
+      const input = this.spec.inputs.find((i) => i.name === k);
+      const s = splitUncertainInput(k, v, input?.unit ?? "");
+      plain[k] = s.value;
+      if (input && s.uncertainty !== null && s.uncertainty > 0) uncertainties[k] = s.uncertainty;
+      else delete uncertainties[k];
+    }
+    const next = coerceInputs(this.spec, { ...this.get("inputs"), ...plain });
+    withUncertainties(next, uncertainties); // refuses a bad uncertainty before the state changes
+    this.set({ inputs: next, uncertainties });
     if (this.get("compute_in") !== "kernel") this.recompute();
     return this;
   }
@@ -234,12 +286,20 @@ export class Explorer extends Widget<ExplorerState> {
     return this.onChange("inputs", (v) => cb(v, this));
   }
 
+  /** What a result is computed from: inputs, sweep, uncertainties, correlations. */
+  private stateKey(): string {
+    return JSON.stringify([this.get("inputs"), this.get("sweep"), this.get("uncertainties"), this.get("correlations")]);
+  }
+
+  private computedKey = "";
+
   /** Compute in the kernel now with the current state. */
   recompute(): CalculatorResult | null {
+    this.computedKey = this.stateKey();
     const sweep = this.get("sweep");
     try {
       // The page's "no sweep" is a sweep over "" (no input): compute without the default sweep.
-      const result = runCalculator(this.spec, this.get("inputs"), sweep && sweep.over === "" ? { noSweep: true } : sweep ? { sweep } : {});
+      const result = computeAt(this.spec, this.get("inputs"), sweep, this.get("uncertainties"), this.get("correlations"));
       this.set({ result, error: "" });
       return result;
     } catch (err) {
@@ -253,11 +313,30 @@ export class Explorer extends Widget<ExplorerState> {
   }
 }
 
-/** Open an explorer: `explore("skyrmion", { D: "3.5 mJ/m^2" })`, or a spec / function of your own. */
-/** Inputs of an explorer: by name (SI numbers or strings with units), or a film (`makeFilm`). */
-/** Inputs of an explorer: values with units, or a film; values with an uncertainty are shown at their values. */
-export type ExploreInputs = Record<string, InputWithUncertainty> | Film;
+/**
+ * One point of an explorer, as the page's compute job does it (widgets/src/compute/runJob.ts): the
+ * sweep (the page's "no sweep" is a sweep over ""), and with uncertainties the library's first-order
+ * propagation at this point.
+ */
+function computeAt(
+  spec: CalculatorSpec,
+  inputs: Record<string, number>,
+  sweep: Sweep | null,
+  uncertainties: Record<string, number>,
+  correlations: InputCorrelation[],
+): CalculatorResult {
+  const sweepOption = sweep && sweep.over === "" ? { noSweep: true } : sweep ? { sweep } : {};
+  if (!anyUncertainty(uncertainties)) return runCalculator(spec, inputs, sweepOption);
+  return runCalculator(spec, withUncertainties(inputs, uncertainties), { ...sweepOption, uncertainty: { correlations } });
+}
 
+/**
+ * Inputs of an explorer: values with units, a film (`makeFilm`), or a film file (`loadFilm`).
+ * Values with an uncertainty carry it to the outputs (first order, at the current point).
+ */
+export type ExploreInputs = Record<string, InputWithUncertainty> | Film | FilmRecord;
+
+/** Open an explorer: `explore("skyrmion", { D: "3.5 mJ/m^2" })`, or a spec / function of your own. */
 export function explore(calculator: string | CalculatorSpec | PlainFunction, overrides: ExploreInputs = {}, options: ExploreOptions = {}): Explorer {
   return new Explorer(calculator, overrides, options);
 }

@@ -1,78 +1,196 @@
 /**
- * `fitPanel(options)`: the fit panel widget (data, model curve, residuals, parameter table with
- * uncertainties, start/stop, progress). The kernel side only holds state and relays the page's
- * start/stop buttons (custom messages {event: "start" | "stop"}) to callbacks; the fitting code
- * (lib/src/fit) updates the panel with `update({...})` as it goes.
+ * `fitPanel(...)`: the fit panel widget (data, model curve, residuals, parameter table with
+ * uncertainties, start/stop, progress). Three forms:
+ *
+ *   fitPanel(fit, { data })                                   // a profile fit's result, shown
+ *   fitPanel({ data, model: "wall180-bz", fit: { start, fixed, bounds } })   // a fit run by the panel
+ *   fitPanel({ title, x, y, modelY, parameters, ... })        // any state (camelCase; old snake_case read)
+ *
+ * A panel that knows its data and a catalogue model (the first form on fitProfile's result, or the
+ * second) runs the fit on a worker thread when "Start fit" is pressed (the second form also at once):
+ * the bar and the status follow the iterations, "Stop" ends it between evaluations (status
+ * "stopped", the best point so far shown), and `panel.result` / `panel.done` give the result.
+ * The state and its normaliser are shared with the page's view (lib/src/plot/fitPanelState.ts).
  */
+import { existsSync } from "node:fs";
+import { join } from "node:path";
+import { Worker } from "node:worker_threads";
+import {
+  fitPanelFromResult,
+  fitPanelState,
+  FIT_PANEL_DEFAULTS,
+  InputError,
+  profileModels,
+  type FitPanelOptions,
+  type FitPanelParameter,
+  type FitPanelState,
+  type FitProfileOptions,
+  type ProfileData,
+  type ProfileFitResult,
+} from "@helicoid/lib";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
+import type { FitWorkerMessage } from "../parallel/fitWorker.js";
 
-export interface FitParameterRow {
-  name: string;
-  unit?: string;
-  value: number;
-  uncertainty?: number | null;
-  fixed?: boolean;
+/** A row of the parameter table. */
+export type FitParameterRow = FitPanelParameter;
+
+export type { FitPanelState } from "@helicoid/lib";
+
+/** Profile data as `readProfileCsv` gives them (the signal's SI unit read from `yUnit`). */
+export type FitPanelData = ProfileData & { yUnit?: string };
+
+/** Labels of a panel made from a fit. */
+export interface FitPanelLabels {
+  title?: string;
+  xLabel?: string;
+  yLabel?: string;
 }
 
-export interface FitPanelState extends WidgetState {
-  title: string;
-  x: number[];
-  y: number[];
-  y_err: number[] | null;
-  model_x: number[] | null;
-  model_y: number[] | null;
-  residuals: number[] | null;
-  x_label: string;
-  y_label: string;
-  x_unit: string;
-  y_unit: string;
-  parameters: FitParameterRow[];
-  status: "idle" | "running" | "done" | "failed" | "stopped";
-  progress: number;
-  message: string;
-  iterations: number;
-  chi2: number | null;
-  reduced_chi2: number | null;
+/** A fit the panel runs: the data, a catalogue profile model, and fitProfile's options. */
+export interface FitPanelRun extends FitPanelLabels {
+  data: FitPanelData;
+  model: string;
+  fit?: FitProfileOptions;
 }
 
-const defaults: FitPanelState = {
-  title: "Fit",
-  x: [],
-  y: [],
-  y_err: null,
-  model_x: null,
-  model_y: null,
-  residuals: null,
-  x_label: "x",
-  y_label: "y",
-  x_unit: "",
-  y_unit: "",
-  parameters: [],
-  status: "idle",
-  progress: 0,
-  message: "",
-  iterations: 0,
-  chi2: null,
-  reduced_chi2: null,
-};
+function workerScript(): string {
+  const here = join(__dirname, "..", "parallel", "fitWorker.js");
+  return existsSync(here) ? here : join(__dirname, "..", "..", "dist", "parallel", "fitWorker.js");
+}
 
-const arr = (v: ArrayLike<number> | null | undefined): number[] | null => (v == null ? null : Array.from(v));
+/** fitProfile's options that go to a worker thread (functions stay behind: the panel brings its own). */
+function portableOptions(o: FitProfileOptions): FitProfileOptions {
+  const { onProgress: _p, signal: _s, ...rest } = o;
+  return JSON.parse(JSON.stringify(rest)) as FitProfileOptions;
+}
 
-export class FitPanel extends Widget<FitPanelState> {
-  constructor(o: Partial<Omit<FitPanelState, "x" | "y">> & { x?: ArrayLike<number>; y?: ArrayLike<number> } = {}) {
-    super({ ...ourModel("FitPanel"), state: { ...defaults, ...FitPanel.clean(o) } as FitPanelState });
+export class FitPanel extends Widget<FitPanelState & WidgetState> {
+  private run: { data: FitPanelData; model: string; fit: FitProfileOptions } | null = null;
+  private stopFlag: Int32Array | null = null;
+  private worker: Worker | null = null;
+  private latest: ProfileFitResult | null = null;
+  private finished: Promise<ProfileFitResult | null> = Promise.resolve(null);
+
+  constructor(first: FitPanelOptions | ProfileFitResult | FitPanelRun = {}, more: (FitPanelLabels & { data?: FitPanelData; fit?: FitProfileOptions }) | undefined = undefined) {
+    let state: Partial<FitPanelState>;
+    let run: FitPanel["run"] = null;
+    let latest: ProfileFitResult | null = null;
+    let startNow = false;
+    const labels = (l: FitPanelLabels | undefined) => ({
+      ...(l?.title !== undefined ? { title: l.title } : {}),
+      ...(l?.xLabel !== undefined ? { xLabel: l.xLabel } : {}),
+      ...(l?.yLabel !== undefined ? { yLabel: l.yLabel } : {}),
+    });
+    if (first && typeof first === "object" && "parameters" in first && "fitted" in first && "chiSquare" in first) {
+      // a fit's result: shown; "Start fit" reruns it when its model is a catalogue one
+      const result = first as ProfileFitResult;
+      if (!more?.data) throw new InputError("data", "(none)", "the data the fit was made to: fitPanel(fit, { data })");
+      state = { ...fitPanelFromResult(result, more.data), ...labels(more) };
+      latest = result;
+      if (typeof result.model === "string" && profileModels.some((m) => m.id === result.model)) run = { data: more.data, model: result.model, fit: more.fit ?? {} };
+    } else if (first && typeof first === "object" && "data" in first && "model" in first) {
+      const r = first as FitPanelRun;
+      if (typeof r.model !== "string" || !profileModels.some((m) => m.id === r.model))
+        throw new InputError("model", r.model, `a profile model of the catalogue: ${profileModels.map((m) => m.id).join(", ")}`);
+      state = {
+        title: r.title ?? r.model,
+        x: Array.from(r.data.x),
+        y: Array.from(r.data.y),
+        yErr: r.data.sigma ? Array.from(r.data.sigma) : null,
+        xUnit: "m",
+        yUnit: r.data.yUnit ?? "",
+        ...labels(r),
+      };
+      run = { data: r.data, model: r.model, fit: r.fit ?? {} };
+      startNow = true;
+    } else {
+      state = fitPanelState(first as Record<string, unknown>);
+    }
+    super({ ...ourModel("FitPanel"), state: { ...FIT_PANEL_DEFAULTS, ...state } as FitPanelState & WidgetState });
+    this.run = run;
+    this.latest = latest;
+    if (run) {
+      this.onStart(() => void this.start());
+      this.onStop(() => this.stop());
+    }
+    if (startNow) void this.start();
   }
 
-  private static clean(o: Record<string, unknown>): Partial<FitPanelState> {
-    const out: Record<string, unknown> = { ...o };
-    for (const k of ["x", "y", "y_err", "model_x", "model_y", "residuals"]) if (k in o) out[k] = arr(o[k] as ArrayLike<number> | null) ?? (k === "x" || k === "y" ? [] : null);
-    return out as Partial<FitPanelState>;
+  /** The latest fit result the panel shows (null before its first fit ends). */
+  get result(): ProfileFitResult | null {
+    return this.latest;
   }
 
-  /** Update any part of the panel (arrays may be typed arrays). */
-  update(changes: Partial<Omit<FitPanelState, "x" | "y" | "model_y" | "residuals">> & Record<string, unknown>): this {
-    return this.set(FitPanel.clean(changes));
+  /** Resolves with the result of the fit now running (or the last one). */
+  get done(): Promise<ProfileFitResult | null> {
+    return this.finished;
+  }
+
+  /**
+   * Run the panel's fit on a worker thread (as "Start fit" does): progress after every iteration,
+   * `stop()` ends it. Resolves with the result (null when the fit could not start: said in the panel).
+   */
+  start(): Promise<ProfileFitResult | null> {
+    if (!this.run) throw new InputError("fitPanel", "(no fit)", "a panel made from a fit of a catalogue model, or with { data, model }");
+    if (this.worker) return this.finished;
+    const { data, model, fit } = this.run;
+    const maxEvaluations = fit.maxEvaluations ?? 200 * (profileModels.find((m) => m.id === model)!.parameters.length + 1);
+    const stop = new SharedArrayBuffer(4);
+    this.stopFlag = new Int32Array(stop);
+    const worker = (this.worker = new Worker(workerScript()));
+    this.set({ status: "running", progress: 0, message: "fitting", iterations: 0 });
+    this.finished = new Promise<ProfileFitResult | null>((resolve) => {
+      const end = (fn: () => void) => {
+        if (this.worker !== worker) return;
+        this.worker = null;
+        this.stopFlag = null;
+        void worker.terminate();
+        fn();
+      };
+      worker.on("message", (m: FitWorkerMessage) => {
+        if ("progress" in m) {
+          const p = m.progress;
+          // the bar: evaluations against the most the solver is allowed (a bound: a fit usually ends sooner)
+          this.set({
+            progress: Math.min(0.99, p.evaluations / maxEvaluations),
+            iterations: p.iteration,
+            message: `iteration ${p.iteration}, sum of squares ${p.sumOfSquares.toPrecision(4)}`,
+          });
+        } else if ("result" in m) {
+          end(() => {
+            this.latest = m.result;
+            const { title: _title, ...shown } = fitPanelFromResult(m.result, data); // the panel keeps its own title
+            this.set(shown);
+            resolve(m.result);
+          });
+        } else {
+          end(() => {
+            this.set({ status: "failed", progress: 1, message: m.error.message });
+            resolve(null);
+          });
+        }
+      });
+      worker.on("error", (err) => end(() => (this.set({ status: "failed", progress: 1, message: err.message }), resolve(null))));
+      worker.on("exit", (code) => end(() => (this.set({ status: "failed", progress: 1, message: `the fit's worker thread ended (exit code ${code})` }), resolve(null))));
+    });
+    worker.postMessage({
+      data: { x: Array.from(data.x), y: Array.from(data.y), sigma: data.sigma ? Array.from(data.sigma) : null, notes: data.notes ? [...data.notes] : [] },
+      model,
+      options: portableOptions(fit),
+      stop,
+    });
+    return this.finished;
+  }
+
+  /** Stop the running fit between evaluations (the panel then shows the best point so far, status "stopped"). */
+  stop(): void {
+    if (this.stopFlag) Atomics.store(this.stopFlag, 0, 1);
+  }
+
+  /** Update any part of the panel (camelCase fields; arrays may be typed arrays). */
+  update(changes: FitPanelOptions | Record<string, unknown>): this {
+    return this.set(fitPanelState(changes as Record<string, unknown>));
   }
 
   /** The page's "Start fit" button. */
@@ -94,6 +212,14 @@ export class FitPanel extends Widget<FitPanelState> {
   }
 }
 
-export function fitPanel(options: ConstructorParameters<typeof FitPanel>[0] = {}): FitPanel {
-  return new FitPanel(options);
+/**
+ * A fit panel: `fitPanel(fit, { data })` shows a profile fit's result (and reruns it on "Start fit"),
+ * `fitPanel({ data, model, fit })` runs a fit with progress and Stop, `fitPanel({ title, x, y, ... })`
+ * shows any state.
+ */
+export function fitPanel(result: ProfileFitResult, options: FitPanelLabels & { data: FitPanelData; fit?: FitProfileOptions }): FitPanel;
+export function fitPanel(run: FitPanelRun): FitPanel;
+export function fitPanel(state?: FitPanelOptions): FitPanel;
+export function fitPanel(first: FitPanelOptions | ProfileFitResult | FitPanelRun = {}, more?: FitPanelLabels & { data?: FitPanelData; fit?: FitProfileOptions }): FitPanel {
+  return new FitPanel(first, more);
 }

@@ -1,5 +1,10 @@
 /**
- * `textureView(field, nx, ny, options?)`: a 2D unit-vector field m(x, y) in the page: m_z in
+ * `textureView(field, options?)`: a vector field (`VectorField`: readFieldFile, vectorFieldFrom...,
+ * the texture generators) shown in the page, with its size and cell sizes; of a 3D field one layer
+ * (`layer`, default 0). The older `textureView(m, nx, ny, options?)` with the interleaved array
+ * still works.
+ *
+ * A 2D unit-vector field m(x, y) in the page: m_z in
  * K. Moreland's "cool to warm" diverging colour map (ISVC 2009) with in-plane arrows, the
  * topological charge density in its own panel (diverging, symmetric about zero; `overlay: "none"`
  * hides it), axes in nm, colour bars, a scale bar, optional object markers with a table, and a
@@ -8,7 +13,7 @@
  * `field`: mx, my, mz interleaved, x fastest (length 3 * nx * ny), any numeric array; it is
  * copied into a Float32Array sent as one binary buffer (never modified).
  */
-import { InputError } from "@helicoid/lib";
+import { InputError, type VectorField } from "@helicoid/lib";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
 
@@ -21,10 +26,29 @@ export interface TextureOptions {
   overlay?: "none" | "charge";
   /** Charge per plaquette ((nx - 1) * (ny - 1) values), if computed in the kernel. */
   density?: ArrayLike<number> | null;
-  /** Objects to mark and list: centres x, y (m) and charges, e.g. from findObjects. */
-  objects?: { x: ArrayLike<number>; y: ArrayLike<number>; charge: ArrayLike<number> } | null;
+  /** Objects to mark and list: findObjects' objects ({center: [x, y], charge}), or centres x, y (m) and charges. */
+  objects?: { x: ArrayLike<number>; y: ArrayLike<number>; charge: ArrayLike<number> } | ReadonlyArray<{ center: readonly number[]; charge: number }> | null;
   /** Side of the larger image in CSS pixels (default 480; whole pixels per cell). */
   displaySize?: number;
+}
+
+/** Options of `textureView(field, options)`: the cell sizes come from the field. */
+export interface FieldTextureOptions extends Omit<TextureOptions, "dx" | "dy"> {
+  /** Layer of a 3D field (0 .. nz - 1), default 0. */
+  layer?: number;
+}
+
+function isVectorField(v: unknown): v is VectorField {
+  return typeof v === "object" && v !== null && !ArrayBuffer.isView(v) && !Array.isArray(v) && "m" in v && "nx" in v && "ny" in v;
+}
+
+/** The interleaved components of one layer of a field, and its size and cell sizes. */
+function layerOf(field: VectorField, layer: number | undefined): { m: ArrayLike<number>; nx: number; ny: number; dx: number; dy: number } {
+  const nz = field.nz ?? 1;
+  const k = layer ?? 0;
+  if (!Number.isInteger(k) || k < 0 || k >= nz) throw new InputError("layer", layer, `a layer of the field from 0 to ${nz - 1}`);
+  const n = 3 * field.nx * field.ny;
+  return { m: nz === 1 ? field.m : field.m.subarray(k * n, (k + 1) * n), nx: field.nx, ny: field.ny, dx: field.dx, dy: field.dy };
 }
 
 export interface TextureState extends WidgetState {
@@ -41,8 +65,19 @@ export interface TextureState extends WidgetState {
   display_size: number;
 }
 
+type ObjectList = ReadonlyArray<{ center: readonly number[]; charge: number }>;
+const isObjectList = (o: unknown): o is ObjectList => Array.isArray(o);
+
 function objectsOf(o: TextureOptions["objects"]): TextureState["objects"] {
   if (!o) return null;
+  if (isObjectList(o)) {
+    const list = o;
+    list.forEach((q, i) => {
+      if (!q || !Array.isArray(q.center) || q.center.length < 2 || typeof q.charge !== "number")
+        throw new InputError(`objects[${i}]`, JSON.stringify(q), "an object with center: [x, y] (m) and charge, as findObjects gives");
+    });
+    return objectsOf({ x: list.map((q) => q.center[0]!), y: list.map((q) => q.center[1]!), charge: list.map((q) => q.charge) });
+  }
   const n = o.x?.length;
   if (typeof n !== "number" || o.y?.length !== n || o.charge?.length !== n) {
     throw new InputError("objects", o, "{ x, y, charge }: three arrays of the same length (centres in m, charges)");
@@ -116,6 +151,17 @@ export class TextureView extends Widget<TextureState> {
   }
 }
 
-export function textureView(field: ArrayLike<number>, nx: number, ny: number, options: TextureOptions = {}): TextureView {
-  return new TextureView(field, nx, ny, options);
+/** A vector field in the page: `textureView(field, { title, density, objects })`. */
+export function textureView(field: VectorField, options?: FieldTextureOptions): TextureView;
+/** The interleaved components (mx, my, mz, x fastest) of an nx x ny field. */
+export function textureView(m: ArrayLike<number>, nx: number, ny: number, options?: TextureOptions): TextureView;
+export function textureView(field: VectorField | ArrayLike<number>, a?: number | FieldTextureOptions, b?: number, c: TextureOptions = {}): TextureView {
+  if (isVectorField(field)) {
+    if (typeof a === "number") throw new InputError("textureView", a, "textureView(field, options): the size comes with the vector field");
+    const { layer, ...o } = a ?? {};
+    const l = layerOf(field, layer);
+    return new TextureView(l.m, l.nx, l.ny, { ...o, dx: l.dx, dy: l.dy, ...(o.title === undefined && field.source ? { title: field.source } : {}) });
+  }
+  if (typeof a !== "number" || typeof b !== "number") throw new InputError("field", typeof field, "a vector field (VectorField), or the components with nx and ny");
+  return new TextureView(field, a, b, c);
 }

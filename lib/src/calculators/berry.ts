@@ -7,7 +7,7 @@
  * compute functions receive them in J. Defaults use invented demo materials.
  */
 import type { ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { kB, muB } from "../quantity/constants.js";
 import { coneLoop } from "../berry/loopOnSphere.js";
@@ -373,18 +373,13 @@ export const magnonHallSpec = defineCalculator({
   inputs: [
     { name: "J", symbol: "J/k_B", unit: "K", default: 14, min: 2, max: 60, scale: "linear", meaning: "nearest-neighbour ferromagnetic exchange, J / k_B" },
     { name: "D", symbol: "D/k_B", unit: "K", default: 2.2, min: -10, max: 10, scale: "linear", meaning: "next-nearest-neighbour DMI, D / k_B (sign flips the Chern numbers)" },
-    {
-      name: "S",
-      symbol: "S",
-      unit: "",
-      default: 2,
-      min: 0.5,
-      max: 3.5,
-      scale: "linear",
-      kind: "choice",
-      choices: [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map((s) => ({ value: s, label: `S = ${s}` })),
-      meaning: "spin length",
-    },
+    choiceInput(
+      "S",
+      "S",
+      [0.5, 1, 1.5, 2, 2.5, 3, 3.5].map((s) => ({ value: s, label: `S = ${s}` })),
+      "spin length",
+      { default: 2 },
+    ),
     { name: "B", symbol: "B", unit: "T", default: 0.5, min: 0.01, max: 10, scale: "log", meaning: "field along the magnetization (gaps the Goldstone mode)" },
     { name: "T", symbol: "T", unit: "K", default: 10, min: 0.5, max: 100, scale: "log", meaning: "temperature" },
   ],
@@ -548,18 +543,13 @@ export const spinTunnelSpec = defineCalculator({
   summary:
     "Giant spin H = -D Sz^2 + E (Sx^2 - Sy^2) + C (S+^4 + S-^4) - g muB B.S (B at azimuth phi_B from the hard axis x in the hard plane) by exact diagonalization: tunnel splitting of the ground doublet against the hard-axis field, its zeros (root finding on the signed splitting of the two parity sectors) and their period against Garg's semiclassical (2 k_B / g muB) sqrt(2E(E + D)).",
   inputs: [
-    {
-      name: "S",
-      symbol: "S",
-      unit: "",
-      default: 9,
-      min: 4,
-      max: 12,
-      scale: "linear",
-      kind: "choice",
-      choices: [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })),
-      meaning: "spin of the molecule",
-    },
+    choiceInput(
+      "S",
+      "S",
+      [4, 4.5, 5, 5.5, 6, 6.5, 7, 7.5, 8, 8.5, 9, 9.5, 10, 10.5, 11, 11.5, 12].map((s) => ({ value: s, label: `S = ${s}` })),
+      "spin of the molecule",
+      { default: 9 },
+    ),
     { name: "D", symbol: "D/k_B", unit: "K", default: 0.42, min: 0.05, max: 1, scale: "linear", meaning: "axial (easy-axis) anisotropy" },
     { name: "E", symbol: "E/k_B", unit: "K", default: 0.04, min: 0.005, max: 0.2, scale: "linear", meaning: "rhombic anisotropy (x hard axis)" },
     { name: "Bmax", symbol: "B_{max}", unit: "T", default: 1.5, min: 0.2, max: 3, scale: "linear", meaning: "largest hard-axis field searched" },

@@ -9,7 +9,7 @@
  * flattened arrays (row-major: q index, then w) next to cuts at q = pi and the bounds against q.
  */
 import type { ComputeCost, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { requireWholeAtLeast, sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { brentMinimize } from "../numeric/brentMinimize.js";
@@ -230,21 +230,7 @@ export const chainSpectrumSpec = defineCalculator({
   inputs: [
     { name: "N", symbol: "N", unit: "", default: 12, min: 4, max: 24, scale: "linear", kind: "integer", meaning: "number of sites (odd rings hold one domain wall)" },
     ...modelInputs,
-    {
-      name: "boundary",
-      symbol: "\\text{bc}",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "ring" },
-        { value: 1, label: "open" },
-      ],
-      meaning: "periodic ring or open chain",
-    },
+    choiceInput("boundary", "\\text{bc}", ["ring", "open"], "periodic ring or open chain"),
     { name: "levels", symbol: "n_\\text{lev}", unit: "", default: 2, min: 1, max: 8, scale: "linear", kind: "integer", meaning: "Lanczos levels per sector" },
   ],
   outputs: [

@@ -9,7 +9,7 @@
  * invented DMI-free film for the nanocontact (values below, labelled invented).
  */
 import type { CalculatorSpec, ComputeOptions, ComputeOutput, InputValues } from "./spec.js";
-import { defaultSweep, defineCalculator, inputList, outputList } from "./spec.js";
+import { defaultSweep, defineCalculator, inputList, outputList, choiceInput } from "./spec.js";
 import { sweepValues } from "./spec.js";
 import { InputError } from "../errors.js";
 import { formatQuantity } from "../quantity/units.js";
@@ -105,21 +105,15 @@ const wallInputs = inputList([
   { name: "Bz", symbol: "\\mu_0 H_z", unit: "T", default: 0.05, min: 0, max: 0.3, scale: "linear", meaning: "out-of-plane field along +z (expands the +z domain)" },
   { name: "Bx", symbol: "\\mu_0 H_x", unit: "T", default: 0, min: -0.2, max: 0.2, scale: "linear", meaning: "in-plane field along the wall normal x" },
   ...currentInputs,
-  {
-    name: "polarity",
-    symbol: "p",
-    unit: "",
-    default: 1,
-    min: -1,
-    max: 1,
-    scale: "linear",
-    kind: "choice",
-    choices: [
-      { value: 1, label: "up-down" },
-      { value: -1, label: "down-up" },
+  choiceInput(
+    "polarity",
+    "p",
+    [
+      [1, "up-down"],
+      [-1, "down-up"],
     ],
-    meaning: "wall polarity: up-down (+z domain at x < q) or down-up",
-  },
+    "wall polarity: up-down (+z domain at x < q) or down-up",
+  ),
 ]);
 
 const wallAssumptions = [
@@ -331,21 +325,7 @@ const wallTraceSpec = defineCalculator({
   inputs: [
     ...wallInputs.map((i) => (i.name === "Bz" ? { ...i, default: 0.15 } : i)),
     { name: "duration", symbol: "t_{end}", unit: "s", default: 2e-9, min: 0.1e-9, max: 20e-9, scale: "log", meaning: "length of the time trace" },
-    {
-      name: "breathing",
-      symbol: "",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "rigid" },
-        { value: 1, label: "breathing" },
-      ],
-      meaning: "wall width fixed (rigid) or a third coordinate Delta(t) (breathing; changes only with in-plane fields)",
-    },
+    choiceInput("breathing", "", ["rigid", "breathing"], "wall width fixed (rigid) or a third coordinate Delta(t) (breathing; changes only with in-plane fields)"),
   ],
   outputs: [
     ...wallScalarOutputs,
@@ -374,21 +354,7 @@ const skyrmionInputs = inputList([
   ...filmInputs.map((i) => (i.name === "D" ? { ...i, default: 2.5e-3 } : i)),
   { name: "B", symbol: "\\mu_0 H", unit: "T", default: 0.05, min: 0, max: 0.3, scale: "linear", meaning: "field along +z (background direction; the core points along -z)" },
   ...currentInputs.map((i) => (i.name === "j" ? { ...i, default: 1e11, max: 1e12 } : i.name === "thetaSH" ? { ...i, default: 0.1 } : i)).filter((i) => i.name !== "fieldLike"),
-  {
-    name: "profile",
-    symbol: "",
-    unit: "",
-    default: 0,
-    min: 0,
-    max: 1,
-    scale: "linear",
-    kind: "choice",
-    choices: [
-      { value: 0, label: "ansatz" },
-      { value: 1, label: "exact" },
-    ],
-    meaning: "profile: 360-degree-wall ansatz or exact radial profile (local magnetostatics)",
-  },
+  choiceInput("profile", "", ["ansatz", "exact"], "profile: 360-degree-wall ansatz or exact radial profile (local magnetostatics)"),
 ]);
 
 function computeSkyrmionDrift(v: InputValues, options: ComputeOptions = {}): ComputeOutput {

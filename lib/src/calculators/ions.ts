@@ -5,7 +5,7 @@
  * "0.1 meV", "5 cm^-1", "20 GHz"); outputs repeat the levels in meV and cm^-1.
  */
 import type { ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, h as planck, e as eCharge } from "../quantity/constants.js";
 import { direction, groundDoubletGTensor, groupLevels, ionSpectrum, magnetization, neutronTransitions, schottkyHeat, zeemanDiagram, type IonModel } from "../ions/singleIon.js";
@@ -129,18 +129,7 @@ export const ionLevelsSpec = defineCalculator({
   summary:
     "Exact levels of H = sum B_l^m O_l^m + g_J muB B . J for one ion of total angular momentum J (1/2 ... 8) with Stevens operators of ranks 2, 4, 6 (axial, orthorhombic, trigonal, tetragonal, hexagonal and cubic terms); the levels against a field along any direction, the ground-doublet g-tensor computed from the eigenstates, the Schottky heat, the magnetization along the field and the neutron dipole intensities (powder average).",
   inputs: [
-    {
-      name: "J",
-      symbol: "J",
-      unit: "",
-      default: 7.5,
-      min: 0.5,
-      max: 8,
-      scale: "linear",
-      kind: "choice",
-      choices: jChoices,
-      meaning: "total angular momentum of the ground multiplet",
-    },
+    choiceInput("J", "J", jChoices, "total angular momentum of the ground multiplet", { default: 7.5 }),
     { name: "gJ", symbol: "g_J", unit: "", default: 1.2, min: 0, max: 2.5, scale: "linear", meaning: "Lande factor of the multiplet" },
     ...termNames.map(([name, l, m, def, hint]) => energyInput(name, l, m, def, hint)),
     { name: "B", symbol: "B", unit: "T", default: 1, min: 0, max: 20, scale: "linear", meaning: "applied field magnitude (for the levels in field and M)" },

@@ -5,7 +5,7 @@
  * Bose-Hubbard Mott lobes of the boson mapping).
  */
 import type { ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { InputError } from "../errors.js";
 import { kB, mu0, muB } from "../quantity/constants.js";
 import { dipolarBands, fractionalToQ, latticePreset, luttingerTisza, type Lattice2D } from "../lattices/dipolar.js";
@@ -91,22 +91,7 @@ export const dipolarLatticeSpec = defineCalculator({
   summary:
     "J^{ab}(q) of classical point dipoles (three components, lattice in the plane) by two-dimensional Ewald summation for the square, triangular and honeycomb lattices; its eigen-bands along a path through the zone; the Luttinger-Tisza minimum over the zone with the spin-length check (the bound is the ground state when all moments come out of equal length).",
   inputs: [
-    {
-      name: "lattice",
-      symbol: "\\text{lattice}",
-      unit: "",
-      default: 2,
-      min: 0,
-      max: 2,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "square" },
-        { value: 1, label: "triangular" },
-        { value: 2, label: "honeycomb" },
-      ],
-      meaning: "lattice preset (lengths in the nearest-neighbour distance d)",
-    },
+    choiceInput("lattice", "\\text{lattice}", ["square", "triangular", "honeycomb"], "lattice preset (lengths in the nearest-neighbour distance d)", { default: 2 }),
     { name: "moment", symbol: "\\mu", unit: "", default: 7, min: 0.1, max: 12, scale: "linear", meaning: "moment per site in Bohr magnetons" },
     { name: "d", symbol: "d", unit: "m", default: 4e-10, min: 2e-10, max: 2e-9, scale: "log", meaning: "nearest-neighbour distance" },
     { name: "grid", symbol: "n_q", unit: "", default: 12, min: 4, max: 60, scale: "linear", kind: "integer", meaning: "zone points per direction of the LT search (then refined)" },
@@ -192,7 +177,7 @@ export const fieldTunedOrderSpec = defineCalculator({
   summary:
     "Single-ion D S_z^2 - h S_z with antiferromagnetic exchange zJ (XXZ, anisotropy Delta) in site-decoupled mean field at T = 0: the staggered transverse moment (the condensate) and the uniform moment against field, the ordered windows where single-ion levels cross and the gapped plateaus between; spin-1 critical fields in closed form; the Bose-Hubbard Mott-lobe boundaries z t / U = (n - x)(x - n + 1)/(1 + x) of the decoupling approximation.",
   inputs: [
-    { name: "S", symbol: "S", unit: "", default: 1, min: 0.5, max: 5, scale: "linear", kind: "choice", choices: spinChoices, meaning: "spin" },
+    choiceInput("S", "S", spinChoices, "spin", { default: 1 }),
     { name: "D", symbol: "D", unit: "K", default: 10, min: 0, max: 30, scale: "linear", meaning: "easy-plane single-ion anisotropy (E / k_B)" },
     { name: "zJ", symbol: "zJ", unit: "K", default: 2, min: 0, max: 10, scale: "linear", meaning: "antiferromagnetic exchange summed over neighbours (E / k_B)" },
     { name: "Delta", symbol: "\\Delta", unit: "", default: 1, min: 0, max: 2, scale: "linear", meaning: "longitudinal exchange anisotropy (1: Heisenberg)" },

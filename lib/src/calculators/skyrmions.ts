@@ -4,7 +4,7 @@
  * radial profile of the local model). Defaults: the invented demo film HX-1 (lib/src/material/demo.ts).
  */
 import type { ComputeOptions, ComputeOutput, InputSpec, InputValues } from "./spec.js";
-import { defineCalculator, inputList, outputList } from "./spec.js";
+import { defineCalculator, inputList, outputList, choiceInput } from "./spec.js";
 import { filmLimits, sweepValues } from "./spec.js";
 import { ConvergenceError, InputError } from "../errors.js";
 import { criticalDmi, makeFilm, requirePerpendicular, spiralState, wallWidthParameter, type Film } from "../material/film.js";
@@ -473,21 +473,7 @@ const stabilitySpec = defineCalculator({
     // defaults: the demo film with a stronger DMI, where the skyrmion is several nm across
     ...filmInputs().map((i) => (i.name === "D" ? { ...i, default: 2.9e-3 } : i.name === "B" ? { ...i, default: 0.02 } : i)),
     latticeInput,
-    {
-      name: "search",
-      symbol: "",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "skip" },
-        { value: 1, label: "strip-out search" },
-      ],
-      meaning: "Search down in field for the strip-out field (a few seconds)",
-    },
+    choiceInput("search", "", ["skip", "strip-out search"], "Search down in field for the strip-out field (a few seconds)"),
     { name: "Bmin", symbol: "B_{min}", unit: "T", default: -0.05, min: -0.3, max: 0.3, scale: "linear", meaning: "Lowest field of the strip-out search" },
   ],
   outputs: [

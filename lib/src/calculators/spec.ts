@@ -298,6 +298,29 @@ export function inputList<N extends string>(inputs: Array<InputSpec<N>>): Array<
   return inputs;
 }
 
+/** One choice of a choice input: a label (its value is its place, 0, 1, ...), a [value, label] pair, or {value, label}. */
+export type ChoiceEntry = string | readonly [number, string] | { value: number; label: string };
+
+/**
+ * A choice input, its name kept as a type (for `defineCalculator`): the values are the labels'
+ * places (0, 1, ...) or the values given with them, the slider range from the smallest to the
+ * largest, the default the first choice's value unless `options.default` says otherwise.
+ *
+ *     choiceInput("boundary", "\\text{bc}", ["periodic", "open"], "boundary of the grid")
+ *     choiceInput("polarity", "p", [[1, "up-down"], [-1, "down-up"]], "wall polarity")
+ */
+export function choiceInput<const N extends string>(name: N, symbol: string, labels: readonly ChoiceEntry[], meaning: string, options: { default?: number } = {}): InputSpec<N> {
+  const choices = labels.map((c, i) =>
+    typeof c === "string" ? { value: i, label: c } : Array.isArray(c) ? { value: c[0] as number, label: c[1] as string } : { ...(c as { value: number; label: string }) },
+  );
+  if (choices.length === 0) throw new InputError(`${name}: choices`, "(none)", "at least one choice");
+  const values = choices.map((c) => c.value);
+  if (values.some((v) => !Number.isFinite(v)) || new Set(values).size !== values.length) throw new InputError(`${name}: choices`, values.join(", "), "distinct finite values");
+  const dflt = options.default ?? values[0]!;
+  if (!values.includes(dflt)) throw new InputError(`${name}: default`, dflt, `one of the choices' values (${values.join(", ")})`);
+  return { name, symbol, unit: "", default: dflt, min: Math.min(...values), max: Math.max(...values), scale: "linear", kind: "choice", choices, meaning };
+}
+
 /** A list of output declarations whose names and kinds stay types (for outputs shared by several specs). */
 export function outputList<const O extends OutputSpec>(outputs: readonly O[]): O[] {
   return outputs as O[];
@@ -432,14 +455,16 @@ function checkFinite(spec: CalculatorSpec, values: ComputeOutput["values"]): str
 
 /**
  * A choice given by its label: the whole label (any case, "skyrmion lattice"), or a word the
- * label starts with when only one label does ("lattice" does not; "antisk" does). Numbers are
- * left to parseQuantity.
+ * label starts with when only one label does ("lattice" does not; "antisk" does). A label that
+ * looks like a number ("-z", "3/2") is read as the label; other numbers are left to parseQuantity.
  */
 function choiceByLabel(input: InputSpec, given: string): number | undefined {
   const g = given.trim().toLowerCase();
-  if (g === "" || /^[-+.\d]/.test(g) || !input.choices) return undefined;
+  if (g === "" || !input.choices) return undefined;
+  // a whole label first: labels may start like a number ("+z", "-z", "1/2")
   const exact = input.choices.find((c) => c.label.toLowerCase() === g);
   if (exact) return exact.value;
+  if (/^[-+.\d]/.test(g)) return undefined;
   const starts = input.choices.filter((c) => c.label.toLowerCase().startsWith(g));
   if (starts.length === 1) return starts[0]!.value;
   throw new InputError(input.name, given, `${choiceList(input)}${starts.length > 1 ? ` ("${given}" starts ${starts.length} of the labels)` : ""}`);

@@ -1,5 +1,5 @@
 import type { ComputeCost, ComputeOutput, InputValues } from "./spec.js";
-import { defineCalculator } from "./spec.js";
+import { defineCalculator, choiceInput } from "./spec.js";
 import { findObjects } from "../topology/objects.js";
 import { skyrmionNumber, LATTICE_Q_SOURCES } from "../topology/skyrmionNumber.js";
 import { continuumSkyrmionNumber } from "../topology/continuumCharge.js";
@@ -159,7 +159,7 @@ export const textureSpec = defineCalculator({
   summary:
     "Generates an analytic demo texture (skyrmion, antiskyrmion, skyrmionium, skyrmion lattice, higher-order skyrmion or vortex-antivortex pair) on an n x n grid and counts its topology: lattice skyrmion number Q (Berg-Luescher solid angles), a continuum finite-difference estimate beside it, in-plane vortices, and the objects with their charge, centre, radius (area inside m_z = 0), vorticity and helicity.",
   inputs: [
-    { name: "kind", symbol: "\\text{kind}", unit: "", default: 0, min: 0, max: 5, scale: "linear", kind: "choice", choices: KINDS, meaning: "which texture to generate" },
+    choiceInput("kind", "\\text{kind}", KINDS, "which texture to generate"),
     { name: "n", symbol: "n", unit: "", default: 128, min: 16, max: 512, scale: "log", kind: "integer", meaning: "cells along x and y" },
     { name: "cell", symbol: "\\delta x", unit: "m", default: 1e-9, min: 1e-10, max: 1e-8, scale: "log", meaning: "cell size" },
     {
@@ -185,51 +185,9 @@ export const textureSpec = defineCalculator({
     },
     { name: "vorticity", symbol: "v", unit: "", default: 2, min: -4, max: 4, scale: "linear", kind: "integer", meaning: "vorticity of the higher-order skyrmion (kind 4)" },
     { name: "a", symbol: "a", unit: "m", default: 45e-9, min: 10e-9, max: 200e-9, scale: "log", meaning: "target lattice constant of the skyrmion lattice (kind 3)" },
-    {
-      name: "background",
-      symbol: "m_\\infty",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "+z" },
-        { value: 1, label: "-z" },
-      ],
-      meaning: "background direction (cores point the other way)",
-    },
-    {
-      name: "pairPolarity",
-      symbol: "p_1 p_2",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "same core polarities" },
-        { value: 1, label: "opposite core polarities" },
-      ],
-      meaning: "core polarities of the vortex-antivortex pair (kind 5)",
-    },
-    {
-      name: "boundary",
-      symbol: "\\text{bc}",
-      unit: "",
-      default: 0,
-      min: 0,
-      max: 1,
-      scale: "linear",
-      kind: "choice",
-      choices: [
-        { value: 0, label: "periodic" },
-        { value: 1, label: "open" },
-      ],
-      meaning: "boundary of the grid",
-    },
+    choiceInput("background", "m_\\infty", ["+z", "-z"], "background direction (cores point the other way)"),
+    choiceInput("pairPolarity", "p_1 p_2", ["same core polarities", "opposite core polarities"], "core polarities of the vortex-antivortex pair (kind 5)"),
+    choiceInput("boundary", "\\text{bc}", ["periodic", "open"], "boundary of the grid"),
   ],
   outputs: [
     { name: "Q", symbol: "Q", unit: "", meaning: "lattice skyrmion number (exact integer on a periodic grid)" },

@@ -155,6 +155,26 @@ function checkUncertainty(name: string, given: unknown, u: number): number {
   return u;
 }
 
+/**
+ * SI inputs with SI standard uncertainties, as `runCalculator` reads them: each input that has an
+ * uncertainty > 0 in `uncertainties` becomes `{ value, uncertainty }`, the others stay numbers. The
+ * explorers compute with it: a slider moves an input's value, its uncertainty stays.
+ */
+export function withUncertainties(values: Record<string, number>, uncertainties: Record<string, number> | null | undefined): Record<string, InputWithUncertainty> {
+  const out: Record<string, InputWithUncertainty> = { ...values };
+  for (const [name, u] of Object.entries(uncertainties ?? {})) {
+    if (!(name in values)) throw new InputError(`uncertainty of ${name}`, u, `an uncertainty of an input that has a value (${Object.keys(values).join(", ")})`);
+    if (typeof u !== "number" || !(u >= 0) || !Number.isFinite(u)) throw new InputError(`uncertainty of ${name}`, u, "a standard uncertainty that is a finite number >= 0 (SI)");
+    if (u > 0) out[name] = { value: values[name]!, uncertainty: u };
+  }
+  return out;
+}
+
+/** Does a state of SI uncertainties carry any (> 0)? */
+export function anyUncertainty(uncertainties: Record<string, number> | null | undefined): boolean {
+  return Object.values(uncertainties ?? {}).some((u) => u > 0);
+}
+
 /** Runs of a calculator allowed for one propagation, from its cost estimate (at least the first-order runs). */
 function affordableRuns(spec: CalculatorSpec, inputs: InputValues): number {
   if (!spec.cost) return Infinity;

@@ -1,3 +1,4 @@
 export * from "./symbols.js";
 export * from "./calculatorFigure.js";
 export * from "./paperSvg.js";
+export * from "./fitPanelState.js";

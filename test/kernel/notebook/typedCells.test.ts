@@ -10,6 +10,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { helicoidBin } from "../../helpers/paths.js";
+import { getCalculator } from "../../../lib/src/index";
 
 const cell = (source: string) => ({ cell_type: "code", metadata: {}, source, outputs: [], execution_count: null });
 const notebook = (cells: unknown[]) => ({ nbformat: 4, nbformat_minor: 5, metadata: {}, cells });
@@ -100,5 +101,29 @@ describe("typed calculators in notebook cells", () => {
     expect(errorText(r.cells[0]!.outputs)).toBe("");
     expect(stdout(r.cells[0]!.outputs)).toBe("2|string\n");
     expect(errorText(r.cells[1]!.outputs)).toMatch(/Buffer.*not assignable to type 'number'/);
+  }, 400_000);
+
+  it("types the choice inputs made with choiceInput: labels and values compile, a misspelt choice input does not", () => {
+    const ok = runCells("choices", [
+      imports,
+      [
+        'const tex = runCalculator("texture", { kind: "skyrmion", n: 128, boundary: "open", background: "-z", pairPolarity: 0 });',
+        'const trace = runCalculator("wall-trace", { breathing: "breathing", polarity: -1, duration: "0.2 ns" });',
+        "const q: number = tex.outputs.Q.value;",
+        "console.log(`${Math.round(q)}|${tex.inputs.boundary.value}|${tex.inputs.background.value}|${trace.inputs.breathing.value}|${trace.inputs.polarity.value}`);",
+      ].join("\n"),
+    ]);
+    expect(ok.status, ok.stderr + errorText(ok.cells[1]!.outputs)).toBe(0);
+    // each label is read as the value the spec gives it (choiceInput: a label's place, or its given value)
+    const value = (id: string, input: string, label: string) =>
+      getCalculator(id)
+        .inputs.find((i) => i.name === input)!
+        .choices!.find((c) => c.label === label)!.value;
+    const [q, ...values] = stdout(ok.cells[1]!.outputs).trim().split("|");
+    expect(values.map(Number)).toEqual([value("texture", "boundary", "open"), value("texture", "background", "-z"), value("wall-trace", "breathing", "breathing"), -1]);
+    expect(Math.abs(Number(q))).toBe(1); // one skyrmion: |Q| = 1 (N. Nagaosa, Y. Tokura, Nat. Nanotechnol. 8, 899 (2013))
+    const bad = runCells("bad-choice", [imports, 'runCalculator("texture", { boundry: "open" })']);
+    expect(bad.status).not.toBe(0);
+    expect(errorText(bad.cells[1]!.outputs)).toMatch(/'boundry' does not exist in type/);
   }, 400_000);
 });

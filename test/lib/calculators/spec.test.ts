@@ -9,7 +9,7 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { defineCalculator, demoFilmHX1, InputError, isDocumentedResult, makeFilm, report, runCalculator, solveLeastSquares, type CalculatorSpec } from "@helicoid/lib/internal";
+import { choiceInput, defineCalculator, demoFilmHX1, InputError, isDocumentedResult, makeFilm, report, runCalculator, solveLeastSquares, type CalculatorSpec } from "@helicoid/lib/internal";
 
 const here = join(__dirname, "typed");
 const tscBin = require.resolve("typescript/bin/tsc");
@@ -172,5 +172,70 @@ describe("one documented-result contract", () => {
     expect(text).toContain(`**Method:** ${(calc as { method: string }).method}`);
     const spec: CalculatorSpec = demo;
     expect(isDocumentedResult(runCalculator(spec, {}))).toBe(true);
+  });
+});
+
+describe("choiceInput", () => {
+  // Common practice, no source: a choice is given by its label or its value, and both mean the same.
+  it("builds a choice input: values by place or as given, range and default from them", () => {
+    const b = choiceInput("boundary", "\\text{bc}", ["periodic", "open"], "boundary of the grid");
+    expect(b).toEqual({
+      name: "boundary",
+      symbol: "\\text{bc}",
+      unit: "",
+      default: 0,
+      min: 0,
+      max: 1,
+      scale: "linear",
+      kind: "choice",
+      choices: [
+        { value: 0, label: "periodic" },
+        { value: 1, label: "open" },
+      ],
+      meaning: "boundary of the grid",
+    });
+    const p = choiceInput(
+      "polarity",
+      "p",
+      [
+        [1, "up-down"],
+        [-1, "down-up"],
+      ],
+      "wall polarity",
+    );
+    expect([p.default, p.min, p.max]).toEqual([1, -1, 1]);
+    expect(
+      choiceInput(
+        "S",
+        "S",
+        [
+          [0.5, "1/2"],
+          [1, "1"],
+        ],
+        "spin",
+        { default: 1 },
+      ).default,
+    ).toBe(1);
+    expect(() => choiceInput("x", "", [], "none")).toThrow(InputError);
+    expect(() => choiceInput("x", "", ["a", "b"], "bad default", { default: 3 })).toThrow(/default/);
+    expect(() =>
+      choiceInput(
+        "x",
+        "",
+        [
+          [0, "a"],
+          [0, "b"],
+        ],
+        "twice",
+      ),
+    ).toThrow(/distinct/);
+  });
+
+  it("reads a label that looks like a number ('-z') as the label, and the value alike", () => {
+    const tex = (background: string | number) => runCalculator("texture", { kind: "skyrmion", n: 32, background }).inputs.background.value;
+    expect(tex("-z")).toBe(1);
+    expect(tex("+z")).toBe(0);
+    expect(tex(1)).toBe(1);
+    expect(() => tex("z")).toThrow(InputError);
   });
 });

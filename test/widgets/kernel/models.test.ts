@@ -6,7 +6,7 @@
 import { describe, it, expect, beforeEach } from "vitest";
 import { comms, type CommChannel } from "../../../kernel-ext/src/comm/comms";
 import { explore, figureWidget, textureView, fitPanel } from "../../../kernel-ext/src/widgets/index";
-import { InputError, runCalculator } from "../../../lib/src/index";
+import { InputError, runCalculator, vectorFieldFromInterleaved } from "../../../lib/src/index";
 import { testWallSpec } from "../fixtures/testSpecs";
 
 type Sent = { type: string; content: Record<string, any>; buffers: unknown[] };
@@ -123,6 +123,20 @@ describe("figure, texture and fit panel (kernel side)", () => {
     expect(field).toEqual(copy);
     expect(t.get("dy")).toBe(2e-9);
     expect(() => textureView(new Float32Array(5), 4, 3)).toThrow(InputError);
+    // a vector field object brings its size and cell sizes; of a 3D field one layer
+    const vf = vectorFieldFromInterleaved(field, { nx: 4, ny: 3, dx: 2e-9, dy: 3e-9, source: "invented.npy" });
+    const fromField = textureView(vf, { arrows: false });
+    expect([fromField.get("nx"), fromField.get("ny"), fromField.get("dx"), fromField.get("dy"), fromField.get("title")]).toEqual([4, 3, 2e-9, 3e-9, "invented.npy"]);
+    const layers = new Float64Array(2 * field.length);
+    layers.set(field);
+    for (let k = field.length; k < layers.length; k += 3) layers[k] = 1; // layer 1 points along x
+    const thick = vectorFieldFromInterleaved(layers, { nx: 4, ny: 3, nz: 2, dx: 1e-9 });
+    expect(Array.from(textureView(thick, { layer: 1 }).get("field").slice(0, 3))).toEqual([1, 0, 0]);
+    expect(() => textureView(thick, { layer: 2 })).toThrow(/layer/);
+    // findObjects' list of objects is read as it is
+    const listed = textureView(vf, { objects: [{ center: [1e-9, 2e-9], charge: -1 }] });
+    expect(listed.get("objects")).toEqual({ x: [1e-9], y: [2e-9], charge: [-1] });
+    expect(() => textureView(vf, { objects: [{ center: [1e-9], charge: 1 }] })).toThrow(/objects\[0\]/);
     expect(() => textureView(new Float32Array(36).fill(NaN), 4, 3)).toThrow(/field\[0\]/);
     // Objects to mark: three arrays of one length, copied as plain numbers; anything else is refused by name.
     const marked = textureView(field, 4, 3, { objects: { x: new Float64Array([1e-9]), y: [2e-9], charge: [-1] } });
@@ -141,7 +155,12 @@ describe("figure, texture and fit panel (kernel side)", () => {
     comms.handleMessage({ comm_id: p.id, data: { method: "custom", content: { event: "start" } } }, { metadata: {}, buffers: [], header: {} });
     comms.handleMessage({ comm_id: p.id, data: { method: "custom", content: { event: "stop" } } }, { metadata: {}, buffers: [], header: {} });
     expect(events).toEqual(["start", "stop"]);
-    p.update({ status: "running", progress: 0.5, model_y: new Float64Array([1, 2]) as unknown as number[] });
-    expect(p.get("model_y")).toEqual([1, 2]);
+    p.update({ status: "running", progress: 0.5, modelY: new Float64Array([1, 2]) });
+    expect(p.get("modelY")).toEqual([1, 2]);
+    // the snake_case names of earlier versions are read as their camelCase ones; an unknown name is refused
+    p.update({ model_y: [3, 4], reduced_chi2: 1.2 });
+    expect(p.get("modelY")).toEqual([3, 4]);
+    expect(p.get("reducedChi2")).toBe(1.2);
+    expect(() => p.update({ modelZ: [1] })).toThrow(/modelZ/);
   });
 });

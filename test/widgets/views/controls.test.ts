@@ -89,6 +89,23 @@ describe("copy as code: no sweep", () => {
   });
 });
 
+describe("copy as code: inputs with uncertainties", () => {
+  it("writes each uncertain input as {value, uncertainty} and the correlations: the cell gives the explorer's ±", () => {
+    const wall = getCalculator("wall");
+    const values = { ...Object.fromEntries(wall.inputs.map((i) => [i.name, i.default])), Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 2.9e-3, t: 1e-9 };
+    const uncertainties = { A: 1e-12, Ku: 4e4 };
+    const correlations = [{ between: ["A", "Ku"] as [string, string], coefficient: 0.3 }];
+    const code = codeSnippet({ calculator: "wall", inputs: wall.inputs, values, sweep: null, uncertainties, correlations });
+    expect(code).toContain('A: { value: "15 pJ/m", uncertainty: "1 pJ/m" },');
+    expect(code).toContain('uncertainty: { correlations: [{"between":["A","Ku"],"coefficient":0.3}] }');
+    const call = code.slice(code.indexOf("runCalculator("), code.lastIndexOf(");") + 1);
+    const fromCode = new Function("runCalculator", "getCalculator", `return ${call}`)(runCalculator, getCalculator) as ReturnType<typeof runCalculator>;
+    const explorer = runCalculator(wall, { ...values, A: { value: 15e-12, uncertainty: 1e-12 }, Ku: { value: 1.2e6, uncertainty: 4e4 } }, { uncertainty: { correlations } });
+    const u = (r: typeof explorer) => (r.outputs.width as { uncertainty?: number }).uncertainty!;
+    expect(u(fromCode) / u(explorer)).toBeCloseTo(1, 9);
+  });
+});
+
 describe("plot traces", () => {
   it("are scaled to customary units and carry the factors back to SI", () => {
     const r = runCalculator(testWallSpec, {});
