@@ -40,6 +40,12 @@ export {
   symbolHtml,
   symbolText,
   withoutArgument,
+  fitPanelFromResult,
+  fitPanelState,
+  FIT_PANEL_DEFAULTS,
+  type FitPanelOptions,
+  type FitPanelParameter,
+  type FitPanelState,
 } from "./plot/index.js";
 export {
   criticalDmi,
@@ -331,6 +337,9 @@ export {
   type UncertainInput,
   type UncertaintyOptions,
   type UncertaintyReport,
+  anyUncertainty,
+  withUncertainties,
+  choiceInput,
 } from "./calculators/index.js";
 export { type DocumentedResult, isDocumentedResult, type Quantity } from "./result.js";
 export { report } from "./report.js";

@@ -13,6 +13,12 @@ import { repoRoot } from "../helpers/paths.js";
 
 /** Values (functions, constants, classes) of @helicoid/lib. */
 const PUBLIC_VALUES = [
+  "FIT_PANEL_DEFAULTS",
+  "anyUncertainty",
+  "choiceInput",
+  "fitPanelFromResult",
+  "fitPanelState",
+  "withUncertainties",
   "BOUNDARIES",
   "ConvergenceError",
   "InputError",
@@ -193,6 +199,9 @@ const PUBLIC_VALUES = [
 
 /** Types and interfaces of @helicoid/lib (the types of the public signatures among them). */
 const PUBLIC_TYPES = [
+  "FitPanelOptions",
+  "FitPanelParameter",
+  "FitPanelState",
   "AnsatzOptions",
   "AnsatzSkyrmion",
   "AnsatzStart",
