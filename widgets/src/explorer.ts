@@ -733,7 +733,7 @@ export class ExplorerView extends DOMWidgetView {
         m.append(
           el("td", {
             colspan: "2",
-            text: `± u: standard uncertainty from ${inputs}, ${report.method === "monte-carlo" ? "Monte Carlo (JCGM 101:2008)" : "first order (JCGM 100:2008), at this point"}${report.correlations.length ? ", with correlations" : ""}; (!) not trustworthy, see the notes`,
+            text: `± u: standard uncertainty from ${inputs}, ${report.method === "monte-carlo" ? "Monte Carlo (JCGM 101:2008)" : "first order (JCGM 100:2008), at this point"}${report.correlations.length ? ", with correlations" : ""}; values without ± do not depend on those inputs; (!) not trustworthy, see the notes`,
           }),
         );
         table.append(m);
@@ -784,7 +784,8 @@ export class ExplorerView extends DOMWidgetView {
     for (const [name, cell] of this.valueCells) {
       const out = result.outputs[name]! as { value: number | number[] | string; uncertainty?: number };
       const value = out.value;
-      const u = typeof value === "number" && typeof out.uncertainty === "number" ? out.uncertainty : null;
+      // an output that does not move with any uncertain input (a count, a lattice edge) has u = 0 exactly: shown bare
+      const u = typeof value === "number" && typeof out.uncertainty === "number" && out.uncertainty !== 0 ? out.uncertainty : null;
       let text = typeof value === "number" ? (u !== null ? formatWithError(value, u, cell.unit) : formatQuantity(value, cell.unit)) : String(value);
       if (flagged[name]) text += " (!)";
       if (cell.td.textContent !== text) cell.td.textContent = text;
