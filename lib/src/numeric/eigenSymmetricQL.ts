@@ -23,6 +23,8 @@ export class SymmetricEigenSolver {
   private readonly hv: Float64Array;
   private readonly taus: Float64Array;
   private readonly w: Float64Array;
+  private readonly cs: Float64Array;
+  private readonly sn: Float64Array;
 
   constructor(n: number) {
     if (!Number.isInteger(n) || n < 1) throw new InputError("n", n, "a positive whole matrix size");
@@ -36,6 +38,8 @@ export class SymmetricEigenSolver {
     this.hv = new Float64Array(n * n);
     this.taus = new Float64Array(n);
     this.w = new Float64Array(n * n);
+    this.cs = new Float64Array(n);
+    this.sn = new Float64Array(n);
   }
 
   /** Diagonalize the symmetric matrix `a` (row-major; the lower triangle is read). */
@@ -126,18 +130,27 @@ export class SymmetricEigenSolver {
         for (let j = k + 1; j < n; j++) W[row + j] = W[row + j]! - h * sv[j]!;
       }
     }
-    // Transposed (vector = row) for contiguous rotations.
-    const V = this.vectors;
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) V[j * n + i] = W[i * n + j]!;
-    tql2Real(n, d, e, V);
-    // Sort (swapping rows), then transpose back to columns.
-    sortAscending(n, d, V, null);
-    for (let i = 0; i < n; i++) {
-      for (let k = i + 1; k < n; k++) {
-        const t = V[i * n + k]!;
-        V[i * n + k] = V[k * n + i]!;
-        V[k * n + i] = t;
-      }
+    // Eigenvectors stay the columns of W: the QL rotations of each sweep are applied row by row of
+    // W with the running entry in a register (tql2RealColumns), then the columns are sorted.
+    tql2RealColumns(n, d, e, W, this.cs, this.sn);
+    sortAscendingColumns(n, d, W);
+    this.vectors.set(W);
+  }
+}
+
+/** Sort eigenvalues ascending, swapping the columns (vectors = columns) of the row-major V. */
+export function sortAscendingColumns(n: number, d: Float64Array, V: Float64Array): void {
+  for (let i = 0; i < n - 1; i++) {
+    let k = i;
+    for (let j = i + 1; j < n; j++) if (d[j]! < d[k]!) k = j;
+    if (k === i) continue;
+    const t = d[i]!;
+    d[i] = d[k]!;
+    d[k] = t;
+    for (let r = 0; r < n * n; r += n) {
+      const x = V[r + i]!;
+      V[r + i] = V[r + k]!;
+      V[r + k] = x;
     }
   }
 }
@@ -234,6 +247,158 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
     }
     d[l] = d[l]! + f;
     e[l] = 0;
+  }
+}
+
+/**
+ * tql2Real with the eigenvectors as the COLUMNS of the row-major n x n matrix W (component i of
+ * vector k at [i * n + k]). The rotations of one QL sweep are recorded in (cs, sn) and then applied
+ * to W row by row in one pass, the entry being rotated kept in a register (the pattern of LAPACK's
+ * dlasr): one load and one store per rotation and row instead of two of each, and two rows at a time.
+ */
+export function tql2RealColumns(
+  n: number,
+  d: Float64Array,
+  e: Float64Array,
+  W: Float64Array,
+  cs: Float64Array,
+  sn: Float64Array,
+  solver = "tridiagonal QL (symmetric eigensolver)",
+): void {
+  let f = 0;
+  let tst1 = 0;
+  for (let l = 0; l < n; l++) {
+    tst1 = Math.max(tst1, Math.abs(d[l]!) + Math.abs(e[l]!));
+    let m = l;
+    while (m < n - 1) {
+      if (Math.abs(e[m]!) <= EPS * tst1) break;
+      m++;
+    }
+    if (m > l) {
+      let iter = 0;
+      do {
+        if (++iter > 60) {
+          throw new ConvergenceError(solver, "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
+        }
+        let g = d[l]!;
+        let p = (d[l + 1]! - g) / (2 * e[l]!);
+        let r = Math.abs(p) < 1e150 ? Math.sqrt(p * p + 1) : Math.hypot(p, 1);
+        if (p < 0) r = -r;
+        d[l] = e[l]! / (p + r);
+        d[l + 1] = e[l]! * (p + r);
+        const dl1 = d[l + 1]!;
+        let h = g - d[l]!;
+        for (let i = l + 2; i < n; i++) d[i] = d[i]! - h;
+        f += h;
+        p = d[m]!;
+        let c = 1;
+        let c2 = c;
+        let c3 = c;
+        const el1 = e[l + 1]!;
+        let s = 0;
+        let s2 = 0;
+        for (let i = m - 1; i >= l; i--) {
+          c3 = c2;
+          c2 = c;
+          s2 = s;
+          g = c * e[i]!;
+          h = c * p;
+          const ei = e[i]!;
+          const ap = Math.abs(p);
+          const ae = Math.abs(ei);
+          r = ap < 1e150 && ae < 1e150 && (ap > 1e-150 || ae > 1e-150) ? Math.sqrt(p * p + ei * ei) : Math.hypot(p, ei);
+          e[i + 1] = s * r;
+          const ir = 1 / r;
+          s = e[i]! * ir;
+          c = p * ir;
+          p = c * d[i]! - s * g;
+          d[i + 1] = h + s * (c * g + s * d[i]!);
+          cs[i] = c;
+          sn[i] = s;
+        }
+        applySweepToColumns(n, W, cs, sn, l, m);
+        p = (-s * s2 * c3 * el1 * e[l]!) / dl1;
+        e[l] = s * p;
+        d[l] = c * p;
+      } while (Math.abs(e[l]!) > EPS * tst1);
+    }
+    d[l] = d[l]! + f;
+    e[l] = 0;
+  }
+}
+
+/**
+ * Rotations i = m - 1 down to l (mixing columns i and i + 1: new_{i+1} = s_i x_i + c_i x_{i+1},
+ * new_i = c_i x_i - s_i x_{i+1}) applied to every row of the row-major n x n matrix W.
+ */
+function applySweepToColumns(n: number, W: Float64Array, cs: Float64Array, sn: Float64Array, l: number, m: number): void {
+  // 8 rows at a time: independent dependency chains (x_k = c y_k - s x_k) in flight.
+  let r = 0;
+  for (; r + 7 < n; r += 8) {
+    const o0 = r * n;
+    const o1 = o0 + n;
+    const o2 = o1 + n;
+    const o3 = o2 + n;
+    const o4 = o3 + n;
+    const o5 = o4 + n;
+    const o6 = o5 + n;
+    const o7 = o6 + n;
+    let x0 = W[o0 + m]!;
+    let x1 = W[o1 + m]!;
+    let x2 = W[o2 + m]!;
+    let x3 = W[o3 + m]!;
+    let x4 = W[o4 + m]!;
+    let x5 = W[o5 + m]!;
+    let x6 = W[o6 + m]!;
+    let x7 = W[o7 + m]!;
+    for (let i = m - 1; i >= l; i--) {
+      const c = cs[i]!;
+      const s = sn[i]!;
+      const y0 = W[o0 + i]!;
+      W[o0 + i + 1] = s * y0 + c * x0;
+      x0 = c * y0 - s * x0;
+      const y1 = W[o1 + i]!;
+      W[o1 + i + 1] = s * y1 + c * x1;
+      x1 = c * y1 - s * x1;
+      const y2 = W[o2 + i]!;
+      W[o2 + i + 1] = s * y2 + c * x2;
+      x2 = c * y2 - s * x2;
+      const y3 = W[o3 + i]!;
+      W[o3 + i + 1] = s * y3 + c * x3;
+      x3 = c * y3 - s * x3;
+      const y4 = W[o4 + i]!;
+      W[o4 + i + 1] = s * y4 + c * x4;
+      x4 = c * y4 - s * x4;
+      const y5 = W[o5 + i]!;
+      W[o5 + i + 1] = s * y5 + c * x5;
+      x5 = c * y5 - s * x5;
+      const y6 = W[o6 + i]!;
+      W[o6 + i + 1] = s * y6 + c * x6;
+      x6 = c * y6 - s * x6;
+      const y7 = W[o7 + i]!;
+      W[o7 + i + 1] = s * y7 + c * x7;
+      x7 = c * y7 - s * x7;
+    }
+    W[o0 + l] = x0;
+    W[o1 + l] = x1;
+    W[o2 + l] = x2;
+    W[o3 + l] = x3;
+    W[o4 + l] = x4;
+    W[o5 + l] = x5;
+    W[o6 + l] = x6;
+    W[o7 + l] = x7;
+  }
+  for (; r < n; r++) {
+    const o0 = r * n;
+    let x0 = W[o0 + m]!;
+    for (let i = m - 1; i >= l; i--) {
+      const c = cs[i]!;
+      const s = sn[i]!;
+      const y0 = W[o0 + i]!;
+      W[o0 + i + 1] = s * y0 + c * x0;
+      x0 = c * y0 - s * x0;
+    }
+    W[o0 + l] = x0;
   }
 }
 
