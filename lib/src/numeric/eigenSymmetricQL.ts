@@ -25,6 +25,9 @@ export class SymmetricEigenSolver {
   private readonly w: Float64Array;
   private readonly cs: Float64Array;
   private readonly sn: Float64Array;
+  private readonly known: Float64Array;
+  private readonly ec: Float64Array;
+  private readonly used: Uint8Array;
 
   constructor(n: number) {
     if (!Number.isInteger(n) || n < 1) throw new InputError("n", n, "a positive whole matrix size");
@@ -40,10 +43,106 @@ export class SymmetricEigenSolver {
     this.w = new Float64Array(n * n);
     this.cs = new Float64Array(n);
     this.sn = new Float64Array(n);
+    this.known = new Float64Array(n);
+    this.ec = new Float64Array(n);
+    this.used = new Uint8Array(n);
   }
+
+  /**
+   * Whether `solve` may split a centrosymmetric matrix (A[i][j] = A[n-1-i][n-1-j]) into its two
+   * half-size blocks (true by default; false forces the dense path, for benchmarks and tests).
+   */
+  splitCentrosymmetric = true;
+  private halves: [SymmetricEigenSolver, SymmetricEigenSolver] | null = null;
 
   /** Diagonalize the symmetric matrix `a` (row-major; the lower triangle is read). */
   solve(input: ArrayLike<number>, vectors = true): void {
+    if (this.splitCentrosymmetric && this.n >= 16 && isCentrosymmetric(this.n, input)) {
+      this.solveCentrosymmetric(input, vectors);
+      return;
+    }
+    this.solveDense(input, vectors);
+  }
+
+  /**
+   * Symmetric and centrosymmetric A (J A J = A, J the exchange matrix; single-spin Hamiltonians in
+   * the Sz basis with a field along x or none are of this kind: a pi rotation about x maps m to -m).
+   * In the basis (e_i +- e_{n-1-i}) / sqrt 2 (and e_c, the middle, for odd n) A is block diagonal:
+   * the even block P_ij = A_ij + A_i,n-1-j (P_ic = sqrt 2 A_ic, P_cc = A_cc) and the odd block
+   * M_ij = A_ij - A_i,n-1-j, i, j < floor(n / 2). Two half-size problems: about a quarter of the
+   * work. Source: A. Cantoni, P. Butler, "Eigenvalues and eigenvectors of symmetric centrosymmetric
+   * matrices", Linear Algebra Appl. 13, 275 (1976).
+   */
+  private solveCentrosymmetric(input: ArrayLike<number>, vectors: boolean): void {
+    const n = this.n;
+    const k = n >> 1;
+    const ke = n - k; // even block size (k + 1 for odd n)
+    const odd = n % 2 === 1;
+    if (!this.halves) {
+      this.halves = [new SymmetricEigenSolver(ke), new SymmetricEigenSolver(k)];
+      this.halves[0].splitCentrosymmetric = false;
+      this.halves[1].splitCentrosymmetric = false;
+    }
+    const [even, oddBlock] = this.halves;
+    // Blocks built in the work arrays of this solver (lower triangles read by the half solvers).
+    const P = this.a;
+    const M = this.w;
+    const at = (i: number, j: number) => (i >= j ? input[i * n + j]! : input[j * n + i]!);
+    for (let i = 0; i < k; i++) {
+      for (let j = 0; j <= i; j++) {
+        const x = at(i, j);
+        const y = at(i, n - 1 - j);
+        P[i * ke + j] = x + y;
+        M[i * k + j] = x - y;
+      }
+    }
+    if (odd) {
+      const r2 = Math.SQRT2;
+      for (let j = 0; j < k; j++) P[k * ke + j] = r2 * at(k, j);
+      P[k * ke + k] = at(k, k);
+    }
+    even.solve(P, vectors);
+    oddBlock.solve(M, vectors);
+    // Merge the two ascending lists; vector columns expanded back to the full basis.
+    const d = this.values;
+    const V = this.vectors;
+    const we = even.values;
+    const wo = oddBlock.values;
+    const Ve = even.vectors;
+    const Vo = oddBlock.vectors;
+    const h = Math.SQRT1_2;
+    let a = 0;
+    let b = 0;
+    for (let c = 0; c < n; c++) {
+      const takeEven = b >= k || (a < ke && we[a]! <= wo[b]!);
+      if (takeEven) {
+        d[c] = we[a]!;
+        if (vectors) {
+          for (let i = 0; i < k; i++) {
+            const x = h * Ve[i * ke + a]!;
+            V[i * n + c] = x;
+            V[(n - 1 - i) * n + c] = x;
+          }
+          if (odd) V[k * n + c] = Ve[k * ke + a]!;
+        }
+        a++;
+      } else {
+        d[c] = wo[b]!;
+        if (vectors) {
+          for (let i = 0; i < k; i++) {
+            const x = h * Vo[i * k + b]!;
+            V[i * n + c] = x;
+            V[(n - 1 - i) * n + c] = -x;
+          }
+          if (odd) V[k * n + c] = 0;
+        }
+        b++;
+      }
+    }
+  }
+
+  /** The dense path: Householder tridiagonalization, QL with the rotations on the vectors. */
+  private solveDense(input: ArrayLike<number>, vectors: boolean): void {
     const n = this.n;
     const a = this.a;
     // Only the lower triangle is read and updated below.
@@ -132,10 +231,35 @@ export class SymmetricEigenSolver {
     }
     // Eigenvectors stay the columns of W: the QL rotations of each sweep are applied row by row of
     // W with the running entry in a register (tql2RealColumns), then the columns are sorted.
-    tql2RealColumns(n, d, e, W, this.cs, this.sn);
+    // Known eigenvalues first (values-only QL on a copy, O(n^2)), then used as shifts.
+    const known = this.known;
+    const ec = this.ec;
+    known.set(d);
+    ec.set(e);
+    tql2Real(n, known, ec, null);
+    tql2RealColumns(n, d, e, W, this.cs, this.sn, known, this.used);
     sortAscendingColumns(n, d, W);
     this.vectors.set(W);
   }
+}
+
+/**
+ * Whether the symmetric matrix (lower triangle read) is centrosymmetric, A[i][j] = A[n-1-i][n-1-j],
+ * to 4 units of rounding of its largest entry: a difference that small is within the backward error
+ * of the dense solver itself, so the split solves the same problem at the same accuracy.
+ */
+function isCentrosymmetric(n: number, A: ArrayLike<number>): boolean {
+  let max = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) max = Math.max(max, Math.abs(A[i * n + j]!));
+  if (!(max > 0) || !Number.isFinite(max)) return false;
+  const tol = 4 * EPS * max;
+  // Mirror of (i, j), i >= j, is (n-1-i, n-1-j), stored in the lower triangle at (n-1-j, n-1-i).
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      if (!(Math.abs(A[i * n + j]! - A[(n - 1 - j) * n + (n - 1 - i)]!) <= tol)) return false;
+    }
+  }
+  return true;
 }
 
 /** Sort eigenvalues ascending, swapping the columns (vectors = columns) of the row-major V. */
@@ -251,10 +375,18 @@ export function tql2Real(n: number, d: Float64Array, e: Float64Array, V: Float64
 }
 
 /**
- * tql2Real with the eigenvectors as the COLUMNS of the row-major n x n matrix W (component i of
+ * Implicit QL with the eigenvectors as the COLUMNS of the row-major n x n matrix W (component i of
  * vector k at [i * n + k]). The rotations of one QL sweep are recorded in (cs, sn) and then applied
  * to W row by row in one pass, the entry being rotated kept in a register (the pattern of LAPACK's
- * dlasr): one load and one store per rotation and row instead of two of each, and two rows at a time.
+ * dlasr), eight rows at a time.
+ *
+ * Shifts: when `known` holds the eigenvalues (ascending, from a values-only pass, which costs O(n^2)
+ * against the O(n^3) of the rotations), the first iterations at each l use the known eigenvalue
+ * nearest the Wilkinson shift ("perfect shift": in exact arithmetic one sweep deflates it), later
+ * ones the Wilkinson shift. Any shift keeps the sweep an orthogonal similarity, so this changes only
+ * how many sweeps are needed (measured on the S = 50 single-spin matrix: 193 sweeps -> see the
+ * SymmetricEigenSolver header). The sweep is the explicit-shift form of W. H. Press et al.,
+ * *Numerical Recipes* (3rd ed., 2007) section 11.4 (tqli), which handles an early deflation (r = 0).
  */
 export function tql2RealColumns(
   n: number,
@@ -263,67 +395,93 @@ export function tql2RealColumns(
   W: Float64Array,
   cs: Float64Array,
   sn: Float64Array,
+  known: Float64Array | null = null,
+  used: Uint8Array | null = null,
   solver = "tridiagonal QL (symmetric eigensolver)",
 ): void {
-  let f = 0;
-  let tst1 = 0;
+  // e[i] couples i and i + 1 on input; tqli's convention below is the same (e[n - 1] = 0).
+  e[n - 1] = 0;
+  if (used) used.fill(0);
+  let norm = 0;
+  for (let i = 0; i < n; i++) norm = Math.max(norm, Math.abs(d[i]!) + Math.abs(e[i]!));
   for (let l = 0; l < n; l++) {
-    tst1 = Math.max(tst1, Math.abs(d[l]!) + Math.abs(e[l]!));
-    let m = l;
-    while (m < n - 1) {
-      if (Math.abs(e[m]!) <= EPS * tst1) break;
-      m++;
-    }
-    if (m > l) {
-      let iter = 0;
-      do {
-        if (++iter > 60) {
-          throw new ConvergenceError(solver, "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
+    let iter = 0;
+    for (;;) {
+      let m = l;
+      // Negligible against the norm, as tql2Real (backward error EPS * |T|).
+      for (; m < n - 1; m++) if (Math.abs(e[m]!) <= EPS * norm) break;
+      if (m === l) break;
+      if (++iter > 60) {
+        throw new ConvergenceError(solver, "no convergence in 60 iterations", { n, index: l, offDiagonal: e[l] });
+      }
+      // Wilkinson shift: the eigenvalue of the leading 2 x 2 nearer d[l].
+      let g = (d[l + 1]! - d[l]!) / (2 * e[l]!);
+      let r = Math.abs(g) < 1e150 ? Math.sqrt(g * g + 1) : Math.hypot(g, 1);
+      let shift = d[l]! - e[l]! / (g + (g >= 0 ? r : -r));
+      if (known && used && iter <= 2) {
+        let best = -1;
+        let bd = Infinity;
+        for (let k = 0; k < n; k++) {
+          if (used[k]) continue;
+          const dist = Math.abs(known[k]! - shift);
+          if (dist < bd) {
+            bd = dist;
+            best = k;
+          }
         }
-        let g = d[l]!;
-        let p = (d[l + 1]! - g) / (2 * e[l]!);
-        let r = Math.abs(p) < 1e150 ? Math.sqrt(p * p + 1) : Math.hypot(p, 1);
-        if (p < 0) r = -r;
-        d[l] = e[l]! / (p + r);
-        d[l + 1] = e[l]! * (p + r);
-        const dl1 = d[l + 1]!;
-        let h = g - d[l]!;
-        for (let i = l + 2; i < n; i++) d[i] = d[i]! - h;
-        f += h;
-        p = d[m]!;
-        let c = 1;
-        let c2 = c;
-        let c3 = c;
-        const el1 = e[l + 1]!;
-        let s = 0;
-        let s2 = 0;
-        for (let i = m - 1; i >= l; i--) {
-          c3 = c2;
-          c2 = c;
-          s2 = s;
-          g = c * e[i]!;
-          h = c * p;
-          const ei = e[i]!;
-          const ap = Math.abs(p);
-          const ae = Math.abs(ei);
-          r = ap < 1e150 && ae < 1e150 && (ap > 1e-150 || ae > 1e-150) ? Math.sqrt(p * p + ei * ei) : Math.hypot(p, ei);
-          e[i + 1] = s * r;
-          const ir = 1 / r;
-          s = e[i]! * ir;
-          c = p * ir;
-          p = c * d[i]! - s * g;
-          d[i + 1] = h + s * (c * g + s * d[i]!);
-          cs[i] = c;
-          sn[i] = s;
+        if (best >= 0) shift = known[best]!;
+      }
+      g = d[m]! - shift;
+      let s = 1;
+      let c = 1;
+      let p = 0;
+      let i = m - 1;
+      let early = false;
+      for (; i >= l; i--) {
+        const f = s * e[i]!;
+        const b = c * e[i]!;
+        const af = Math.abs(f);
+        const ag = Math.abs(g);
+        r = af < 1e150 && ag < 1e150 && (af > 1e-150 || ag > 1e-150) ? Math.sqrt(f * f + g * g) : Math.hypot(f, g);
+        e[i + 1] = r;
+        if (r === 0) {
+          // Early deflation: undo the pending update and restart with the block split at i + 1.
+          d[i + 1] = d[i + 1]! - p;
+          e[m] = 0;
+          early = true;
+          break;
         }
-        applySweepToColumns(n, W, cs, sn, l, m);
-        p = (-s * s2 * c3 * el1 * e[l]!) / dl1;
-        e[l] = s * p;
-        d[l] = c * p;
-      } while (Math.abs(e[l]!) > EPS * tst1);
+        s = f / r;
+        c = g / r;
+        g = d[i + 1]! - p;
+        r = (d[i]! - g) * s + 2 * c * b;
+        p = s * r;
+        d[i + 1] = g + p;
+        g = c * r - b;
+        // Rotation mixing vectors i and i + 1: new_{i+1} = s x_i + c x_{i+1}, new_i = c x_i - s x_{i+1}.
+        cs[i] = c;
+        sn[i] = s;
+      }
+      applySweepToColumns(n, W, cs, sn, early ? i + 1 : l, m);
+      if (early) continue;
+      d[l] = d[l]! - p;
+      e[l] = g;
+      e[m] = 0;
     }
-    d[l] = d[l]! + f;
-    e[l] = 0;
+    if (known && used) {
+      // The eigenvalue found at l is spent as a shift.
+      let best = -1;
+      let bd = Infinity;
+      for (let k = 0; k < n; k++) {
+        if (used[k]) continue;
+        const dist = Math.abs(known[k]! - d[l]!);
+        if (dist < bd) {
+          bd = dist;
+          best = k;
+        }
+      }
+      if (best >= 0) used[best] = 1;
+    }
   }
 }
 
