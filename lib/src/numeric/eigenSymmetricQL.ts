@@ -40,6 +40,8 @@ export class SymmetricEigenSolver {
   private readonly hv: Float64Array;
   private readonly taus: Float64Array;
   private readonly w: Float64Array;
+  private readonly v2: Float64Array;
+  private readonly p2: Float64Array;
   private readonly cs: Float64Array;
   private readonly sn: Float64Array;
   private readonly known: Float64Array;
@@ -58,6 +60,8 @@ export class SymmetricEigenSolver {
     this.hv = new Float64Array(n * n);
     this.taus = new Float64Array(n);
     this.w = new Float64Array(n * n);
+    this.v2 = new Float64Array(n);
+    this.p2 = new Float64Array(n);
     this.cs = new Float64Array(n);
     this.sn = new Float64Array(n);
     this.known = new Float64Array(n);
@@ -164,35 +168,46 @@ export class SymmetricEigenSolver {
     const a = this.a;
     // Only the lower triangle is read and updated below.
     for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) a[i * n + j] = input[i * n + j]!;
-    const v = this.v;
-    const p = this.p;
     const hv = this.hv;
     const taus = this.taus;
     taus.fill(0);
+    // Householder steps k = 0 .. n-3. The rank-2 update of step k and the product p = A v of step
+    // k + 1 share one pass over the trailing lower triangle (each entry is updated, then used at
+    // once): half the memory traffic of two passes, and the same arithmetic in the same order.
+    let v = this.v;
+    let p = this.p;
+    let v2 = this.v2;
+    let p2 = this.p2;
+    let prepared = false; // v, tau, alpha and p = A v (unscaled) of step k are ready
+    let tau = 0;
+    let alpha = 0;
     for (let k = 0; k < n - 2; k++) {
-      let tail = 0;
-      for (let i = k + 2; i < n; i++) tail += a[i * n + k]! * a[i * n + k]!;
-      if (tail === 0) continue;
-      const x0 = a[(k + 1) * n + k]!;
-      const norm = Math.sqrt(x0 * x0 + tail);
-      const alpha = x0 >= 0 ? -norm : norm;
-      v[k + 1] = x0 - alpha;
-      for (let i = k + 2; i < n; i++) v[i] = a[i * n + k]!;
-      const tau = 2 / (v[k + 1]! * v[k + 1]! + tail);
-      // p = tau A v on the trailing block from its lower triangle only, row by row: row i gives
-      // p_i its dot product and adds a_ij v_i to each p_j (both contiguous in j).
-      p.fill(0, k + 1, n);
-      for (let i = k + 1; i < n; i++) {
-        const row = i * n;
-        const vi = v[i]!;
-        let s = 0;
-        for (let j = k + 1; j < i; j++) {
-          const aij = a[row + j]!;
-          s += aij * v[j]!;
-          p[j] = p[j]! + aij * vi;
+      if (!prepared) {
+        let tail = 0;
+        for (let i = k + 2; i < n; i++) tail += a[i * n + k]! * a[i * n + k]!;
+        if (tail === 0) continue;
+        const x0 = a[(k + 1) * n + k]!;
+        const norm = Math.sqrt(x0 * x0 + tail);
+        alpha = x0 >= 0 ? -norm : norm;
+        v[k + 1] = x0 - alpha;
+        for (let i = k + 2; i < n; i++) v[i] = a[i * n + k]!;
+        tau = 2 / (v[k + 1]! * v[k + 1]! + tail);
+        // p = A v on the trailing block from its lower triangle only, row by row: row i gives
+        // p_i its dot product and adds a_ij v_i to each p_j (both contiguous in j).
+        p.fill(0, k + 1, n);
+        for (let i = k + 1; i < n; i++) {
+          const row = i * n;
+          const vi = v[i]!;
+          let s = 0;
+          for (let j = k + 1; j < i; j++) {
+            const aij = a[row + j]!;
+            s += aij * v[j]!;
+            p[j] = p[j]! + aij * vi;
+          }
+          p[i] = p[i]! + s + a[row + i]! * vi;
         }
-        p[i] = p[i]! + s + a[row + i]! * vi;
       }
+      prepared = false;
       let beta = 0;
       for (let i = k + 1; i < n; i++) {
         p[i] = tau * p[i]!;
@@ -200,16 +215,60 @@ export class SymmetricEigenSolver {
       }
       const half = 0.5 * tau * beta;
       for (let i = k + 1; i < n; i++) p[i] = p[i]! - half * v[i]!;
-      // Symmetric rank-2 update of the lower triangle, row by row.
-      for (let i = k + 1; i < n; i++) {
-        const row = i * n;
-        const vi = v[i]!;
-        const qi = p[i]!;
-        for (let j = k + 1; j <= i; j++) a[row + j] = a[row + j]! - (vi * p[j]! + qi * v[j]!);
-      }
       a[(k + 1) * n + k] = alpha;
       taus[k] = tau;
       for (let i = k + 1; i < n; i++) hv[k * n + i] = v[i]!;
+      // Rank-2 update A -= v q^T + q v^T of the lower triangle: column k + 1 first (it holds the
+      // next reflector's vector), then rows k + 2 .. with the next step's product fused in.
+      const c = k + 1;
+      const vc = v[c]!;
+      const qc = p[c]!;
+      for (let i = c; i < n; i++) a[i * n + c] = a[i * n + c]! - (v[i]! * qc + p[i]! * vc);
+      let tail = 0;
+      if (k + 1 < n - 2) for (let i = k + 3; i < n; i++) tail += a[i * n + c]! * a[i * n + c]!;
+      if (tail === 0) {
+        // no next reflector to prepare (last step, or column k + 1 already reduced): plain update
+        for (let i = k + 2; i < n; i++) {
+          const row = i * n;
+          const vi = v[i]!;
+          const qi = p[i]!;
+          for (let j = k + 2; j <= i; j++) a[row + j] = a[row + j]! - (vi * p[j]! + qi * v[j]!);
+        }
+        continue;
+      }
+      const x0 = a[(c + 1) * n + c]!;
+      const norm = Math.sqrt(x0 * x0 + tail);
+      const alpha2 = x0 >= 0 ? -norm : norm;
+      v2[c + 1] = x0 - alpha2;
+      for (let i = c + 2; i < n; i++) v2[i] = a[i * n + c]!;
+      const tau2 = 2 / (v2[c + 1]! * v2[c + 1]! + tail);
+      p2.fill(0, c + 1, n);
+      for (let i = c + 1; i < n; i++) {
+        const row = i * n;
+        const vi = v[i]!;
+        const qi = p[i]!;
+        const wi = v2[i]!;
+        let s = 0;
+        for (let j = c + 1; j < i; j++) {
+          const aij = a[row + j]! - (vi * p[j]! + qi * v[j]!);
+          a[row + j] = aij;
+          s += aij * v2[j]!;
+          p2[j] = p2[j]! + aij * wi;
+        }
+        const aii = a[row + i]! - (vi * qi + qi * vi);
+        a[row + i] = aii;
+        p2[i] = p2[i]! + s + aii * wi;
+      }
+      // the prepared step k + 1
+      let t = v;
+      v = v2;
+      v2 = t;
+      t = p;
+      p = p2;
+      p2 = t;
+      tau = tau2;
+      alpha = alpha2;
+      prepared = true;
     }
     const d = this.values;
     const e = this.e;
