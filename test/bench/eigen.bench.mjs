@@ -10,10 +10,11 @@
 // eigenvector residual max |H v - l v| / |H| (printed).
 //
 // Verdict (this file's S = 50 rows, header of eigenSymmetricQL.ts): the generic dense path misses
-// the 2x goal (about 2.8x); the default path meets it on this matrix (about 0.8x). What is left on
-// the generic path (V8 CPU profile, 2000 warm solves): Householder tridiagonalization and the forming
-// of Q 53 %, QL rotations on the vectors 29 %, QL scalar work 8 %, the values-only pass for the
-// shifts 7 %. LAPACK's dsyevd uses divide and conquer and vectorized BLAS for the same steps.
+// the 2x goal (3.2x with vectors, 2.4x values only; 3.9x before); the default path meets it on this
+// matrix (0.98x, 0.85x). What is left on the generic path (V8 CPU profile, 2000 warm solves):
+// Householder reduction and forming Q 49 %, QL rotations on the vectors 31 %, QL scalar work 8 %,
+// the values-only pass for the shifts 7 %. LAPACK's dsyevd uses divide and conquer and vectorized
+// BLAS for the same steps.
 // Also the complex Hermitian solver (HermitianEigenSolver, the Chern-number workhorse) at 6 x 6 and
 // 40 x 40 against numpy.linalg.eigh (zheevd), in rounds (ours: median of 101 warm calls; numpy: the
 // same in a Python process), alternating ROUNDS times.

@@ -21,6 +21,11 @@
  * 40 000 diagonalizations per 200 x 200 zone, so only the dedicated routine fits a browser slider;
  * mathjs stays as the library reference in the comparison test.
  *
+ * Verdict against LAPACK (test/bench/eigen.bench.mjs, numpy.linalg.eigh = zheevd, values + vectors,
+ * interleaved rounds): 6 x 6 0.39x (2.7 us against 6.8 us, numpy's per-call overhead included), MET;
+ * 40 x 40 1.90x (0.28 ms against 0.15 ms), MET the 2x goal since the QL for n >= 16 runs on Z's
+ * columns with the real solver's eight-row sweeps and known-eigenvalue shifts (2.10x before).
+ *
  * Storage: an n x n matrix is two row-major Float64Arrays (real and imaginary parts).
  * Eigenvectors are returned as the columns of an n x n row-major matrix:
  * component i of eigenvector k is `vectorsRe[i * n + k] + i * vectorsIm[i * n + k]`.

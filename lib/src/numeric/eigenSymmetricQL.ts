@@ -13,16 +13,18 @@
  * A[n-1-i][n-1-j], detected in O(n^2)): two half-size blocks (solveCentrosymmetric).
  *
  * Verdict (test/bench/eigen.bench.mjs, interleaved call by call with numpy.linalg.eigh, LAPACK
- * dsyevd, one thread; single spin S = 50, 101 x 101, field along x; shared 2-core machine under load):
- * - generic dense path, values + vectors: 3.9x numpy before this work (2.43 ms against 0.62 ms), about
- *   2.8-3.2x now (1.77 ms quiet); MISSED the 2x goal. Profile (V8, 2000 warm solves): Householder
- *   reduction and forming Q 53 %, QL rotations on the vectors 29 % (6729 rotations of 101-long rows,
- *   down from 10076 with Wilkinson shifts alone), QL scalar work 8 %, the values-only shift pass 7 %.
- *   numpy's dsyevd does divide and conquer with vectorized BLAS; without SIMD the reduction alone
- *   (0.65 ms) is already beyond numpy's whole solve (0.62 ms).
- * - default path on the same matrix (centrosymmetric, split): about 1.1-1.2x numpy with vectors,
- *   1.05x values only; MET. Kept as our own code: ml-matrix's EigenvalueDecomposition is a port of
- *   JAMA's tred2/tql2 (the pre-work form of this routine, from memory), on nested arrays.
+ * dsyevd, one thread, CPU time; single spin S = 50, 101 x 101, field along x; shared 2-core machine):
+ * - generic dense path, values + vectors: 3.9x numpy before this work (2.43 ms), 3.2x now (1.78 ms
+ *   against 0.56 ms); values only 2.4x (0.68 ms against 0.29 ms). MISSED the 2x goal. Profile (V8,
+ *   2000 warm solves): Householder reduction (update fused with the next product) and forming Q 49 %,
+ *   QL rotations on the vectors 31 % (6729 rotations of 101-long rows, 10076 with Wilkinson shifts
+ *   alone), QL scalar work 8 %, the values-only pass for the shifts 7 %. LAPACK's dsyevd does divide
+ *   and conquer with vectorized BLAS; scalar JavaScript spends about 2 ns a multiply-add here, and
+ *   the reduction alone is 0.6 ms. What is left to try: WebAssembly SIMD for the reduction and the
+ *   rotations, divide and conquer for the tridiagonal eigenvectors.
+ * - default path on the same matrix (centrosymmetric, split): 0.98x numpy with vectors, 0.85x values
+ *   only; MET. Kept as our own code: ml-matrix's EigenvalueDecomposition is a port of JAMA's
+ *   tred2/tql2 (the pre-work form of this routine, from memory), on nested arrays.
  */
 import { ConvergenceError, InputError } from "../errors.js";
 
