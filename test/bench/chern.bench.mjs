@@ -5,14 +5,12 @@
 // Interleaved A B A B (pythonPeer.mjs), warm on both sides, CPU-time medians and [min-max].
 // The numpy side is handed H(k) on the grid precomputed (not timed), so the ratio favours numpy.
 //
-// Why the 200 ms goal is missed (one thread): a V8 CPU profile of 10 warm calls (node --cpu-prof,
-// self time) puts 68 % in the 6 x 6 Hermitian eigensolver (numeric/eigenHermitian.ts solveInternal
-// 32 %, its real tridiagonal QL tql2Real in eigenSymmetricQL.ts 33 %, vector rows 3 %), 11 % in the
-// link determinants (chernNumbers.ts link), 5 % filling H(k), 2 % the flux strips. chernNumbers already
-// diagonalizes each k-point once, keeps only the lower group's vectors and derives the upper group's
-// fluxes (complement); what is left is the eigensolver's own speed (40 000 solves, about 5 us each
-// here), which belongs with the dense eigensolver work. The 2-thread row (berry.bench.mjs,
-// parallelChernNumbers) is the way under 200 ms today.
+// Verdict (also in chernNumbers.ts): MET, 117 ms CPU against numpy's 207 ms (0.56x), machine at
+// load 15-19. Profile (V8 --cpu-prof, 10 warm calls, self time): the 6 x 6 Hermitian solver 63 %
+// (tridiagonal QL with rotations on Z 36 %, numeric/eigenHermitian.ts solveInternal 27 %), link
+// determinants 10 %, filling H(k) 7 %. chernNumbers diagonalizes each k-point once, keeps only the
+// lower group's vectors and derives the upper group's fluxes (complement). The 2-thread row is in
+// berry.bench.mjs (against this 1-thread figure).
 import lib from "../../lib/dist/internal.js";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";

@@ -4,7 +4,7 @@
 // both triangle denominators are positive (the same identity our kernel uses), two elsewhere.
 // Interleaved A B A B in one period (pythonPeer.mjs), warm on both sides; CPU-time medians and
 // [min-max] of 11 pairs (the wall-time ratio is printed in the row's name).
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";

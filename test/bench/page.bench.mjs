@@ -10,7 +10,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import lib from "../../lib/dist/index.js";
+import lib from "../../lib/dist/internal.js";
 import { summary, verdict } from "./util.mjs";
 
 const require = createRequire(import.meta.url);

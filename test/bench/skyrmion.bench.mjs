@@ -1,7 +1,9 @@
 // Skyrmion benchmarks: ansatz solve with non-local magnetostatics, a 200-point R(B) sweep, and the
-// exact radial profile against scipy.integrate.solve_bvp on the same boundary-value problem.
+// exact radial profile against scipy.integrate.solve_bvp on the same boundary-value problem,
+// interleaved call by call (pythonPeer.mjs). The other rows have no reference (budgets).
 import lib from "../../lib/dist/internal.js";
-import { medianMs, pythonTiming } from "./util.mjs";
+import { medianMs, summary } from "./util.mjs";
+import { pythonPeer, interleavedWithPython } from "./pythonPeer.mjs";
 import { spawnSync } from "node:child_process";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -62,7 +64,6 @@ export default async () => {
   const f2 = makeFilm({ Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 2e-3, t: 1e-9 });
   const B = 0.05;
   const ex = solveSkyrmionExact(f2, B);
-  const exactMs = await medianMs(() => solveSkyrmionExact(f2, B), { runs: 21, warmup: 3 });
   const Delta = ex.rho[1] / ex.step;
   const an = solveSkyrmionAnsatz(f2, B, { nonlocal: false });
   const x = [];
@@ -72,38 +73,39 @@ export default async () => {
     x.push(xi);
     theta.push(2 * Math.atan2(Math.sinh(an.radius / an.wallWidth), Math.sinh((xi * Delta) / an.wallWidth)));
   }
-  const ref = pythonTiming(
-    `
-import json, sys, time, numpy as np
+  const peer = pythonPeer();
+  try {
+    await peer.define(`
+import numpy as np
 from scipy.integrate import solve_bvp
-c = json.load(sys.stdin)
-d, b = c["d"], c["b"]
-x0 = 1e-3
-def f(x, y):
-    s, co = np.sin(y[0]), np.cos(y[0])
-    return np.vstack([y[1], -y[1] / x + s * co / x**2 + s * co - d * s**2 / x + b * s])
-def bc(ya, yb):
-    return np.array([ya[0] - np.pi - x0 * ya[1], yb[0]])
-x = np.array(c["x"]); x[0] = x0
-th = np.array(c["theta"]); y0 = np.vstack([th, np.gradient(th, x)])
-ts = []
-for _ in range(7):
-    t = time.perf_counter()
+def bvp(d, b, xs, theta):
+    x0 = 1e-3
+    def f(x, y):
+        s, co = np.sin(y[0]), np.cos(y[0])
+        return np.vstack([y[1], -y[1] / x + s * co / x**2 + s * co - d * s**2 / x + b * s])
+    def bc(ya, yb):
+        return np.array([ya[0] - np.pi - x0 * ya[1], yb[0]])
+    x = np.array(xs); x[0] = x0
+    th = np.array(theta); y0 = np.vstack([th, np.gradient(th, x)])
     sol = solve_bvp(f, bc, x, y0, tol=1e-8, max_nodes=100000)
-    ts.append((time.perf_counter() - t) * 1e3)
-ts.sort()
-print(json.dumps({"ms": ts[len(ts) // 2], "status": int(sol.status), "nodes": int(sol.x.size)}))
-`,
-    { d: ex.d, b: ex.b, x, theta },
-  );
-  rows.push({
-    group: "skyrmion",
-    name: "exact radial profile (Newton relaxation, h and h/2 + Richardson, includes the ansatz start)",
-    ours_ms: exactMs,
-    reference: `scipy solve_bvp tol 1e-8 (status ${ref.status}, ${ref.nodes} nodes), ansatz start`,
-    reference_ms: ref.ms,
-    ratio: exactMs / ref.ms,
-    goal: "<= 20 ms and ratio <= 1",
-  });
+    return [int(sol.status), int(sol.x.size)]
+`);
+    const r = await interleavedWithPython(peer, () => solveSkyrmionExact(f2, B), "bvp", [ex.d, ex.b, x, theta], { runs: 11, warmup: 3 });
+    const o = summary(r.ours),
+      q = summary(r.ref);
+    rows.push({
+      group: "skyrmion",
+      name: "exact radial profile (Newton relaxation, h and h/2 + Richardson, includes the ansatz start), warm, CPU time, interleaved x11",
+      ours_ms: o.median,
+      ours_spread: o.spread,
+      reference: `scipy solve_bvp tol 1e-8 (status ${r.refValue[0]}, ${r.refValue[1]} nodes), ansatz start`,
+      reference_ms: q.median,
+      reference_spread: q.spread,
+      ratio: o.median / q.median,
+      goal: "<= 20 ms and ratio <= 1",
+    });
+  } finally {
+    await peer.close();
+  }
   return rows;
 };

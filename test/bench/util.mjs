@@ -51,3 +51,43 @@ export function summary(values) {
 export function verdict(met, goal) {
   return `${met ? "MET" : "MISSED"}: ${goal}`;
 }
+
+/**
+ * Two JavaScript functions (sync or async) timed alternately A B A B in one period, after `warmup`
+ * calls of each: per call the wall time and the process CPU time (process.cpuUsage, which counts
+ * V8's helper threads and, for worker threads, the workers too). Returns the lists and the last values.
+ */
+export async function interleavedJs(a, b, { runs = 11, warmup = 2 } = {}) {
+  let aValue, bValue;
+  for (let i = 0; i < warmup; i++) {
+    aValue = await a();
+    bValue = await b();
+  }
+  const out = { a: [], b: [], aCpu: [], bCpu: [] };
+  const time = async (f, wall, cpu) => {
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    const v = await f();
+    wall.push(performance.now() - t0);
+    const c = process.cpuUsage(c0);
+    cpu.push((c.user + c.system) / 1e3);
+    return v;
+  };
+  for (let i = 0; i < runs; i++) {
+    aValue = await time(a, out.a, out.aCpu);
+    bValue = await time(b, out.b, out.bCpu);
+  }
+  return { ...out, aValue, bValue };
+}
+
+/** Median and spread of one function's runs (no reference), after `warmup` calls. */
+export async function runsOf(f, { runs = 11, warmup = 2 } = {}) {
+  for (let i = 0; i < warmup; i++) await f();
+  const t = [];
+  for (let i = 0; i < runs; i++) {
+    const t0 = performance.now();
+    await f();
+    t.push(performance.now() - t0);
+  }
+  return summary(t);
+}

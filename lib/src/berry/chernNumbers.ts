@@ -24,6 +24,15 @@
  *  (2) every plaquette flux is below fluxLimit (default 1 rad);
  *  (3) along every link, the gap at both ends exceeds the change of the two band energies across
  *      the link (else the gap may close between the grid points).
+ *
+ * Verdict (test/bench/chern.bench.mjs: 6-band Haldane 3x1 supercell, 200 x 200, one thread, against
+ * numpy eigh + batched link determinants with H(k) handed over precomputed, interleaved, CPU time):
+ * 117 ms against numpy's 207 ms (0.56x) on the shared machine at load 15-19; the 200 ms goal MET
+ * (280 ms earlier under heavier contention). Profile (V8, 10 warm calls): 6 x 6 Hermitian solver
+ * 63 % (its tridiagonal QL with the rotations on Z 36 %, Householder and back-transformation 27 %),
+ * link determinants 10 %, filling H(k) 7 %. What would cut the solver further: the eigenvalues by a
+ * values-only QL and the three occupied vectors of the tridiagonal by inverse iteration (the group
+ * basis may mix within the group: the link determinant does not see it); not done, the goal is met.
  */
 import { InputError } from "../errors.js";
 import { HermitianEigenSolver, assertHermitian } from "../numeric/eigenHermitian.js";

@@ -21,13 +21,18 @@
  * 40 000 diagonalizations per 200 x 200 zone, so only the dedicated routine fits a browser slider;
  * mathjs stays as the library reference in the comparison test.
  *
+ * Verdict against LAPACK (test/bench/eigen.bench.mjs, numpy.linalg.eigh = zheevd, values + vectors,
+ * interleaved rounds): 6 x 6 0.39x (2.7 us against 6.8 us, numpy's per-call overhead included), MET;
+ * 40 x 40 1.90x (0.28 ms against 0.15 ms), MET the 2x goal since the QL for n >= 16 runs on Z's
+ * columns with the real solver's eight-row sweeps and known-eigenvalue shifts (2.10x before).
+ *
  * Storage: an n x n matrix is two row-major Float64Arrays (real and imaginary parts).
  * Eigenvectors are returned as the columns of an n x n row-major matrix:
  * component i of eigenvector k is `vectorsRe[i * n + k] + i * vectorsIm[i * n + k]`.
  * Eigenvalues are ascending.
  */
 import { InputError } from "../errors.js";
-import { fastHypot, sortAscending, tql2Real } from "./eigenSymmetricQL.js";
+import { fastHypot, sortAscending, sortAscendingColumns, tql2Real, tql2RealColumns } from "./eigenSymmetricQL.js";
 
 export interface HermitianEigenResult {
   n: number;
@@ -58,6 +63,12 @@ export class HermitianEigenSolver {
   private readonly phase: Float64Array;
   private readonly taus: Float64Array;
   private readonly z: Float64Array;
+  /** Work arrays of the column QL (n >= 16 only). */
+  private readonly known: Float64Array | null;
+  private readonly ec: Float64Array | null;
+  private readonly cs: Float64Array | null;
+  private readonly sn: Float64Array | null;
+  private readonly used: Uint8Array | null;
 
   constructor(n: number) {
     if (!Number.isInteger(n) || n < 1) throw new InputError("n", n, "a positive whole matrix size");
@@ -73,6 +84,12 @@ export class HermitianEigenSolver {
     this.phase = new Float64Array(2 * n);
     this.taus = new Float64Array(n);
     this.z = new Float64Array(n * n);
+    const big = n >= 16;
+    this.known = big ? new Float64Array(n) : null;
+    this.ec = big ? new Float64Array(n) : null;
+    this.cs = big ? new Float64Array(n) : null;
+    this.sn = big ? new Float64Array(n) : null;
+    this.used = big ? new Uint8Array(n) : null;
   }
 
   /**
@@ -289,12 +306,28 @@ export class HermitianEigenSolver {
     const Z = this.z;
     for (let i = 0; i < n * n; i++) Z[i] = 0;
     for (let i = 0; i < n; i++) Z[i * n + i] = 1;
-    tql2Real(n, d, e, Z, "tridiagonal QL (Hermitian eigensolver)");
-    sortAscending(n, d, Z, null);
+    // From n = 16 on, Z keeps the vectors as columns and the QL rotations go sweep by sweep over its
+    // rows, eight at a time, with the known eigenvalues as first shifts (tql2RealColumns, as the real
+    // symmetric solver); below that the short rows make the plain row rotations cheaper.
+    const cols = n >= 16;
+    if (cols) {
+      const known = this.known!;
+      const ec = this.ec!;
+      known.set(d);
+      ec.set(e);
+      tql2Real(n, known, ec, null, "tridiagonal QL (Hermitian eigensolver)");
+      tql2RealColumns(n, d, e, Z, this.cs!, this.sn!, known, this.used!, "tridiagonal QL (Hermitian eigensolver)");
+      sortAscendingColumns(n, d, Z);
+    } else {
+      tql2Real(n, d, e, Z, "tridiagonal QL (Hermitian eigensolver)");
+      sortAscending(n, d, Z, null);
+    }
+    const zRow = cols ? 1 : n;
+    const zCol = cols ? n : 1;
     for (let k = kFrom; k < kTo; k++) {
       const o = vOff + k * n;
       for (let j = 0; j < n; j++) {
-        const z = Z[k * n + j]!;
+        const z = Z[k * zRow + j * zCol]!;
         Vr[o + j] = z * ph[2 * j]!;
         Vi[o + j] = z * ph[2 * j + 1]!;
       }

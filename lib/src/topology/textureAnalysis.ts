@@ -5,6 +5,13 @@
  * vorticity and helicity, the in-plane vortices, and for 3D fields the charge per layer and the
  * Bloch points. `helicoid charge` prints this result; a notebook gets the same object.
  * Sources: as the parts (skyrmionNumber.ts, objects.ts, vortices.ts, blochPoints.ts).
+ *
+ * Verdict (test/bench/charge.bench.mjs: `helicoid charge --json` on a 200 MB .npy, 2888^2 periodic,
+ * against a numpy + scipy script doing the same analysis, fresh processes interleaved, CPU time):
+ * 0.55x numpy (3.5 s against 6.3 s, on a machine at load 15; same Q and 418 objects); MET. Before:
+ * 1.8x (issue 18), with 51 % of the time in the noise estimate of the vortex finder (a full sort and
+ * an array per cell) and 15 % in its border windings (a Map keyed by site pairs), both rewritten.
+ * Profile now (V8): vortex finder 46 %, object finder 28 %, lattice Q 7 %, garbage collection 7 %.
  */
 import type { DocumentedResult } from "../result.js";
 import type { Boundary } from "./boundary.js";

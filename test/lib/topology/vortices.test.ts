@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { findVortices } from "../../../lib/src/topology/vortices.js";
+import { estimateNoiseLevel, findVortices, selectRank } from "../../../lib/src/topology/vortices.js";
 import { vortexPairTexture } from "../../../lib/src/topology/textures.js";
 import { vectorFieldFromFunction, vectorFieldFromInterleaved } from "../../../lib/src/topology/field.js";
 import { mulberry32 } from "./randomFields.js";
@@ -504,5 +504,48 @@ print(json.dumps({"w": out}))
     expect(r.zeroLines).toBeGreaterThanOrEqual(1);
     const L = f.nx * f.dx;
     expect(Math.hypot(centreVortices[0]!.x - L / 2, centreVortices[0]!.y - L / 2)).toBeLessThan(2 * f.dx);
+  });
+});
+
+describe("noise level and its median selection", () => {
+  it("selectRank gives numpy.partition's element of each rank; estimateNoiseLevel the median formula of rule 4 on numpy's median", () => {
+    // Oracle: numpy.partition (introselect) and numpy.median of the same second differences
+    // (Debian's numpy through test/helpers/python.ts); sigma = median / (0.6745 sqrt 6) as documented.
+    const rnd = mulberry32(5);
+    const nx = 37,
+      ny = 23;
+    const m = new Float64Array(3 * nx * ny);
+    for (let c = 0; c < nx * ny; c++) {
+      const i = c % nx,
+        j = Math.floor(c / nx);
+      const x = Math.cos(0.2 * i + 0.1 * j) + 0.02 * (rnd() - 0.5),
+        y = Math.sin(0.2 * i + 0.1 * j) + 0.02 * (rnd() - 0.5),
+        z = 0.3;
+      const n = Math.hypot(x, y, z);
+      m[3 * c] = x / n;
+      m[3 * c + 1] = y / n;
+      m[3 * c + 2] = z / n;
+    }
+    const f = vectorFieldFromInterleaved(m, { nx, ny, dx: nm });
+    const lists = [Array.from({ length: 101 }, () => rnd()), Array.from({ length: 64 }, () => Math.floor(rnd() * 4)), [3, 3, 3, 3, 3], [2, 1]];
+    const ref = runPython<{ ranks: number[][]; sigma: number }>(
+      `
+import sys, json, numpy as np
+d = json.load(sys.stdin)
+ranks = [[float(np.partition(np.array(a), k)[k]) for k in range(len(a))] for a in d["lists"]]
+nx, ny = d["nx"], d["ny"]
+m = np.array(d["m"]).reshape(ny, nx, 3)
+f = np.array(d["f"]).reshape(ny, nx, 3)
+sd = [np.abs(f[:, :-2, q] - 2 * f[:, 1:-1, q] + f[:, 2:, q]).ravel() for q in (0, 1)]
+sd += [np.abs(f[:-2, :, q] - 2 * f[1:-1, :, q] + f[2:, :, q]).ravel() for q in (0, 1)]
+v = np.sort(np.concatenate(sd))
+print(json.dumps({"ranks": ranks, "sigma": float(v[len(v) // 2] / (0.6745 * np.sqrt(6)))}))`,
+      { lists, nx, ny, m: Array.from(m), f: Array.from(f.m) },
+    );
+    lists.forEach((a, t) => {
+      for (let k = 0; k < a.length; k++) expect(selectRank(Float64Array.from(a), a.length, k)).toBe(ref.ranks[t]![k]);
+    });
+    // numpy's sorted middle element (rank floor(n / 2)), the rank the documented estimator uses
+    expect(estimateNoiseLevel(f)).toBeCloseTo(ref.sigma, 15);
   });
 });
