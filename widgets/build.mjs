@@ -23,6 +23,7 @@ import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, r
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";
+import { createRequire } from "node:module";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const argv = process.argv.slice(2);
@@ -118,6 +119,7 @@ const page = await esbuild.build({
     "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
     "@jupyter-widgets/base7": widgets7,
     "@jupyter-widgets/controls7": widgets7,
+    "plotly.js-cartesian-dist-min": join(here, "src", "stubs", "pagePlotly.cjs"),
   },
   inject: [],
   entryPoints: [join(here, "src/exportPage.ts")],
@@ -134,7 +136,12 @@ const page = await esbuild.build({
     },
   ],
 });
-writeFileSync(join(dist, "export.js"), factory + page.outputFiles[0].text);
+// Three parts, which the exported page unpacks and runs one task each (kernel-ext's exporter splits
+// at PART): the library factory, plotly.js (its distribution file, which sets globalThis.Plotly;
+// the page bundle reads it through src/stubs/pagePlotly.cjs), the page bundle.
+const PART = "\n//# helicoid-part\n";
+const plotlyDist = readFileSync(createRequire(import.meta.url).resolve("plotly.js-cartesian-dist-min"), "utf8");
+writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
 if (extraSpecs) {

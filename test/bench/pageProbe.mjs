@@ -1,0 +1,124 @@
+/* global PerformanceObserver, MutationObserver, requestAnimationFrame */
+// Measures an exported page in Debian's chromium (used by page.bench.mjs; also runnable by hand:
+// `node test/bench/pageProbe.mjs PAGE.html [runs] [screenshot.png]`):
+// - load -> drawn explorer: navigation start to the first plotly SVG inside an explorer's plot;
+// - the longest main-thread task during that load (PerformanceObserver "longtask");
+// - slider -> next animation frame after the explorer's plot changed in the DOM (p50, p90), over
+//   SLIDER_MOVES moves of the explorer's first slider, 60 ms apart, after one warm-up move.
+import { createRequire } from "node:module";
+import { statSync } from "node:fs";
+import { execSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
+
+const require = createRequire(import.meta.url);
+const { chromium } = require("playwright-core");
+export const SLIDER_MOVES = 40;
+
+export function chromiumPath() {
+  if (process.env.HELICOID_CHROMIUM) return process.env.HELICOID_CHROMIUM;
+  try {
+    return execSync("command -v chromium", { encoding: "utf8", shell: "/bin/sh" }).trim() || "/usr/bin/chromium";
+  } catch {
+    return "/usr/bin/chromium";
+  }
+}
+
+export async function launch() {
+  return chromium.launch({
+    executablePath: chromiumPath(),
+    headless: true,
+    args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  });
+}
+
+/** The p-th quantile (0..1) of a list, nearest rank. */
+export function quantile(values, p) {
+  const s = [...values].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
+}
+
+/**
+ * One load of `file` in a fresh context: { ms, longest, tasks, slider: [ms...] | null }.
+ * `slider`: also move the first explorer's first slider. `screenshot`: a PNG path.
+ */
+export async function probe(browser, file, { slider = false, screenshot = null, selector = ".hx-explorer .hx-plot svg.main-svg" } = {}) {
+  const context = await browser.newContext({ viewport: { width: 1200, height: 900 } });
+  try {
+    const page = await context.newPage();
+    const errors = [];
+    page.on("pageerror", (e) => errors.push(String(e)));
+    await page.addInitScript(() => {
+      window.__hxLong = [];
+      new PerformanceObserver((l) => {
+        for (const e of l.getEntries()) window.__hxLong.push(e.duration);
+      }).observe({ type: "longtask", buffered: true });
+    });
+    await page.goto(`file://${file}`, { waitUntil: "commit" });
+    await page.waitForSelector(selector, { timeout: 120_000 });
+    const ms = await page.evaluate(() => performance.now());
+    // let the load settle (later tasks of the same load count towards the longest task)
+    await page.waitForFunction(() => document.body.dataset.helicoidReady === "1", null, { timeout: 120_000 });
+    await page.waitForTimeout(300);
+    const { longest, tasks } = await page.evaluate(() => ({ longest: Math.max(0, ...window.__hxLong), tasks: window.__hxLong.length }));
+    let moves = null;
+    if (slider) {
+      await page.hover(".hx-explorer .hx-slider");
+      moves = await page.evaluate(async (n) => {
+        const ex = document.querySelector(".hx-explorer");
+        const s = ex.querySelector(".hx-slider");
+        const plots = ex.querySelector(".hx-plots");
+        const wait = (t) => new Promise((r) => setTimeout(r, t));
+        const out = [];
+        const move = (pos) =>
+          new Promise((resolve, reject) => {
+            const timer = setTimeout(() => reject(new Error("no plot change within 5 s of a slider move")), 5000);
+            let t0 = 0;
+            const mo = new MutationObserver(() => {
+              mo.disconnect();
+              requestAnimationFrame(() => {
+                clearTimeout(timer);
+                resolve(performance.now() - t0);
+              });
+            });
+            mo.observe(plots, { subtree: true, childList: true, attributes: true, characterData: true });
+            t0 = performance.now();
+            s.value = String(pos);
+            s.dispatchEvent(new Event("input", { bubbles: true }));
+          });
+        const max = Number(s.max);
+        await move(max * 0.3);
+        await wait(300);
+        for (let k = 0; k < n; k++) {
+          out.push(await move(max * (0.35 + (0.3 * ((k * 7) % n)) / n)));
+          await wait(60);
+        }
+        return out;
+      }, SLIDER_MOVES);
+    }
+    if (screenshot) {
+      await page.waitForTimeout(500);
+      await page.screenshot({ path: screenshot, fullPage: true });
+    }
+    return { ms, longest, tasks, all: await page.evaluate(() => window.__hxLong.map(Math.round)), slider: moves, errors };
+  } finally {
+    await context.close();
+  }
+}
+
+if (process.argv[1] === fileURLToPath(import.meta.url)) {
+  const [file, runs = "3", shot] = process.argv.slice(2);
+  const browser = await launch();
+  try {
+    console.log(`size ${(statSync(file).size / 1e6).toFixed(3)} MB`);
+    for (let k = 0; k < Number(runs); k++) {
+      const r = await probe(browser, file, { slider: true, screenshot: k === 0 ? shot : null });
+      const p50 = r.slider ? quantile(r.slider, 0.5) : NaN,
+        p90 = r.slider ? quantile(r.slider, 0.9) : NaN;
+      console.log(
+        `load->drawn ${r.ms.toFixed(0)} ms, longest task ${r.longest.toFixed(0)} ms (long tasks ${r.all.join(" ")}), slider p50 ${p50.toFixed(1)} p90 ${p90.toFixed(1)} ms${r.errors.length ? ` errors: ${r.errors.join("; ")}` : ""}`,
+      );
+    }
+  } finally {
+    await browser.close();
+  }
+}
