@@ -110,6 +110,30 @@ const factory =
   `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n` +
   "globalThis.__helicoidLib=__helicoidLibFactory();\n" +
   'globalThis.__helicoidWorkerSource=function(){return "var __hxL=("+__helicoidLibFactory.toString()+")();\\nself.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
+// The factory names only what the views import (src/compute/libEntry.ts): check that every value
+// the page's sources import from @helicoid/lib is among them, so a new import cannot be undefined.
+{
+  const names = new Set();
+  const walk = (d) => {
+    for (const e of readdirSync(d, { withFileTypes: true })) {
+      if (e.isDirectory()) walk(join(d, e.name));
+      else if (/\.ts$/.test(e.name) && e.name !== "libEntry.ts") {
+        for (const m of readFileSync(join(d, e.name), "utf8").matchAll(/(?:import|export) (type )?\{([^}]*)\} from "@helicoid\/lib"/g)) {
+          if (m[1]) continue;
+          for (const n of m[2]
+            .split(",")
+            .map((x) => x.trim())
+            .filter(Boolean))
+            if (!n.startsWith("type ")) names.add(n.split(/\s+as\s+/)[0]);
+        }
+      }
+    }
+  };
+  walk(join(here, "src"));
+  const exported = new Set(libPart.outputFiles[0].text.length ? Object.keys(new Function(`${libPart.outputFiles[0].text}\nreturn __hxLib;`)()) : []);
+  const missing = [...names].filter((n) => !exported.has(n));
+  if (missing.length) throw new Error(`src/compute/libEntry.ts does not export ${missing.join(", ")}, which the page's views import from @helicoid/lib: add them there`);
+}
 const widgets7 = join(here, "src", "stubs", "widgets7");
 const page = await esbuild.build({
   ...common,
