@@ -4,7 +4,8 @@
 // - load -> drawn explorer: navigation start to the first plotly SVG inside an explorer's plot;
 // - the longest main-thread task during that load (PerformanceObserver "longtask");
 // - slider -> next animation frame after the explorer's plot changed in the DOM (p50, p90), over
-//   SLIDER_MOVES moves of the explorer's first slider, 60 ms apart, after one warm-up move.
+//   SLIDER_MOVES moves of the explorer's first slider, 350 ms apart, after one warm-up move, with
+//   the worker's compute time of each (the explorer's data-compute-ms).
 import { createRequire } from "node:module";
 import { statSync } from "node:fs";
 import { execSync } from "node:child_process";
@@ -12,7 +13,7 @@ import { fileURLToPath } from "node:url";
 
 const require = createRequire(import.meta.url);
 const { chromium } = require("playwright-core");
-export const SLIDER_MOVES = 40;
+export const SLIDER_MOVES = 25;
 
 export function chromiumPath() {
   if (process.env.HELICOID_CHROMIUM) return process.env.HELICOID_CHROMIUM;
@@ -89,8 +90,10 @@ export async function probe(browser, file, { slider = false, screenshot = null, 
         await move(max * 0.3);
         await wait(300);
         for (let k = 0; k < n; k++) {
-          out.push(await move(max * (0.35 + (0.3 * ((k * 7) % n)) / n)));
-          await wait(60);
+          const ms = await move(max * (0.35 + (0.3 * ((k * 7) % n)) / n));
+          out.push({ ms, compute: Number(ex.dataset.computeMs) });
+          // past the explorer's exact redraw after a move (120 ms of quiet), so it is not taken for the next move's change
+          await wait(350);
         }
         return out;
       }, SLIDER_MOVES);
@@ -99,7 +102,20 @@ export async function probe(browser, file, { slider = false, screenshot = null, 
       await page.waitForTimeout(500);
       await page.screenshot({ path: screenshot, fullPage: true });
     }
-    return { ms, longest, tasks, all: await page.evaluate(() => window.__hxLong.map(Math.round)), slider: moves, errors };
+    return {
+      ms,
+      parts: await page.evaluate(() =>
+        performance
+          .getEntriesByType("measure")
+          .filter((m) => m.name.startsWith("hx-bundle-part"))
+          .map((m) => Math.round(m.duration)),
+      ),
+      longest,
+      tasks,
+      all: await page.evaluate(() => window.__hxLong.map(Math.round)),
+      slider: moves,
+      errors,
+    };
   } finally {
     await context.close();
   }
@@ -112,10 +128,12 @@ if (process.argv[1] === fileURLToPath(import.meta.url)) {
     console.log(`size ${(statSync(file).size / 1e6).toFixed(3)} MB`);
     for (let k = 0; k < Number(runs); k++) {
       const r = await probe(browser, file, { slider: true, screenshot: k === 0 ? shot : null });
-      const p50 = r.slider ? quantile(r.slider, 0.5) : NaN,
-        p90 = r.slider ? quantile(r.slider, 0.9) : NaN;
+      const ms = r.slider.map((m) => m.ms),
+        compute = r.slider.map((m) => m.compute);
+      const p50 = quantile(ms, 0.5),
+        p90 = quantile(ms, 0.9);
       console.log(
-        `load->drawn ${r.ms.toFixed(0)} ms, longest task ${r.longest.toFixed(0)} ms (long tasks ${r.all.join(" ")}), slider p50 ${p50.toFixed(1)} p90 ${p90.toFixed(1)} ms${r.errors.length ? ` errors: ${r.errors.join("; ")}` : ""}`,
+        `load->drawn ${r.ms.toFixed(0)} ms, longest task ${r.longest.toFixed(0)} ms (long tasks ${r.all.join(" ")}; bundle parts ran ${r.parts.join(" ")} ms), slider p50 ${p50.toFixed(1)} p90 ${p90.toFixed(1)} ms (worker compute p50 ${quantile(compute, 0.5).toFixed(1)} p90 ${quantile(compute, 0.9).toFixed(1)} ms)${r.errors.length ? ` errors: ${r.errors.join("; ")}` : ""}`,
       );
     }
   } finally {

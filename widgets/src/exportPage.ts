@@ -58,17 +58,28 @@ function makeManager(): StaticManager {
   });
 }
 
+/** Resolves in a later task (the browser may paint and handle input in between). */
+function nextTask(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
 async function renderWidgets(root: ParentNode): Promise<number> {
   const stateTag = root.querySelector('script[type="application/vnd.jupyter.widget-state+json"]');
   if (!stateTag) return 0;
   const manager = makeManager();
   const state = JSON.parse(stateTag.textContent || "{}");
   const models = await manager.set_state(state);
-  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]'));
-  let shown = 0;
-  for (const tag of tags) {
+  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]')).map((tag) => {
     const { model_id } = JSON.parse(tag.textContent || "{}");
-    const model = models.find((m) => m.model_id === model_id);
+    return { tag, model_id: model_id as string, model: models.find((m) => m.model_id === model_id) };
+  });
+  // Live explorers first (what a reader can move), then the rest in page order; one view per task,
+  // so that no task draws every figure of the page.
+  const live = (m: (typeof tags)[number]["model"]) => (m?.get("_view_name") === "ExplorerView" ? 0 : 1);
+  tags.sort((a, b) => live(a.model) - live(b.model));
+  let shown = 0;
+  for (const { tag, model_id, model } of tags) {
+    await nextTask();
     const host = document.createElement("div");
     host.className = "widget-subarea hx-widget-host";
     tag.parentElement!.insertBefore(host, tag);
@@ -101,6 +112,7 @@ async function renderWidgets(root: ParentNode): Promise<number> {
 async function renderPlotly(root: ParentNode): Promise<number> {
   const tags = Array.from(root.querySelectorAll('script[type="application/vnd.plotly.v1+json"]'));
   for (const tag of tags) {
+    await nextTask();
     const fig = JSON.parse(tag.textContent || "{}");
     const host = document.createElement("div");
     host.className = "hx-plotly-output";
@@ -114,7 +126,9 @@ async function renderPlotly(root: ParentNode): Promise<number> {
 async function start(): Promise<void> {
   const body = document.body;
   try {
-    const [w, p] = await Promise.all([renderWidgets(document), renderPlotly(document)]);
+    // widgets (the explorers first) before the notebook's plain plotly outputs
+    const w = await renderWidgets(document);
+    const p = await renderPlotly(document);
     body.dataset.helicoidWidgets = String(w);
     body.dataset.helicoidPlots = String(p);
   } catch (err) {

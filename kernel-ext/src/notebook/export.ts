@@ -102,7 +102,9 @@ const BUNDLE_LOADER = `(async function () {
     for (var k = 0; k < texts.length; k++) {
       var s = document.createElement("script");
       s.textContent = await texts[k];
+      var t0 = performance.now();
       document.body.appendChild(s);
+      performance.measure("hx-bundle-part-" + k, { start: t0, end: performance.now() });
       await new Promise(function (r) { setTimeout(r, 0); });
     }
   } catch (err) {
