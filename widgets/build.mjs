@@ -23,7 +23,6 @@ import { readFileSync, writeFileSync, mkdirSync, rmSync, existsSync, statSync, r
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { spawnSync } from "node:child_process";
-import { createRequire } from "node:module";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const argv = process.argv.slice(2);
@@ -164,7 +163,17 @@ const page = await esbuild.build({
 // at PART): the library factory, plotly.js (its distribution file, which sets globalThis.Plotly;
 // the page bundle reads it through src/stubs/pagePlotly.cjs), the page bundle.
 const PART = "\n//# helicoid-part\n";
-const plotlyDist = readFileSync(createRequire(import.meta.url).resolve("plotly.js-cartesian-dist-min"), "utf8");
+const plotlyPart = await esbuild.build({
+  ...common,
+  alias: {},
+  inject: [],
+  entryPoints: [join(here, "src", "pagePlotly.js")],
+  format: "iife",
+  write: false,
+  outfile: join(dist, "plotly-page.js"),
+});
+const plotlyDist = plotlyPart.outputFiles[0].text;
+writeFileSync(join(dist, "plotly-page.js"), plotlyDist); // also the floor page of test/bench/page.bench.mjs
 writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 

@@ -72,7 +72,7 @@ function explorerNotebook(ids) {
 }
 
 function floorPage() {
-  const plotly = readFileSync(require.resolve("plotly.js-cartesian-dist-min"))
+  const plotly = readFileSync(join(root, "widgets", "dist", "plotly-page.js"))
     .toString()
     .replace(/<\/script/gi, "<\\/script");
   const x = Array.from({ length: 200 }, (_, i) => i),

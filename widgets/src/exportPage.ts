@@ -17,7 +17,7 @@ import { Widget as LuminoWidget } from "@lumino/widgets";
 import { marked } from "marked";
 import * as ours from "./index.js";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
-import { Plotly } from "./plotly.js";
+import { Plotly, unsupportedTraces } from "./plotly.js";
 
 const PLOTLY_MIME = "application/vnd.plotly.v1+json";
 const WIDGET_MIME = "application/vnd.jupyter.widget-view+json";
@@ -118,6 +118,9 @@ async function renderPlotly(root: ParentNode): Promise<number> {
     host.className = "hx-plotly-output";
     tag.parentElement!.insertBefore(host, tag);
     tag.parentElement!.querySelector(".hx-plotly-fallback")?.remove();
+    const bad = unsupportedTraces(fig.data ?? []);
+    if (bad.length)
+      host.before(Object.assign(document.createElement("div"), { className: "hx-error", textContent: `This page's plotly bundle cannot draw trace type(s): ${bad.join(", ")}` }));
     await Plotly.newPlot(host, fig.data ?? [], { autosize: true, ...(fig.layout ?? {}) }, { displaylogo: false, responsive: true, ...(fig.config ?? {}) });
   }
   return tags.length;

@@ -95,8 +95,12 @@ const BUNDLE_LOADER = `(async function () {
     if (typeof DecompressionStream === "undefined") throw new Error("this browser has no DecompressionStream (gzip), which the page needs to unpack its scripts");
     var texts = Array.prototype.map.call(tags, function (t) {
       var b64 = t.textContent.trim();
-      var bin = atob(b64), bytes = new Uint8Array(bin.length);
-      for (var i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+      var bytes = Uint8Array.fromBase64 && Uint8Array.fromBase64(b64);
+      if (!bytes) {
+        var bin = atob(b64);
+        bytes = new Uint8Array(bin.length);
+        for (var i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+      }
       return new Response(new Blob([bytes]).stream().pipeThrough(new DecompressionStream("gzip"))).text();
     });
     for (var k = 0; k < texts.length; k++) {
