@@ -173,7 +173,6 @@ const plotlyPart = await esbuild.build({
   outfile: join(dist, "plotly-page.js"),
 });
 const plotlyDist = plotlyPart.outputFiles[0].text;
-writeFileSync(join(dist, "plotly-page.js"), plotlyDist); // also the floor page of test/bench/page.bench.mjs
 writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 

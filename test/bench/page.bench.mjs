@@ -20,7 +20,7 @@ import { launch, probe, quantile } from "./pageProbe.mjs";
 
 const require = createRequire(import.meta.url);
 const root = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
-const { exportNotebook } = require(join(root, "kernel-ext", "dist", "notebook", "export.js"));
+const { exportNotebook, BUNDLE_PART_MARK } = require(join(root, "kernel-ext", "dist", "notebook", "export.js"));
 const RUNS = Number(process.env.HELICOID_BENCH_PAGE_RUNS ?? 5);
 const M = "@helicoid/widgets",
   V = "^0.1.0";
@@ -72,8 +72,11 @@ function explorerNotebook(ids) {
 }
 
 function floorPage() {
-  const plotly = readFileSync(join(root, "widgets", "dist", "plotly-page.js"))
-    .toString()
+  if (readFileSync(join(root, "widgets", "dist", "export.js"), "utf8").split(BUNDLE_PART_MARK).length !== 3)
+    throw new Error("widgets/dist/export.js is not in three parts: run npm run build");
+  // the page's own plotly: the second part of the export bundle (widgets/build.mjs)
+  const plotly = readFileSync(join(root, "widgets", "dist", "export.js"), "utf8")
+    .split(BUNDLE_PART_MARK)[1]
     .replace(/<\/script/gi, "<\\/script");
   const x = Array.from({ length: 200 }, (_, i) => i),
     y = x.map((v) => Math.sin(v / 20));

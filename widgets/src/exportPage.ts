@@ -68,18 +68,37 @@ async function renderWidgets(root: ParentNode): Promise<number> {
   if (!stateTag) return 0;
   const manager = makeManager();
   const state = JSON.parse(stateTag.textContent || "{}");
-  const models = await manager.set_state(state);
+  const saved = (state.state ?? {}) as Record<string, { model_name?: string; model_module?: string; state?: unknown }>;
+  const pick = (ids: string[]) => ({ ...state, state: Object.fromEntries(ids.map((id) => [id, saved[id]])) });
+  // Live explorers first (what a reader can move): their models (ours, referring to no other model)
+  // are made and drawn before the rest of the state, so the standard controls' module is not even
+  // loaded before them; then the rest in page order. One view per task, so that no task draws every
+  // figure of the page.
+  const liveIds = new Set(
+    Object.keys(saved).filter(
+      (id) => saved[id]!.model_module === MODULE_NAME && saved[id]!.model_name === "ExplorerModel" && !JSON.stringify(saved[id]!.state ?? {}).includes('"IPY_MODEL_'),
+    ),
+  );
+  const models = new Map<string, Awaited<ReturnType<typeof manager.set_state>>[number]>();
+  const make = async (ids: string[]) => {
+    if (ids.length) for (const m of await manager.set_state(pick(ids))) models.set(m.model_id, m);
+  };
   const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]')).map((tag) => {
     const { model_id } = JSON.parse(tag.textContent || "{}");
-    return { tag, model_id: model_id as string, model: models.find((m) => m.model_id === model_id) };
+    return { tag, model_id: model_id as string };
   });
-  // Live explorers first (what a reader can move), then the rest in page order; one view per task,
-  // so that no task draws every figure of the page.
-  const live = (m: (typeof tags)[number]["model"]) => (m?.get("_view_name") === "ExplorerView" ? 0 : 1);
-  tags.sort((a, b) => live(a.model) - live(b.model));
+  const live = (id: string) => (liveIds.has(id) ? 0 : 1);
+  tags.sort((a, b) => live(a.model_id) - live(b.model_id));
+  await make([...liveIds]);
   let shown = 0;
-  for (const { tag, model_id, model } of tags) {
+  let restMade = false;
+  for (const { tag, model_id } of tags) {
     await nextTask();
+    if (!restMade && !liveIds.has(model_id)) {
+      restMade = true;
+      await make(Object.keys(saved).filter((id) => !liveIds.has(id)));
+    }
+    const model = models.get(model_id);
     const host = document.createElement("div");
     host.className = "widget-subarea hx-widget-host";
     tag.parentElement!.insertBefore(host, tag);
@@ -106,6 +125,7 @@ async function renderWidgets(root: ParentNode): Promise<number> {
       host.classList.add("hx-error");
     }
   }
+  if (!restMade) await make(Object.keys(saved).filter((id) => !liveIds.has(id)));
   return shown;
 }
 
