@@ -134,15 +134,36 @@ const factory =
   if (missing.length) throw new Error(`src/compute/libEntry.ts does not export ${missing.join(", ")}, which the page's views import from @helicoid/lib: add them there`);
 }
 const widgets7 = join(here, "src", "stubs", "widgets7");
+const vendorStubs = join(here, "src", "stubs", "vendor");
+const pageAliases = {
+  "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
+  "@jupyter-widgets/base7": widgets7,
+  "@jupyter-widgets/controls7": widgets7,
+};
+// the widget runtime (html-manager, standard controls, base, lumino, rendermime, marked, their CSS)
+const vendorPart = await esbuild.build({
+  ...common,
+  alias: pageAliases,
+  inject: [],
+  entryPoints: [join(here, "src", "pageVendor.ts")],
+  format: "iife",
+  globalName: "__hxVendor",
+  write: false,
+  outfile: join(dist, "vendor.js"),
+  plugins: [cssInject],
+});
 const page = await esbuild.build({
   ...common,
   alias: {
     ...common.alias,
     "@helicoid/lib": join(here, "src", "stubs", "pageLib.cjs"),
-    "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
-    "@jupyter-widgets/base7": widgets7,
-    "@jupyter-widgets/controls7": widgets7,
+    ...pageAliases,
     "plotly.js-cartesian-dist-min": join(here, "src", "stubs", "pagePlotly.cjs"),
+    "@jupyter-widgets/base": join(vendorStubs, "base.cjs"),
+    "@jupyter-widgets/html-manager/lib/htmlmanager": join(vendorStubs, "htmlmanager.cjs"),
+    "@jupyterlab/rendermime": join(vendorStubs, "rendermime.cjs"),
+    "@lumino/widgets": join(vendorStubs, "lumino.cjs"),
+    marked: join(vendorStubs, "marked.cjs"),
   },
   inject: [],
   entryPoints: [join(here, "src/exportPage.ts")],
@@ -159,9 +180,10 @@ const page = await esbuild.build({
     },
   ],
 });
-// Three parts, which the exported page unpacks and runs one task each (kernel-ext's exporter splits
-// at PART): the library factory, plotly.js (its distribution file, which sets globalThis.Plotly;
-// the page bundle reads it through src/stubs/pagePlotly.cjs), the page bundle.
+// Four parts, which the exported page unpacks and runs one task each (kernel-ext's exporter splits
+// at PART): the library factory, plotly.js (src/pagePlotly.js: the core and the trace types we use,
+// which sets globalThis.Plotly; the page bundle reads it through src/stubs/pagePlotly.cjs), the
+// widget runtime (src/pageVendor.ts, read through src/stubs/vendor/), the page bundle.
 const PART = "\n//# helicoid-part\n";
 const plotlyPart = await esbuild.build({
   ...common,
@@ -173,7 +195,7 @@ const plotlyPart = await esbuild.build({
   outfile: join(dist, "plotly-page.js"),
 });
 const plotlyDist = plotlyPart.outputFiles[0].text;
-writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + page.outputFiles[0].text);
+writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + vendorPart.outputFiles[0].text + PART + page.outputFiles[0].text);
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
 if (extraSpecs) {

@@ -7,10 +7,8 @@
  * widget was displayed, <script type="application/vnd.jupyter.widget-view+json">; plotly outputs
  * are <script type="application/vnd.plotly.v1+json"> tags.
  */
+// The runtime's CSS (lumino, the controls' widgets-base and labvariables) comes with it: src/pageVendor.ts.
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager";
-import "@lumino/widgets/style/index.css";
-import "@jupyter-widgets/controls/css/widgets-base.css";
-import "@jupyter-widgets/controls/css/labvariables.css";
 import { RenderMimeRegistry, standardRendererFactories } from "@jupyterlab/rendermime";
 import type { IRenderMime } from "@jupyterlab/rendermime-interfaces";
 import { Widget as LuminoWidget } from "@lumino/widgets";
