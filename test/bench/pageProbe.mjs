@@ -1,6 +1,6 @@
 /* global PerformanceObserver, MutationObserver, requestAnimationFrame */
 // Measures an exported page in Debian's chromium (used by page.bench.mjs; also runnable by hand:
-// `node test/bench/pageProbe.mjs PAGE.html [runs] [screenshot.png]`):
+// `node test/bench/pageProbe.mjs PAGE.html [PAGE2.html ...] [--runs N] [--shot out.png]`):
 // - load -> drawn explorer: navigation start to the first plotly SVG inside an explorer's plot;
 // - the longest main-thread task during that load (PerformanceObserver "longtask");
 // - slider -> next animation frame after the explorer's plot changed in the DOM (p50, p90), over
@@ -122,18 +122,34 @@ export async function probe(browser, file, { slider = false, screenshot = null, 
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
-  const [file, runs = "3", shot] = process.argv.slice(2);
+  // `node test/bench/pageProbe.mjs PAGE.html [PAGE2.html ...] [--runs N] [--shot out.png]`: pages
+  // interleaved (A B A B ...), each run a fresh context; the last run of each also moves the slider.
+  const args = process.argv.slice(2);
+  const opt = (name, d) => {
+    const i = args.indexOf(name);
+    return i >= 0 ? args.splice(i, 2)[1] : d;
+  };
+  const runs = Number(opt("--runs", "3")),
+    shot = opt("--shot", null);
+  const files = args;
   const browser = await launch();
+  const med = (a) => quantile(a, 0.5);
   try {
-    console.log(`size ${(statSync(file).size / 1e6).toFixed(3)} MB`);
-    for (let k = 0; k < Number(runs); k++) {
-      const r = await probe(browser, file, { slider: true, screenshot: k === 0 ? shot : null });
-      const ms = r.slider.map((m) => m.ms),
-        compute = r.slider.map((m) => m.compute);
-      const p50 = quantile(ms, 0.5),
-        p90 = quantile(ms, 0.9);
+    const all = files.map(() => []);
+    for (let k = 0; k < runs; k++)
+      for (const [j, file] of files.entries()) all[j].push(await probe(browser, file, { slider: k === runs - 1, screenshot: k === 0 && j === 0 ? shot : null }));
+    for (const [j, file] of files.entries()) {
+      const rs = all[j];
+      const last = rs.at(-1);
+      const ms = last.slider.map((m) => m.ms),
+        compute = last.slider.map((m) => m.compute);
+      console.log(`${file}: size ${(statSync(file).size / 1e6).toFixed(3)} MB`);
+      for (const r of rs)
+        console.log(
+          `  load->drawn ${r.ms.toFixed(0)} ms, longest task ${r.longest.toFixed(0)} ms (long tasks ${r.all.join(" ")}; bundle parts ran ${r.parts.join(" ")} ms)${r.errors.length ? ` errors: ${r.errors.join("; ")}` : ""}`,
+        );
       console.log(
-        `load->drawn ${r.ms.toFixed(0)} ms, longest task ${r.longest.toFixed(0)} ms (long tasks ${r.all.join(" ")}; bundle parts ran ${r.parts.join(" ")} ms), slider p50 ${p50.toFixed(1)} p90 ${p90.toFixed(1)} ms (worker compute p50 ${quantile(compute, 0.5).toFixed(1)} p90 ${quantile(compute, 0.9).toFixed(1)} ms)${r.errors.length ? ` errors: ${r.errors.join("; ")}` : ""}`,
+        `  median load->drawn ${med(rs.map((r) => r.ms)).toFixed(0)} ms, median longest task ${med(rs.map((r) => r.longest)).toFixed(0)} ms; slider p50 ${med(ms).toFixed(1)} p90 ${quantile(ms, 0.9).toFixed(1)} ms (worker compute p50 ${med(compute).toFixed(1)} p90 ${quantile(compute, 0.9).toFixed(1)} ms)`,
       );
     }
   } finally {
