@@ -105,8 +105,8 @@ const libPart = await esbuild.build({
 });
 // The factory is a parenthesized function expression, so V8 compiles it at once rather than
 // pre-parsing 0.6 MB and parsing it again when it is called.
-const factory =
-  `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n` +
+const factoryDefinition = `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n`;
+const factoryRun =
   "globalThis.__helicoidLib=__helicoidLibFactory();\n" +
   'globalThis.__helicoidWorkerSource=function(){return "var __hxL=("+__helicoidLibFactory.toString()+")();\\nself.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
 // The factory names only what the views import (src/compute/libEntry.ts): check that every value
@@ -180,8 +180,8 @@ const page = await esbuild.build({
     },
   ],
 });
-// Four parts, which the exported page unpacks and runs one task each (kernel-ext's exporter splits
-// at PART): the library factory, plotly.js (src/pagePlotly.js: the core and the trace types we use,
+// Four parts, which the exported page unpacks and runs in order, one task each (kernel-ext's exporter
+// splits at PART): the library factory, plotly.js (src/pagePlotly.js: the core and the trace types we use,
 // which sets globalThis.Plotly; the page bundle reads it through src/stubs/pagePlotly.cjs), the
 // widget runtime (src/pageVendor.ts, read through src/stubs/vendor/), the page bundle.
 const PART = "\n//# helicoid-part\n";
@@ -195,7 +195,18 @@ const plotlyPart = await esbuild.build({
   outfile: join(dist, "plotly-page.js"),
 });
 const plotlyDist = plotlyPart.outputFiles[0].text;
-writeFileSync(join(dist, "export.js"), factory + PART + plotlyDist + PART + vendorPart.outputFiles[0].text + PART + page.outputFiles[0].text);
+// Each large part is defined (parsed and compiled: a parenthesized function) in one task and run
+// in the next, so that no task both compiles and runs one of them.
+const parts = [
+  factoryDefinition,
+  factoryRun,
+  `var __hxPlotlyFactory=(function(){${plotlyDist}\n});\n`,
+  "__hxPlotlyFactory();\n",
+  `var __hxVendorFactory=(function(){${vendorPart.outputFiles[0].text}\nreturn __hxVendor;});\n`,
+  "var __hxVendor=__hxVendorFactory();\n",
+  page.outputFiles[0].text,
+];
+writeFileSync(join(dist, "export.js"), parts.join(PART));
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
 if (extraSpecs) {

@@ -73,12 +73,13 @@ function explorerNotebook(ids) {
 }
 
 function floorPage() {
-  if (readFileSync(join(root, "widgets", "dist", "export.js"), "utf8").split(BUNDLE_PART_MARK).length !== 4)
-    throw new Error("widgets/dist/export.js is not in four parts: run npm run build");
-  // the page's own plotly: the second part of the export bundle (widgets/build.mjs)
+  // the page's own plotly: its parts of the export bundle (widgets/build.mjs)
   const plotly = readFileSync(join(root, "widgets", "dist", "export.js"), "utf8")
-    .split(BUNDLE_PART_MARK)[1]
+    .split(BUNDLE_PART_MARK)
+    .filter((p) => p.includes("__hxPlotlyFactory"))
+    .join("\n")
     .replace(/<\/script/gi, "<\\/script");
+  if (!plotly.includes("__hxPlotlyFactory()")) throw new Error("widgets/dist/export.js has no plotly part: run npm run build");
   const x = Array.from({ length: 200 }, (_, i) => i),
     y = x.map((v) => Math.sin(v / 20));
   return (
