@@ -2,9 +2,10 @@
 /**
  * Build of @helicoid/widgets (run by the root `npm run build`):
  *   1. dist/worker.js          the compute worker (bundled @helicoid/lib), embedded as text below
- *   2. dist/export.js          the standalone bootstrap of exported pages (html-manager, standard
- *                              controls, our module, plotly, CSS injected), one script: the library
- *                              factory (also the worker's source) then the page bundle
+ *   2. dist/export.js          the standalone bootstrap of exported pages, in parts that the page
+ *                              runs one task each: the library factory (also the worker's source),
+ *                              plotly (core + our trace types), the widget runtime (html-manager,
+ *                              standard controls, CSS), our module
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
  *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
@@ -180,7 +181,7 @@ const page = await esbuild.build({
     },
   ],
 });
-// Four parts, which the exported page unpacks and runs in order, one task each (kernel-ext's exporter
+// Four pieces, in seven parts (below), which the exported page unpacks and runs in order, one task each (kernel-ext's exporter
 // splits at PART): the library factory, plotly.js (src/pagePlotly.js: the core and the trace types we use,
 // which sets globalThis.Plotly; the page bundle reads it through src/stubs/pagePlotly.cjs), the
 // widget runtime (src/pageVendor.ts, read through src/stubs/vendor/), the page bundle.
