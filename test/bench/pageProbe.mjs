@@ -1,7 +1,8 @@
 /* global PerformanceObserver, MutationObserver, requestAnimationFrame */
 // Measures an exported page in Debian's chromium (used by page.bench.mjs; also runnable by hand:
 // `node test/bench/pageProbe.mjs PAGE.html [PAGE2.html ...] [--runs N] [--shot out.png]`):
-// - load -> drawn explorer: navigation start to the first plotly SVG inside an explorer's plot;
+// - load -> drawn explorer: navigation start to the first plotly SVG inside an explorer's plot, as
+//   a MutationObserver in the page sees it;
 // - the longest main-thread task during that load (PerformanceObserver "longtask");
 // - slider -> next animation frame after the explorer's plot changed in the DOM (p50, p90), over
 //   SLIDER_MOVES moves of the explorer's first slider, 350 ms apart, after one warm-up move, with
@@ -48,15 +49,24 @@ export async function probe(browser, file, { slider = false, screenshot = null, 
     const page = await context.newPage();
     const errors = [];
     page.on("pageerror", (e) => errors.push(String(e)));
-    await page.addInitScript(() => {
+    await page.addInitScript((sel) => {
       window.__hxLong = [];
       new PerformanceObserver((l) => {
         for (const e of l.getEntries()) window.__hxLong.push(e.duration);
       }).observe({ type: "longtask", buffered: true });
-    });
+      // the time the selector first matches, taken in the page (not when the driver hears of it)
+      const mo = new MutationObserver(() => {
+        if (document.querySelector(sel)) {
+          window.__hxDrawn = performance.now();
+          mo.disconnect();
+        }
+      });
+      mo.observe(document, { subtree: true, childList: true, attributes: true });
+    }, selector);
     await page.goto(`file://${file}`, { waitUntil: "commit" });
     await page.waitForSelector(selector, { timeout: 120_000 });
-    const ms = await page.evaluate(() => performance.now());
+    await page.waitForFunction(() => window.__hxDrawn !== undefined, null, { timeout: 120_000 });
+    const ms = await page.evaluate(() => window.__hxDrawn);
     // let the load settle (later tasks of the same load count towards the longest task)
     await page.waitForFunction(() => document.body.dataset.helicoidReady === "1", null, { timeout: 120_000 });
     await page.waitForTimeout(300);
