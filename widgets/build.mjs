@@ -2,9 +2,10 @@
 /**
  * Build of @helicoid/widgets (run by the root `npm run build`):
  *   1. dist/worker.js          the compute worker (bundled @helicoid/lib), embedded as text below
- *   2. dist/export.js          the standalone bootstrap of exported pages (html-manager, standard
- *                              controls, our module, plotly, CSS injected), one script: the library
- *                              factory (also the worker's source) then the page bundle
+ *   2. dist/export.js          the standalone bootstrap of exported pages, in parts that the page
+ *                              runs one task each: the library factory (also the worker's source),
+ *                              plotly (core + our trace types), the widget runtime (html-manager,
+ *                              standard controls, CSS), our module
  *   3. dist/markdown.cjs       the Markdown renderer for the exporter (marked, as CommonJS)
  *   4. lib/plugin.js + chunks  the JupyterLab plugin (ESM, shared packages external); the views load on activation
  *   5. labextension/           the prebuilt JupyterLab 4 extension, by @jupyterlab/builder
@@ -105,19 +106,65 @@ const libPart = await esbuild.build({
 });
 // The factory is a parenthesized function expression, so V8 compiles it at once rather than
 // pre-parsing 0.6 MB and parsing it again when it is called.
-const factory =
-  `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n` +
+const factoryDefinition = `var __helicoidLibFactory=(function(){${libPart.outputFiles[0].text}\nreturn __hxLib;});\n`;
+const factoryRun =
   "globalThis.__helicoidLib=__helicoidLibFactory();\n" +
   'globalThis.__helicoidWorkerSource=function(){return "var __hxL=("+__helicoidLibFactory.toString()+")();\\nself.onmessage=function(e){self.postMessage(__hxL.__runJob(e.data));};\\n";};\n';
+// The factory names only what the views import (src/compute/libEntry.ts): check that every value
+// the page's sources import from @helicoid/lib is among them, so a new import cannot be undefined.
+{
+  const names = new Set();
+  const walk = (d) => {
+    for (const e of readdirSync(d, { withFileTypes: true })) {
+      if (e.isDirectory()) walk(join(d, e.name));
+      else if (/\.ts$/.test(e.name) && e.name !== "libEntry.ts") {
+        for (const m of readFileSync(join(d, e.name), "utf8").matchAll(/(?:import|export) (type )?\{([^}]*)\} from "@helicoid\/lib"/g)) {
+          if (m[1]) continue;
+          for (const n of m[2]
+            .split(",")
+            .map((x) => x.trim())
+            .filter(Boolean))
+            if (!n.startsWith("type ")) names.add(n.split(/\s+as\s+/)[0]);
+        }
+      }
+    }
+  };
+  walk(join(here, "src"));
+  const exported = new Set(libPart.outputFiles[0].text.length ? Object.keys(new Function(`${libPart.outputFiles[0].text}\nreturn __hxLib;`)()) : []);
+  const missing = [...names].filter((n) => !exported.has(n));
+  if (missing.length) throw new Error(`src/compute/libEntry.ts does not export ${missing.join(", ")}, which the page's views import from @helicoid/lib: add them there`);
+}
 const widgets7 = join(here, "src", "stubs", "widgets7");
+const vendorStubs = join(here, "src", "stubs", "vendor");
+const pageAliases = {
+  "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
+  "@jupyter-widgets/base7": widgets7,
+  "@jupyter-widgets/controls7": widgets7,
+};
+// the widget runtime (html-manager, standard controls, base, lumino, rendermime, marked, their CSS)
+const vendorPart = await esbuild.build({
+  ...common,
+  alias: pageAliases,
+  inject: [],
+  entryPoints: [join(here, "src", "pageVendor.ts")],
+  format: "iife",
+  globalName: "__hxVendor",
+  write: false,
+  outfile: join(dist, "vendor.js"),
+  plugins: [cssInject],
+});
 const page = await esbuild.build({
   ...common,
   alias: {
     ...common.alias,
     "@helicoid/lib": join(here, "src", "stubs", "pageLib.cjs"),
-    "sanitize-html": join(here, "src", "stubs", "sanitizeHtml"),
-    "@jupyter-widgets/base7": widgets7,
-    "@jupyter-widgets/controls7": widgets7,
+    ...pageAliases,
+    "plotly.js-cartesian-dist-min": join(here, "src", "stubs", "pagePlotly.cjs"),
+    "@jupyter-widgets/base": join(vendorStubs, "base.cjs"),
+    "@jupyter-widgets/html-manager/lib/htmlmanager": join(vendorStubs, "htmlmanager.cjs"),
+    "@jupyterlab/rendermime": join(vendorStubs, "rendermime.cjs"),
+    "@lumino/widgets": join(vendorStubs, "lumino.cjs"),
+    marked: join(vendorStubs, "marked.cjs"),
   },
   inject: [],
   entryPoints: [join(here, "src/exportPage.ts")],
@@ -134,7 +181,33 @@ const page = await esbuild.build({
     },
   ],
 });
-writeFileSync(join(dist, "export.js"), factory + page.outputFiles[0].text);
+// Four pieces, in seven parts (below), which the exported page unpacks and runs in order, one task each (kernel-ext's exporter
+// splits at PART): the library factory, plotly.js (src/pagePlotly.js: the core and the trace types we use,
+// which sets globalThis.Plotly; the page bundle reads it through src/stubs/pagePlotly.cjs), the
+// widget runtime (src/pageVendor.ts, read through src/stubs/vendor/), the page bundle.
+const PART = "\n//# helicoid-part\n";
+const plotlyPart = await esbuild.build({
+  ...common,
+  alias: {},
+  inject: [],
+  entryPoints: [join(here, "src", "pagePlotly.js")],
+  format: "iife",
+  write: false,
+  outfile: join(dist, "plotly-page.js"),
+});
+const plotlyDist = plotlyPart.outputFiles[0].text;
+// Each large part is defined (parsed and compiled: a parenthesized function) in one task and run
+// in the next, so that no task both compiles and runs one of them.
+const parts = [
+  factoryDefinition,
+  factoryRun,
+  `var __hxPlotlyFactory=(function(){${plotlyDist}\n});\n`,
+  "__hxPlotlyFactory();\n",
+  `var __hxVendorFactory=(function(){${vendorPart.outputFiles[0].text}\nreturn __hxVendor;});\n`,
+  "var __hxVendor=__hxVendorFactory();\n",
+  page.outputFiles[0].text,
+];
+writeFileSync(join(dist, "export.js"), parts.join(PART));
 log(`export.js ${(statSync(join(dist, "export.js")).size / 1e6).toFixed(2)} MB`);
 
 if (extraSpecs) {

@@ -7,17 +7,15 @@
  * widget was displayed, <script type="application/vnd.jupyter.widget-view+json">; plotly outputs
  * are <script type="application/vnd.plotly.v1+json"> tags.
  */
+// The runtime's CSS (lumino, the controls' widgets-base and labvariables) comes with it: src/pageVendor.ts.
 import { HTMLManager } from "@jupyter-widgets/html-manager/lib/htmlmanager";
-import "@lumino/widgets/style/index.css";
-import "@jupyter-widgets/controls/css/widgets-base.css";
-import "@jupyter-widgets/controls/css/labvariables.css";
 import { RenderMimeRegistry, standardRendererFactories } from "@jupyterlab/rendermime";
 import type { IRenderMime } from "@jupyterlab/rendermime-interfaces";
 import { Widget as LuminoWidget } from "@lumino/widgets";
 import { marked } from "marked";
 import * as ours from "./index.js";
 import { MODULE_NAME, MODULE_VERSION } from "./version.js";
-import { Plotly } from "./plotly.js";
+import { Plotly, unsupportedTraces } from "./plotly.js";
 
 const PLOTLY_MIME = "application/vnd.plotly.v1+json";
 const WIDGET_MIME = "application/vnd.jupyter.widget-view+json";
@@ -58,17 +56,47 @@ function makeManager(): StaticManager {
   });
 }
 
+/** Resolves in a later task (the browser may paint and handle input in between). */
+function nextTask(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
 async function renderWidgets(root: ParentNode): Promise<number> {
   const stateTag = root.querySelector('script[type="application/vnd.jupyter.widget-state+json"]');
   if (!stateTag) return 0;
   const manager = makeManager();
   const state = JSON.parse(stateTag.textContent || "{}");
-  const models = await manager.set_state(state);
-  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]'));
-  let shown = 0;
-  for (const tag of tags) {
+  const saved = (state.state ?? {}) as Record<string, { model_name?: string; model_module?: string; state?: unknown }>;
+  const pick = (ids: string[]) => ({ ...state, state: Object.fromEntries(ids.map((id) => [id, saved[id]])) });
+  // Live explorers first (what a reader can move): their models (ours, referring to no other model)
+  // are made and drawn before the rest of the state, so the standard controls' module is not even
+  // loaded before them; then the rest in page order. One view per task, so that no task draws every
+  // figure of the page.
+  const liveIds = new Set(
+    Object.keys(saved).filter(
+      (id) => saved[id]!.model_module === MODULE_NAME && saved[id]!.model_name === "ExplorerModel" && !JSON.stringify(saved[id]!.state ?? {}).includes('"IPY_MODEL_'),
+    ),
+  );
+  const models = new Map<string, Awaited<ReturnType<typeof manager.set_state>>[number]>();
+  const make = async (ids: string[]) => {
+    if (ids.length) for (const m of await manager.set_state(pick(ids))) models.set(m.model_id, m);
+  };
+  const tags = Array.from(root.querySelectorAll('script[type="application/vnd.jupyter.widget-view+json"]')).map((tag) => {
     const { model_id } = JSON.parse(tag.textContent || "{}");
-    const model = models.find((m) => m.model_id === model_id);
+    return { tag, model_id: model_id as string };
+  });
+  const live = (id: string) => (liveIds.has(id) ? 0 : 1);
+  tags.sort((a, b) => live(a.model_id) - live(b.model_id));
+  await make([...liveIds]);
+  let shown = 0;
+  let restMade = false;
+  for (const { tag, model_id } of tags) {
+    await nextTask();
+    if (!restMade && !liveIds.has(model_id)) {
+      restMade = true;
+      await make(Object.keys(saved).filter((id) => !liveIds.has(id)));
+    }
+    const model = models.get(model_id);
     const host = document.createElement("div");
     host.className = "widget-subarea hx-widget-host";
     tag.parentElement!.insertBefore(host, tag);
@@ -95,17 +123,22 @@ async function renderWidgets(root: ParentNode): Promise<number> {
       host.classList.add("hx-error");
     }
   }
+  if (!restMade) await make(Object.keys(saved).filter((id) => !liveIds.has(id)));
   return shown;
 }
 
 async function renderPlotly(root: ParentNode): Promise<number> {
   const tags = Array.from(root.querySelectorAll('script[type="application/vnd.plotly.v1+json"]'));
   for (const tag of tags) {
+    await nextTask();
     const fig = JSON.parse(tag.textContent || "{}");
     const host = document.createElement("div");
     host.className = "hx-plotly-output";
     tag.parentElement!.insertBefore(host, tag);
     tag.parentElement!.querySelector(".hx-plotly-fallback")?.remove();
+    const bad = unsupportedTraces(fig.data ?? []);
+    if (bad.length)
+      host.before(Object.assign(document.createElement("div"), { className: "hx-error", textContent: `This page's plotly bundle cannot draw trace type(s): ${bad.join(", ")}` }));
     await Plotly.newPlot(host, fig.data ?? [], { autosize: true, ...(fig.layout ?? {}) }, { displaylogo: false, responsive: true, ...(fig.config ?? {}) });
   }
   return tags.length;
@@ -114,7 +147,9 @@ async function renderPlotly(root: ParentNode): Promise<number> {
 async function start(): Promise<void> {
   const body = document.body;
   try {
-    const [w, p] = await Promise.all([renderWidgets(document), renderPlotly(document)]);
+    // widgets (the explorers first) before the notebook's plain plotly outputs
+    const w = await renderWidgets(document);
+    const p = await renderPlotly(document);
     body.dataset.helicoidWidgets = String(w);
     body.dataset.helicoidPlots = String(p);
   } catch (err) {

@@ -55,7 +55,7 @@ export class FigureView extends DOMWidgetView {
     const fig = (this.model.get("figure") ?? { data: [] }) as FigureState;
     const bad = unsupportedTraces(fig.data ?? []);
     this.messageEl.hidden = bad.length === 0;
-    this.messageEl.textContent = bad.length ? `This page's plotly bundle (cartesian) cannot draw trace type(s): ${bad.join(", ")}` : "";
+    this.messageEl.textContent = bad.length ? `This page's plotly bundle cannot draw trace type(s): ${bad.join(", ")}` : "";
     const layout = { autosize: true, margin: { l: 60, r: 20, t: 40, b: 50 }, ...(fig.layout ?? {}) };
     void Plotly.react(this.plotEl, fig.data ?? [], layout, { displaylogo: false, responsive: true, ...(fig.config ?? {}) }).then(() => {
       if (this.draws === 0) addExportButtons(this.plotEl, "figure");

@@ -9,6 +9,7 @@
  * the bundled @helicoid/lib); widgets that need the kernel show their last state and say so.
  */
 import { readFileSync, writeFileSync, existsSync } from "node:fs";
+import { gzipSync } from "node:zlib";
 import { dirname, join, resolve, basename } from "node:path";
 import { fileReason, isSameFile, outputFileProblem, parseStrict, shorten, UsageError } from "../cli/args.js";
 import { sanitizeUntrustedHtml, strictBase64 } from "./sanitize.js";
@@ -79,8 +80,53 @@ function scriptJson(value: unknown): string {
     .replace(/\u2029/g, "\\u2029");
 }
 
-function scriptSource(js: string): string {
-  return js.replace(/<\/script/gi, "<\\/script").replace(/<!--/g, "<\\!--");
+/** Where widgets/build.mjs splits dist/export.js into parts that the page runs one task each. */
+export const BUNDLE_PART_MARK = "\n//# helicoid-part\n";
+/** The type of a bundle part's <script>: gzip-compressed JavaScript, in base64. */
+export const BUNDLE_PART_TYPE = "application/vnd.helicoid.bundle-part+gzip;base64";
+
+/**
+ * The page's loader: decompresses each bundle part (DecompressionStream, native) and runs it as a
+ * classic script, one part per task, so that no single task parses and runs the whole bundle.
+ */
+const BUNDLE_LOADER = `(async function () {
+  var tags = document.querySelectorAll('script[type="${BUNDLE_PART_TYPE}"]');
+  try {
+    if (typeof DecompressionStream === "undefined") throw new Error("this browser has no DecompressionStream (gzip), which the page needs to unpack its scripts");
+    var texts = Array.prototype.map.call(tags, function (t) {
+      var b64 = t.textContent.trim();
+      var bytes = Uint8Array.fromBase64 && Uint8Array.fromBase64(b64);
+      if (!bytes) {
+        var bin = atob(b64);
+        bytes = new Uint8Array(bin.length);
+        for (var i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+      }
+      return new Response(new Blob([bytes]).stream().pipeThrough(new DecompressionStream("gzip"))).text();
+    });
+    for (var k = 0; k < texts.length; k++) {
+      var s = document.createElement("script");
+      s.textContent = await texts[k];
+      var t0 = performance.now();
+      document.body.appendChild(s);
+      performance.measure("hx-bundle-part-" + k, { start: t0, end: performance.now() });
+      await new Promise(function (r) { setTimeout(r, 0); });
+    }
+  } catch (err) {
+    var box = document.createElement("div");
+    box.className = "hx-error";
+    box.textContent = "The page's scripts could not be unpacked: " + ((err && err.message) || String(err));
+    document.body.prepend(box);
+    document.body.dataset.helicoidReady = "1";
+  }
+})();`;
+
+/** The bundle as gzip-compressed parts plus the loader that runs them in order. */
+function bundleScripts(bundle: string): string {
+  const parts = bundle.split(BUNDLE_PART_MARK);
+  return (
+    parts.map((p) => `<script type="${BUNDLE_PART_TYPE}">${gzipSync(Buffer.from(p, "utf8"), { level: 9 }).toString("base64")}</script>\n`).join("") +
+    `<script>${BUNDLE_LOADER}</script>\n`
+  );
 }
 
 const text = (v: unknown): string => (Array.isArray(v) ? v.join("") : typeof v === "string" ? v : v == null ? "" : String(v));
@@ -290,7 +336,7 @@ export function exportNotebook(ipynb: unknown, options: ExportOptions = {}): str
     parts.join("\n") +
     `\n<footer>Exported by Helicoid${options.sourceName ? ` from ${escapeHtml(basename(options.sourceName))}` : ""}. Results are estimates under the assumptions stated with each calculator.</footer>\n</main>\n` +
     (ws && counters.widgets > 0 ? `<script type="${WIDGET_STATE}">${scriptJson(trusted ? ws.state : sanitizeWidgetState(ws.state))}</script>\n` : "") +
-    (needsScript ? `<script>${scriptSource(bundle)}</script>\n` : "") +
+    (needsScript ? bundleScripts(bundle) : "") +
     `</body>\n</html>\n`
   );
 }
