@@ -8,6 +8,11 @@
  */
 export {
   InputError,
+  FIT_PANEL_DEFAULTS,
+  anyUncertainty,
+  fitPanelState,
+  formatWithError,
+  withUncertainties,
   PLOT_MARGIN,
   axisTitle,
   axisUnit,
