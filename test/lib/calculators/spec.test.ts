@@ -9,7 +9,18 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { choiceInput, defineCalculator, demoFilmHX1, InputError, isDocumentedResult, makeFilm, report, runCalculator, solveLeastSquares, type CalculatorSpec } from "@helicoid/lib/internal";
+import {
+  choiceInput,
+  defineCalculator,
+  demoFilmHX1,
+  InputError,
+  isDocumentedResult,
+  makeFilm,
+  report,
+  runCalculator,
+  solveLeastSquares,
+  type CalculatorSpec,
+} from "@helicoid/lib/internal";
 
 const here = join(__dirname, "typed");
 const tscBin = require.resolve("typescript/bin/tsc");
