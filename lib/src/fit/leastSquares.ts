@@ -25,9 +25,10 @@ import { InputError } from "../errors.js";
 import type { DocumentedResult } from "../result.js";
 import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
 import { pivotedQr, inverseNormalFromQr, symmetricEigen, choleskyLower } from "../numeric/denseLinalg.js";
-import { gramMatrix } from "./gramMatrix.js";
-import { studentTQuantile, normalQuantile } from "./distributions.js";
-import { seededRandom } from "./prng.js";
+import { gramMatrix } from "../numeric/gramMatrix.js";
+import { studentTQuantile, normalQuantile } from "../numeric/distributions.js";
+import { seededRandom } from "../numeric/prng.js";
+import { at, gather } from "../numeric/indexing.js";
 
 /** One parameter of a fit: start value, bounds, unit and whether it is held fixed. */
 export interface FitParameter {
@@ -198,7 +199,7 @@ function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: num
   const model = new Float64Array(m);
   const fullJac = problem.modelJacobian ? new Float64Array(m * nAll) : null;
   const setFull = (p: Float64Array) => {
-    for (let k = 0; k < freeIdx.length; k++) full[freeIdx[k]] = p[k];
+    for (let k = 0; k < freeIdx.length; k++) full[freeIdx[k]!] = p[k]!;
   };
   const lm: LmProblem = {
     n: freeIdx.length,
@@ -206,28 +207,28 @@ function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: num
     residuals(p, out) {
       setFull(p);
       problem.model(full, model);
-      if (sigma) for (let i = 0; i < m; i++) out[i] = (model[i] - y[i]) / sigma[i];
-      else for (let i = 0; i < m; i++) out[i] = model[i] - y[i];
+      if (sigma) for (let i = 0; i < m; i++) out[i] = (model[i]! - y[i]!) / sigma[i]!;
+      else for (let i = 0; i < m; i++) out[i] = model[i]! - y[i]!;
     },
-    lower: freeIdx.map((j) => lo[j]),
-    upper: freeIdx.map((j) => hi[j]),
-    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
+    lower: gather(lo, freeIdx, "lower bounds"),
+    upper: gather(hi, freeIdx, "upper bounds"),
+    typical: freeIdx.map((j) => typicalOf(problem.parameters[j]!)),
   };
   if (problem.modelJacobian && fullJac) {
     lm.jacobian = (p, out) => {
       setFull(p);
       problem.modelJacobian!(full, fullJac);
       for (let k = 0; k < freeIdx.length; k++) {
-        const src = freeIdx[k] * m;
+        const src = freeIdx[k]! * m;
         const dst = k * m;
-        if (sigma) for (let i = 0; i < m; i++) out[dst + i] = fullJac[src + i] / sigma[i];
+        if (sigma) for (let i = 0; i < m; i++) out[dst + i] = fullJac[src + i]! / sigma[i]!;
         else out.set(fullJac.subarray(src, src + m), dst);
       }
     };
   }
   const r = levenbergMarquardt(
     lm,
-    freeIdx.map((j) => base[j]),
+    gather(base, freeIdx, "start values"),
     options,
   );
   setFull(r.x);
@@ -253,8 +254,8 @@ function weightedJacobian(problem: LeastSquaresProblem, x: Float64Array, freeIdx
     const full = new Float64Array(m * nAll);
     problem.modelJacobian(x, full);
     for (let k = 0; k < freeIdx.length; k++) {
-      const src = freeIdx[k] * m;
-      for (let i = 0; i < m; i++) out[k * m + i] = full[src + i] / (sigma ? sigma[i] : 1);
+      const src = freeIdx[k]! * m;
+      for (let i = 0; i < m; i++) out[k * m + i] = full[src + i]! / (sigma ? sigma[i]! : 1);
     }
     return out;
   }
@@ -264,15 +265,15 @@ function weightedJacobian(problem: LeastSquaresProblem, x: Float64Array, freeIdx
     n: freeIdx.length,
     m,
     residuals(p, o) {
-      for (let k = 0; k < freeIdx.length; k++) base[freeIdx[k]] = p[k];
+      for (let k = 0; k < freeIdx.length; k++) base[freeIdx[k]!] = p[k]!;
       problem.model(base, model);
-      for (let i = 0; i < m; i++) o[i] = (model[i] - problem.y[i]) / (sigma ? sigma[i] : 1);
+      for (let i = 0; i < m; i++) o[i] = (model[i]! - problem.y[i]!) / (sigma ? sigma[i]! : 1);
     },
-    lower: freeIdx.map((j) => lo[j]),
-    upper: freeIdx.map((j) => hi[j]),
-    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
+    lower: gather(lo, freeIdx, "lower bounds"),
+    upper: gather(hi, freeIdx, "upper bounds"),
+    typical: freeIdx.map((j) => typicalOf(problem.parameters[j]!)),
   };
-  centralDifferenceJacobian(lmp, Float64Array.from(freeIdx.map((j) => x[j])), out);
+  centralDifferenceJacobian(lmp, Float64Array.from(gather(x, freeIdx, "fitted values")), out);
   return out;
 }
 
@@ -284,11 +285,11 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const k = free.length;
   if (k === 0) throw new InputError("parameters", params.map((p) => p.name).join(", "), "at least one free (not fixed) parameter");
   if (m <= k) {
-    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map((j) => params[j].name).join(", ")})`);
+    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map((j) => params[j]!.name).join(", ")})`);
   }
   if (problem.sigma) {
     for (let i = 0; i < m; i++) {
-      if (!(problem.sigma[i] > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
+      if (!(problem.sigma[i]! > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
     }
   }
   for (let i = 0; i < m; i++)
@@ -319,15 +320,15 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   {
     const r = core.residuals;
     const sg = problem.sigma;
-    if (sg) for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + sg[i] * r[i];
-    else for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + r[i];
+    if (sg) for (let i = 0; i < m; i++) fitted[i] = problem.y[i]! + sg[i]! * r[i]!;
+    else for (let i = 0; i < m; i++) fitted[i] = problem.y[i]! + r[i]!;
   }
   // log-likelihood
   let logL: number;
   let K: number;
   if (sigmaKnown) {
     let s = 0;
-    for (let i = 0; i < m; i++) s += Math.log(2 * Math.PI * problem.sigma![i] ** 2);
+    for (let i = 0; i < m; i++) s += Math.log(2 * Math.PI * problem.sigma![i]! ** 2);
     logL = -0.5 * (chi2 + s);
     K = k;
   } else {
@@ -337,9 +338,9 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const aic = -2 * logL + 2 * K;
   const bic = -2 * logL + K * Math.log(m);
   // covariance of the parameters not on a bound
-  const onBound = free.filter((j) => x[j] <= lo[j] || x[j] >= hi[j]);
+  const onBound = free.filter((j) => x[j]! <= lo[j]! || x[j]! >= hi[j]!);
   const inner = free.filter((j) => !onBound.includes(j));
-  for (const j of onBound) notes.push(`${params[j].name} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
+  for (const j of onBound) notes.push(`${params[j]!.name} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
   let status: FitStatus = core.status;
   let reason = core.reason;
   let message = core.message;
@@ -355,12 +356,12 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       const off = c * m;
       let s = 0;
       for (let i = 0; i < m; i++) {
-        const v = J[off + i];
+        const v = J[off + i]!;
         s += v * v;
       }
       norms[c] = Math.sqrt(s);
-      const inv = norms[c] > 0 ? 1 / norms[c] : 0;
-      for (let i = 0; i < m; i++) Jn[off + i] = J[off + i] * inv;
+      const inv = norms[c]! > 0 ? 1 / norms[c]! : 0;
+      for (let i = 0; i < m; i++) Jn[off + i] = J[off + i]! * inv;
     }
     const zeroCols = inner.filter((_, c) => norms[c] === 0);
     // fast path: Cholesky of the normalized Gram matrix when clearly well conditioned (its
@@ -369,32 +370,32 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     const qr = gram ? null : pivotedQr(Jn, m, nn, options.singularThreshold ?? 1e-10);
     if (gram) {
       cov = new Float64Array(nn * nn);
-      for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = gram[a + b * nn] / (norms[a] * norms[b]);
+      for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = gram[a + b * nn]! / (norms[a]! * norms[b]!);
     } else if (qr!.rank < nn || zeroCols.length > 0) {
       // name the parameters in the near-null space of the normalized J^T J
       const jtj = new Float64Array(nn * nn);
       for (let a = 0; a < nn; a++)
         for (let b = a; b < nn; b++) {
           let s = 0;
-          for (let i = 0; i < m; i++) s += Jn[a * m + i] * Jn[b * m + i];
+          for (let i = 0; i < m; i++) s += Jn[a * m + i]! * Jn[b * m + i]!;
           jtj[a + b * nn] = s;
           jtj[b + a * nn] = s;
         }
       const eig = symmetricEigen(jtj, nn);
-      const lmax = eig.values[nn - 1];
+      const lmax = eig.values[nn - 1]!;
       degenerate = [];
       for (let e = 0; e < nn; e++) {
-        if (eig.values[e] > (options.singularThreshold ?? 1e-10) * lmax && !(e === 0 && zeroCols.length > 0 && eig.values[e] === 0)) break;
+        if (eig.values[e]! > (options.singularThreshold ?? 1e-10) * lmax && !(e === 0 && zeroCols.length > 0 && eig.values[e] === 0)) break;
         const group: string[] = [];
-        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c + e * nn]) > 0.05) group.push(params[inner[c]].name);
+        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c + e * nn]!) > 0.05) group.push(params[inner[c]!]!.name);
         if (group.length > 0) degenerate.push(group);
       }
       if (degenerate.length === 0) {
         // rank-deficient for the factorization but no eigenvalue below the threshold: name the
         // parameters of the weakest direction (the eigenvector of the smallest eigenvalue)
         const weakest: string[] = [];
-        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c]) > 0.05) weakest.push(params[inner[c]].name);
-        degenerate.push(zeroCols.length > 0 ? zeroCols.map((j) => params[j].name) : weakest.length > 0 ? weakest : inner.map((j) => params[j].name));
+        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c]!) > 0.05) weakest.push(params[inner[c]!]!.name);
+        degenerate.push(zeroCols.length > 0 ? zeroCols.map((j) => params[j]!.name) : weakest.length > 0 ? weakest : inner.map((j) => params[j]!.name));
       }
       status = "singular";
       reason = "singular-jacobian";
@@ -410,7 +411,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       const inv = inverseNormalFromQr(qr!);
       if (inv) {
         cov = new Float64Array(nn * nn);
-        for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = inv[a + b * nn] / (norms[a] * norms[b]);
+        for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = inv[a + b * nn]! / (norms[a]! * norms[b]!);
       }
     }
   }
@@ -421,19 +422,19 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const parameters: Record<string, ParameterResult> = {};
   params.forEach((p, j) => {
     const c = inner.indexOf(j);
-    const varU = cov && c >= 0 ? cov[c + c * nn] : null;
+    const varU = cov && c >= 0 ? cov[c + c * nn]! : null;
     const seU = varU !== null ? Math.sqrt(varU) : null;
     const seS = seU !== null ? seU * Math.sqrt(red) : null;
     const se = seU !== null ? seU * Math.sqrt(scale) : null;
     parameters[p.name] = {
-      value: x[j],
+      value: at(x, j, "fitted values"),
       stderr: se,
       stderrScaled: seS,
       stderrUnscaled: sigmaKnown ? seU : null,
       unit: p.unit ?? "",
       fixed: !!p.fixed,
       atBound: onBound.includes(j),
-      interval: se !== null ? [x[j] - q * se, x[j] + q * se] : null,
+      interval: se !== null ? [x[j]! - q * se, x[j]! + q * se] : null,
     };
     clipInterval(p, parameters[p.name]!, confidence, notes);
   });
@@ -446,8 +447,8 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       const row: number[] = [];
       const crow: number[] = [];
       for (let b = 0; b < nn; b++) {
-        row.push(cov[a + b * nn] * scale);
-        crow.push(cov[a + b * nn] / Math.sqrt(cov[a + a * nn] * cov[b + b * nn]));
+        row.push(cov[a + b * nn]! * scale);
+        crow.push(cov[a + b * nn]! / Math.sqrt(cov[a + a * nn]! * cov[b + b * nn]!));
       }
       covariance.push(row);
       correlation.push(crow);
@@ -458,10 +459,10 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     // anticorrelated or correlated); fixing one from other knowledge is the usual cure.
     for (let a = 0; a < nn; a++) {
       for (let b = a + 1; b < nn; b++) {
-        const r = correlation[a][b];
+        const r = correlation[a]![b]!;
         if (Math.abs(r) > 0.99)
           notes.push(
-            `${params[inner[a]].name} and ${params[inner[b]].name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
+            `${params[inner[a]!]!.name} and ${params[inner[b]!]!.name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
           );
       }
     }
@@ -470,14 +471,14 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
   }
   const res = new Float64Array(m);
-  for (let i = 0; i < m; i++) res[i] = problem.y[i] - fitted[i];
+  for (let i = 0; i < m; i++) res[i] = problem.y[i]! - fitted[i]!;
   const residuals = Array.from(res); // typed -> plain array: V8's fast path (no map callback)
   const result: FitResult = {
     status,
     reason,
     message,
     parameters,
-    freeNames: inner.map((j) => params[j].name),
+    freeNames: inner.map((j) => params[j]!.name),
     covariance,
     correlation,
     chiSquare: chi2,
@@ -501,11 +502,11 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     assumptions: ASSUMPTIONS,
   };
   if (options.profile && (status === "converged" || status === "singular")) {
-    const names = options.profile === true ? inner.map((j) => params[j].name) : options.profile;
+    const names = options.profile === true ? inner.map((j) => params[j]!.name) : options.profile;
     for (const name of names) {
       const j = params.findIndex((p) => p.name === name);
-      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map((i) => params[i].name).join(", ")}`);
-      parameters[name].profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, parameters[name].stderr, options, notes);
+      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map((i) => params[i]!.name).join(", ")}`);
+      parameters[name]!.profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, parameters[name]!.stderr, options, notes);
     }
   }
   if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
@@ -525,13 +526,13 @@ function gramInverse(a: Float64Array, m: number, n: number): Float64Array | null
   for (let c = 0; c < n; c++) {
     for (let i = 0; i < n; i++) {
       let s = i === c ? 1 : 0;
-      for (let k = 0; k < i; k++) s -= L[i + k * n] * y[k];
-      y[i] = s / L[i + i * n];
+      for (let k = 0; k < i; k++) s -= L[i + k * n]! * y[k]!;
+      y[i] = s / L[i + i * n]!;
     }
     for (let i = n - 1; i >= 0; i--) {
-      let s = y[i];
-      for (let k = i + 1; k < n; k++) s -= L[k + i * n] * inv[k + c * n];
-      inv[i + c * n] = s / L[i + i * n];
+      let s = y[i]!;
+      for (let k = i + 1; k < n; k++) s -= L[k + i * n]! * inv[k + c * n]!;
+      inv[i + c * n] = s / L[i + i * n]!;
     }
   }
   return inv;
@@ -560,7 +561,7 @@ function profileInterval(
   // threshold), never from an outer point: a refit outside can end where the model is undefined
   // for the next, inner trial value (e.g. no metastable texture there), which would stop the
   // search at the estimate itself.
-  let inside = Float64Array.from(xhat);
+  let inside: Float64Array = Float64Array.from(xhat);
   const chiAt = (v: number): { chi: number; x: Float64Array } => {
     const base = Float64Array.from(inside);
     base[j] = v;
@@ -568,23 +569,23 @@ function profileInterval(
       const f = new Float64Array(problem.m);
       problem.model(base, f);
       let s = 0;
-      for (let i = 0; i < problem.m; i++) s += ((f[i] - problem.y[i]) / (problem.sigma ? problem.sigma[i] : 1)) ** 2;
+      for (let i = 0; i < problem.m; i++) s += ((f[i]! - problem.y[i]!) / (problem.sigma ? problem.sigma[i]! : 1)) ** 2;
       return { chi: s, x: base };
     }
     const r = minimize(problem, base, others, lo, hi, lmOpts);
     return { chi: r.chiSquare, x: r.x };
   };
-  const step0 = se && se > 0 ? se * q : Math.max(Math.abs(xhat[j]) * 1e-2, 1e-12);
-  const name = problem.parameters[j].name;
+  const step0 = se && se > 0 ? se * q : Math.max(Math.abs(xhat[j]!) * 1e-2, 1e-12);
+  const name = problem.parameters[j]!.name;
   const side = (dir: number): number => {
     inside = Float64Array.from(xhat);
-    let a = xhat[j];
+    let a = xhat[j]!;
     let step = step0;
     let b = a + dir * step;
     let fb = Number.NaN;
     for (let it = 0; it < 40; it++) {
-      if (dir > 0 && b >= hi[j]) b = hi[j];
-      if (dir < 0 && b <= lo[j]) b = lo[j];
+      if (dir > 0 && b >= hi[j]!) b = hi[j]!;
+      if (dir < 0 && b <= lo[j]!) b = lo[j]!;
       const r = chiAt(b);
       fb = r.chi;
       if (!(fb < threshold)) break;
@@ -654,8 +655,8 @@ function bootstrap(
     const y = new Float64Array(m);
     const sg = problem.sigma ? new Float64Array(m) : null;
     for (let i = 0; i < m; i++) {
-      y[i] = problem.y[idx[i]];
-      if (sg) sg[i] = problem.sigma![idx[i]];
+      y[i] = problem.y[idx[i]!]!;
+      if (sg) sg[i] = problem.sigma![idx[i]!]!;
     }
     const sub: LeastSquaresProblem = {
       parameters: problem.parameters,
@@ -664,7 +665,7 @@ function bootstrap(
       sigma: sg,
       model(p, out) {
         problem.model(p, fullModel);
-        for (let i = 0; i < m; i++) out[i] = fullModel[idx[i]];
+        for (let i = 0; i < m; i++) out[i] = fullModel[idx[i]!]!;
       },
     };
     if (problem.modelJacobian) {
@@ -672,7 +673,7 @@ function bootstrap(
       const fj = new Float64Array(m * nAll);
       sub.modelJacobian = (p, out) => {
         problem.modelJacobian!(p, fj);
-        for (let c = 0; c < nAll; c++) for (let i = 0; i < m; i++) out[c * m + i] = fj[c * m + idx[i]];
+        for (let c = 0; c < nAll; c++) for (let i = 0; i < m; i++) out[c * m + i] = fj[c * m + idx[i]!]!;
       };
     }
     const r = minimize(sub, xhat, free, lo, hi, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10 });
@@ -680,22 +681,22 @@ function bootstrap(
       failed++;
       continue;
     }
-    free.forEach((j, c) => draws[c].push(r.x[j]));
+    free.forEach((j, c) => draws[c]!.push(r.x[j]!));
   }
   if (failed > 0) notes.push(`${failed} bootstrap refits did not converge and were left out`);
   free.forEach((j, c) => {
-    const d = draws[c].slice().sort((a, b) => a - b);
+    const d = draws[c]!.slice().sort((a, b) => a - b);
     if (d.length < 2) return;
     const mean = d.reduce((s, v) => s + v, 0) / d.length;
     const sd = Math.sqrt(d.reduce((s, v) => s + (v - mean) ** 2, 0) / (d.length - 1));
     const pick = (p: number) => {
       const h = (d.length - 1) * p;
       const l = Math.floor(h);
-      return d[l] + (h - l) * ((d[Math.min(l + 1, d.length - 1)] ?? d[l]) - d[l]);
+      return d[l]! + (h - l) * ((d[Math.min(l + 1, d.length - 1)] ?? d[l]!) - d[l]!);
     };
-    const name = problem.parameters[j].name;
-    parameters[name].bootstrapStderr = sd;
-    parameters[name].bootstrapInterval = [pick((1 - confidence) / 2), pick((1 + confidence) / 2)];
+    const name = problem.parameters[j]!.name;
+    parameters[name]!.bootstrapStderr = sd;
+    parameters[name]!.bootstrapInterval = [pick((1 - confidence) / 2), pick((1 + confidence) / 2)];
   });
 }
 

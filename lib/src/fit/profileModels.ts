@@ -10,10 +10,11 @@
 import type { FitParameter } from "./leastSquares.js";
 import { InputError } from "../errors.js";
 import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from "./wallProfiles.js";
-import { erfc as erfcLocal } from "./distributions.js";
+import { erfc as erfcLocal } from "../numeric/distributions.js";
 import { gridFor, interpolateGrid, blurOnGrid, spectrumToPoints, type UniformGrid } from "./strayField.js";
 import { fft } from "../numeric/fft.js";
 import { mu0 } from "../quantity/constants.js";
+import { at, float64Arrays } from "../numeric/indexing.js";
 
 export interface BoundModel {
   model(p: Float64Array, out: Float64Array): void;
@@ -112,7 +113,11 @@ const P = {
 function idx(params: FitParameter[]) {
   const m = new Map<string, number>();
   params.forEach((p, i) => m.set(p.name, i));
-  return (name: string) => m.get(name)!;
+  return (name: string) => {
+    const i = m.get(name);
+    if (i === undefined) throw new RangeError(`no parameter ${name} (parameters: ${params.map((p) => p.name).join(", ")})`);
+    return i;
+  };
 }
 
 /** offset + contrast * m_z of a 180-degree wall (analytic Jacobian). */
@@ -128,15 +133,15 @@ const wall180Mz: ProfileModel = {
     const m = x.length;
     return {
       model(p, out) {
-        for (let i = 0; i < m; i++) out[i] = p[2] + p[3] * -Math.tanh((x[i] - p[0]) / p[1]);
+        for (let i = 0; i < m; i++) out[i] = p[2]! + p[3]! * -Math.tanh((x[i]! - p[0]!) / p[1]!);
       },
       jacobian(p, out) {
         for (let i = 0; i < m; i++) {
-          const u = (x[i] - p[0]) / p[1];
+          const u = (x[i]! - p[0]!) / p[1]!;
           const th = Math.tanh(u);
           const s2 = 1 - th * th;
-          out[i] = (p[3] * s2) / p[1];
-          out[m + i] = (p[3] * s2 * u) / p[1];
+          out[i] = (p[3]! * s2) / p[1]!;
+          out[m + i] = (p[3]! * s2 * u) / p[1]!;
           out[2 * m + i] = 1;
           out[3 * m + i] = -th;
         }
@@ -159,12 +164,12 @@ const wall180Tilted: ProfileModel = {
     const m = x.length;
     return {
       model(p, out) {
-        const ct = Math.cos(p[3]);
-        const st = Math.sin(p[3]);
-        const cg = Math.cos(p[2]);
+        const ct = Math.cos(p[3]!);
+        const st = Math.sin(p[3]!);
+        const cg = Math.cos(p[2]!);
         for (let i = 0; i < m; i++) {
-          const u = (x[i] - p[0]) / p[1];
-          out[i] = p[4] + p[5] * (ct * -Math.tanh(u) + st * (-cg / Math.cosh(u)));
+          const u = (x[i]! - p[0]!) / p[1]!;
+          out[i] = p[4]! + p[5]! * (ct * -Math.tanh(u) + st * (-cg / Math.cosh(u)));
         }
       },
     };
@@ -172,8 +177,8 @@ const wall180Tilted: ProfileModel = {
 };
 
 function w360Signal(x: Float64Array, p: Float64Array, out: Float64Array) {
-  wall360MzValues(x, p[0], p[1], p[2], out);
-  for (let i = 0; i < x.length; i++) out[i] = p[3] + p[4] * out[i];
+  wall360MzValues(x, p[0]!, p[1]!, p[2]!, out);
+  for (let i = 0; i < x.length; i++) out[i] = p[3]! + p[4]! * out[i]!;
 }
 
 /** offset + contrast * m_z of a 360-degree wall / skyrmion cut (analytic Jacobian). */
@@ -195,23 +200,23 @@ const wall360Mz: ProfileModel = {
     const expsFor = (x0: number, w: number) => {
       if (x0 === keyX0 && w === keyW) return;
       const iw = 1 / w;
-      for (let i = 0; i < m; i++) E[i] = Math.exp(Math.abs(x[i] - x0) * iw);
+      for (let i = 0; i < m; i++) E[i] = Math.exp(Math.abs(x[i]! - x0) * iw);
       keyX0 = x0;
       keyW = w;
     };
     return {
       model(p, out) {
-        if (p[1] / p[2] > 300) {
+        if (p[1]! / p[2]! > 300) {
           w360Signal(x, p, out);
           return;
         }
-        expsFor(p[0], p[2]);
-        const sb = Math.sinh(p[1] / p[2]);
+        expsFor(p[0]!, p[2]!);
+        const sb = Math.sinh(p[1]! / p[2]!);
         const sb2 = sb * sb;
-        const off = p[3];
-        const c = p[4];
+        const off = p[3]!;
+        const c = p[4]!;
         for (let i = 0; i < m; i++) {
-          const e = E[i];
+          const e = E[i]!;
           if (e > 1e130) {
             out[i] = off + c;
             continue;
@@ -222,14 +227,14 @@ const wall360Mz: ProfileModel = {
         }
       },
       jacobian(p, out) {
-        const x0 = p[0];
-        const R = p[1];
-        const w = p[2];
-        const c = p[4];
+        const x0 = p[0]!;
+        const R = p[1]!;
+        const w = p[2]!;
+        const c = p[4]!;
         if (R / w > 300) {
           const mz = out.subarray(4 * m, 5 * m);
           wall360MzDerivatives(x, x0, R, w, mz, out.subarray(0, 3 * m));
-          for (let i = 0; i < 3 * m; i++) out[i] *= c;
+          for (let i = 0; i < 3 * m; i++) out[i]! *= c;
           out.fill(1, 3 * m, 4 * m);
           return;
         }
@@ -242,7 +247,7 @@ const wall360Mz: ProfileModel = {
         const iw = 1 / w;
         const ciw = c * iw;
         for (let i = 0; i < m; i++) {
-          const e = E[i];
+          const e = E[i]!;
           if (e > 1e130) {
             out[i] = 0;
             out[m + i] = 0;
@@ -256,7 +261,7 @@ const wall360Mz: ProfileModel = {
           const v = (sa2 - sb2) / (sa2 + sb2);
           out[4 * m + i] = v;
           const s2 = 1 - v * v;
-          const u = x[i] - x0;
+          const u = x[i]! - x0;
           if (u !== 0) {
             const ca = (e + ie) / (e - ie);
             const a = Math.abs(u) * iw;
@@ -285,12 +290,12 @@ const wall360Tilted: ProfileModel = {
   bind(x) {
     return {
       model(p, out) {
-        const ct = Math.cos(p[4]);
-        const st = Math.sin(p[4]);
-        const cg = Math.cos(p[3]);
+        const ct = Math.cos(p[4]!);
+        const st = Math.sin(p[4]!);
+        const cg = Math.cos(p[3]!);
         for (let i = 0; i < x.length; i++) {
-          const q = wall360Point(x[i], p[0], p[1], p[2]);
-          out[i] = p[5] + p[6] * (ct * q.mz + st * cg * q.signedSin);
+          const q = wall360Point(x[i]!, p[0]!, p[1]!, p[2]!);
+          out[i] = p[5]! + p[6]! * (ct * q.mz + st * cg * q.signedSin);
         }
       },
     };
@@ -347,21 +352,23 @@ function strayModel(kind: Kind, component: "bz" | "bx"): ProfileModel {
     ],
     sources: [...(kind === "180" ? WALL_SOURCES : W360_SOURCES), ...STRAY_SOURCES],
     bind(x, start) {
-      const widths = kind === "180" ? [start[ix("Delta")]] : [start[ix("w")], start[ix("R")]];
-      const blur0 = start[ix("blur")];
-      const h0 = start[ix("h")];
+      const sv = (name: string) => at(start, ix(name), "start");
+      const widths = kind === "180" ? [sv("Delta")] : [sv("w"), sv("R")];
+      const blur0 = sv("blur");
+      const h0 = sv("h");
+      const width0 = at(widths, 0, "widths");
       // The kernel e^{-|k| h} cut at the grid's Nyquist wavenumber pi/dx leaves a relative error of
       // about e^{-pi h/dx}: dx <= h/6 (the length h/2 below, resolved by thirds) puts it near 7e-9.
       // With dx = h/3 a sensor closer than the wall width erred by 3e-6 of the peak. The periodic box is
       // padded by 160 wall widths: a wall much wider than h (12 nm at h = 2 nm) erred by 3e-6 with 80.
       const grid = bindGrid(
         x,
-        [...widths, h0 > 0 ? h0 / 2 : widths[0], blur0 > 0 ? blur0 : Infinity],
-        [200 * (h0 + start[ix("t")]), 160 * Math.max(...widths), 6 * blur0, kind === "360" ? 60 * start[ix("R")] : 0],
+        [...widths, h0 > 0 ? h0 / 2 : width0, blur0 > 0 ? blur0 : Infinity],
+        [200 * (h0 + sv("t")), 160 * Math.max(...widths), 6 * blur0, kind === "360" ? 60 * sv("R") : 0],
       );
       // zero-mode reference: centred at the start position, 2 start widths wide (its spectrum e^{-|k| a}
       // must vanish well before the grid's Nyquist wavenumber 3 pi / width)
-      return strayBound(kind, component, grid, x, ix, start[0]!, 2 * Math.min(...widths.filter((v) => v > 0)));
+      return strayBound(kind, component, grid, x, ix, sv("x0"), 2 * Math.min(...widths.filter((v) => v > 0)));
     },
   };
 }
@@ -403,9 +410,9 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
    * its derivatives in h and t; scaled by mu0 Ms / (2 pi).
    */
   function zeroModeField(xs: ArrayLike<number>, p: Float64Array, which: "z" | "x", val: Float64Array, dh: Float64Array | null, dt: Float64Array | null) {
-    const h = p[iH],
-      t = p[iT],
-      c = (mu0 * p[iMs]) / (2 * Math.PI);
+    const h = p[iH]!,
+      t = p[iT]!,
+      c = (mu0 * p[iMs]!) / (2 * Math.PI);
     // P(u, H) = H / (u^2 + H^2), Qk(u, H) = u / (u^2 + H^2) and their H-derivatives
     const P = (u: number, H: number) => H / (u * u + H * H);
     const Qk = (u: number, H: number) => u / (u * u + H * H);
@@ -461,8 +468,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   // work arrays
   const mzL = new Float64Array(n);
   const mx1 = new Float64Array(n); // m_x / neel
-  const dmz = Array.from({ length: nShape }, () => new Float64Array(n));
-  const dmx1 = Array.from({ length: nShape }, () => new Float64Array(n));
+  const dmz = float64Arrays(3, n); // first nShape used
+  const dmx1 = float64Arrays(3, n);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   const K = new Float64Array(n);
@@ -479,23 +486,23 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   const stepAt = new Float64Array(m);
   const scratch = new Float64Array(m);
   // scratch grid (W) and data-point (Wm) arrays, allocated once per bind
-  const W = Array.from({ length: 14 }, () => new Float64Array(n));
+  const W = float64Arrays(14, n);
   const WD = new Float64Array(n),
     SDr = new Float64Array(n),
     SDi = new Float64Array(n);
   const fineRe = new Float64Array(UPSAMPLE * n),
     fineIm = new Float64Array(UPSAMPLE * n);
-  const Wm = Array.from({ length: 4 }, () => new Float64Array(m));
-  const [Zz, Zzh, Zzt, Zx, Zxh, Zxt] = Array.from({ length: 6 }, () => new Float64Array(m));
-  const [ZG, ZGh, ZGt, Fr, Fi, Fhr, Fhi, Ftr, Fti] = Array.from({ length: 9 }, () => new Float64Array(n));
+  const Wm = float64Arrays(4, m);
+  const [Zz, Zzh, Zzt, Zx, Zxh, Zxt] = float64Arrays(6, m);
+  const [ZG, ZGh, ZGt, Fr, Fi, Fhr, Fhi, Ftr, Fti] = float64Arrays(9, n);
 
   /** Fill the grid fields (and their shape derivatives when d is true). */
   function gridFields(p: Float64Array, d: boolean) {
-    const x0 = p[0];
+    const x0 = p[0]!;
     if (is180) {
-      const Delta = p[1];
+      const Delta = p[1]!;
       for (let g = 0; g < n; g++) {
-        const u = (gx[g] - x0) / Delta;
+        const u = (gx[g]! - x0) / Delta;
         const th = Math.tanh(u);
         const sech = 1 / Math.cosh(u);
         // remove the reference sum_i c_i (-(2/pi) atan(u / i)) (see REF_C): the remainder decays as u^-5
@@ -520,13 +527,13 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       }
     } else {
       for (let g = 0; g < n; g++) {
-        const q = wall360Point(gx[g], x0, p[1], p[2]);
+        const q = wall360Point(gx[g]!, x0, p[1]!, p[2]!);
         mzL[g] = q.mz - 1;
         mx1[g] = q.signedSin;
         if (d) {
           // s = sign(u) sech L with dm_z = -sech^2 L dL: ds = sign(u) tanh(L) dm_z / sech(L), tanh L = -m_z
           const sech = Math.abs(q.signedSin);
-          const f = sech > 1e-150 ? (Math.sign(gx[g] - x0) * -q.mz) / sech : 0;
+          const f = sech > 1e-150 ? (Math.sign(gx[g]! - x0) * -q.mz) / sech : 0;
           dmz[0][g] = q.dx0;
           dmz[1][g] = q.dR;
           dmz[2][g] = q.dw;
@@ -571,13 +578,13 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
 
   /** Kernels K, G and dK/dt / K-free factor for the current p. */
   function kernels(p: Float64Array) {
-    const pref = (mu0 * p[iMs]) / 2;
-    const h = p[iH];
-    const t = p[iT];
-    const s = p[iBlur];
+    const pref = (mu0 * p[iMs]!) / 2;
+    const h = p[iH]!;
+    const t = p[iT]!;
+    const s = p[iBlur]!;
     for (let j = 0; j < n; j++) {
-      const a = ak[j];
-      const g = s > 0 ? Math.exp(-0.5 * kk[j] * kk[j] * s * s) : 1;
+      const a = ak[j]!;
+      const g = s > 0 ? Math.exp(-0.5 * kk[j]! * kk[j]! * s * s) : 1;
       const eh = Math.exp(-a * h);
       G[j] = g;
       K[j] = pref * eh * -Math.expm1(-a * t) * g;
@@ -593,10 +600,10 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     fft(re, im);
     for (let j = 0; j < n; j++) {
       const jm = j === 0 ? 0 : n - j;
-      const a = re[j],
-        b = im[j],
-        c = re[jm],
-        e = im[jm];
+      const a = re[j]!,
+        b = im[j]!,
+        c = re[jm]!,
+        e = im[jm]!;
       ur[j] = 0.5 * (a + c);
       ui[j] = 0.5 * (b - e);
       if (vr && vi) {
@@ -620,11 +627,11 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     dt: Float64Array | null,
     dD: Float64Array | null = null,
   ) {
-    const x0 = p[0];
-    const t = p[iT];
-    const Ms = p[iMs];
+    const x0 = p[0]!;
+    const t = p[iT]!;
+    const Ms = p[iMs]!;
     for (let i = 0; i < xs.length; i++) {
-      const u = xs[i] - x0;
+      const u = xs[i]! - x0;
       let v = 0,
         vu = 0,
         vH = 0,
@@ -632,7 +639,7 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
         vD = 0;
       for (let r = 0; r < REF_C.length; r++) {
         const cr = REF_C[r]!;
-        const H = p[iH] + (r + 1) * p[1];
+        const H = p[iH]! + (r + 1) * p[1]!;
         const Ht = H + t;
         const a2 = Ht * Ht + u * u;
         const b2 = H * H + u * u;
@@ -671,8 +678,8 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
   const colI = Array.from({ length: nPar }, () => new Float64Array(n));
 
   function evaluate(p: Float64Array, out: Float64Array, jac: Float64Array | null) {
-    const blur = p[iBlur];
-    const cg = p[iNeel];
+    const blur = p[iBlur]!;
+    const cg = p[iNeel]!;
     const stepInFft = is180 && blur > 0;
     gridFields(p, jac !== null);
     const zeroModes = true;
@@ -686,21 +693,21 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       fftPair(W[0], null, Sr, Si, null, null);
     }
     // base output spectrum O = C (K L + G S), L = A - i sg cg B
-    const Or = colR[iOff],
-      Oi = colI[iOff]; // reuse the offset slot for the base
+    const Or = colR[iOff]!,
+      Oi = colI[iOff]!; // reuse the offset slot for the base
     for (let j = 0; j < n; j++) {
-      const lr = Ar[j] + sg[j] * cg * Bi[j];
-      const li = Ai[j] - sg[j] * cg * Br[j];
-      let r = K[j] * lr;
-      let i = K[j] * li;
+      const lr = Ar[j]! + sg[j]! * cg * Bi[j]!;
+      const li = Ai[j]! - sg[j]! * cg * Br[j]!;
+      let r = K[j]! * lr;
+      let i = K[j]! * li;
       if (comp) {
         const t = r;
-        r = sg[j] * i;
-        i = -sg[j] * t;
+        r = sg[j]! * i;
+        i = -sg[j]! * t;
       }
       if (stepInFft) {
-        r += G[j] * Sr[j];
-        i += G[j] * Si[j];
+        r += G[j]! * Sr[j]!;
+        i += G[j]! * Si[j]!;
       }
       Or[j] = r;
       Oi[j] = i;
@@ -714,20 +721,20 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       fftPair(ZG, jac ? ZGh : null, Fr, Fi, jac ? Fhr : null, jac ? Fhi : null);
       if (jac) fftPair(ZGt, null, Ftr, Fti, null, null);
       for (let j = 0; j < n; j++) {
-        const g1 = G[j] - 1;
-        Or[j] += Qeff * g1 * Fr[j]!;
-        Oi[j] += Qeff * g1 * Fi[j]!;
+        const g1 = G[j]! - 1;
+        Or[j]! += Qeff * g1 * Fr[j]!;
+        Oi[j]! += Qeff * g1 * Fi[j]!;
       }
     }
     // base values
     spectrumToPoints(grid, Or, Oi, x, gridOut, null, UPSAMPLE, fineRe, fineIm);
-    const off = p[iOff];
+    const off = p[iOff]!;
     if (is180 && !stepInFft) stepValues(x, p, stepAt, null, null, null);
-    for (let i = 0; i < m; i++) out[i] = gridOut[i] + off + (is180 && !stepInFft ? stepAt[i] : 0);
+    for (let i = 0; i < m; i++) out[i] = gridOut[i]! + off + (is180 && !stepInFft ? stepAt[i]! : 0);
     if (zeroModes) {
       zeroModeField(x, p, "z", Zz, jac ? Zzh : null, jac ? Zzt : null);
       zeroModeField(x, p, "x", Zx, jac ? Zxh : null, jac ? Zxt : null);
-      for (let i = 0; i < m; i++) out[i] += Qz * Zz[i]! + cg * Qx * Zx[i]!;
+      for (let i = 0; i < m; i++) out[i]! += Qz * Zz[i]! + cg * Qx * Zx[i]!;
     }
     if (!jac) return;
 
@@ -735,17 +742,17 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     const cols: number[] = [];
     const setLocal = (c: number, dr: Float64Array, di: Float64Array, er: Float64Array, ei: Float64Array, scale: number) => {
       // column spectrum C K (dA - i sg cg dB) * scale, dA = (dr, di), dB = (er, ei)
-      const R = colR[c],
-        I = colI[c];
+      const R = colR[c]!,
+        I = colI[c]!;
       for (let j = 0; j < n; j++) {
-        const lr = dr[j] + sg[j] * cg * ei[j];
-        const li = di[j] - sg[j] * cg * er[j];
-        let r = K[j] * lr * scale;
-        let i = K[j] * li * scale;
+        const lr = dr[j]! + sg[j]! * cg * ei[j]!;
+        const li = di[j]! - sg[j]! * cg * er[j]!;
+        let r = K[j]! * lr * scale;
+        let i = K[j]! * li * scale;
         if (comp) {
           const t = r;
-          r = sg[j] * i;
-          i = -sg[j] * t;
+          r = sg[j]! * i;
+          i = -sg[j]! * t;
         }
         R[j] = r;
         I[j] = i;
@@ -754,7 +761,7 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     };
     const [tr, ti, ur, ui] = [W[4], W[5], W[6], W[7]];
     for (let s = 0; s < nShape; s++) {
-      fftPair(dmz[s], dmx1[s], tr, ti, ur, ui);
+      fftPair(dmz[s]!, dmx1[s]!, tr, ti, ur, ui);
       setLocal(s, tr, ti, ur, ui, 1);
     }
     // step derivatives (blurred 180 wall): d/dx0 = -d/du, d/dDelta and d/dh through H, d/dt
@@ -769,23 +776,23 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
       fftPair(W[1], W[2], SdR, SdI, SHr, SHi);
       fftPair(W[3], WD, Str, Sti, SDr, SDi);
       for (let j = 0; j < n; j++) {
-        colR[0][j] -= G[j] * SdR[j];
-        colI[0][j] -= G[j] * SdI[j];
-        colR[1][j] += G[j] * SDr[j];
-        colI[1][j] += G[j] * SDi[j];
+        colR[0]![j]! -= G[j]! * SdR[j]!;
+        colI[0]![j]! -= G[j]! * SdI[j]!;
+        colR[1]![j]! += G[j]! * SDr[j]!;
+        colI[1]![j]! += G[j]! * SDi[j]!;
       }
     }
     // neel: C K (-i sg B)
     {
-      const R = colR[iNeel],
-        I = colI[iNeel];
+      const R = colR[iNeel]!,
+        I = colI[iNeel]!;
       for (let j = 0; j < n; j++) {
-        let r = K[j] * sg[j] * Bi[j];
-        let i = -K[j] * sg[j] * Br[j];
+        let r = K[j]! * sg[j]! * Bi[j]!;
+        let i = -K[j]! * sg[j]! * Br[j]!;
         if (comp) {
           const t = r;
-          r = sg[j] * i;
-          i = -sg[j] * t;
+          r = sg[j]! * i;
+          i = -sg[j]! * t;
         }
         R[j] = r;
         I[j] = i;
@@ -794,30 +801,30 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     }
     // h, t: dK/dh = -|k| K, dK/dt = Kt; the step through H (h) and t
     {
-      const Rh = colR[iH],
-        Ih = colI[iH],
-        Rt = colR[iT],
-        It = colI[iT];
+      const Rh = colR[iH]!,
+        Ih = colI[iH]!,
+        Rt = colR[iT]!,
+        It = colI[iT]!;
       for (let j = 0; j < n; j++) {
-        const lr = Ar[j] + sg[j] * cg * Bi[j];
-        const li = Ai[j] - sg[j] * cg * Br[j];
-        let rh = -ak[j] * K[j] * lr;
-        let ih = -ak[j] * K[j] * li;
-        let rt = Kt[j] * lr;
-        let it = Kt[j] * li;
+        const lr = Ar[j]! + sg[j]! * cg * Bi[j]!;
+        const li = Ai[j]! - sg[j]! * cg * Br[j]!;
+        let rh = -ak[j]! * K[j]! * lr;
+        let ih = -ak[j]! * K[j]! * li;
+        let rt = Kt[j]! * lr;
+        let it = Kt[j]! * li;
         if (comp) {
           let t = rh;
-          rh = sg[j] * ih;
-          ih = -sg[j] * t;
+          rh = sg[j]! * ih;
+          ih = -sg[j]! * t;
           t = rt;
-          rt = sg[j] * it;
-          it = -sg[j] * t;
+          rt = sg[j]! * it;
+          it = -sg[j]! * t;
         }
         if (stepInFft) {
-          rh += G[j] * SHr![j];
-          ih += G[j] * SHi![j];
-          rt += G[j] * Str![j];
-          it += G[j] * Sti![j];
+          rh += G[j]! * SHr![j]!;
+          ih += G[j]! * SHi![j]!;
+          rt += G[j]! * Str![j]!;
+          it += G[j]! * Sti![j]!;
         }
         Rh[j] = rh;
         Ih[j] = ih;
@@ -828,38 +835,38 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     }
     // Ms: O / Ms; blur: -k^2 s O
     {
-      const Ms = p[iMs];
-      const Rm = colR[iMs],
-        Im = colI[iMs],
-        Rb = colR[iBlur],
-        Ib = colI[iBlur];
+      const Ms = p[iMs]!;
+      const Rm = colR[iMs]!,
+        Im = colI[iMs]!,
+        Rb = colR[iBlur]!,
+        Ib = colI[iBlur]!;
       for (let j = 0; j < n; j++) {
-        Rm[j] = Or[j] / Ms;
-        Im[j] = Oi[j] / Ms;
-        const f = -kk[j] * kk[j] * blur;
+        Rm[j] = Or[j]! / Ms;
+        Im[j] = Oi[j]! / Ms;
+        const f = -kk[j]! * kk[j]! * blur;
         // d/ds of Q (G - 1) F is f Q G F; f Or holds f Q (G - 1) F of it, so add f Q F
-        Rb[j] = f * Or[j] + (blurred ? f * Qeff * Fr[j]! : 0);
-        Ib[j] = f * Oi[j] + (blurred ? f * Qeff * Fi[j]! : 0);
+        Rb[j] = f * Or[j]! + (blurred ? f * Qeff * Fr[j]! : 0);
+        Ib[j] = f * Oi[j]! + (blurred ? f * Qeff * Fi[j]! : 0);
       }
       cols.push(iMs, iBlur);
     }
     if (blurred) {
       // the blurred net-charge field's derivatives: shape (dQ), neel (m_x charge), h and t
       for (let j = 0; j < n; j++) {
-        const g1 = G[j] - 1;
+        const g1 = G[j]! - 1;
         for (let s2 = 0; s2 < nShape; s2++) {
           const dq = component === "bz" ? dQz[s2]! : cg * dQx[s2]!;
-          colR[s2][j] += dq * g1 * Fr[j]!;
-          colI[s2][j] += dq * g1 * Fi[j]!;
+          colR[s2]![j]! += dq * g1 * Fr[j]!;
+          colI[s2]![j]! += dq * g1 * Fi[j]!;
         }
         if (component === "bx") {
-          colR[iNeel][j] += Qx * g1 * Fr[j]!;
-          colI[iNeel][j] += Qx * g1 * Fi[j]!;
+          colR[iNeel]![j]! += Qx * g1 * Fr[j]!;
+          colI[iNeel]![j]! += Qx * g1 * Fi[j]!;
         }
-        colR[iH][j] += Qeff * g1 * Fhr[j]!;
-        colI[iH][j] += Qeff * g1 * Fhi[j]!;
-        colR[iT][j] += Qeff * g1 * Ftr[j]!;
-        colI[iT][j] += Qeff * g1 * Fti[j]!;
+        colR[iH]![j]! += Qeff * g1 * Fhr[j]!;
+        colI[iH]![j]! += Qeff * g1 * Fhi[j]!;
+        colR[iT]![j]! += Qeff * g1 * Ftr[j]!;
+        colI[iT]![j]! += Qeff * g1 * Fti[j]!;
       }
     }
     // invert two columns per complex transform (both spectra are Hermitian); each is scaled to
@@ -867,50 +874,50 @@ function strayBound(kind: Kind, component: "bz" | "bx", grid: UniformGrid, x: Fl
     // would swamp the smaller
     const peakOf = (c: number) => {
       let v = 0;
-      const R = colR[c],
-        I = colI[c];
-      for (let j = 0; j < n; j++) v = Math.max(v, Math.abs(R[j]), Math.abs(I[j]));
+      const R = colR[c]!,
+        I = colI[c]!;
+      for (let j = 0; j < n; j++) v = Math.max(v, Math.abs(R[j]!), Math.abs(I[j]!));
       return v > 0 ? v : 1;
     };
     for (let q = 0; q < cols.length; q += 2) {
-      const a = cols[q];
-      const b = q + 1 < cols.length ? cols[q + 1] : -1;
+      const a = cols[q]!;
+      const b = q + 1 < cols.length ? cols[q + 1]! : -1;
       const pa = peakOf(a);
       const pb = b >= 0 ? peakOf(b) : 1;
       const ia = 1 / pa;
       const ib = 1 / pb;
       for (let j = 0; j < n; j++) {
-        re[j] = colR[a][j] * ia - (b >= 0 ? colI[b][j] * ib : 0);
-        im[j] = colI[a][j] * ia + (b >= 0 ? colR[b][j] * ib : 0);
+        re[j] = colR[a]![j]! * ia - (b >= 0 ? colI[b]![j]! * ib : 0);
+        im[j] = colI[a]![j]! * ia + (b >= 0 ? colR[b]![j]! * ib : 0);
       }
       const ja = jac.subarray(a * m, a * m + m);
       const jb = b >= 0 ? jac.subarray(b * m, b * m + m) : null;
       spectrumToPoints(grid, re, im, x, ja, jb, UPSAMPLE, fineRe, fineIm);
-      for (let i = 0; i < m; i++) ja[i] *= pa;
-      if (jb) for (let i = 0; i < m; i++) jb[i] *= pb;
+      for (let i = 0; i < m; i++) ja[i]! *= pa;
+      if (jb) for (let i = 0; i < m; i++) jb[i]! *= pb;
     }
     // closed-form step at the data points (unblurred 180 wall)
     if (is180 && !stepInFft) {
       const [du, dH, dt, dD] = [Wm[0], Wm[1], Wm[2], Wm[3]];
       stepValues(x, p, stepAt, du, dH, dt, dD);
       for (let i = 0; i < m; i++) {
-        jac[i] -= du[i];
-        jac[m + i] += dD[i];
-        jac[iH * m + i] += dH[i];
-        jac[iT * m + i] += dt[i];
-        jac[iMs * m + i] += stepAt[i] / p[iMs];
+        jac[i]! -= du[i]!;
+        jac[m + i]! += dD[i]!;
+        jac[iH * m + i]! += dH[i]!;
+        jac[iT * m + i]! += dt[i]!;
+        jac[iMs * m + i]! += stepAt[i]! / p[iMs]!;
       }
     }
     if (zeroModes) {
       for (let s2 = 0; s2 < nShape; s2++) {
         const col = jac.subarray(s2 * m, s2 * m + m);
-        for (let i = 0; i < m; i++) col[i] += dQz[s2]! * Zz[i]! + cg * dQx[s2]! * Zx[i]!;
+        for (let i = 0; i < m; i++) col[i]! += dQz[s2]! * Zz[i]! + cg * dQx[s2]! * Zx[i]!;
       }
       for (let i = 0; i < m; i++) {
-        jac[iNeel * m + i] += Qx * Zx[i]!;
-        jac[iH * m + i] += Qz * Zzh[i]! + cg * Qx * Zxh[i]!;
-        jac[iT * m + i] += Qz * Zzt[i]! + cg * Qx * Zxt[i]!;
-        jac[iMs * m + i] += (Qz * Zz[i]! + cg * Qx * Zx[i]!) / p[iMs];
+        jac[iNeel * m + i]! += Qx * Zx[i]!;
+        jac[iH * m + i]! += Qz * Zzh[i]! + cg * Qx * Zxh[i]!;
+        jac[iT * m + i]! += Qz * Zzt[i]! + cg * Qx * Zxt[i]!;
+        jac[iMs * m + i]! += (Qz * Zz[i]! + cg * Qx * Zx[i]!) / p[iMs]!;
       }
     }
     jac.fill(1, iOff * m, iOff * m + m);
@@ -939,8 +946,9 @@ function blurredContrast(kind: Kind): ProfileModel {
     sources: base.sources,
     bind(x, start) {
       const nb = params.length - 1;
-      const widths = kind === "180" ? [start[1]] : [start[2], start[1]];
-      const grid = bindGrid(x, [...widths, start[nb] > 0 ? start[nb] : Infinity], [20 * Math.max(...widths), 6 * start[nb]]);
+      const widths = kind === "180" ? [at(start, 1, "start")] : [at(start, 2, "start"), at(start, 1, "start")];
+      const blur0 = at(start, nb, "start");
+      const grid = bindGrid(x, [...widths, blur0 > 0 ? blur0 : Infinity], [20 * Math.max(...widths), 6 * blur0]);
       const gx = new Float64Array(grid.n);
       for (let g = 0; g < grid.n; g++) gx[g] = grid.x0 + g * grid.dx;
       const inner = base.bind(gx, start);
@@ -957,15 +965,15 @@ function blurredContrast(kind: Kind): ProfileModel {
           // the smooth step -erf(u / (a sqrt 2)) with the wall's slope at its centre (a = Delta sqrt(2/pi)),
           // whose blur is known in closed form; a sharp sign(u) step would leave a jump on the grid that
           // pins x0 to grid points and spoils the interpolation.
-          const a = kind === "180" ? p[1] * Math.sqrt(2 / Math.PI) : 0;
-          if (kind === "180") for (let g = 0; g < grid.n; g++) values[g] -= smoothStep(gx[g] - p[0], a);
-          else for (let g = 0; g < grid.n; g++) values[g] -= 1;
-          const b = blurOnGrid(grid, values, p[nb]);
+          const a = kind === "180" ? p[1]! * Math.sqrt(2 / Math.PI) : 0;
+          if (kind === "180") for (let g = 0; g < grid.n; g++) values[g]! -= smoothStep(gx[g]! - p[0]!, a);
+          else for (let g = 0; g < grid.n; g++) values[g]! -= 1;
+          const b = blurOnGrid(grid, values, p[nb]!);
           interpolateGrid(grid, b, x, out);
-          const aBlurred = Math.sqrt(a * a + (p[nb] > 0 ? p[nb] * p[nb] : 0));
+          const aBlurred = Math.sqrt(a * a + (p[nb]! > 0 ? p[nb]! * p[nb]! : 0));
           for (let i = 0; i < x.length; i++) {
-            const far = kind === "180" ? smoothStep(x[i] - p[0], aBlurred) : 1;
-            out[i] = p[io] + p[io + 1] * (out[i] + far);
+            const far = kind === "180" ? smoothStep(x[i]! - p[0]!, aBlurred) : 1;
+            out[i] = p[io]! + p[io + 1]! * (out[i]! + far);
           }
         },
       };

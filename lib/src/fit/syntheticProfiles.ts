@@ -9,7 +9,7 @@ import type { Film } from "../material/film.js";
 import { solveSkyrmionAnsatz } from "../walls/skyrmionAnsatz.js";
 import { wall360Equilibrium } from "../walls/wall360.js";
 import { getProfileModel, type ProfileModel } from "./profileModels.js";
-import { seededRandom } from "./prng.js";
+import { seededRandom } from "../numeric/prng.js";
 
 export interface SyntheticProfile {
   x: number[];

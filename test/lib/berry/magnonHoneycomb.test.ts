@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { honeycombMagnonHall, honeycombMagnonHallConverged, honeycombMagnonBands, honeycombMagnonModel, c2Weight } from "../../../lib/src/berry/magnonHoneycomb.js";
 import { getCalculator, runCalculator } from "../../../lib/src/calculators/index.js";
-import { dilogarithm } from "../../../lib/src/berry/dilogarithm.js";
+import { dilogarithm } from "../../../lib/src/numeric/dilogarithm.js";
 import { chernNumbers } from "../../../lib/src/berry/chernNumbers.js";
 import { kB } from "../../../lib/src/quantity/constants.js";
 import { InputError } from "../../../lib/src/errors.js";
