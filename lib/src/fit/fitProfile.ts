@@ -129,8 +129,8 @@ export function userModel(spec: {
       const scope: Record<string, number> = {};
       return {
         model(p, out) {
-          names.forEach((n, j) => (scope[n] = p[j]));
-          for (let i = 0; i < x.length; i++) out[i] = spec.evaluate(x[i], scope);
+          names.forEach((n, j) => (scope[n] = p[j]!));
+          for (let i = 0; i < x.length; i++) out[i] = spec.evaluate(x[i]!, scope);
         },
       };
     },
@@ -175,9 +175,9 @@ export function formulaModel(formula: string, parameters: Array<Partial<FitParam
       const scope: Record<string, number> = {};
       return {
         model(p, out) {
-          params.forEach((q, j) => (scope[q.name] = p[j]));
+          params.forEach((q, j) => (scope[q.name] = p[j]!));
           for (let i = 0; i < x.length; i++) {
-            scope.x = x[i];
+            scope.x = x[i]!;
             const v = code.evaluate(scope);
             out[i] = typeof v === "number" ? v : Number.NaN;
           }
@@ -271,7 +271,7 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
         const jl = new Float64Array(part.m * part.nModel);
         part.bound.jacobian!(q, jl);
         part.map.forEach((j, c) => {
-          for (let i = 0; i < part.m; i++) out[j * m + part.off + i] += jl[c * part.m + i];
+          for (let i = 0; i < part.m; i++) out[j * m + part.off + i]! += jl[c * part.m + i]!;
         });
       }
     };

@@ -134,6 +134,13 @@ export interface FitResult extends DocumentedResult {
   assumptions: string[];
 }
 
+/** The result of parameter `name` of a fit, or an InputError listing the parameters it has. */
+export function parameterOf(fit: Pick<FitResult, "parameters">, name: string): ParameterResult {
+  const r = fit.parameters[name];
+  if (!r) throw new InputError("parameter", name, `one of the fit's parameters: ${Object.keys(fit.parameters).join(", ")}`);
+  return r;
+}
+
 const METHOD = "weighted nonlinear least squares, Levenberg-Marquardt (More 1978) with scaling, trust region and projected box bounds";
 const ASSUMPTIONS = [
   "independent, normally distributed errors of y (unknown sigmas: one common sigma, estimated from the residuals)",
@@ -226,11 +233,7 @@ function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: num
       }
     };
   }
-  const r = levenbergMarquardt(
-    lm,
-    gather(base, freeIdx, "start values"),
-    options,
-  );
+  const r = levenbergMarquardt(lm, gather(base, freeIdx, "start values"), options);
   setFull(r.x);
   return {
     x: Float64Array.from(full),

@@ -50,7 +50,7 @@ export function syntheticProfile(model: ProfileModel | string, parameters: Recor
   const rng = seededRandom(options.seed ?? 1);
   const y = Array.from(clean, (v) => v + noise * rng.normal());
   const truth: Record<string, number> = {};
-  pm.parameters.forEach((q, j) => (truth[q.name] = p[j]));
+  pm.parameters.forEach((q, j) => (truth[q.name] = p[j]!));
   return { x: Array.from(x), y, sigma: new Array(n).fill(noise), clean: Array.from(clean), truth };
 }
 

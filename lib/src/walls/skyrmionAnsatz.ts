@@ -136,10 +136,10 @@ function localPanel(sa: number, S: number, lo: number, hi: number): void {
     D += wt * (thx * x + sn * cs);
     Z += wt * omc * x;
   }
-  localSums[0] += ex;
-  localSums[1] += K;
-  localSums[2] += D;
-  localSums[3] += Z;
+  localSums[0]! += ex;
+  localSums[1]! += K;
+  localSums[2]! += D;
+  localSums[3]! += Z;
 }
 
 function ansatzLocalIntegralsInto(a: number, out: AnsatzIntegrals): void {
@@ -599,10 +599,10 @@ function ansatzNonlocalSliceDerivatives(a: number, lnTau: number): boolean {
   poly6At(sliceCoefV, st, sliceDer, 3);
   const k1 = 1 / DLNT;
   const k2 = k1 * k1;
-  sliceDer[1] *= k1;
-  sliceDer[2] *= k2;
-  sliceDer[4] *= k1;
-  sliceDer[5] *= k2;
+  sliceDer[1]! *= k1;
+  sliceDer[2]! *= k2;
+  sliceDer[4]! *= k1;
+  sliceDer[5]! *= k2;
   return true;
 }
 
