@@ -27,7 +27,7 @@
  * point-spread of standard deviation s). Checked against a direct real-space sum of 2D dipole
  * fields in test/lib/fit/strayField.test.ts.
  *
- * Accuracy (the bound models of profileModels.ts, against a scipy real-space quadrature in
+ * Accuracy (the bound models of profileModels.ts and strayBound.ts, against a scipy real-space quadrature in
  * test/lib/fit/strayField.test.ts): about 1e-8 to 5e-7 of the peak field without blur, sensors down to h = 2 nm over walls six times wider. Three error
  * sources were found and removed: (1) a single atan reference for the 180-degree wall leaves a
  * -2 / (pi u) tail that the periodic box cuts with a jump (now three references with u^-1 and u^-3
