@@ -738,7 +738,7 @@ function globalFit(
   const ns = names.length;
   const qOf = (p: Float64Array, i: number, sk: SkyrmionSensitivity[]) => {
     const part = parts[i]!;
-    return Float64Array.from(part.local.map((lp, j) => (j === iR ? sk[i]!.R : j === iw ? sk[i]!.w : part.map[j]! >= 0 ? p[part.map[j]!] : lp.value)));
+    return Float64Array.from(part.local.map((lp, j) => (j === iR ? sk[i]!.R : j === iw ? sk[i]!.w : part.map[j]! >= 0 ? p[part.map[j]!]! : lp.value)));
   };
   const problem: LeastSquaresProblem = {
     parameters: params,

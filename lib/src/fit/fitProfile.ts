@@ -7,6 +7,7 @@ import type { EvalFunction, MathNode } from "mathjs";
 import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
+import { gather } from "../numeric/indexing.js";
 import { getProfileModel, profileModels, type ProfileModel } from "./profileModels.js";
 import { guessStart } from "./startGuess.js";
 
@@ -258,7 +259,7 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     sigma: anySigma ? Float64Array.from(sigmas) : null,
     model(p, out) {
       for (const part of parts) {
-        const q = Float64Array.from(part.map.map((j) => p[j]));
+        const q = Float64Array.from(gather(p, part.map, "parameters"));
         part.bound.model(q, out.subarray(part.off, part.off + part.m));
       }
     },
@@ -267,7 +268,7 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     problem.modelJacobian = (p, out) => {
       out.fill(0);
       for (const part of parts) {
-        const q = Float64Array.from(part.map.map((j) => p[j]));
+        const q = Float64Array.from(gather(p, part.map, "parameters"));
         const jl = new Float64Array(part.m * part.nModel);
         part.bound.jacobian!(q, jl);
         part.map.forEach((j, c) => {
