@@ -13,7 +13,7 @@ import { wall360Point, wall360Mz as wall360MzValues, wall360MzDerivatives } from
 import { erfc as erfcLocal } from "../numeric/distributions.js";
 import { gridFor, interpolateGrid, blurOnGrid, type UniformGrid } from "./strayField.js";
 import { strayBound, type Kind } from "./strayBound.js";
-import { at } from "../numeric/indexing.js";
+import { at, unpack } from "../numeric/indexing.js";
 
 export interface BoundModel {
   model(p: Float64Array, out: Float64Array): void;
@@ -132,15 +132,17 @@ const wall180Mz: ProfileModel = {
     const m = x.length;
     return {
       model(p, out) {
-        for (let i = 0; i < m; i++) out[i] = p[2]! + p[3]! * -Math.tanh((x[i]! - p[0]!) / p[1]!);
+        const [x0, Delta, off, c] = unpack(p, 4, "wall180-mz parameters");
+        for (let i = 0; i < m; i++) out[i] = off + c * -Math.tanh((x[i]! - x0) / Delta);
       },
       jacobian(p, out) {
+        const [x0, Delta, , c] = unpack(p, 4, "wall180-mz parameters");
         for (let i = 0; i < m; i++) {
-          const u = (x[i]! - p[0]!) / p[1]!;
+          const u = (x[i]! - x0) / Delta;
           const th = Math.tanh(u);
           const s2 = 1 - th * th;
-          out[i] = (p[3]! * s2) / p[1]!;
-          out[m + i] = (p[3]! * s2 * u) / p[1]!;
+          out[i] = (c * s2) / Delta;
+          out[m + i] = (c * s2 * u) / Delta;
           out[2 * m + i] = 1;
           out[3 * m + i] = -th;
         }
@@ -163,12 +165,13 @@ const wall180Tilted: ProfileModel = {
     const m = x.length;
     return {
       model(p, out) {
-        const ct = Math.cos(p[3]!);
-        const st = Math.sin(p[3]!);
-        const cg = Math.cos(p[2]!);
+        const [x0, Delta, helicity, tilt, off, c] = unpack(p, 6, "wall180-tilted parameters");
+        const ct = Math.cos(tilt);
+        const st = Math.sin(tilt);
+        const cg = Math.cos(helicity);
         for (let i = 0; i < m; i++) {
-          const u = (x[i]! - p[0]!) / p[1]!;
-          out[i] = p[4]! + p[5]! * (ct * -Math.tanh(u) + st * (-cg / Math.cosh(u)));
+          const u = (x[i]! - x0) / Delta;
+          out[i] = off + c * (ct * -Math.tanh(u) + st * (-cg / Math.cosh(u)));
         }
       },
     };
@@ -176,8 +179,9 @@ const wall180Tilted: ProfileModel = {
 };
 
 function w360Signal(x: Float64Array, p: Float64Array, out: Float64Array) {
-  wall360MzValues(x, p[0]!, p[1]!, p[2]!, out);
-  for (let i = 0; i < x.length; i++) out[i] = p[3]! + p[4]! * out[i]!;
+  const [x0, R, w, off, c] = unpack(p, 5, "parameters (x0, R, w, offset, contrast)");
+  wall360MzValues(x, x0, R, w, out);
+  for (let i = 0; i < x.length; i++) out[i] = off + c * out[i]!;
 }
 
 /** offset + contrast * m_z of a 360-degree wall / skyrmion cut (analytic Jacobian). */
@@ -205,15 +209,14 @@ const wall360Mz: ProfileModel = {
     };
     return {
       model(p, out) {
-        if (p[1]! / p[2]! > 300) {
+        const [x0, R, w, off, c] = unpack(p, 5, "wall360-mz parameters");
+        if (R / w > 300) {
           w360Signal(x, p, out);
           return;
         }
-        expsFor(p[0]!, p[2]!);
-        const sb = Math.sinh(p[1]! / p[2]!);
+        expsFor(x0, w);
+        const sb = Math.sinh(R / w);
         const sb2 = sb * sb;
-        const off = p[3]!;
-        const c = p[4]!;
         for (let i = 0; i < m; i++) {
           const e = E[i]!;
           if (e > 1e130) {
@@ -226,10 +229,7 @@ const wall360Mz: ProfileModel = {
         }
       },
       jacobian(p, out) {
-        const x0 = p[0]!;
-        const R = p[1]!;
-        const w = p[2]!;
-        const c = p[4]!;
+        const [x0, R, w, , c] = unpack(p, 5, "wall360-mz parameters");
         if (R / w > 300) {
           const mz = out.subarray(4 * m, 5 * m);
           wall360MzDerivatives(x, x0, R, w, mz, out.subarray(0, 3 * m));
@@ -289,12 +289,13 @@ const wall360Tilted: ProfileModel = {
   bind(x) {
     return {
       model(p, out) {
-        const ct = Math.cos(p[4]!);
-        const st = Math.sin(p[4]!);
-        const cg = Math.cos(p[3]!);
+        const [x0, R, w, helicity, tilt, off, c] = unpack(p, 7, "wall360-tilted parameters");
+        const ct = Math.cos(tilt);
+        const st = Math.sin(tilt);
+        const cg = Math.cos(helicity);
         for (let i = 0; i < x.length; i++) {
-          const q = wall360Point(x[i]!, p[0]!, p[1]!, p[2]!);
-          out[i] = p[5]! + p[6]! * (ct * q.mz + st * cg * q.signedSin);
+          const q = wall360Point(x[i]!, x0, R, w);
+          out[i] = off + c * (ct * q.mz + st * cg * q.signedSin);
         }
       },
     };

@@ -23,3 +23,9 @@ export type Tuple<T, N extends number, R extends T[] = []> = R["length"] extends
 export function float64Arrays<N extends number>(count: N, length: number): Tuple<Float64Array, N> {
   return Array.from({ length: count }, () => new Float64Array(length)) as Tuple<Float64Array, N>;
 }
+
+/** The first n values of a as a tuple (n a small literal), or a RangeError naming `what` if a is shorter. */
+export function unpack<N extends number>(a: ArrayLike<number>, n: N, what = "array"): Tuple<number, N> {
+  if (a.length < n) throw new RangeError(`${what}: ${n} values expected, got ${a.length}`);
+  return Array.from({ length: n }, (_, i) => a[i]!) as Tuple<number, N>;
+}
