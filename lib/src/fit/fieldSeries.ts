@@ -323,24 +323,24 @@ function stage2(
     sigma: new Float64Array(2 * N).fill(1),
     model(p, out) {
       const sk = em(p);
-      for (let i = 0; i < N; i++) {
-        const [a, b, d] = L[i]!;
+      for (const [i, [a, b, d]] of L.entries()) {
         if (!sk) {
           out[2 * i] = NaN;
           out[2 * i + 1] = NaN;
           continue;
         }
-        out[2 * i] = a * sk[i]!.R;
-        out[2 * i + 1] = b * sk[i]!.R + d * sk[i]!.w;
+        const { R, w } = at(sk, i, "sensitivities");
+        out[2 * i] = a * R;
+        out[2 * i + 1] = b * R + d * w;
       }
     },
     modelJacobian(p, out) {
       const sk = em(p);
       for (let j = 0; j < n; j++)
-        for (let i = 0; i < N; i++) {
-          const [a, b, d] = L[i]!;
-          const dR = sk ? sk[i]!.dR[j]! : NaN;
-          const dw = sk ? sk[i]!.dw[j]! : NaN;
+        for (const [i, [a, b, d]] of L.entries()) {
+          const si = sk ? at(sk, i, "sensitivities") : null;
+          const dR = si ? at(si.dR, j, "dR") : NaN;
+          const dw = si ? at(si.dw, j, "dw") : NaN;
           out[j * 2 * N + 2 * i] = a * dR;
           out[j * 2 * N + 2 * i + 1] = b * dR + d * dw;
         }
@@ -385,13 +385,15 @@ function kuDiagnostics(
   if (!sk) return { condition: Infinity, kuRel: null };
   const N = s1.length;
   const J = new Float64Array(2 * N * np);
-  for (let j = 0; j < np; j++)
-    for (let i = 0; i < N; i++) {
-      const [a, b, d] = L[i]!;
-      const sc = theta[names[j]!];
-      J[j * 2 * N + 2 * i] = a * sk[i]!.dR[j]! * sc;
-      J[j * 2 * N + 2 * i + 1] = (b * sk[i]!.dR[j]! + d * sk[i]!.dw[j]!) * sc;
+  names.forEach((name, j) => {
+    const sc = theta[name];
+    for (const [i, [a, b, d]] of L.entries()) {
+      const si = at(sk, i, "sensitivities");
+      const dR = at(si.dR, j, "dR");
+      J[j * 2 * N + 2 * i] = a * dR * sc;
+      J[j * 2 * N + 2 * i + 1] = (b * dR + d * at(si.dw, j, "dw")) * sc;
     }
+  });
   const G = new Float64Array(np * np);
   for (let p = 0; p < np; p++)
     for (let q = 0; q < np; q++) {
@@ -726,7 +728,7 @@ function globalFit(
   for (const [i, pr] of profiles.entries()) {
     y.set(Float64Array.from(pr.data.y), off);
     if (sigma) sigma.set(Float64Array.from(pr.data.sigma!), off);
-    off += parts[i]!.m;
+    off += at(parts, i, "parts").m;
   }
   const em = energyModel(
     film,
@@ -736,10 +738,14 @@ function globalFit(
     sens,
   );
   const ns = names.length;
-  const qOf = (p: Float64Array, i: number, sk: SkyrmionSensitivity[]) => {
-    const part = parts[i]!;
-    return Float64Array.from(part.local.map((lp, j) => (j === iR ? sk[i]!.R : j === iw ? sk[i]!.w : part.map[j]! >= 0 ? p[part.map[j]!]! : lp.value)));
-  };
+  /** The local parameters of one profile: R and w from the energy model, the rest from p or held. */
+  const qOf = (p: Float64Array, part: (typeof parts)[number], s: SkyrmionSensitivity) =>
+    Float64Array.from(
+      part.local.map((lp, j) => {
+        const c = at(part.map, j, "parameter map");
+        return j === iR ? s.R : j === iw ? s.w : c >= 0 ? at(p, c, "parameters") : lp.value;
+      }),
+    );
   const problem: LeastSquaresProblem = {
     parameters: params,
     m,
@@ -748,19 +754,18 @@ function globalFit(
     model(p, out) {
       const sk = em(p.subarray(0, ns));
       let o = 0;
-      for (let i = 0; i < parts.length; i++) {
-        const seg = out.subarray(o, o + parts[i]!.m);
+      for (const [i, part] of parts.entries()) {
+        const seg = out.subarray(o, o + part.m);
         if (!sk) seg.fill(NaN);
-        else parts[i]!.bound.model(qOf(p, i, sk), seg);
-        o += parts[i]!.m;
+        else part.bound.model(qOf(p, part, at(sk, i, "sensitivities")), seg);
+        o += part.m;
       }
     },
     modelJacobian(p, out) {
       out.fill(0);
       const sk = em(p.subarray(0, ns));
       let o = 0;
-      for (let i = 0; i < parts.length; i++) {
-        const part = parts[i]!;
+      for (const [i, part] of parts.entries()) {
         const mi = part.m;
         if (!sk) {
           for (let j = 0; j < params.length; j++) out.fill(NaN, j * m + o, j * m + o + mi);
@@ -769,14 +774,15 @@ function globalFit(
         }
         const nq = part.local.length;
         const jl = new Float64Array(mi * nq);
-        localJacobian(part.bound, qOf(p, i, sk), mi, part.typical, jl);
+        const si = at(sk, i, "sensitivities");
+        localJacobian(part.bound, qOf(p, part, si), mi, part.typical, jl);
         for (let j = 0; j < nq; j++) {
           const c = part.map[j]!;
           if (c >= 0) out.set(jl.subarray(j * mi, (j + 1) * mi), c * m + o);
         }
         for (let s = 0; s < ns; s++) {
-          const dR = sk[i]!.dR[s]!;
-          const dw = sk[i]!.dw[s]!;
+          const dR = at(si.dR, s, "dR");
+          const dw = at(si.dw, s, "dw");
           for (let k = 0; k < mi; k++) out[s * m + o + k] = jl[iR * mi + k]! * dR + jl[iw * mi + k]! * dw;
         }
         o += mi;
