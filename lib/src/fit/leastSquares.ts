@@ -188,10 +188,11 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const { m } = problem;
   const params = problem.parameters;
   const { start, lo, hi, free } = prepare(params);
+  const nameOf = (j: number) => at(params, j, "parameters").name;
   const k = free.length;
   if (k === 0) throw new InputError("parameters", params.map((p) => p.name).join(", "), "at least one free (not fixed) parameter");
   if (m <= k) {
-    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map((j) => params[j]!.name).join(", ")})`);
+    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map(nameOf).join(", ")})`);
   }
   if (problem.sigma) {
     for (let i = 0; i < m; i++) {
@@ -246,7 +247,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   // covariance of the parameters not on a bound
   const onBound = free.filter((j) => x[j]! <= lo[j]! || x[j]! >= hi[j]!);
   const inner = free.filter((j) => !onBound.includes(j));
-  for (const j of onBound) notes.push(`${params[j]!.name} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
+  for (const j of onBound) notes.push(`${nameOf(j)} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
   let status: FitStatus = core.status;
   let reason = core.reason;
   let message = core.message;
@@ -273,17 +274,19 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     const seU = varU !== null ? Math.sqrt(varU) : null;
     const seS = seU !== null ? seU * Math.sqrt(red) : null;
     const se = seU !== null ? seU * Math.sqrt(scale) : null;
-    parameters[p.name] = {
-      value: at(x, j, "fitted values"),
+    const value = at(x, j, "fitted values");
+    const r: ParameterResult = {
+      value,
       stderr: se,
       stderrScaled: seS,
       stderrUnscaled: sigmaKnown ? seU : null,
       unit: p.unit ?? "",
       fixed: !!p.fixed,
       atBound: onBound.includes(j),
-      interval: se !== null ? [x[j]! - q * se, x[j]! + q * se] : null,
+      interval: se !== null ? [value - q * se, value + q * se] : null,
     };
-    clipInterval(p, parameters[p.name]!, confidence, notes);
+    parameters[p.name] = r;
+    clipInterval(p, r, confidence, notes);
   });
   let covariance: number[][] | null = null;
   let correlation: number[][] | null = null;
@@ -304,15 +307,15 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   if (correlation) {
     // Nearly degenerate pairs: the data hardly tell them apart (their errors are large and
     // anticorrelated or correlated); fixing one from other knowledge is the usual cure.
-    for (let a = 0; a < nn; a++) {
-      for (let b = a + 1; b < nn; b++) {
-        const r = correlation[a]![b]!;
-        if (Math.abs(r) > 0.99)
+    const innerNames = inner.map(nameOf);
+    correlation.forEach((row, a) =>
+      row.forEach((r, b) => {
+        if (b > a && Math.abs(r) > 0.99)
           notes.push(
-            `${params[inner[a]!]!.name} and ${params[inner[b]!]!.name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
+            `${at(innerNames, a, "freeNames")} and ${at(innerNames, b, "freeNames")} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
           );
-      }
-    }
+      }),
+    );
   }
   if (sigmaKnown && (red > 2 || red < 0.5)) {
     notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
@@ -325,7 +328,7 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     reason,
     message,
     parameters,
-    freeNames: inner.map((j) => params[j]!.name),
+    freeNames: inner.map(nameOf),
     covariance,
     correlation,
     chiSquare: chi2,
@@ -349,11 +352,12 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     assumptions: ASSUMPTIONS,
   };
   if (options.profile && (status === "converged" || status === "singular")) {
-    const names = options.profile === true ? inner.map((j) => params[j]!.name) : options.profile;
+    const names = options.profile === true ? inner.map(nameOf) : options.profile;
     for (const name of names) {
       const j = params.findIndex((p) => p.name === name);
-      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map((i) => params[i]!.name).join(", ")}`);
-      parameters[name]!.profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, parameters[name]!.stderr, options, notes);
+      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map(nameOf).join(", ")}`);
+      const pr = parameterOf({ parameters }, name);
+      pr.profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, pr.stderr, options, notes);
     }
   }
   if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
