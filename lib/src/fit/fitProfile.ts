@@ -7,7 +7,7 @@ import type { EvalFunction, MathNode } from "mathjs";
 import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
-import { gather } from "../numeric/indexing.js";
+import { at, gather } from "../numeric/indexing.js";
 import { getProfileModel, profileModels, type ProfileModel } from "./profileModels.js";
 import { guessStart } from "./startGuess.js";
 
@@ -100,11 +100,11 @@ function guessFromData(pm: ProfileModel, x: Float64Array, y: Float64Array, given
   let sorted = true;
   for (let i = 1; i < x.length && sorted; i++) if (x[i]! < x[i - 1]!) sorted = false;
   if (sorted) return guessStart(pm, x, y);
-  const order = Array.from(x, (_, i) => i).sort((a, b) => x[a]! - x[b]!);
+  const points = Array.from(x, (xi, i) => ({ x: xi, y: at(y, i, "y") })).sort((a, b) => a.x - b.x);
   return guessStart(
     pm,
-    order.map((i) => x[i]!),
-    order.map((i) => y[i]!),
+    points.map((q) => q.x),
+    points.map((q) => q.y),
   );
 }
 
@@ -231,11 +231,13 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     const rec: Record<string, string> = {};
     local.forEach((p) => {
       const key = shared.has(p.name) ? p.name : `${p.name}[${i}]`;
-      if (!index.has(key)) {
-        index.set(key, params.length);
+      let j = index.get(key);
+      if (j === undefined) {
+        j = params.length;
+        index.set(key, j);
         params.push({ ...p, name: key });
       }
-      map.push(index.get(key)!);
+      map.push(j);
       rec[p.name] = key;
     });
     names.push(rec);
