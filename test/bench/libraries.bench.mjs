@@ -31,7 +31,7 @@ const sTQ = libRequire("@stdlib/stats-base-dists-t-quantile");
 import fftMod from "../../lib/dist/numeric/fft.js";
 import bessel from "../../lib/dist/numeric/bessel.js";
 import ell from "../../lib/dist/numeric/ellipticIntegrals.js";
-import dist from "../../lib/dist/fit/distributions.js";
+import dist from "../../lib/dist/numeric/distributions.js";
 import dense from "../../lib/dist/numeric/denseLinalg.js";
 import { pythonTiming, summary } from "./util.mjs";
 

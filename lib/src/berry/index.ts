@@ -8,7 +8,6 @@ export * from "./wilsonLoop.js";
 export * from "./blochModel.js";
 export * from "./chernNumbers.js";
 export * from "./magnonHoneycomb.js";
-export * from "./dilogarithm.js";
 export * from "./giantSpin.js";
 export * from "./easyPlaneSpin.js";
 export * from "./blochModelFromFunction.js";

@@ -30,7 +30,7 @@ import { InputError } from "../errors.js";
 import { kB, hbar } from "../quantity/constants.js";
 import { haldaneSpec, tightBindingModel, type TightBindingModel } from "./blochModel.js";
 import { chernNumbers, type ChernResult } from "./chernNumbers.js";
-import { dilogarithm } from "./dilogarithm.js";
+import { dilogarithm } from "../numeric/dilogarithm.js";
 
 export interface HoneycombMagnonParams {
   /** Nearest-neighbour exchange (J), > 0 (ferromagnet). */

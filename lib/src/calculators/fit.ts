@@ -7,6 +7,8 @@
 import type { ComputeOutput, InputValues } from "./spec.js";
 import { defineCalculator } from "./spec.js";
 import { fitProfile } from "../fit/fitProfile.js";
+import { parameterOf } from "../fit/leastSquares.js";
+import { at } from "../numeric/indexing.js";
 import { guessStart } from "../fit/startGuess.js";
 import { getProfileModel } from "../fit/profileModels.js";
 import { syntheticProfile } from "../fit/syntheticProfiles.js";
@@ -24,8 +26,8 @@ function computeWallFit(v: InputValues): ComputeOutput {
   const start = { ...guessStart(model, data.x, data.y) };
   const r = fitProfile({ x: data.x, y: data.y, sigma: data.sigma }, model, { start });
   const notes = [...r.notes];
-  const pR = r.parameters.R;
-  const pw = r.parameters.w;
+  const pR = parameterOf(r, "R");
+  const pw = parameterOf(r, "w");
   const ok = r.status === "converged" && pR.stderr !== null && pw.stderr !== null && r.correlation !== null;
   const values: ComputeOutput["values"] = {
     status: r.status === "converged" ? "converged" : `${r.status}: ${r.message}`,
@@ -42,7 +44,7 @@ function computeWallFit(v: InputValues): ComputeOutput {
     values.RStderr = pR.stderr!;
     values.wfit = pw.value;
     values.wStderr = pw.stderr!;
-    values.correlationRw = r.correlation![iR][iw];
+    values.correlationRw = at(at(r.correlation!, iR, "correlation"), iw, "correlation row");
     values.Rpull = (pR.value - R) / pR.stderr!;
     values.wpull = (pw.value - w) / pw.stderr!;
   } else {

@@ -29,7 +29,7 @@
  */
 import { ComputationError, ConvergenceError, InputError } from "../errors.js";
 import { isPlainNumber, parseQuantity, formatQuantity, type QuantityInput } from "../quantity/units.js";
-import { seededRandom } from "../fit/prng.js";
+import { seededRandom } from "../numeric/prng.js";
 import { COMPUTE_BUDGET, coerceInputs, runCalculator, type CalculatorResult, type CalculatorSpec, type ComputeOptions, type InputValues } from "./spec.js";
 
 /** An output of a result, or undefined when the result does not have it (reading a missing output of a result throws). */

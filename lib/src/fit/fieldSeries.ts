@@ -45,8 +45,9 @@ import { ConvergenceError, InputError } from "../errors.js";
 import type { DocumentedResult } from "../result.js";
 import type { Film } from "../material/film.js";
 import { symmetricEigen } from "../numeric/denseLinalg.js";
+import { at } from "../numeric/indexing.js";
 import { fitProfile, configureParameters, type FitProfileOptions, type ProfileData, type ProfileFitResult } from "./fitProfile.js";
-import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem, type ParameterResult } from "./leastSquares.js";
+import { parameterOf, solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem, type ParameterResult } from "./leastSquares.js";
 import { getProfileModel, type BoundModel, type ProfileModel } from "./profileModels.js";
 import { guessStart } from "./startGuess.js";
 import { filmWith, skyrmionSensitivity, type SeriesParameter, type SkyrmionSensitivity } from "./skyrmionSensitivity.js";
@@ -218,7 +219,8 @@ function stage1(profiles: FieldSeriesProfile[], pm: ProfileModel, film: Film, op
     }
     const iR = fit.freeNames.indexOf("R");
     const iw = fit.freeNames.indexOf("w");
-    if (fit.parameters.R.atBound || fit.parameters.R.value <= 0) {
+    const pR = parameterOf(fit, "R");
+    if (pR.atBound || pR.value <= 0) {
       throw new InputError(`profiles[${i}]`, `profile at B = ${pr.B} T`, "a profile across a skyrmion (the fitted radius ran to 0: no skyrmion in this profile)");
     }
     if (fit.status !== "converged" || iR < 0 || iw < 0 || !fit.covariance) {
@@ -230,7 +232,8 @@ function stage1(profiles: FieldSeriesProfile[], pm: ProfileModel, film: Film, op
       });
     }
     const c = fit.covariance;
-    return { B: pr.B, fit, R: fit.parameters.R.value, w: fit.parameters.w.value, cov: [c[iR][iR], c[iR][iw], c[iw][iw]] as [number, number, number] };
+    const cell = (a: number, b: number) => at(at(c, a, "covariance"), b, "covariance row");
+    return { B: pr.B, fit, R: pR.value, w: parameterOf(fit, "w").value, cov: [cell(iR, iR), cell(iR, iw), cell(iw, iw)] as [number, number, number] };
   });
 }
 
@@ -308,7 +311,7 @@ function stage2(
   const N = s1.length;
   const y = new Float64Array(2 * N);
   s1.forEach((s, i) => {
-    const [a, b, d] = L[i];
+    const [a, b, d] = L[i]!;
     y[2 * i] = a * s.R;
     y[2 * i + 1] = b * s.R + d * s.w;
   });
@@ -320,24 +323,24 @@ function stage2(
     sigma: new Float64Array(2 * N).fill(1),
     model(p, out) {
       const sk = em(p);
-      for (let i = 0; i < N; i++) {
-        const [a, b, d] = L[i];
+      for (const [i, [a, b, d]] of L.entries()) {
         if (!sk) {
           out[2 * i] = NaN;
           out[2 * i + 1] = NaN;
           continue;
         }
-        out[2 * i] = a * sk[i].R;
-        out[2 * i + 1] = b * sk[i].R + d * sk[i].w;
+        const { R, w } = at(sk, i, "sensitivities");
+        out[2 * i] = a * R;
+        out[2 * i + 1] = b * R + d * w;
       }
     },
     modelJacobian(p, out) {
       const sk = em(p);
       for (let j = 0; j < n; j++)
-        for (let i = 0; i < N; i++) {
-          const [a, b, d] = L[i];
-          const dR = sk ? sk[i].dR[j] : NaN;
-          const dw = sk ? sk[i].dw[j] : NaN;
+        for (const [i, [a, b, d]] of L.entries()) {
+          const si = sk ? at(sk, i, "sensitivities") : null;
+          const dR = si ? at(si.dR, j, "dR") : NaN;
+          const dw = si ? at(si.dw, j, "dw") : NaN;
           out[j * 2 * N + 2 * i] = a * dR;
           out[j * 2 * N + 2 * i + 1] = b * dR + d * dw;
         }
@@ -382,33 +385,35 @@ function kuDiagnostics(
   if (!sk) return { condition: Infinity, kuRel: null };
   const N = s1.length;
   const J = new Float64Array(2 * N * np);
-  for (let j = 0; j < np; j++)
-    for (let i = 0; i < N; i++) {
-      const [a, b, d] = L[i];
-      const sc = theta[names[j]];
-      J[j * 2 * N + 2 * i] = a * sk[i].dR[j] * sc;
-      J[j * 2 * N + 2 * i + 1] = (b * sk[i].dR[j] + d * sk[i].dw[j]) * sc;
+  names.forEach((name, j) => {
+    const sc = theta[name];
+    for (const [i, [a, b, d]] of L.entries()) {
+      const si = at(sk, i, "sensitivities");
+      const dR = at(si.dR, j, "dR");
+      J[j * 2 * N + 2 * i] = a * dR * sc;
+      J[j * 2 * N + 2 * i + 1] = (b * dR + d * at(si.dw, j, "dw")) * sc;
     }
+  });
   const G = new Float64Array(np * np);
   for (let p = 0; p < np; p++)
     for (let q = 0; q < np; q++) {
       let s = 0;
-      for (let i = 0; i < 2 * N; i++) s += J[p * 2 * N + i] * J[q * 2 * N + i];
+      for (let i = 0; i < 2 * N; i++) s += J[p * 2 * N + i]! * J[q * 2 * N + i]!;
       G[p + np * q] = s;
     }
   // condition number of J with unit-norm columns (scale-free)
-  const dn = names.map((_, p) => Math.sqrt(G[p + np * p]));
-  const Gn = G.map((v, k) => v / (dn[k % np] * dn[Math.floor(k / np)]));
+  const dn = names.map((_, p) => Math.sqrt(G[p + np * p]!));
+  const Gn = G.map((v, k) => v / (dn[k % np]! * dn[Math.floor(k / np)]!));
   const eig = symmetricEigen(Gn, np);
-  const lmin = eig.values[0];
-  const lmax = eig.values[np - 1];
+  const lmin = eig.values[0]!;
+  const lmax = eig.values[np - 1]!;
   const condition = lmin > 0 ? Math.sqrt(lmax / lmin) : Infinity;
   if (!(lmin > 1e-14 * lmax)) return { condition, kuRel: null };
   // (G^-1)_{Ku,Ku} from the eigen decomposition of Gn
   const k = np - 1;
   let inv = 0;
-  for (let e = 0; e < np; e++) inv += eig.vectors[k + np * e] ** 2 / eig.values[e];
-  return { condition, kuRel: Math.sqrt(inv) / dn[k] };
+  for (let e = 0; e < np; e++) inv += eig.vectors[k + np * e]! ** 2 / eig.values[e]!;
+  return { condition, kuRel: Math.sqrt(inv) / dn[k]! };
 }
 
 function pick(
@@ -421,7 +426,7 @@ function pick(
 ): Record<SeriesParameter, ParameterResult> {
   const out = {} as Record<SeriesParameter, ParameterResult>;
   for (const n of ["A", "D", "Ku"] as SeriesParameter[]) {
-    if (names.includes(n)) out[n] = { ...fit.parameters[mapName(n)], unit: UNITS[n] };
+    if (names.includes(n)) out[n] = { ...parameterOf(fit, mapName(n)), unit: UNITS[n] };
     else {
       const v = start[n] ?? film[n];
       out[n] = { value: v, stderr: null, stderrScaled: null, stderrUnscaled: null, unit: UNITS[n], fixed: true, atBound: false, interval: null };
@@ -504,7 +509,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   // stage 2 with Ku held
   const held = stage2(s1, film, base, start, nonlocal, lmOptions, sens);
   const requested = options.fitKu ?? "auto";
-  const thetaHeld = { A: held.fit.parameters.A.value, D: held.fit.parameters.D?.value ?? start.D ?? film.D, Ku: start.Ku ?? film.Ku };
+  const thetaHeld = { A: parameterOf(held.fit, "A").value, D: held.fit.parameters.D?.value ?? start.D ?? film.D, Ku: start.Ku ?? film.Ku };
   const diag = kuDiagnostics(s1, film, base, thetaHeld, nonlocal, sens);
   const maxCond = options.maxCondition ?? 1e4;
   const maxRel = options.maxKuRelativeError ?? 0.2;
@@ -593,7 +598,7 @@ export function fitFieldSeries(profiles: FieldSeriesProfile[], options: FieldSer
   const band = (g: number[]) => {
     if (!covariance) return NaN;
     let s = 0;
-    for (let a = 0; a < names.length; a++) for (let b = 0; b < names.length; b++) if (covIdx[a] >= 0 && covIdx[b] >= 0) s += g[a] * g[b] * covariance[covIdx[a]][covIdx[b]];
+    for (let a = 0; a < names.length; a++) for (let b = 0; b < names.length; b++) if (covIdx[a]! >= 0 && covIdx[b]! >= 0) s += g[a]! * g[b]! * covariance[covIdx[a]!]![covIdx[b]!]!;
     return Math.sqrt(s);
   };
   const profilesOut: SeriesProfileResult[] = s1.map((s) => {
@@ -672,13 +677,13 @@ function localJacobian(bound: BoundModel, q: Float64Array, m: number, typical: n
   const b = new Float64Array(m);
   const qq = Float64Array.from(q);
   for (let j = 0; j < q.length; j++) {
-    const h = Math.cbrt(2.2e-16) * Math.max(Math.abs(q[j]), typical[j]);
-    qq[j] = q[j] + h;
+    const h = Math.cbrt(2.2e-16) * Math.max(Math.abs(q[j]!), typical[j]!);
+    qq[j] = q[j]! + h;
     bound.model(qq, a);
-    qq[j] = q[j] - h;
+    qq[j] = q[j]! - h;
     bound.model(qq, b);
-    qq[j] = q[j];
-    for (let i = 0; i < m; i++) out[j * m + i] = (a[i] - b[i]) / (2 * h);
+    qq[j] = q[j]!;
+    for (let i = 0; i < m; i++) out[j * m + i] = (a[i]! - b[i]!) / (2 * h);
   }
 }
 
@@ -700,7 +705,7 @@ function globalFit(
   const iw = pm.parameters.findIndex((p) => p.name === "w");
   const parts = profiles.map((pr, i) => {
     const local = configureParameters(pm.parameters, {
-      start: Object.fromEntries(Object.entries(s1[i].fit.parameters).map(([k, v]) => [k, v.value])),
+      start: Object.fromEntries(Object.entries(s1[i]!.fit.parameters).map(([k, v]) => [k, v.value])),
       fixed: { ...(options.profileFit?.fixed ?? {}), ...(pr.fixed ?? {}) },
       bounds: options.profileFit?.bounds,
     });
@@ -723,7 +728,7 @@ function globalFit(
   for (const [i, pr] of profiles.entries()) {
     y.set(Float64Array.from(pr.data.y), off);
     if (sigma) sigma.set(Float64Array.from(pr.data.sigma!), off);
-    off += parts[i].m;
+    off += at(parts, i, "parts").m;
   }
   const em = energyModel(
     film,
@@ -733,10 +738,14 @@ function globalFit(
     sens,
   );
   const ns = names.length;
-  const qOf = (p: Float64Array, i: number, sk: SkyrmionSensitivity[]) => {
-    const part = parts[i];
-    return Float64Array.from(part.local.map((lp, j) => (j === iR ? sk[i].R : j === iw ? sk[i].w : part.map[j] >= 0 ? p[part.map[j]] : lp.value)));
-  };
+  /** The local parameters of one profile: R and w from the energy model, the rest from p or held. */
+  const qOf = (p: Float64Array, part: (typeof parts)[number], s: SkyrmionSensitivity) =>
+    Float64Array.from(
+      part.local.map((lp, j) => {
+        const c = at(part.map, j, "parameter map");
+        return j === iR ? s.R : j === iw ? s.w : c >= 0 ? at(p, c, "parameters") : lp.value;
+      }),
+    );
   const problem: LeastSquaresProblem = {
     parameters: params,
     m,
@@ -745,19 +754,18 @@ function globalFit(
     model(p, out) {
       const sk = em(p.subarray(0, ns));
       let o = 0;
-      for (let i = 0; i < parts.length; i++) {
-        const seg = out.subarray(o, o + parts[i].m);
+      for (const [i, part] of parts.entries()) {
+        const seg = out.subarray(o, o + part.m);
         if (!sk) seg.fill(NaN);
-        else parts[i].bound.model(qOf(p, i, sk), seg);
-        o += parts[i].m;
+        else part.bound.model(qOf(p, part, at(sk, i, "sensitivities")), seg);
+        o += part.m;
       }
     },
     modelJacobian(p, out) {
       out.fill(0);
       const sk = em(p.subarray(0, ns));
       let o = 0;
-      for (let i = 0; i < parts.length; i++) {
-        const part = parts[i];
+      for (const [i, part] of parts.entries()) {
         const mi = part.m;
         if (!sk) {
           for (let j = 0; j < params.length; j++) out.fill(NaN, j * m + o, j * m + o + mi);
@@ -766,15 +774,16 @@ function globalFit(
         }
         const nq = part.local.length;
         const jl = new Float64Array(mi * nq);
-        localJacobian(part.bound, qOf(p, i, sk), mi, part.typical, jl);
+        const si = at(sk, i, "sensitivities");
+        localJacobian(part.bound, qOf(p, part, si), mi, part.typical, jl);
         for (let j = 0; j < nq; j++) {
-          const c = part.map[j];
+          const c = part.map[j]!;
           if (c >= 0) out.set(jl.subarray(j * mi, (j + 1) * mi), c * m + o);
         }
         for (let s = 0; s < ns; s++) {
-          const dR = sk[i].dR[s];
-          const dw = sk[i].dw[s];
-          for (let k = 0; k < mi; k++) out[s * m + o + k] = jl[iR * mi + k] * dR + jl[iw * mi + k] * dw;
+          const dR = at(si.dR, s, "dR");
+          const dw = at(si.dw, s, "dw");
+          for (let k = 0; k < mi; k++) out[s * m + o + k] = jl[iR * mi + k]! * dR + jl[iw * mi + k]! * dw;
         }
         o += mi;
       }

@@ -7,6 +7,7 @@ import type { EvalFunction, MathNode } from "mathjs";
 import { mathExpressions } from "../quantity/mathjs.js";
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitOptions, type FitParameter, type FitResult, type LeastSquaresProblem } from "./leastSquares.js";
+import { at, gather } from "../numeric/indexing.js";
 import { getProfileModel, profileModels, type ProfileModel } from "./profileModels.js";
 import { guessStart } from "./startGuess.js";
 
@@ -99,11 +100,11 @@ function guessFromData(pm: ProfileModel, x: Float64Array, y: Float64Array, given
   let sorted = true;
   for (let i = 1; i < x.length && sorted; i++) if (x[i]! < x[i - 1]!) sorted = false;
   if (sorted) return guessStart(pm, x, y);
-  const order = Array.from(x, (_, i) => i).sort((a, b) => x[a]! - x[b]!);
+  const points = Array.from(x, (xi, i) => ({ x: xi, y: at(y, i, "y") })).sort((a, b) => a.x - b.x);
   return guessStart(
     pm,
-    order.map((i) => x[i]!),
-    order.map((i) => y[i]!),
+    points.map((q) => q.x),
+    points.map((q) => q.y),
   );
 }
 
@@ -129,8 +130,8 @@ export function userModel(spec: {
       const scope: Record<string, number> = {};
       return {
         model(p, out) {
-          names.forEach((n, j) => (scope[n] = p[j]));
-          for (let i = 0; i < x.length; i++) out[i] = spec.evaluate(x[i], scope);
+          names.forEach((n, j) => (scope[n] = p[j]!));
+          for (let i = 0; i < x.length; i++) out[i] = spec.evaluate(x[i]!, scope);
         },
       };
     },
@@ -175,9 +176,9 @@ export function formulaModel(formula: string, parameters: Array<Partial<FitParam
       const scope: Record<string, number> = {};
       return {
         model(p, out) {
-          params.forEach((q, j) => (scope[q.name] = p[j]));
+          params.forEach((q, j) => (scope[q.name] = p[j]!));
           for (let i = 0; i < x.length; i++) {
-            scope.x = x[i];
+            scope.x = x[i]!;
             const v = code.evaluate(scope);
             out[i] = typeof v === "number" ? v : Number.NaN;
           }
@@ -230,11 +231,13 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     const rec: Record<string, string> = {};
     local.forEach((p) => {
       const key = shared.has(p.name) ? p.name : `${p.name}[${i}]`;
-      if (!index.has(key)) {
-        index.set(key, params.length);
+      let j = index.get(key);
+      if (j === undefined) {
+        j = params.length;
+        index.set(key, j);
         params.push({ ...p, name: key });
       }
-      map.push(index.get(key)!);
+      map.push(j);
       rec[p.name] = key;
     });
     names.push(rec);
@@ -258,7 +261,7 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     sigma: anySigma ? Float64Array.from(sigmas) : null,
     model(p, out) {
       for (const part of parts) {
-        const q = Float64Array.from(part.map.map((j) => p[j]));
+        const q = Float64Array.from(gather(p, part.map, "parameters"));
         part.bound.model(q, out.subarray(part.off, part.off + part.m));
       }
     },
@@ -267,11 +270,11 @@ export function fitGlobal(datasets: GlobalDataset[], options: FitProfileOptions 
     problem.modelJacobian = (p, out) => {
       out.fill(0);
       for (const part of parts) {
-        const q = Float64Array.from(part.map.map((j) => p[j]));
+        const q = Float64Array.from(gather(p, part.map, "parameters"));
         const jl = new Float64Array(part.m * part.nModel);
         part.bound.jacobian!(q, jl);
         part.map.forEach((j, c) => {
-          for (let i = 0; i < part.m; i++) out[j * m + part.off + i] += jl[c * part.m + i];
+          for (let i = 0; i < part.m; i++) out[j * m + part.off + i]! += jl[c * part.m + i]!;
         });
       }
     };

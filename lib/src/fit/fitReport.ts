@@ -6,6 +6,7 @@
  */
 import { customaryUnit, displayUnit, formatNumber } from "../quantity/units.js";
 import type { FitResult, ParameterResult } from "./leastSquares.js";
+import { at } from "../numeric/indexing.js";
 import type { FieldSeriesResult } from "./fieldSeries.js";
 
 /**
@@ -125,8 +126,11 @@ export function fitReport(result: FitResult | FieldSeriesResult, options: { titl
   if (result.correlation && result.freeNames.length > 1) {
     const names = result.freeNames;
     let worst = { a: "", b: "", r: 0 };
-    for (let i = 0; i < names.length; i++)
-      for (let j = i + 1; j < names.length; j++) if (Math.abs(result.correlation[i][j]) > Math.abs(worst.r)) worst = { a: names[i], b: names[j], r: result.correlation[i][j] };
+    result.correlation.forEach((row, i) =>
+      row.forEach((r, j) => {
+        if (j > i && Math.abs(r) > Math.abs(worst.r)) worst = { a: at(names, i, "freeNames"), b: at(names, j, "freeNames"), r };
+      }),
+    );
     out.push(`**Strongest correlation:** ${worst.a} – ${worst.b}: ${worst.r.toFixed(3)}`, "");
   }
   if (result.notes.length) out.push("**Notes:**", ...result.notes.map((n) => `- ${n}`), "");

@@ -20,14 +20,20 @@
  * - AIC = -2 ln L + 2K and BIC = -2 ln L + K ln n with the full Gaussian log-likelihood (known
  *   sigmas: K = k; unknown: the ML variance RSS/n is one more parameter, K = k + 1)
  *   (H. Akaike, IEEE Trans. Autom. Control 19, 716 (1974); G. Schwarz, Ann. Stat. 6, 461 (1978)).
+ *
+ * This file is the driver (validation, the fit, the assembled result); the minimization is in
+ * leastSquaresMinimize.ts, the covariance in fitCovariance.ts, the profile-likelihood intervals in
+ * profileLikelihood.ts and the bootstrap in fitBootstrap.ts.
  */
 import { InputError } from "../errors.js";
 import type { DocumentedResult } from "../result.js";
-import { levenbergMarquardt, centralDifferenceJacobian, type LmOptions, type LmProblem, type LmStatus } from "./levenbergMarquardt.js";
-import { pivotedQr, inverseNormalFromQr, symmetricEigen, choleskyLower } from "../numeric/denseLinalg.js";
-import { gramMatrix } from "./gramMatrix.js";
-import { studentTQuantile, normalQuantile } from "./distributions.js";
-import { seededRandom } from "./prng.js";
+import type { LmOptions, LmStatus } from "./levenbergMarquardt.js";
+import { studentTQuantile, normalQuantile } from "../numeric/distributions.js";
+import { at } from "../numeric/indexing.js";
+import { minimize } from "./leastSquaresMinimize.js";
+import { covarianceAtOptimum } from "./fitCovariance.js";
+import { profileInterval } from "./profileLikelihood.js";
+import { bootstrap } from "./fitBootstrap.js";
 
 /** One parameter of a fit: start value, bounds, unit and whether it is held fixed. */
 export interface FitParameter {
@@ -133,6 +139,13 @@ export interface FitResult extends DocumentedResult {
   assumptions: string[];
 }
 
+/** The result of parameter `name` of a fit, or an InputError listing the parameters it has. */
+export function parameterOf(fit: Pick<FitResult, "parameters">, name: string): ParameterResult {
+  const r = fit.parameters[name];
+  if (!r) throw new InputError("parameter", name, `one of the fit's parameters: ${Object.keys(fit.parameters).join(", ")}`);
+  return r;
+}
+
 const METHOD = "weighted nonlinear least squares, Levenberg-Marquardt (More 1978) with scaling, trust region and projected box bounds";
 const ASSUMPTIONS = [
   "independent, normally distributed errors of y (unknown sigmas: one common sigma, estimated from the residuals)",
@@ -170,125 +183,20 @@ function prepare(params: FitParameter[]) {
   return { start, lo, hi, free };
 }
 
-function typicalOf(p: FitParameter): number {
-  if (p.typical && p.typical > 0) return p.typical;
-  if (p.value !== 0) return Math.abs(p.value);
-  const span = (p.max ?? Infinity) - (p.min ?? -Infinity);
-  return Number.isFinite(span) && span > 0 ? span * 1e-3 : 1;
-}
-
-interface Core {
-  x: Float64Array; // full vector
-  status: LmStatus;
-  reason: string;
-  message: string;
-  evaluations: number;
-  jacobianEvaluations: number;
-  iterations: number;
-  chiSquare: number;
-  /** Weighted residuals (f - y) / sigma at x, from the last evaluation of the minimizer. */
-  residuals: Float64Array;
-}
-
-/** Minimize with the parameters in `freeIdx` free, others held at `base`. */
-function minimize(problem: LeastSquaresProblem, base: Float64Array, freeIdx: number[], lo: Float64Array, hi: Float64Array, options: LmOptions): Core {
-  const { m, y, sigma } = problem;
-  const nAll = base.length;
-  const full = Float64Array.from(base);
-  const model = new Float64Array(m);
-  const fullJac = problem.modelJacobian ? new Float64Array(m * nAll) : null;
-  const setFull = (p: Float64Array) => {
-    for (let k = 0; k < freeIdx.length; k++) full[freeIdx[k]] = p[k];
-  };
-  const lm: LmProblem = {
-    n: freeIdx.length,
-    m,
-    residuals(p, out) {
-      setFull(p);
-      problem.model(full, model);
-      if (sigma) for (let i = 0; i < m; i++) out[i] = (model[i] - y[i]) / sigma[i];
-      else for (let i = 0; i < m; i++) out[i] = model[i] - y[i];
-    },
-    lower: freeIdx.map((j) => lo[j]),
-    upper: freeIdx.map((j) => hi[j]),
-    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
-  };
-  if (problem.modelJacobian && fullJac) {
-    lm.jacobian = (p, out) => {
-      setFull(p);
-      problem.modelJacobian!(full, fullJac);
-      for (let k = 0; k < freeIdx.length; k++) {
-        const src = freeIdx[k] * m;
-        const dst = k * m;
-        if (sigma) for (let i = 0; i < m; i++) out[dst + i] = fullJac[src + i] / sigma[i];
-        else out.set(fullJac.subarray(src, src + m), dst);
-      }
-    };
-  }
-  const r = levenbergMarquardt(
-    lm,
-    freeIdx.map((j) => base[j]),
-    options,
-  );
-  setFull(r.x);
-  return {
-    x: Float64Array.from(full),
-    status: r.status,
-    reason: r.reason,
-    message: r.message,
-    evaluations: r.evaluations + r.differenceEvaluations,
-    jacobianEvaluations: r.jacobianEvaluations,
-    iterations: r.iterations,
-    chiSquare: r.sumOfSquares,
-    residuals: r.residuals,
-  };
-}
-
-/** Weighted Jacobian of the residuals (column-major m x freeIdx.length) at the full vector x. */
-function weightedJacobian(problem: LeastSquaresProblem, x: Float64Array, freeIdx: number[], lo: Float64Array, hi: Float64Array): Float64Array {
-  const { m, sigma } = problem;
-  const nAll = x.length;
-  const out = new Float64Array(m * freeIdx.length);
-  if (problem.modelJacobian) {
-    const full = new Float64Array(m * nAll);
-    problem.modelJacobian(x, full);
-    for (let k = 0; k < freeIdx.length; k++) {
-      const src = freeIdx[k] * m;
-      for (let i = 0; i < m; i++) out[k * m + i] = full[src + i] / (sigma ? sigma[i] : 1);
-    }
-    return out;
-  }
-  const base = Float64Array.from(x);
-  const model = new Float64Array(m);
-  const lmp: LmProblem = {
-    n: freeIdx.length,
-    m,
-    residuals(p, o) {
-      for (let k = 0; k < freeIdx.length; k++) base[freeIdx[k]] = p[k];
-      problem.model(base, model);
-      for (let i = 0; i < m; i++) o[i] = (model[i] - problem.y[i]) / (sigma ? sigma[i] : 1);
-    },
-    lower: freeIdx.map((j) => lo[j]),
-    upper: freeIdx.map((j) => hi[j]),
-    typical: freeIdx.map((j) => typicalOf(problem.parameters[j])),
-  };
-  centralDifferenceJacobian(lmp, Float64Array.from(freeIdx.map((j) => x[j])), out);
-  return out;
-}
-
 /** Solve a least-squares problem and analyse the uncertainties. */
 export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOptions = {}): FitResult {
   const { m } = problem;
   const params = problem.parameters;
   const { start, lo, hi, free } = prepare(params);
+  const nameOf = (j: number) => at(params, j, "parameters").name;
   const k = free.length;
   if (k === 0) throw new InputError("parameters", params.map((p) => p.name).join(", "), "at least one free (not fixed) parameter");
   if (m <= k) {
-    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map((j) => params[j].name).join(", ")})`);
+    throw new InputError("data", `${m} points`, `more data points than the ${k} free parameters (${free.map(nameOf).join(", ")})`);
   }
   if (problem.sigma) {
     for (let i = 0; i < m; i++) {
-      if (!(problem.sigma[i] > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
+      if (!(problem.sigma[i]! > 0) || !Number.isFinite(problem.sigma[i])) throw new InputError(`sigma[${i}]`, problem.sigma[i], "a positive finite standard deviation");
     }
   }
   for (let i = 0; i < m; i++)
@@ -319,15 +227,15 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   {
     const r = core.residuals;
     const sg = problem.sigma;
-    if (sg) for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + sg[i] * r[i];
-    else for (let i = 0; i < m; i++) fitted[i] = problem.y[i] + r[i];
+    if (sg) for (let i = 0; i < m; i++) fitted[i] = problem.y[i]! + sg[i]! * r[i]!;
+    else for (let i = 0; i < m; i++) fitted[i] = problem.y[i]! + r[i]!;
   }
   // log-likelihood
   let logL: number;
   let K: number;
   if (sigmaKnown) {
     let s = 0;
-    for (let i = 0; i < m; i++) s += Math.log(2 * Math.PI * problem.sigma![i] ** 2);
+    for (let i = 0; i < m; i++) s += Math.log(2 * Math.PI * problem.sigma![i]! ** 2);
     logL = -0.5 * (chi2 + s);
     K = k;
   } else {
@@ -337,81 +245,22 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const aic = -2 * logL + 2 * K;
   const bic = -2 * logL + K * Math.log(m);
   // covariance of the parameters not on a bound
-  const onBound = free.filter((j) => x[j] <= lo[j] || x[j] >= hi[j]);
+  const onBound = free.filter((j) => x[j]! <= lo[j]! || x[j]! >= hi[j]!);
   const inner = free.filter((j) => !onBound.includes(j));
-  for (const j of onBound) notes.push(`${params[j].name} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
+  for (const j of onBound) notes.push(`${nameOf(j)} ended on its bound ${x[j]}: no standard error; the covariance of the others is conditional on it`);
   let status: FitStatus = core.status;
   let reason = core.reason;
   let message = core.message;
   let cov: Float64Array | null = null;
   let degenerate: string[][] | undefined;
   if (inner.length > 0) {
-    const J = weightedJacobian(problem, x, inner, lo, hi);
-    // column-normalized J for the rank decision
-    const nn = inner.length;
-    const norms = new Float64Array(nn);
-    const Jn = J; // normalized in place (J is not needed afterwards)
-    for (let c = 0; c < nn; c++) {
-      const off = c * m;
-      let s = 0;
-      for (let i = 0; i < m; i++) {
-        const v = J[off + i];
-        s += v * v;
-      }
-      norms[c] = Math.sqrt(s);
-      const inv = norms[c] > 0 ? 1 / norms[c] : 0;
-      for (let i = 0; i < m; i++) Jn[off + i] = J[off + i] * inv;
-    }
-    const zeroCols = inner.filter((_, c) => norms[c] === 0);
-    // fast path: Cholesky of the normalized Gram matrix when clearly well conditioned (its
-    // inverse is then accurate to ~cond * eps <= 1e-9 relative); otherwise pivoted QR
-    const gram = zeroCols.length === 0 ? gramInverse(Jn, m, nn) : null;
-    const qr = gram ? null : pivotedQr(Jn, m, nn, options.singularThreshold ?? 1e-10);
-    if (gram) {
-      cov = new Float64Array(nn * nn);
-      for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = gram[a + b * nn] / (norms[a] * norms[b]);
-    } else if (qr!.rank < nn || zeroCols.length > 0) {
-      // name the parameters in the near-null space of the normalized J^T J
-      const jtj = new Float64Array(nn * nn);
-      for (let a = 0; a < nn; a++)
-        for (let b = a; b < nn; b++) {
-          let s = 0;
-          for (let i = 0; i < m; i++) s += Jn[a * m + i] * Jn[b * m + i];
-          jtj[a + b * nn] = s;
-          jtj[b + a * nn] = s;
-        }
-      const eig = symmetricEigen(jtj, nn);
-      const lmax = eig.values[nn - 1];
-      degenerate = [];
-      for (let e = 0; e < nn; e++) {
-        if (eig.values[e] > (options.singularThreshold ?? 1e-10) * lmax && !(e === 0 && zeroCols.length > 0 && eig.values[e] === 0)) break;
-        const group: string[] = [];
-        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c + e * nn]) > 0.05) group.push(params[inner[c]].name);
-        if (group.length > 0) degenerate.push(group);
-      }
-      if (degenerate.length === 0) {
-        // rank-deficient for the factorization but no eigenvalue below the threshold: name the
-        // parameters of the weakest direction (the eigenvector of the smallest eigenvalue)
-        const weakest: string[] = [];
-        for (let c = 0; c < nn; c++) if (Math.abs(eig.vectors[c]) > 0.05) weakest.push(params[inner[c]].name);
-        degenerate.push(zeroCols.length > 0 ? zeroCols.map((j) => params[j].name) : weakest.length > 0 ? weakest : inner.map((j) => params[j].name));
-      }
+    const c = covarianceAtOptimum(problem, x, inner, lo, hi, options.singularThreshold ?? 1e-10);
+    cov = c.cov;
+    if (c.degenerate) {
+      degenerate = c.degenerate;
       status = "singular";
       reason = "singular-jacobian";
-      message =
-        `the Jacobian is singular at the solution: ` +
-        degenerate
-          .map((g) =>
-            g.length === 1 ? `the data do not depend on ${g[0]}` : `parameters ${g.join(", ")} cannot be told apart (their effects on the model are linearly dependent)`,
-          )
-          .join("; ") +
-        ". Fix one of them or reparametrize; no standard errors are reported.";
-    } else {
-      const inv = inverseNormalFromQr(qr!);
-      if (inv) {
-        cov = new Float64Array(nn * nn);
-        for (let a = 0; a < nn; a++) for (let b = 0; b < nn; b++) cov[a + b * nn] = inv[a + b * nn] / (norms[a] * norms[b]);
-      }
+      message = c.message;
     }
   }
   // assemble
@@ -421,21 +270,23 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   const parameters: Record<string, ParameterResult> = {};
   params.forEach((p, j) => {
     const c = inner.indexOf(j);
-    const varU = cov && c >= 0 ? cov[c + c * nn] : null;
+    const varU = cov && c >= 0 ? cov[c + c * nn]! : null;
     const seU = varU !== null ? Math.sqrt(varU) : null;
     const seS = seU !== null ? seU * Math.sqrt(red) : null;
     const se = seU !== null ? seU * Math.sqrt(scale) : null;
-    parameters[p.name] = {
-      value: x[j],
+    const value = at(x, j, "fitted values");
+    const r: ParameterResult = {
+      value,
       stderr: se,
       stderrScaled: seS,
       stderrUnscaled: sigmaKnown ? seU : null,
       unit: p.unit ?? "",
       fixed: !!p.fixed,
       atBound: onBound.includes(j),
-      interval: se !== null ? [x[j] - q * se, x[j] + q * se] : null,
+      interval: se !== null ? [value - q * se, value + q * se] : null,
     };
-    clipInterval(p, parameters[p.name]!, confidence, notes);
+    parameters[p.name] = r;
+    clipInterval(p, r, confidence, notes);
   });
   let covariance: number[][] | null = null;
   let correlation: number[][] | null = null;
@@ -446,8 +297,8 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
       const row: number[] = [];
       const crow: number[] = [];
       for (let b = 0; b < nn; b++) {
-        row.push(cov[a + b * nn] * scale);
-        crow.push(cov[a + b * nn] / Math.sqrt(cov[a + a * nn] * cov[b + b * nn]));
+        row.push(cov[a + b * nn]! * scale);
+        crow.push(cov[a + b * nn]! / Math.sqrt(cov[a + a * nn]! * cov[b + b * nn]!));
       }
       covariance.push(row);
       correlation.push(crow);
@@ -456,28 +307,28 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
   if (correlation) {
     // Nearly degenerate pairs: the data hardly tell them apart (their errors are large and
     // anticorrelated or correlated); fixing one from other knowledge is the usual cure.
-    for (let a = 0; a < nn; a++) {
-      for (let b = a + 1; b < nn; b++) {
-        const r = correlation[a][b];
-        if (Math.abs(r) > 0.99)
+    const innerNames = inner.map(nameOf);
+    correlation.forEach((row, a) =>
+      row.forEach((r, b) => {
+        if (b > a && Math.abs(r) > 0.99)
           notes.push(
-            `${params[inner[a]].name} and ${params[inner[b]].name} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
+            `${at(innerNames, a, "freeNames")} and ${at(innerNames, b, "freeNames")} are almost degenerate (correlation ${r.toFixed(4)}): the data hardly tell them apart; fix one if it is known from elsewhere`,
           );
-      }
-    }
+      }),
+    );
   }
   if (sigmaKnown && (red > 2 || red < 0.5)) {
     notes.push(`reduced chi-square ${red.toPrecision(3)} is far from 1: the given sigmas or the model are doubtful (scaled errors are reported as stderrScaled)`);
   }
   const res = new Float64Array(m);
-  for (let i = 0; i < m; i++) res[i] = problem.y[i] - fitted[i];
+  for (let i = 0; i < m; i++) res[i] = problem.y[i]! - fitted[i]!;
   const residuals = Array.from(res); // typed -> plain array: V8's fast path (no map callback)
   const result: FitResult = {
     status,
     reason,
     message,
     parameters,
-    freeNames: inner.map((j) => params[j].name),
+    freeNames: inner.map(nameOf),
     covariance,
     correlation,
     chiSquare: chi2,
@@ -501,202 +352,16 @@ export function solveLeastSquares(problem: LeastSquaresProblem, options: FitOpti
     assumptions: ASSUMPTIONS,
   };
   if (options.profile && (status === "converged" || status === "singular")) {
-    const names = options.profile === true ? inner.map((j) => params[j].name) : options.profile;
+    const names = options.profile === true ? inner.map(nameOf) : options.profile;
     for (const name of names) {
       const j = params.findIndex((p) => p.name === name);
-      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map((i) => params[i].name).join(", ")}`);
-      parameters[name].profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, parameters[name].stderr, options, notes);
+      if (j < 0 || !free.includes(j)) throw new InputError("profile", name, `a free parameter: ${free.map(nameOf).join(", ")}`);
+      const pr = parameterOf({ parameters }, name);
+      pr.profileInterval = profileInterval(problem, x, j, free, lo, hi, chi2, sigmaKnown, dof, q, pr.stderr, options, notes);
     }
   }
   if (options.bootstrap && status === "converged") bootstrap(problem, x, free, lo, hi, options, parameters, confidence, notes);
   return result;
-}
-
-/**
- * Inverse of the Gram matrix A^T A of a column-normalized A (m x n column-major) by Cholesky, or
- * null when the smallest Cholesky pivot is below 1e-5 of the largest (condition > ~1e10: use QR).
- */
-function gramInverse(a: Float64Array, m: number, n: number): Float64Array | null {
-  const L = choleskyLower(gramMatrix(a, m, n), n, 1e-5);
-  if (!L) return null;
-  // inverse: solve L L^T X = I column by column
-  const inv = new Float64Array(n * n);
-  const y = new Float64Array(n);
-  for (let c = 0; c < n; c++) {
-    for (let i = 0; i < n; i++) {
-      let s = i === c ? 1 : 0;
-      for (let k = 0; k < i; k++) s -= L[i + k * n] * y[k];
-      y[i] = s / L[i + i * n];
-    }
-    for (let i = n - 1; i >= 0; i--) {
-      let s = y[i];
-      for (let k = i + 1; k < n; k++) s -= L[k + i * n] * inv[k + c * n];
-      inv[i + c * n] = s / L[i + i * n];
-    }
-  }
-  return inv;
-}
-
-/** Profile-likelihood interval of parameter j. */
-function profileInterval(
-  problem: LeastSquaresProblem,
-  xhat: Float64Array,
-  j: number,
-  free: number[],
-  lo: Float64Array,
-  hi: Float64Array,
-  chi2min: number,
-  sigmaKnown: boolean,
-  dof: number,
-  q: number,
-  se: number | null,
-  options: FitOptions,
-  notes: string[],
-): [number, number] {
-  const threshold = sigmaKnown ? chi2min + q * q : chi2min * (1 + (q * q) / dof);
-  const others = free.filter((i) => i !== j);
-  const lmOpts: LmOptions = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, signal: options.signal };
-  // Every refit starts from the refit at the last point found inside the interval (below the
-  // threshold), never from an outer point: a refit outside can end where the model is undefined
-  // for the next, inner trial value (e.g. no metastable texture there), which would stop the
-  // search at the estimate itself.
-  let inside = Float64Array.from(xhat);
-  const chiAt = (v: number): { chi: number; x: Float64Array } => {
-    const base = Float64Array.from(inside);
-    base[j] = v;
-    if (others.length === 0) {
-      const f = new Float64Array(problem.m);
-      problem.model(base, f);
-      let s = 0;
-      for (let i = 0; i < problem.m; i++) s += ((f[i] - problem.y[i]) / (problem.sigma ? problem.sigma[i] : 1)) ** 2;
-      return { chi: s, x: base };
-    }
-    const r = minimize(problem, base, others, lo, hi, lmOpts);
-    return { chi: r.chiSquare, x: r.x };
-  };
-  const step0 = se && se > 0 ? se * q : Math.max(Math.abs(xhat[j]) * 1e-2, 1e-12);
-  const name = problem.parameters[j].name;
-  const side = (dir: number): number => {
-    inside = Float64Array.from(xhat);
-    let a = xhat[j];
-    let step = step0;
-    let b = a + dir * step;
-    let fb = Number.NaN;
-    for (let it = 0; it < 40; it++) {
-      if (dir > 0 && b >= hi[j]) b = hi[j];
-      if (dir < 0 && b <= lo[j]) b = lo[j];
-      const r = chiAt(b);
-      fb = r.chi;
-      if (!(fb < threshold)) break;
-      inside = r.x;
-      if (b === hi[j] || b === lo[j]) {
-        notes.push(`profile of ${name} stays below the threshold up to its bound ${b}: interval open on that side`);
-        return b;
-      }
-      a = b;
-      step *= 2;
-      b = a + dir * step;
-    }
-    if (fb < threshold) {
-      notes.push(`profile of ${name} did not reach the threshold: interval open on that side`);
-      return dir * Infinity;
-    }
-    // bisection between a (below) and b (above the threshold, or where the model is not finite)
-    let bFinite = Number.isFinite(fb);
-    for (let it = 0; it < 50; it++) {
-      const mid = 0.5 * (a + b);
-      const r = chiAt(mid);
-      if (r.chi < threshold) {
-        a = mid;
-        inside = r.x;
-      } else {
-        b = mid;
-        bFinite = Number.isFinite(r.chi);
-      }
-      if (Math.abs(b - a) <= 1e-7 * Math.max(Math.abs(a), Math.abs(step0))) break;
-    }
-    if (!bFinite) {
-      notes.push(
-        `profile of ${name}: the model is not finite just ${dir < 0 ? "below" : "above"} ${name} = ${a.toPrecision(6)} (others refitted) while the chi-square is still below the threshold: interval open on that side (bounded by the model's domain, not by the data)`,
-      );
-      return dir * Infinity;
-    }
-    return 0.5 * (a + b);
-  };
-  return [side(-1), side(+1)];
-}
-
-function bootstrap(
-  problem: LeastSquaresProblem,
-  xhat: Float64Array,
-  free: number[],
-  lo: Float64Array,
-  hi: Float64Array,
-  options: FitOptions,
-  parameters: Record<string, ParameterResult>,
-  confidence: number,
-  notes: string[],
-) {
-  const { samples, seed } = options.bootstrap!;
-  if (!Number.isInteger(samples) || samples < 10) throw new InputError("bootstrap.samples", samples, "a whole number >= 10");
-  const rng = seededRandom(seed);
-  const m = problem.m;
-  const fullModel = new Float64Array(m);
-  const draws: number[][] = free.map(() => []);
-  let failed = 0;
-  for (let b = 0; b < samples; b++) {
-    if (options.signal?.aborted) {
-      notes.push(`bootstrap stopped on request after ${b} resamples`);
-      break;
-    }
-    const idx = new Int32Array(m);
-    for (let i = 0; i < m; i++) idx[i] = rng.integer(m);
-    const y = new Float64Array(m);
-    const sg = problem.sigma ? new Float64Array(m) : null;
-    for (let i = 0; i < m; i++) {
-      y[i] = problem.y[idx[i]];
-      if (sg) sg[i] = problem.sigma![idx[i]];
-    }
-    const sub: LeastSquaresProblem = {
-      parameters: problem.parameters,
-      m,
-      y,
-      sigma: sg,
-      model(p, out) {
-        problem.model(p, fullModel);
-        for (let i = 0; i < m; i++) out[i] = fullModel[idx[i]];
-      },
-    };
-    if (problem.modelJacobian) {
-      const nAll = xhat.length;
-      const fj = new Float64Array(m * nAll);
-      sub.modelJacobian = (p, out) => {
-        problem.modelJacobian!(p, fj);
-        for (let c = 0; c < nAll; c++) for (let i = 0; i < m; i++) out[c * m + i] = fj[c * m + idx[i]];
-      };
-    }
-    const r = minimize(sub, xhat, free, lo, hi, { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10 });
-    if (r.status !== "converged") {
-      failed++;
-      continue;
-    }
-    free.forEach((j, c) => draws[c].push(r.x[j]));
-  }
-  if (failed > 0) notes.push(`${failed} bootstrap refits did not converge and were left out`);
-  free.forEach((j, c) => {
-    const d = draws[c].slice().sort((a, b) => a - b);
-    if (d.length < 2) return;
-    const mean = d.reduce((s, v) => s + v, 0) / d.length;
-    const sd = Math.sqrt(d.reduce((s, v) => s + (v - mean) ** 2, 0) / (d.length - 1));
-    const pick = (p: number) => {
-      const h = (d.length - 1) * p;
-      const l = Math.floor(h);
-      return d[l] + (h - l) * ((d[Math.min(l + 1, d.length - 1)] ?? d[l]) - d[l]);
-    };
-    const name = problem.parameters[j].name;
-    parameters[name].bootstrapStderr = sd;
-    parameters[name].bootstrapInterval = [pick((1 - confidence) / 2), pick((1 + confidence) / 2)];
-  });
 }
 
 /**

@@ -27,7 +27,7 @@
  * checked between evaluations (status "stopped").
  */
 import { pivotedQr, applyQt, solveDampedTriangular, solveUpperTransposed, choleskyLower } from "../numeric/denseLinalg.js";
-import { gramMatrix } from "./gramMatrix.js";
+import { gramMatrix } from "../numeric/gramMatrix.js";
 
 export interface LmProblem {
   /** Number of parameters. */
@@ -107,19 +107,19 @@ function fastFactor(
   if (m < 4 * nf || nf > 12) return null;
   for (const j of free) if (cn[j] === 0) return null;
   const G = gramMatrix(jac, m, nf, free);
-  for (let a = 0; a < nf; a++) for (let b = 0; b <= a; b++) G[a + b * nf] /= cn[free[a]] * cn[free[b]];
+  for (let a = 0; a < nf; a++) for (let b = 0; b <= a; b++) G[a + b * nf]! /= cn[free[a]!]! * cn[free[b]!]!;
   // Cholesky G = L L^T (lower, column-major)
   const L = choleskyLower(G, nf, 1e-4);
   if (!L) return null;
   // R = L^T diag(cn): R_ij = L_ji cn_j
   const r = new Float64Array(nf * nf);
-  for (let i = 0; i < nf; i++) for (let j = i; j < nf; j++) r[i + j * nf] = L[j + i * nf] * cn[free[j]];
+  for (let i = 0; i < nf; i++) for (let j = i; j < nf; j++) r[i + j * nf] = L[j + i * nf]! * cn[free[j]!]!;
   // qtf = R^-T (J^T f): forward substitution with R^T (lower)
   const qtf = new Float64Array(nf);
   for (let i = 0; i < nf; i++) {
-    let s = g[free[i]];
-    for (let k = 0; k < i; k++) s -= r[k + i * nf] * qtf[k];
-    qtf[i] = s / r[i + i * nf];
+    let s = g[free[i]!]!;
+    for (let k = 0; k < i; k++) s -= r[k + i * nf]! * qtf[k]!;
+    qtf[i] = s / r[i + i * nf]!;
   }
   const perm = new Int32Array(nf);
   for (let i = 0; i < nf; i++) perm[i] = i;
@@ -138,37 +138,37 @@ export function centralDifferenceJacobian(problem: LmProblem, p: Float64Array, o
   const q = Float64Array.from(p);
   let evals = 0;
   for (let j = 0; j < n; j++) {
-    const typ = problem.typical ? Math.abs(problem.typical[j]) : 0;
-    const scale = Math.max(Math.abs(p[j]), typ > 0 ? typ : Math.abs(p[j]) > 0 ? 0 : 1);
+    const typ = problem.typical ? Math.abs(problem.typical[j]!) : 0;
+    const scale = Math.max(Math.abs(p[j]!), typ > 0 ? typ : Math.abs(p[j]!) > 0 ? 0 : 1);
     let h = h0 * (scale > 0 ? scale : 1);
-    const l = lo ? lo[j] : -Infinity;
-    const u = hi ? hi[j] : Infinity;
+    const l = lo ? lo[j]! : -Infinity;
+    const u = hi ? hi[j]! : Infinity;
     const off = j * m;
-    if (p[j] - h >= l && p[j] + h <= u) {
-      q[j] = p[j] + h;
-      const hp = q[j] - p[j];
+    if (p[j]! - h >= l && p[j]! + h <= u) {
+      q[j] = p[j]! + h;
+      const hp = q[j]! - p[j]!;
       problem.residuals(q, ra);
-      q[j] = p[j] - h;
-      const hm = p[j] - q[j];
+      q[j] = p[j]! - h;
+      const hm = p[j]! - q[j]!;
       problem.residuals(q, rb);
       evals += 2;
       const d = hp + hm;
-      for (let i = 0; i < m; i++) out[off + i] = (ra[i] - rb[i]) / d;
+      for (let i = 0; i < m; i++) out[off + i] = (ra[i]! - rb[i]!) / d;
     } else {
       // one-sided, second order: f'(x) ~ (-3 f0 + 4 f1 - f2) / (2 h), stepping into the box
-      const dir = p[j] + 2 * h <= u ? 1 : -1;
-      if (dir < 0 && p[j] - 2 * h < l) h = Math.max((p[j] - l) / 2, EPS * Math.max(1, Math.abs(p[j])));
+      const dir = p[j]! + 2 * h <= u ? 1 : -1;
+      if (dir < 0 && p[j]! - 2 * h < l) h = Math.max((p[j]! - l) / 2, EPS * Math.max(1, Math.abs(p[j]!)));
       const r0 = new Float64Array(m);
-      q[j] = p[j];
+      q[j] = p[j]!;
       problem.residuals(q, r0);
-      q[j] = p[j] + dir * h;
+      q[j] = p[j]! + dir * h;
       problem.residuals(q, ra);
-      q[j] = p[j] + 2 * dir * h;
+      q[j] = p[j]! + 2 * dir * h;
       problem.residuals(q, rb);
       evals += 3;
-      for (let i = 0; i < m; i++) out[off + i] = (dir * (-3 * r0[i] + 4 * ra[i] - rb[i])) / (2 * h);
+      for (let i = 0; i < m; i++) out[off + i] = (dir * (-3 * r0[i]! + 4 * ra[i]! - rb[i]!)) / (2 * h);
     }
-    q[j] = p[j];
+    q[j] = p[j]!;
   }
   return evals;
 }
@@ -178,7 +178,7 @@ function norm(a: ArrayLike<number>): number {
   let scale = 0;
   let ssq = 1;
   for (let i = 0; i < a.length; i++) {
-    const v = a[i];
+    const v = a[i]!;
     if (v !== 0) {
       const av = Math.abs(v);
       if (scale < av) {
@@ -205,16 +205,16 @@ function lmStep(
   lambda0: number,
 ): { p: Float64Array; lambda: number } {
   const diagP = new Float64Array(nf);
-  for (let j = 0; j < nf; j++) diagP[j] = diag[perm[j]];
+  for (let j = 0; j < nf; j++) diagP[j] = diag[perm[j]!]!;
   const negQtf = qtf.map((v) => -v);
   const toX = (z: Float64Array) => {
     const p = new Float64Array(nf);
-    for (let j = 0; j < nf; j++) p[perm[j]] = z[j];
+    for (let j = 0; j < nf; j++) p[perm[j]!] = z[j]!;
     return p;
   };
   const dnorm = (p: Float64Array) => {
     let s = 0;
-    for (let j = 0; j < nf; j++) s += (diag[j] * p[j]) ** 2;
+    for (let j = 0; j < nf; j++) s += (diag[j]! * p[j]!) ** 2;
     return Math.sqrt(s);
   };
   // Gauss-Newton step
@@ -228,8 +228,8 @@ function lmStep(
   if (rank === nf) {
     const wa = new Float64Array(nf);
     for (let j = 0; j < nf; j++) {
-      const l = perm[j];
-      wa[j] = (diag[l] * (diag[l] * p[l])) / dxnorm;
+      const l = perm[j]!;
+      wa[j] = (diag[l]! * (diag[l]! * p[l]!)) / dxnorm;
     }
     const w = solveUpperTransposed(r, nf, wa);
     const t = norm(w);
@@ -239,8 +239,8 @@ function lmStep(
   const g = new Float64Array(nf);
   for (let j = 0; j < nf; j++) {
     let s = 0;
-    for (let i = 0; i <= j; i++) s += r[i + j * nf] * qtf[i];
-    g[j] = s / diagP[j];
+    for (let i = 0; i <= j; i++) s += r[i + j * nf]! * qtf[i]!;
+    g[j] = s / diagP[j]!;
   }
   const gnorm = norm(g);
   let paru = gnorm / delta;
@@ -257,8 +257,8 @@ function lmStep(
     if (Math.abs(fp) <= 0.1 * delta || (parl === 0 && fp <= temp && temp < 0) || iter === 10) break;
     const wa = new Float64Array(nf);
     for (let j = 0; j < nf; j++) {
-      const l = perm[j];
-      wa[j] = (diag[l] * (diag[l] * p[l])) / dxnorm;
+      const l = perm[j]!;
+      wa[j] = (diag[l]! * (diag[l]! * p[l]!)) / dxnorm;
     }
     const w = solveUpperTransposed(sol.s, nf, wa);
     const t = norm(w);
@@ -290,7 +290,7 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
   let iterations = 0;
   const result = (status: LmStatus, reason: string, message: string): LmResult => {
     const atBound: number[] = [];
-    for (let j = 0; j < n; j++) if (x[j] <= lo[j] || x[j] >= hi[j]) atBound.push(j);
+    for (let j = 0; j < n; j++) if (x[j]! <= lo[j]! || x[j]! >= hi[j]!) atBound.push(j);
     return {
       status,
       reason,
@@ -333,8 +333,8 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
     for (let j = 0; j < n; j++) {
       const off = j * m;
       columnDot(jac, off, f, m, dots);
-      const s = dots[0];
-      const c = dots[1];
+      const s = dots[0]!;
+      const c = dots[1]!;
       if (!Number.isFinite(s) || !Number.isFinite(c)) {
         let row = 0;
         while (row < m && Number.isFinite(jac[off + row])) row++;
@@ -342,26 +342,26 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       }
       g[j] = s;
       cn[j] = Math.sqrt(c);
-      const blockedLow = x[j] <= lo[j] && s > 0;
-      const blockedHigh = x[j] >= hi[j] && s < 0;
+      const blockedLow = x[j]! <= lo[j]! && s > 0;
+      const blockedHigh = x[j]! >= hi[j]! && s < 0;
       if (!blockedLow && !blockedHigh) free.push(j);
     }
     const nf = free.length;
     // gradient test (projected)
     let gnorm = 0;
     if (fnorm > 0) {
-      for (const j of free) if (cn[j] > 0) gnorm = Math.max(gnorm, Math.abs(g[j]) / (cn[j] * fnorm));
+      for (const j of free) if (cn[j]! > 0) gnorm = Math.max(gnorm, Math.abs(g[j]!) / (cn[j]! * fnorm));
     }
     if (nf === 0) return result("converged", "bounds", "every parameter is held by a bound with the gradient pointing outward");
     if (gnorm <= gtol) return result("converged", "gtol", `the residual is orthogonal to the Jacobian columns to gtol = ${gtol}`);
     // scaling
     if (first) {
-      for (let j = 0; j < n; j++) diag[j] = cn[j] === 0 ? 1 : cn[j];
+      for (let j = 0; j < n; j++) diag[j] = cn[j] === 0 ? 1 : cn[j]!;
       xnorm = scaledNorm(diag, x);
       delta = factor * xnorm;
       if (delta === 0) delta = factor;
     } else {
-      for (let j = 0; j < n; j++) diag[j] = Math.max(diag[j], cn[j]);
+      for (let j = 0; j < n; j++) diag[j] = Math.max(diag[j]!, cn[j]!);
     }
     // R and Q^T f of the free columns: from the Cholesky factor of the column-scaled J^T J when it
     // is well conditioned (cond(J) < 1e4: one pass over J, the step accuracy is then ~1e-8 and the
@@ -375,23 +375,23 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       // units of the parameters: columns may differ by 1e16 in norm), then R rescaled:
       // J C^-1 P = Q R'  =>  J P = Q R' (P^T C P), still upper triangular
       for (let k = 0; k < nf; k++) {
-        const c = cn[free[k]] > 0 ? 1 / cn[free[k]] : 1;
-        const src = free[k] * m;
+        const c = cn[free[k]!]! > 0 ? 1 / cn[free[k]!]! : 1;
+        const src = free[k]! * m;
         const dst = k * m;
         jfree ??= new Float64Array(m * n);
-        for (let i = 0; i < m; i++) jfree[dst + i] = jac[src + i] * c;
+        for (let i = 0; i < m; i++) jfree[dst + i] = jac[src + i]! * c;
       }
       const full = pivotedQr(jfree!.subarray(0, nf * m), m, nf);
       qtf = applyQt(full, f).subarray(0, nf);
       const rs = full.r;
       for (let j = 0; j < nf; j++) {
-        const c = cn[free[full.perm[j]]] > 0 ? cn[free[full.perm[j]]] : 1;
-        for (let i = 0; i <= j; i++) rs[i + j * nf] *= c;
+        const c = cn[free[full.perm[j]!]!]! > 0 ? cn[free[full.perm[j]!]!]! : 1;
+        for (let i = 0; i <= j; i++) rs[i + j * nf]! *= c;
       }
       qr = { r: rs, perm: full.perm, rank: full.rank, qtf };
     }
     const diagFree = new Float64Array(nf);
-    for (let k = 0; k < nf; k++) diagFree[k] = diag[free[k]];
+    for (let k = 0; k < nf; k++) diagFree[k] = diag[free[k]!]!;
     // inner loop
     for (;;) {
       if (options.signal?.aborted) return result("stopped", "stopped", "stopped on request before convergence");
@@ -399,11 +399,11 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       lambda = step.lambda;
       const xt = Float64Array.from(x);
       for (let k = 0; k < nf; k++) {
-        const j = free[k];
-        xt[j] = Math.min(hi[j], Math.max(lo[j], x[j] + step.p[k]));
+        const j = free[k]!;
+        xt[j] = Math.min(hi[j]!, Math.max(lo[j]!, x[j]! + step.p[k]!));
       }
       const pa = new Float64Array(n);
-      for (let j = 0; j < n; j++) pa[j] = xt[j] - x[j];
+      for (let j = 0; j < n; j++) pa[j] = xt[j]! - x[j]!;
       const pnorm = scaledNorm(diag, pa);
       if (first) delta = Math.min(delta, pnorm);
       problem.residuals(xt, ft);
@@ -414,8 +414,8 @@ export function levenbergMarquardt(problem: LmProblem, x0: ArrayLike<number>, op
       // predicted reduction of the (clipped) step from the linear model
       jacobianTimes(jac, pa, m, n, jpa);
       linearModel(f, jpa, m, dots);
-      const fjp = dots[0];
-      const sq = dots[1];
+      const fjp = dots[0]!;
+      const sq = dots[1]!;
       const f2 = fnorm * fnorm;
       const prered = f2 > 0 ? 1 - sq / f2 : 0;
       const dirder = f2 > 0 ? fjp / f2 : 0;
@@ -464,8 +464,8 @@ function columnDot(jac: Float64Array, off: number, f: Float64Array, m: number, o
   let s = 0;
   let c = 0;
   for (let i = 0; i < m; i++) {
-    const v = jac[off + i];
-    s += v * f[i];
+    const v = jac[off + i]!;
+    s += v * f[i]!;
     c += v * v;
   }
   out[0] = s;
@@ -476,10 +476,10 @@ function columnDot(jac: Float64Array, off: number, f: Float64Array, m: number, o
 function jacobianTimes(jac: Float64Array, p: Float64Array, m: number, n: number, out: Float64Array): void {
   out.fill(0);
   for (let j = 0; j < n; j++) {
-    const pj = p[j];
+    const pj = p[j]!;
     if (pj === 0) continue;
     const off = j * m;
-    for (let i = 0; i < m; i++) out[i] += jac[off + i] * pj;
+    for (let i = 0; i < m; i++) out[i]! += jac[off + i]! * pj;
   }
 }
 
@@ -488,9 +488,9 @@ function linearModel(f: Float64Array, jp: Float64Array, m: number, out: Float64A
   let fjp = 0;
   let sq = 0;
   for (let i = 0; i < m; i++) {
-    const v = jp[i];
-    fjp += f[i] * v;
-    const w = f[i] + v;
+    const v = jp[i]!;
+    fjp += f[i]! * v;
+    const w = f[i]! + v;
     sq += w * w;
   }
   out[0] = fjp;
@@ -499,12 +499,12 @@ function linearModel(f: Float64Array, jp: Float64Array, m: number, out: Float64A
 
 function sumsq(a: ArrayLike<number>): number {
   let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i] * a[i];
+  for (let i = 0; i < a.length; i++) s += a[i]! * a[i]!;
   return s;
 }
 
 function scaledNorm(d: ArrayLike<number>, x: ArrayLike<number>): number {
   let s = 0;
-  for (let j = 0; j < x.length; j++) s += (d[j] * x[j]) ** 2;
+  for (let j = 0; j < x.length; j++) s += (d[j]! * x[j]!) ** 2;
   return Math.sqrt(s);
 }

@@ -86,10 +86,10 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     rows.push({ line: i + 1, cells });
   });
   if (rows.length === 0) throw new InputError(src, "(no data rows)", "at least one data row of numbers");
-  const names: string[] = header ?? rows[0].cells.map((_, j) => `column ${j + 1}`);
+  const names: string[] = header ?? rows[0]!.cells.map((_, j) => `column ${j + 1}`);
   const units: string[] = names.map((n) => {
     const m = unitInName.exec(n);
-    return m ? m[2] : "";
+    return m?.[2] ?? "";
   });
   const headerNotes: string[] = [];
   if (unitRow !== null) {
@@ -105,7 +105,7 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   }
   const bare = names.map((n) => {
     const m = unitInName.exec(n);
-    return (m ? m[1] : n).trim();
+    return (m ? m[1]! : n).trim();
   });
   const pick = (c: string | number | null | undefined, fallback: number | null, role: string): number | null => {
     if (c === null) return null;
@@ -167,15 +167,15 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
         `${needed} columns (${[names[jx], names[jy], js !== null ? names[js] : null].filter(Boolean).join(", ")}); the row has ${r.cells.length}`,
       );
     }
-    const vx = numeric(r.cells[jx]);
-    const vy = numeric(r.cells[jy]);
-    const vs = js !== null ? numeric(r.cells[js]) : 1;
+    const vx = numeric(r.cells[jx]!);
+    const vy = numeric(r.cells[jy]!);
+    const vs = js !== null ? numeric(r.cells[js]!) : 1;
     for (const [v, j] of [
       [vx, jx],
       [vy, jy],
       [vs, js ?? jx],
     ] as Array<[number, number]>) {
-      if (Number.isNaN(v) && !(r.cells[j] === "" || /^nan$/i.test(r.cells[j]))) {
+      if (Number.isNaN(v) && !(r.cells[j] === "" || /^nan$/i.test(r.cells[j]!))) {
         throw new InputError(`${src} line ${r.line}, column ${names[j]}`, r.cells[j], "a decimal number such as 12.5 or -3e-9 (no hex, binary or octal literals, no Infinity)");
       }
       if (!Number.isNaN(v) && !Number.isFinite(v)) {
@@ -205,9 +205,9 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
     notes.push(`dropped ${nanRows.length} row(s) with NaN or empty values: ${nanRows.slice(0, 10).join(", ")}${nanRows.length > 10 ? " ..." : ""}`);
   }
   let sorted = true;
-  for (let i = 1; i < x.length; i++) if (x[i] < x[i - 1]) sorted = false;
+  for (let i = 1; i < x.length; i++) if (x[i]! < x[i - 1]!) sorted = false;
   if (!sorted) {
-    const order = x.map((_, i) => i).sort((a, b) => x[a] - x[b]);
+    const order = x.map((_, i) => i).sort((a, b) => x[a]! - x[b]!);
     const xs = order.map((i) => x[i]);
     const ys = order.map((i) => y[i]);
     const ss = sigma ? order.map((i) => sigma[i]) : null;
@@ -222,7 +222,7 @@ export function readProfileCsv(text: string, options: ProfileCsvOptions = {}): P
   if (x.length >= 2 && x[0] === x[x.length - 1]) {
     throw new InputError(
       `${src}: column ${names[jx]}`,
-      `all ${x.length} values equal to ${rows.find((r) => numeric(r.cells[jx]) * xScale === x[0])?.cells[jx] ?? x[0]}`,
+      `all ${x.length} values equal to ${rows.find((r) => numeric(r.cells[jx]!) * xScale === x[0])?.cells[jx] ?? x[0]}`,
       "positions that vary: all x values are equal: a profile needs a range of positions",
     );
   }

@@ -27,7 +27,7 @@
  * point-spread of standard deviation s). Checked against a direct real-space sum of 2D dipole
  * fields in test/lib/fit/strayField.test.ts.
  *
- * Accuracy (the bound models of profileModels.ts, against a scipy real-space quadrature in
+ * Accuracy (the bound models of profileModels.ts and strayBound.ts, against a scipy real-space quadrature in
  * test/lib/fit/strayField.test.ts): about 1e-8 to 5e-7 of the peak field without blur, sensors down to h = 2 nm over walls six times wider. Three error
  * sources were found and removed: (1) a single atan reference for the 180-degree wall leaves a
  * -2 / (pi u) tail that the periodic box cuts with a jump (now three references with u^-1 and u^-3
@@ -68,15 +68,15 @@ export function gridFor(xmin: number, xmax: number, dxMax: number, pad: number):
 export function interpolateGrid(grid: UniformGrid, values: Float64Array, x: ArrayLike<number>, out: Float64Array): void {
   const { x0, dx, n } = grid;
   for (let i = 0; i < x.length; i++) {
-    const s = (x[i] - x0) / dx;
+    const s = (x[i]! - x0) / dx;
     let j = Math.floor(s);
     if (j < 1) j = 1;
     if (j > n - 3) j = n - 3;
     const t = s - j;
-    const p0 = values[j - 1];
-    const p1 = values[j];
-    const p2 = values[j + 1];
-    const p3 = values[j + 2];
+    const p0 = values[j - 1]!;
+    const p1 = values[j]!;
+    const p2 = values[j + 1]!;
+    const p3 = values[j + 2]!;
     out[i] = p1 + 0.5 * t * (p2 - p0 + t * (2 * p0 - 5 * p1 + 4 * p2 - p3 + t * (3 * (p1 - p2) + p3 - p0)));
   }
 }
@@ -134,10 +134,10 @@ export function strayFieldOnGrid(input: StrayFieldInput): { bz: Float64Array; bx
   for (let j = 0; j < n; j++) {
     const jm = j === 0 ? 0 : n - j;
     // unpack the two real transforms: A = FFT(mzLocal), B = FFT(mx)
-    const ar = 0.5 * (re[j] + re[jm]);
-    const ai = 0.5 * (im[j] - im[jm]);
-    const br = 0.5 * (im[j] + im[jm]);
-    const bi = -0.5 * (re[j] - re[jm]);
+    const ar = 0.5 * (re[j]! + re[jm]!);
+    const ai = 0.5 * (im[j]! - im[jm]!);
+    const br = 0.5 * (im[j]! + im[jm]!);
+    const bi = -0.5 * (re[j]! - re[jm]!);
     const f = j < n / 2 ? j : j - n;
     const k = (2 * Math.PI * f) / (n * grid.dx);
     const ak = Math.abs(k);
@@ -149,10 +149,10 @@ export function strayFieldOnGrid(input: StrayFieldInput): { bz: Float64Array; bx
     let bzi = K * (ai - sg * br);
     if (sre && sim) {
       // unpack step transforms Sz = FFT(bz_step), Sx = FFT(bx_step)
-      const szr = 0.5 * (sre[j] + sre[jm]);
-      const szi = 0.5 * (sim[j] - sim[jm]);
-      const sxr = 0.5 * (sim[j] + sim[jm]);
-      const sxi = -0.5 * (sre[j] - sre[jm]);
+      const szr = 0.5 * (sre[j]! + sre[jm]!);
+      const szi = 0.5 * (sim[j]! - sim[jm]!);
+      const sxr = 0.5 * (sim[j]! + sim[jm]!);
+      const sxi = -0.5 * (sre[j]! - sre[jm]!);
       // Bx from the local part: -i sg Bz_local; then add blurred step parts
       const bxr = sg * bzi + G * sxr;
       const bxi = -sg * bzr + G * sxi;
@@ -228,8 +228,8 @@ export function blurOnGrid(grid: UniformGrid, values: Float64Array, blur: number
     const f = j < n / 2 ? j : j - n;
     const k = (2 * Math.PI * f) / (n * grid.dx);
     const G = Math.exp(-0.5 * k * k * blur * blur);
-    re[j] *= G;
-    im[j] *= G;
+    re[j]! *= G;
+    im[j]! *= G;
   }
   ifft(re, im);
   return re;

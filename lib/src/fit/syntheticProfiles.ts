@@ -9,7 +9,7 @@ import type { Film } from "../material/film.js";
 import { solveSkyrmionAnsatz } from "../walls/skyrmionAnsatz.js";
 import { wall360Equilibrium } from "../walls/wall360.js";
 import { getProfileModel, type ProfileModel } from "./profileModels.js";
-import { seededRandom } from "./prng.js";
+import { seededRandom } from "../numeric/prng.js";
 
 export interface SyntheticProfile {
   x: number[];
@@ -50,7 +50,7 @@ export function syntheticProfile(model: ProfileModel | string, parameters: Recor
   const rng = seededRandom(options.seed ?? 1);
   const y = Array.from(clean, (v) => v + noise * rng.normal());
   const truth: Record<string, number> = {};
-  pm.parameters.forEach((q, j) => (truth[q.name] = p[j]));
+  pm.parameters.forEach((q, j) => (truth[q.name] = p[j]!));
   return { x: Array.from(x), y, sigma: new Array(n).fill(noise), clean: Array.from(clean), truth };
 }
 

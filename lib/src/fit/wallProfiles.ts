@@ -71,14 +71,14 @@ export function wall360Point(x: number, x0: number, R: number, w: number): { mz:
 export function wall360Mz(x: ArrayLike<number>, x0: number, R: number, w: number, out: Float64Array): void {
   const b = R / w;
   if (b > 300) {
-    for (let i = 0; i < x.length; i++) out[i] = wall360Point(x[i], x0, R, w).mz;
+    for (let i = 0; i < x.length; i++) out[i] = wall360Point(x[i]!, x0, R, w).mz;
     return;
   }
   const sb = Math.sinh(b);
   const sb2 = sb * sb;
   const iw = 1 / w;
   for (let i = 0; i < x.length; i++) {
-    const a = Math.abs(x[i] - x0) * iw;
+    const a = Math.abs(x[i]! - x0) * iw;
     if (a > 300) {
       out[i] = 1;
       continue;
@@ -99,7 +99,7 @@ export function wall360MzDerivatives(x: ArrayLike<number>, x0: number, R: number
   const b = R / w;
   if (b > 300) {
     for (let i = 0; i < m; i++) {
-      const q = wall360Point(x[i], x0, R, w);
+      const q = wall360Point(x[i]!, x0, R, w);
       mz[i] = q.mz;
       d[i] = q.dx0;
       d[m + i] = q.dR;
@@ -112,7 +112,7 @@ export function wall360MzDerivatives(x: ArrayLike<number>, x0: number, R: number
   const cb = 1 / Math.tanh(b);
   const iw = 1 / w;
   for (let i = 0; i < m; i++) {
-    const u = x[i] - x0;
+    const u = x[i]! - x0;
     const a = Math.abs(u) * iw;
     if (a > 300) {
       mz[i] = 1;

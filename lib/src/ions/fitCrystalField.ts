@@ -13,7 +13,7 @@
  */
 import { InputError } from "../errors.js";
 import { solveLeastSquares, type FitResult, type FitOptions } from "../fit/leastSquares.js";
-import { seededRandom } from "../fit/prng.js";
+import { seededRandom } from "../numeric/prng.js";
 import { ionSpectrum } from "./singleIon.js";
 import { parseTermName, twiceJ } from "./stevens.js";
 

@@ -34,7 +34,7 @@
  */
 import { InputError } from "../errors.js";
 import { HermitianEigenSolver } from "../numeric/eigenHermitian.js";
-import { erfc } from "../fit/distributions.js"; // relative error below 1.5e-15 (tested against mpmath)
+import { erfc } from "../numeric/distributions.js"; // relative error below 1.5e-15 (tested against mpmath)
 
 export type Vec2 = [number, number];
 

@@ -46,7 +46,7 @@ export function pivotedQr(a: Float64Array, m: number, n: number, rcond = 1e-13):
     perm[j] = j;
     let s = 0;
     const off = j * m;
-    for (let i = 0; i < m; i++) s += w[off + i] * w[off + i];
+    for (let i = 0; i < m; i++) s += w[off + i]! * w[off + i]!;
     colNorm2[j] = s;
     columnNorms[j] = Math.sqrt(s);
   }
@@ -58,7 +58,7 @@ export function pivotedQr(a: Float64Array, m: number, n: number, rcond = 1e-13):
     for (let j = k; j < n; j++) {
       let s = 0;
       const off = j * m;
-      for (let i = k; i < m; i++) s += w[off + i] * w[off + i];
+      for (let i = k; i < m; i++) s += w[off + i]! * w[off + i]!;
       colNorm2[j] = s;
       if (s > bestNorm) {
         bestNorm = s;
@@ -69,12 +69,12 @@ export function pivotedQr(a: Float64Array, m: number, n: number, rcond = 1e-13):
       const ok = k * m;
       const ob = best * m;
       for (let i = 0; i < m; i++) {
-        const t = w[ok + i];
-        w[ok + i] = w[ob + i];
+        const t = w[ok + i]!;
+        w[ok + i] = w[ob + i]!;
         w[ob + i] = t;
       }
-      const tp = perm[k];
-      perm[k] = perm[best];
+      const tp = perm[k]!;
+      perm[k] = perm[best]!;
       perm[best] = tp;
     }
     // Householder vector for column k, rows k..m-1 (stored in place, v_k = 1 implicit scaling)
@@ -84,11 +84,11 @@ export function pivotedQr(a: Float64Array, m: number, n: number, rcond = 1e-13):
       beta[k] = 0;
       continue;
     }
-    const alpha = w[ok + k] >= 0 ? -normx : normx;
-    const v0 = w[ok + k] - alpha;
+    const alpha = w[ok + k]! >= 0 ? -normx : normx;
+    const v0 = w[ok + k]! - alpha;
     // v = [v0, x_{k+1..}], beta = 2 / (v^T v)
     let vtv = v0 * v0;
-    for (let i = k + 1; i < m; i++) vtv += w[ok + i] * w[ok + i];
+    for (let i = k + 1; i < m; i++) vtv += w[ok + i]! * w[ok + i]!;
     w[ok + k] = v0;
     const b = vtv > 0 ? 2 / vtv : 0;
     beta[k] = b;
@@ -96,21 +96,21 @@ export function pivotedQr(a: Float64Array, m: number, n: number, rcond = 1e-13):
     for (let j = k + 1; j < n; j++) {
       const oj = j * m;
       let s = 0;
-      for (let i = k; i < m; i++) s += w[ok + i] * w[oj + i];
+      for (let i = k; i < m; i++) s += w[ok + i]! * w[oj + i]!;
       s *= b;
-      if (s !== 0) for (let i = k; i < m; i++) w[oj + i] -= s * w[ok + i];
+      if (s !== 0) for (let i = k; i < m; i++) w[oj + i]! -= s * w[ok + i]!;
     }
     // store R_kk separately: we keep v in column k and put alpha in the R array below
     colNorm2[k] = alpha; // reuse as storage of the diagonal
   }
   const r = new Float64Array(n * n);
   for (let j = 0; j < n; j++) {
-    for (let i = 0; i < j; i++) r[i + j * n] = w[j * m + i];
-    r[j + j * n] = beta[j] === 0 && colNorm2[j] === 0 ? 0 : colNorm2[j];
+    for (let i = 0; i < j; i++) r[i + j * n] = w[j * m + i]!;
+    r[j + j * n] = beta[j] === 0 && colNorm2[j] === 0 ? 0 : colNorm2[j]!;
   }
   let rank = 0;
-  const r00 = Math.abs(r[0]);
-  for (let k = 0; k < n; k++) if (Math.abs(r[k + k * n]) > rcond * r00 && r00 > 0) rank++;
+  const r00 = Math.abs(r[0]!);
+  for (let k = 0; k < n; k++) if (Math.abs(r[k + k * n]!) > rcond * r00 && r00 > 0) rank++;
   return { m, n, r, perm, columnNorms, rank, v: w, beta };
 }
 
@@ -119,13 +119,13 @@ export function applyQt(qr: PivotedQr, b: ArrayLike<number>): Float64Array {
   const { m, n, v, beta } = qr;
   const out = Float64Array.from(b as ArrayLike<number>);
   for (let k = 0; k < n; k++) {
-    const bk = beta[k];
+    const bk = beta[k]!;
     if (bk === 0) continue;
     const ok = k * m;
     let s = 0;
-    for (let i = k; i < m; i++) s += v[ok + i] * out[i];
+    for (let i = k; i < m; i++) s += v[ok + i]! * out[i]!;
     s *= bk;
-    for (let i = k; i < m; i++) out[i] -= s * v[ok + i];
+    for (let i = k; i < m; i++) out[i]! -= s * v[ok + i]!;
   }
   return out;
 }
@@ -147,7 +147,7 @@ export function solveDampedTriangular(
 ): { z: Float64Array; s: Float64Array; singular: boolean } {
   const s = Float64Array.from(r);
   const rhs = new Float64Array(n);
-  for (let i = 0; i < n; i++) rhs[i] = qtb[i];
+  for (let i = 0; i < n; i++) rhs[i] = qtb[i]!;
   const sq = Math.sqrt(Math.max(lambda, 0));
   if (sq > 0) {
     // eliminate each row of sqrt(lambda) D by Givens rotations against S
@@ -155,30 +155,30 @@ export function solveDampedTriangular(
     for (let j = 0; j < n; j++) {
       if (diag[j] === 0) continue;
       row.fill(0);
-      row[j] = sq * diag[j];
+      row[j] = sq * diag[j]!;
       let extra = 0; // rhs component of the appended row
       for (let k = j; k < n; k++) {
         if (row[k] === 0) continue;
-        const skk = s[k + k * n];
+        const skk = s[k + k * n]!;
         let c: number;
         let sn: number;
-        if (Math.abs(skk) < Math.abs(row[k])) {
-          const cot = skk / row[k];
+        if (Math.abs(skk) < Math.abs(row[k]!)) {
+          const cot = skk / row[k]!;
           sn = 0.5 / Math.sqrt(0.25 + 0.25 * cot * cot);
           c = sn * cot;
         } else {
-          const tan = row[k] / skk;
+          const tan = row[k]! / skk;
           c = 0.5 / Math.sqrt(0.25 + 0.25 * tan * tan);
           sn = c * tan;
         }
-        s[k + k * n] = c * skk + sn * row[k];
-        const t = c * rhs[k] + sn * extra;
-        extra = -sn * rhs[k] + c * extra;
+        s[k + k * n] = c * skk + sn * row[k]!;
+        const t = c * rhs[k]! + sn * extra;
+        extra = -sn * rhs[k]! + c * extra;
         rhs[k] = t;
         for (let i = k + 1; i < n; i++) {
-          const ski = s[k + i * n];
-          const t2 = c * ski + sn * row[i];
-          row[i] = -sn * ski + c * row[i];
+          const ski = s[k + i * n]!;
+          const t2 = c * ski + sn * row[i]!;
+          row[i] = -sn * ski + c * row[i]!;
           s[k + i * n] = t2;
         }
       }
@@ -194,9 +194,9 @@ export function solveDampedTriangular(
     }
   }
   for (let j = nsing - 1; j >= 0; j--) {
-    let sum = rhs[j];
-    for (let i = j + 1; i < nsing; i++) sum -= s[j + i * n] * z[i];
-    z[j] = sum / s[j + j * n];
+    let sum = rhs[j]!;
+    for (let i = j + 1; i < nsing; i++) sum -= s[j + i * n]! * z[i]!;
+    z[j] = sum / s[j + j * n]!;
   }
   return { z, s, singular: nsing < n };
 }
@@ -205,9 +205,9 @@ export function solveDampedTriangular(
 export function solveUpperTransposed(s: Float64Array, n: number, b: ArrayLike<number>): Float64Array {
   const w = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    let sum = b[i];
-    for (let k = 0; k < i; k++) sum -= s[k + i * n] * w[k];
-    const d = s[i + i * n];
+    let sum = b[i]!;
+    for (let k = 0; k < i; k++) sum -= s[k + i * n]! * w[k]!;
+    const d = s[i + i * n]!;
     w[i] = d === 0 ? 0 : sum / d;
   }
   return w;
@@ -223,11 +223,11 @@ export function inverseNormalFromQr(qr: PivotedQr): Float64Array | null {
   // Rinv (upper triangular)
   const rinv = new Float64Array(n * n);
   for (let j = 0; j < n; j++) {
-    rinv[j + j * n] = 1 / r[j + j * n];
+    rinv[j + j * n] = 1 / r[j + j * n]!;
     for (let i = j - 1; i >= 0; i--) {
       let sum = 0;
-      for (let k = i + 1; k <= j; k++) sum += r[i + k * n] * rinv[k + j * n];
-      rinv[i + j * n] = -sum / r[i + i * n];
+      for (let k = i + 1; k <= j; k++) sum += r[i + k * n]! * rinv[k + j * n]!;
+      rinv[i + j * n] = -sum / r[i + i * n]!;
     }
   }
   // C = Rinv Rinv^T, then permute
@@ -235,9 +235,9 @@ export function inverseNormalFromQr(qr: PivotedQr): Float64Array | null {
   for (let i = 0; i < n; i++) {
     for (let j = i; j < n; j++) {
       let sum = 0;
-      for (let k = Math.max(i, j); k < n; k++) sum += rinv[i + k * n] * rinv[j + k * n];
-      const pi = perm[i];
-      const pj = perm[j];
+      for (let k = Math.max(i, j); k < n; k++) sum += rinv[i + k * n]! * rinv[j + k * n]!;
+      const pi = perm[i]!;
+      const pj = perm[j]!;
       out[pi + pj * n] = sum;
       out[pj + pi * n] = sum;
     }

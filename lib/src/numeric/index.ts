@@ -14,3 +14,6 @@ export * from "./doubleDouble.js";
 export * from "./brentRoot.js";
 export * from "./eigenSymmetricBand.js";
 export * from "./latticeHankelTransform.js";
+export * from "./distributions.js";
+export * from "./prng.js";
+export * from "./dilogarithm.js";

@@ -73,9 +73,9 @@ function abelProjections(sampler: RadialSampler, count: number, h: number, n: nu
     for (let j = 1; j <= nj; j++) {
       const y = j * hy;
       sampler.sample(Math.sqrt(x2 + y * y), v);
-      for (let k = 0; k < count; k++) P[k * stride + i] += 2 * v[k]!;
+      for (let k = 0; k < count; k++) P[k * stride + i]! += 2 * v[k]!;
     }
-    for (let k = 0; k < count; k++) P[k * stride + i] *= hy;
+    for (let k = 0; k < count; k++) P[k * stride + i]! *= hy;
   }
   return P;
 }

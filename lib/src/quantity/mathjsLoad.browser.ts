@@ -10,7 +10,12 @@
  * group holds every factory (`all`), as the static `compile` kept every function before.
  */
 import { all, create, complexDependencies, createUnitDependencies, eigsDependencies, sqrtDependencies, unitDependencies } from "mathjs";
+import type { FactoryFunctionMap } from "mathjs";
 import type { MathUnits, MathExpressions, MathComplex } from "./mathjsLoad.js";
+
+// mathjs declares its dependency maps through an index signature, so under noUncheckedIndexedAccess
+// each reads as possibly undefined; they are module constants that always exist
+const deps = (d: Record<string, FactoryFunctionMap | undefined>): FactoryFunctionMap => d as FactoryFunctionMap;
 
 let units: MathUnits | undefined;
 let expressions: MathExpressions | undefined;
@@ -18,21 +23,21 @@ let complexes: MathComplex | undefined;
 
 export function loadMathUnits(): MathUnits {
   if (!units) {
-    const m = create({ unitDependencies, createUnitDependencies }, {});
+    const m = create(deps({ unitDependencies, createUnitDependencies }), {});
     units = { unit: m.unit, createUnit: m.createUnit };
   }
   return units;
 }
 export function loadMathExpressions(): MathExpressions {
   if (!expressions) {
-    const m = create(all, {});
+    const m = create(all as FactoryFunctionMap, {});
     expressions = { compile: m.compile, parse: m.parse, unit: m.unit, createUnit: m.createUnit };
   }
   return expressions;
 }
 export function loadMathComplex(): MathComplex {
   if (!complexes) {
-    const m = create({ complexDependencies, sqrtDependencies, eigsDependencies }, {});
+    const m = create(deps({ complexDependencies, sqrtDependencies, eigsDependencies }), {});
     complexes = { complex: m.complex, sqrt: m.sqrt, eigs: m.eigs };
   }
   return complexes;

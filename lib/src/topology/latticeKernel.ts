@@ -221,8 +221,8 @@ export function solidAngleSumGeneral(
     sum += 2 * rowSum;
   }
   if (counts !== null) {
-    counts[0] += used;
-    counts[1] += skipped;
+    counts[0]! += used;
+    counts[1]! += skipped;
   }
   return sum;
 }

@@ -297,7 +297,7 @@ export function findVortices(field: VectorField, options: VortexOptions = {}): V
   const sets: SiteSet[] = [];
   const offsets = tri ? TRIANGULAR_NEIGHBOURS : SQUARE_NEIGHBOURS;
   for (let c0 = 0; c0 < n; c0++) {
-    if (ok[c0] === 1 || setOf[c0] >= 0) continue;
+    if (ok[c0] === 1 || setOf[c0]! >= 0) continue;
     const id = sets.length;
     const set: SiteSet = { sites: [], si: 0, sj: 0, reachesEdge: false, wraps: false, hasVacuum: false, plaquettes: [] };
     sets.push(set);

@@ -5,7 +5,7 @@ import { mkdtempSync, writeFileSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fitCommand } from "../../../kernel-ext/src/cli/fit.js";
-import { seededRandom } from "../../../lib/src/fit/prng.js";
+import { seededRandom } from "../../../lib/src/numeric/prng.js";
 
 function capture() {
   const out: string[] = [];

@@ -7,7 +7,7 @@
  */
 import { describe, it, expect } from "vitest";
 import { fitProfile } from "../../../lib/src/fit/fitProfile.js";
-import { seededRandom } from "../../../lib/src/fit/prng.js";
+import { seededRandom } from "../../../lib/src/numeric/prng.js";
 
 const nm = 1e-9;
 const truth = { x0: 5 * nm, Delta: 15 * nm, offset: 0.2, contrast: 0.7 };

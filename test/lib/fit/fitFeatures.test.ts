@@ -5,8 +5,8 @@
  */
 import { describe, it, expect } from "vitest";
 import { fitProfile, fitGlobal, formulaModel, userModel } from "../../../lib/src/fit/fitProfile.js";
-import { seededRandom } from "../../../lib/src/fit/prng.js";
-import { studentTQuantile, normalQuantile } from "../../../lib/src/fit/distributions.js";
+import { seededRandom } from "../../../lib/src/numeric/prng.js";
+import { studentTQuantile, normalQuantile } from "../../../lib/src/numeric/distributions.js";
 import { runPython } from "../../helpers/python.js";
 
 const nm = 1e-9;

@@ -7,7 +7,7 @@
 import { describe, it, expect } from "vitest";
 import { runPython } from "../../helpers/python.js";
 import { fitProfile } from "../../../lib/src/fit/fitProfile.js";
-import { seededRandom } from "../../../lib/src/fit/prng.js";
+import { seededRandom } from "../../../lib/src/numeric/prng.js";
 
 const nm = 1e-9;
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { fitCrystalField, readLevelCsv, ionSpectrum, InputError } from "@helicoid/lib";
-import { seededRandom } from "../../../lib/src/fit/prng.js";
+import { seededRandom } from "../../../lib/src/numeric/prng.js";
 
 function levels(terms: Array<{ l: number; m: number; B: number }>, idx: number[]): number[] {
   const sp = ionSpectrum({ J: 7.5, gJ: 1.2, terms });

@@ -8,7 +8,7 @@
 
 /**
  * Complementary error function. Relative error (against mpmath at 40 digits, 4000 points on [-6, 27]
- * and both sides of every table centre; test/lib/fit/distributions.test.ts): below 3e-16 for x < 6,
+ * and both sides of every table centre; test/lib/numeric/distributions.test.ts): below 3e-16 for x < 6,
  * below 1.5e-15 for 6 <= x < 26.55, then 0
  * (underflow). Method: for 0 <= x < 6, a Taylor polynomial of degree 17 about the nearest centre
  * x0 = k / 8, with erfc^(n)(x0) = (-1)^n (2 / sqrt pi) H_{n-1}(x0) exp(-x0^2) (Hermite polynomials,
@@ -108,7 +108,7 @@ export function erfc(x: number): number {
 }
 
 /** Standard normal quantile z(p). Error below 2e-16 relative to max(|z|, 1) for p from 1e-300 to
- * 1 - 1e-16 (against mpmath, test/lib/fit/distributions.test.ts). Kept over
+ * 1 - 1e-16 (against mpmath, test/lib/numeric/distributions.test.ts). Kept over
  * @stdlib/stats-base-dists-normal-quantile (test/bench/libraries.bench.mjs): that one is faster but
  * returns -Infinity below p of about 1e-100. */
 export function normalQuantile(p: number): number {
@@ -124,14 +124,14 @@ export function normalQuantile(p: number): number {
   let x: number;
   if (p < pl) {
     const q = Math.sqrt(-2 * Math.log(p));
-    x = (((((c[0] * q + c[1]) * q + c[2]) * q + c[3]) * q + c[4]) * q + c[5]) / ((((d[0] * q + d[1]) * q + d[2]) * q + d[3]) * q + 1);
+    x = (((((c[0]! * q + c[1]!) * q + c[2]!) * q + c[3]!) * q + c[4]!) * q + c[5]!) / ((((d[0]! * q + d[1]!) * q + d[2]!) * q + d[3]!) * q + 1);
   } else if (p <= 1 - pl) {
     const q = p - 0.5;
     const r = q * q;
-    x = ((((((a[0] * r + a[1]) * r + a[2]) * r + a[3]) * r + a[4]) * r + a[5]) * q) / (((((b[0] * r + b[1]) * r + b[2]) * r + b[3]) * r + b[4]) * r + 1);
+    x = ((((((a[0]! * r + a[1]!) * r + a[2]!) * r + a[3]!) * r + a[4]!) * r + a[5]!) * q) / (((((b[0]! * r + b[1]!) * r + b[2]!) * r + b[3]!) * r + b[4]!) * r + 1);
   } else {
     const q = Math.sqrt(-2 * Math.log(1 - p));
-    x = -(((((c[0] * q + c[1]) * q + c[2]) * q + c[3]) * q + c[4]) * q + c[5]) / ((((d[0] * q + d[1]) * q + d[2]) * q + d[3]) * q + 1);
+    x = -(((((c[0]! * q + c[1]!) * q + c[2]!) * q + c[3]!) * q + c[4]!) * q + c[5]!) / ((((d[0]! * q + d[1]!) * q + d[2]!) * q + d[3]!) * q + 1);
   }
   // one Halley refinement
   const e = 0.5 * erfc(-x / Math.SQRT2) - p;
@@ -148,9 +148,9 @@ function logGamma(x: number): number {
   ];
   if (x < 0.5) return Math.log(Math.PI / Math.abs(Math.sin(Math.PI * x))) - logGamma(1 - x);
   x -= 1;
-  let a = coef[0];
+  let a = coef[0]!;
   const t = x + g + 0.5;
-  for (let i = 1; i < g + 2; i++) a += coef[i] / (x + i);
+  for (let i = 1; i < g + 2; i++) a += coef[i]! / (x + i);
   return 0.5 * Math.log(2 * Math.PI) + (x + 0.5) * Math.log(t) - t + Math.log(a);
 }
 
@@ -201,7 +201,7 @@ export function studentTCdf(t: number, nu: number): number {
 }
 
 /** Student t quantile t_p(nu) (nu may be fractional; nu = Infinity gives the normal quantile).
- * Error relative to max(|t|, 1), against mpmath (test/lib/fit/distributions.test.ts): below 1e-12 for
+ * Error relative to max(|t|, 1), against mpmath (test/lib/numeric/distributions.test.ts): below 1e-12 for
  * nu <= 1000, 7e-10 at nu = 1e6 (the incomplete beta near x = 1 loses digits).
  * @stdlib/stats-base-dists-t-quantile is faster (about 3 times) and accurate to 4e-16, but weighs about
  * 190 kB minified (its dependency tree) in the page bundle, where the fits run; kept ours

@@ -1,8 +1,8 @@
 // erfc, the standard normal quantile and Student's t quantile against mpmath at 40 digits (Debian's
 // python3-mpmath as the outside oracle). The bounds below are the measured worst errors rounded up
-// (the true accuracy, as stated in lib/src/fit/distributions.ts), not loose tolerances.
+// (the true accuracy, as stated in lib/src/numeric/distributions.ts), not loose tolerances.
 import { describe, expect, it } from "vitest";
-import { erfc, normalQuantile, studentTQuantile } from "../../../lib/src/fit/distributions.js";
+import { erfc, normalQuantile, studentTQuantile } from "../../../lib/src/numeric/distributions.js";
 import { runPython } from "../../helpers/python.js";
 
 const MP = `
