@@ -48,6 +48,15 @@ export function covarianceAtOptimum(
     const inv = norm > 0 ? 1 / norm : 0;
     for (let i = 0; i < m; i++) Jn[off + i] = J[off + i]! * inv;
   }
+  // a derivative that is not finite at the solution (a start or an end far outside the model's
+  // range, e.g. w = 8 m for a nanometre wall): no covariance, and the parameters named
+  const nonFinite = names.filter((_, c) => !Number.isFinite(norms[c]!));
+  if (nonFinite.length > 0)
+    return {
+      cov: null,
+      degenerate: [nonFinite],
+      message: `the model's derivatives with respect to ${nonFinite.join(", ")} are not finite at the solution (the fit ended outside the range where the model is computable); no standard errors are reported. Check the start values and their units.`,
+    };
   const zeroNames = names.filter((_, c) => norms[c] === 0);
   // fast path: Cholesky of the normalized Gram matrix when clearly well conditioned (its
   // inverse is then accurate to ~cond * eps <= 1e-9 relative); otherwise pivoted QR

@@ -13,6 +13,7 @@
  */
 
 import { SymmetricEigenSolver } from "./eigenSymmetricQL.js";
+import { InputError } from "../errors.js";
 
 /** Result of a pivoted QR factorization A P = Q R of an m x n matrix (m >= n). */
 export interface PivotedQr {
@@ -254,6 +255,7 @@ export function inverseNormalFromQr(qr: PivotedQr): Float64Array | null {
  * times slower from n = 10 on.
  */
 export function symmetricEigen(a: ArrayLike<number>, n: number): { values: Float64Array; vectors: Float64Array } {
+  for (let i = 0; i < n * n; i++) if (!Number.isFinite(a[i]!)) throw new InputError("matrix", a[i]!, `finite entries (entry ${i} of the ${n} x ${n} matrix is not)`);
   const solver = new SymmetricEigenSolver(n);
   solver.solve(a, true);
   const values = Float64Array.from(solver.values);

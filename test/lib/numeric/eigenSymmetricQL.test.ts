@@ -164,3 +164,13 @@ print(json.dumps(out))`,
     });
   });
 });
+
+describe("symmetricEigen: non-finite input", () => {
+  it("is refused with an InputError naming the matrix and the entry, not a convergence failure", () => {
+    // Common practice, no source: an eigensolver's input must be finite (LAPACK's dsyev returns NaN)
+    const a = Float64Array.from([2, 1, 0, 1, 2, 1, 0, 1, Number.NaN]);
+    expect(() => symmetricEigen(a, 3)).toThrow(/matrix.*entry 8 of the 3 x 3 matrix/);
+    a[8] = Number.POSITIVE_INFINITY;
+    expect(() => symmetricEigen(a, 3)).toThrow(/InputError|finite entries/);
+  });
+});

@@ -12,7 +12,7 @@ import * as mathjs from "mathjs";
 import { loadMathUnits, UNIT_FACTORIES } from "../../../lib/src/quantity/mathjsLoad.js";
 import * as browserLoad from "../../../lib/src/quantity/mathjsLoad.browser.js";
 
-const dist = fileURLToPath(new URL("../../../lib/dist/index.js", import.meta.url));
+const dist = fileURLToPath(new URL("../../../lib/dist/internal.js", import.meta.url));
 
 function child(body: string): { loads: string[]; cached: boolean; out: unknown } {
   const script = `
