@@ -8,6 +8,7 @@ import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from
 import { inUncertainForm, runWithUncertainty, type InputWithUncertainty, type UncertaintyOptions, type UncertaintyReport } from "./uncertainty.js";
 import type { DocumentedResult, Quantity } from "../result.js";
 import type { CatalogueSpec } from "./catalogue.js";
+import { filmInputsFor, type FilmRecord } from "../material/filmFile.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
 export interface InputSpec<N extends string = string> {
@@ -269,9 +270,24 @@ export interface FilmFieldsInInputs {
 
 /**
  * What `runCalculator` takes as inputs: each input by name (an SI number or a string with a unit),
- * any of them left out for its default. A `Film` (or any object with the fields of one) is accepted.
+ * any of them left out for its default. A `Film` (or any object with the fields of one) is accepted,
+ * and so is a film file as `loadFilm` reads it (its uncertainties and correlations carried through).
  */
-export type CalculatorInputs<S> = string extends InputNamesOf<S> ? object : { [K in InputNamesOf<S>]?: InputWithUncertainty } & FilmFieldsInInputs;
+export type CalculatorInputs<S> = string extends InputNamesOf<S> ? object : ({ [K in InputNamesOf<S>]?: InputWithUncertainty } & FilmFieldsInInputs) | FilmRecord;
+
+/** A film file as `loadFilm` reads it (not a plain inputs object that happens to have such names). */
+function isFilmRecord(x: object): x is FilmRecord {
+  const r = x as Partial<FilmRecord>;
+  return (
+    typeof r.name === "string" &&
+    Array.isArray(r.notes) &&
+    Array.isArray(r.correlations) &&
+    typeof r.values === "object" &&
+    r.values !== null &&
+    typeof r.inputs === "object" &&
+    r.inputs !== null
+  );
+}
 
 /** What `defineCalculator` takes: a spec whose inputs and outputs may be read-only literals. */
 export interface CalculatorDefinition<Id extends string, N extends string, O extends OutputSpec> extends Omit<CalculatorSpec, "id" | "inputs" | "outputs"> {
@@ -589,6 +605,16 @@ export function runCalculator(specOrId: CalculatorSpec | string, rawGiven: objec
   } else spec = specOrId;
   if (rawGiven === null || typeof rawGiven !== "object" || Array.isArray(rawGiven)) {
     throw new InputError("inputs", rawGiven, `an object of inputs of '${spec.id}' by name (${spec.inputs.map((i) => i.name).join(", ")}) or a film`);
+  }
+  if (isFilmRecord(rawGiven)) {
+    // a film file: the inputs this calculator takes, with the file's uncertainties and correlations
+    // (options.uncertainty may ask for Monte Carlo or add its own); the file's notes come first
+    const fromFile = filmInputsFor(spec, rawGiven);
+    const uncertain = Object.values(fromFile.inputs).some(inUncertainForm);
+    const uncertainty = uncertain || options.uncertainty ? { ...fromFile.uncertainty, ...(options.uncertainty ?? {}) } : undefined;
+    const result = runCalculator(spec, fromFile.inputs, { ...options, ...(uncertainty ? { uncertainty } : {}) });
+    result.notes.unshift(...fromFile.notes);
+    return result;
   }
   if (options.uncertainty !== undefined || Object.values(rawGiven).some(inUncertainForm))
     return runWithUncertainty(spec, rawGiven as Record<string, InputWithUncertainty>, options);

@@ -131,3 +131,34 @@ describe("film files", () => {
     expect(filmInputsFor(getCalculator("wall"), f).notes.join(" ")).toMatch(/does not take: B/);
   }, 120_000);
 });
+
+describe("runCalculator with a film file as its inputs", () => {
+  it("runs the same computation as filmInputsFor + runCalculator, uncertainties and correlations included, with the file's notes first", () => {
+    const zx3 = loadFilm(join(__dirname, "../../../notebooks/data/zx3-film.json"));
+    const direct = runCalculator("wall", zx3);
+    const spec = getCalculator("wall");
+    const viaInputs = filmInputsFor(spec, zx3);
+    const explicit = runCalculator(spec, viaInputs.inputs, { uncertainty: viaInputs.uncertainty });
+    expect(direct.outputs.width.value).toBe(explicit.outputs.width.value);
+    expect(direct.outputs.width.uncertainty).toBe(explicit.outputs.width.uncertainty);
+    expect(direct.uncertainty?.correlations.length).toBeGreaterThan(0);
+    expect(direct.notes[0]).toMatch(/inputs from the film file "Film ZX-3/);
+    // first order for Delta = sqrt(A / K_eff) by hand (JCGM 100:2008 eq. 13, with r(A, Ku)), as in the tests above
+    const A = 15e-12,
+      uA = 1e-12,
+      Ku = 1.2e6,
+      uKu = 0.04e6,
+      Ms = direct.inputs.Ms.value,
+      r = zx3.correlations[0]!.coefficient;
+    const Keff = Ku - (4e-7 * Math.PI * Ms * Ms) / 2;
+    const d = Math.sqrt(A / Keff);
+    const dA = d / (2 * A),
+      dK = -d / (2 * Keff);
+    const u = Math.sqrt((dA * uA) ** 2 + (dK * uKu) ** 2 + 2 * r * dA * dK * uA * uKu);
+    expect(Math.abs(direct.outputs.width.uncertainty! / u - 1)).toBeLessThan(0.02);
+    // Monte Carlo on request keeps the file's correlations
+    const mc = runCalculator("wall", zx3, { uncertainty: { method: "monte-carlo", samples: 2000, seed: 3 } });
+    expect(mc.uncertainty?.method).toBe("monte-carlo");
+    expect(Math.abs(mc.outputs.width.uncertainty! / u - 1)).toBeLessThan(0.1);
+  });
+});
