@@ -149,7 +149,11 @@ describe("helicoid export of an untrusted notebook", () => {
     expect(await page.locator(".hx-image-invalid").count()).toBe(2);
     expect(await page.locator("b.html-widget").textContent()).toBe("kept");
     expect(await page.locator(".widget-output strong").first().textContent()).toBe("5.5 nm");
-    expect(await page.locator("iframe, object, embed, script:not([type])").count()).toBe(1); // the page's own bundle only
+    // the page's own scripts only: its loader, and the bundle parts the loader made from the compressed part tags
+    expect(await page.locator("iframe, object, embed, script:not([type]):not([data-helicoid-part])").count()).toBe(1);
+    const partTags = await page.locator('script[type="application/vnd.helicoid.bundle-part+gzip;base64"]').count();
+    expect(partTags).toBeGreaterThan(0);
+    expect(await page.locator("script[data-helicoid-part]:not([type])").count()).toBe(partTags);
     // The catalogue explorer computes in the page, and again when its B slider moves.
     const ex = '.hx-explorer[data-calculator="wall360"]';
     await page.waitForSelector(`${ex} .hx-plot[data-drawn]`, { timeout: 30_000 });

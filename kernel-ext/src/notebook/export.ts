@@ -105,6 +105,7 @@ const BUNDLE_LOADER = `(async function () {
     });
     for (var k = 0; k < texts.length; k++) {
       var s = document.createElement("script");
+      s.setAttribute("data-helicoid-part", String(k));
       s.textContent = await texts[k];
       var t0 = performance.now();
       document.body.appendChild(s);
