@@ -104,12 +104,21 @@ console.log("{}");
 // runs, before it has loaded its modules); argv[1]: the calculator's inputs
 const WORKER_CHILD = `
 const { Worker } = require("node:worker_threads");
+// the caller as computeInWorker is in the kernel: the library loaded and the inputs read there
+// (argv[2] "caller"), their unit conversions handed to the worker with the job
+const caller = process.argv[2] === "caller";
+let quantities;
+if (caller) {
+  const lib = require(${JSON.stringify(join(root, "lib", "dist", "internal.js"))});
+  lib.coerceInputs(lib.getCalculator("wall"), JSON.parse(process.argv[1]));
+  quantities = lib.knownQuantityConversions();
+}
 const t0 = process.cpuUsage(); const w0 = performance.now();
 const cpu = () => { const c = process.cpuUsage(t0); return (c.user + c.system) / 1000; };
 let onlineCpuMs;
 const w = new Worker(${JSON.stringify(join(root, "kernel-ext", "dist", "parallel", "calculatorWorker.js"))});
 w.once("online", () => { onlineCpuMs = cpu(); });
-w.postMessage({ id: "wall", inputs: JSON.parse(process.argv[1]), options: {} });
+w.postMessage({ id: "wall", inputs: JSON.parse(process.argv[1]), options: {}, ...(caller ? { quantities } : {}) });
 w.once("message", (m) => {
   console.log(JSON.stringify({ cpuMs: cpu(), wallMs: performance.now() - w0, onlineCpuMs, status: m.result ? m.result.status : m.error.message }));
   w.terminate();
@@ -304,13 +313,15 @@ export default async () => {
     goal: verdict(imp.median < 300 && !imports.some((x) => x.mathjs), "< 300 ms, mathjs not loaded for SI numbers"),
   });
 
-  for (const [label, inputs] of [
-    ["SI numbers", { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9 }],
-    ["units", { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" }],
+  const withUnits = { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m^2", t: "1 nm" };
+  for (const [label, inputs, mode] of [
+    ["SI numbers", { Ms: 1.1e6, A: 15e-12, Ku: 1.2e6, D: 1.5e-3, t: 1e-9 }, "alone"],
+    ["units, the worker alone (it builds mathjs)", withUnits, "alone"],
+    ["units, as computeInWorker sends them (the caller's conversions with the job)", withUnits, "caller"],
   ]) {
     const workers = [];
     for (let i = 0; i < RUNS; i++) {
-      const r = spawnSync(process.execPath, ["-e", WORKER_CHILD, JSON.stringify(inputs)], { encoding: "utf8" });
+      const r = spawnSync(process.execPath, ["-e", WORKER_CHILD, JSON.stringify(inputs), mode], { encoding: "utf8" });
       if (r.status !== 0) throw new Error(`worker child failed: ${r.stderr}`);
       const w = JSON.parse(r.stdout);
       if (w.status !== "ok") throw new Error(`worker answered ${r.stdout}`);

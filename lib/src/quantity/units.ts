@@ -60,6 +60,34 @@ export function parseQuantity(name: string, raw: QuantityInput, siUnit: string):
     if (!Number.isFinite(v)) throw new InputError(name, raw, `a finite number in ${siUnit || "no unit"}`);
     return v;
   }
+  const key = `${siUnit}\u0000${raw.trim()}`;
+  const known = knownQuantities.get(key);
+  if (known !== undefined) return known;
+  const v = parseWithUnit(name, raw, siUnit);
+  if (knownQuantities.size >= KNOWN_QUANTITIES_MAX) knownQuantities.clear();
+  knownQuantities.set(key, v);
+  return v;
+}
+
+/**
+ * Conversions already made in this thread, by SI unit and text ("15 pJ/m" in J/m): the units are
+ * fixed once mathjs is set up, so a text always converts to the same number. A worker thread is
+ * handed its caller's (`learnQuantities`) and then never builds mathjs for the same inputs.
+ */
+const knownQuantities = new Map<string, number>();
+const KNOWN_QUANTITIES_MAX = 4096;
+
+/** The conversions this thread has made (for a worker thread: see `learnQuantities`). */
+export function knownQuantityConversions(): Array<[string, number]> {
+  return [...knownQuantities];
+}
+
+/** Adopt conversions made by another thread of this library (finite numbers only). */
+export function learnQuantities(entries: ReadonlyArray<readonly [string, number]>): void {
+  for (const [k, v] of entries.slice(0, KNOWN_QUANTITIES_MAX)) if (typeof k === "string" && Number.isFinite(v)) knownQuantities.set(k, v);
+}
+
+function parseWithUnit(name: string, raw: string, siUnit: string): number {
   const dimensionless = siUnit === "" || siUnit === "1";
   let parsed: Unit;
   try {

@@ -185,4 +185,34 @@ describe("mathjs is loaded only when a unit must be parsed", () => {
     walk(src);
     expect(offenders).toEqual([]);
   });
+
+  it("a thread handed another's unit conversions (computeInWorker's worker) reads those inputs without loading mathjs, to the same numbers", () => {
+    const inputs = { Ms: "1.1 MA/m", A: "15 pJ/m", Ku: "1.2 MJ/m^3", D: "1.5 mJ/m²", t: "1 nm" };
+    // the caller's thread: reads the inputs (mathjs loaded there) and gives its conversions
+    const caller = child(`
+      const r = lib.runCalculator("wall", ${JSON.stringify(inputs)});
+      return { conversions: lib.knownQuantityConversions(), width: r.outputs.width.value, notes: r.notes };
+    `);
+    expect(caller.cached).toBe(true);
+    const given = caller.out as { conversions: Array<[string, number]>; width: number; notes: string[] };
+    expect(given.conversions.length).toBe(5);
+    // a fresh thread with them: the same result, no mathjs
+    const worker = child(`
+      lib.learnQuantities(${JSON.stringify(given.conversions)});
+      const r = lib.runCalculator("wall", ${JSON.stringify(inputs)});
+      return { width: r.outputs.width.value, notes: r.notes };
+    `);
+    expect(worker.loads).toEqual([]);
+    expect(worker.cached).toBe(false);
+    expect(worker.out).toEqual({ width: given.width, notes: given.notes });
+    // Common practice, no source: 15 pJ/m is 1.5e-11 J/m
+    expect(given.conversions.find(([k]) => k.startsWith("J/m\u0000"))?.[1]).toBeCloseTo(1.5e-11, 25);
+    // a text the thread was not handed still loads mathjs and is read as before
+    const other = child(`
+      lib.learnQuantities(${JSON.stringify(given.conversions)});
+      return lib.parseQuantity("A", "16 pJ/m", "J/m");
+    `);
+    expect(other.cached).toBe(true);
+    expect(other.out).toBeCloseTo(1.6e-11, 25);
+  });
 });
