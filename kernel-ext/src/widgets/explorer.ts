@@ -33,6 +33,7 @@ import {
   withUncertainties,
 } from "@helicoid/lib";
 import type { Film, FilmRecord, InputCorrelation, InputWithUncertainty, QuantityInput, SweepRange } from "@helicoid/lib";
+import { isFilmRecord } from "@helicoid/lib/internal";
 import { KERNEL_VERSION } from "../version.js";
 import { Widget, type WidgetState } from "./widget.js";
 import { ourModel } from "./ourModel.js";
@@ -78,11 +79,6 @@ export interface ExploreOptions {
   describe?: FunctionDescription;
   /** Correlations between inputs given with uncertainties (a film file's are read from it). */
   correlations?: InputCorrelation[];
-}
-
-/** A film file read by `loadFilm` / `parseFilmFile` (not a `Film` from `makeFilm`). */
-function isFilmRecord(v: unknown): v is FilmRecord {
-  return typeof v === "object" && v !== null && "inputs" in v && "values" in v && "correlations" in v && "dmi" in v;
 }
 
 type PlainFunction = (inputs: InputValues) => Record<string, number | number[] | string> | ComputeOutput;

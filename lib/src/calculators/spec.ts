@@ -8,7 +8,7 @@ import { formatQuantity, isPlainNumber, parseQuantity, type QuantityInput } from
 import { inUncertainForm, runWithUncertainty, type InputWithUncertainty, type UncertaintyOptions, type UncertaintyReport } from "./uncertainty.js";
 import type { DocumentedResult, Quantity } from "../result.js";
 import type { CatalogueSpec } from "./catalogue.js";
-import { filmInputsFor, type FilmRecord } from "../material/filmFile.js";
+import { filmInputsFor, isFilmRecord, type FilmRecord } from "../material/filmFile.js";
 
 /** One input of a calculator. All numbers are SI in `unit`. */
 export interface InputSpec<N extends string = string> {
@@ -274,20 +274,6 @@ export interface FilmFieldsInInputs {
  * and so is a film file as `loadFilm` reads it (its uncertainties and correlations carried through).
  */
 export type CalculatorInputs<S> = string extends InputNamesOf<S> ? object : ({ [K in InputNamesOf<S>]?: InputWithUncertainty } & FilmFieldsInInputs) | FilmRecord;
-
-/** A film file as `loadFilm` reads it (not a plain inputs object that happens to have such names). */
-function isFilmRecord(x: object): x is FilmRecord {
-  const r = x as Partial<FilmRecord>;
-  return (
-    typeof r.name === "string" &&
-    Array.isArray(r.notes) &&
-    Array.isArray(r.correlations) &&
-    typeof r.values === "object" &&
-    r.values !== null &&
-    typeof r.inputs === "object" &&
-    r.inputs !== null
-  );
-}
 
 /** What `defineCalculator` takes: a spec whose inputs and outputs may be read-only literals. */
 export interface CalculatorDefinition<Id extends string, N extends string, O extends OutputSpec> extends Omit<CalculatorSpec, "id" | "inputs" | "outputs"> {

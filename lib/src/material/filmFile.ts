@@ -180,12 +180,21 @@ function readCorrelations(raw: unknown, values: Record<string, FilmFileValue>, s
   });
 }
 
+/** A film file as `loadFilm` / `parseFilmFile` read it (not a `Film` from `makeFilm`, nor plain inputs). */
+export function isFilmRecord(v: unknown): v is FilmRecord {
+  if (typeof v !== "object" || v === null) return false;
+  const r = v as Partial<FilmRecord>;
+  return (
+    typeof r.values === "object" && r.values !== null && typeof r.inputs === "object" && r.inputs !== null && Array.isArray(r.correlations) && Array.isArray(r.notes) && "dmi" in r
+  );
+}
+
 /** The JSON text of a film file (values as given; SI numbers written with their unit, full precision). */
 export function filmFileText(film: FilmToSave, meta: { name?: string; notes?: string | string[] } = {}): string {
   const doc: Record<string, unknown> = { format: FILM_FORMAT, version: FILM_FORMAT_VERSION };
   const si = (v: number, unit: string) => (unit ? `${v} ${unit}` : v);
-  if ("values" in film && "inputs" in film && "correlations" in film && "dmi" in film && Array.isArray(film.notes)) {
-    const r = film as FilmRecord;
+  if (isFilmRecord(film)) {
+    const r = film;
     doc.name = r.name;
     doc.notes = r.notes;
     doc.values = { ...r.inputs, dmi: r.dmi };
